@@ -1,0 +1,37 @@
+/** The four roles of a coating shop that sign in to Quietglass. */
+export const ROLES = ['admin', 'engineer', 'sales', 'operator'] as const;
+export type Role = (typeof ROLES)[number];
+
+/** True when `value` is one of the known roles. */
+export function isRole(value: unknown): value is Role {
+  return typeof value === 'string' && (ROLES as readonly string[]).includes(value);
+}
+
+/** Signed-in user as the API returns it (never with a password hash). */
+export interface UserView {
+  id: number;
+  email: string;
+  displayName: string;
+  role: Role;
+  active: boolean;
+  createdAt: string;
+}
+
+/** Sections of the app shell, and which roles may open each. The API enforces the same rules. */
+export const NAV_SECTIONS = [
+  { key: 'designs', label: 'Stack designs', path: '/designs', roles: ['admin', 'engineer', 'sales'] },
+  { key: 'materials', label: 'Materials', path: '/materials', roles: ['admin', 'engineer'] },
+  { key: 'masks', label: 'Spec masks', path: '/spec-masks', roles: ['admin', 'engineer', 'sales'] },
+  { key: 'queue', label: 'Compute queue', path: '/compute-queue', roles: ['admin', 'engineer'] },
+  { key: 'recipes', label: 'Released recipes', path: '/recipes', roles: ['admin', 'engineer', 'operator'] },
+  { key: 'runs', label: 'Chamber runs', path: '/runs', roles: ['admin', 'engineer', 'operator'] },
+  { key: 'quotes', label: 'Quotes', path: '/quotes', roles: ['admin', 'sales'] },
+  { key: 'users', label: 'Users', path: '/admin/users', roles: ['admin'] },
+] as const satisfies readonly { key: string; label: string; path: string; roles: readonly Role[] }[];
+
+export type NavSection = (typeof NAV_SECTIONS)[number];
+
+/** Navigation sections a role may use, in display order. */
+export function navSectionsFor(role: Role): NavSection[] {
+  return NAV_SECTIONS.filter((s) => (s.roles as readonly Role[]).includes(role));
+}
