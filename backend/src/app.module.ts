@@ -1,0 +1,29 @@
+import { Module } from '@nestjs/common';
+import { ConfigModule } from '@nestjs/config';
+import { ThrottlerModule } from '@nestjs/throttler';
+import { TypeOrmModule } from '@nestjs/typeorm';
+import { appConfig, type AppConfig } from './config/configuration.js';
+import { dataSourceOptions } from './database/data-source.js';
+import { AuthModule } from './auth/auth.module.js';
+import { HealthModule } from './health/health.module.js';
+import { UsersModule } from './users/users.module.js';
+
+@Module({
+  imports: [
+    ConfigModule.forRoot({ isGlobal: true, ignoreEnvFile: true, load: [appConfig] }),
+    TypeOrmModule.forRootAsync({
+      inject: [appConfig.KEY],
+      useFactory: (config: AppConfig) => dataSourceOptions(config.databaseUrl),
+    }),
+    ThrottlerModule.forRootAsync({
+      inject: [appConfig.KEY],
+      useFactory: (config: AppConfig) => ({
+        throttlers: [{ name: 'sign-in', limit: config.signInLimit, ttl: config.signInWindowMs }],
+      }),
+    }),
+    AuthModule,
+    UsersModule,
+    HealthModule,
+  ],
+})
+export class AppModule {}

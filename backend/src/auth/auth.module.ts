@@ -1,0 +1,29 @@
+import { Module } from '@nestjs/common';
+import { APP_GUARD } from '@nestjs/core';
+import { JwtModule } from '@nestjs/jwt';
+import { appConfig, type AppConfig } from '../config/configuration.js';
+import { UsersModule } from '../users/users.module.js';
+import { AuthController } from './auth.controller.js';
+import { AuthService } from './auth.service.js';
+import { RolesGuard } from './roles.guard.js';
+import { SessionGuard } from './session.guard.js';
+
+@Module({
+  imports: [
+    UsersModule,
+    JwtModule.registerAsync({
+      inject: [appConfig.KEY],
+      useFactory: (config: AppConfig) => ({
+        secret: config.jwtSecret,
+        signOptions: { expiresIn: config.jwtTtlSeconds },
+      }),
+    }),
+  ],
+  controllers: [AuthController],
+  providers: [
+    AuthService,
+    { provide: APP_GUARD, useClass: SessionGuard },
+    { provide: APP_GUARD, useClass: RolesGuard },
+  ],
+})
+export class AuthModule {}

@@ -1,0 +1,12 @@
+import { createParamDecorator, type ExecutionContext } from '@nestjs/common';
+import type { Request } from 'express';
+import type { User } from '../users/user.entity.js';
+
+export type AuthedRequest = Request & { user?: User };
+
+/** The signed-in user, as loaded by the session guard. */
+export const CurrentUser = createParamDecorator((_data: unknown, ctx: ExecutionContext): User => {
+  const req = ctx.switchToHttp().getRequest<AuthedRequest>();
+  if (!req.user) throw new Error('CurrentUser used on a public route');
+  return req.user;
+});

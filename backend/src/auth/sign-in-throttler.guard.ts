@@ -1,0 +1,12 @@
+import { Injectable } from '@nestjs/common';
+import { ThrottlerGuard } from '@nestjs/throttler';
+
+/** Counts sign-in attempts per client address and e-mail, so one user's typos do not lock out a shop. */
+@Injectable()
+export class SignInThrottlerGuard extends ThrottlerGuard {
+  protected override async getTracker(req: Record<string, unknown>): Promise<string> {
+    const body = req.body as { email?: unknown } | undefined;
+    const email = typeof body?.email === 'string' ? body.email.trim().toLowerCase() : '';
+    return `${String(req.ip)}|${email}`;
+  }
+}

@@ -1,0 +1,68 @@
+import { ArgumentsHost, Catch, ExceptionFilter, HttpException, HttpStatus, Logger } from '@nestjs/common';
+import type { Response } from 'express';
+
+/** The one error shape of the API. */
+export interface ErrorBody {
+  statusCode: number;
+  error: string;
+  message: string;
+  details?: string[];
+}
+
+const REASONS: Record<number, string> = {
+  400: 'Bad Request',
+  401: 'Unauthorized',
+  403: 'Forbidden',
+  404: 'Not Found',
+  409: 'Conflict',
+  413: 'Payload Too Large',
+  429: 'Too Many Requests',
+  500: 'Internal Server Error',
+};
+
+/** Turns every error into ErrorBody; unexpected errors are logged and shown without internals. */
+@Catch()
+export class AllExceptionsFilter implements ExceptionFilter {
+  private readonly logger = new Logger('Errors');
+
+  catch(exception: unknown, host: ArgumentsHost): void {
+    const res = host.switchToHttp().getResponse<Response>();
+    const body = toErrorBody(exception);
+    if (body.statusCode >= 500) {
+      this.logger.error(
+        exception instanceof Error ? (exception.stack ?? exception.message) : String(exception),
+      );
+    }
+    res.status(body.statusCode).json(body);
+  }
+}
+
+export function toErrorBody(exception: unknown): ErrorBody {
+  if (exception instanceof HttpException) {
+    const statusCode = exception.getStatus();
+    const response = exception.getResponse();
+    const error = REASONS[statusCode] ?? 'Error';
+    if (statusCode === HttpStatus.TOO_MANY_REQUESTS) {
+      return { statusCode, error, message: 'Too many attempts; wait a minute and try again' };
+    }
+    if (statusCode === HttpStatus.PAYLOAD_TOO_LARGE) {
+      return { statusCode, error, message: 'The request body is too large' };
+    }
+    // The platform maps a body that fails to parse to a 400 whose cause is the SyntaxError.
+    if (exception.cause instanceof SyntaxError) {
+      return { statusCode, error, message: 'The request body is not valid JSON' };
+    }
+    if (typeof response === 'string') return { statusCode, error, message: response };
+    const raw = (response as { message?: unknown }).message;
+    if (Array.isArray(raw)) {
+      const details = raw.map(String);
+      return { statusCode, error, message: `Invalid input: ${details.join('; ')}`, details };
+    }
+    return { statusCode, error, message: typeof raw === 'string' ? raw : exception.message };
+  }
+  return {
+    statusCode: 500,
+    error: REASONS[500],
+    message: 'Something went wrong on the server; it has been logged',
+  };
+}

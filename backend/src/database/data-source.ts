@@ -1,0 +1,29 @@
+import 'reflect-metadata';
+import { DataSource, type DataSourceOptions } from 'typeorm';
+import { User } from '../users/user.entity.js';
+import { CreateUsers1764633600000 } from '../migrations/1764633600000-create-users.js';
+
+/** Every entity of the app; each domain module also registers its own with forFeature. */
+export const ENTITIES = [User];
+
+/** Every migration, in order. Listed explicitly so the same list works from src (tests) and dist. */
+export const MIGRATIONS = [CreateUsers1764633600000];
+
+/** TypeORM options for PostgreSQL; never `synchronize` — the schema comes from migrations. */
+export function dataSourceOptions(databaseUrl: string): DataSourceOptions {
+  return {
+    type: 'postgres',
+    url: databaseUrl,
+    entities: ENTITIES,
+    migrations: MIGRATIONS,
+    migrationsTableName: 'schema_migrations',
+    synchronize: false,
+    migrationsRun: false,
+    logging: ['error', 'warn'],
+  };
+}
+
+/** A DataSource for the TypeORM CLI and scripts (reads DATABASE_URL). */
+export default new DataSource(
+  dataSourceOptions(process.env.DATABASE_URL ?? 'postgres://localhost/quietglass'),
+);

@@ -1,0 +1,20 @@
+import { Transform } from 'class-transformer';
+import { IsBoolean, IsIn, IsOptional, IsString, MaxLength, MinLength } from 'class-validator';
+import { ROLES, type Role } from '@quietglass/shared';
+
+export class UpdateUserDto {
+  @IsOptional()
+  @Transform(({ value }) => (typeof value === 'string' ? value.trim() : value))
+  @IsString()
+  @MinLength(1, { message: 'displayName must not be empty' })
+  @MaxLength(120)
+  displayName?: string;
+
+  @IsOptional()
+  @IsIn(ROLES, { message: `role must be one of ${ROLES.join(', ')}` })
+  role?: Role;
+
+  @IsOptional()
+  @IsBoolean()
+  active?: boolean;
+}

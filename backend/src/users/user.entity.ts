@@ -1,0 +1,42 @@
+import { Column, CreateDateColumn, Entity, PrimaryGeneratedColumn, UpdateDateColumn } from 'typeorm';
+import type { Role, UserView } from '@quietglass/shared';
+
+@Entity({ name: 'users' })
+export class User {
+  @PrimaryGeneratedColumn()
+  id: number;
+
+  /** Stored lower-case; unique. */
+  @Column({ type: 'varchar', length: 254, unique: true })
+  email: string;
+
+  @Column({ name: 'display_name', type: 'varchar', length: 120 })
+  displayName: string;
+
+  @Column({ type: 'varchar', length: 16 })
+  role: Role;
+
+  @Column({ name: 'password_hash', type: 'varchar', length: 100 })
+  passwordHash: string;
+
+  @Column({ type: 'boolean', default: true })
+  active: boolean;
+
+  @CreateDateColumn({ name: 'created_at', type: 'timestamptz' })
+  createdAt: Date;
+
+  @UpdateDateColumn({ name: 'updated_at', type: 'timestamptz' })
+  updatedAt: Date;
+}
+
+/** The user as the API shows it: never the password hash. */
+export function toUserView(user: User): UserView {
+  return {
+    id: user.id,
+    email: user.email,
+    displayName: user.displayName,
+    role: user.role,
+    active: user.active,
+    createdAt: user.createdAt.toISOString(),
+  };
+}

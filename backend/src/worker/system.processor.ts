@@ -1,0 +1,13 @@
+import os from 'node:os';
+import { Processor, WorkerHost } from '@nestjs/bullmq';
+import type { Job } from 'bullmq';
+import { PING_JOB, SYSTEM_QUEUE, type PingResult } from '../queue/queue.constants.js';
+
+/** Answers housekeeping jobs; a ping proves to the API's health check that a worker is alive. */
+@Processor(SYSTEM_QUEUE)
+export class SystemProcessor extends WorkerHost {
+  async process(job: Job): Promise<PingResult> {
+    if (job.name !== PING_JOB) throw new Error(`Unknown system job "${job.name}"`);
+    return { workerPid: process.pid, host: os.hostname(), answeredAt: new Date().toISOString() };
+  }
+}

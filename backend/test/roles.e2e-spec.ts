@@ -1,0 +1,167 @@
+import type { NestExpressApplication } from '@nestjs/platform-express';
+import request from 'supertest';
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { ROLES, type Role } from '@quietglass/shared';
+import { createTestApp, sessionCookie } from './support/app.js';
+import { demoSignIn } from './support/env.js';
+
+/**
+ * Every API route, who may use it, and what a permitted call returns. A route missing here fails
+ * the completeness check below, so no route can ship without its role rule being tested.
+ */
+interface RouteRule {
+  method: 'get' | 'post' | 'patch' | 'delete' | 'put';
+  path: string;
+  /** 'public' routes need no session; otherwise the roles allowed. */
+  allow: 'public' | readonly Role[];
+  okStatus: number;
+  /** Request for a permitted caller; gets a context with ids made in beforeAll. */
+  body?: (ctx: MatrixContext, role: Role | 'anonymous') => object;
+  /** Concrete path (for :id routes). */
+  url?: (ctx: MatrixContext) => string;
+}
+
+interface MatrixContext {
+  targetUserId: number;
+  passwords: Record<Role, string>;
+  counter: number;
+}
+
+const ALL: readonly Role[] = ROLES;
+
+const RULES: RouteRule[] = [
+  { method: 'get', path: '/api/health', allow: 'public', okStatus: 200 },
+  {
+    method: 'post',
+    path: '/api/auth/sign-in',
+    allow: 'public',
+    okStatus: 200,
+    body: () => ({ email: demoSignIn('sales').email, password: demoSignIn('sales').password }),
+  },
+  { method: 'post', path: '/api/auth/sign-out', allow: 'public', okStatus: 204 },
+  { method: 'get', path: '/api/auth/me', allow: ALL, okStatus: 200 },
+  {
+    method: 'post',
+    path: '/api/auth/password',
+    allow: ALL,
+    okStatus: 204,
+    body: (ctx, role) => {
+      if (role === 'anonymous') return { currentPassword: 'x', newPassword: 'long-enough-password' };
+      const current = ctx.passwords[role];
+      ctx.passwords[role] = `${current}-next`;
+      return { currentPassword: current, newPassword: ctx.passwords[role] };
+    },
+  },
+  { method: 'get', path: '/api/users', allow: ['admin'], okStatus: 200 },
+  {
+    method: 'post',
+    path: '/api/users',
+    allow: ['admin'],
+    okStatus: 201,
+    body: (ctx) => ({
+      email: `matrix-new-${(ctx.counter += 1)}@larkspur.example`,
+      displayName: 'Matrix New',
+      role: 'sales',
+      password: 'long-enough-password',
+    }),
+  },
+  {
+    method: 'patch',
+    path: '/api/users/:id',
+    allow: ['admin'],
+    okStatus: 200,
+    url: (ctx) => `/api/users/${ctx.targetUserId}`,
+    body: () => ({ displayName: 'Matrix Target Renamed' }),
+  },
+  {
+    method: 'post',
+    path: '/api/users/:id/password',
+    allow: ['admin'],
+    okStatus: 204,
+    url: (ctx) => `/api/users/${ctx.targetUserId}/password`,
+    body: () => ({ newPassword: 'another-long-password' }),
+  },
+];
+
+let app: NestExpressApplication;
+const cookies = {} as Record<Role, string>;
+const ctx: MatrixContext = { targetUserId: 0, passwords: {} as Record<Role, string>, counter: 0 };
+
+beforeAll(async () => {
+  app = await createTestApp();
+  const admin = demoSignIn('admin');
+  const adminCookie = await sessionCookie(app, admin.email, admin.password);
+  // One fresh user per role, so the matrix may change their passwords without touching the demo users.
+  for (const role of ROLES) {
+    const email = `matrix-${role}@larkspur.example`;
+    const password = `matrix-${role}-password`;
+    const res = await request(app.getHttpServer())
+      .post('/api/users')
+      .set('Cookie', adminCookie)
+      .send({ email, displayName: `Matrix ${role}`, role, password });
+    expect(res.status).toBe(201);
+    ctx.passwords[role] = password;
+    cookies[role] = await sessionCookie(app, email, password);
+  }
+  const target = await request(app.getHttpServer())
+    .post('/api/users')
+    .set('Cookie', adminCookie)
+    .send({
+      email: 'matrix-target@larkspur.example',
+      displayName: 'Matrix Target',
+      role: 'operator',
+      password: 'long-enough-password',
+    });
+  ctx.targetUserId = target.body.id;
+});
+
+afterAll(async () => {
+  await app.close();
+});
+
+function call(rule: RouteRule, cookie?: string, role: Role | 'anonymous' = 'anonymous') {
+  const url = rule.url ? rule.url(ctx) : rule.path;
+  let req = request(app.getHttpServer())[rule.method](url);
+  if (cookie) req = req.set('Cookie', cookie);
+  return rule.body ? req.send(rule.body(ctx, role)) : req;
+}
+
+describe('role × route matrix', () => {
+  for (const rule of RULES) {
+    describe(`${rule.method.toUpperCase()} ${rule.path}`, () => {
+      it(rule.allow === 'public' ? `anonymous gets ${rule.okStatus}` : 'anonymous gets 401', async () => {
+        const res = await call(rule);
+        expect(res.status).toBe(rule.allow === 'public' ? rule.okStatus : 401);
+      });
+      for (const role of ROLES) {
+        const allowed = rule.allow === 'public' || rule.allow.includes(role);
+        it(`${role} gets ${allowed ? rule.okStatus : 403}`, async () => {
+          const res = await call(rule, cookies[role], role);
+          expect(res.status).toBe(allowed ? rule.okStatus : 403);
+          if (!allowed) expect(res.body.message).toMatch(/needs the role/);
+        });
+      }
+    });
+  }
+
+  it('covers every route the API registers', () => {
+    const registered = registeredRoutes(app).sort();
+    const covered = RULES.map((r) => `${r.method.toUpperCase()} ${r.path}`).sort();
+    expect(registered).toEqual(covered);
+  });
+});
+
+/** Method and path of every route on the underlying Express router. */
+function registeredRoutes(nest: NestExpressApplication): string[] {
+  const express = nest.getHttpAdapter().getInstance() as {
+    router: { stack: { route?: { path: string; methods: Record<string, boolean> } }[] };
+  };
+  const out: string[] = [];
+  for (const layer of express.router.stack) {
+    if (!layer.route) continue;
+    for (const [method, on] of Object.entries(layer.route.methods)) {
+      if (on && method !== '_all') out.push(`${method.toUpperCase()} ${layer.route.path}`);
+    }
+  }
+  return out;
+}

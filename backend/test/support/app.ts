@@ -1,0 +1,39 @@
+import 'reflect-metadata';
+import type { INestApplication } from '@nestjs/common';
+import type { NestExpressApplication } from '@nestjs/platform-express';
+import { Test } from '@nestjs/testing';
+import request from 'supertest';
+import { AppModule } from '../../src/app.module.js';
+import { configureApp } from '../../src/app.setup.js';
+import type { Role } from '@quietglass/shared';
+import { demoSignIn, requireE2eEnv } from './env.js';
+
+/** The real API module on the real database and Redis, as main.ts configures it (no client). */
+export async function createTestApp(): Promise<NestExpressApplication> {
+  requireE2eEnv();
+  const moduleRef = await Test.createTestingModule({ imports: [AppModule] }).compile();
+  const app = moduleRef.createNestApplication<NestExpressApplication>({
+    bodyParser: false,
+    logger: ['error'],
+  });
+  configureApp(app, null);
+  await app.init();
+  return app;
+}
+
+/** Signs in and returns the session cookie header to send with later requests. */
+export async function sessionCookie(app: INestApplication, email: string, password: string): Promise<string> {
+  const res = await request(app.getHttpServer()).post('/api/auth/sign-in').send({ email, password });
+  if (res.status !== 200)
+    throw new Error(`sign-in as ${email} gave ${res.status}: ${JSON.stringify(res.body)}`);
+  const cookie = ([] as string[])
+    .concat(res.headers['set-cookie'] ?? [])
+    .find((c) => c.startsWith('qg_session='));
+  if (!cookie) throw new Error('sign-in set no qg_session cookie');
+  return cookie.split(';')[0];
+}
+
+export async function demoSession(app: INestApplication, role: Role, index = 0): Promise<string> {
+  const demo = demoSignIn(role, index);
+  return sessionCookie(app, demo.email, demo.password);
+}

@@ -1,0 +1,159 @@
+import type { NestExpressApplication } from '@nestjs/platform-express';
+import request from 'supertest';
+import { DataSource } from 'typeorm';
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { createTestApp, demoSession, sessionCookie } from './support/app.js';
+import { demoSignIn } from './support/env.js';
+
+let app: NestExpressApplication;
+let admin: string;
+
+beforeAll(async () => {
+  app = await createTestApp();
+  admin = await demoSession(app, 'admin');
+});
+afterAll(async () => {
+  await app.close();
+});
+
+const http = () => request(app.getHttpServer());
+const userCount = async () =>
+  Number((await app.get(DataSource).query('SELECT count(*) AS n FROM users'))[0].n);
+
+describe('users (admin)', () => {
+  it('lists every user without password hashes', async () => {
+    const res = await http().get('/api/users').set('Cookie', admin);
+    expect(res.status).toBe(200);
+    const emails = (res.body as { email: string }[]).map((u) => u.email);
+    expect(emails).toEqual(expect.arrayContaining([demoSignIn('admin').email, demoSignIn('operator').email]));
+    for (const u of res.body) expect(u).not.toHaveProperty('passwordHash');
+  });
+
+  it('creates a user, stores the e-mail lower-case and refuses a duplicate with 409', async () => {
+    const body = {
+      email: 'New.Operator@Larkspur.example',
+      displayName: 'Noor Ahn',
+      role: 'operator',
+      password: 'a-long-password',
+    };
+    const res = await http().post('/api/users').set('Cookie', admin).send(body);
+    expect(res.status).toBe(201);
+    expect(res.body).toMatchObject({
+      email: 'new.operator@larkspur.example',
+      role: 'operator',
+      active: true,
+    });
+    const before = await userCount();
+    const dup = await http().post('/api/users').set('Cookie', admin).send(body);
+    expect(dup.status).toBe(409);
+    expect(dup.body.message).toBe('A user with e-mail new.operator@larkspur.example already exists');
+    expect(await userCount()).toBe(before);
+  });
+
+  it.each([
+    [
+      { email: 'not-an-email', displayName: 'X', role: 'engineer', password: 'long-enough-pw' },
+      'email must be a valid e-mail address',
+    ],
+    [
+      { email: 'a@larkspur.example', displayName: 'X', role: 'wizard', password: 'long-enough-pw' },
+      'role must be one of admin, engineer, sales, operator',
+    ],
+    [
+      { email: 'a@larkspur.example', displayName: 'X', role: 'engineer', password: 'short' },
+      'password must be at least 10 characters',
+    ],
+    [
+      { email: 'a@larkspur.example', displayName: '   ', role: 'engineer', password: 'long-enough-pw' },
+      'displayName must not be empty',
+    ],
+  ])('rejects %j with 400 and writes nothing', async (body, detail) => {
+    const before = await userCount();
+    const res = await http().post('/api/users').set('Cookie', admin).send(body);
+    expect(res.status).toBe(400);
+    expect(res.body.details).toContain(detail);
+    expect(await userCount()).toBe(before);
+  });
+
+  it('changes a role; the change applies to the user’s existing session at once', async () => {
+    const created = await http()
+      .post('/api/users')
+      .set('Cookie', admin)
+      .send({
+        email: 'role-change@larkspur.example',
+        displayName: 'Ray Change',
+        role: 'sales',
+        password: 'a-long-password',
+      });
+    const cookie = await sessionCookie(app, 'role-change@larkspur.example', 'a-long-password');
+    expect((await http().get('/api/users').set('Cookie', cookie)).status).toBe(403);
+    const patched = await http()
+      .patch(`/api/users/${created.body.id}`)
+      .set('Cookie', admin)
+      .send({ role: 'admin' });
+    expect(patched.status).toBe(200);
+    expect(patched.body.role).toBe('admin');
+    expect((await http().get('/api/users').set('Cookie', cookie)).status).toBe(200);
+  });
+
+  it('deactivating a user ends their session and refuses their sign-in with the usual message', async () => {
+    const created = await http()
+      .post('/api/users')
+      .set('Cookie', admin)
+      .send({
+        email: 'leaver@larkspur.example',
+        displayName: 'Lee Ver',
+        role: 'engineer',
+        password: 'a-long-password',
+      });
+    const cookie = await sessionCookie(app, 'leaver@larkspur.example', 'a-long-password');
+    const off = await http()
+      .patch(`/api/users/${created.body.id}`)
+      .set('Cookie', admin)
+      .send({ active: false });
+    expect(off.status).toBe(200);
+    expect(off.body.active).toBe(false);
+    expect((await http().get('/api/auth/me').set('Cookie', cookie)).status).toBe(401);
+    const again = await http()
+      .post('/api/auth/sign-in')
+      .send({ email: 'leaver@larkspur.example', password: 'a-long-password' });
+    expect(again.status).toBe(401);
+    expect(again.body.message).toBe('Wrong e-mail or password.');
+  });
+
+  it('an admin cannot demote or deactivate themselves', async () => {
+    const me = (await http().get('/api/auth/me').set('Cookie', admin)).body.user;
+    const demote = await http().patch(`/api/users/${me.id}`).set('Cookie', admin).send({ role: 'sales' });
+    expect(demote.status).toBe(409);
+    const off = await http().patch(`/api/users/${me.id}`).set('Cookie', admin).send({ active: false });
+    expect(off.status).toBe(409);
+    const still = await http().get('/api/auth/me').set('Cookie', admin);
+    expect(still.body.user).toMatchObject({ role: 'admin', active: true });
+  });
+
+  it('resets a password; 404 for an unknown user; 400 for a non-numeric id', async () => {
+    const created = await http()
+      .post('/api/users')
+      .set('Cookie', admin)
+      .send({
+        email: 'forgetful@larkspur.example',
+        displayName: 'Fay Got',
+        role: 'sales',
+        password: 'a-long-password',
+      });
+    const reset = await http()
+      .post(`/api/users/${created.body.id}/password`)
+      .set('Cookie', admin)
+      .send({ newPassword: 'brand-new-password' });
+    expect(reset.status).toBe(204);
+    await sessionCookie(app, 'forgetful@larkspur.example', 'brand-new-password');
+    const missing = await http()
+      .patch('/api/users/999999')
+      .set('Cookie', admin)
+      .send({ displayName: 'Ghost' });
+    expect(missing.status).toBe(404);
+    expect(missing.body.message).toBe('User 999999 does not exist');
+    const bad = await http().patch('/api/users/abc').set('Cookie', admin).send({ displayName: 'Ghost' });
+    expect(bad.status).toBe(400);
+  });
+});
