@@ -136,13 +136,33 @@ function pgRunner() {
 }
 
 /**
+ * The postgres system user must be able to enter the data folder (every parent needs o+x). When
+ * the project sits in a folder closed to other users, the server's files go to a folder of the
+ * system's temporary directory named after the project's path instead, and we say so.
+ */
+function reachableByPostgres(dir) {
+  fs.mkdirSync(dir, { recursive: true });
+  runChecked('chown', ['postgres', dir]);
+  if (run('runuser', ['-u', 'postgres', '--', 'test', '-w', dir]).status === 0) return dir;
+  const fallback = path.join(os.tmpdir(), `quietglass-pg-${createHash('sha256').update(dir).digest('hex').slice(0, 12)}`);
+  fs.mkdirSync(fallback, { recursive: true, mode: 0o755 });
+  runChecked('chown', ['postgres', fallback]);
+  if (run('runuser', ['-u', 'postgres', '--', 'test', '-w', fallback]).status !== 0) {
+    throw new StartupError(`The postgres system user can write neither to ${dir} nor to ${fallback}; set QG_DATA_DIR.`);
+  }
+  log(`the postgres system user cannot enter ${dir}; keeping PostgreSQL's files in ${fallback}`);
+  return fallback;
+}
+
+/**
  * Start (or reuse) a PostgreSQL server on 127.0.0.1:port with its data in `dir`.
  * Returns { url, startedHere, stop() }.
  */
-export async function startPostgres({ dir, port, database, user = 'quietglass' }) {
+export async function startPostgres({ dir: wantedDir, port, database, user = 'quietglass' }) {
   const bin = findPostgresBin();
   if (!bin) throw new StartupError('PostgreSQL server binaries not found (Debian package postgresql).');
   const runner = pgRunner();
+  const dir = isRoot ? reachableByPostgres(wantedDir) : wantedDir;
   const dataDir = path.join(dir, 'pgdata');
   const sockDir = path.join(dir, 'pgsock');
   const password = readOrCreateSecret(path.join(dir, 'pg-password'));
@@ -150,13 +170,6 @@ export async function startPostgres({ dir, port, database, user = 'quietglass' }
   if (isRoot) {
     runChecked('chown', ['-R', 'postgres', sockDir]);
     if (fs.existsSync(dataDir)) runChecked('chown', ['-R', 'postgres', dataDir]);
-    // The postgres user must be able to reach the folder (every parent needs o+x).
-    const probe = run('runuser', ['-u', 'postgres', '--', 'test', '-w', sockDir]);
-    if (probe.status !== 0) {
-      throw new StartupError(
-        `The postgres system user cannot write to ${sockDir}. Put the project in a folder other users can enter, or set QG_DATA_DIR to such a folder.`,
-      );
-    }
   }
   if (!fs.existsSync(path.join(dataDir, 'PG_VERSION'))) {
     log(`initialising PostgreSQL data folder ${dataDir}…`);

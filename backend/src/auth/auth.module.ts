@@ -13,10 +13,14 @@ import { SessionGuard } from './session.guard.js';
     UsersModule,
     JwtModule.registerAsync({
       inject: [appConfig.KEY],
-      useFactory: (config: AppConfig) => ({
-        secret: config.jwtSecret,
-        signOptions: { expiresIn: config.jwtTtlSeconds },
-      }),
+      useFactory: (config: AppConfig) => {
+        if (!config.jwtSecret)
+          throw new Error('JWT_SECRET is not set (npm start sets it; see README, Configuration)');
+        return {
+          secret: config.jwtSecret,
+          signOptions: { expiresIn: config.jwtTtlSeconds },
+        };
+      },
     }),
   ],
   controllers: [AuthController],

@@ -6,7 +6,8 @@ export interface AppConfig {
   host: string;
   databaseUrl: string;
   redisUrl: string;
-  jwtSecret: string;
+  /** Only the API signs sessions; a worker runs without it. */
+  jwtSecret: string | null;
   jwtTtlSeconds: number;
   cookieSecure: boolean;
   clientDist: string | null;
@@ -33,8 +34,9 @@ function required(env: NodeJS.ProcessEnv, name: string): string {
 
 /** Reads and checks the settings; throws a clear error naming the variable that is wrong. */
 export function loadConfig(env: NodeJS.ProcessEnv = process.env): AppConfig {
-  const jwtSecret = required(env, 'JWT_SECRET');
-  if (jwtSecret.length < 32) throw new Error('JWT_SECRET must be at least 32 characters long');
+  const jwtSecret = env.JWT_SECRET || null;
+  if (jwtSecret !== null && jwtSecret.length < 32)
+    throw new Error('JWT_SECRET must be at least 32 characters long');
   return {
     port: intFrom(env, 'PORT', 3000),
     host: env.HOST ?? '127.0.0.1',

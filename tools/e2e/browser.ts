@@ -1,0 +1,50 @@
+import fs from 'node:fs';
+import os from 'node:os';
+import path from 'node:path';
+import { chromium, type Browser, type Page } from 'playwright-core';
+import type { Role } from '@quietglass/shared';
+
+export interface DemoSignIn {
+  email: string;
+  role: Role;
+  password: string;
+}
+
+export function baseUrl(): string {
+  const url = process.env.QG_BASE_URL;
+  if (!url) throw new Error('QG_BASE_URL is not set; run the browser tests through `npm test`');
+  return url;
+}
+
+export function demoSignIns(): DemoSignIn[] {
+  const file = process.env.QG_DEMO_CREDENTIALS;
+  if (!file) throw new Error('QG_DEMO_CREDENTIALS is not set; run the browser tests through `npm test`');
+  return JSON.parse(fs.readFileSync(file, 'utf8')) as DemoSignIn[];
+}
+
+/** Debian's Chromium, headless, with a fresh profile and no background traffic. */
+export async function launchBrowser(): Promise<Browser> {
+  const profile = fs.mkdtempSync(path.join(os.tmpdir(), 'qg-chromium-'));
+  return chromium.launch({
+    executablePath: process.env.QG_CHROMIUM ?? '/usr/bin/chromium',
+    headless: true,
+    args: [
+      '--no-sandbox',
+      '--disable-gpu',
+      '--disable-quic',
+      '--disable-background-networking',
+      '--disable-component-update',
+      '--disable-sync',
+      '--no-first-run',
+      `--user-data-dir=${profile}`,
+    ],
+  });
+}
+
+export async function signIn(page: Page, who: DemoSignIn): Promise<void> {
+  await page.goto(`${baseUrl()}/sign-in`);
+  await page.getByLabel('E-mail').fill(who.email);
+  await page.getByLabel('Password').fill(who.password);
+  await page.getByRole('button', { name: 'Sign in' }).click();
+  await page.locator('nav[aria-label="Main"]').waitFor();
+}
