@@ -5,7 +5,9 @@ import { TypeOrmModule } from '@nestjs/typeorm';
 import { appConfig, type AppConfig } from './config/configuration.js';
 import { dataSourceOptions } from './database/data-source.js';
 import { AuthModule } from './auth/auth.module.js';
+import { CustomersModule } from './customers/customers.module.js';
 import { HealthModule } from './health/health.module.js';
+import { MaterialsModule } from './materials/materials.module.js';
 import { UsersModule } from './users/users.module.js';
 
 @Module({
@@ -24,6 +26,8 @@ import { UsersModule } from './users/users.module.js';
     AuthModule,
     UsersModule,
     HealthModule,
+    CustomersModule,
+    MaterialsModule,
   ],
 })
 export class AppModule {}

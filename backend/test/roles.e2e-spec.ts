@@ -19,15 +19,29 @@ interface RouteRule {
   body?: (ctx: MatrixContext, role: Role | 'anonymous') => object;
   /** Concrete path (for :id routes). */
   url?: (ctx: MatrixContext) => string;
+  /** Keeps the context in step after a permitted call (e.g. a new row version). */
+  after?: (ctx: MatrixContext, body: { version?: number }) => void;
 }
 
 interface MatrixContext {
   targetUserId: number;
+  materialId: number;
+  materialVersion: number;
+  customerId: number;
   passwords: Record<Role, string>;
   counter: number;
 }
 
 const ALL: readonly Role[] = ROLES;
+const DESIGNERS: readonly Role[] = ['admin', 'engineer'];
+const OFFICE: readonly Role[] = ['admin', 'engineer', 'sales'];
+const materialBody = (name: string) => ({
+  name,
+  model: { model: 'constant', n: 1.9, k: 0 },
+  rangeNm: { from: 400, to: 900 },
+  typical: true,
+  provenance: { source: 'matrix test value' },
+});
 
 const RULES: RouteRule[] = [
   { method: 'get', path: '/api/health', allow: 'public', okStatus: 200 },
@@ -81,11 +95,78 @@ const RULES: RouteRule[] = [
     url: (ctx) => `/api/users/${ctx.targetUserId}/password`,
     body: () => ({ newPassword: 'another-long-password' }),
   },
+  { method: 'get', path: '/api/materials', allow: ALL, okStatus: 200 },
+  {
+    method: 'get',
+    path: '/api/materials/:id',
+    allow: ALL,
+    okStatus: 200,
+    url: (ctx) => `/api/materials/${ctx.materialId}`,
+  },
+  {
+    method: 'post',
+    path: '/api/materials',
+    allow: DESIGNERS,
+    okStatus: 201,
+    body: (ctx) => materialBody(`Matrix material ${(ctx.counter += 1)}`),
+  },
+  {
+    method: 'put',
+    path: '/api/materials/:id',
+    allow: DESIGNERS,
+    okStatus: 200,
+    url: (ctx) => `/api/materials/${ctx.materialId}`,
+    body: (ctx) => ({ ...materialBody('Matrix material'), version: ctx.materialVersion }),
+    after: (ctx, body) => {
+      ctx.materialVersion = body.version ?? ctx.materialVersion;
+    },
+  },
+  {
+    method: 'post',
+    path: '/api/materials/import-csv',
+    allow: DESIGNERS,
+    okStatus: 201,
+    body: (ctx) => ({
+      name: `Matrix table ${(ctx.counter += 1)}`,
+      unit: 'nm',
+      csv: 'wavelength_nm,n,k\n400,1.5,0\n800,1.45,0\n',
+    }),
+  },
+  { method: 'get', path: '/api/customers', allow: OFFICE, okStatus: 200 },
+  {
+    method: 'get',
+    path: '/api/customers/:id',
+    allow: OFFICE,
+    okStatus: 200,
+    url: (ctx) => `/api/customers/${ctx.customerId}`,
+  },
+  {
+    method: 'post',
+    path: '/api/customers',
+    allow: OFFICE,
+    okStatus: 201,
+    body: (ctx) => ({ name: `Matrix customer ${(ctx.counter += 1)}` }),
+  },
+  {
+    method: 'put',
+    path: '/api/customers/:id',
+    allow: OFFICE,
+    okStatus: 200,
+    url: (ctx) => `/api/customers/${ctx.customerId}`,
+    body: () => ({ name: 'Matrix customer', notes: 'edited by the matrix' }),
+  },
 ];
 
 let app: NestExpressApplication;
 const cookies = {} as Record<Role, string>;
-const ctx: MatrixContext = { targetUserId: 0, passwords: {} as Record<Role, string>, counter: 0 };
+const ctx: MatrixContext = {
+  targetUserId: 0,
+  materialId: 0,
+  materialVersion: 0,
+  customerId: 0,
+  passwords: {} as Record<Role, string>,
+  counter: 0,
+};
 
 beforeAll(async () => {
   app = await createTestApp();
@@ -103,16 +184,26 @@ beforeAll(async () => {
     ctx.passwords[role] = password;
     cookies[role] = await sessionCookie(app, email, password);
   }
-  const target = await request(app.getHttpServer())
-    .post('/api/users')
-    .set('Cookie', adminCookie)
-    .send({
-      email: 'matrix-target@larkspur.example',
-      displayName: 'Matrix Target',
-      role: 'operator',
-      password: 'long-enough-password',
-    });
+  const target = await request(app.getHttpServer()).post('/api/users').set('Cookie', adminCookie).send({
+    email: 'matrix-target@larkspur.example',
+    displayName: 'Matrix Target',
+    role: 'operator',
+    password: 'long-enough-password',
+  });
   ctx.targetUserId = target.body.id;
+  const material = await request(app.getHttpServer())
+    .post('/api/materials')
+    .set('Cookie', adminCookie)
+    .send(materialBody('Matrix material'));
+  expect(material.status).toBe(201);
+  ctx.materialId = material.body.id;
+  ctx.materialVersion = material.body.version;
+  const customer = await request(app.getHttpServer())
+    .post('/api/customers')
+    .set('Cookie', adminCookie)
+    .send({ name: 'Matrix customer' });
+  expect(customer.status).toBe(201);
+  ctx.customerId = customer.body.id;
 });
 
 afterAll(async () => {
@@ -137,7 +228,8 @@ describe('role × route matrix', () => {
         const allowed = rule.allow === 'public' || rule.allow.includes(role);
         it(`${role} gets ${allowed ? rule.okStatus : 403}`, async () => {
           const res = await call(rule, cookies[role], role);
-          expect(res.status).toBe(allowed ? rule.okStatus : 403);
+          expect(res.status, JSON.stringify(res.body)).toBe(allowed ? rule.okStatus : 403);
+          if (allowed) rule.after?.(ctx, res.body);
           if (!allowed) expect(res.body.message).toMatch(/needs the role/);
         });
       }

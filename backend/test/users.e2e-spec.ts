@@ -76,15 +76,12 @@ describe('users (admin)', () => {
   });
 
   it('changes a role; the change applies to the user’s existing session at once', async () => {
-    const created = await http()
-      .post('/api/users')
-      .set('Cookie', admin)
-      .send({
-        email: 'role-change@larkspur.example',
-        displayName: 'Ray Change',
-        role: 'sales',
-        password: 'a-long-password',
-      });
+    const created = await http().post('/api/users').set('Cookie', admin).send({
+      email: 'role-change@larkspur.example',
+      displayName: 'Ray Change',
+      role: 'sales',
+      password: 'a-long-password',
+    });
     const cookie = await sessionCookie(app, 'role-change@larkspur.example', 'a-long-password');
     expect((await http().get('/api/users').set('Cookie', cookie)).status).toBe(403);
     const patched = await http()
@@ -97,15 +94,12 @@ describe('users (admin)', () => {
   });
 
   it('deactivating a user ends their session and refuses their sign-in with the usual message', async () => {
-    const created = await http()
-      .post('/api/users')
-      .set('Cookie', admin)
-      .send({
-        email: 'leaver@larkspur.example',
-        displayName: 'Lee Ver',
-        role: 'engineer',
-        password: 'a-long-password',
-      });
+    const created = await http().post('/api/users').set('Cookie', admin).send({
+      email: 'leaver@larkspur.example',
+      displayName: 'Lee Ver',
+      role: 'engineer',
+      password: 'a-long-password',
+    });
     const cookie = await sessionCookie(app, 'leaver@larkspur.example', 'a-long-password');
     const off = await http()
       .patch(`/api/users/${created.body.id}`)
@@ -132,15 +126,12 @@ describe('users (admin)', () => {
   });
 
   it('resets a password; 404 for an unknown user; 400 for a non-numeric id', async () => {
-    const created = await http()
-      .post('/api/users')
-      .set('Cookie', admin)
-      .send({
-        email: 'forgetful@larkspur.example',
-        displayName: 'Fay Got',
-        role: 'sales',
-        password: 'a-long-password',
-      });
+    const created = await http().post('/api/users').set('Cookie', admin).send({
+      email: 'forgetful@larkspur.example',
+      displayName: 'Fay Got',
+      role: 'sales',
+      password: 'a-long-password',
+    });
     const reset = await http()
       .post(`/api/users/${created.body.id}/password`)
       .set('Cookie', admin)

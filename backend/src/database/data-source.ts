@@ -1,13 +1,16 @@
 import 'reflect-metadata';
 import { DataSource, type DataSourceOptions } from 'typeorm';
+import { Customer } from '../customers/customer.entity.js';
+import { Material } from '../materials/material.entity.js';
 import { User } from '../users/user.entity.js';
 import { CreateUsers1764633600000 } from '../migrations/1764633600000-create-users.js';
+import { CustomersMaterials1764633700000 } from '../migrations/1764633700000-customers-materials.js';
 
 /** Every entity of the app; each domain module also registers its own with forFeature. */
-export const ENTITIES = [User];
+export const ENTITIES = [User, Customer, Material];
 
 /** Every migration, in order. Listed explicitly so the same list works from src (tests) and dist. */
-export const MIGRATIONS = [CreateUsers1764633600000];
+export const MIGRATIONS = [CreateUsers1764633600000, CustomersMaterials1764633700000];
 
 /** TypeORM options for PostgreSQL; never `synchronize` — the schema comes from migrations. */
 export function dataSourceOptions(databaseUrl: string): DataSourceOptions {

@@ -3,7 +3,10 @@ import fs from 'node:fs';
 import path from 'node:path';
 import type { DataSource } from 'typeorm';
 import type { Role } from '@quietglass/shared';
+import { Customer } from '../customers/customer.entity.js';
+import { Material } from '../materials/material.entity.js';
 import { User } from '../users/user.entity.js';
+import { DEMO_CUSTOMERS, DEMO_MATERIALS } from './demo-materials.js';
 import { hashPassword } from '../users/passwords.js';
 
 /**
@@ -46,10 +49,32 @@ export function demoSignIns(file: string): DemoSignIn[] {
   return signIns;
 }
 
-/** Creates the demo users that do not exist yet; leaves existing ones (and changed passwords) alone. */
+/**
+ * Creates what of the demo shop does not exist yet (users, customers, materials, by name); leaves
+ * existing records — and changed passwords — alone. Returns how many records it created.
+ */
 export async function seedDemo(db: DataSource, signIns: DemoSignIn[]): Promise<number> {
   const repo = db.getRepository(User);
   let created = 0;
+  for (const customer of DEMO_CUSTOMERS) {
+    if (await db.getRepository(Customer).existsBy({ name: customer.name })) continue;
+    await db.getRepository(Customer).insert(customer);
+    created += 1;
+  }
+  for (const m of DEMO_MATERIALS) {
+    if (await db.getRepository(Material).existsBy({ name: m.name })) continue;
+    await db.getRepository(Material).insert({
+      name: m.name,
+      model: m.model,
+      rangeFromNm: m.rangeNm.from,
+      rangeToNm: m.rangeNm.to,
+      typical: m.typical,
+      source: m.source,
+      processNotes: m.processNotes,
+      version: 1,
+    });
+    created += 1;
+  }
   for (const demo of DEMO_USERS) {
     if (await repo.existsBy({ email: demo.email })) continue;
     const password = signIns.find((s) => s.email === demo.email)?.password;

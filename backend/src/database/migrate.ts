@@ -20,7 +20,7 @@ async function main(): Promise<void> {
     console.log(`migrations: ${ran.length === 0 ? 'up to date' : ran.map((m) => m.name).join(', ')}`);
     if (credentials) {
       const created = await seedDemo(db, demoSignIns(credentials));
-      console.log(`demo seed: ${created} user(s) created`);
+      console.log(`demo seed: ${created} record(s) created`);
     }
   } finally {
     await db.destroy();

@@ -4,9 +4,8 @@ import { Repository } from 'typeorm';
 import { User } from './user.entity.js';
 import type { CreateUserDto } from './dto/create-user.dto.js';
 import type { UpdateUserDto } from './dto/update-user.dto.js';
+import { isUniqueViolation } from '../common/db-errors.js';
 import { hashPassword } from './passwords.js';
-
-const UNIQUE_VIOLATION = '23505';
 
 @Injectable()
 export class UsersService {
@@ -41,7 +40,7 @@ export class UsersService {
     try {
       return await this.users.save(user);
     } catch (err) {
-      if ((err as { code?: string }).code === UNIQUE_VIOLATION) {
+      if (isUniqueViolation(err)) {
         throw new ConflictException(`A user with e-mail ${dto.email} already exists`);
       }
       throw err;

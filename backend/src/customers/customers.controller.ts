@@ -1,0 +1,31 @@
+import { Body, Controller, Get, Param, ParseIntPipe, Post, Put } from '@nestjs/common';
+import { Roles } from '../auth/roles.decorator.js';
+import { CustomerDto } from './dto/customer.dto.js';
+import { toCustomerView, type CustomerView } from './customer.entity.js';
+import { CustomersService } from './customers.service.js';
+
+@Controller('customers')
+@Roles('admin', 'engineer', 'sales')
+export class CustomersController {
+  constructor(private readonly customers: CustomersService) {}
+
+  @Get()
+  async list(): Promise<CustomerView[]> {
+    return (await this.customers.list()).map(toCustomerView);
+  }
+
+  @Get(':id')
+  async get(@Param('id', ParseIntPipe) id: number): Promise<CustomerView> {
+    return toCustomerView(await this.customers.get(id));
+  }
+
+  @Post()
+  async create(@Body() dto: CustomerDto): Promise<CustomerView> {
+    return toCustomerView(await this.customers.create(dto));
+  }
+
+  @Put(':id')
+  async update(@Param('id', ParseIntPipe) id: number, @Body() dto: CustomerDto): Promise<CustomerView> {
+    return toCustomerView(await this.customers.update(id, dto));
+  }
+}

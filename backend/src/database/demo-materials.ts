@@ -1,0 +1,76 @@
+import type { MaterialModel } from '@quietglass/shared/optics/dispersion';
+import { MATERIAL_LIBRARY } from '@quietglass/shared/optics/library';
+
+export interface DemoMaterial {
+  name: string;
+  model: MaterialModel;
+  rangeNm: { from: number; to: number };
+  typical: boolean;
+  source: string;
+  processNotes: string;
+}
+
+const TYPICAL_SOURCE =
+  'Typical index near 550 nm (common practice, from memory); demo data only — measure your own process';
+
+/**
+ * A Cauchy model n = A + B/λ² (λ in µm) through the typical index at 550 nm, with a modest,
+ * typical dispersion B. Demo values, not measurements.
+ */
+function typicalCauchy(n550: number, B: number): MaterialModel {
+  return { model: 'cauchy', A: n550 - B / 0.55 ** 2, B, C: 0, k: 0 };
+}
+
+/** Substrates from published Sellmeier coefficients; coating materials as typical demo values. */
+export const DEMO_MATERIALS: readonly DemoMaterial[] = [
+  {
+    name: 'N-BK7',
+    model: MATERIAL_LIBRARY['N-BK7'],
+    rangeNm: { from: 300, to: 2500 },
+    typical: false,
+    source: 'SCHOTT optical glass data sheet, N-BK7 Sellmeier coefficients',
+    processNotes: 'Substrate glass',
+  },
+  {
+    name: 'Fused silica',
+    model: MATERIAL_LIBRARY['fused-silica'],
+    rangeNm: { from: 210, to: 3700 },
+    typical: false,
+    source: 'I. H. Malitson, J. Opt. Soc. Am. 55, 1205 (1965)',
+    processNotes: 'Substrate glass',
+  },
+  ...(
+    [
+      ['MgF2', 1.38, 0.003, 200],
+      ['SiO2', 1.46, 0.0035, 200],
+      ['Al2O3', 1.63, 0.008, 250],
+      ['HfO2', 1.95, 0.015, 250],
+      ['ZrO2', 2.05, 0.02, 300],
+      ['Ta2O5', 2.1, 0.022, 320],
+      ['Nb2O5', 2.3, 0.03, 380],
+      ['TiO2', 2.35, 0.035, 400],
+    ] as const
+  ).map(([name, n550, B, fromNm]) => ({
+    name,
+    model: typicalCauchy(n550, B),
+    rangeNm: { from: fromNm, to: 1100 },
+    typical: true,
+    source: TYPICAL_SOURCE,
+    processNotes: 'Evaporated film; no chamber data yet',
+  })),
+];
+
+/** Invented customers of the invented demo shop. */
+export const DEMO_CUSTOMERS: readonly { name: string; contactEmail: string; notes: string }[] = [
+  {
+    name: 'Halden Vision Systems',
+    contactEmail: 'optics@halden-vision.example',
+    notes: 'Machine-vision lens assemblies',
+  },
+  {
+    name: 'Orrin Medical Imaging',
+    contactEmail: 'purchasing@orrin-medical.example',
+    notes: 'Endoscope windows',
+  },
+  { name: 'Brightwater Instruments', contactEmail: 'lab@brightwater.example', notes: 'Spectrometer optics' },
+];
