@@ -40,17 +40,13 @@ export class ProvenanceDto {
   notes?: string;
 }
 
-class MaterialFields {
+/** Name and provenance: what every way of creating a material asks for. */
+class MaterialMeta {
   @Transform(trim)
   @IsString()
   @MinLength(1, { message: 'name must not be empty' })
   @MaxLength(120)
   name: string;
-
-  @ValidateNested()
-  @Type(() => RangeDto)
-  @IsObject({ message: 'rangeNm must be an object { from, to }' })
-  rangeNm: RangeDto;
 
   @IsOptional()
   @IsBoolean()
@@ -63,7 +59,12 @@ class MaterialFields {
 }
 
 /** Create or replace a material. `model` is checked by the optics engine's own validation. */
-export class MaterialDto extends MaterialFields {
+export class MaterialDto extends MaterialMeta {
+  @ValidateNested()
+  @Type(() => RangeDto)
+  @IsObject({ message: 'rangeNm must be an object { from, to }' })
+  rangeNm: RangeDto;
+
   @IsObject({ message: 'model must be a dispersion model object' })
   model: Record<string, unknown>;
 }
@@ -76,13 +77,7 @@ export class UpdateMaterialDto extends MaterialDto {
 }
 
 /** Create a tabulated material from an n,k CSV file's text. */
-export class ImportMaterialCsvDto {
-  @Transform(trim)
-  @IsString()
-  @MinLength(1, { message: 'name must not be empty' })
-  @MaxLength(120)
-  name: string;
-
+export class ImportMaterialCsvDto extends MaterialMeta {
   @IsString()
   csv: string;
 
@@ -92,13 +87,4 @@ export class ImportMaterialCsvDto {
   @IsOptional()
   @IsIn(['linear', 'pchip'], { message: 'interpolation must be linear or pchip' })
   interpolation?: 'linear' | 'pchip';
-
-  @IsOptional()
-  @IsBoolean()
-  typical?: boolean;
-
-  @IsOptional()
-  @ValidateNested()
-  @Type(() => ProvenanceDto)
-  provenance?: ProvenanceDto;
 }
