@@ -1,1 +1,15 @@
 export * from './roles.js';
+export * from './designs.js';
+
+// Optics engine (browser-safe; Node-only helpers live under @quietglass/shared/node/parallel).
+export * from './optics/errors.js';
+export * from './optics/dispersion.js';
+export * from './optics/library.js';
+export * from './optics/thickness.js';
+export * from './optics/stack.js';
+export * from './optics/matrix.js';
+export * from './optics/substrate.js';
+export * from './optics/batch.js';
+export * from './optics/mask.js';
+export * from './optics/colour.js';
+export * from './optics/field.js';

@@ -1,0 +1,125 @@
+/*
+ * Stack designs as the API and the client exchange them, and how a design version becomes the
+ * optics engine's stack description.
+ */
+import type { MaterialModel } from './optics/dispersion.js';
+import type { StackDescription } from './optics/stack.js';
+
+/** Lifecycle of a design version. Only a draft can be edited. */
+export const VERSION_STATUSES = [
+  'draft',
+  'submitted',
+  'approved',
+  'returned',
+  'released',
+  'retired',
+] as const;
+export type VersionStatus = (typeof VERSION_STATUSES)[number];
+
+/**
+ * What is behind the coated front surface: `front-only` treats the substrate as semi-infinite;
+ * `bare` adds the uncoated back surface incoherently; `same-coating` coats the back with the front
+ * design too (a part coated on both sides).
+ */
+export const BACK_SURFACE_TREATMENTS = ['front-only', 'bare', 'same-coating'] as const;
+export type BackSurfaceTreatment = (typeof BACK_SURFACE_TREATMENTS)[number];
+
+/** One row of the Layer grid, incident side first. */
+export interface DesignLayer {
+  materialId: number;
+  /** Physical thickness in nm, > 0. */
+  thicknessNm: number;
+  /** Locked layers keep their thickness during Fit to mask. */
+  locked: boolean;
+  notes: string;
+}
+
+/** The editable content of a design version. */
+export interface DesignVersionContent {
+  incidentMaterialId: number;
+  substrateMaterialId: number;
+  substrateThicknessMm: number;
+  backSurface: BackSurfaceTreatment;
+  referenceWavelengthNm: number;
+  notes: string;
+  layers: DesignLayer[];
+}
+
+export interface DesignVersionView extends DesignVersionContent {
+  designId: number;
+  number: number;
+  status: VersionStatus;
+  /** Optimistic-locking counter: send it back with a save; a stale one gets 409. */
+  rowVersion: number;
+  createdBy: { id: number; displayName: string };
+  createdAt: string;
+  updatedAt: string;
+  /** The material models used, frozen when the version was submitted (null while a draft). */
+  materialsSnapshot: Record<string, { name: string; model: MaterialModel }> | null;
+}
+
+export interface DesignSummaryView {
+  id: number;
+  name: string;
+  customer: { id: number; name: string };
+  specMaskId: number | null;
+  latestVersion: { number: number; status: VersionStatus; updatedAt: string };
+  createdBy: { id: number; displayName: string };
+  createdAt: string;
+}
+
+export interface DesignView extends Omit<DesignSummaryView, 'latestVersion'> {
+  versions: { number: number; status: VersionStatus; updatedAt: string; createdBy: string }[];
+}
+
+/** A material as a design needs it: a name and a dispersion model. */
+export interface NamedModel {
+  name: string;
+  model: MaterialModel;
+  /** Wavelength range over which the material's data are valid, nm. */
+  rangeNm?: { from: number; to: number };
+}
+
+/**
+ * The engine's stack description of a design version. Materials are looked up in `materials`
+ * (by material id); a missing one is an error naming the layer.
+ */
+export function designStackDescription(
+  content: DesignVersionContent,
+  materials: ReadonlyMap<number, NamedModel> | Record<string, NamedModel>,
+): StackDescription {
+  const lookup = (id: number, where: string): NamedModel => {
+    const found =
+      materials instanceof Map ? materials.get(id) : (materials as Record<string, NamedModel>)[String(id)];
+    if (!found) throw new Error(`${where}: material ${id} is not in the materials library`);
+    return found;
+  };
+  const named: Record<string, MaterialModel> = {};
+  const ref = (id: number, where: string): string => {
+    const key = `material-${id}`;
+    named[key] = lookup(id, where).model;
+    return key;
+  };
+  const layers = content.layers.map((layer, i) => ({
+    material: ref(layer.materialId, `layers[${i}]`),
+    thickness_nm: layer.thicknessNm,
+    label: `${i + 1} ${lookup(layer.materialId, `layers[${i}]`).name}`,
+  }));
+  const description: StackDescription = {
+    incident: { material: ref(content.incidentMaterialId, 'incident medium') },
+    substrate: {
+      material: ref(content.substrateMaterialId, 'substrate'),
+      thickness_mm: content.substrateThicknessMm,
+    },
+    layers,
+    reference_nm: content.referenceWavelengthNm,
+    materials: named,
+  };
+  if (content.backSurface === 'same-coating') description.back_layers = [...layers].reverse();
+  return description;
+}
+
+/** The engine's back-surface model for a treatment. */
+export function engineBackSurface(treatment: BackSurfaceTreatment): 'none' | 'incoherent' {
+  return treatment === 'front-only' ? 'none' : 'incoherent';
+}

@@ -1,0 +1,134 @@
+import { describe, expect, it } from 'vitest';
+import {
+  calculateSpectrum,
+  computeSpectrum,
+  createSpectrumOutput,
+  createSpectrumPlan,
+  responseAt,
+  setLayerThicknesses,
+  spectrumIndex,
+} from './batch.js';
+import { constantIndex as c } from './dispersion.js';
+import type { OpticalStack } from './stack.js';
+
+const twoLayer: OpticalStack = {
+  incident: c(1),
+  layers: [
+    { material: c(2.35, 0.0001), thicknessNm: 50 },
+    { material: c(1.46), thicknessNm: 93.2 },
+  ],
+  substrate: c(1.52),
+  backLayers: [],
+  exit: c(1),
+};
+
+describe('grid layout', () => {
+  it('stores (pol, angle, wavelength) at (iPol·nAngles + iAngle)·nWl + iWl, matching single points', () => {
+    const grid = {
+      wavelengthsNm: [450, 550, 650],
+      anglesDeg: [0, 30, 60],
+      polarisations: ['s', 'p', 'avg'] as const,
+    };
+    const res = calculateSpectrum(twoLayer, { ...grid, polarisations: [...grid.polarisations] });
+    grid.polarisations.forEach((pol, ip) =>
+      grid.anglesDeg.forEach((angle, ia) =>
+        grid.wavelengthsNm.forEach((wl, iw) => {
+          const i = spectrumIndex(res.plan, ip, ia, iw);
+          expect(i).toBe((ip * 3 + ia) * 3 + iw);
+          const point = responseAt(twoLayer, wl, angle, pol);
+          expect(res.R[i]).toBe(point.R);
+          expect(res.T[i]).toBe(point.T);
+          expect(res.A[i]).toBe(point.A);
+        }),
+      ),
+    );
+    // avg is the mean of s and p (unpolarised light).
+    const s = spectrumIndex(res.plan, 0, 2, 1);
+    const p = spectrumIndex(res.plan, 1, 2, 1);
+    const avg = spectrumIndex(res.plan, 2, 2, 1);
+    expect(res.R[avg]).toBeCloseTo((res.R[s] + res.R[p]) / 2, 16);
+    expect(res.R[s]).not.toBeCloseTo(res.R[p], 3);
+  });
+
+  it('reuses a plan without allocating and follows thickness updates', () => {
+    const plan = createSpectrumPlan(twoLayer, {
+      wavelengthsNm: [500, 600],
+      anglesDeg: [0],
+      polarisations: ['s'],
+    });
+    const out = createSpectrumOutput(plan);
+    computeSpectrum(out, plan);
+    const before = Array.from(out.R);
+    setLayerThicknesses(plan, [60, 80]);
+    computeSpectrum(out, plan);
+    const moved = calculateSpectrum(
+      {
+        ...twoLayer,
+        layers: [
+          { ...twoLayer.layers[0], thicknessNm: 60 },
+          { ...twoLayer.layers[1], thicknessNm: 80 },
+        ],
+      },
+      { wavelengthsNm: [500, 600], anglesDeg: [0], polarisations: ['s'] },
+    );
+    expect(Array.from(out.R)).toEqual(Array.from(moved.R));
+    expect(out.R[0]).not.toBe(before[0]);
+    expect(() => setLayerThicknesses(plan, [60])).toThrow(/thicknessesNm: needs 2 values/);
+    expect(() => setLayerThicknesses(plan, [60, -1])).toThrow(/thicknessesNm\[1\]/);
+  });
+
+  it('writes the complex amplitudes when asked for', () => {
+    const res = calculateSpectrum(
+      twoLayer,
+      { wavelengthsNm: [550], anglesDeg: [0], polarisations: ['s'] },
+      { amplitudes: true },
+    );
+    const r = res.r as Float64Array;
+    expect(r[0] ** 2 + r[1] ** 2).toBeCloseTo(res.R[0], 15);
+  });
+});
+
+describe('entry-point validation', () => {
+  const grid = { wavelengthsNm: [550], anglesDeg: [0], polarisations: ['s' as const] };
+  it.each([
+    [{ ...grid, wavelengthsNm: [550, Number.NaN] }, {}, /wavelengthsNm\[1\]: must be a finite number/],
+    [{ ...grid, wavelengthsNm: [-5] }, {}, /wavelengthsNm\[0\]: must be greater than 0/],
+    [{ ...grid, wavelengthsNm: [] }, {}, /wavelengthsNm: must not be empty/],
+    [
+      { ...grid, anglesDeg: [90] },
+      {},
+      /anglesDeg\[0\]: angle of incidence must be at least 0° and below 90°/,
+    ],
+    [{ ...grid, polarisations: [] }, {}, /polarisations: must list at least one/],
+    [{ ...grid, polarisations: ['s', 's'] }, {}, /polarisations\[1\]: "s" is listed twice/],
+    [{ ...grid, polarisations: ['x'] }, {}, /polarisations\[0\]: must be one of/],
+    [grid, { back: 'both' }, /back: must be one of "none", "incoherent"/],
+    [grid, { back: 'incoherent', amplitudes: true }, /amplitudes: complex r and t exist only/],
+    [{ ...grid, polarisations: ['avg'] }, { amplitudes: true }, /amplitudes: .* not for their average/],
+  ])('%#', (g, options, message) => {
+    expect(() => createSpectrumPlan(twoLayer, g as never, options as never)).toThrow(message);
+  });
+
+  it('rejects an absorbing incident medium and a negative thickness', () => {
+    expect(() => createSpectrumPlan({ ...twoLayer, incident: c(1.5, 0.01) }, grid)).toThrow(
+      /incident: the incident medium must be lossless/,
+    );
+    expect(() =>
+      createSpectrumPlan({ ...twoLayer, layers: [{ material: c(2), thicknessNm: -3 }] }, grid),
+    ).toThrow(/layers\[0\]\.thicknessNm: must be 0 or more/);
+  });
+
+  it('flags clamped table values as a warning', () => {
+    const table = { model: 'table' as const, wavelengths: [400, 700], n: [2.3, 2.2], clamp: true };
+    const plan = createSpectrumPlan(
+      { ...twoLayer, layers: [{ material: table, thicknessNm: 60 }] },
+      {
+        ...grid,
+        wavelengthsNm: [380, 550, 720],
+      },
+    );
+    expect(plan.warnings).toEqual([
+      'layers[0]: table covers 400–700 nm; its end values were held at 2 of 3 wavelengths',
+    ]);
+  });
+});

@@ -1,0 +1,381 @@
+/*
+ * Spec masks: a customer's limits on R or T. A mask is a list of limit bands, each a wavelength
+ * range at one or more angles and one polarisation with a bound in percent: a maximum, a minimum,
+ * or a target ± tolerance. The JSON form below is also the API form (snake_case, like the stack
+ * file), so field paths in errors match what the user wrote.
+ */
+import {
+  arrayValue,
+  finiteNumber,
+  incidenceAngle,
+  numberList,
+  oneOf,
+  onlyKeys,
+  plainObject,
+  positiveNumber,
+} from './checks.js';
+import { OpticsInputError, fieldPath } from './errors.js';
+import {
+  MAX_RANGE_POINTS,
+  POLARISATIONS,
+  calculateSpectrum,
+  evenWavelengthsNm,
+  roundWavelengthNm,
+  type Polarisation,
+  type SpectralGrid,
+  type SpectrumOptions,
+  type SpectrumOutput,
+  type SpectrumPlan,
+} from './batch.js';
+import type { OpticalStack } from './stack.js';
+
+export type MaskQuantity = 'R' | 'T';
+
+/** One limit band of a spec mask. Exactly one of max_percent, min_percent, target_percent. */
+export interface LimitBand {
+  /** Wavelength range in nm, from_nm ≤ to_nm (equal: a single wavelength). */
+  from_nm: number;
+  to_nm: number;
+  /** Angles of incidence in degrees (default [0]). */
+  angles_deg?: number[];
+  /** Polarisation (default `avg`, unpolarised). */
+  polarisation?: Polarisation;
+  quantity: MaskQuantity;
+  /** Upper limit, percent. */
+  max_percent?: number;
+  /** Lower limit, percent. */
+  min_percent?: number;
+  /** Target, percent, with `tolerance_percent` (> 0) either side. */
+  target_percent?: number;
+  tolerance_percent?: number;
+  /** Weight in the merit value (default 1). */
+  weight?: number;
+  /** Sampling step in nm inside the band (default: the mask's step_nm, else 1 nm). */
+  step_nm?: number;
+  label?: string;
+}
+
+export interface SpecMask {
+  bands: LimitBand[];
+  /** Default sampling step in nm for bands without their own (1 nm when omitted). */
+  step_nm?: number;
+  name?: string;
+}
+
+/** Where a band's worst sample lies. */
+export interface MaskPoint {
+  wavelengthNm: number;
+  angleDeg: number;
+  polarisation: Polarisation;
+  /** The computed value there, percent. */
+  valuePercent: number;
+}
+
+export interface BandResult {
+  band: number;
+  label?: string;
+  pass: boolean;
+  /** Smallest margin over the band's samples, percentage points; ≥ 0 passes, < 0 is the violation. */
+  worstMargin: number;
+  worstAt: MaskPoint;
+  samples: number;
+}
+
+export interface MaskResult {
+  pass: boolean;
+  /** Smallest margin over all bands, percentage points (signed as in BandResult). */
+  worstMargin: number;
+  /** Band index and point of the overall worst margin. */
+  worstBand: number;
+  worstAt: MaskPoint;
+  /**
+   * Weighted RMS deviation in percentage points over all samples: targets count value − target,
+   * limits count only their violation. 0 when every limit holds and every target is met exactly.
+   */
+  merit: number;
+  bands: BandResult[];
+}
+
+/** The fields a limit band may have, in a natural column order (e.g. for CSV import/export). */
+export const LIMIT_BAND_FIELDS = [
+  'from_nm',
+  'to_nm',
+  'angles_deg',
+  'polarisation',
+  'quantity',
+  'max_percent',
+  'min_percent',
+  'target_percent',
+  'tolerance_percent',
+  'weight',
+  'step_nm',
+  'label',
+] as const satisfies readonly (keyof LimitBand)[];
+
+interface Bound {
+  kind: 'max' | 'min' | 'target';
+  value: number;
+  tolerance: number;
+}
+
+/**
+ * Checks a spec mask and returns a normalised copy (defaults filled in). Throws
+ * {@link OpticsInputError} naming the field for NaN or missing values, from_nm > to_nm, bounds
+ * outside 0–100 %, and for overlapping bands that contradict each other (e.g. R ≤ 1 % and R ≥ 2 %
+ * over the same wavelengths, angle and polarisation, or minimum R and T adding to more than 100 %).
+ */
+export function validateSpecMask(input: unknown): SpecMask {
+  const obj = plainObject(input, '');
+  onlyKeys(obj, ['bands', 'step_nm', 'name'], '');
+  const defaultStep = obj.step_nm === undefined ? 1 : positiveNumber(obj.step_nm, 'step_nm');
+  const list = arrayValue(obj.bands, 'bands');
+  if (list.length === 0) throw new OpticsInputError('bands', 'must hold at least one limit band');
+  const bands = list.map((item, i) => validateBand(item, fieldPath('bands', i), defaultStep));
+  for (let j = 0; j < bands.length; j++) {
+    for (let i = 0; i < j; i++) checkConsistent(bands[i], bands[j], i, j);
+  }
+  const out: SpecMask = { bands, step_nm: defaultStep };
+  if (obj.name !== undefined) {
+    if (typeof obj.name !== 'string') throw new OpticsInputError('name', 'must be text');
+    out.name = obj.name;
+  }
+  return out;
+}
+
+function validateBand(item: unknown, field: string, defaultStep: number): LimitBand {
+  const obj = plainObject(item, field);
+  onlyKeys(obj, LIMIT_BAND_FIELDS, field);
+  const at = (key: string) => fieldPath(field, key);
+  const from = positiveNumber(obj.from_nm, at('from_nm'));
+  const to = positiveNumber(obj.to_nm, at('to_nm'));
+  if (from > to) {
+    throw new OpticsInputError(at('from_nm'), `must not exceed to_nm (${from} nm > ${to} nm)`);
+  }
+  const angles =
+    obj.angles_deg === undefined ? [0] : numberList(obj.angles_deg, at('angles_deg'), incidenceAngle);
+  if (angles.length === 0) throw new OpticsInputError(at('angles_deg'), 'must list at least one angle');
+  const polarisation =
+    obj.polarisation === undefined ? 'avg' : oneOf(obj.polarisation, POLARISATIONS, at('polarisation'));
+  const quantity = oneOf(obj.quantity, ['R', 'T'] as const, at('quantity'));
+  const given = (['max_percent', 'min_percent', 'target_percent'] as const).filter(
+    (k) => obj[k] !== undefined,
+  );
+  if (given.length !== 1) {
+    throw new OpticsInputError(
+      field,
+      given.length === 0
+        ? 'needs a bound: max_percent, min_percent, or target_percent with tolerance_percent'
+        : `give only one bound (got ${given.join(' and ')})`,
+    );
+  }
+  const percent = (key: string) => {
+    const v = finiteNumber(obj[key], at(key));
+    if (v < 0 || v > 100)
+      throw new OpticsInputError(at(key), `must lie between 0 and 100 percent (got ${v})`);
+    return v;
+  };
+  const band: LimitBand = {
+    from_nm: from,
+    to_nm: to,
+    angles_deg: [...new Set(angles)],
+    polarisation,
+    quantity,
+    weight: obj.weight === undefined ? 1 : positiveNumber(obj.weight, at('weight')),
+    step_nm: obj.step_nm === undefined ? defaultStep : positiveNumber(obj.step_nm, at('step_nm')),
+  };
+  const key = given[0];
+  band[key] = percent(key);
+  if (key === 'target_percent') {
+    if (obj.tolerance_percent === undefined) {
+      throw new OpticsInputError(at('tolerance_percent'), 'is required with target_percent');
+    }
+    band.tolerance_percent = positiveNumber(obj.tolerance_percent, at('tolerance_percent'));
+  } else if (obj.tolerance_percent !== undefined) {
+    throw new OpticsInputError(at('tolerance_percent'), 'applies only to target_percent');
+  }
+  if ((to - from) / (band.step_nm ?? 1) > MAX_RANGE_POINTS) {
+    throw new OpticsInputError(at('step_nm'), `gives more than ${MAX_RANGE_POINTS} samples in this band`);
+  }
+  if (obj.label !== undefined) {
+    if (typeof obj.label !== 'string') throw new OpticsInputError(at('label'), 'must be text');
+    band.label = obj.label;
+  }
+  return band;
+}
+
+function boundOf(band: LimitBand): Bound {
+  if (band.max_percent !== undefined) return { kind: 'max', value: band.max_percent, tolerance: 0 };
+  if (band.min_percent !== undefined) return { kind: 'min', value: band.min_percent, tolerance: 0 };
+  return { kind: 'target', value: band.target_percent ?? 0, tolerance: band.tolerance_percent ?? 0 };
+}
+
+/** Interval of values (percent) a band allows. */
+function allowed(bound: Bound): [number, number] {
+  if (bound.kind === 'max') return [0, bound.value];
+  if (bound.kind === 'min') return [bound.value, 100];
+  return [bound.value - bound.tolerance, bound.value + bound.tolerance];
+}
+
+function describeBand(band: LimitBand, index: number): string {
+  const b = boundOf(band);
+  const rule =
+    b.kind === 'max'
+      ? `${band.quantity} ≤ ${b.value} %`
+      : b.kind === 'min'
+        ? `${band.quantity} ≥ ${b.value} %`
+        : `${band.quantity} = ${b.value} ± ${b.tolerance} %`;
+  return `bands[${index}] (${rule})`;
+}
+
+function checkConsistent(a: LimitBand, b: LimitBand, i: number, j: number): void {
+  if (a.polarisation !== b.polarisation) return;
+  const lo = Math.max(a.from_nm, b.from_nm);
+  const hi = Math.min(a.to_nm, b.to_nm);
+  if (lo > hi) return;
+  const angle = (a.angles_deg ?? [0]).find((x) => (b.angles_deg ?? [0]).includes(x));
+  if (angle === undefined) return;
+  const [aLo, aHi] = allowed(boundOf(a));
+  const [bLo, bHi] = allowed(boundOf(b));
+  const where = `over ${lo}–${hi} nm at ${angle}°, ${a.polarisation}`;
+  if (a.quantity === b.quantity && Math.max(aLo, bLo) > Math.min(aHi, bHi)) {
+    throw new OpticsInputError(
+      fieldPath('bands', j),
+      `${describeBand(b, j)} contradicts ${describeBand(a, i)} ${where}: no value meets both`,
+    );
+  }
+  if (a.quantity !== b.quantity && aLo + bLo > 100) {
+    throw new OpticsInputError(
+      fieldPath('bands', j),
+      `${describeBand(b, j)} contradicts ${describeBand(a, i)} ${where}: R + T cannot exceed 100 %`,
+    );
+  }
+}
+
+/** Sample wavelengths of a band: from_nm, from_nm + step, …, and to_nm itself. */
+export function bandWavelengthsNm(band: LimitBand): number[] {
+  return evenWavelengthsNm(band.from_nm, band.to_nm, band.step_nm ?? 1, ['from_nm', 'to_nm', 'step_nm']);
+}
+
+/**
+ * The grid that evaluating `mask` needs: every band's sample wavelengths, angles and polarisations
+ * (sorted, without repeats). Compute a spectrum on it (in any thread) and pass that to
+ * {@link evaluateMaskOnSpectrum}.
+ */
+export function maskGrid(mask: SpecMask): SpectralGrid {
+  const checked = validateSpecMask(mask);
+  const wavelengths = new Set<number>();
+  const angles = new Set<number>();
+  const pols = new Set<Polarisation>();
+  for (const band of checked.bands) {
+    for (const wl of bandWavelengthsNm(band)) wavelengths.add(wl);
+    for (const a of band.angles_deg ?? [0]) angles.add(a);
+    pols.add(band.polarisation ?? 'avg');
+  }
+  return {
+    wavelengthsNm: [...wavelengths].sort((x, y) => x - y),
+    anglesDeg: [...angles].sort((x, y) => x - y),
+    polarisations: POLARISATIONS.filter((p) => pols.has(p)),
+  };
+}
+
+/**
+ * Evaluates a mask against a spectrum already computed on a grid that contains every band's
+ * samples (e.g. {@link maskGrid}). Margins are in percentage points: bound − value for a maximum,
+ * value − bound for a minimum, tolerance − |value − target| for a target.
+ */
+export function evaluateMaskOnSpectrum(
+  mask: SpecMask,
+  plan: SpectrumPlan,
+  spectrum: SpectrumOutput,
+): MaskResult {
+  const checked = validateSpecMask(mask);
+  const wlIndex = new Map<number, number>();
+  plan.wavelengthsNm.forEach((wl, i) => wlIndex.set(roundWavelengthNm(wl), i));
+  const angleIndex = new Map<number, number>();
+  plan.anglesDeg.forEach((a, i) => angleIndex.set(a, i));
+  const polIndex = new Map<Polarisation, number>();
+  plan.polarisations.forEach((p, i) => polIndex.set(p, i));
+  const nW = plan.wavelengthsNm.length;
+  const nA = plan.anglesDeg.length;
+
+  let weightedSquares = 0;
+  let weightSum = 0;
+  const bands: BandResult[] = checked.bands.map((band, b) => {
+    const bound = boundOf(band);
+    const pol = band.polarisation ?? 'avg';
+    const ip = polIndex.get(pol);
+    if (ip === undefined)
+      throw new OpticsInputError(
+        fieldPath(fieldPath('bands', b), 'polarisation'),
+        `"${pol}" was not computed`,
+      );
+    const values = band.quantity === 'R' ? spectrum.R : spectrum.T;
+    const weight = band.weight ?? 1;
+    let worstMargin = Infinity;
+    let worstAt: MaskPoint = { wavelengthNm: NaN, angleDeg: NaN, polarisation: pol, valuePercent: NaN };
+    let samples = 0;
+    for (const angle of band.angles_deg ?? [0]) {
+      const ia = angleIndex.get(angle);
+      if (ia === undefined) {
+        throw new OpticsInputError(
+          fieldPath(fieldPath('bands', b), 'angles_deg'),
+          `${angle}° was not computed`,
+        );
+      }
+      for (const wl of bandWavelengthsNm(band)) {
+        const iw = wlIndex.get(wl);
+        if (iw === undefined) {
+          throw new OpticsInputError(
+            fieldPath('bands', b),
+            `${wl} nm was not computed (use maskGrid for the grid)`,
+          );
+        }
+        const value = 100 * values[(ip * nA + ia) * nW + iw];
+        let margin: number;
+        let deviation: number;
+        if (bound.kind === 'max') {
+          margin = bound.value - value;
+          deviation = Math.max(0, -margin);
+        } else if (bound.kind === 'min') {
+          margin = value - bound.value;
+          deviation = Math.max(0, -margin);
+        } else {
+          deviation = value - bound.value;
+          margin = bound.tolerance - Math.abs(deviation);
+        }
+        weightedSquares += weight * deviation * deviation;
+        weightSum += weight;
+        samples++;
+        if (margin < worstMargin || Number.isNaN(margin)) {
+          worstMargin = margin;
+          worstAt = { wavelengthNm: wl, angleDeg: angle, polarisation: pol, valuePercent: value };
+        }
+      }
+    }
+    const result: BandResult = { band: b, pass: worstMargin >= 0, worstMargin, worstAt, samples };
+    if (band.label !== undefined) result.label = band.label;
+    return result;
+  });
+
+  let worstBand = 0;
+  for (let b = 1; b < bands.length; b++)
+    if (bands[b].worstMargin < bands[worstBand].worstMargin) worstBand = b;
+  return {
+    pass: bands.every((b) => b.pass),
+    worstMargin: bands[worstBand].worstMargin,
+    worstBand,
+    worstAt: bands[worstBand].worstAt,
+    merit: Math.sqrt(weightedSquares / weightSum),
+    bands,
+  };
+}
+
+/** Computes the spectrum a mask needs and evaluates it: pass/fail, worst margin and merit. */
+export function evaluateMask(
+  mask: SpecMask,
+  stack: OpticalStack,
+  options: Omit<SpectrumOptions, 'amplitudes'> = {},
+): MaskResult {
+  const spectrum = calculateSpectrum(stack, maskGrid(mask), options);
+  return evaluateMaskOnSpectrum(mask, spectrum.plan, spectrum);
+}
