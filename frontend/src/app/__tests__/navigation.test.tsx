@@ -1,0 +1,91 @@
+import { screen, within } from '@testing-library/react';
+import type { Role } from '@quietglass/shared';
+import { describe, expect, it } from 'vitest';
+import { HEALTH_OK, STAFF } from '../../test/fixtures';
+import { mockApi } from '../../test/mock-api';
+import { renderApp } from '../../test/render';
+
+// Expected links: the role table NAV_SECTIONS in shared/src/roles.ts (the API enforces the same
+// rules), written out literally here so a change on either side makes this test fail.
+const EXPECTED_LINKS: Record<Role, [name: string, href: string][]> = {
+  admin: [
+    ['Home', '/'],
+    ['Stack designs', '/designs'],
+    ['Materials', '/materials'],
+    ['Spec masks', '/spec-masks'],
+    ['Compute queue', '/compute-queue'],
+    ['Released recipes', '/recipes'],
+    ['Chamber runs', '/runs'],
+    ['Quotes', '/quotes'],
+    ['Users', '/admin/users'],
+  ],
+  engineer: [
+    ['Home', '/'],
+    ['Stack designs', '/designs'],
+    ['Materials', '/materials'],
+    ['Spec masks', '/spec-masks'],
+    ['Compute queue', '/compute-queue'],
+    ['Released recipes', '/recipes'],
+    ['Chamber runs', '/runs'],
+  ],
+  sales: [
+    ['Home', '/'],
+    ['Stack designs', '/designs'],
+    ['Spec masks', '/spec-masks'],
+    ['Quotes', '/quotes'],
+  ],
+  operator: [
+    ['Home', '/'],
+    ['Released recipes', '/recipes'],
+    ['Chamber runs', '/runs'],
+  ],
+};
+
+describe('side navigation', () => {
+  it.each(Object.keys(EXPECTED_LINKS) as Role[])(
+    'shows exactly the sections of the %s role',
+    async (role) => {
+      mockApi({
+        'GET /api/auth/me': { status: 200, body: { user: STAFF[role] } },
+        'GET /api/health': { status: 200, body: HEALTH_OK },
+      });
+      renderApp('/');
+
+      const nav = await screen.findByRole('navigation', { name: 'Main' });
+      const links = within(nav).getAllByRole('link');
+
+      expect(links.map((link) => [link.textContent, link.getAttribute('href')])).toEqual(
+        EXPECTED_LINKS[role],
+      );
+    },
+  );
+
+  it('shows the signed-in user and role in the top bar, and the role sections as cards on Home', async () => {
+    mockApi({
+      'GET /api/auth/me': { status: 200, body: { user: STAFF.sales } },
+      'GET /api/health': { status: 200, body: HEALTH_OK },
+    });
+    renderApp('/');
+
+    const banner = await screen.findByRole('banner');
+    expect(within(banner).getByText('Quietglass')).toBeTruthy();
+    expect(within(banner).getByText('Ines Calder')).toBeTruthy();
+    expect(within(banner).getByText('Sales')).toBeTruthy();
+    expect(screen.getByRole('heading', { level: 1, name: 'Welcome, Ines Calder' })).toBeTruthy();
+    const cards = within(screen.getByRole('list', { name: 'Your sections' })).getAllByRole('heading');
+    expect(cards.map((h) => h.textContent)).toEqual(['Stack designs', 'Spec masks', 'Quotes']);
+    expect((await screen.findByRole('status', { name: 'Service status' })).textContent).toBe(
+      'All services running · Database ok · Redis ok · Queue ok · Worker ok',
+    );
+  });
+
+  it('marks the current page in the navigation', async () => {
+    mockApi({ 'GET /api/auth/me': { status: 200, body: { user: STAFF.engineer } } });
+    renderApp('/materials');
+
+    const nav = await screen.findByRole('navigation', { name: 'Main' });
+    expect(within(nav).getByRole('link', { name: 'Materials' }).getAttribute('aria-current')).toBe('page');
+    expect(within(nav).getByRole('link', { name: 'Home' }).getAttribute('aria-current')).toBeNull();
+    expect(screen.getByText('Materials is not available yet in this release.')).toBeTruthy();
+  });
+});

@@ -1,0 +1,16 @@
+import type { NavSection } from '@quietglass/shared';
+
+/** One line per section for the home page's cards. */
+export const SECTION_SUMMARIES: Readonly<Record<NavSection['key'], string>> = {
+  designs: 'Layer stacks and their versions.',
+  materials: 'Refractive-index data of the coating materials in use.',
+  masks: "Customers' reflectance and transmittance limits.",
+  queue: 'Calculations that are running or waiting.',
+  recipes: 'Designs released for the chamber.',
+  runs: 'Deposition runs and their measured results.',
+  quotes: 'Prices and lead times offered to customers.',
+  users: 'Accounts, roles and passwords.',
+};
+
+/** Sections whose pages exist in this release; the others show a plain "not available yet". */
+export const AVAILABLE_SECTIONS: ReadonlySet<NavSection['key']> = new Set(['users']);

@@ -1,0 +1,41 @@
+import TextField, { type TextFieldProps } from '@mui/material/TextField';
+import {
+  useController,
+  type Control,
+  type FieldPath,
+  type FieldValues,
+  type RegisterOptions,
+} from 'react-hook-form';
+
+type FormTextFieldProps<T extends FieldValues> = Omit<
+  TextFieldProps,
+  'name' | 'value' | 'onChange' | 'onBlur' | 'error' | 'inputRef' | 'defaultValue'
+> & {
+  control: Control<T>;
+  name: FieldPath<T>;
+  rules?: RegisterOptions<T, FieldPath<T>>;
+};
+
+/** A MUI text field bound to a react-hook-form field; the rule's message shows as helper text. */
+export function FormTextField<T extends FieldValues>({
+  control,
+  name,
+  rules,
+  helperText,
+  ...textFieldProps
+}: FormTextFieldProps<T>) {
+  const { field, fieldState } = useController({ control, name, rules });
+  return (
+    <TextField
+      {...textFieldProps}
+      name={field.name}
+      value={field.value ?? ''}
+      onChange={field.onChange}
+      onBlur={field.onBlur}
+      inputRef={field.ref}
+      disabled={field.disabled || textFieldProps.disabled}
+      error={Boolean(fieldState.error)}
+      helperText={fieldState.error?.message ?? helperText}
+    />
+  );
+}

@@ -1,0 +1,130 @@
+import { screen, waitFor, within } from '@testing-library/react';
+import { describe, expect, it } from 'vitest';
+import { STAFF } from '../../../test/fixtures';
+import { apiError, mockApi } from '../../../test/mock-api';
+import { renderWithProviders } from '../../../test/render';
+import { UsersGrid } from '../components/users-grid';
+
+// Answers and bodies: the users endpoints of the Foundation issue's API contract
+// (GET /api/users → UserView[]; PATCH /api/users/:id with any of displayName, role, active;
+// 409 with a message when an administrator changes their own account).
+
+const ALL = [STAFF.admin, STAFF.engineer, STAFF.sales, STAFF.operator];
+
+function rowOf(email: string): HTMLElement {
+  const row = screen.getByRole('gridcell', { name: email }).closest('[role="row"]');
+  if (!(row instanceof HTMLElement)) throw new Error(`no row for ${email}`);
+  return row;
+}
+
+describe('UsersGrid', () => {
+  it('shows one row per user from GET /api/users with e-mail, name, role and active flag', async () => {
+    mockApi({ 'GET /api/users': { status: 200, body: ALL } });
+    renderWithProviders(<UsersGrid currentUserId={STAFF.admin.id} />);
+
+    expect(await screen.findByRole('gridcell', { name: STAFF.engineer.email })).toBeTruthy();
+    const grid = screen.getByRole('grid', { name: 'Users' });
+    // One header row plus one row per user.
+    expect(within(grid).getAllByRole('row')).toHaveLength(1 + ALL.length);
+    expect(
+      within(grid)
+        .getAllByRole('columnheader')
+        .map((h) => h.textContent),
+    ).toEqual(['E-mail', 'Name', 'Role', 'Active', 'Created', 'Password']);
+
+    for (const account of ALL) {
+      const row = within(rowOf(account.email));
+      expect(row.getByRole('gridcell', { name: account.displayName })).toBeTruthy();
+      expect(
+        (row.getByRole('combobox', { name: `Role of ${account.email}` }) as HTMLSelectElement).value,
+      ).toBe(account.role);
+      expect(
+        (row.getByRole('switch', { name: `Active: ${account.email}` }) as HTMLInputElement).checked,
+      ).toBe(account.active);
+    }
+  });
+
+  it("does not offer to change the signed-in administrator's own role or active flag", async () => {
+    mockApi({ 'GET /api/users': { status: 200, body: ALL } });
+    renderWithProviders(<UsersGrid currentUserId={STAFF.admin.id} />);
+
+    const own = within(await waitFor(() => rowOf(STAFF.admin.email)));
+    expect(
+      (own.getByRole('combobox', { name: `Role of ${STAFF.admin.email}` }) as HTMLSelectElement).disabled,
+    ).toBe(true);
+    expect(
+      (own.getByRole('switch', { name: `Active: ${STAFF.admin.email}` }) as HTMLInputElement).disabled,
+    ).toBe(true);
+    const other = within(rowOf(STAFF.sales.email));
+    expect(
+      (other.getByRole('combobox', { name: `Role of ${STAFF.sales.email}` }) as HTMLSelectElement).disabled,
+    ).toBe(false);
+  });
+
+  it('changes a role inline with PATCH { role }', async () => {
+    const api = mockApi({
+      'GET /api/users': [
+        { status: 200, body: ALL },
+        { status: 200, body: ALL.map((u) => (u.id === STAFF.engineer.id ? { ...u, role: 'sales' } : u)) },
+      ],
+      'PATCH /api/users/2': { status: 200, body: { ...STAFF.engineer, role: 'sales' } },
+    });
+    const { user } = renderWithProviders(<UsersGrid currentUserId={STAFF.admin.id} />);
+
+    const select = await screen.findByRole('combobox', { name: `Role of ${STAFF.engineer.email}` });
+    await user.selectOptions(select, 'sales');
+
+    await waitFor(() => expect(api.calls('PATCH', '/api/users/2')).toHaveLength(1));
+    expect(api.calls('PATCH', '/api/users/2')[0].body).toEqual({ role: 'sales' });
+    await waitFor(() => expect(api.calls('GET', '/api/users')).toHaveLength(2));
+    expect((select as HTMLSelectElement).value).toBe('sales');
+  });
+
+  it('deactivates with PATCH { active: false } and shows a 409 message, keeping the server state', async () => {
+    const api = mockApi({
+      'GET /api/users': { status: 200, body: ALL },
+      'PATCH /api/users/3': apiError(409, 'Conflict', 'At least one active administrator must remain.'),
+    });
+    const { user } = renderWithProviders(<UsersGrid currentUserId={STAFF.admin.id} />);
+
+    const toggle = await screen.findByRole('switch', { name: `Active: ${STAFF.sales.email}` });
+    await user.click(toggle);
+
+    expect((await screen.findByRole('alert')).textContent).toBe(
+      'At least one active administrator must remain.',
+    );
+    expect(api.calls('PATCH', '/api/users/3').map((r) => r.body)).toEqual([{ active: false }]);
+    await waitFor(() =>
+      expect(
+        (screen.getByRole('switch', { name: `Active: ${STAFF.sales.email}` }) as HTMLInputElement).checked,
+      ).toBe(true),
+    );
+  });
+
+  it('resets a password with POST /api/users/:id/password and rejects a short one locally', async () => {
+    const api = mockApi({
+      'GET /api/users': { status: 200, body: ALL },
+      'POST /api/users/4/password': { status: 204 },
+    });
+    const { user } = renderWithProviders(<UsersGrid currentUserId={STAFF.admin.id} />);
+
+    await user.click(
+      await screen.findByRole('button', { name: `Reset password of ${STAFF.operator.email}` }),
+    );
+    const dialog = within(await screen.findByRole('dialog', { name: 'Reset password' }));
+    await user.type(dialog.getByLabelText('New password'), 'short');
+    await user.click(dialog.getByRole('button', { name: 'Set password' }));
+    expect(dialog.getByLabelText('New password').getAttribute('aria-invalid')).toBe('true');
+    expect(api.calls('POST', '/api/users/4/password')).toHaveLength(0);
+
+    await user.type(dialog.getByLabelText('New password'), '-and-longer');
+    await user.click(dialog.getByRole('button', { name: 'Set password' }));
+
+    expect((await screen.findByRole('alert')).textContent).toBe(
+      `New password set for ${STAFF.operator.email}.`,
+    );
+    expect(api.calls('POST', '/api/users/4/password').map((r) => r.body)).toEqual([
+      { newPassword: 'short-and-longer' },
+    ]);
+  });
+});

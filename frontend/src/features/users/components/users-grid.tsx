@@ -1,0 +1,119 @@
+import Button from '@mui/material/Button';
+import NativeSelect from '@mui/material/NativeSelect';
+import Switch from '@mui/material/Switch';
+import { DataGrid, type GridColDef } from '@mui/x-data-grid';
+import { ROLES, isRole, type UserView } from '@quietglass/shared';
+import { useMemo, useState } from 'react';
+import { ErrorAlert } from '../../../components/error-alert';
+import { ROLE_LABELS } from '../../../lib/roles';
+import { useUsers } from '../api/get-users';
+import { useUpdateUser } from '../api/update-user';
+import { ResetPasswordDialog } from './reset-password-dialog';
+
+const createdFormat = new Intl.DateTimeFormat(undefined, { dateStyle: 'medium', timeStyle: 'short' });
+
+function formatCreated(value: string): string {
+  const date = new Date(value);
+  return Number.isNaN(date.getTime()) ? value : createdFormat.format(date);
+}
+
+const SELF_HINT = 'Your own role and active flag can only be changed by another administrator.';
+
+interface UsersGridProps {
+  /** The signed-in administrator: their own role and active flag are not editable here. */
+  currentUserId: number;
+}
+
+/** Every account, with inline role change, activate/deactivate and password reset. */
+export function UsersGrid({ currentUserId }: UsersGridProps) {
+  const users = useUsers();
+  const updateUser = useUpdateUser();
+  const [resetFor, setResetFor] = useState<UserView | null>(null);
+  const { mutate } = updateUser;
+  const pendingId = updateUser.isPending ? updateUser.variables.id : null;
+
+  const columns = useMemo<GridColDef<UserView>[]>(
+    () => [
+      { field: 'email', headerName: 'E-mail', flex: 1.4, minWidth: 200 },
+      { field: 'displayName', headerName: 'Name', flex: 1, minWidth: 150 },
+      {
+        field: 'role',
+        headerName: 'Role',
+        width: 170,
+        renderCell: ({ row }) => (
+          <NativeSelect
+            value={row.role}
+            disabled={row.id === currentUserId || row.id === pendingId}
+            title={row.id === currentUserId ? SELF_HINT : undefined}
+            onChange={(event) => {
+              const role = event.target.value;
+              if (isRole(role) && role !== row.role) mutate({ id: row.id, changes: { role } });
+            }}
+            inputProps={{ 'aria-label': `Role of ${row.email}` }}
+            disableUnderline
+          >
+            {ROLES.map((role) => (
+              <option key={role} value={role}>
+                {ROLE_LABELS[role]}
+              </option>
+            ))}
+          </NativeSelect>
+        ),
+      },
+      {
+        field: 'active',
+        headerName: 'Active',
+        width: 100,
+        renderCell: ({ row }) => (
+          <Switch
+            checked={row.active}
+            disabled={row.id === currentUserId || row.id === pendingId}
+            onChange={(event) => mutate({ id: row.id, changes: { active: event.target.checked } })}
+            slotProps={{
+              input: {
+                'aria-label': `Active: ${row.email}`,
+                title: row.id === currentUserId ? SELF_HINT : undefined,
+              },
+            }}
+          />
+        ),
+      },
+      {
+        field: 'createdAt',
+        headerName: 'Created',
+        width: 180,
+        valueFormatter: (value: string) => formatCreated(value),
+      },
+      {
+        field: 'actions',
+        headerName: 'Password',
+        width: 160,
+        sortable: false,
+        filterable: false,
+        renderCell: ({ row }) => (
+          <Button size="small" onClick={() => setResetFor(row)} aria-label={`Reset password of ${row.email}`}>
+            Reset password
+          </Button>
+        ),
+      },
+    ],
+    [currentUserId, pendingId, mutate],
+  );
+
+  if (users.isError) return <ErrorAlert error={users.error} title="The user list could not be loaded" />;
+
+  return (
+    <>
+      <DataGrid
+        aria-label="Users"
+        rows={users.data ?? []}
+        columns={columns}
+        loading={users.isPending}
+        autoHeight
+        disableRowSelectionOnClick
+        initialState={{ sorting: { sortModel: [{ field: 'email', sort: 'asc' }] } }}
+      />
+      <ResetPasswordDialog user={resetFor} onClose={() => setResetFor(null)} />
+    </>
+  );
+}
