@@ -28,6 +28,9 @@ const only = onlyIdx >= 0 ? (process.argv[onlyIdx + 1] ?? '').split(',').filter(
 for (const s of only)
   if (!STAGES.includes(s)) throw new StartupError(`unknown stage "${s}"; stages: ${STAGES.join(', ')}`);
 
+// `--filter PATTERN` narrows the vitest runs to matching test files (handy while working on one).
+const filterIdx = process.argv.indexOf('--filter');
+const filter = filterIdx >= 0 ? ['--passWithNoTests', process.argv[filterIdx + 1]] : [];
 const results = [];
 const stoppers = [];
 const children = [];
@@ -112,11 +115,13 @@ async function main() {
   }
   const backendDir = path.join(ROOT, 'backend');
   if (only.includes('backend')) {
-    await step('backend: unit tests', 'npx', ['vitest', 'run'], { cwd: backendDir, env });
+    // The e2e tests start the real worker process from the build.
+    runStep('building the API and worker (backend)…', 'npm', ['run', 'build', '-w', 'backend', '--silent']);
+    await step('backend: unit tests', 'npx', ['vitest', 'run', ...filter], { cwd: backendDir, env });
     await step(
       'backend: e2e tests (PostgreSQL + Redis)',
       'npx',
-      ['vitest', 'run', '-c', 'vitest.e2e.config.ts'],
+      ['vitest', 'run', '-c', 'vitest.e2e.config.ts', ...filter],
       {
         cwd: backendDir,
         env,

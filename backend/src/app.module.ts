@@ -5,9 +5,12 @@ import { TypeOrmModule } from '@nestjs/typeorm';
 import { appConfig, type AppConfig } from './config/configuration.js';
 import { dataSourceOptions } from './database/data-source.js';
 import { AuthModule } from './auth/auth.module.js';
+import { CalculationsModule } from './calculations/calculations.module.js';
 import { CustomersModule } from './customers/customers.module.js';
+import { DesignsModule } from './designs/designs.module.js';
 import { HealthModule } from './health/health.module.js';
 import { MaterialsModule } from './materials/materials.module.js';
+import { SpecMasksModule } from './spec-masks/spec-masks.module.js';
 import { UsersModule } from './users/users.module.js';
 
 @Module({
@@ -28,6 +31,9 @@ import { UsersModule } from './users/users.module.js';
     HealthModule,
     CustomersModule,
     MaterialsModule,
+    SpecMasksModule,
+    DesignsModule,
+    CalculationsModule,
   ],
 })
 export class AppModule {}

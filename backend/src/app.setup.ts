@@ -2,6 +2,7 @@ import fs from 'node:fs';
 import path from 'node:path';
 import { ValidationPipe } from '@nestjs/common';
 import type { NestExpressApplication } from '@nestjs/platform-express';
+import { DocumentBuilder, SwaggerModule } from '@nestjs/swagger';
 import cookieParser from 'cookie-parser';
 import type { NextFunction, Request, Response } from 'express';
 import { AllExceptionsFilter } from './common/http-exception.filter.js';
@@ -15,6 +16,18 @@ export function configureApp(app: NestExpressApplication, clientDist: string | n
   app.useGlobalPipes(new ValidationPipe({ whitelist: true, forbidNonWhitelisted: true, transform: true }));
   app.useGlobalFilters(new AllExceptionsFilter());
   app.enableShutdownHooks();
+  // OpenAPI description of every route, built on first request: /api/docs (pages), /api/docs-json.
+  const description = new DocumentBuilder()
+    .setTitle('Quietglass API')
+    .setDescription(
+      'Coating design, approval and production for thin-film shops. Sign in with POST /api/auth/sign-in.',
+    )
+    .setVersion('0.1')
+    .addCookieAuth('qg_session')
+    .build();
+  SwaggerModule.setup('api/docs', app, () => SwaggerModule.createDocument(app, description), {
+    jsonDocumentUrl: 'api/docs-json',
+  });
   if (clientDist) serveClient(app, clientDist);
 }
 

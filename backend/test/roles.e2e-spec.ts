@@ -1,9 +1,11 @@
 import type { NestExpressApplication } from '@nestjs/platform-express';
 import request from 'supertest';
+import { DataSource } from 'typeorm';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { ROLES, type Role } from '@quietglass/shared';
 import { createTestApp, sessionCookie } from './support/app.js';
 import { demoSignIn } from './support/env.js';
+import { materialIds, twoLayerDesign, versionContent } from './support/fixtures.js';
 
 /**
  * Every API route, who may use it, and what a permitted call returns. A route missing here fails
@@ -18,9 +20,9 @@ interface RouteRule {
   /** Request for a permitted caller; gets a context with ids made in beforeAll. */
   body?: (ctx: MatrixContext, role: Role | 'anonymous') => object;
   /** Concrete path (for :id routes). */
-  url?: (ctx: MatrixContext) => string;
+  url?: (ctx: MatrixContext, role: Role | 'anonymous') => string;
   /** Keeps the context in step after a permitted call (e.g. a new row version). */
-  after?: (ctx: MatrixContext, body: { version?: number }) => void;
+  after?: (ctx: MatrixContext, body: { version?: number; rowVersion?: number }) => void;
 }
 
 interface MatrixContext {
@@ -28,6 +30,15 @@ interface MatrixContext {
   materialId: number;
   materialVersion: number;
   customerId: number;
+  designId: number;
+  maskId: number;
+  maskVersion: number;
+  doneCalcId: number;
+  cancelCalcIds: Partial<Record<Role | 'anonymous', number>>;
+  draftRowVersion: number;
+  /** One fresh draft design per permitted submit call. */
+  submitDesignIds: Partial<Record<Role | 'anonymous', number>>;
+  design: ReturnType<typeof twoLayerDesign>;
   passwords: Record<Role, string>;
   counter: number;
 }
@@ -35,6 +46,12 @@ interface MatrixContext {
 const ALL: readonly Role[] = ROLES;
 const DESIGNERS: readonly Role[] = ['admin', 'engineer'];
 const OFFICE: readonly Role[] = ['admin', 'engineer', 'sales'];
+const maskBody = (ctx: MatrixContext) => ({
+  name: 'Matrix mask',
+  customerId: ctx.customerId,
+  revision: 'A',
+  bands: [{ from_nm: 400, to_nm: 700, quantity: 'R', max_percent: 1 }],
+});
 const materialBody = (name: string) => ({
   name,
   model: { model: 'constant', n: 1.9, k: 0 },
@@ -132,6 +149,146 @@ const RULES: RouteRule[] = [
       csv: 'wavelength_nm,n,k\n400,1.5,0\n800,1.45,0\n',
     }),
   },
+  { method: 'get', path: '/api/designs', allow: OFFICE, okStatus: 200 },
+  { method: 'post', path: '/api/designs', allow: DESIGNERS, okStatus: 201, body: (ctx) => ctx.design },
+  {
+    method: 'get',
+    path: '/api/designs/:id',
+    allow: OFFICE,
+    okStatus: 200,
+    url: (ctx) => `/api/designs/${ctx.designId}`,
+  },
+  {
+    method: 'patch',
+    path: '/api/designs/:id',
+    allow: DESIGNERS,
+    okStatus: 200,
+    url: (ctx) => `/api/designs/${ctx.designId}`,
+    body: () => ({ name: 'Matrix design renamed' }),
+  },
+  {
+    method: 'get',
+    path: '/api/designs/:id/versions/:number',
+    allow: OFFICE,
+    okStatus: 200,
+    url: (ctx) => `/api/designs/${ctx.designId}/versions/1`,
+  },
+  {
+    method: 'put',
+    path: '/api/designs/:id/versions/:number',
+    allow: DESIGNERS,
+    okStatus: 200,
+    url: (ctx) => `/api/designs/${ctx.designId}/versions/1`,
+    body: (ctx) => ({ ...versionContent(ctx.design), rowVersion: ctx.draftRowVersion }),
+    after: (ctx, body) => {
+      ctx.draftRowVersion = body.rowVersion ?? ctx.draftRowVersion;
+    },
+  },
+  {
+    method: 'post',
+    path: '/api/designs/:id/versions',
+    allow: DESIGNERS,
+    okStatus: 201,
+    url: (ctx) => `/api/designs/${ctx.designId}/versions`,
+    body: () => ({ fromNumber: 1 }),
+  },
+  {
+    method: 'post',
+    path: '/api/designs/:id/versions/:number/submit',
+    allow: DESIGNERS,
+    okStatus: 201,
+    url: (ctx, role) => `/api/designs/${ctx.submitDesignIds[role] ?? ctx.designId}/versions/1/submit`,
+    body: () => ({ rowVersion: 1 }),
+  },
+  { method: 'get', path: '/api/spec-masks', allow: OFFICE, okStatus: 200 },
+  {
+    method: 'get',
+    path: '/api/spec-masks/:id',
+    allow: OFFICE,
+    okStatus: 200,
+    url: (ctx) => `/api/spec-masks/${ctx.maskId}`,
+  },
+  {
+    method: 'get',
+    path: '/api/spec-masks/:id/csv',
+    allow: OFFICE,
+    okStatus: 200,
+    url: (ctx) => `/api/spec-masks/${ctx.maskId}/csv`,
+  },
+  {
+    method: 'post',
+    path: '/api/spec-masks',
+    allow: OFFICE,
+    okStatus: 201,
+    body: (ctx) => ({ ...maskBody(ctx), revision: `M${(ctx.counter += 1)}` }),
+  },
+  {
+    method: 'put',
+    path: '/api/spec-masks/:id',
+    allow: OFFICE,
+    okStatus: 200,
+    url: (ctx) => `/api/spec-masks/${ctx.maskId}`,
+    body: (ctx) => ({ ...maskBody(ctx), version: ctx.maskVersion }),
+    after: (ctx, body) => {
+      ctx.maskVersion = body.version ?? ctx.maskVersion;
+    },
+  },
+  {
+    method: 'post',
+    path: '/api/spec-masks/import-csv',
+    allow: OFFICE,
+    okStatus: 201,
+    body: (ctx) => ({
+      name: 'Matrix mask',
+      customerId: ctx.customerId,
+      revision: `C${(ctx.counter += 1)}`,
+      csv: 'from_nm,to_nm,quantity,max_percent\n400,700,R,1\n',
+    }),
+  },
+  {
+    method: 'post',
+    path: '/api/designs/:id/versions/:number/analysis',
+    allow: DESIGNERS,
+    okStatus: 201,
+    url: (ctx) => `/api/designs/${ctx.designId}/versions/1/analysis`,
+    body: (ctx) => ({
+      fromNm: 400,
+      toNm: 700,
+      wavelengthCount: 3 + (ctx.counter += 1),
+      angleFromDeg: 0,
+      angleToDeg: 0,
+      angleCount: 1,
+    }),
+  },
+  { method: 'get', path: '/api/calculations', allow: DESIGNERS, okStatus: 200 },
+  {
+    method: 'get',
+    path: '/api/calculations/:id',
+    allow: OFFICE,
+    okStatus: 200,
+    url: (ctx) => `/api/calculations/${ctx.doneCalcId}`,
+  },
+  {
+    method: 'get',
+    path: '/api/calculations/:id/result',
+    allow: OFFICE,
+    okStatus: 200,
+    url: (ctx) => `/api/calculations/${ctx.doneCalcId}/result?quantity=T&polarisation=s`,
+  },
+  {
+    method: 'get',
+    path: '/api/calculations/:id/result.csv',
+    allow: OFFICE,
+    okStatus: 200,
+    url: (ctx) => `/api/calculations/${ctx.doneCalcId}/result.csv`,
+  },
+  {
+    method: 'post',
+    path: '/api/calculations/:id/cancel',
+    allow: DESIGNERS,
+    okStatus: 201,
+    url: (ctx, role) => `/api/calculations/${ctx.cancelCalcIds[role] ?? ctx.doneCalcId}/cancel`,
+  },
   { method: 'get', path: '/api/customers', allow: OFFICE, okStatus: 200 },
   {
     method: 'get',
@@ -164,6 +321,14 @@ const ctx: MatrixContext = {
   materialId: 0,
   materialVersion: 0,
   customerId: 0,
+  designId: 0,
+  maskId: 0,
+  maskVersion: 1,
+  doneCalcId: 0,
+  cancelCalcIds: {},
+  draftRowVersion: 1,
+  submitDesignIds: {},
+  design: {} as ReturnType<typeof twoLayerDesign>,
   passwords: {} as Record<Role, string>,
   counter: 0,
 };
@@ -204,6 +369,62 @@ beforeAll(async () => {
     .send({ name: 'Matrix customer' });
   expect(customer.status).toBe(201);
   ctx.customerId = customer.body.id;
+  const mask = await request(app.getHttpServer())
+    .post('/api/spec-masks')
+    .set('Cookie', adminCookie)
+    .send(maskBody(ctx));
+  expect(mask.status).toBe(201);
+  ctx.maskId = mask.body.id;
+  ctx.design = twoLayerDesign(await materialIds(app, adminCookie), ctx.customerId, 'Matrix design');
+  const createDesign = async () => {
+    const res = await request(app.getHttpServer())
+      .post('/api/designs')
+      .set('Cookie', adminCookie)
+      .send(ctx.design);
+    expect(res.status).toBe(201);
+    return res.body.id as number;
+  };
+  ctx.designId = await createDesign();
+  for (const role of DESIGNERS) ctx.submitDesignIds[role] = await createDesign();
+  // Calculations inserted directly: one completed (1 wavelength, 1 angle), one queued per canceller.
+  const db = app.get(DataSource);
+  const adminId = (await request(app.getHttpServer()).get('/api/auth/me').set('Cookie', adminCookie)).body
+    .user.id;
+  const request1 = {
+    fromNm: 500,
+    toNm: 600,
+    wavelengthCount: 1,
+    angleFromDeg: 0,
+    angleToDeg: 0,
+    angleCount: 1,
+  };
+  const input = JSON.stringify({
+    stack: { substrate: { n: 1.52 }, layers: [] },
+    back: 'none',
+    request: request1,
+  });
+  const summary = JSON.stringify({
+    wavelengthsNm: [500],
+    anglesDeg: [0],
+    polarisations: ['s', 'p', 'avg'],
+    colour: null,
+    field: null,
+    warnings: [],
+  });
+  const values = Buffer.from(new Float64Array(9).fill(0.5).buffer);
+  const [done] = await db.query(
+    `INSERT INTO calculations (kind, input_hash, input, status, summary, values, created_by, progress)
+     VALUES ('analysis', $1, $2, 'completed', $3, $4, $5, 1) RETURNING id`,
+    ['d'.repeat(64), input, summary, values, adminId],
+  );
+  ctx.doneCalcId = done.id;
+  for (const [i, role] of DESIGNERS.entries()) {
+    const [queued] = await db.query(
+      `INSERT INTO calculations (kind, input_hash, input, status, created_by) VALUES ('analysis', $1, $2, 'queued', $3) RETURNING id`,
+      [String(i).repeat(64), input, adminId],
+    );
+    ctx.cancelCalcIds[role] = queued.id;
+  }
 });
 
 afterAll(async () => {
@@ -211,7 +432,7 @@ afterAll(async () => {
 });
 
 function call(rule: RouteRule, cookie?: string, role: Role | 'anonymous' = 'anonymous') {
-  const url = rule.url ? rule.url(ctx) : rule.path;
+  const url = rule.url ? rule.url(ctx, role) : rule.path;
   let req = request(app.getHttpServer())[rule.method](url);
   if (cookie) req = req.set('Cookie', cookie);
   return rule.body ? req.send(rule.body(ctx, role)) : req;
@@ -236,6 +457,18 @@ describe('role × route matrix', () => {
     });
   }
 
+  it('documents every route in the OpenAPI description at /api/docs-json', async () => {
+    const res = await request(app.getHttpServer()).get('/api/docs-json');
+    expect(res.status).toBe(200);
+    const documented = Object.entries(res.body.paths as Record<string, Record<string, unknown>>).flatMap(
+      ([p, ops]) => Object.keys(ops).map((m) => `${m.toUpperCase()} ${p.replace(/\{(\w+)\}/g, ':$1')}`),
+    );
+    expect(documented.sort()).toEqual(RULES.map((r) => `${r.method.toUpperCase()} ${r.path}`).sort());
+    const page = await request(app.getHttpServer()).get('/api/docs');
+    expect(page.status).toBe(200);
+    expect(page.text).toMatch(/swagger-ui/);
+  });
+
   it('covers every route the API registers', () => {
     const registered = registeredRoutes(app).sort();
     const covered = RULES.map((r) => `${r.method.toUpperCase()} ${r.path}`).sort();
@@ -252,6 +485,8 @@ function registeredRoutes(nest: NestExpressApplication): string[] {
   for (const layer of express.router.stack) {
     if (!layer.route) continue;
     for (const [method, on] of Object.entries(layer.route.methods)) {
+      // The OpenAPI pages are public documentation, not API routes.
+      if (layer.route.path.startsWith('/api/docs')) continue;
       if (on && method !== '_all') out.push(`${method.toUpperCase()} ${layer.route.path}`);
     }
   }

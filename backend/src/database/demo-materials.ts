@@ -24,6 +24,14 @@ function typicalCauchy(n550: number, B: number): MaterialModel {
 /** Substrates from published Sellmeier coefficients; coating materials as typical demo values. */
 export const DEMO_MATERIALS: readonly DemoMaterial[] = [
   {
+    name: 'Air',
+    model: MATERIAL_LIBRARY.air,
+    rangeNm: { from: 150, to: 20_000 },
+    typical: false,
+    source: 'Taken as n = 1; air (about 1.0003 at 550 nm) differs by less than coating work resolves',
+    processNotes: 'Incident and exit medium',
+  },
+  {
     name: 'N-BK7',
     model: MATERIAL_LIBRARY['N-BK7'],
     rangeNm: { from: 300, to: 2500 },
@@ -73,4 +81,60 @@ export const DEMO_CUSTOMERS: readonly { name: string; contactEmail: string; note
     notes: 'Endoscope windows',
   },
   { name: 'Brightwater Instruments', contactEmail: 'lab@brightwater.example', notes: 'Spectrometer optics' },
+];
+
+/**
+ * Demo spec masks (invented customers' invented drawings). The first is the usual visible broadband
+ * AR requirement: R ≤ 0.5 % over 420–680 nm at 0–30°, unpolarised (common practice, no source).
+ */
+export const DEMO_SPEC_MASKS: readonly {
+  customer: string;
+  name: string;
+  revision: string;
+  bands: Record<string, unknown>[];
+  notes: string;
+}[] = [
+  {
+    customer: 'Halden Vision Systems',
+    name: 'HVS-2210 lens AR',
+    revision: 'A',
+    bands: [
+      {
+        from_nm: 420,
+        to_nm: 680,
+        angles_deg: [0, 15, 30],
+        polarisation: 'avg',
+        quantity: 'R',
+        max_percent: 0.5,
+        step_nm: 2,
+      },
+    ],
+    notes: 'Both surfaces; average polarisation',
+  },
+  {
+    customer: 'Orrin Medical Imaging',
+    name: 'OMI window 532',
+    revision: 'B',
+    bands: [
+      {
+        from_nm: 527,
+        to_nm: 537,
+        angles_deg: [0],
+        polarisation: 'avg',
+        quantity: 'R',
+        max_percent: 0.25,
+        step_nm: 1,
+      },
+      {
+        from_nm: 450,
+        to_nm: 650,
+        angles_deg: [0],
+        polarisation: 'avg',
+        quantity: 'R',
+        max_percent: 1.5,
+        step_nm: 5,
+      },
+    ],
+    notes: 'Laser line plus visible viewing band',
+  },
 ];

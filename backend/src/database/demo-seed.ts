@@ -6,7 +6,9 @@ import type { Role } from '@quietglass/shared';
 import { Customer } from '../customers/customer.entity.js';
 import { Material } from '../materials/material.entity.js';
 import { User } from '../users/user.entity.js';
-import { DEMO_CUSTOMERS, DEMO_MATERIALS } from './demo-materials.js';
+import { validateSpecMask } from '@quietglass/shared/optics/mask';
+import { SpecMaskRecord } from '../spec-masks/spec-mask.entity.js';
+import { DEMO_CUSTOMERS, DEMO_MATERIALS, DEMO_SPEC_MASKS } from './demo-materials.js';
 import { hashPassword } from '../users/passwords.js';
 
 /**
@@ -71,6 +73,22 @@ export async function seedDemo(db: DataSource, signIns: DemoSignIn[]): Promise<n
       typical: m.typical,
       source: m.source,
       processNotes: m.processNotes,
+      version: 1,
+    });
+    created += 1;
+  }
+  for (const mask of DEMO_SPEC_MASKS) {
+    const customer = await db.getRepository(Customer).findOneByOrFail({ name: mask.customer });
+    const repo = db.getRepository(SpecMaskRecord);
+    if (await repo.existsBy({ name: mask.name, revision: mask.revision, customer: { id: customer.id } }))
+      continue;
+    const { bands } = validateSpecMask({ bands: mask.bands });
+    await repo.insert({
+      name: mask.name,
+      revision: mask.revision,
+      customer,
+      bands,
+      notes: mask.notes,
       version: 1,
     });
     created += 1;

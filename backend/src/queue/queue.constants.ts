@@ -9,3 +9,10 @@ export interface PingResult {
   host: string;
   answeredAt: string;
 }
+/** Queue of heavy calculations (full analysis; optimisation and Monte Carlo later). */
+export const COMPUTE_QUEUE = 'compute';
+export const ANALYSIS_JOB = 'analysis';
+
+export interface ComputeJobData {
+  calculationId: number;
+}

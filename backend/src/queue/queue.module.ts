@@ -1,7 +1,7 @@
 import { Module } from '@nestjs/common';
 import { BullModule } from '@nestjs/bullmq';
 import { appConfig, redisConnection, type AppConfig } from '../config/configuration.js';
-import { SYSTEM_QUEUE } from './queue.constants.js';
+import { COMPUTE_QUEUE, SYSTEM_QUEUE } from './queue.constants.js';
 
 /** BullMQ on the configured Redis, shared by the API (producer) and the worker (consumer). */
 @Module({
@@ -13,7 +13,7 @@ import { SYSTEM_QUEUE } from './queue.constants.js';
         prefix: 'qg',
       }),
     }),
-    BullModule.registerQueue({ name: SYSTEM_QUEUE }),
+    BullModule.registerQueue({ name: SYSTEM_QUEUE }, { name: COMPUTE_QUEUE }),
   ],
   exports: [BullModule],
 })

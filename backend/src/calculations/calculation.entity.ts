@@ -1,0 +1,113 @@
+import { Column, CreateDateColumn, Entity, JoinColumn, ManyToOne, PrimaryGeneratedColumn } from 'typeorm';
+import type { AnalysisInput, AnalysisSummary } from '@quietglass/shared/analysis';
+import { User } from '../users/user.entity.js';
+
+export const CALCULATION_STATUSES = ['queued', 'running', 'completed', 'failed', 'cancelled'] as const;
+export type CalculationStatus = (typeof CALCULATION_STATUSES)[number];
+
+/** A compute-queue job and, once done, its stored result. */
+@Entity({ name: 'calculations' })
+export class Calculation {
+  @PrimaryGeneratedColumn()
+  id: number;
+
+  @Column({ type: 'varchar', length: 32 })
+  kind: 'analysis';
+
+  /** SHA-256 of the canonical input: an identical request finds the stored result. */
+  @Column({ name: 'input_hash', type: 'char', length: 64 })
+  inputHash: string;
+
+  @Column({ type: 'jsonb' })
+  input: AnalysisInput;
+
+  @Column({ name: 'design_id', type: 'integer', nullable: true })
+  designId: number | null;
+
+  @Column({ name: 'version_number', type: 'integer', nullable: true })
+  versionNumber: number | null;
+
+  @Column({ type: 'varchar', length: 16 })
+  status: CalculationStatus;
+
+  /** 0 to 1. */
+  @Column({ type: 'double precision', default: 0 })
+  progress: number;
+
+  @Column({ type: 'text', nullable: true })
+  error: string | null;
+
+  @Column({ type: 'jsonb', nullable: true })
+  summary: AnalysisSummary | null;
+
+  /** R, T, A as little-endian float64, in the order of analysisIndex. */
+  @Column({ type: 'bytea', nullable: true, select: false })
+  values: Buffer | null;
+
+  @ManyToOne(() => User, { nullable: false, eager: true })
+  @JoinColumn({ name: 'created_by' })
+  createdBy: User;
+
+  @CreateDateColumn({ name: 'created_at', type: 'timestamptz' })
+  createdAt: Date;
+
+  @Column({ name: 'started_at', type: 'timestamptz', nullable: true })
+  startedAt: Date | null;
+
+  @Column({ name: 'finished_at', type: 'timestamptz', nullable: true })
+  finishedAt: Date | null;
+
+  /** Wall time of the computation itself, ms. */
+  @Column({ name: 'compute_ms', type: 'double precision', nullable: true })
+  computeMs: number | null;
+
+  /** Which worker (host:pid) ran it, and how many times a result was stored (must stay ≤ 1). */
+  @Column({ name: 'processed_by', type: 'varchar', length: 200, nullable: true })
+  processedBy: string | null;
+
+  @Column({ name: 'completed_count', type: 'integer', default: 0 })
+  completedCount: number;
+
+  @Column({ type: 'integer', default: 0 })
+  attempts: number;
+}
+
+export interface CalculationView {
+  id: number;
+  kind: 'analysis';
+  status: CalculationStatus;
+  progress: number;
+  error: string | null;
+  designId: number | null;
+  versionNumber: number | null;
+  request: AnalysisInput['request'];
+  summary: AnalysisSummary | null;
+  createdBy: string;
+  createdAt: string;
+  startedAt: string | null;
+  finishedAt: string | null;
+  computeMs: number | null;
+  processedBy: string | null;
+  attempts: number;
+}
+
+export function toCalculationView(c: Calculation): CalculationView {
+  return {
+    id: c.id,
+    kind: c.kind,
+    status: c.status,
+    progress: c.progress,
+    error: c.error,
+    designId: c.designId,
+    versionNumber: c.versionNumber,
+    request: c.input.request,
+    summary: c.summary,
+    createdBy: c.createdBy.displayName,
+    createdAt: c.createdAt.toISOString(),
+    startedAt: c.startedAt?.toISOString() ?? null,
+    finishedAt: c.finishedAt?.toISOString() ?? null,
+    computeMs: c.computeMs,
+    processedBy: c.processedBy,
+    attempts: c.attempts,
+  };
+}

@@ -1,0 +1,65 @@
+import { Body, Controller, Get, Header, Param, ParseIntPipe, Post, Query, Res } from '@nestjs/common';
+import type { Response } from 'express';
+import { CurrentUser } from '../auth/current-user.decorator.js';
+import { Roles } from '../auth/roles.decorator.js';
+import type { User } from '../users/user.entity.js';
+import { toCalculationView, type CalculationView } from './calculation.entity.js';
+import { CalculationsService } from './calculations.service.js';
+
+/** The compute queue: engineers submit and cancel; results are readable by the office roles. */
+@Controller()
+@Roles('admin', 'engineer')
+export class CalculationsController {
+  constructor(private readonly calculations: CalculationsService) {}
+
+  /** 201 with a new queued calculation, or 200 with the identical one already queued or done. */
+  @Post('designs/:id/versions/:number/analysis')
+  async submit(
+    @Param('id', ParseIntPipe) id: number,
+    @Param('number', ParseIntPipe) number: number,
+    @Body() body: Record<string, unknown>,
+    @CurrentUser() user: User,
+    @Res({ passthrough: true }) res: Response,
+  ): Promise<CalculationView & { reused: boolean }> {
+    const { calculation, reused } = await this.calculations.submitAnalysis(id, number, body, user);
+    res.status(reused ? 200 : 201);
+    return { ...toCalculationView(calculation), reused };
+  }
+
+  @Get('calculations')
+  async list(): Promise<CalculationView[]> {
+    return (await this.calculations.list()).map(toCalculationView);
+  }
+
+  @Get('calculations/:id')
+  @Roles('admin', 'engineer', 'sales')
+  async get(@Param('id', ParseIntPipe) id: number): Promise<CalculationView> {
+    return toCalculationView(await this.calculations.get(id));
+  }
+
+  @Get('calculations/:id/result')
+  @Roles('admin', 'engineer', 'sales')
+  result(
+    @Param('id', ParseIntPipe) id: number,
+    @Query('quantity') quantity = 'R',
+    @Query('polarisation') polarisation = 'avg',
+  ) {
+    return this.calculations.result(id, quantity, polarisation);
+  }
+
+  @Get('calculations/:id/result.csv')
+  @Roles('admin', 'engineer', 'sales')
+  @Header('Content-Type', 'text/csv; charset=utf-8')
+  async resultCsv(
+    @Param('id', ParseIntPipe) id: number,
+    @Res({ passthrough: true }) res: Response,
+  ): Promise<string> {
+    res.setHeader('Content-Disposition', `attachment; filename="analysis-${id}.csv"`);
+    return this.calculations.resultCsv(id);
+  }
+
+  @Post('calculations/:id/cancel')
+  async cancel(@Param('id', ParseIntPipe) id: number): Promise<CalculationView> {
+    return toCalculationView(await this.calculations.cancel(id));
+  }
+}

@@ -1,0 +1,14 @@
+import { Module } from '@nestjs/common';
+import { TypeOrmModule } from '@nestjs/typeorm';
+import { DesignsModule } from '../designs/designs.module.js';
+import { QueueModule } from '../queue/queue.module.js';
+import { Calculation } from './calculation.entity.js';
+import { CalculationsController } from './calculations.controller.js';
+import { CalculationsService } from './calculations.service.js';
+
+@Module({
+  imports: [TypeOrmModule.forFeature([Calculation]), QueueModule, DesignsModule],
+  controllers: [CalculationsController],
+  providers: [CalculationsService],
+})
+export class CalculationsModule {}

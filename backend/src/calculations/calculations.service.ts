@@ -1,0 +1,223 @@
+import { BadRequestException, ConflictException, Injectable, NotFoundException } from '@nestjs/common';
+import { InjectQueue } from '@nestjs/bullmq';
+import { InjectRepository } from '@nestjs/typeorm';
+import { Queue } from 'bullmq';
+import { In, Repository } from 'typeorm';
+import {
+  ANALYSIS_POLARISATIONS,
+  ANALYSIS_QUANTITIES,
+  analysisIndex,
+  validateAnalysisRequest,
+  type AnalysisInput,
+  type AnalysisRequest,
+  type AnalysisQuantity,
+  type AnalysisSummary,
+} from '@quietglass/shared/analysis';
+import { designStackDescription, engineBackSurface, type NamedModel } from '@quietglass/shared/designs';
+import { createSpectrumPlan } from '@quietglass/shared/optics/batch';
+import { OpticsInputError } from '@quietglass/shared/optics/errors';
+import { parseStack } from '@quietglass/shared/optics/stack';
+import { isUniqueViolation } from '../common/db-errors.js';
+import { contentHash } from '../common/stable-json.js';
+import { DesignsService } from '../designs/designs.service.js';
+import { ANALYSIS_JOB, COMPUTE_QUEUE, type ComputeJobData } from '../queue/queue.constants.js';
+import type { User } from '../users/user.entity.js';
+import { Calculation } from './calculation.entity.js';
+
+/** The BullMQ job id of a calculation (one job per calculation, so a double add is a no-op). */
+export const jobIdOf = (calculationId: number) => `calc-${calculationId}`;
+
+@Injectable()
+export class CalculationsService {
+  constructor(
+    @InjectRepository(Calculation) private readonly calculations: Repository<Calculation>,
+    @InjectQueue(COMPUTE_QUEUE) private readonly queue: Queue<ComputeJobData>,
+    private readonly designs: DesignsService,
+  ) {}
+
+  /**
+   * Queues a full analysis of a design version. An identical request (same stack, materials and
+   * grid) that is queued, running or done returns that calculation instead (`reused`).
+   */
+  async submitAnalysis(
+    designId: number,
+    number: number,
+    rawRequest: unknown,
+    user: User,
+  ): Promise<{ calculation: Calculation; reused: boolean }> {
+    const { content, materials } = await this.designs.contentForCompute(designId, number);
+    let input: AnalysisInput;
+    try {
+      const request = validateAnalysisRequest(rawRequest);
+      checkMaterialRanges(materials, request);
+      const stack = designStackDescription(content, materials);
+      const back = engineBackSurface(content.backSurface);
+      // Fail now, not on the worker, when the materials do not cover the grid's wavelengths.
+      createSpectrumPlan(
+        parseStack(stack),
+        {
+          wavelengthsNm: [request.fromNm, request.toNm],
+          anglesDeg: [request.angleFromDeg],
+          polarisations: ['s'],
+        },
+        { back },
+      );
+      input = { stack, back, request };
+    } catch (err) {
+      if (err instanceof OpticsInputError) throw new BadRequestException({ message: [err.message] });
+      throw err;
+    }
+    const inputHash = contentHash(input);
+    const existing = await this.findLive(inputHash);
+    if (existing) return { calculation: existing, reused: true };
+    let saved: Calculation;
+    try {
+      saved = await this.calculations.save(
+        this.calculations.create({
+          kind: 'analysis',
+          inputHash,
+          input,
+          designId,
+          versionNumber: number,
+          status: 'queued',
+          progress: 0,
+          createdBy: user,
+        }),
+      );
+    } catch (err) {
+      // Another identical request won the race: share its calculation.
+      const winner = isUniqueViolation(err) ? await this.findLive(inputHash) : null;
+      if (winner) return { calculation: winner, reused: true };
+      throw err;
+    }
+    await this.queue.add(
+      ANALYSIS_JOB,
+      { calculationId: saved.id },
+      {
+        jobId: jobIdOf(saved.id),
+        attempts: 1,
+        removeOnComplete: { age: 3600 },
+        removeOnFail: { age: 86_400 },
+      },
+    );
+    return { calculation: await this.get(saved.id), reused: false };
+  }
+
+  list(): Promise<Calculation[]> {
+    return this.calculations.find({ order: { id: 'DESC' }, take: 100 });
+  }
+
+  async get(id: number): Promise<Calculation> {
+    const calc = await this.calculations.findOneBy({ id });
+    if (!calc) throw new NotFoundException(`Calculation ${id} does not exist`);
+    return calc;
+  }
+
+  /** Stops a queued or running calculation; a finished one cannot be cancelled. */
+  async cancel(id: number): Promise<Calculation> {
+    const calc = await this.get(id);
+    if (calc.status !== 'queued' && calc.status !== 'running') {
+      throw new ConflictException(
+        `Calculation ${id} is ${calc.status}; only a queued or running one can be cancelled`,
+      );
+    }
+    const result = await this.calculations.update(
+      { id, status: In(['queued', 'running']) },
+      { status: 'cancelled', finishedAt: new Date(), error: 'Cancelled by the user' },
+    );
+    if (result.affected !== 1) return this.cancelRace(id);
+    // A waiting job is removed; a running one sees the status between slices and stops.
+    await this.queue.remove(jobIdOf(id)).catch(() => 0);
+    return this.get(id);
+  }
+
+  /** One quantity and polarisation of a completed analysis, as rows per angle. */
+  async result(
+    id: number,
+    quantity: string,
+    polarisation: string,
+  ): Promise<{
+    wavelengthsNm: number[];
+    anglesDeg: number[];
+    quantity: AnalysisQuantity;
+    polarisation: string;
+    values: number[][];
+  }> {
+    if (!(ANALYSIS_QUANTITIES as readonly string[]).includes(quantity)) {
+      throw new BadRequestException(`quantity must be one of ${ANALYSIS_QUANTITIES.join(', ')}`);
+    }
+    if (!(ANALYSIS_POLARISATIONS as readonly string[]).includes(polarisation)) {
+      throw new BadRequestException(`polarisation must be one of ${ANALYSIS_POLARISATIONS.join(', ')}`);
+    }
+    const { summary, values } = await this.completed(id);
+    const q = quantity as AnalysisQuantity;
+    const pol = polarisation as (typeof ANALYSIS_POLARISATIONS)[number];
+    const nW = summary.wavelengthsNm.length;
+    const rows = summary.anglesDeg.map((_, ia) => {
+      const start = analysisIndex(summary, q, pol, ia, 0);
+      return Array.from(values.subarray(start, start + nW));
+    });
+    return {
+      wavelengthsNm: summary.wavelengthsNm,
+      anglesDeg: summary.anglesDeg,
+      quantity: q,
+      polarisation,
+      values: rows,
+    };
+  }
+
+  /** The whole result as CSV: `wavelength_nm,angle_deg,pol,R,T,A` (fractions, full precision). */
+  async resultCsv(id: number): Promise<string> {
+    const { summary, values } = await this.completed(id);
+    const lines = ['wavelength_nm,angle_deg,pol,R,T,A'];
+    for (const pol of ANALYSIS_POLARISATIONS) {
+      summary.anglesDeg.forEach((angle, ia) => {
+        summary.wavelengthsNm.forEach((wl, iw) => {
+          const at = (q: AnalysisQuantity) => values[analysisIndex(summary, q, pol, ia, iw)];
+          lines.push(`${wl},${angle},${pol},${at('R')},${at('T')},${at('A')}`);
+        });
+      });
+    }
+    return lines.join('\n') + '\n';
+  }
+
+  private async completed(id: number): Promise<{ summary: AnalysisSummary; values: Float64Array }> {
+    const calc = await this.calculations.findOne({
+      where: { id },
+      select: { id: true, status: true, summary: true, values: true },
+    });
+    if (!calc) throw new NotFoundException(`Calculation ${id} does not exist`);
+    if (calc.status !== 'completed' || !calc.summary || !calc.values) {
+      throw new ConflictException(`Calculation ${id} is ${calc.status}; its result is not available`);
+    }
+    const buf = calc.values;
+    const values = new Float64Array(buf.buffer.slice(buf.byteOffset, buf.byteOffset + buf.byteLength));
+    return { summary: calc.summary, values };
+  }
+
+  private findLive(inputHash: string): Promise<Calculation | null> {
+    return this.calculations.findOneBy({
+      kind: 'analysis',
+      inputHash,
+      status: In(['queued', 'running', 'completed']),
+    });
+  }
+
+  private async cancelRace(id: number): Promise<Calculation> {
+    const now = await this.get(id);
+    throw new ConflictException(
+      `Calculation ${id} is ${now.status}; only a queued or running one can be cancelled`,
+    );
+  }
+}
+
+/** Each material must be valid over the whole analysed range: no result from data outside it. */
+function checkMaterialRanges(materials: Map<number, NamedModel>, request: AnalysisRequest): void {
+  const problems = [...materials.values()]
+    .filter((m) => m.rangeNm && (request.fromNm < m.rangeNm.from || request.toNm > m.rangeNm.to))
+    .map(
+      (m) =>
+        `${m.name} is valid over ${m.rangeNm?.from}–${m.rangeNm?.to} nm; the analysis asks for ${request.fromNm}–${request.toNm} nm`,
+    );
+  if (problems.length > 0) throw new BadRequestException({ message: problems });
+}

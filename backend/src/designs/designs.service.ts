@@ -1,0 +1,325 @@
+import { BadRequestException, ConflictException, Injectable, NotFoundException } from '@nestjs/common';
+import { InjectDataSource, InjectRepository } from '@nestjs/typeorm';
+import { DataSource, In, Repository, type EntityManager } from 'typeorm';
+import type {
+  DesignSummaryView,
+  DesignVersionContent,
+  DesignVersionView,
+  DesignView,
+  NamedModel,
+} from '@quietglass/shared/designs';
+import { CustomersService } from '../customers/customers.service.js';
+import { Material } from '../materials/material.entity.js';
+import { SpecMasksService } from '../spec-masks/spec-masks.service.js';
+import type { User } from '../users/user.entity.js';
+import { Design } from './design.entity.js';
+import { DesignVersion } from './design-version.entity.js';
+import type {
+  CreateDesignDto,
+  SaveVersionDto,
+  UpdateDesignDto,
+  VersionContentDto,
+} from './dto/design.dto.js';
+
+@Injectable()
+export class DesignsService {
+  constructor(
+    @InjectRepository(Design) private readonly designs: Repository<Design>,
+    @InjectRepository(DesignVersion) private readonly versions: Repository<DesignVersion>,
+    @InjectDataSource() private readonly db: DataSource,
+    private readonly customers: CustomersService,
+    private readonly masks: SpecMasksService,
+  ) {}
+
+  async list(): Promise<DesignSummaryView[]> {
+    const designs = await this.designs.find({ order: { updatedAt: 'DESC' } });
+    if (designs.length === 0) return [];
+    const latest = await this.versions
+      .createQueryBuilder('v')
+      .select(['v.designId', 'v.number', 'v.status', 'v.updatedAt'])
+      .where('v.design_id IN (:...ids)', { ids: designs.map((d) => d.id) })
+      .andWhere('v.number = (SELECT max(w.number) FROM design_versions w WHERE w.design_id = v.design_id)')
+      .getMany();
+    const byDesign = new Map(latest.map((v) => [v.designId, v]));
+    return designs.map((d) => {
+      const v = byDesign.get(d.id);
+      if (!v) throw new Error(`design ${d.id} has no version`);
+      return {
+        ...designHeader(d),
+        latestVersion: { number: v.number, status: v.status, updatedAt: v.updatedAt.toISOString() },
+      };
+    });
+  }
+
+  async get(id: number): Promise<DesignView> {
+    const design = await this.findDesign(id);
+    const versions = await this.versions.find({ where: { designId: id }, order: { number: 'ASC' } });
+    return {
+      ...designHeader(design),
+      versions: versions.map((v) => ({
+        number: v.number,
+        status: v.status,
+        updatedAt: v.updatedAt.toISOString(),
+        createdBy: v.createdBy.displayName,
+      })),
+    };
+  }
+
+  async getVersion(id: number, number: number): Promise<DesignVersionView> {
+    return toVersionView(await this.findVersion(id, number));
+  }
+
+  /** A new design with its first version as a draft. */
+  async create(dto: CreateDesignDto, author: User): Promise<DesignView> {
+    const customer = await this.customers.get(dto.customerId).catch(() => {
+      throw new BadRequestException({ message: [`customerId: customer ${dto.customerId} does not exist`] });
+    });
+    await this.checkMaterials(dto);
+    await this.checkMask(dto.specMaskId ?? null, customer.id);
+    const id = await this.db.transaction(async (tx) => {
+      const design = await tx
+        .getRepository(Design)
+        .save(
+          tx
+            .getRepository(Design)
+            .create({ name: dto.name, customer, specMaskId: dto.specMaskId ?? null, createdBy: author }),
+        );
+      await tx.getRepository(DesignVersion).save(newDraft(tx, design, 1, dto, author));
+      return design.id;
+    });
+    return this.get(id);
+  }
+
+  async update(id: number, dto: UpdateDesignDto): Promise<DesignView> {
+    const design = await this.findDesign(id);
+    if (dto.name !== undefined) design.name = dto.name;
+    if (dto.specMaskId !== undefined) {
+      await this.checkMask(dto.specMaskId, design.customer.id);
+      design.specMaskId = dto.specMaskId;
+    }
+    await this.designs.save(design);
+    return this.get(id);
+  }
+
+  /**
+   * Saves a draft. The save carries the rowVersion it started from; when someone saved in between,
+   * it gets 409 and nothing is written, so no layer is ever silently lost.
+   */
+  async saveVersion(id: number, number: number, dto: SaveVersionDto): Promise<DesignVersionView> {
+    const version = await this.findVersion(id, number);
+    if (version.status !== 'draft') throw notEditable(version);
+    if (version.rowVersion !== dto.rowVersion) throw staleVersion(version);
+    await this.checkMaterials(dto);
+    const result = await this.versions
+      .createQueryBuilder()
+      .update(DesignVersion)
+      .set({ ...content(dto), rowVersion: () => 'row_version + 1' })
+      .where('id = :id AND row_version = :rowVersion AND status = :draft', {
+        id: version.id,
+        rowVersion: dto.rowVersion,
+        draft: 'draft',
+      })
+      .execute();
+    if (result.affected !== 1) {
+      const now = await this.findVersion(id, number);
+      throw now.status !== 'draft' ? notEditable(now) : staleVersion(now);
+    }
+    await this.designs.update(id, { updatedAt: new Date() });
+    return this.getVersion(id, number);
+  }
+
+  /** A new draft copied from an existing version (of any status). */
+  async newVersion(id: number, fromNumber: number, author: User): Promise<DesignVersionView> {
+    const from = await this.findVersion(id, fromNumber);
+    const number = await this.db.transaction(async (tx) => {
+      // Serialise version numbering per design.
+      await tx.query('SELECT id FROM designs WHERE id = $1 FOR UPDATE', [id]);
+      const [{ max }] = (await tx.query(
+        'SELECT max(number) AS max FROM design_versions WHERE design_id = $1',
+        [id],
+      )) as {
+        max: number;
+      }[];
+      const next = Number(max) + 1;
+      await tx.getRepository(DesignVersion).save(newDraft(tx, from.design, next, from, author));
+      return next;
+    });
+    await this.designs.update(id, { updatedAt: new Date() });
+    return this.getVersion(id, number);
+  }
+
+  /** Locks a draft for review, freezing the material models it uses. */
+  async submit(id: number, number: number, rowVersion: number): Promise<DesignVersionView> {
+    const version = await this.findVersion(id, number);
+    if (version.status !== 'draft') throw notEditable(version);
+    if (version.rowVersion !== rowVersion) throw staleVersion(version);
+    if (version.layers.length === 0) {
+      throw new BadRequestException('A version without layers cannot be submitted');
+    }
+    const snapshot = Object.fromEntries(
+      [...(await this.checkMaterials(version))].map(([k, v]) => [String(k), v]),
+    );
+    const result = await this.versions
+      .createQueryBuilder()
+      .update(DesignVersion)
+      .set({ status: 'submitted', materialsSnapshot: snapshot, rowVersion: () => 'row_version + 1' })
+      .where('id = :id AND row_version = :rowVersion AND status = :draft', {
+        id: version.id,
+        rowVersion,
+        draft: 'draft',
+      })
+      .execute();
+    if (result.affected !== 1) throw staleVersion(await this.findVersion(id, number));
+    return this.getVersion(id, number);
+  }
+
+  /**
+   * A version's content with the material models it uses: the frozen snapshot once submitted,
+   * the library's current models while a draft.
+   */
+  async contentForCompute(
+    id: number,
+    number: number,
+  ): Promise<{ content: DesignVersionContent; materials: Map<number, NamedModel> }> {
+    const version = await this.findVersion(id, number);
+    const materials = version.materialsSnapshot
+      ? new Map(Object.entries(version.materialsSnapshot).map(([k, v]) => [Number(k), v]))
+      : await this.checkMaterials(version);
+    return { content: content(version), materials };
+  }
+
+  /** A design's spec mask must exist and belong to the design's customer. */
+  private async checkMask(specMaskId: number | null, customerId: number): Promise<void> {
+    if (specMaskId === null) return;
+    const mask = await this.masks.get(specMaskId).catch(() => {
+      throw new BadRequestException({ message: [`specMaskId: spec mask ${specMaskId} does not exist`] });
+    });
+    if (mask.customer.id !== customerId) {
+      throw new BadRequestException({
+        message: [
+          `specMaskId: spec mask ${specMaskId} belongs to ${mask.customer.name}, not to this design's customer`,
+        ],
+      });
+    }
+  }
+
+  /** Every material the content names must exist; returns them by id. */
+  private async checkMaterials(
+    c: DesignVersionContent | VersionContentDto,
+  ): Promise<Map<number, NamedModel>> {
+    const wanted = new Set([
+      c.incidentMaterialId,
+      c.substrateMaterialId,
+      ...c.layers.map((l) => l.materialId),
+    ]);
+    const found = await this.db.getRepository(Material).findBy({ id: In([...wanted]) });
+    const byId = new Map(
+      found.map((m) => [
+        m.id,
+        { name: m.name, model: m.model, rangeNm: { from: m.rangeFromNm, to: m.rangeToNm } },
+      ]),
+    );
+    const problems: string[] = [];
+    if (!byId.has(c.incidentMaterialId))
+      problems.push(`incidentMaterialId: material ${c.incidentMaterialId} does not exist`);
+    if (!byId.has(c.substrateMaterialId))
+      problems.push(`substrateMaterialId: material ${c.substrateMaterialId} does not exist`);
+    c.layers.forEach((l, i) => {
+      if (!byId.has(l.materialId))
+        problems.push(`layers[${i}].materialId: material ${l.materialId} does not exist`);
+    });
+    if (problems.length > 0) throw new BadRequestException({ message: problems });
+    return byId;
+  }
+
+  private async findDesign(id: number): Promise<Design> {
+    const design = await this.designs.findOneBy({ id });
+    if (!design) throw new NotFoundException(`Design ${id} does not exist`);
+    return design;
+  }
+
+  private async findVersion(id: number, number: number): Promise<DesignVersion> {
+    const version = await this.versions.findOne({
+      where: { designId: id, number },
+      relations: { design: true },
+    });
+    if (!version) {
+      await this.findDesign(id);
+      throw new NotFoundException(`Design ${id} has no version ${number}`);
+    }
+    return version;
+  }
+}
+
+function content(c: DesignVersionContent | VersionContentDto): DesignVersionContent {
+  return {
+    incidentMaterialId: c.incidentMaterialId,
+    substrateMaterialId: c.substrateMaterialId,
+    substrateThicknessMm: c.substrateThicknessMm,
+    backSurface: c.backSurface,
+    referenceWavelengthNm: c.referenceWavelengthNm,
+    notes: c.notes ?? '',
+    layers: c.layers.map((l) => ({
+      materialId: l.materialId,
+      thicknessNm: l.thicknessNm,
+      locked: l.locked ?? false,
+      notes: l.notes ?? '',
+    })),
+  };
+}
+
+function newDraft(
+  tx: EntityManager,
+  design: Design,
+  number: number,
+  c: DesignVersionContent | VersionContentDto,
+  author: User,
+): DesignVersion {
+  return tx.getRepository(DesignVersion).create({
+    design,
+    designId: design.id,
+    number,
+    status: 'draft',
+    ...content(c),
+    materialsSnapshot: null,
+    rowVersion: 1,
+    createdBy: author,
+  });
+}
+
+function notEditable(v: DesignVersion): ConflictException {
+  return new ConflictException(
+    `Version ${v.number} is ${v.status} and cannot change; start a new version from it to make changes`,
+  );
+}
+
+function staleVersion(v: DesignVersion): ConflictException {
+  return new ConflictException(
+    `Version ${v.number} was saved by someone else since you opened it; reload to see their changes (nothing of yours was saved)`,
+  );
+}
+
+function designHeader(d: Design): Omit<DesignSummaryView, 'latestVersion'> {
+  return {
+    id: d.id,
+    name: d.name,
+    customer: { id: d.customer.id, name: d.customer.name },
+    specMaskId: d.specMaskId,
+    createdBy: { id: d.createdBy.id, displayName: d.createdBy.displayName },
+    createdAt: d.createdAt.toISOString(),
+  };
+}
+
+function toVersionView(v: DesignVersion): DesignVersionView {
+  return {
+    designId: v.designId,
+    number: v.number,
+    status: v.status,
+    rowVersion: v.rowVersion,
+    ...content(v),
+    createdBy: { id: v.createdBy.id, displayName: v.createdBy.displayName },
+    createdAt: v.createdAt.toISOString(),
+    updatedAt: v.updatedAt.toISOString(),
+    materialsSnapshot: v.materialsSnapshot,
+  };
+}

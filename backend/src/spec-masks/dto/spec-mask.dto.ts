@@ -1,0 +1,43 @@
+import { Transform } from 'class-transformer';
+import { IsArray, IsInt, IsOptional, IsString, MaxLength, Min, MinLength } from 'class-validator';
+
+const trim = ({ value }: { value: unknown }) => (typeof value === 'string' ? value.trim() : value);
+
+class SpecMaskMeta {
+  @Transform(trim)
+  @IsString()
+  @MinLength(1, { message: 'name must not be empty' })
+  @MaxLength(160)
+  name: string;
+
+  @IsInt({ message: 'customerId must be a customer id' })
+  customerId: number;
+
+  @Transform(trim)
+  @IsString()
+  @MinLength(1, { message: 'revision must not be empty' })
+  @MaxLength(20)
+  revision: string;
+
+  @IsOptional()
+  @IsString()
+  @MaxLength(4000)
+  notes?: string;
+}
+
+/** Limit bands are checked by the optics engine's mask validation (field paths like bands[2].to_nm). */
+export class SpecMaskDto extends SpecMaskMeta {
+  @IsArray({ message: 'bands must be a list of limit bands' })
+  bands: unknown[];
+}
+
+export class UpdateSpecMaskDto extends SpecMaskDto {
+  @IsInt()
+  @Min(1)
+  version: number;
+}
+
+export class ImportSpecMaskCsvDto extends SpecMaskMeta {
+  @IsString()
+  csv: string;
+}

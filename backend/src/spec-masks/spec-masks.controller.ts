@@ -1,0 +1,46 @@
+import { Body, Controller, Get, Header, Param, ParseIntPipe, Post, Put, Query } from '@nestjs/common';
+import { Roles } from '../auth/roles.decorator.js';
+import { ImportSpecMaskCsvDto, SpecMaskDto, UpdateSpecMaskDto } from './dto/spec-mask.dto.js';
+import { maskToCsv } from './mask-csv.js';
+import { toSpecMaskView, type SpecMaskView } from './spec-mask.entity.js';
+import { SpecMasksService } from './spec-masks.service.js';
+
+/** Engineers and sales capture customers' spec masks; operators work from released recipes. */
+@Controller('spec-masks')
+@Roles('admin', 'engineer', 'sales')
+export class SpecMasksController {
+  constructor(private readonly masks: SpecMasksService) {}
+
+  @Get()
+  async list(
+    @Query('customerId', new ParseIntPipe({ optional: true })) customerId?: number,
+  ): Promise<SpecMaskView[]> {
+    return (await this.masks.list(customerId)).map(toSpecMaskView);
+  }
+
+  @Get(':id')
+  async get(@Param('id', ParseIntPipe) id: number): Promise<SpecMaskView> {
+    return toSpecMaskView(await this.masks.get(id));
+  }
+
+  @Get(':id/csv')
+  @Header('Content-Type', 'text/csv; charset=utf-8')
+  async csv(@Param('id', ParseIntPipe) id: number): Promise<string> {
+    return maskToCsv((await this.masks.get(id)).bands);
+  }
+
+  @Post()
+  async create(@Body() dto: SpecMaskDto): Promise<SpecMaskView> {
+    return toSpecMaskView(await this.masks.create(dto));
+  }
+
+  @Put(':id')
+  async update(@Param('id', ParseIntPipe) id: number, @Body() dto: UpdateSpecMaskDto): Promise<SpecMaskView> {
+    return toSpecMaskView(await this.masks.update(id, dto));
+  }
+
+  @Post('import-csv')
+  async importCsv(@Body() dto: ImportSpecMaskCsvDto): Promise<SpecMaskView> {
+    return toSpecMaskView(await this.masks.importCsv(dto));
+  }
+}
