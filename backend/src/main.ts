@@ -1,5 +1,4 @@
 import 'reflect-metadata';
-import { Logger } from '@nestjs/common';
 import { NestFactory } from '@nestjs/core';
 import type { NestExpressApplication } from '@nestjs/platform-express';
 import { AppModule } from './app.module.js';
@@ -8,10 +7,15 @@ import { loadConfig } from './config/configuration.js';
 
 async function main(): Promise<void> {
   const config = loadConfig();
-  const app = await NestFactory.create<NestExpressApplication>(AppModule, { bodyParser: false });
+  // Outside development only warnings and errors: route-by-route start-up logs drown what matters.
+  const quiet = process.env.NODE_ENV === 'production' || process.env.NODE_ENV === 'test';
+  const app = await NestFactory.create<NestExpressApplication>(AppModule, {
+    bodyParser: false,
+    logger: quiet ? ['error', 'warn'] : ['error', 'warn', 'log'],
+  });
   configureApp(app, config.clientDist);
   await app.listen(config.port, config.host);
-  Logger.log(`API listening on http://${config.host}:${config.port}/api`, 'Quietglass');
+  console.log(`API listening on http://${config.host}:${config.port}/api`);
 }
 
 main().catch((err: unknown) => {

@@ -1,6 +1,4 @@
 import fs from 'node:fs';
-import os from 'node:os';
-import path from 'node:path';
 import { chromium, type Browser, type Page } from 'playwright-core';
 import type { Role } from '@quietglass/shared';
 
@@ -22,9 +20,8 @@ export function demoSignIns(): DemoSignIn[] {
   return JSON.parse(fs.readFileSync(file, 'utf8')) as DemoSignIn[];
 }
 
-/** Debian's Chromium, headless, with a fresh profile and no background traffic. */
+/** Debian's Chromium, headless, with no background traffic (playwright gives each launch a fresh profile). */
 export async function launchBrowser(): Promise<Browser> {
-  const profile = fs.mkdtempSync(path.join(os.tmpdir(), 'qg-chromium-'));
   return chromium.launch({
     executablePath: process.env.QG_CHROMIUM ?? '/usr/bin/chromium',
     headless: true,
@@ -36,7 +33,6 @@ export async function launchBrowser(): Promise<Browser> {
       '--disable-component-update',
       '--disable-sync',
       '--no-first-run',
-      `--user-data-dir=${profile}`,
     ],
   });
 }

@@ -1,12 +1,11 @@
 import 'reflect-metadata';
-import { Logger } from '@nestjs/common';
 import { NestFactory } from '@nestjs/core';
 import { WorkerModule } from './worker.module.js';
 
 async function main(): Promise<void> {
   const app = await NestFactory.createApplicationContext(WorkerModule, { logger: ['error', 'warn', 'log'] });
   app.enableShutdownHooks();
-  Logger.log(`worker ${process.pid} consuming the compute queue`, 'Worker');
+  console.log(`worker ${process.pid} consuming the compute queue`);
 }
 
 main().catch((err: unknown) => {
