@@ -72,7 +72,7 @@ export function ensureSystemPackages(needs) {
   log(`installing Debian packages: ${missing.join(', ')} (apt-get)…`);
   const env = { ...process.env, DEBIAN_FRONTEND: 'noninteractive' };
   runChecked('apt-get', ['update', '-qq'], { env, stdio: ['ignore', 'ignore', 'pipe'] });
-  runChecked('apt-get', ['install', '-y', '-qq', '--no-install-recommends', ...missing], {
+  runChecked('apt-get', ['install', '-y', '-qq', ...missing], {
     env,
     stdio: ['ignore', 'ignore', 'pipe'],
   });
@@ -144,11 +144,16 @@ function reachableByPostgres(dir) {
   fs.mkdirSync(dir, { recursive: true });
   runChecked('chown', ['postgres', dir]);
   if (run('runuser', ['-u', 'postgres', '--', 'test', '-w', dir]).status === 0) return dir;
-  const fallback = path.join(os.tmpdir(), `quietglass-pg-${createHash('sha256').update(dir).digest('hex').slice(0, 12)}`);
+  const fallback = path.join(
+    os.tmpdir(),
+    `quietglass-pg-${createHash('sha256').update(dir).digest('hex').slice(0, 12)}`,
+  );
   fs.mkdirSync(fallback, { recursive: true, mode: 0o755 });
   runChecked('chown', ['postgres', fallback]);
   if (run('runuser', ['-u', 'postgres', '--', 'test', '-w', fallback]).status !== 0) {
-    throw new StartupError(`The postgres system user can write neither to ${dir} nor to ${fallback}; set QG_DATA_DIR.`);
+    throw new StartupError(
+      `The postgres system user can write neither to ${dir} nor to ${fallback}; set QG_DATA_DIR.`,
+    );
   }
   log(`the postgres system user cannot enter ${dir}; keeping PostgreSQL's files in ${fallback}`);
   return fallback;
