@@ -36,8 +36,12 @@ interface MatrixContext {
   doneCalcId: number;
   cancelCalcIds: Partial<Record<Role | 'anonymous', number>>;
   draftRowVersion: number;
-  /** One fresh draft design per permitted submit call. */
-  submitDesignIds: Partial<Record<Role | 'anonymous', number>>;
+  /** Per action, one design per permitted role, already in the state the action starts from. */
+  stage: Record<
+    'submit' | 'approve' | 'return' | 'release' | 'retire',
+    Partial<Record<Role | 'anonymous', number>>
+  >;
+  releasedDesignId: number;
   design: ReturnType<typeof twoLayerDesign>;
   passwords: Record<Role, string>;
   counter: number;
@@ -46,6 +50,7 @@ interface MatrixContext {
 const ALL: readonly Role[] = ROLES;
 const DESIGNERS: readonly Role[] = ['admin', 'engineer'];
 const OFFICE: readonly Role[] = ['admin', 'engineer', 'sales'];
+const FLOOR: readonly Role[] = ['admin', 'engineer', 'operator'];
 const maskBody = (ctx: MatrixContext) => ({
   name: 'Matrix mask',
   customerId: ctx.customerId,
@@ -197,8 +202,32 @@ const RULES: RouteRule[] = [
     path: '/api/designs/:id/versions/:number/submit',
     allow: DESIGNERS,
     okStatus: 201,
-    url: (ctx, role) => `/api/designs/${ctx.submitDesignIds[role] ?? ctx.designId}/versions/1/submit`,
+    url: (ctx, role) => `/api/designs/${ctx.stage.submit[role] ?? ctx.designId}/versions/1/submit`,
     body: () => ({ rowVersion: 1 }),
+  },
+  ...(['approve', 'return', 'release', 'retire'] as const).map((action): RouteRule => ({
+    method: 'post',
+    path: `/api/designs/:id/versions/:number/${action}`,
+    allow: DESIGNERS,
+    okStatus: 201,
+    url: (ctx, role) => `/api/designs/${ctx.stage[action][role] ?? ctx.designId}/versions/1/${action}`,
+    body: () => ({ comment: 'matrix review' }),
+  })),
+  {
+    method: 'get',
+    path: '/api/designs/:id/history',
+    allow: OFFICE,
+    okStatus: 200,
+    url: (ctx) => `/api/designs/${ctx.designId}/history`,
+  },
+  { method: 'get', path: '/api/audit', allow: ['admin'], okStatus: 200 },
+  { method: 'get', path: '/api/recipes', allow: FLOOR, okStatus: 200 },
+  {
+    method: 'get',
+    path: '/api/recipes/:id/:number',
+    allow: FLOOR,
+    okStatus: 200,
+    url: (ctx) => `/api/recipes/${ctx.releasedDesignId}/1`,
   },
   { method: 'get', path: '/api/spec-masks', allow: OFFICE, okStatus: 200 },
   {
@@ -327,7 +356,8 @@ const ctx: MatrixContext = {
   doneCalcId: 0,
   cancelCalcIds: {},
   draftRowVersion: 1,
-  submitDesignIds: {},
+  stage: { submit: {}, approve: {}, return: {}, release: {}, retire: {} },
+  releasedDesignId: 0,
   design: {} as ReturnType<typeof twoLayerDesign>,
   passwords: {} as Record<Role, string>,
   counter: 0,
@@ -385,7 +415,44 @@ beforeAll(async () => {
     return res.body.id as number;
   };
   ctx.designId = await createDesign();
-  for (const role of DESIGNERS) ctx.submitDesignIds[role] = await createDesign();
+  // Designs authored and submitted by the demo admin, reviewed by the demo engineer: the matrix users
+  // are neither, so the four-eyes rule lets them act.
+  const reviewer = await sessionCookie(app, demoSignIn('engineer').email, demoSignIn('engineer').password);
+  const step = async (id: number, action: string, cookie: string, body: object = {}) => {
+    const res = await request(app.getHttpServer())
+      .post(`/api/designs/${id}/versions/1/${action}`)
+      .set('Cookie', cookie)
+      .send(body);
+    expect(res.status, JSON.stringify(res.body)).toBe(201);
+  };
+  const paths: Record<keyof MatrixContext['stage'], [string, string][]> = {
+    submit: [],
+    approve: [['submit', adminCookie]],
+    return: [['submit', adminCookie]],
+    release: [
+      ['submit', adminCookie],
+      ['approve', reviewer],
+    ],
+    retire: [
+      ['submit', adminCookie],
+      ['approve', reviewer],
+      ['release', reviewer],
+    ],
+  };
+  for (const [action, steps] of Object.entries(paths) as [
+    keyof MatrixContext['stage'],
+    [string, string][],
+  ][]) {
+    for (const role of DESIGNERS) {
+      const id = await createDesign();
+      for (const [move, cookie] of steps)
+        await step(id, move, cookie, move === 'submit' ? { rowVersion: 1 } : {});
+      ctx.stage[action][role] = id;
+    }
+  }
+  ctx.releasedDesignId = await createDesign();
+  for (const [move, cookie] of paths.retire)
+    await step(ctx.releasedDesignId, move, cookie, move === 'submit' ? { rowVersion: 1 } : {});
   // Calculations inserted directly: one completed (1 wavelength, 1 angle), one queued per canceller.
   const db = app.get(DataSource);
   const adminId = (await request(app.getHttpServer()).get('/api/auth/me').set('Cookie', adminCookie)).body

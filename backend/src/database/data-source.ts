@@ -4,6 +4,7 @@ import { Calculation } from '../calculations/calculation.entity.js';
 import { Customer } from '../customers/customer.entity.js';
 import { Design } from '../designs/design.entity.js';
 import { DesignVersion } from '../designs/design-version.entity.js';
+import { VersionEvent } from '../designs/version-event.entity.js';
 import { Material } from '../materials/material.entity.js';
 import { SpecMaskRecord } from '../spec-masks/spec-mask.entity.js';
 import { User } from '../users/user.entity.js';
@@ -11,9 +12,19 @@ import { CreateUsers1764633600000 } from '../migrations/1764633600000-create-use
 import { CustomersMaterials1764633700000 } from '../migrations/1764633700000-customers-materials.js';
 import { SpecMasksDesigns1764633800000 } from '../migrations/1764633800000-spec-masks-designs.js';
 import { Calculations1764633900000 } from '../migrations/1764633900000-calculations.js';
+import { VersionEvents1764634000000 } from '../migrations/1764634000000-version-events.js';
 
 /** Every entity of the app; each domain module also registers its own with forFeature. */
-export const ENTITIES = [User, Customer, Material, SpecMaskRecord, Design, DesignVersion, Calculation];
+export const ENTITIES = [
+  User,
+  Customer,
+  Material,
+  SpecMaskRecord,
+  Design,
+  DesignVersion,
+  VersionEvent,
+  Calculation,
+];
 
 /** Every migration, in order. Listed explicitly so the same list works from src (tests) and dist. */
 export const MIGRATIONS = [
@@ -21,6 +32,7 @@ export const MIGRATIONS = [
   CustomersMaterials1764633700000,
   SpecMasksDesigns1764633800000,
   Calculations1764633900000,
+  VersionEvents1764634000000,
 ];
 
 /** TypeORM options for PostgreSQL; never `synchronize` — the schema comes from migrations. */

@@ -3,13 +3,7 @@ import type { DesignSummaryView, DesignVersionView, DesignView } from '@quietgla
 import { CurrentUser } from '../auth/current-user.decorator.js';
 import { Roles } from '../auth/roles.decorator.js';
 import type { User } from '../users/user.entity.js';
-import {
-  CreateDesignDto,
-  NewVersionDto,
-  SaveVersionDto,
-  SubmitVersionDto,
-  UpdateDesignDto,
-} from './dto/design.dto.js';
+import { CreateDesignDto, NewVersionDto, SaveVersionDto, UpdateDesignDto } from './dto/design.dto.js';
 import { DesignsService } from './designs.service.js';
 
 /** Engineers and admins write designs; sales read them (for quotes); operators see released recipes only. */
@@ -66,15 +60,5 @@ export class DesignsController {
     @CurrentUser() user: User,
   ): Promise<DesignVersionView> {
     return this.designs.newVersion(id, dto.fromNumber, user);
-  }
-
-  @Post(':id/versions/:number/submit')
-  @Roles('admin', 'engineer')
-  submit(
-    @Param('id', ParseIntPipe) id: number,
-    @Param('number', ParseIntPipe) number: number,
-    @Body() dto: SubmitVersionDto,
-  ): Promise<DesignVersionView> {
-    return this.designs.submit(id, number, dto.rowVersion);
   }
 }

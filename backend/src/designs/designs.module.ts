@@ -4,13 +4,20 @@ import { CustomersModule } from '../customers/customers.module.js';
 import { SpecMasksModule } from '../spec-masks/spec-masks.module.js';
 import { Design } from './design.entity.js';
 import { DesignVersion } from './design-version.entity.js';
+import { VersionEvent } from './version-event.entity.js';
+import { ApprovalsController } from './approvals.controller.js';
+import { ApprovalsService } from './approvals.service.js';
 import { DesignsController } from './designs.controller.js';
 import { DesignsService } from './designs.service.js';
 
 @Module({
-  imports: [TypeOrmModule.forFeature([Design, DesignVersion]), CustomersModule, SpecMasksModule],
-  controllers: [DesignsController],
-  providers: [DesignsService],
+  imports: [
+    TypeOrmModule.forFeature([Design, DesignVersion, VersionEvent]),
+    CustomersModule,
+    SpecMasksModule,
+  ],
+  controllers: [DesignsController, ApprovalsController],
+  providers: [DesignsService, ApprovalsService],
   exports: [DesignsService],
 })
 export class DesignsModule {}

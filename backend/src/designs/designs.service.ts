@@ -107,22 +107,22 @@ export class DesignsService {
    */
   async saveVersion(id: number, number: number, dto: SaveVersionDto): Promise<DesignVersionView> {
     const version = await this.findVersion(id, number);
-    if (version.status !== 'draft') throw notEditable(version);
+    if (!isEditable(version)) throw notEditable(version);
     if (version.rowVersion !== dto.rowVersion) throw staleVersion(version);
     await this.checkMaterials(dto);
     const result = await this.versions
       .createQueryBuilder()
       .update(DesignVersion)
       .set({ ...content(dto), rowVersion: () => 'row_version + 1' })
-      .where('id = :id AND row_version = :rowVersion AND status = :draft', {
+      .where('id = :id AND row_version = :rowVersion AND status IN (:...editable)', {
         id: version.id,
         rowVersion: dto.rowVersion,
-        draft: 'draft',
+        editable: EDITABLE_STATUSES,
       })
       .execute();
     if (result.affected !== 1) {
       const now = await this.findVersion(id, number);
-      throw now.status !== 'draft' ? notEditable(now) : staleVersion(now);
+      throw isEditable(now) ? staleVersion(now) : notEditable(now);
     }
     await this.designs.update(id, { updatedAt: new Date() });
     return this.getVersion(id, number);
@@ -145,31 +145,6 @@ export class DesignsService {
       return next;
     });
     await this.designs.update(id, { updatedAt: new Date() });
-    return this.getVersion(id, number);
-  }
-
-  /** Locks a draft for review, freezing the material models it uses. */
-  async submit(id: number, number: number, rowVersion: number): Promise<DesignVersionView> {
-    const version = await this.findVersion(id, number);
-    if (version.status !== 'draft') throw notEditable(version);
-    if (version.rowVersion !== rowVersion) throw staleVersion(version);
-    if (version.layers.length === 0) {
-      throw new BadRequestException('A version without layers cannot be submitted');
-    }
-    const snapshot = Object.fromEntries(
-      [...(await this.checkMaterials(version))].map(([k, v]) => [String(k), v]),
-    );
-    const result = await this.versions
-      .createQueryBuilder()
-      .update(DesignVersion)
-      .set({ status: 'submitted', materialsSnapshot: snapshot, rowVersion: () => 'row_version + 1' })
-      .where('id = :id AND row_version = :rowVersion AND status = :draft', {
-        id: version.id,
-        rowVersion,
-        draft: 'draft',
-      })
-      .execute();
-    if (result.affected !== 1) throw staleVersion(await this.findVersion(id, number));
     return this.getVersion(id, number);
   }
 
@@ -204,9 +179,7 @@ export class DesignsService {
   }
 
   /** Every material the content names must exist; returns them by id. */
-  private async checkMaterials(
-    c: DesignVersionContent | VersionContentDto,
-  ): Promise<Map<number, NamedModel>> {
+  async checkMaterials(c: DesignVersionContent | VersionContentDto): Promise<Map<number, NamedModel>> {
     const wanted = new Set([
       c.incidentMaterialId,
       c.substrateMaterialId,
@@ -238,7 +211,7 @@ export class DesignsService {
     return design;
   }
 
-  private async findVersion(id: number, number: number): Promise<DesignVersion> {
+  async findVersion(id: number, number: number): Promise<DesignVersion> {
     const version = await this.versions.findOne({
       where: { designId: id, number },
       relations: { design: true },
@@ -287,13 +260,20 @@ function newDraft(
   });
 }
 
-function notEditable(v: DesignVersion): ConflictException {
+/** Statuses in which a version's content may change: a draft, or one returned by its reviewer. */
+export const EDITABLE_STATUSES = ['draft', 'returned'] as const;
+
+export function isEditable(v: DesignVersion): boolean {
+  return (EDITABLE_STATUSES as readonly string[]).includes(v.status);
+}
+
+export function notEditable(v: DesignVersion): ConflictException {
   return new ConflictException(
     `Version ${v.number} is ${v.status} and cannot change; start a new version from it to make changes`,
   );
 }
 
-function staleVersion(v: DesignVersion): ConflictException {
+export function staleVersion(v: DesignVersion): ConflictException {
   return new ConflictException(
     `Version ${v.number} was saved by someone else since you opened it; reload to see their changes (nothing of yours was saved)`,
   );
@@ -310,7 +290,7 @@ function designHeader(d: Design): Omit<DesignSummaryView, 'latestVersion'> {
   };
 }
 
-function toVersionView(v: DesignVersion): DesignVersionView {
+export function toVersionView(v: DesignVersion): DesignVersionView {
   return {
     designId: v.designId,
     number: v.number,

@@ -118,10 +118,3 @@ export class NewVersionDto {
   @Min(1)
   fromNumber: number;
 }
-
-export class SubmitVersionDto {
-  /** The rowVersion the engineer reviewed: what is submitted is what they saw. */
-  @IsInt()
-  @Min(1)
-  rowVersion: number;
-}

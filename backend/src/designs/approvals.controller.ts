@@ -1,0 +1,115 @@
+import { Body, Controller, Get, Param, ParseIntPipe, Post, Query } from '@nestjs/common';
+import type { DesignVersionView } from '@quietglass/shared/designs';
+import { CurrentUser } from '../auth/current-user.decorator.js';
+import { Roles } from '../auth/roles.decorator.js';
+import type { User } from '../users/user.entity.js';
+import { ApprovalsService, type Transition } from './approvals.service.js';
+import { toVersionView } from './designs.service.js';
+import { TransitionDto } from './dto/transition.dto.js';
+import { toEventView, type VersionEventView } from './version-event.entity.js';
+
+/** Submit, approve, return, release and retire versions; the audit trail; released recipes. */
+@Controller()
+@Roles('admin', 'engineer')
+export class ApprovalsController {
+  constructor(private readonly approvals: ApprovalsService) {}
+
+  @Post('designs/:id/versions/:number/submit')
+  submit(
+    @Param('id', ParseIntPipe) id: number,
+    @Param('number', ParseIntPipe) n: number,
+    @Body() dto: TransitionDto,
+    @CurrentUser() u: User,
+  ) {
+    return this.move(id, n, 'submit', u, dto);
+  }
+
+  @Post('designs/:id/versions/:number/approve')
+  approve(
+    @Param('id', ParseIntPipe) id: number,
+    @Param('number', ParseIntPipe) n: number,
+    @Body() dto: TransitionDto,
+    @CurrentUser() u: User,
+  ) {
+    return this.move(id, n, 'approve', u, dto);
+  }
+
+  @Post('designs/:id/versions/:number/return')
+  giveBack(
+    @Param('id', ParseIntPipe) id: number,
+    @Param('number', ParseIntPipe) n: number,
+    @Body() dto: TransitionDto,
+    @CurrentUser() u: User,
+  ) {
+    return this.move(id, n, 'return', u, dto);
+  }
+
+  @Post('designs/:id/versions/:number/release')
+  release(
+    @Param('id', ParseIntPipe) id: number,
+    @Param('number', ParseIntPipe) n: number,
+    @Body() dto: TransitionDto,
+    @CurrentUser() u: User,
+  ) {
+    return this.move(id, n, 'release', u, dto);
+  }
+
+  @Post('designs/:id/versions/:number/retire')
+  retire(
+    @Param('id', ParseIntPipe) id: number,
+    @Param('number', ParseIntPipe) n: number,
+    @Body() dto: TransitionDto,
+    @CurrentUser() u: User,
+  ) {
+    return this.move(id, n, 'retire', u, dto);
+  }
+
+  @Get('designs/:id/history')
+  @Roles('admin', 'engineer', 'sales')
+  async history(@Param('id', ParseIntPipe) id: number): Promise<VersionEventView[]> {
+    return (await this.approvals.history(id)).map(toEventView);
+  }
+
+  @Get('audit')
+  @Roles('admin')
+  async audit(
+    @Query('designId', new ParseIntPipe({ optional: true })) designId?: number,
+    @Query('actorId', new ParseIntPipe({ optional: true })) actorId?: number,
+  ): Promise<VersionEventView[]> {
+    return (await this.approvals.audit({ designId, actorId })).map(toEventView);
+  }
+
+  @Get('recipes')
+  @Roles('admin', 'engineer', 'operator')
+  async recipes(): Promise<
+    { designId: number; number: number; name: string; customer: string; releasedAt: string }[]
+  > {
+    return (await this.approvals.releasedRecipes()).map((v) => ({
+      designId: v.designId,
+      number: v.number,
+      name: v.design.name,
+      customer: v.design.customer.name,
+      releasedAt: v.updatedAt.toISOString(),
+    }));
+  }
+
+  @Get('recipes/:id/:number')
+  @Roles('admin', 'engineer', 'operator')
+  async recipe(
+    @Param('id', ParseIntPipe) id: number,
+    @Param('number', ParseIntPipe) n: number,
+  ): Promise<DesignVersionView & { name: string }> {
+    const v = await this.approvals.releasedRecipe(id, n);
+    return { ...toVersionView(v), name: v.design.name };
+  }
+
+  private move(
+    id: number,
+    n: number,
+    action: Transition,
+    user: User,
+    dto: TransitionDto,
+  ): Promise<DesignVersionView> {
+    return this.approvals.transition(id, n, action, user, dto);
+  }
+}
