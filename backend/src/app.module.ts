@@ -6,6 +6,7 @@ import { appConfig, type AppConfig } from './config/configuration.js';
 import { dataSourceOptions } from './database/data-source.js';
 import { AuthModule } from './auth/auth.module.js';
 import { CalculationsModule } from './calculations/calculations.module.js';
+import { ChambersModule } from './chambers/chambers.module.js';
 import { CustomersModule } from './customers/customers.module.js';
 import { DesignsModule } from './designs/designs.module.js';
 import { HealthModule } from './health/health.module.js';
@@ -34,6 +35,7 @@ import { UsersModule } from './users/users.module.js';
     SpecMasksModule,
     DesignsModule,
     CalculationsModule,
+    ChambersModule,
   ],
 })
 export class AppModule {}

@@ -42,6 +42,9 @@ interface MatrixContext {
     Partial<Record<Role | 'anonymous', number>>
   >;
   releasedDesignId: number;
+  chamberId: number;
+  chamberVersion: number;
+  materialIdsByName: Record<string, number>;
   design: ReturnType<typeof twoLayerDesign>;
   passwords: Record<Role, string>;
   counter: number;
@@ -51,6 +54,16 @@ const ALL: readonly Role[] = ROLES;
 const DESIGNERS: readonly Role[] = ['admin', 'engineer'];
 const OFFICE: readonly Role[] = ['admin', 'engineer', 'sales'];
 const FLOOR: readonly Role[] = ['admin', 'engineer', 'operator'];
+const chamberBody = (ctx: MatrixContext) => ({
+  name: 'Matrix chamber',
+  monitorWavelengthsNm: [550],
+  monitorChipMaterialId: ctx.materialIdsByName['Fused silica'],
+  materials: ['MgF2', 'ZrO2'].map((n) => ({
+    materialId: ctx.materialIdsByName[n],
+    toolingFactor: 1,
+    rateNmPerS: 0.5,
+  })),
+});
 const maskBody = (ctx: MatrixContext) => ({
   name: 'Matrix mask',
   customerId: ctx.customerId,
@@ -318,6 +331,46 @@ const RULES: RouteRule[] = [
     okStatus: 201,
     url: (ctx, role) => `/api/calculations/${ctx.cancelCalcIds[role] ?? ctx.doneCalcId}/cancel`,
   },
+  { method: 'get', path: '/api/chambers', allow: FLOOR, okStatus: 200 },
+  {
+    method: 'get',
+    path: '/api/chambers/:id',
+    allow: FLOOR,
+    okStatus: 200,
+    url: (ctx) => `/api/chambers/${ctx.chamberId}`,
+  },
+  {
+    method: 'post',
+    path: '/api/chambers',
+    allow: DESIGNERS,
+    okStatus: 201,
+    body: (ctx) => ({ ...chamberBody(ctx), name: `Matrix chamber ${(ctx.counter += 1)}` }),
+  },
+  {
+    method: 'put',
+    path: '/api/chambers/:id',
+    allow: DESIGNERS,
+    okStatus: 200,
+    url: (ctx) => `/api/chambers/${ctx.chamberId}`,
+    body: (ctx) => ({ ...chamberBody(ctx), version: ctx.chamberVersion }),
+    after: (ctx, body) => {
+      ctx.chamberVersion = body.version ?? ctx.chamberVersion;
+    },
+  },
+  {
+    method: 'get',
+    path: '/api/recipes/:id/:number/run-sheet',
+    allow: FLOOR,
+    okStatus: 200,
+    url: (ctx) => `/api/recipes/${ctx.releasedDesignId}/1/run-sheet?chamberId=${ctx.chamberId}`,
+  },
+  {
+    method: 'get',
+    path: '/api/recipes/:id/:number/run-sheet.pdf',
+    allow: FLOOR,
+    okStatus: 200,
+    url: (ctx) => `/api/recipes/${ctx.releasedDesignId}/1/run-sheet.pdf?chamberId=${ctx.chamberId}`,
+  },
   { method: 'get', path: '/api/customers', allow: OFFICE, okStatus: 200 },
   {
     method: 'get',
@@ -358,6 +411,9 @@ const ctx: MatrixContext = {
   draftRowVersion: 1,
   stage: { submit: {}, approve: {}, return: {}, release: {}, retire: {} },
   releasedDesignId: 0,
+  chamberId: 0,
+  chamberVersion: 1,
+  materialIdsByName: {},
   design: {} as ReturnType<typeof twoLayerDesign>,
   passwords: {} as Record<Role, string>,
   counter: 0,
@@ -405,7 +461,14 @@ beforeAll(async () => {
     .send(maskBody(ctx));
   expect(mask.status).toBe(201);
   ctx.maskId = mask.body.id;
-  ctx.design = twoLayerDesign(await materialIds(app, adminCookie), ctx.customerId, 'Matrix design');
+  ctx.materialIdsByName = await materialIds(app, adminCookie);
+  ctx.design = twoLayerDesign(ctx.materialIdsByName, ctx.customerId, 'Matrix design');
+  const chamber = await request(app.getHttpServer())
+    .post('/api/chambers')
+    .set('Cookie', adminCookie)
+    .send(chamberBody(ctx));
+  expect(chamber.status).toBe(201);
+  ctx.chamberId = chamber.body.id;
   const createDesign = async () => {
     const res = await request(app.getHttpServer())
       .post('/api/designs')

@@ -1,5 +1,7 @@
 export * from './roles.js';
 export * from './designs.js';
+export * from './analysis.js';
+export * from './runsheet.js';
 
 // Optics engine (browser-safe; Node-only helpers live under @quietglass/shared/node/parallel).
 export * from './optics/errors.js';

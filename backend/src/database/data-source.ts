@@ -1,6 +1,7 @@
 import 'reflect-metadata';
 import { DataSource, type DataSourceOptions } from 'typeorm';
 import { Calculation } from '../calculations/calculation.entity.js';
+import { Chamber } from '../chambers/chamber.entity.js';
 import { Customer } from '../customers/customer.entity.js';
 import { Design } from '../designs/design.entity.js';
 import { DesignVersion } from '../designs/design-version.entity.js';
@@ -13,6 +14,7 @@ import { CustomersMaterials1764633700000 } from '../migrations/1764633700000-cus
 import { SpecMasksDesigns1764633800000 } from '../migrations/1764633800000-spec-masks-designs.js';
 import { Calculations1764633900000 } from '../migrations/1764633900000-calculations.js';
 import { VersionEvents1764634000000 } from '../migrations/1764634000000-version-events.js';
+import { Chambers1764634100000 } from '../migrations/1764634100000-chambers.js';
 
 /** Every entity of the app; each domain module also registers its own with forFeature. */
 export const ENTITIES = [
@@ -24,6 +26,7 @@ export const ENTITIES = [
   DesignVersion,
   VersionEvent,
   Calculation,
+  Chamber,
 ];
 
 /** Every migration, in order. Listed explicitly so the same list works from src (tests) and dist. */
@@ -33,6 +36,7 @@ export const MIGRATIONS = [
   SpecMasksDesigns1764633800000,
   Calculations1764633900000,
   VersionEvents1764634000000,
+  Chambers1764634100000,
 ];
 
 /** TypeORM options for PostgreSQL; never `synchronize` — the schema comes from migrations. */

@@ -138,3 +138,33 @@ export const DEMO_SPEC_MASKS: readonly {
     notes: 'Laser line plus visible viewing band',
   },
 ];
+
+/**
+ * The demo shop's chamber (invented): tooling factors and rates are demo values, not measurements;
+ * a shop enters its own from calibration runs.
+ */
+export const DEMO_CHAMBERS: readonly {
+  name: string;
+  monitorWavelengthsNm: number[];
+  monitorChip: string;
+  materials: [string, number, number][];
+  notes: string;
+}[] = [
+  {
+    name: 'Box coater B2',
+    monitorWavelengthsNm: [550, 632.8],
+    monitorChip: 'Fused silica',
+    materials: [
+      ['MgF2', 1.08, 0.8],
+      ['SiO2', 1.04, 0.8],
+      ['Al2O3', 1.0, 0.5],
+      ['HfO2', 0.96, 0.3],
+      ['ZrO2', 0.97, 0.4],
+      ['Ta2O5', 0.98, 0.4],
+      ['Nb2O5', 0.97, 0.35],
+      ['TiO2', 0.95, 0.3],
+    ],
+    notes:
+      'Electron-beam sources, quartz-crystal rate control, optical monitor through a fused-silica chip (demo data)',
+  },
+];

@@ -8,7 +8,8 @@ import { Material } from '../materials/material.entity.js';
 import { User } from '../users/user.entity.js';
 import { validateSpecMask } from '@quietglass/shared/optics/mask';
 import { SpecMaskRecord } from '../spec-masks/spec-mask.entity.js';
-import { DEMO_CUSTOMERS, DEMO_MATERIALS, DEMO_SPEC_MASKS } from './demo-materials.js';
+import { Chamber } from '../chambers/chamber.entity.js';
+import { DEMO_CHAMBERS, DEMO_CUSTOMERS, DEMO_MATERIALS, DEMO_SPEC_MASKS } from './demo-materials.js';
 import { hashPassword } from '../users/passwords.js';
 
 /**
@@ -89,6 +90,23 @@ export async function seedDemo(db: DataSource, signIns: DemoSignIn[]): Promise<n
       customer,
       bands,
       notes: mask.notes,
+      version: 1,
+    });
+    created += 1;
+  }
+  for (const chamber of DEMO_CHAMBERS) {
+    if (await db.getRepository(Chamber).existsBy({ name: chamber.name })) continue;
+    const id = async (name: string) => (await db.getRepository(Material).findOneByOrFail({ name })).id;
+    const materials = [];
+    for (const [name, toolingFactor, rateNmPerS] of chamber.materials) {
+      materials.push({ materialId: await id(name), toolingFactor, rateNmPerS });
+    }
+    await db.getRepository(Chamber).insert({
+      name: chamber.name,
+      monitorWavelengthsNm: chamber.monitorWavelengthsNm,
+      monitorChipMaterialId: await id(chamber.monitorChip),
+      materials,
+      notes: chamber.notes,
       version: 1,
     });
     created += 1;

@@ -18,6 +18,6 @@ import { DesignsService } from './designs.service.js';
   ],
   controllers: [DesignsController, ApprovalsController],
   providers: [DesignsService, ApprovalsService],
-  exports: [DesignsService],
+  exports: [DesignsService, ApprovalsService],
 })
 export class DesignsModule {}

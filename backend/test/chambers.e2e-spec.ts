@@ -1,0 +1,197 @@
+import type { NestExpressApplication } from '@nestjs/platform-express';
+import request from 'supertest';
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { createTestApp, demoSession } from './support/app.js';
+import { customerId, materialIds } from './support/fixtures.js';
+
+let app: NestExpressApplication;
+let mira: string;
+let tomas: string;
+let operator: string;
+let m: Record<string, number>;
+let chamberId: number;
+let recipeId: number;
+
+const http = () => request(app.getHttpServer());
+const constantMaterial = (name: string, n: number) => ({
+  name,
+  model: { model: 'constant', n, k: 0 },
+  rangeNm: { from: 300, to: 1200 },
+  typical: true,
+  provenance: { source: 'test value' },
+});
+
+beforeAll(async () => {
+  app = await createTestApp();
+  mira = await demoSession(app, 'engineer', 0);
+  tomas = await demoSession(app, 'engineer', 1);
+  operator = await demoSession(app, 'operator');
+  for (const [name, n] of [
+    ['Sheet L 1.5', 1.5],
+    ['Sheet H 2.0', 2.0],
+  ] as const) {
+    expect(
+      (await http().post('/api/materials').set('Cookie', mira).send(constantMaterial(name, n))).status,
+    ).toBe(201);
+  }
+  m = await materialIds(app, mira);
+  const chamber = await http()
+    .post('/api/chambers')
+    .set('Cookie', mira)
+    .send({
+      name: 'Test chamber',
+      monitorWavelengthsNm: [600],
+      monitorChipMaterialId: m['N-BK7'],
+      materials: [
+        { materialId: m['Sheet L 1.5'], toolingFactor: 1.2, rateNmPerS: 0.5 },
+        { materialId: m['Sheet H 2.0'], toolingFactor: 0.75, rateNmPerS: 0.25 },
+      ],
+    });
+  expect(chamber.status).toBe(201);
+  chamberId = chamber.body.id;
+  // The 4-layer recipe of the hand calculation, released through four-eyes approval.
+  const design = await http()
+    .post('/api/designs')
+    .set('Cookie', mira)
+    .send({
+      name: 'Sheet check',
+      customerId: await customerId(app, mira, 'Brightwater Instruments'),
+      incidentMaterialId: m['Air'],
+      substrateMaterialId: m['N-BK7'],
+      substrateThicknessMm: 2,
+      backSurface: 'bare',
+      referenceWavelengthNm: 550,
+      layers: [
+        { materialId: m['Sheet L 1.5'], thicknessNm: 120 },
+        { materialId: m['Sheet H 2.0'], thicknessNm: 60 },
+        { materialId: m['Sheet L 1.5'], thicknessNm: 30 },
+        { materialId: m['Sheet H 2.0'], thicknessNm: 15 },
+      ],
+    });
+  recipeId = design.body.id;
+  for (const [cookie, action, body] of [
+    [mira, 'submit', { rowVersion: 1 }],
+    [tomas, 'approve', {}],
+    [tomas, 'release', {}],
+  ] as const) {
+    expect(
+      (await http().post(`/api/designs/${recipeId}/versions/1/${action}`).set('Cookie', cookie).send(body))
+        .status,
+    ).toBe(201);
+  }
+});
+afterAll(async () => {
+  await app.close();
+});
+
+describe('chambers', () => {
+  it('lists the demo chamber with its tooling factors', async () => {
+    const res = await http().get('/api/chambers').set('Cookie', operator);
+    expect(res.status).toBe(200);
+    const b2 = res.body.find((c: { name: string }) => c.name === 'Box coater B2');
+    expect(b2.monitorWavelengthsNm).toEqual([550, 632.8]);
+    expect(b2.materials).toContainEqual({ materialId: m['MgF2'], toolingFactor: 1.08, rateNmPerS: 0.8 });
+  });
+
+  it.each([
+    [
+      { materials: [{ materialId: 1, toolingFactor: -1, rateNmPerS: 1 }] },
+      'materials.0.toolingFactor must be > 0',
+    ],
+    [
+      { materials: [{ materialId: 1, toolingFactor: 1, rateNmPerS: 'fast' }] },
+      'materials.0.rateNmPerS must be a number',
+    ],
+    [{ monitorWavelengthsNm: [] }, 'monitorWavelengthsNm needs at least one wavelength'],
+    [{ monitorChipMaterialId: 99999 }, 'monitorChipMaterialId: material 99999 does not exist'],
+  ])('rejects a bad chamber %j with 400', async (patch, detail) => {
+    const body = {
+      name: 'Bad chamber',
+      monitorWavelengthsNm: [550],
+      monitorChipMaterialId: m['N-BK7'],
+      materials: [],
+      ...patch,
+    };
+    const res = await http().post('/api/chambers').set('Cookie', mira).send(body);
+    expect(res.status).toBe(400);
+    expect(res.body.details).toContain(detail);
+  });
+
+  it('operators cannot change chambers', async () => {
+    const res = await http()
+      .post('/api/chambers')
+      .set('Cookie', operator)
+      .send({ name: 'Mine', monitorWavelengthsNm: [550], monitorChipMaterialId: m['N-BK7'], materials: [] });
+    expect(res.status).toBe(403);
+  });
+});
+
+describe('run sheet of a released recipe', () => {
+  it('matches the hand calculation with the tooling factor (part ÷ TF), QWOT at 600 nm and times', async () => {
+    const res = await http()
+      .get(`/api/recipes/${recipeId}/1/run-sheet?chamberId=${chamberId}`)
+      .set('Cookie', operator);
+    expect(res.status).toBe(200);
+    const rows = res.body.layers.map((l: Record<string, number | string>) => [
+      l.step,
+      l.material,
+      l.partThicknessNm,
+      Number((l.monitorThicknessNm as number).toFixed(6)),
+      Number((l.qwotAtMonitor as number).toFixed(6)),
+      Number((l.timeS as number).toFixed(6)),
+    ]);
+    // Hand calculation: monitor = part / TF (H: TF 0.75, L: TF 1.2); QWOT = 4·n·d/600; time = d / rate.
+    expect(rows).toEqual([
+      [1, 'Sheet H 2.0', 15, 20, 0.266667, 80],
+      [2, 'Sheet L 1.5', 30, 25, 0.25, 50],
+      [3, 'Sheet H 2.0', 60, 80, 1.066667, 320],
+      [4, 'Sheet L 1.5', 120, 100, 1, 200],
+    ]);
+    expect(res.body.totals.timeS).toBeCloseTo(650, 9);
+    expect(res.body.recipe).toMatchObject({ name: 'Sheet check', number: 1 });
+    expect(res.body.cautions.join(' ')).toMatch(/high voltage/);
+  });
+
+  it('prints as a PDF', async () => {
+    const res = await http()
+      .get(`/api/recipes/${recipeId}/1/run-sheet.pdf?chamberId=${chamberId}`)
+      .set('Cookie', operator)
+      .buffer(true)
+      .parse((r, cb) => {
+        const chunks: Buffer[] = [];
+        r.on('data', (c: Buffer) => chunks.push(c));
+        r.on('end', () => cb(null, Buffer.concat(chunks)));
+      });
+    expect(res.status).toBe(200);
+    expect(res.headers['content-type']).toBe('application/pdf');
+    expect((res.body as Buffer).subarray(0, 5).toString()).toBe('%PDF-');
+  });
+
+  it('has no run sheet for a draft, and names a material the chamber lacks', async () => {
+    const draft = await http()
+      .post('/api/designs')
+      .set('Cookie', mira)
+      .send({
+        name: 'Not released',
+        customerId: await customerId(app, mira, 'Brightwater Instruments'),
+        incidentMaterialId: m['Air'],
+        substrateMaterialId: m['N-BK7'],
+        substrateThicknessMm: 2,
+        backSurface: 'bare',
+        referenceWavelengthNm: 550,
+        layers: [{ materialId: m['MgF2'], thicknessNm: 99 }],
+      });
+    const none = await http()
+      .get(`/api/recipes/${draft.body.id}/1/run-sheet?chamberId=${chamberId}`)
+      .set('Cookie', operator);
+    expect(none.status).toBe(404);
+    const b2 = (await http().get('/api/chambers').set('Cookie', operator)).body.find(
+      (c: { name: string }) => c.name === 'Box coater B2',
+    );
+    const lacking = await http()
+      .get(`/api/recipes/${recipeId}/1/run-sheet?chamberId=${b2.id}`)
+      .set('Cookie', operator);
+    expect(lacking.status).toBe(400);
+    expect(lacking.body.details[0]).toMatch(/the chamber has no tooling factor and rate for Sheet H 2.0/);
+  });
+});
