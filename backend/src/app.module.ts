@@ -11,6 +11,7 @@ import { CustomersModule } from './customers/customers.module.js';
 import { DesignsModule } from './designs/designs.module.js';
 import { HealthModule } from './health/health.module.js';
 import { MaterialsModule } from './materials/materials.module.js';
+import { RunsModule } from './runs/runs.module.js';
 import { SpecMasksModule } from './spec-masks/spec-masks.module.js';
 import { UsersModule } from './users/users.module.js';
 
@@ -36,6 +37,7 @@ import { UsersModule } from './users/users.module.js';
     DesignsModule,
     CalculationsModule,
     ChambersModule,
+    RunsModule,
   ],
 })
 export class AppModule {}

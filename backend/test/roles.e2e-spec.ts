@@ -44,6 +44,8 @@ interface MatrixContext {
   releasedDesignId: number;
   chamberId: number;
   chamberVersion: number;
+  runId: number;
+  spectrumId: number;
   materialIdsByName: Record<string, number>;
   design: ReturnType<typeof twoLayerDesign>;
   passwords: Record<Role, string>;
@@ -371,6 +373,62 @@ const RULES: RouteRule[] = [
     okStatus: 200,
     url: (ctx) => `/api/recipes/${ctx.releasedDesignId}/1/run-sheet.pdf?chamberId=${ctx.chamberId}`,
   },
+  { method: 'get', path: '/api/runs', allow: FLOOR, okStatus: 200 },
+  {
+    method: 'post',
+    path: '/api/runs',
+    allow: FLOOR,
+    okStatus: 201,
+    body: (ctx) => ({
+      designId: ctx.releasedDesignId,
+      versionNumber: 1,
+      chamberId: ctx.chamberId,
+      lotNumber: 'M-1',
+      runDate: '2026-12-01',
+    }),
+  },
+  {
+    method: 'get',
+    path: '/api/runs/:id',
+    allow: FLOOR,
+    okStatus: 200,
+    url: (ctx) => `/api/runs/${ctx.runId}`,
+  },
+  {
+    method: 'put',
+    path: '/api/runs/:id',
+    allow: FLOOR,
+    okStatus: 200,
+    url: (ctx) => `/api/runs/${ctx.runId}`,
+    body: () => ({ notes: 'matrix' }),
+  },
+  {
+    method: 'post',
+    path: '/api/runs/:id/spectra',
+    allow: FLOOR,
+    okStatus: 201,
+    url: (ctx) => `/api/runs/${ctx.runId}/spectra`,
+    body: () => ({
+      filename: 'm.csv',
+      csv: 'wavelength_nm,R_percent\n420,0.3\n680,0.4\n',
+      angleDeg: 8,
+      sample: 'witness',
+    }),
+  },
+  {
+    method: 'get',
+    path: '/api/runs/:id/spectra/:sid/original',
+    allow: FLOOR,
+    okStatus: 200,
+    url: (ctx) => `/api/runs/${ctx.runId}/spectra/${ctx.spectrumId}/original`,
+  },
+  {
+    method: 'get',
+    path: '/api/runs/:id/spectra/:sid/comparison',
+    allow: FLOOR,
+    okStatus: 200,
+    url: (ctx) => `/api/runs/${ctx.runId}/spectra/${ctx.spectrumId}/comparison`,
+  },
   { method: 'get', path: '/api/customers', allow: OFFICE, okStatus: 200 },
   {
     method: 'get',
@@ -413,6 +471,8 @@ const ctx: MatrixContext = {
   releasedDesignId: 0,
   chamberId: 0,
   chamberVersion: 1,
+  runId: 0,
+  spectrumId: 0,
   materialIdsByName: {},
   design: {} as ReturnType<typeof twoLayerDesign>,
   passwords: {} as Record<Role, string>,
@@ -516,6 +576,29 @@ beforeAll(async () => {
   ctx.releasedDesignId = await createDesign();
   for (const [move, cookie] of paths.retire)
     await step(ctx.releasedDesignId, move, cookie, move === 'submit' ? { rowVersion: 1 } : {});
+  const run = await request(app.getHttpServer())
+    .post('/api/runs')
+    .set('Cookie', adminCookie)
+    .send({
+      designId: ctx.releasedDesignId,
+      versionNumber: 1,
+      chamberId: ctx.chamberId,
+      lotNumber: 'M-0',
+      runDate: '2026-12-01',
+    });
+  expect(run.status, JSON.stringify(run.body)).toBe(201);
+  ctx.runId = run.body.id;
+  const spectrum = await request(app.getHttpServer())
+    .post(`/api/runs/${ctx.runId}/spectra`)
+    .set('Cookie', adminCookie)
+    .send({
+      filename: 'm.csv',
+      csv: 'wavelength_nm,R_percent\n420,0.3\n680,0.4\n',
+      angleDeg: 8,
+      sample: 'witness',
+    });
+  expect(spectrum.status).toBe(201);
+  ctx.spectrumId = spectrum.body.id;
   // Calculations inserted directly: one completed (1 wavelength, 1 angle), one queued per canceller.
   const db = app.get(DataSource);
   const adminId = (await request(app.getHttpServer()).get('/api/auth/me').set('Cookie', adminCookie)).body

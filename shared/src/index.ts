@@ -2,6 +2,7 @@ export * from './roles.js';
 export * from './designs.js';
 export * from './analysis.js';
 export * from './runsheet.js';
+export * from './measured.js';
 
 // Optics engine (browser-safe; Node-only helpers live under @quietglass/shared/node/parallel).
 export * from './optics/errors.js';

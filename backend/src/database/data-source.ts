@@ -7,6 +7,7 @@ import { Design } from '../designs/design.entity.js';
 import { DesignVersion } from '../designs/design-version.entity.js';
 import { VersionEvent } from '../designs/version-event.entity.js';
 import { Material } from '../materials/material.entity.js';
+import { ChamberRun, RunSpectrum } from '../runs/run.entity.js';
 import { SpecMaskRecord } from '../spec-masks/spec-mask.entity.js';
 import { User } from '../users/user.entity.js';
 import { CreateUsers1764633600000 } from '../migrations/1764633600000-create-users.js';
@@ -15,6 +16,7 @@ import { SpecMasksDesigns1764633800000 } from '../migrations/1764633800000-spec-
 import { Calculations1764633900000 } from '../migrations/1764633900000-calculations.js';
 import { VersionEvents1764634000000 } from '../migrations/1764634000000-version-events.js';
 import { Chambers1764634100000 } from '../migrations/1764634100000-chambers.js';
+import { ChamberRuns1764634200000 } from '../migrations/1764634200000-chamber-runs.js';
 
 /** Every entity of the app; each domain module also registers its own with forFeature. */
 export const ENTITIES = [
@@ -27,6 +29,8 @@ export const ENTITIES = [
   VersionEvent,
   Calculation,
   Chamber,
+  ChamberRun,
+  RunSpectrum,
 ];
 
 /** Every migration, in order. Listed explicitly so the same list works from src (tests) and dist. */
@@ -37,6 +41,7 @@ export const MIGRATIONS = [
   Calculations1764633900000,
   VersionEvents1764634000000,
   Chambers1764634100000,
+  ChamberRuns1764634200000,
 ];
 
 /** TypeORM options for PostgreSQL; never `synchronize` — the schema comes from migrations. */

@@ -1,4 +1,4 @@
-import Papa from 'papaparse';
+import { numericCell as cell, readCsvRows, type CsvProblem } from '../common/csv.js';
 
 /** Largest n,k file accepted (bytes of text). */
 export const MAX_NK_CSV_BYTES = 1_000_000;
@@ -12,11 +12,7 @@ export interface NkTable {
   k: number[];
 }
 
-export interface CsvProblem {
-  /** 1-based line number in the file (0 for the file as a whole). */
-  row: number;
-  reason: string;
-}
+export type { CsvProblem };
 
 export type NkCsvResult =
   { ok: true; table: NkTable; headerRow: boolean } | { ok: false; problems: CsvProblem[] };
@@ -25,12 +21,6 @@ const WAVELENGTH_NAMES = /^(wavelength|wl|lambda|λ)(_?\(?(nm|um|µm|micron)\)?)
 const N_NAMES = /^n$/i;
 const K_NAMES = /^(k|kappa)$/i;
 
-function cell(value: string): number | null {
-  const trimmed = value.trim();
-  if (trimmed === '' || !/^[+-]?(\d+\.?\d*|\.\d+)([eE][+-]?\d+)?$/.test(trimmed)) return null;
-  return Number(trimmed);
-}
-
 /**
  * Parses an n,k table: columns wavelength, n and (optionally) k, comma-, semicolon- or
  * tab-separated, with or without a header row (a header names the columns in any order, e.g.
@@ -38,27 +28,11 @@ function cell(value: string): number | null {
  * returned unless the whole file is valid.
  */
 export function parseNkCsv(text: string, unit: WavelengthUnit): NkCsvResult {
-  if (new TextEncoder().encode(text).length > MAX_NK_CSV_BYTES) {
-    return {
-      ok: false,
-      problems: [{ row: 0, reason: `the file is larger than ${MAX_NK_CSV_BYTES / 1_000_000} MB` }],
-    };
-  }
-  const body = text.replace(/^\uFEFF/, '');
-  if (body.trim() === '') return { ok: false, problems: [{ row: 0, reason: 'the file is empty' }] };
-  const parsed = Papa.parse<string[]>(body, {
-    skipEmptyLines: 'greedy',
-    delimitersToGuess: [',', ';', '\t'],
-  });
-  const rows = parsed.data;
+  const read = readCsvRows(text, MAX_NK_CSV_BYTES);
+  if (!read.ok) return read;
+  const rows = read.rows;
+  const lineOf = read.lines;
   const problems: CsvProblem[] = [];
-  const quoteErrors = parsed.errors.filter((e) => e.type === 'Quotes');
-  for (const e of quoteErrors)
-    problems.push({ row: (e.row ?? 0) + 1, reason: `unbalanced quotes: ${e.message}` });
-  if (problems.length > 0) return { ok: false, problems };
-
-  // Line numbers: papaparse skips empty lines, so map each parsed row back to its source line.
-  const lineOf = sourceLines(body);
 
   let columns = { wl: 0, n: 1, k: 2 as number | null };
   let first = 0;
@@ -143,13 +117,4 @@ export function parseNkCsv(text: string, unit: WavelengthUnit): NkCsvResult {
     });
   }
   return problems.length > 0 ? { ok: false, problems } : { ok: true, table, headerRow };
-}
-
-/** Source line number (1-based) of each non-empty line, in order. */
-function sourceLines(text: string): number[] {
-  const out: number[] = [];
-  text.split(/\r\n|\n|\r/).forEach((line, i) => {
-    if (line.trim() !== '') out.push(i + 1);
-  });
-  return out;
 }

@@ -1,6 +1,7 @@
 import Papa from 'papaparse';
+import { numericCell as numeric, readCsvRows } from '../common/csv.js';
 import { LIMIT_BAND_FIELDS, type LimitBand } from '@quietglass/shared/optics/mask';
-import type { CsvProblem } from '../materials/nk-csv.js';
+import type { CsvProblem } from '../common/csv.js';
 
 /** Largest mask file accepted (bytes of text). */
 export const MAX_MASK_CSV_BYTES = 200_000;
@@ -20,11 +21,6 @@ const NUMBER_COLUMNS = new Set([
 ]);
 const REQUIRED = ['from_nm', 'to_nm', 'quantity'];
 
-function numeric(text: string): number | null {
-  const t = text.trim();
-  return /^[+-]?(\d+\.?\d*|\.\d+)([eE][+-]?\d+)?$/.test(t) ? Number(t) : null;
-}
-
 export type MaskCsvResult =
   { ok: true; bands: Record<string, unknown>[] } | { ok: false; problems: CsvProblem[] };
 
@@ -34,22 +30,10 @@ export type MaskCsvResult =
  * then checks the bands' meaning. Every bad row is reported with its line number.
  */
 export function parseMaskCsv(text: string): MaskCsvResult {
-  if (new TextEncoder().encode(text).length > MAX_MASK_CSV_BYTES) {
-    return {
-      ok: false,
-      problems: [{ row: 0, reason: `the file is larger than ${MAX_MASK_CSV_BYTES / 1000} kB` }],
-    };
-  }
-  const body = text.replace(/^\uFEFF/, '');
-  if (body.trim() === '') return { ok: false, problems: [{ row: 0, reason: 'the file is empty' }] };
-  const parsed = Papa.parse<string[]>(body, { skipEmptyLines: 'greedy', delimitersToGuess: [',', '\t'] });
-  const quote = parsed.errors.find((e) => e.type === 'Quotes');
-  if (quote)
-    return {
-      ok: false,
-      problems: [{ row: (quote.row ?? 0) + 1, reason: `unbalanced quotes: ${quote.message}` }],
-    };
-  const [header, ...rows] = parsed.data;
+  const read = readCsvRows(text, MAX_MASK_CSV_BYTES, [',', '\t']);
+  if (!read.ok) return read;
+  const lines = read.lines;
+  const [header, ...rows] = read.rows;
   const names = header.map((h) => h.trim().toLowerCase());
   const unknown = names.filter((n) => !(MASK_CSV_COLUMNS as readonly string[]).includes(n));
   const missing = REQUIRED.filter((r) => !names.includes(r));
@@ -65,7 +49,6 @@ export function parseMaskCsv(text: string): MaskCsvResult {
       ],
     };
   }
-  const lines = body.split(/\r\n|\n|\r/).flatMap((l, i) => (l.trim() === '' ? [] : [i + 1]));
   if (rows.length === 0)
     return { ok: false, problems: [{ row: 0, reason: 'the file has a header but no limit band' }] };
   const problems: CsvProblem[] = [];

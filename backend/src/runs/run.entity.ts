@@ -1,0 +1,106 @@
+import {
+  Column,
+  CreateDateColumn,
+  Entity,
+  JoinColumn,
+  ManyToOne,
+  PrimaryGeneratedColumn,
+  UpdateDateColumn,
+} from 'typeorm';
+import { User } from '../users/user.entity.js';
+
+export interface LayerReading {
+  /** Deposition step (1 = next to the substrate), as on the run sheet. */
+  step: number;
+  /** What the monitor or crystal showed at the end of the layer, nm. */
+  monitorThicknessNm?: number;
+  rateNmPerS?: number;
+  notes?: string;
+}
+
+export interface DurabilityResult {
+  test: 'adhesion' | 'abrasion' | 'humidity' | 'other';
+  /** The procedure followed, e.g. "ISO 9211-4, tape adhesion". */
+  method: string;
+  result: 'pass' | 'fail';
+  notes?: string;
+}
+
+/** One chamber run of a released recipe: a lot, its readings and witness results. */
+@Entity({ name: 'chamber_runs' })
+export class ChamberRun {
+  @PrimaryGeneratedColumn()
+  id: number;
+
+  @Column({ name: 'design_id', type: 'integer' })
+  designId: number;
+
+  @Column({ name: 'version_number', type: 'integer' })
+  versionNumber: number;
+
+  @Column({ name: 'chamber_id', type: 'integer' })
+  chamberId: number;
+
+  @Column({ name: 'lot_number', type: 'varchar', length: 60 })
+  lotNumber: string;
+
+  @Column({ name: 'run_date', type: 'date' })
+  runDate: string;
+
+  @ManyToOne(() => User, { nullable: false, eager: true })
+  @JoinColumn({ name: 'operator_id' })
+  operator: User;
+
+  @Column({ name: 'layer_readings', type: 'jsonb', default: () => "'[]'" })
+  layerReadings: LayerReading[];
+
+  @Column({ type: 'jsonb', default: () => "'[]'" })
+  durability: DurabilityResult[];
+
+  @Column({ type: 'text', default: '' })
+  notes: string;
+
+  @CreateDateColumn({ name: 'created_at', type: 'timestamptz' })
+  createdAt: Date;
+
+  @UpdateDateColumn({ name: 'updated_at', type: 'timestamptz' })
+  updatedAt: Date;
+}
+
+/** A measured spectrum of a run's witness or part, with the file exactly as uploaded. */
+@Entity({ name: 'run_spectra' })
+export class RunSpectrum {
+  @PrimaryGeneratedColumn()
+  id: number;
+
+  @Column({ name: 'run_id', type: 'integer' })
+  runId: number;
+
+  @Column({ type: 'varchar', length: 1 })
+  quantity: 'R' | 'T';
+
+  @Column({ name: 'angle_deg', type: 'double precision' })
+  angleDeg: number;
+
+  @Column({ type: 'varchar', length: 10 })
+  sample: 'witness' | 'part';
+
+  @Column({ type: 'varchar', length: 255 })
+  filename: string;
+
+  @Column({ name: 'original_text', type: 'text', select: false })
+  originalText: string;
+
+  @Column({ name: 'wavelengths_nm', type: 'jsonb' })
+  wavelengthsNm: number[];
+
+  @Column({ name: 'values_percent', type: 'jsonb' })
+  valuesPercent: number[];
+
+  @ManyToOne(() => User, { nullable: false, eager: true })
+  @JoinColumn({ name: 'uploaded_by' })
+  uploadedBy: User;
+
+  @CreateDateColumn({ name: 'uploaded_at', type: 'timestamptz' })
+  uploadedAt: Date;
+}

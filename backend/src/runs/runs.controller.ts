@@ -1,0 +1,90 @@
+import { Body, Controller, Get, Header, Param, ParseIntPipe, Post, Put, Res } from '@nestjs/common';
+import type { Response } from 'express';
+import { CurrentUser } from '../auth/current-user.decorator.js';
+import { Roles } from '../auth/roles.decorator.js';
+import type { User } from '../users/user.entity.js';
+import { StartRunDto, UpdateRunDto, UploadSpectrumDto } from './dto/run.dto.js';
+import type { ChamberRun, RunSpectrum } from './run.entity.js';
+import { RunsService, type RunComparison } from './runs.service.js';
+
+type RunView = Omit<ChamberRun, 'operator' | 'createdAt' | 'updatedAt'> & {
+  operator: { id: number; displayName: string };
+  createdAt: string;
+  updatedAt: string;
+};
+type SpectrumView = Omit<RunSpectrum, 'uploadedBy' | 'uploadedAt' | 'originalText'> & {
+  uploadedBy: string;
+  uploadedAt: string;
+};
+
+function runView(r: ChamberRun): RunView {
+  const { operator, createdAt, updatedAt, ...rest } = r;
+  return {
+    ...rest,
+    operator: { id: operator.id, displayName: operator.displayName },
+    createdAt: createdAt.toISOString(),
+    updatedAt: updatedAt.toISOString(),
+  };
+}
+
+function spectrumView(s: RunSpectrum): SpectrumView {
+  const { uploadedBy, uploadedAt, originalText: _original, ...rest } = s;
+  return { ...rest, uploadedBy: uploadedBy.displayName, uploadedAt: uploadedAt.toISOString() };
+}
+
+/** Chamber runs: operators log what the chamber did; engineers read it back. */
+@Controller('runs')
+@Roles('admin', 'engineer', 'operator')
+export class RunsController {
+  constructor(private readonly runs: RunsService) {}
+
+  @Get()
+  async list(): Promise<RunView[]> {
+    return (await this.runs.list()).map(runView);
+  }
+
+  @Post()
+  async start(@Body() dto: StartRunDto, @CurrentUser() user: User): Promise<RunView> {
+    return runView(await this.runs.start(dto, user));
+  }
+
+  @Get(':id')
+  async get(@Param('id', ParseIntPipe) id: number): Promise<RunView & { spectra: SpectrumView[] }> {
+    const [run, spectra] = await Promise.all([this.runs.get(id), this.runs.spectra(id)]);
+    return { ...runView(run), spectra: spectra.map(spectrumView) };
+  }
+
+  @Put(':id')
+  async update(@Param('id', ParseIntPipe) id: number, @Body() dto: UpdateRunDto): Promise<RunView> {
+    return runView(await this.runs.update(id, dto));
+  }
+
+  @Post(':id/spectra')
+  async upload(
+    @Param('id', ParseIntPipe) id: number,
+    @Body() dto: UploadSpectrumDto,
+    @CurrentUser() user: User,
+  ): Promise<SpectrumView> {
+    return spectrumView(await this.runs.uploadSpectrum(id, dto, user));
+  }
+
+  @Get(':id/spectra/:sid/original')
+  @Header('Content-Type', 'text/csv; charset=utf-8')
+  async original(
+    @Param('id', ParseIntPipe) id: number,
+    @Param('sid', ParseIntPipe) sid: number,
+    @Res({ passthrough: true }) res: Response,
+  ): Promise<string> {
+    const { filename, text } = await this.runs.original(id, sid);
+    res.setHeader('Content-Disposition', `attachment; filename="${filename.replace(/["\\\r\n]/g, '_')}"`);
+    return text;
+  }
+
+  @Get(':id/spectra/:sid/comparison')
+  compare(
+    @Param('id', ParseIntPipe) id: number,
+    @Param('sid', ParseIntPipe) sid: number,
+  ): Promise<RunComparison> {
+    return this.runs.compare(id, sid);
+  }
+}

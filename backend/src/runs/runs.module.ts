@@ -1,0 +1,14 @@
+import { Module } from '@nestjs/common';
+import { TypeOrmModule } from '@nestjs/typeorm';
+import { ChambersModule } from '../chambers/chambers.module.js';
+import { DesignsModule } from '../designs/designs.module.js';
+import { ChamberRun, RunSpectrum } from './run.entity.js';
+import { RunsController } from './runs.controller.js';
+import { RunsService } from './runs.service.js';
+
+@Module({
+  imports: [TypeOrmModule.forFeature([ChamberRun, RunSpectrum]), DesignsModule, ChambersModule],
+  controllers: [RunsController],
+  providers: [RunsService],
+})
+export class RunsModule {}

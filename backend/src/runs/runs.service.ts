@@ -1,0 +1,185 @@
+import { BadRequestException, Injectable, NotFoundException } from '@nestjs/common';
+import { InjectDataSource } from '@nestjs/typeorm';
+import { DataSource, In } from 'typeorm';
+import { designStackDescription, engineBackSurface } from '@quietglass/shared/designs';
+import { evaluateMaskOnMeasured, type MeasuredMaskResult } from '@quietglass/shared/measured';
+import { calculateSpectrum } from '@quietglass/shared/optics/batch';
+import { parseStack } from '@quietglass/shared/optics/stack';
+import { problemDetails } from '../common/csv.js';
+import { ChambersService } from '../chambers/chambers.service.js';
+import { ApprovalsService } from '../designs/approvals.service.js';
+import { Design } from '../designs/design.entity.js';
+import { DesignVersion } from '../designs/design-version.entity.js';
+import { SpecMaskRecord } from '../spec-masks/spec-mask.entity.js';
+import type { User } from '../users/user.entity.js';
+import type { StartRunDto, UpdateRunDto, UploadSpectrumDto } from './dto/run.dto.js';
+import { ChamberRun, RunSpectrum } from './run.entity.js';
+import { parseSpectrumCsv } from './spectrum-csv.js';
+
+export interface RunComparison {
+  spectrumId: number;
+  quantity: 'R' | 'T';
+  angleDeg: number;
+  measured: { wavelengthsNm: number[]; valuesPercent: number[] };
+  /** The released design at the same angle, unpolarised, with the thick substrate as the design treats it. */
+  design: { wavelengthsNm: number[]; valuesPercent: number[] };
+  mask: (MeasuredMaskResult & { name: string; revision: string }) | null;
+}
+
+@Injectable()
+export class RunsService {
+  constructor(
+    @InjectDataSource() private readonly db: DataSource,
+    private readonly approvals: ApprovalsService,
+    private readonly chambers: ChambersService,
+  ) {}
+
+  /** Starts a run of a released recipe; the signed-in user is its operator. */
+  async start(dto: StartRunDto, operator: User): Promise<ChamberRun> {
+    await this.approvals.releasedRecipe(dto.designId, dto.versionNumber).catch(() => {
+      throw new BadRequestException({
+        message: [`design ${dto.designId} version ${dto.versionNumber} is not a released recipe`],
+      });
+    });
+    await this.chambers.get(dto.chamberId).catch(() => {
+      throw new BadRequestException({ message: [`chamberId: chamber ${dto.chamberId} does not exist`] });
+    });
+    const repo = this.db.getRepository(ChamberRun);
+    return repo.save(
+      repo.create({ ...dto, notes: dto.notes ?? '', operator, layerReadings: [], durability: [] }),
+    );
+  }
+
+  list(): Promise<ChamberRun[]> {
+    return this.db.getRepository(ChamberRun).find({ order: { id: 'DESC' }, take: 200 });
+  }
+
+  async get(id: number): Promise<ChamberRun> {
+    const run = await this.db.getRepository(ChamberRun).findOneBy({ id });
+    if (!run) throw new NotFoundException(`Chamber run ${id} does not exist`);
+    return run;
+  }
+
+  async update(id: number, dto: UpdateRunDto): Promise<ChamberRun> {
+    const run = await this.get(id);
+    if (dto.layerReadings) {
+      const layers = (await this.version(run)).layers.length;
+      const bad = dto.layerReadings
+        .map((r, i) => (r.step > layers ? `layerReadings[${i}].step: the recipe has ${layers} layers` : null))
+        .filter((x): x is string => x !== null);
+      if (bad.length > 0) throw new BadRequestException({ message: bad });
+      run.layerReadings = dto.layerReadings;
+    }
+    if (dto.durability) run.durability = dto.durability;
+    if (dto.notes !== undefined) run.notes = dto.notes;
+    return this.db.getRepository(ChamberRun).save(run);
+  }
+
+  spectra(runId: number): Promise<RunSpectrum[]> {
+    return this.db.getRepository(RunSpectrum).find({ where: { runId }, order: { id: 'ASC' } });
+  }
+
+  /** Stores a measured spectrum with the file as uploaded; a bad row rejects the whole file. */
+  async uploadSpectrum(runId: number, dto: UploadSpectrumDto, user: User): Promise<RunSpectrum> {
+    await this.get(runId);
+    const parsed = parseSpectrumCsv(dto.csv);
+    if (!parsed.ok) throw new BadRequestException({ message: problemDetails(parsed.problems) });
+    const repo = this.db.getRepository(RunSpectrum);
+    const saved = await repo.save(
+      repo.create({
+        runId,
+        quantity: parsed.spectrum.quantity,
+        angleDeg: dto.angleDeg,
+        sample: dto.sample,
+        filename: dto.filename,
+        originalText: dto.csv,
+        wavelengthsNm: parsed.spectrum.wavelengthsNm,
+        valuesPercent: parsed.spectrum.valuesPercent,
+        uploadedBy: user,
+      }),
+    );
+    return this.spectrum(runId, saved.id);
+  }
+
+  async spectrum(runId: number, spectrumId: number): Promise<RunSpectrum> {
+    const s = await this.db.getRepository(RunSpectrum).findOneBy({ id: spectrumId, runId });
+    if (!s) throw new NotFoundException(`Run ${runId} has no spectrum ${spectrumId}`);
+    return s;
+  }
+
+  async original(runId: number, spectrumId: number): Promise<{ filename: string; text: string }> {
+    const s = await this.db.getRepository(RunSpectrum).findOne({
+      where: { id: spectrumId, runId },
+      select: { id: true, filename: true, originalText: true },
+    });
+    if (!s) throw new NotFoundException(`Run ${runId} has no spectrum ${spectrumId}`);
+    return { filename: s.filename, text: s.originalText };
+  }
+
+  /** Measured vs design vs the design's spec mask. */
+  async compare(runId: number, spectrumId: number): Promise<RunComparison> {
+    const run = await this.get(runId);
+    const measured = await this.spectrum(runId, spectrumId);
+    const version = await this.version(run);
+    const snapshot = version.materialsSnapshot ?? {};
+    const materials = new Map(Object.entries(snapshot).map(([k, v]) => [Number(k), v]));
+    const stack = parseStack(designStackDescription(version, materials));
+    // The design curve where every material is valid and the scan has data.
+    const ranges = [...materials.values()].map((m) => m.rangeNm ?? { from: 0, to: Infinity });
+    const lo = Math.max(...ranges.map((r) => r.from));
+    const hi = Math.min(...ranges.map((r) => r.to));
+    const wavelengthsNm = measured.wavelengthsNm.filter((wl) => wl >= lo && wl <= hi);
+    const design =
+      wavelengthsNm.length === 0
+        ? []
+        : Array.from(
+            (() => {
+              const s = calculateSpectrum(
+                stack,
+                { wavelengthsNm, anglesDeg: [measured.angleDeg], polarisations: ['avg'] },
+                { back: engineBackSurface(version.backSurface) },
+              );
+              return measured.quantity === 'R' ? s.R : s.T;
+            })(),
+            (v) => v * 100,
+          );
+    const designRow = await this.db.getRepository(Design).findOneBy({ id: run.designId });
+    const maskRow = designRow?.specMaskId
+      ? await this.db.getRepository(SpecMaskRecord).findOneBy({ id: designRow.specMaskId })
+      : null;
+    const mask = maskRow
+      ? {
+          name: maskRow.name,
+          revision: maskRow.revision,
+          ...evaluateMaskOnMeasured(
+            { bands: maskRow.bands },
+            {
+              quantity: measured.quantity,
+              angleDeg: measured.angleDeg,
+              wavelengthsNm: measured.wavelengthsNm,
+              valuesPercent: measured.valuesPercent,
+            },
+          ),
+        }
+      : null;
+    return {
+      spectrumId,
+      quantity: measured.quantity,
+      angleDeg: measured.angleDeg,
+      measured: { wavelengthsNm: measured.wavelengthsNm, valuesPercent: measured.valuesPercent },
+      design: { wavelengthsNm, valuesPercent: design },
+      mask,
+    };
+  }
+
+  /** The recipe version a run built (released then, possibly retired since). */
+  private async version(run: ChamberRun): Promise<DesignVersion> {
+    const v = await this.db.getRepository(DesignVersion).findOneBy({
+      designId: run.designId,
+      number: run.versionNumber,
+      status: In(['released', 'retired']),
+    });
+    if (!v) throw new NotFoundException(`The recipe of run ${run.id} is no longer available`);
+    return v;
+  }
+}

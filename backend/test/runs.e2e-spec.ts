@@ -1,0 +1,168 @@
+import type { NestExpressApplication } from '@nestjs/platform-express';
+import request from 'supertest';
+import { DataSource } from 'typeorm';
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { createTestApp, demoSession } from './support/app.js';
+import { customerId, materialIds } from './support/fixtures.js';
+
+let app: NestExpressApplication;
+let mira: string;
+let tomas: string;
+let operator: string;
+let recipeId: number;
+let chamberId: number;
+
+const http = () => request(app.getHttpServer());
+
+beforeAll(async () => {
+  app = await createTestApp();
+  mira = await demoSession(app, 'engineer', 0);
+  tomas = await demoSession(app, 'engineer', 1);
+  operator = await demoSession(app, 'operator');
+  const m = await materialIds(app, mira);
+  const halden = await customerId(app, mira, 'Halden Vision Systems');
+  const mask = (await http().get(`/api/spec-masks?customerId=${halden}`).set('Cookie', mira)).body[0];
+  const design = await http()
+    .post('/api/designs')
+    .set('Cookie', mira)
+    .send({
+      name: 'Lens AR for runs',
+      customerId: halden,
+      specMaskId: mask.id,
+      incidentMaterialId: m['Air'],
+      substrateMaterialId: m['N-BK7'],
+      substrateThicknessMm: 3,
+      backSurface: 'front-only',
+      referenceWavelengthNm: 550,
+      layers: [
+        { materialId: m['MgF2'], thicknessNm: 96 },
+        { materialId: m['ZrO2'], thicknessNm: 120 },
+        { materialId: m['Al2O3'], thicknessNm: 80 },
+      ],
+    });
+  recipeId = design.body.id;
+  for (const [cookie, action, body] of [
+    [mira, 'submit', { rowVersion: 1 }],
+    [tomas, 'approve', {}],
+    [tomas, 'release', {}],
+  ] as const) {
+    await http().post(`/api/designs/${recipeId}/versions/1/${action}`).set('Cookie', cookie).send(body);
+  }
+  chamberId = (await http().get('/api/chambers').set('Cookie', operator)).body[0].id;
+});
+afterAll(async () => {
+  await app.close();
+});
+
+async function startRun(): Promise<number> {
+  const res = await http().post('/api/runs').set('Cookie', operator).send({
+    designId: recipeId,
+    versionNumber: 1,
+    chamberId,
+    lotNumber: 'L-2026-118',
+    runDate: '2026-12-01',
+  });
+  expect(res.status).toBe(201);
+  return res.body.id;
+}
+
+describe('chamber runs', () => {
+  it('an operator starts a run of a released recipe and logs readings and durability results', async () => {
+    const id = await startRun();
+    const run = await http().get(`/api/runs/${id}`).set('Cookie', operator);
+    expect(run.body).toMatchObject({
+      lotNumber: 'L-2026-118',
+      runDate: '2026-12-01',
+      operator: { displayName: 'Jonah Pike' },
+    });
+    const updated = await http()
+      .put(`/api/runs/${id}`)
+      .set('Cookie', operator)
+      .send({
+        layerReadings: [{ step: 1, monitorThicknessNm: 82.1, rateNmPerS: 0.5, notes: 'stable' }],
+        durability: [{ test: 'adhesion', method: 'ISO 9211-4, tape adhesion', result: 'pass' }],
+        notes: 'Pump-down 42 min',
+      });
+    expect(updated.status).toBe(200);
+    expect(updated.body.durability).toEqual([
+      { test: 'adhesion', method: 'ISO 9211-4, tape adhesion', result: 'pass' },
+    ]);
+    const tooFar = await http()
+      .put(`/api/runs/${id}`)
+      .set('Cookie', operator)
+      .send({ layerReadings: [{ step: 9 }] });
+    expect(tooFar.status).toBe(400);
+    expect(tooFar.body.details).toEqual(['layerReadings[0].step: the recipe has 3 layers']);
+    const noMethod = await http()
+      .put(`/api/runs/${id}`)
+      .set('Cookie', operator)
+      .send({ durability: [{ test: 'humidity', method: ' ', result: 'pass' }] });
+    expect(noMethod.status).toBe(400);
+  });
+
+  it('refuses a run of a recipe that is not released', async () => {
+    const res = await http()
+      .post('/api/runs')
+      .set('Cookie', operator)
+      .send({ designId: 999999, versionNumber: 1, chamberId, lotNumber: 'X', runDate: '2026-12-01' });
+    expect(res.status).toBe(400);
+    expect(res.body.details).toEqual(['design 999999 version 1 is not a released recipe']);
+  });
+
+  it('stores an uploaded spectrum as uploaded and compares it with the design and the mask', async () => {
+    const id = await startRun();
+    // A made-up measurement: R 0.3 % flat, with a 0.7 % bump at 600–620 nm (over the 0.5 % limit).
+    const rows = ['wavelength_nm,R_percent'];
+    for (let wl = 400; wl <= 700; wl += 5) rows.push(`${wl},${wl >= 600 && wl <= 620 ? 0.7 : 0.3}`);
+    const csv = rows.join('\n') + '\n';
+    const up = await http()
+      .post(`/api/runs/${id}/spectra`)
+      .set('Cookie', operator)
+      .send({ filename: 'witness-118.csv', csv, angleDeg: 8, sample: 'witness' });
+    expect(up.status).toBe(201);
+    expect(up.body).toMatchObject({
+      quantity: 'R',
+      angleDeg: 8,
+      sample: 'witness',
+      filename: 'witness-118.csv',
+    });
+    const original = await http()
+      .get(`/api/runs/${id}/spectra/${up.body.id}/original`)
+      .set('Cookie', operator);
+    expect(original.text).toBe(csv);
+    const cmp = await http().get(`/api/runs/${id}/spectra/${up.body.id}/comparison`).set('Cookie', mira);
+    expect(cmp.status).toBe(200);
+    expect(cmp.body.measured.wavelengthsNm).toHaveLength(61);
+    expect(cmp.body.design.valuesPercent).toHaveLength(61);
+    // The mask (R ≤ 0.5 % at 0, 15, 30°) is judged at the measured 8° (near-normal): fails by 0.2 points.
+    expect(cmp.body.mask).toMatchObject({ name: 'HVS-2210 lens AR', pass: false });
+    expect(cmp.body.mask.worstMargin).toBeCloseTo(-0.2, 9);
+    expect(cmp.body.mask.bands[0].worstAt.wavelengthNm).toBeGreaterThanOrEqual(600);
+  });
+
+  it('rejects a malformed spectrum with row-level messages and stores nothing', async () => {
+    const id = await startRun();
+    const count = async () =>
+      Number(
+        (await app.get(DataSource).query('SELECT count(*) AS n FROM run_spectra WHERE run_id = $1', [id]))[0]
+          .n,
+      );
+    const res = await http().post(`/api/runs/${id}/spectra`).set('Cookie', operator).send({
+      filename: 'bad.csv',
+      csv: 'wavelength_nm,R_percent\n400,0.3\n405,x\n410,-2\n',
+      angleDeg: 8,
+      sample: 'part',
+    });
+    expect(res.status).toBe(400);
+    expect(res.body.details).toEqual([
+      'row 3: not a number: R "x"',
+      'row 4: R must lie between 0 and 100 percent (got -2)',
+    ]);
+    expect(await count()).toBe(0);
+  });
+
+  it('sales have no access to chamber runs', async () => {
+    const sales = await demoSession(app, 'sales');
+    expect((await http().get('/api/runs').set('Cookie', sales)).status).toBe(403);
+  });
+});

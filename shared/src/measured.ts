@@ -1,0 +1,114 @@
+/*
+ * Measured spectra against a spec mask: a spectrophotometer's R or T at one angle, interpolated at
+ * each limit band's sample wavelengths. Bands the measurement does not cover (another quantity,
+ * angle or polarisation, or wavelengths outside the scan) are reported as not evaluated, never as
+ * passing.
+ */
+import { OpticsInputError } from './optics/errors.js';
+import { bandWavelengthsNm, validateSpecMask, type LimitBand, type SpecMask } from './optics/mask.js';
+
+export interface MeasuredSpectrum {
+  quantity: 'R' | 'T';
+  /** Angle of incidence of the measurement, degrees. */
+  angleDeg: number;
+  /** Strictly increasing, nm. */
+  wavelengthsNm: readonly number[];
+  valuesPercent: readonly number[];
+}
+
+export interface MeasuredBandResult {
+  band: number;
+  label?: string;
+  evaluated: boolean;
+  /** Why a band was not evaluated. */
+  reason?: string;
+  pass?: boolean;
+  worstMargin?: number;
+  worstAt?: { wavelengthNm: number; valuePercent: number };
+}
+
+export interface MeasuredMaskResult {
+  /** True when every band was evaluated and passed; false when one failed; null when none could be evaluated. */
+  pass: boolean | null;
+  worstMargin: number | null;
+  bands: MeasuredBandResult[];
+}
+
+/**
+ * How close the measurement angle must be to a band's angle to count (degrees). Spectrophotometer
+ * "near-normal" accessories measure at a few degrees; common practice (no source) treats up to 8°
+ * as normal incidence for AR work, where R hardly changes.
+ */
+export const ANGLE_TOLERANCE_DEG = 8;
+
+/** Linear interpolation of a strictly increasing table; null outside it. */
+export function interpolate(xs: readonly number[], ys: readonly number[], x: number): number | null {
+  if (x < xs[0] || x > xs[xs.length - 1]) return null;
+  let lo = 0;
+  let hi = xs.length - 1;
+  while (hi - lo > 1) {
+    const mid = (lo + hi) >> 1;
+    if (xs[mid] <= x) lo = mid;
+    else hi = mid;
+  }
+  if (xs[hi] === xs[lo]) return ys[lo];
+  const t = (x - xs[lo]) / (xs[hi] - xs[lo]);
+  return ys[lo] + t * (ys[hi] - ys[lo]);
+}
+
+function margin(band: LimitBand, value: number): number {
+  if (band.max_percent !== undefined) return band.max_percent - value;
+  if (band.min_percent !== undefined) return value - band.min_percent;
+  return (band.tolerance_percent ?? 0) - Math.abs(value - (band.target_percent ?? 0));
+}
+
+/** Evaluates a measured spectrum against a mask, band by band (margins in percentage points). */
+export function evaluateMaskOnMeasured(mask: SpecMask, measured: MeasuredSpectrum): MeasuredMaskResult {
+  const checked = validateSpecMask(mask);
+  const { wavelengthsNm: xs, valuesPercent: ys } = measured;
+  if (xs.length < 2 || xs.length !== ys.length) {
+    throw new OpticsInputError('measured', 'needs at least 2 wavelengths and one value per wavelength');
+  }
+  const bands = checked.bands.map((band, i): MeasuredBandResult => {
+    const base = { band: i, ...(band.label ? { label: band.label } : {}) };
+    if (band.quantity !== measured.quantity) {
+      return {
+        ...base,
+        evaluated: false,
+        reason: `the band limits ${band.quantity}; ${measured.quantity} was measured`,
+      };
+    }
+    const angles = band.angles_deg ?? [0];
+    if (!angles.some((a) => Math.abs(a - measured.angleDeg) <= ANGLE_TOLERANCE_DEG)) {
+      return {
+        ...base,
+        evaluated: false,
+        reason: `measured at ${measured.angleDeg}°; the band asks for ${angles.join(', ')}°`,
+      };
+    }
+    if (band.from_nm < xs[0] || band.to_nm > xs[xs.length - 1]) {
+      return {
+        ...base,
+        evaluated: false,
+        reason: `the scan covers ${xs[0]}–${xs[xs.length - 1]} nm; the band needs ${band.from_nm}–${band.to_nm} nm`,
+      };
+    }
+    let worst = Infinity;
+    let at = { wavelengthNm: band.from_nm, valuePercent: NaN };
+    for (const wl of bandWavelengthsNm(band)) {
+      const value = interpolate(xs, ys, wl) as number;
+      const m = margin(band, value);
+      if (m < worst) {
+        worst = m;
+        at = { wavelengthNm: wl, valuePercent: value };
+      }
+    }
+    return { ...base, evaluated: true, pass: worst >= 0, worstMargin: worst, worstAt: at };
+  });
+  const evaluated = bands.filter((b) => b.evaluated);
+  const worstMargin = evaluated.length ? Math.min(...evaluated.map((b) => b.worstMargin as number)) : null;
+  let pass: boolean | null = null;
+  if (evaluated.some((b) => !b.pass)) pass = false;
+  else if (evaluated.length === bands.length) pass = true;
+  return { pass, worstMargin, bands };
+}
