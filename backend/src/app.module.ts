@@ -10,7 +10,10 @@ import { ChambersModule } from './chambers/chambers.module.js';
 import { CustomersModule } from './customers/customers.module.js';
 import { DesignsModule } from './designs/designs.module.js';
 import { HealthModule } from './health/health.module.js';
+import { MailModule } from './mail/mail.module.js';
 import { MaterialsModule } from './materials/materials.module.js';
+import { QuotesModule } from './quotes/quotes.module.js';
+import { ReportsModule } from './reports/reports.module.js';
 import { RunsModule } from './runs/runs.module.js';
 import { SpecMasksModule } from './spec-masks/spec-masks.module.js';
 import { UsersModule } from './users/users.module.js';
@@ -38,6 +41,9 @@ import { UsersModule } from './users/users.module.js';
     CalculationsModule,
     ChambersModule,
     RunsModule,
+    ReportsModule,
+    MailModule,
+    QuotesModule,
   ],
 })
 export class AppModule {}

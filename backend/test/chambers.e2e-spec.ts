@@ -2,6 +2,7 @@ import type { NestExpressApplication } from '@nestjs/platform-express';
 import request from 'supertest';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { createTestApp, demoSession } from './support/app.js';
+import { binary } from './support/binary.js';
 import { customerId, materialIds } from './support/fixtures.js';
 
 let app: NestExpressApplication;
@@ -153,15 +154,9 @@ describe('run sheet of a released recipe', () => {
   });
 
   it('prints as a PDF', async () => {
-    const res = await http()
-      .get(`/api/recipes/${recipeId}/1/run-sheet.pdf?chamberId=${chamberId}`)
-      .set('Cookie', operator)
-      .buffer(true)
-      .parse((r, cb) => {
-        const chunks: Buffer[] = [];
-        r.on('data', (c: Buffer) => chunks.push(c));
-        r.on('end', () => cb(null, Buffer.concat(chunks)));
-      });
+    const res = await binary(
+      http().get(`/api/recipes/${recipeId}/1/run-sheet.pdf?chamberId=${chamberId}`).set('Cookie', operator),
+    );
     expect(res.status).toBe(200);
     expect(res.headers['content-type']).toBe('application/pdf');
     expect((res.body as Buffer).subarray(0, 5).toString()).toBe('%PDF-');

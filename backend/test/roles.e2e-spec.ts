@@ -46,6 +46,13 @@ interface MatrixContext {
   chamberVersion: number;
   runId: number;
   spectrumId: number;
+  reportId: number;
+  quoteId: number;
+  quoteVersion: number;
+  sendQuoteIds: Partial<Record<Role | 'anonymous', number>>;
+  sentQuoteIds: Partial<Record<Role | 'anonymous', number>>;
+  outboxId: number;
+  attachmentId: number;
   materialIdsByName: Record<string, number>;
   design: ReturnType<typeof twoLayerDesign>;
   passwords: Record<Role, string>;
@@ -56,6 +63,20 @@ const ALL: readonly Role[] = ROLES;
 const DESIGNERS: readonly Role[] = ['admin', 'engineer'];
 const OFFICE: readonly Role[] = ['admin', 'engineer', 'sales'];
 const FLOOR: readonly Role[] = ['admin', 'engineer', 'operator'];
+const SELLERS: readonly Role[] = ['admin', 'sales'];
+const inDays = (d: number) => new Date(Date.now() + d * 86_400_000).toISOString().slice(0, 10);
+const quoteBody = (ctx: MatrixContext) => ({
+  customerId: ctx.customerId,
+  contactEmail: 'buyer@matrix.example',
+  designId: ctx.releasedDesignId,
+  versionNumber: 1,
+  specMaskId: ctx.maskId,
+  partDescription: 'Matrix part',
+  quantityBreaks: [{ minQuantity: 1, unitPrice: 10 }],
+  currency: 'EUR',
+  leadTimeDays: 10,
+  validUntil: inDays(30),
+});
 const chamberBody = (ctx: MatrixContext) => ({
   name: 'Matrix chamber',
   monitorWavelengthsNm: [550],
@@ -429,6 +450,94 @@ const RULES: RouteRule[] = [
     okStatus: 200,
     url: (ctx) => `/api/runs/${ctx.runId}/spectra/${ctx.spectrumId}/comparison`,
   },
+  { method: 'get', path: '/api/reports', allow: OFFICE, okStatus: 200 },
+  {
+    method: 'post',
+    path: '/api/reports',
+    allow: OFFICE,
+    okStatus: 201,
+    body: (ctx) => ({
+      designId: ctx.releasedDesignId,
+      versionNumber: 1,
+      specMaskId: ctx.maskId,
+      hideLayers: true,
+    }),
+  },
+  {
+    method: 'get',
+    path: '/api/reports/:id',
+    allow: OFFICE,
+    okStatus: 200,
+    url: (ctx) => `/api/reports/${ctx.reportId}`,
+  },
+  {
+    method: 'get',
+    path: '/api/reports/:id/pdf',
+    allow: OFFICE,
+    okStatus: 200,
+    url: (ctx) => `/api/reports/${ctx.reportId}/pdf`,
+  },
+  { method: 'get', path: '/api/quotes', allow: OFFICE, okStatus: 200 },
+  {
+    method: 'get',
+    path: '/api/quotes/:id',
+    allow: OFFICE,
+    okStatus: 200,
+    url: (ctx) => `/api/quotes/${ctx.quoteId}`,
+  },
+  { method: 'post', path: '/api/quotes', allow: SELLERS, okStatus: 201, body: (ctx) => quoteBody(ctx) },
+  {
+    method: 'put',
+    path: '/api/quotes/:id',
+    allow: SELLERS,
+    okStatus: 200,
+    url: (ctx) => `/api/quotes/${ctx.quoteId}`,
+    body: (ctx) => ({ ...quoteBody(ctx), version: ctx.quoteVersion }),
+    after: (ctx, body) => {
+      ctx.quoteVersion = body.version ?? ctx.quoteVersion;
+    },
+  },
+  {
+    method: 'post',
+    path: '/api/quotes/:id/reports',
+    allow: SELLERS,
+    okStatus: 201,
+    url: (ctx) => `/api/quotes/${ctx.quoteId}/reports`,
+    body: (ctx) => ({ reportIds: [ctx.reportId] }),
+    after: (ctx) => {
+      ctx.quoteVersion += 1;
+    },
+  },
+  {
+    method: 'post',
+    path: '/api/quotes/:id/send',
+    allow: SELLERS,
+    okStatus: 201,
+    url: (ctx, role) => `/api/quotes/${ctx.sendQuoteIds[role] ?? ctx.quoteId}/send`,
+  },
+  {
+    method: 'post',
+    path: '/api/quotes/:id/decision',
+    allow: SELLERS,
+    okStatus: 201,
+    url: (ctx, role) => `/api/quotes/${ctx.sentQuoteIds[role] ?? ctx.quoteId}/decision`,
+    body: () => ({ status: 'declined' }),
+  },
+  { method: 'get', path: '/api/outbox', allow: ['admin'], okStatus: 200 },
+  {
+    method: 'get',
+    path: '/api/outbox/:id',
+    allow: ['admin'],
+    okStatus: 200,
+    url: (ctx) => `/api/outbox/${ctx.outboxId}`,
+  },
+  {
+    method: 'get',
+    path: '/api/outbox/:id/attachments/:aid',
+    allow: ['admin'],
+    okStatus: 200,
+    url: (ctx) => `/api/outbox/${ctx.outboxId}/attachments/${ctx.attachmentId}`,
+  },
   { method: 'get', path: '/api/customers', allow: OFFICE, okStatus: 200 },
   {
     method: 'get',
@@ -473,6 +582,13 @@ const ctx: MatrixContext = {
   chamberVersion: 1,
   runId: 0,
   spectrumId: 0,
+  reportId: 0,
+  quoteId: 0,
+  quoteVersion: 1,
+  sendQuoteIds: {},
+  sentQuoteIds: {},
+  outboxId: 0,
+  attachmentId: 0,
   materialIdsByName: {},
   design: {} as ReturnType<typeof twoLayerDesign>,
   passwords: {} as Record<Role, string>,
@@ -576,16 +692,13 @@ beforeAll(async () => {
   ctx.releasedDesignId = await createDesign();
   for (const [move, cookie] of paths.retire)
     await step(ctx.releasedDesignId, move, cookie, move === 'submit' ? { rowVersion: 1 } : {});
-  const run = await request(app.getHttpServer())
-    .post('/api/runs')
-    .set('Cookie', adminCookie)
-    .send({
-      designId: ctx.releasedDesignId,
-      versionNumber: 1,
-      chamberId: ctx.chamberId,
-      lotNumber: 'M-0',
-      runDate: '2026-12-01',
-    });
+  const run = await request(app.getHttpServer()).post('/api/runs').set('Cookie', adminCookie).send({
+    designId: ctx.releasedDesignId,
+    versionNumber: 1,
+    chamberId: ctx.chamberId,
+    lotNumber: 'M-0',
+    runDate: '2026-12-01',
+  });
   expect(run.status, JSON.stringify(run.body)).toBe(201);
   ctx.runId = run.body.id;
   const spectrum = await request(app.getHttpServer())
@@ -599,6 +712,36 @@ beforeAll(async () => {
     });
   expect(spectrum.status).toBe(201);
   ctx.spectrumId = spectrum.body.id;
+  // A report, draft quotes to edit and send, and sent quotes to decide on; one sent with the report
+  // attached, so the outbox has a message with an attachment.
+  const api = () => request(app.getHttpServer());
+  const report = await api()
+    .post('/api/reports')
+    .set('Cookie', adminCookie)
+    .send({ designId: ctx.releasedDesignId, versionNumber: 1, specMaskId: ctx.maskId });
+  expect(report.status, JSON.stringify(report.body)).toBe(201);
+  ctx.reportId = report.body.id;
+  const newQuote = async () => {
+    const q = await api().post('/api/quotes').set('Cookie', adminCookie).send(quoteBody(ctx));
+    expect(q.status, JSON.stringify(q.body)).toBe(201);
+    return q.body as { id: number; version: number };
+  };
+  const draftQuote = await newQuote();
+  ctx.quoteId = draftQuote.id;
+  ctx.quoteVersion = draftQuote.version;
+  for (const role of SELLERS) {
+    ctx.sendQuoteIds[role] = (await newQuote()).id;
+    const sent = (await newQuote()).id;
+    await api()
+      .post(`/api/quotes/${sent}/reports`)
+      .set('Cookie', adminCookie)
+      .send({ reportIds: [ctx.reportId] });
+    expect((await api().post(`/api/quotes/${sent}/send`).set('Cookie', adminCookie)).status).toBe(201);
+    ctx.sentQuoteIds[role] = sent;
+  }
+  const outbox = await api().get('/api/outbox').set('Cookie', adminCookie);
+  ctx.outboxId = outbox.body[0].id;
+  ctx.attachmentId = outbox.body[0].attachments[0].id;
   // Calculations inserted directly: one completed (1 wavelength, 1 angle), one queued per canceller.
   const db = app.get(DataSource);
   const adminId = (await request(app.getHttpServer()).get('/api/auth/me').set('Cookie', adminCookie)).body

@@ -6,7 +6,10 @@ import { Customer } from '../customers/customer.entity.js';
 import { Design } from '../designs/design.entity.js';
 import { DesignVersion } from '../designs/design-version.entity.js';
 import { VersionEvent } from '../designs/version-event.entity.js';
+import { OutboxAttachment, OutboxMessage } from '../mail/outbox.entity.js';
 import { Material } from '../materials/material.entity.js';
+import { Quote } from '../quotes/quote.entity.js';
+import { ComplianceReport } from '../reports/report.entity.js';
 import { ChamberRun, RunSpectrum } from '../runs/run.entity.js';
 import { SpecMaskRecord } from '../spec-masks/spec-mask.entity.js';
 import { User } from '../users/user.entity.js';
@@ -17,6 +20,7 @@ import { Calculations1764633900000 } from '../migrations/1764633900000-calculati
 import { VersionEvents1764634000000 } from '../migrations/1764634000000-version-events.js';
 import { Chambers1764634100000 } from '../migrations/1764634100000-chambers.js';
 import { ChamberRuns1764634200000 } from '../migrations/1764634200000-chamber-runs.js';
+import { ReportsQuotesOutbox1764634300000 } from '../migrations/1764634300000-reports-quotes-outbox.js';
 
 /** Every entity of the app; each domain module also registers its own with forFeature. */
 export const ENTITIES = [
@@ -31,6 +35,10 @@ export const ENTITIES = [
   Chamber,
   ChamberRun,
   RunSpectrum,
+  ComplianceReport,
+  Quote,
+  OutboxMessage,
+  OutboxAttachment,
 ];
 
 /** Every migration, in order. Listed explicitly so the same list works from src (tests) and dist. */
@@ -42,6 +50,7 @@ export const MIGRATIONS = [
   VersionEvents1764634000000,
   Chambers1764634100000,
   ChamberRuns1764634200000,
+  ReportsQuotesOutbox1764634300000,
 ];
 
 /** TypeORM options for PostgreSQL; never `synchronize` — the schema comes from migrations. */

@@ -1,0 +1,83 @@
+import { Body, Controller, Get, Param, ParseIntPipe, Post, Put } from '@nestjs/common';
+import { CurrentUser } from '../auth/current-user.decorator.js';
+import { Roles } from '../auth/roles.decorator.js';
+import type { User } from '../users/user.entity.js';
+import { AttachReportsDto, QuoteDecisionDto, QuoteDto, UpdateQuoteDto } from './dto/quote.dto.js';
+import type { Quote, QuoteStatus } from './quote.entity.js';
+import { effectiveStatus, QuotesService } from './quotes.service.js';
+
+type QuoteView = Omit<Quote, 'customer' | 'createdBy' | 'createdAt' | 'updatedAt'> & {
+  customer: { id: number; name: string };
+  status: QuoteStatus;
+  createdBy: string;
+  createdAt: string;
+  updatedAt: string;
+};
+
+function view(q: Quote): QuoteView {
+  const { customer, createdBy, createdAt, updatedAt, ...rest } = q;
+  return {
+    ...rest,
+    status: effectiveStatus(q),
+    customer: { id: customer.id, name: customer.name },
+    createdBy: createdBy.displayName,
+    createdAt: createdAt.toISOString(),
+    updatedAt: updatedAt.toISOString(),
+  };
+}
+
+/** Sales write and send quotes; engineers read them; operators never see prices. */
+@Controller('quotes')
+@Roles('admin', 'sales')
+export class QuotesController {
+  constructor(private readonly quotes: QuotesService) {}
+
+  @Get()
+  @Roles('admin', 'sales', 'engineer')
+  async list(): Promise<QuoteView[]> {
+    return (await this.quotes.list()).map(view);
+  }
+
+  @Get(':id')
+  @Roles('admin', 'sales', 'engineer')
+  async get(@Param('id', ParseIntPipe) id: number): Promise<QuoteView> {
+    return view(await this.quotes.get(id));
+  }
+
+  @Post()
+  async create(@Body() dto: QuoteDto, @CurrentUser() user: User): Promise<QuoteView> {
+    return view(await this.quotes.create(dto, user));
+  }
+
+  @Put(':id')
+  async update(
+    @Param('id', ParseIntPipe) id: number,
+    @Body() dto: UpdateQuoteDto,
+    @CurrentUser() user: User,
+  ): Promise<QuoteView> {
+    return view(await this.quotes.update(id, dto, user));
+  }
+
+  @Post(':id/reports')
+  async attach(
+    @Param('id', ParseIntPipe) id: number,
+    @Body() dto: AttachReportsDto,
+    @CurrentUser() user: User,
+  ): Promise<QuoteView> {
+    return view(await this.quotes.attach(id, dto.reportIds, user));
+  }
+
+  @Post(':id/send')
+  async send(@Param('id', ParseIntPipe) id: number, @CurrentUser() user: User): Promise<QuoteView> {
+    return view(await this.quotes.send(id, user));
+  }
+
+  @Post(':id/decision')
+  async decide(
+    @Param('id', ParseIntPipe) id: number,
+    @Body() dto: QuoteDecisionDto,
+    @CurrentUser() user: User,
+  ): Promise<QuoteView> {
+    return view(await this.quotes.decide(id, dto, user));
+  }
+}

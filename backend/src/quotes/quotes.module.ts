@@ -1,0 +1,15 @@
+import { Module } from '@nestjs/common';
+import { TypeOrmModule } from '@nestjs/typeorm';
+import { CustomersModule } from '../customers/customers.module.js';
+import { MailModule } from '../mail/mail.module.js';
+import { ReportsModule } from '../reports/reports.module.js';
+import { Quote } from './quote.entity.js';
+import { QuotesController } from './quotes.controller.js';
+import { QuotesService } from './quotes.service.js';
+
+@Module({
+  imports: [TypeOrmModule.forFeature([Quote]), CustomersModule, ReportsModule, MailModule],
+  controllers: [QuotesController],
+  providers: [QuotesService],
+})
+export class QuotesModule {}

@@ -1,0 +1,62 @@
+import { Column, CreateDateColumn, Entity, JoinColumn, ManyToOne, PrimaryGeneratedColumn } from 'typeorm';
+import { User } from '../users/user.entity.js';
+
+export interface ReportBandRow {
+  band: number;
+  label: string;
+  rule: string;
+  angles: string;
+  polarisation: string;
+  evaluated: boolean;
+  pass: boolean | null;
+  worstMargin: number | null;
+  worstAtNm: number | null;
+  valuePercent: number | null;
+  reason?: string;
+}
+
+export interface ReportSummary {
+  source: 'designed' | 'measured';
+  pass: boolean | null;
+  worstMargin: number | null;
+  bands: ReportBandRow[];
+  colour: { L: number; a: number; b: number; Rv: number } | null;
+}
+
+/** A spec-compliance report (PDF) of an approved design version against a spec mask. */
+@Entity({ name: 'compliance_reports' })
+export class ComplianceReport {
+  @PrimaryGeneratedColumn()
+  id: number;
+
+  @Column({ name: 'design_id', type: 'integer' })
+  designId: number;
+
+  @Column({ name: 'version_number', type: 'integer' })
+  versionNumber: number;
+
+  @Column({ name: 'spec_mask_id', type: 'integer' })
+  specMaskId: number;
+
+  @Column({ name: 'hide_layers', type: 'boolean' })
+  hideLayers: boolean;
+
+  @Column({ name: 'run_id', type: 'integer', nullable: true })
+  runId: number | null;
+
+  @Column({ name: 'spectrum_id', type: 'integer', nullable: true })
+  spectrumId: number | null;
+
+  @Column({ type: 'jsonb' })
+  summary: ReportSummary;
+
+  @Column({ type: 'bytea', select: false })
+  pdf: Buffer;
+
+  @ManyToOne(() => User, { nullable: false, eager: true })
+  @JoinColumn({ name: 'created_by' })
+  createdBy: User;
+
+  @CreateDateColumn({ name: 'created_at', type: 'timestamptz' })
+  createdAt: Date;
+}

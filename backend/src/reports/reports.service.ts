@@ -1,0 +1,277 @@
+import { BadRequestException, Inject, Injectable, NotFoundException } from '@nestjs/common';
+import { InjectDataSource } from '@nestjs/typeorm';
+import { DataSource, In } from 'typeorm';
+import { designStackDescription, engineBackSurface } from '@quietglass/shared/designs';
+import { evaluateMaskOnMeasured } from '@quietglass/shared/measured';
+import { calculateSpectrum } from '@quietglass/shared/optics/batch';
+import { reflectedColour } from '@quietglass/shared/optics/colour';
+import { evaluateMask, validateSpecMask, type LimitBand } from '@quietglass/shared/optics/mask';
+import { parseStack, type OpticalStack } from '@quietglass/shared/optics/stack';
+import { appConfig, type AppConfig } from '../config/configuration.js';
+import { Design } from '../designs/design.entity.js';
+import { DesignVersion } from '../designs/design-version.entity.js';
+import { ChamberRun, RunSpectrum } from '../runs/run.entity.js';
+import { SpecMaskRecord } from '../spec-masks/spec-mask.entity.js';
+import type { User } from '../users/user.entity.js';
+import type { CreateReportDto } from './dto/report.dto.js';
+import { renderReportPdf, type PlotSeries } from './report-pdf.js';
+import { ComplianceReport, type ReportBandRow, type ReportSummary } from './report.entity.js';
+
+/** Versions a customer may be shown: approved or released (never drafts). */
+const REPORTABLE = ['approved', 'released'] as const;
+
+function rule(b: LimitBand): string {
+  if (b.max_percent !== undefined)
+    return `${b.quantity} ≤ ${b.max_percent} % over ${b.from_nm}–${b.to_nm} nm`;
+  if (b.min_percent !== undefined)
+    return `${b.quantity} ≥ ${b.min_percent} % over ${b.from_nm}–${b.to_nm} nm`;
+  return `${b.quantity} = ${b.target_percent} ± ${b.tolerance_percent} % over ${b.from_nm}–${b.to_nm} nm`;
+}
+
+@Injectable()
+export class ReportsService {
+  constructor(
+    @InjectDataSource() private readonly db: DataSource,
+    @Inject(appConfig.KEY) private readonly config: AppConfig,
+  ) {}
+
+  /** Computes the compliance of a version against a mask, renders the PDF and stores both. */
+  async create(dto: CreateReportDto, user: User): Promise<ComplianceReport> {
+    const version = await this.db.getRepository(DesignVersion).findOne({
+      where: { designId: dto.designId, number: dto.versionNumber },
+      relations: { design: true },
+    });
+    if (!version) throw new NotFoundException(`Design ${dto.designId} has no version ${dto.versionNumber}`);
+    if (!(REPORTABLE as readonly string[]).includes(version.status)) {
+      throw new BadRequestException({
+        message: [
+          `version ${dto.versionNumber} is ${version.status}; compliance reports are for approved or released versions`,
+        ],
+      });
+    }
+    const design = version.design as Design;
+    const maskId = dto.specMaskId ?? design.specMaskId;
+    if (!maskId)
+      throw new BadRequestException({ message: ['specMaskId: the design has no spec mask; choose one'] });
+    const mask = await this.db.getRepository(SpecMaskRecord).findOneBy({ id: maskId });
+    if (!mask) throw new BadRequestException({ message: [`specMaskId: spec mask ${maskId} does not exist`] });
+    if (mask.customer.id !== design.customer.id) {
+      throw new BadRequestException({
+        message: [`specMaskId: spec mask ${maskId} belongs to another customer`],
+      });
+    }
+    const snapshot = version.materialsSnapshot ?? {};
+    const materials = new Map(Object.entries(snapshot).map(([k, v]) => [Number(k), v]));
+    const stack = parseStack(designStackDescription(version, materials));
+    const back = engineBackSurface(version.backSurface);
+    const bands = validateSpecMask({ bands: mask.bands }).bands;
+
+    const measured =
+      dto.runId !== undefined || dto.spectrumId !== undefined ? await this.measured(dto) : null;
+    const summary = measured
+      ? this.measuredSummary(bands, measured)
+      : this.designedSummary(bands, stack, back);
+    const plots = measured ? this.measuredPlots(bands, measured) : this.designedPlots(bands, stack, back);
+    const colour = (() => {
+      try {
+        const c = reflectedColour(stack, { angleDeg: 0, back });
+        return { L: c.L, a: c.a, b: c.b, Rv: c.Rv };
+      } catch {
+        return null;
+      }
+    })();
+    summary.colour = colour;
+    const date = new Date().toISOString().slice(0, 10);
+    const statement = measured
+      ? `Measured values: ${measured.sample} of run ${dto.runId}, lot ${measured.lot}, ${measured.quantity} at ${measured.angleDeg}° (file ${measured.filename}). Bands at other angles or quantities are not evaluated from this measurement.`
+      : 'Designed values: computed from the approved design (characteristic-matrix method, unpolarised light unless a band says otherwise, thick substrate as the design specifies). They are not measurements of a coated part.';
+    const pdf = await renderReportPdf({
+      shop: this.config.shopName,
+      customer: design.customer.name,
+      part: design.name,
+      version: version.number,
+      mask: `${mask.name} rev ${mask.revision}`,
+      date,
+      statement,
+      plots,
+      summary,
+      layers: dto.hideLayers
+        ? null
+        : version.layers.map((l) => ({
+            material: snapshot[String(l.materialId)]?.name ?? `#${l.materialId}`,
+            thicknessNm: l.thicknessNm,
+          })),
+    });
+    const repo = this.db.getRepository(ComplianceReport);
+    const saved = await repo.save(
+      repo.create({
+        designId: dto.designId,
+        versionNumber: dto.versionNumber,
+        specMaskId: maskId,
+        hideLayers: dto.hideLayers ?? false,
+        runId: dto.runId ?? null,
+        spectrumId: dto.spectrumId ?? null,
+        summary,
+        pdf,
+        createdBy: user,
+      }),
+    );
+    return this.get(saved.id);
+  }
+
+  list(designId?: number): Promise<ComplianceReport[]> {
+    return this.db.getRepository(ComplianceReport).find({
+      where: designId === undefined ? {} : { designId },
+      order: { id: 'DESC' },
+      take: 200,
+    });
+  }
+
+  async get(id: number): Promise<ComplianceReport> {
+    const r = await this.db.getRepository(ComplianceReport).findOneBy({ id });
+    if (!r) throw new NotFoundException(`Compliance report ${id} does not exist`);
+    return r;
+  }
+
+  async pdf(id: number): Promise<Buffer> {
+    const r = await this.db
+      .getRepository(ComplianceReport)
+      .findOne({ where: { id }, select: { id: true, pdf: true } });
+    if (!r) throw new NotFoundException(`Compliance report ${id} does not exist`);
+    return r.pdf;
+  }
+
+  /** PDFs of several reports (for e-mail), all of which must exist. */
+  async pdfs(ids: number[]): Promise<{ id: number; pdf: Buffer }[]> {
+    if (ids.length === 0) return [];
+    const rows = await this.db
+      .getRepository(ComplianceReport)
+      .find({ where: { id: In(ids) }, select: { id: true, pdf: true } });
+    return rows.map((r) => ({ id: r.id, pdf: r.pdf }));
+  }
+
+  private designedSummary(
+    bands: LimitBand[],
+    stack: OpticalStack,
+    back: 'none' | 'incoherent',
+  ): ReportSummary {
+    const result = evaluateMask({ bands }, stack, { back });
+    const rows: ReportBandRow[] = result.bands.map((b, i) => ({
+      band: i,
+      label: bands[i].label ?? '',
+      rule: rule(bands[i]),
+      angles: (bands[i].angles_deg ?? [0]).join(', ') + '°',
+      polarisation: bands[i].polarisation ?? 'avg',
+      evaluated: true,
+      pass: b.pass,
+      worstMargin: b.worstMargin,
+      worstAtNm: b.worstAt.wavelengthNm,
+      valuePercent: b.worstAt.valuePercent,
+    }));
+    return {
+      source: 'designed',
+      pass: result.pass,
+      worstMargin: result.worstMargin,
+      bands: rows,
+      colour: null,
+    };
+  }
+
+  /** One plot per quantity, angle and polarisation the mask names. */
+  private designedPlots(bands: LimitBand[], stack: OpticalStack, back: 'none' | 'incoherent'): PlotSeries[] {
+    const groups = new Map<
+      string,
+      { quantity: 'R' | 'T'; angle: number; pol: 's' | 'p' | 'avg'; bands: LimitBand[] }
+    >();
+    for (const b of bands) {
+      for (const angle of b.angles_deg ?? [0]) {
+        const pol = b.polarisation ?? 'avg';
+        const key = `${b.quantity}|${angle}|${pol}`;
+        const g = groups.get(key) ?? { quantity: b.quantity, angle, pol, bands: [] };
+        g.bands.push(b);
+        groups.set(key, g);
+      }
+    }
+    return [...groups.values()].map((g) => {
+      const lo = Math.min(...g.bands.map((b) => b.from_nm));
+      const hi = Math.max(...g.bands.map((b) => b.to_nm));
+      const pad = Math.max(5, (hi - lo) * 0.05);
+      const from = Math.max(1, lo - pad);
+      const to = hi + pad;
+      const wavelengthsNm = Array.from({ length: 301 }, (_, i) => from + ((to - from) * i) / 300);
+      const s = calculateSpectrum(
+        stack,
+        { wavelengthsNm, anglesDeg: [g.angle], polarisations: [g.pol] },
+        { back },
+      );
+      const values = g.quantity === 'R' ? s.R : s.T;
+      return {
+        title: `${g.quantity} at ${g.angle}°, ${g.pol === 'avg' ? 'unpolarised' : `${g.pol}-polarised`} (designed)`,
+        quantity: g.quantity,
+        wavelengthsNm,
+        valuesPercent: Array.from(values, (v) => v * 100),
+        bands: g.bands,
+      };
+    });
+  }
+
+  private async measured(dto: CreateReportDto) {
+    if (dto.runId === undefined || dto.spectrumId === undefined) {
+      throw new BadRequestException({
+        message: ['runId and spectrumId go together: name the run and its spectrum'],
+      });
+    }
+    const run = await this.db.getRepository(ChamberRun).findOneBy({ id: dto.runId });
+    if (!run || run.designId !== dto.designId || run.versionNumber !== dto.versionNumber) {
+      throw new BadRequestException({
+        message: [
+          `runId: run ${dto.runId} did not build design ${dto.designId} version ${dto.versionNumber}`,
+        ],
+      });
+    }
+    const spectrum = await this.db
+      .getRepository(RunSpectrum)
+      .findOneBy({ id: dto.spectrumId, runId: dto.runId });
+    if (!spectrum)
+      throw new BadRequestException({
+        message: [`spectrumId: run ${dto.runId} has no spectrum ${dto.spectrumId}`],
+      });
+    return { ...spectrum, lot: run.lotNumber };
+  }
+
+  private measuredSummary(bands: LimitBand[], m: RunSpectrum): ReportSummary {
+    const result = evaluateMaskOnMeasured({ bands }, m);
+    const rows: ReportBandRow[] = result.bands.map((b, i) => ({
+      band: i,
+      label: bands[i].label ?? '',
+      rule: rule(bands[i]),
+      angles: (bands[i].angles_deg ?? [0]).join(', ') + '°',
+      polarisation: bands[i].polarisation ?? 'avg',
+      evaluated: b.evaluated,
+      pass: b.pass ?? null,
+      worstMargin: b.worstMargin ?? null,
+      worstAtNm: b.worstAt?.wavelengthNm ?? null,
+      valuePercent: b.worstAt?.valuePercent ?? null,
+      ...(b.reason ? { reason: b.reason } : {}),
+    }));
+    return {
+      source: 'measured',
+      pass: result.pass,
+      worstMargin: result.worstMargin,
+      bands: rows,
+      colour: null,
+    };
+  }
+
+  private measuredPlots(bands: LimitBand[], m: RunSpectrum): PlotSeries[] {
+    return [
+      {
+        title: `${m.quantity} measured at ${m.angleDeg}° (${m.sample})`,
+        quantity: m.quantity,
+        wavelengthsNm: m.wavelengthsNm,
+        valuesPercent: m.valuesPercent,
+        bands: bands.filter((b) => b.quantity === m.quantity),
+      },
+    ];
+  }
+}

@@ -1,0 +1,273 @@
+import type { NestExpressApplication } from '@nestjs/platform-express';
+import { PDFParse } from 'pdf-parse';
+import request from 'supertest';
+import { DataSource } from 'typeorm';
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { approvedDesign } from './support/approved.js';
+import { binary } from './support/binary.js';
+import { createTestApp, demoSession } from './support/app.js';
+import { customerId, materialIds } from './support/fixtures.js';
+
+let app: NestExpressApplication;
+let sales: string;
+let mira: string;
+let tomas: string;
+let admin: string;
+let designId: number;
+let halden: number;
+let maskId: number;
+
+const http = () => request(app.getHttpServer());
+async function pdfText(buf: Buffer): Promise<string> {
+  const parser = new PDFParse({ data: new Uint8Array(buf) });
+  try {
+    return (await parser.getText()).text;
+  } finally {
+    await parser.destroy();
+  }
+}
+const inDays = (d: number) => new Date(Date.now() + d * 86_400_000).toISOString().slice(0, 10);
+
+beforeAll(async () => {
+  app = await createTestApp();
+  sales = await demoSession(app, 'sales');
+  mira = await demoSession(app, 'engineer', 0);
+  tomas = await demoSession(app, 'engineer', 1);
+  admin = await demoSession(app, 'admin');
+  const m = await materialIds(app, mira);
+  halden = await customerId(app, mira, 'Halden Vision Systems');
+  maskId = (await http().get(`/api/spec-masks?customerId=${halden}`).set('Cookie', mira)).body[0].id;
+  designId = await approvedDesign(app, mira, tomas, {
+    name: 'HVS lens AR',
+    customerId: halden,
+    specMaskId: maskId,
+    incidentMaterialId: m['Air'],
+    substrateMaterialId: m['N-BK7'],
+    substrateThicknessMm: 3,
+    backSurface: 'front-only',
+    referenceWavelengthNm: 550,
+    layers: [{ materialId: m['MgF2'], thicknessNm: 99.6 }],
+  });
+});
+afterAll(async () => {
+  await app.close();
+});
+
+const quoteBody = () => ({
+  customerId: halden,
+  contactEmail: 'Buyer@Halden-Vision.example',
+  designId,
+  versionNumber: 1,
+  partDescription: 'Ø25 mm N-BK7 lens, AR both sides',
+  quantityBreaks: [
+    { minQuantity: 10, unitPrice: 42.5 },
+    { minQuantity: 100, unitPrice: 31 },
+  ],
+  currency: 'EUR',
+  leadTimeDays: 21,
+  validUntil: inDays(30),
+  terms: 'Ex works. Payment 30 days net.',
+});
+
+describe('compliance reports', () => {
+  it('a single MgF2 layer fails the 0.5 % mask: the PDF states each band’s worst margin and FAIL, and the layers', async () => {
+    const res = await http().post('/api/reports').set('Cookie', sales).send({ designId, versionNumber: 1 });
+    expect(res.status, JSON.stringify(res.body)).toBe(201);
+    // A single quarter-wave MgF2 layer on N-BK7 reflects about 1.3 % at its design wavelength
+    // (Macleod ch. 2, CHECKS.md: 1.26 % for ns = 1.52), so R ≤ 0.5 % cannot hold.
+    expect(res.body.summary).toMatchObject({ source: 'designed', pass: false });
+    const band = res.body.summary.bands[0];
+    expect(band.worstMargin).toBeLessThan(-0.7);
+    const pdf = await binary(http().get(`/api/reports/${res.body.id}/pdf`).set('Cookie', sales));
+    expect(pdf.headers['content-type']).toBe('application/pdf');
+    const text = await pdfText(pdf.body as Buffer);
+    expect(text).toContain('Spec compliance report');
+    expect(text).toContain('HVS-2210 lens AR rev A');
+    expect(text).toContain(band.worstMargin.toFixed(3));
+    expect(text).toMatch(/FAIL/);
+    expect(text).toContain('Designed values');
+    expect(text).toContain('MgF2');
+  });
+
+  it('hides the layer table when asked', async () => {
+    const res = await http()
+      .post('/api/reports')
+      .set('Cookie', sales)
+      .send({ designId, versionNumber: 1, hideLayers: true });
+    const pdf = await binary(http().get(`/api/reports/${res.body.id}/pdf`).set('Cookie', sales));
+    const text = await pdfText(pdf.body as Buffer);
+    expect(text).toContain('The layer design is not disclosed in this report.');
+    expect(text).not.toContain('Layers (incident side first)');
+    expect(text).not.toContain('99.60 nm');
+  });
+
+  it('refuses a draft version', async () => {
+    const m = await materialIds(app, mira);
+    const draft = await http()
+      .post('/api/designs')
+      .set('Cookie', mira)
+      .send({
+        name: 'Draft only',
+        customerId: halden,
+        specMaskId: maskId,
+        incidentMaterialId: m['Air'],
+        substrateMaterialId: m['N-BK7'],
+        substrateThicknessMm: 3,
+        backSurface: 'front-only',
+        referenceWavelengthNm: 550,
+        layers: [{ materialId: m['MgF2'], thicknessNm: 99.6 }],
+      });
+    const res = await http()
+      .post('/api/reports')
+      .set('Cookie', sales)
+      .send({ designId: draft.body.id, versionNumber: 1 });
+    expect(res.status).toBe(400);
+    expect(res.body.details[0]).toMatch(/is draft; compliance reports are for approved or released versions/);
+  });
+});
+
+describe('quotes', () => {
+  it.each([
+    [
+      { quantityBreaks: [{ minQuantity: 10, unitPrice: -1 }] },
+      'quantityBreaks.0.unitPrice must not be negative',
+    ],
+    [{ validUntil: '2020-01-01' }, expect.stringMatching(/^validUntil: must be in the future/)],
+    [{ currency: 'euro' }, 'currency must be a three-letter ISO 4217 code such as EUR or USD'],
+    [{ versionNumber: 9 }, `versionNumber: design ${0} has no version 9`],
+    [
+      {
+        quantityBreaks: [
+          { minQuantity: 100, unitPrice: 1 },
+          { minQuantity: 10, unitPrice: 2 },
+        ],
+      },
+      'quantityBreaks: minQuantity must increase from one break to the next',
+    ],
+  ])('rejects %j with 400 and writes nothing', async (patch, detail) => {
+    const count = async () =>
+      Number((await app.get(DataSource).query('SELECT count(*) AS n FROM quotes'))[0].n);
+    const before = await count();
+    const res = await http()
+      .post('/api/quotes')
+      .set('Cookie', sales)
+      .send({ ...quoteBody(), ...patch });
+    expect(res.status).toBe(400);
+    const expected = typeof detail === 'string' ? detail.replace('design 0', `design ${designId}`) : detail;
+    expect(res.body.details).toContainEqual(expected);
+    expect(await count()).toBe(before);
+  });
+
+  it('refuses a quote on a version that is not approved', async () => {
+    const m = await materialIds(app, mira);
+    const draft = await http()
+      .post('/api/designs')
+      .set('Cookie', mira)
+      .send({
+        name: 'Unapproved',
+        customerId: halden,
+        specMaskId: maskId,
+        incidentMaterialId: m['Air'],
+        substrateMaterialId: m['N-BK7'],
+        substrateThicknessMm: 3,
+        backSurface: 'front-only',
+        referenceWavelengthNm: 550,
+        layers: [{ materialId: m['MgF2'], thicknessNm: 99.6 }],
+      });
+    const res = await http()
+      .post('/api/quotes')
+      .set('Cookie', sales)
+      .send({ ...quoteBody(), designId: draft.body.id });
+    expect(res.status).toBe(400);
+    expect(res.body.details).toContain('versionNumber: version 1 is draft; quotes need an approved version');
+  });
+
+  it('sales create a quote, attach a report and send it: the SMTP fake receives it with the PDF attached', async () => {
+    const quote = await http().post('/api/quotes').set('Cookie', sales).send(quoteBody());
+    expect(quote.status).toBe(201);
+    expect(quote.body).toMatchObject({
+      status: 'draft',
+      contactEmail: 'buyer@halden-vision.example',
+      currency: 'EUR',
+    });
+    const report = await http()
+      .post('/api/reports')
+      .set('Cookie', sales)
+      .send({ designId, versionNumber: 1, hideLayers: true });
+    const attached = await http()
+      .post(`/api/quotes/${quote.body.id}/reports`)
+      .set('Cookie', sales)
+      .send({ reportIds: [report.body.id] });
+    expect(attached.body.reportIds).toEqual([report.body.id]);
+    const sent = await http().post(`/api/quotes/${quote.body.id}/send`).set('Cookie', sales);
+    expect(sent.status, JSON.stringify(sent.body)).toBe(201);
+    expect(sent.body.status).toBe('sent');
+
+    const outbox = await http().get('/api/outbox').set('Cookie', admin);
+    const message = outbox.body.find((msg: { subject: string }) =>
+      msg.subject.startsWith(`Quote Q-${quote.body.id}:`),
+    );
+    expect(message).toBeDefined();
+    expect(message.to).toContain('buyer@halden-vision.example');
+    expect(message.text).toContain('from 100 pcs: 31.00 EUR per part');
+    expect(message.attachments).toEqual([
+      expect.objectContaining({
+        filename: `compliance-report-${report.body.id}.pdf`,
+        contentType: 'application/pdf',
+      }),
+    ]);
+    const file = await binary(
+      http().get(`/api/outbox/${message.id}/attachments/${message.attachments[0].id}`).set('Cookie', admin),
+    );
+    expect((file.body as Buffer).subarray(0, 5).toString()).toBe('%PDF-');
+    expect(await pdfText(file.body as Buffer)).toContain('Spec compliance report');
+
+    // Sent quotes are not edited and not sent twice; the customer's answer is recorded.
+    expect((await http().post(`/api/quotes/${quote.body.id}/send`).set('Cookie', sales)).status).toBe(409);
+    const accepted = await http()
+      .post(`/api/quotes/${quote.body.id}/decision`)
+      .set('Cookie', sales)
+      .send({ status: 'accepted' });
+    expect(accepted.body.status).toBe('accepted');
+    expect(accepted.body.history.map((h: { action: string }) => h.action)).toEqual([
+      'created',
+      'reports attached',
+      'sent',
+      'accepted',
+    ]);
+  });
+
+  it('engineers read quotes; operators are refused prices; engineers cannot send', async () => {
+    const quote = await http().post('/api/quotes').set('Cookie', sales).send(quoteBody());
+    expect(
+      (await http().get(`/api/quotes/${quote.body.id}`).set('Cookie', mira)).body.quantityBreaks,
+    ).toHaveLength(2);
+    expect((await http().post(`/api/quotes/${quote.body.id}/send`).set('Cookie', mira)).status).toBe(403);
+    const operator = await demoSession(app, 'operator');
+    expect((await http().get('/api/quotes').set('Cookie', operator)).status).toBe(403);
+    expect((await http().get(`/api/quotes/${quote.body.id}`).set('Cookie', operator)).status).toBe(403);
+  });
+});
+
+describe('a failed send', () => {
+  it('leaves the quote a draft with the error shown, never "sent"', async () => {
+    const quote = await http().post('/api/quotes').set('Cookie', sales).send(quoteBody());
+    // A second API whose SMTP server is unreachable (nothing listens on port 9 of loopback).
+    process.env.SMTP_URL = 'smtp://127.0.0.1:9';
+    const broken = await createTestApp();
+    delete process.env.SMTP_URL;
+    try {
+      const res = await request(broken.getHttpServer())
+        .post(`/api/quotes/${quote.body.id}/send`)
+        .set('Cookie', sales);
+      expect(res.status).toBe(400);
+      expect(res.body.message).toMatch(/^The e-mail could not be sent; the quote stays a draft: /);
+      const after = await http().get(`/api/quotes/${quote.body.id}`).set('Cookie', sales);
+      expect(after.body.status).toBe('draft');
+      expect(after.body.lastSendError).toMatch(/ECONNREFUSED|connect/i);
+      expect(after.body.history.at(-1).action).toBe('send failed');
+    } finally {
+      await broken.close();
+    }
+  });
+});
