@@ -16,3 +16,10 @@ export * from './optics/batch.js';
 export * from './optics/mask.js';
 export * from './optics/colour.js';
 export * from './optics/field.js';
+
+// Optimisation: Fit to mask, Grow layers, Yield forecast (browser-safe; the worker-thread splitter
+// lives under @quietglass/shared/node/yield-parallel).
+export * from './optimise/merit.js';
+export * from './optimise/fit.js';
+export * from './optimise/needle.js';
+export * from './optimise/yield.js';

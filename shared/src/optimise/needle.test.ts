@@ -1,0 +1,167 @@
+import { describe, expect, it } from 'vitest';
+import { constantIndex as c } from '../optics/dispersion.js';
+import { OpticsInputError } from '../optics/errors.js';
+import { MATERIAL_LIBRARY } from '../optics/library.js';
+import { evaluateMask, type SpecMask } from '../optics/mask.js';
+import type { OpticalStack } from '../optics/stack.js';
+import { dropThinLayers, growLayers, type AllowedMaterial } from './needle.js';
+
+// Typical coating indices near 550 nm (common practice, from memory): MgF2 1.38, SiO2 1.46,
+// TiO2 2.35, taken as constant.
+const MGF2 = c(1.38);
+const allowed: AllowedMaterial[] = [
+  { name: 'MgF2', model: MGF2 },
+  { name: 'SiO2', model: c(1.46) },
+  { name: 'TiO2', model: c(2.35) },
+];
+/** Visible broadband AR: R ≤ 0.5 % over 420–680 nm at 0° (a common customer requirement; common practice). */
+const broadbandAr: SpecMask = { bands: [{ from_nm: 420, to_nm: 680, quantity: 'R', max_percent: 0.5 }] };
+/** A single MgF2 quarter wave at 550 nm on N-BK7 (SCHOTT Sellmeier data from MATERIAL_LIBRARY). */
+const quarterWaveOnBk7: OpticalStack = {
+  incident: c(1),
+  layers: [{ material: MGF2, thicknessNm: 550 / (4 * 1.38) }],
+  substrate: MATERIAL_LIBRARY['N-BK7'],
+  backLayers: [],
+  exit: c(1),
+};
+
+describe('Grow layers', () => {
+  it('grows a single MgF2 quarter wave on N-BK7 into a broadband AR meeting R ≤ 0.5 % with ≤ 10 layers', () => {
+    // The single quarter wave leaves R ≈ 1.2–1.8 % in the band (Macleod, ch. 4), so growth is needed.
+    expect(evaluateMask(broadbandAr, quarterWaveOnBk7).pass).toBe(false);
+    const result = growLayers(quarterWaveOnBk7, broadbandAr, { allowedMaterials: allowed, maxLayers: 10 });
+    expect(result.stoppedBy).toBe('maskMet');
+    expect(result.final.layerCount).toBeLessThanOrEqual(10);
+    expect(result.final.layerCount).toBeGreaterThan(1);
+    // Checked independently of the optimiser's merit, on the mask's own evaluation.
+    const check = evaluateMask(broadbandAr, result.stack);
+    expect(check.pass).toBe(true);
+    expect(check.worstMargin).toBeCloseTo(result.final.worstMargin, 10);
+    for (const layer of result.stack.layers) expect(layer.thicknessNm).toBeGreaterThanOrEqual(10);
+    // Progression: step 0 is the refined start, merit falls step by step, each step's stack kept.
+    expect(result.steps[0].layerCount).toBe(1);
+    expect(result.steps[0].layers[0].material).toBe('MgF2');
+    for (let i = 1; i < result.steps.length; i++) {
+      expect(result.steps[i].merit).toBeLessThan(result.steps[i - 1].merit);
+      expect(result.steps[i].inserted).toBeDefined();
+    }
+    expect(result.final).toBe(result.steps[result.steps.length - 1]);
+    expect(result.final.layers.map((l) => l.thicknessNm)).toEqual(
+      result.stack.layers.map((l) => l.thicknessNm),
+    );
+    const models = new Map(allowed.map((m) => [m.name, m.model]));
+    result.final.layers.forEach((l, i) =>
+      expect(result.stack.layers[i].material).toEqual(models.get(l.material)),
+    );
+    // the stack file of every step can be rebuilt from its plain layers
+    const step1 = result.steps[1];
+    const rebuilt = {
+      ...quarterWaveOnBk7,
+      layers: step1.layers.map((l) => ({
+        material: models.get(l.material) ?? MGF2,
+        thicknessNm: l.thicknessNm,
+      })),
+    };
+    expect(evaluateMask(broadbandAr, rebuilt).merit).toBeCloseTo(step1.merit, 10);
+  });
+
+  it('is deterministic and reports each step; returning false stops it', () => {
+    const seen: number[] = [];
+    const first = growLayers(quarterWaveOnBk7, broadbandAr, {
+      allowedMaterials: allowed,
+      onStep: (step) => void seen.push(step.layerCount),
+    });
+    expect(growLayers(quarterWaveOnBk7, broadbandAr, { allowedMaterials: allowed })).toEqual(first);
+    expect(seen).toEqual(first.steps.map((s) => s.layerCount));
+    const stopped = growLayers(quarterWaveOnBk7, broadbandAr, {
+      allowedMaterials: allowed,
+      onStep: () => false,
+    });
+    expect(stopped.stoppedBy).toBe('cancelled');
+    expect(stopped.steps).toHaveLength(1);
+  });
+
+  it('also grows from a bare substrate', () => {
+    const bare = { ...quarterWaveOnBk7, layers: [] };
+    const result = growLayers(bare, broadbandAr, { allowedMaterials: allowed, maxLayers: 10 });
+    expect(result.steps[0].layerCount).toBe(0);
+    expect(result.stoppedBy).toBe('maskMet');
+    expect(evaluateMask(broadbandAr, result.stack).pass).toBe(true);
+  });
+
+  it('stops at the layer limit without meeting the mask when too few layers are allowed', () => {
+    const result = growLayers(quarterWaveOnBk7, broadbandAr, { allowedMaterials: allowed, maxLayers: 2 });
+    expect(result.stoppedBy).toBe('maxLayers');
+    expect(result.final.layerCount).toBeLessThanOrEqual(2);
+    expect(result.final.pass).toBe(false);
+    expect(evaluateMask(broadbandAr, result.stack).pass).toBe(false);
+  });
+
+  it('removes layers thinner than the minimum and merges the neighbours of one material', () => {
+    const layers = [
+      { material: 'A', thicknessNm: 50 },
+      { material: 'B', thicknessNm: 5 },
+      { material: 'A', thicknessNm: 40 },
+      { material: 'C', thicknessNm: 30 },
+      { material: 'A', thicknessNm: 8 },
+    ];
+    expect(dropThinLayers(layers, 10)).toEqual([
+      { material: 'A', thicknessNm: 90 },
+      { material: 'C', thicknessNm: 30 },
+    ]);
+    expect(layers[0].thicknessNm).toBe(50);
+  });
+
+  it('rejects bad input with errors naming the field', () => {
+    const cases: [() => unknown, RegExp][] = [
+      [
+        () => growLayers(quarterWaveOnBk7, broadbandAr, { allowedMaterials: [] }),
+        /^allowedMaterials: must list at least one/,
+      ],
+      [
+        () =>
+          growLayers(quarterWaveOnBk7, broadbandAr, {
+            allowedMaterials: [allowed[0], { name: 'MgF2', model: c(1.39) }],
+          }),
+        /^allowedMaterials\[1\]\.name: "MgF2" is listed twice/,
+      ],
+      [
+        () =>
+          growLayers(quarterWaveOnBk7, broadbandAr, {
+            allowedMaterials: [{ name: 'X', model: { model: 'constant', n: -1 } }],
+          }),
+        /^allowedMaterials\[0\]\.model\.n:/,
+      ],
+      [
+        () =>
+          growLayers(quarterWaveOnBk7, broadbandAr, {
+            allowedMaterials: allowed,
+            minThicknessNm: 50,
+            maxThicknessNm: 20,
+          }),
+        /^minThicknessNm: must not exceed maxThicknessNm/,
+      ],
+      [
+        () => growLayers(quarterWaveOnBk7, broadbandAr, { allowedMaterials: allowed, maxLayer: 5 } as never),
+        /^maxLayer: is not a known field/,
+      ],
+      [
+        () => growLayers(quarterWaveOnBk7, { bands: [] }, { allowedMaterials: allowed }),
+        /^bands: must hold at least one/,
+      ],
+      [
+        () => growLayers(quarterWaveOnBk7, broadbandAr, { allowedMaterials: allowed, maxLayers: 0 }),
+        /^maxLayers:/,
+      ],
+      [
+        () =>
+          growLayers(quarterWaveOnBk7, broadbandAr, { allowedMaterials: allowed, layerMaterials: ['TiO2'] }),
+        /^layerMaterials\[0\]: "TiO2" already names another material model/,
+      ],
+    ];
+    for (const [run, message] of cases) {
+      expect(run).toThrow(OpticsInputError);
+      expect(run).toThrow(message);
+    }
+  });
+});

@@ -1,0 +1,490 @@
+/*
+ * Grow layers: the needle method (A. V. Tikhonravov, M. K. Trubetskov, G. W. DeBell, Appl. Opt. 35,
+ * 5493 (1996)). Each step
+ * 1. scans where a thin layer (a needle) of each allowed material lowers the merit fastest: for
+ *    every layer, positions every `positionStepNm` through it (its two interfaces included), the
+ *    derivative of Σr² with respect to the needle's thickness, by a forward difference with a
+ *    NEEDLE_PROBE_NM needle (the perturbation function of the paper, computed numerically);
+ * 2. inserts a needle at the most negative derivative, refines all thicknesses with ≥ 0 bounds,
+ *    removes layers that end up thinner than the minimum (merging neighbours of one material) and
+ *    refines again within [min, max];
+ * 3. keeps the step when the merit fell (else tries the next candidates), and repeats until the
+ *    mask is met, nothing helps, or a limit is reached (layer count, total thickness, steps).
+ * When no needle lowers the merit on its own (a refined single quarter wave is such a design: a
+ * needle helps there only together with a change of the other layers), a whole layer of each
+ * allowed material is tried at the front and next to the substrate, starting from the minimum
+ * thickness, a quarter and a half wave at the mask's centre wavelength, refined within [min, max];
+ * the best that lowers the merit is kept (the gradual-evolution variant of the method).
+ */
+import { onlyKeys, plainObject } from '../optics/checks.js';
+import { indexAt, validateMaterialModel, type MaterialModel } from '../optics/dispersion.js';
+import { OpticsInputError, fieldPath } from '../optics/errors.js';
+import { maskGrid, type SpecMask } from '../optics/mask.js';
+import { validateOpticalStack, type OpticalStack } from '../optics/stack.js';
+import type { BackSurface } from '../optics/batch.js';
+import {
+  DEFAULT_MARGIN_PERCENT,
+  DEFAULT_MAX_THICKNESS_NM,
+  DEFAULT_MIN_THICKNESS_NM,
+  layerBounds,
+  refineThicknesses,
+} from './fit.js';
+import { createMaskMerit, type MaskMerit, type TargetCurve } from './merit.js';
+import { nonNegativeOption, positiveOption, wholeNumber } from './options.js';
+
+/** Thickness of the probing needle for the derivative, nm. */
+const NEEDLE_PROBE_NM = 1e-3;
+/** Candidates (distinct layer and material) tried per step before giving up. */
+const CANDIDATES_PER_STEP = 3;
+
+const GROW_OPTION_KEYS = [
+  'allowedMaterials',
+  'back',
+  'layerMaterials',
+  'maxLayers',
+  'maxTotalThicknessNm',
+  'minThicknessNm',
+  'maxThicknessNm',
+  'needleThicknessNm',
+  'positionStepNm',
+  'maxSteps',
+  'maxIterations',
+  'marginPercent',
+  'targets',
+  'onStep',
+];
+
+/** A coating material the engineer allows Grow layers to use. */
+export interface AllowedMaterial {
+  name: string;
+  model: MaterialModel;
+}
+
+/** A layer as plain data: material name and physical thickness. */
+export interface GrowLayer {
+  material: string;
+  thicknessNm: number;
+}
+
+export interface GrowStep {
+  /** 0 for the refined start, then 1, 2, … */
+  step: number;
+  layerCount: number;
+  totalThicknessNm: number;
+  /** Mask merit (with targets), percentage points. */
+  merit: number;
+  pass: boolean;
+  /** Worst mask margin, percentage points. */
+  worstMargin: number;
+  /** The stack of this step, incident side first. */
+  layers: GrowLayer[];
+  /** Where this step's needle went: material and depth below the front surface, nm. */
+  inserted?: { material: string; depthNm: number };
+}
+
+export type GrowStop =
+  'maskMet' | 'noImprovement' | 'maxLayers' | 'maxTotalThickness' | 'maxSteps' | 'cancelled';
+
+export interface GrowOptions {
+  /** Materials a needle may be made of (at least one). */
+  allowedMaterials: AllowedMaterial[];
+  /** Substrate treatment (default `none`). */
+  back?: BackSurface;
+  /**
+   * Material name of each start layer. By default a start layer takes the name of the allowed
+   * material with the same model, else `layers[i]`.
+   */
+  layerMaterials?: string[];
+  /** Most front layers (default 30). */
+  maxLayers?: number;
+  /** Most total physical thickness, nm (default 5000). */
+  maxTotalThicknessNm?: number;
+  /** Thinnest layer kept, nm (default 10); also the lower bound of the final refinement. */
+  minThicknessNm?: number;
+  /** Upper bound per layer, nm (default 1000). */
+  maxThicknessNm?: number;
+  /** Thickness an inserted needle starts from before refinement, nm (default 1). */
+  needleThicknessNm?: number;
+  /** Spacing of the candidate positions through each layer, nm (default 2). */
+  positionStepNm?: number;
+  /** Most insertion steps (default 30). */
+  maxSteps?: number;
+  /** Most iterations of each refinement (default 100). */
+  maxIterations?: number;
+  /** Max/min limits are tightened by this much while refining (default 0.001 percentage points). */
+  marginPercent?: number;
+  targets?: TargetCurve[];
+  /** Called with each kept step (step 0 included); return false to stop (cancel). */
+  onStep?: (step: GrowStep) => boolean | void;
+}
+
+export interface GrowResult {
+  /** Every kept step, the refined start first: the progression of merit against layer count. */
+  steps: GrowStep[];
+  /** The last step. */
+  final: GrowStep;
+  /** The last step as a stack (same media as the start). */
+  stack: OpticalStack;
+  stoppedBy: GrowStop;
+}
+
+interface WorkLayer {
+  material: number;
+  thicknessNm: number;
+}
+
+interface Refined {
+  layers: WorkLayer[];
+  /** Σr² (with the margin) of the refined layers. */
+  sum: number;
+  merit: MaskMerit;
+}
+
+interface Candidate {
+  layer: number;
+  material: number;
+  offsetNm: number;
+  derivative: number;
+}
+
+/**
+ * Grows `stack`'s front coating by the needle method until `mask` is met or a limit is reached
+ * (see the file comment). Deterministic. Throws {@link OpticsInputError} naming the field for
+ * bad input (no allowed material, duplicate names, bounds with min > max, an empty mask, …).
+ */
+export function growLayers(stack: OpticalStack, mask: SpecMask, options: GrowOptions): GrowResult {
+  const opts = plainObject(options, '');
+  onlyKeys(opts, GROW_OPTION_KEYS, '');
+  const start = validateOpticalStack(stack);
+  const materials = allowedMaterials(opts.allowedMaterials);
+  const minNm = nonNegativeOption(opts.minThicknessNm, 'minThicknessNm', DEFAULT_MIN_THICKNESS_NM);
+  const maxNm = positiveOption(opts.maxThicknessNm, 'maxThicknessNm', DEFAULT_MAX_THICKNESS_NM);
+  layerBounds(1, minNm, maxNm, undefined);
+  const maxLayers = wholeNumber(opts.maxLayers, 'maxLayers', 1, 1000, 30);
+  const maxTotal = positiveOption(opts.maxTotalThicknessNm, 'maxTotalThicknessNm', 5000);
+  const needleNm = nonNegativeOption(opts.needleThicknessNm, 'needleThicknessNm', 1);
+  const positionStep = positiveOption(opts.positionStepNm, 'positionStepNm', 2);
+  const maxSteps = wholeNumber(opts.maxSteps, 'maxSteps', 0, 1000, 30);
+  const maxIterations = wholeNumber(opts.maxIterations, 'maxIterations', 1, 100_000, 100);
+  if (opts.onStep !== undefined && typeof opts.onStep !== 'function') {
+    throw new OpticsInputError('onStep', 'must be a function');
+  }
+  if (start.layers.length > maxLayers) {
+    throw new OpticsInputError('maxLayers', `is below the start's ${start.layers.length} layers`);
+  }
+
+  // Names and models in one list: allowed materials first, then start materials not among them.
+  const names = materials.map((m) => m.name);
+  const models = materials.map((m) => m.model);
+  const keys = models.map((m) => JSON.stringify(m));
+  const startNames = startLayerNames(start, opts.layerMaterials, names, keys);
+  let layers: WorkLayer[] = start.layers.map((layer, i) => {
+    const key = JSON.stringify(layer.material);
+    let index = names.indexOf(startNames[i]);
+    if (index >= 0 && keys[index] !== key) {
+      throw new OpticsInputError(
+        fieldPath('layerMaterials', i),
+        `"${startNames[i]}" already names another material model than that of layers[${i}]`,
+      );
+    }
+    if (index < 0) {
+      index = names.length;
+      names.push(startNames[i]);
+      models.push(layer.material);
+      keys.push(key);
+    }
+    return { material: index, thicknessNm: layer.thicknessNm };
+  });
+  const allowedCount = materials.length;
+  // Quarter-wave thickness of each allowed material at the centre of the mask's wavelengths.
+  const grid = maskGrid(mask);
+  const centreNm = (grid.wavelengthsNm[0] + grid.wavelengthsNm[grid.wavelengthsNm.length - 1]) / 2;
+  const quarterWaveNm = materials.map((m) => centreNm / (4 * indexAt(m.model, centreNm).n));
+
+  const stackOf = (list: readonly WorkLayer[]): OpticalStack => ({
+    ...start,
+    layers: list.map((l) => ({ material: models[l.material], thicknessNm: l.thicknessNm })),
+  });
+  const base = createMaskMerit(stackOf(layers), mask, {
+    back: options.back,
+    targets: options.targets,
+    marginPercent: options.marginPercent ?? DEFAULT_MARGIN_PERCENT,
+  });
+  const residual = new Float64Array(base.sampleCount);
+
+  /** Refines `list` within [lower, maxNm] on a merit for its structure; returns it refined. */
+  const refine = (list: WorkLayer[], lower: number): Refined => {
+    const merit = base.withStack(stackOf(list));
+    const bounds = layerBounds(list.length, lower, maxNm, undefined);
+    const fit = refineThicknesses(
+      merit,
+      list.map((l) => l.thicknessNm),
+      bounds,
+      { maxIterations },
+    );
+    const out = list.map((l, i) => ({ material: l.material, thicknessNm: fit.thicknessesNm[i] }));
+    const sum = merit.residuals(residual, fit.thicknessesNm);
+    return { layers: out, sum, merit };
+  };
+
+  const steps: GrowStep[] = [];
+  const record = (list: WorkLayer[], merit: MaskMerit, inserted?: GrowStep['inserted']): boolean => {
+    merit.compute(list.map((l) => l.thicknessNm));
+    const worstMargin = merit.worstMarginOf();
+    const step: GrowStep = {
+      step: steps.length,
+      layerCount: list.length,
+      totalThicknessNm: list.reduce((t, l) => t + l.thicknessNm, 0),
+      merit: merit.meritOf(),
+      pass: worstMargin >= 0,
+      worstMargin,
+      layers: list.map((l) => ({ material: names[l.material], thicknessNm: l.thicknessNm })),
+    };
+    if (inserted) step.inserted = inserted;
+    steps.push(step);
+    return options.onStep?.(step) !== false;
+  };
+
+  let current = refine(layers, minNm);
+  layers = current.layers;
+  let stoppedBy: GrowStop = 'maxSteps';
+  if (!record(layers, current.merit)) stoppedBy = 'cancelled';
+  else if (steps[0].pass) stoppedBy = 'maskMet';
+  else {
+    for (let stepNo = 1; stepNo <= maxSteps; stepNo++) {
+      if (layers.length + 1 > maxLayers) {
+        stoppedBy = 'maxLayers';
+        break;
+      }
+      const reasons = new Set<GrowStop>();
+      /**
+       * Refines a grown structure within [min, max], for a needle first with ≥ 0 bounds and its
+       * thin layers removed; null when the result is over a limit.
+       */
+      const settle = (grown: WorkLayer[], needle: boolean): Refined | null => {
+        if (grown.length > maxLayers) {
+          reasons.add('maxLayers');
+          return null;
+        }
+        const kept = needle ? dropThinLayers(refine(grown, 0).layers, minNm) : grown;
+        if (kept.length === 0) return null;
+        const result = refine(kept, minNm);
+        if (result.layers.length > maxLayers) {
+          reasons.add('maxLayers');
+          return null;
+        }
+        if (result.layers.reduce((t, l) => t + l.thicknessNm, 0) > maxTotal) {
+          reasons.add('maxTotalThickness');
+          return null;
+        }
+        return result;
+      };
+      const better = (result: Refined | null): result is Refined =>
+        result !== null && result.sum < current.sum * (1 - 1e-9);
+
+      let accepted: Refined | null = null;
+      let inserted: GrowStep['inserted'];
+      const candidates = scanNeedles(current.merit, layers, allowedCount, stackOf, positionStep, residual);
+      const tried = new Set<string>();
+      for (const cand of candidates) {
+        const key = `${cand.layer}:${cand.material}`;
+        if (tried.has(key)) continue;
+        if (tried.size >= CANDIDATES_PER_STEP) break;
+        tried.add(key);
+        const result = settle(insertNeedle(layers, cand, needleNm), true);
+        if (better(result)) {
+          accepted = result;
+          let depth = cand.offsetNm;
+          for (let j = 0; j < cand.layer; j++) depth += layers[j].thicknessNm;
+          inserted = { material: names[cand.material], depthNm: depth };
+          break;
+        }
+      }
+      if (!accepted) {
+        // No needle helps on its own: add a whole layer at the front or next to the substrate
+        // (gradual evolution) and keep the best refined result.
+        const total = layers.reduce((t, l) => t + l.thicknessNm, 0);
+        for (const side of ['front', 'substrate'] as const) {
+          for (let m = 0; m < allowedCount; m++) {
+            const neighbour = side === 'front' ? layers[0] : layers[layers.length - 1];
+            if (neighbour && neighbour.material === m) continue;
+            for (const startNm of [minNm, quarterWaveNm[m], 2 * quarterWaveNm[m]]) {
+              const layer = { material: m, thicknessNm: startNm };
+              const result = settle(side === 'front' ? [layer, ...layers] : [...layers, layer], false);
+              if (better(result) && (!accepted || result.sum < accepted.sum)) {
+                accepted = result;
+                inserted = { material: names[m], depthNm: side === 'front' ? 0 : total };
+              }
+            }
+          }
+        }
+      }
+      if (!accepted) {
+        stoppedBy = reasons.has('maxLayers')
+          ? 'maxLayers'
+          : reasons.has('maxTotalThickness')
+            ? 'maxTotalThickness'
+            : 'noImprovement';
+        break;
+      }
+      current = accepted;
+      layers = accepted.layers;
+      if (!record(layers, current.merit, inserted)) {
+        stoppedBy = 'cancelled';
+        break;
+      }
+      if (steps[steps.length - 1].pass) {
+        stoppedBy = 'maskMet';
+        break;
+      }
+    }
+  }
+  const final = steps[steps.length - 1];
+  return { steps, final, stack: stackOf(layers), stoppedBy };
+}
+
+/**
+ * Derivative of Σr² with respect to the thickness of a needle of each allowed material at each
+ * candidate position, most negative first (only those that lower the merit).
+ */
+function scanNeedles(
+  merit: MaskMerit,
+  layers: readonly WorkLayer[],
+  allowedCount: number,
+  stackOf: (list: readonly WorkLayer[]) => OpticalStack,
+  positionStep: number,
+  residual: Float64Array,
+): Candidate[] {
+  const L = layers.length;
+  const f0 = merit.residuals(
+    residual,
+    layers.map((l) => l.thicknessNm),
+  );
+  const out: Candidate[] = [];
+  if (L === 0) {
+    for (let m = 0; m < allowedCount; m++) {
+      const probe = merit.withStack(stackOf([{ material: m, thicknessNm: NEEDLE_PROBE_NM }]));
+      const f = probe.residuals(residual, [NEEDLE_PROBE_NM]);
+      out.push({ layer: 0, material: m, offsetNm: 0, derivative: (f - f0) / NEEDLE_PROBE_NM });
+    }
+  }
+  for (let j = 0; j < L; j++) {
+    const host = layers[j];
+    const d = host.thicknessNm;
+    const count = Math.max(1, Math.ceil(d / positionStep));
+    for (let m = 0; m < allowedCount; m++) {
+      if (m === host.material) continue;
+      const split: WorkLayer[] = [
+        ...layers.slice(0, j),
+        { material: host.material, thicknessNm: 0 },
+        { material: m, thicknessNm: NEEDLE_PROBE_NM },
+        { material: host.material, thicknessNm: d },
+        ...layers.slice(j + 1),
+      ];
+      const probe = merit.withStack(stackOf(split));
+      const thicknesses = split.map((l) => l.thicknessNm);
+      // The interface above layer j is scanned with layer j − 1 (its far end), except the front one.
+      for (let k = j === 0 ? 0 : 1; k <= count; k++) {
+        if (k === count && j < L - 1 && layers[j + 1].material === m) continue;
+        if (k === 0 && j > 0 && layers[j - 1].material === m) continue;
+        const a = (d * k) / count;
+        thicknesses[j] = a;
+        thicknesses[j + 2] = d - a;
+        const f = probe.residuals(residual, thicknesses);
+        const derivative = (f - f0) / NEEDLE_PROBE_NM;
+        if (derivative < 0) out.push({ layer: j, material: m, offsetNm: a, derivative });
+      }
+    }
+  }
+  return out.filter((c) => c.derivative < 0).sort((x, y) => x.derivative - y.derivative);
+}
+
+/** The layers with a needle of `cand.material` inserted (zero-thickness parts left out). */
+function insertNeedle(layers: readonly WorkLayer[], cand: Candidate, needleNm: number): WorkLayer[] {
+  const needle = { material: cand.material, thicknessNm: needleNm };
+  if (layers.length === 0) return [needle];
+  const host = layers[cand.layer];
+  const above = cand.offsetNm;
+  const below = host.thicknessNm - cand.offsetNm;
+  const parts: WorkLayer[] = [];
+  if (above > 1e-9) parts.push({ material: host.material, thicknessNm: above });
+  parts.push(needle);
+  if (below > 1e-9) parts.push({ material: host.material, thicknessNm: below });
+  return mergeSameMaterial([...layers.slice(0, cand.layer), ...parts, ...layers.slice(cand.layer + 1)]);
+}
+
+/**
+ * Removes layers thinner than `minNm`, thinnest first, merging the neighbours that then touch and
+ * share a material, until every layer is at least `minNm` thick.
+ */
+export function dropThinLayers<T extends { material: number | string; thicknessNm: number }>(
+  layers: readonly T[],
+  minNm: number,
+): T[] {
+  let list = layers.map((l) => ({ ...l }));
+  for (;;) {
+    let thinnest = -1;
+    for (let i = 0; i < list.length; i++) {
+      if (list[i].thicknessNm < minNm && (thinnest < 0 || list[i].thicknessNm < list[thinnest].thicknessNm)) {
+        thinnest = i;
+      }
+    }
+    if (thinnest < 0) return list;
+    list.splice(thinnest, 1);
+    list = mergeSameMaterial(list);
+  }
+}
+
+function mergeSameMaterial<T extends { material: number | string; thicknessNm: number }>(
+  layers: readonly T[],
+): T[] {
+  const out: T[] = [];
+  for (const layer of layers) {
+    const last = out[out.length - 1];
+    if (last && last.material === layer.material) last.thicknessNm += layer.thicknessNm;
+    else out.push({ ...layer });
+  }
+  return out;
+}
+
+function allowedMaterials(input: unknown): AllowedMaterial[] {
+  if (!Array.isArray(input) || input.length === 0) {
+    throw new OpticsInputError('allowedMaterials', 'must list at least one material ({ name, model })');
+  }
+  const seen = new Set<string>();
+  return input.map((item, i) => {
+    const field = fieldPath('allowedMaterials', i);
+    const obj = plainObject(item, field);
+    if (typeof obj.name !== 'string' || obj.name.trim() === '') {
+      throw new OpticsInputError(fieldPath(field, 'name'), 'must be a non-empty name');
+    }
+    if (seen.has(obj.name)) {
+      throw new OpticsInputError(fieldPath(field, 'name'), `"${obj.name}" is listed twice`);
+    }
+    seen.add(obj.name);
+    return { name: obj.name, model: validateMaterialModel(obj.model, fieldPath(field, 'model')) };
+  });
+}
+
+function startLayerNames(
+  start: OpticalStack,
+  given: unknown,
+  names: readonly string[],
+  keys: readonly string[],
+): string[] {
+  if (given !== undefined) {
+    if (!Array.isArray(given) || given.length !== start.layers.length) {
+      throw new OpticsInputError('layerMaterials', `must list ${start.layers.length} names, one per layer`);
+    }
+    return given.map((name, i) => {
+      if (typeof name !== 'string' || name.trim() === '') {
+        throw new OpticsInputError(fieldPath('layerMaterials', i), 'must be a non-empty name');
+      }
+      return name;
+    });
+  }
+  return start.layers.map((layer, i) => {
+    const found = keys.indexOf(JSON.stringify(layer.material));
+    return found >= 0 ? names[found] : `layers[${i}]`;
+  });
+}

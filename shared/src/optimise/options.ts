@@ -1,0 +1,37 @@
+/*
+ * Checks of the optimisers' plain-data options. Each throws an OpticsInputError naming the field.
+ */
+import { finiteNumber } from '../optics/checks.js';
+import { OpticsInputError } from '../optics/errors.js';
+
+/** A whole number in [min, max], or `fallback` when undefined. */
+export function wholeNumber(
+  value: unknown,
+  field: string,
+  min: number,
+  max: number,
+  fallback: number,
+): number {
+  if (value === undefined) return fallback;
+  const x = finiteNumber(value, field);
+  if (!Number.isInteger(x) || x < min || x > max) {
+    throw new OpticsInputError(field, `must be a whole number from ${min} to ${max} (got ${x})`);
+  }
+  return x;
+}
+
+/** A finite number > 0, or `fallback` when undefined. */
+export function positiveOption(value: unknown, field: string, fallback: number): number {
+  if (value === undefined) return fallback;
+  const x = finiteNumber(value, field);
+  if (!(x > 0)) throw new OpticsInputError(field, `must be greater than 0 (got ${x})`);
+  return x;
+}
+
+/** A finite number ≥ 0, or `fallback` when undefined. */
+export function nonNegativeOption(value: unknown, field: string, fallback: number): number {
+  if (value === undefined) return fallback;
+  const x = finiteNumber(value, field);
+  if (!(x >= 0)) throw new OpticsInputError(field, `must be 0 or more (got ${x})`);
+  return x;
+}
