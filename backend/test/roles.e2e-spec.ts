@@ -34,6 +34,7 @@ interface MatrixContext {
   maskId: number;
   maskVersion: number;
   doneCalcId: number;
+  fitCalcId: number;
   cancelCalcIds: Partial<Record<Role | 'anonymous', number>>;
   draftRowVersion: number;
   /** Per action, one design per permitted role, already in the state the action starts from. */
@@ -326,6 +327,35 @@ const RULES: RouteRule[] = [
     }),
   },
   { method: 'get', path: '/api/calculations', allow: DESIGNERS, okStatus: 200 },
+  ...(['fit', 'grow', 'yield'] as const).map((kind): RouteRule => ({
+    method: 'post',
+    path: `/api/designs/:id/versions/:number/${kind}`,
+    allow: DESIGNERS,
+    okStatus: 201,
+    url: (ctx) => `/api/designs/${ctx.designId}/versions/1/${kind}`,
+    body: (ctx) => {
+      const n = (ctx.counter += 1);
+      if (kind === 'fit') return { specMaskId: ctx.maskId, maxIterations: n };
+      if (kind === 'grow')
+        return { specMaskId: ctx.maskId, allowedMaterialIds: [ctx.materialIdsByName['SiO2']], maxLayers: n };
+      return { specMaskId: ctx.maskId, trials: n, thickness: { relativePercent: 1 } };
+    },
+  })),
+  {
+    method: 'post',
+    path: '/api/runs/:id/spectra/:sid/diagnosis',
+    allow: DESIGNERS,
+    okStatus: 201,
+    url: (ctx) => `/api/runs/${ctx.runId}/spectra/${ctx.spectrumId}/diagnosis`,
+    body: (ctx) => ({ factorRange: [0.7, 1.3 + (ctx.counter += 1) / 100] }),
+  },
+  {
+    method: 'post',
+    path: '/api/calculations/:id/accept',
+    allow: DESIGNERS,
+    okStatus: 201,
+    url: (ctx) => `/api/calculations/${ctx.fitCalcId}/accept`,
+  },
   {
     method: 'get',
     path: '/api/calculations/:id',
@@ -574,6 +604,7 @@ const ctx: MatrixContext = {
   maskId: 0,
   maskVersion: 1,
   doneCalcId: 0,
+  fitCalcId: 0,
   cancelCalcIds: {},
   draftRowVersion: 1,
   stage: { submit: {}, approve: {}, return: {}, release: {}, retire: {} },
@@ -774,6 +805,12 @@ beforeAll(async () => {
     ['d'.repeat(64), input, summary, values, adminId],
   );
   ctx.doneCalcId = done.id;
+  const [fitCalc] = await db.query(
+    `INSERT INTO calculations (kind, input_hash, input, status, summary, design_id, version_number, created_by, progress)
+     VALUES ('fit', $1, '{"kind": "fit"}', 'completed', $2, $3, 1, $4, 1) RETURNING id`,
+    ['e'.repeat(64), JSON.stringify({ thicknessesNm: [101, 69] }), ctx.designId, adminId],
+  );
+  ctx.fitCalcId = fitCalc.id;
   for (const [i, role] of DESIGNERS.entries()) {
     const [queued] = await db.query(
       `INSERT INTO calculations (kind, input_hash, input, status, created_by) VALUES ('analysis', $1, $2, 'queued', $3) RETURNING id`,

@@ -1,9 +1,17 @@
 import { Column, CreateDateColumn, Entity, JoinColumn, ManyToOne, PrimaryGeneratedColumn } from 'typeorm';
 import type { AnalysisInput, AnalysisSummary } from '@quietglass/shared/analysis';
+import type { OptimiseInput } from './optimise-jobs.js';
 import { User } from '../users/user.entity.js';
 
 export const CALCULATION_STATUSES = ['queued', 'running', 'completed', 'failed', 'cancelled'] as const;
 export type CalculationStatus = (typeof CALCULATION_STATUSES)[number];
+export const CALCULATION_KINDS = ['analysis', 'fit', 'grow', 'yield', 'diagnosis'] as const;
+export type CalculationKind = (typeof CALCULATION_KINDS)[number];
+
+/** Streamed while an optimisation runs: merit per iteration (fit, diagnosis) or per layer count (grow). */
+export interface LiveProgress {
+  history: { iteration?: number; layerCount?: number; merit: number }[];
+}
 
 /** A compute-queue job and, once done, its stored result. */
 @Entity({ name: 'calculations' })
@@ -12,14 +20,14 @@ export class Calculation {
   id: number;
 
   @Column({ type: 'varchar', length: 32 })
-  kind: 'analysis';
+  kind: CalculationKind;
 
   /** SHA-256 of the canonical input: an identical request finds the stored result. */
   @Column({ name: 'input_hash', type: 'char', length: 64 })
   inputHash: string;
 
   @Column({ type: 'jsonb' })
-  input: AnalysisInput;
+  input: AnalysisInput | OptimiseInput;
 
   @Column({ name: 'design_id', type: 'integer', nullable: true })
   designId: number | null;
@@ -37,8 +45,15 @@ export class Calculation {
   @Column({ type: 'text', nullable: true })
   error: string | null;
 
+  /** The analysis summary, or the optimisation result (FitResult, GrowResult, YieldForecast, diagnosis). */
   @Column({ type: 'jsonb', nullable: true })
-  summary: AnalysisSummary | null;
+  summary: AnalysisSummary | Record<string, unknown> | null;
+
+  @Column({ type: 'jsonb', nullable: true })
+  live: LiveProgress | null;
+
+  @Column({ name: 'run_id', type: 'integer', nullable: true })
+  runId: number | null;
 
   /** R, T, A as little-endian float64, in the order of analysisIndex. */
   @Column({ type: 'bytea', nullable: true, select: false })
@@ -74,14 +89,17 @@ export class Calculation {
 
 export interface CalculationView {
   id: number;
-  kind: 'analysis';
+  kind: CalculationKind;
   status: CalculationStatus;
   progress: number;
   error: string | null;
   designId: number | null;
   versionNumber: number | null;
-  request: AnalysisInput['request'];
-  summary: AnalysisSummary | null;
+  /** The analysis grid, or the optimisation's options. */
+  request: unknown;
+  summary: AnalysisSummary | Record<string, unknown> | null;
+  live: LiveProgress | null;
+  runId: number | null;
   createdBy: string;
   createdAt: string;
   startedAt: string | null;
@@ -100,8 +118,15 @@ export function toCalculationView(c: Calculation): CalculationView {
     error: c.error,
     designId: c.designId,
     versionNumber: c.versionNumber,
-    request: c.input.request,
+    request:
+      'request' in c.input
+        ? c.input.request
+        : 'options' in c.input
+          ? c.input.options
+          : { factorRange: c.input.factorRange },
     summary: c.summary,
+    live: c.live,
+    runId: c.runId,
     createdBy: c.createdBy.displayName,
     createdAt: c.createdAt.toISOString(),
     startedAt: c.startedAt?.toISOString() ?? null,

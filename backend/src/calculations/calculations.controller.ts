@@ -5,12 +5,85 @@ import { Roles } from '../auth/roles.decorator.js';
 import type { User } from '../users/user.entity.js';
 import { toCalculationView, type CalculationView } from './calculation.entity.js';
 import { CalculationsService } from './calculations.service.js';
+import { AcceptDto, DiagnosisDto, FitDto, GrowDto, YieldDto } from './dto/optimise.dto.js';
+import { OptimiseService } from './optimise.service.js';
+import type { DesignVersionView } from '@quietglass/shared/designs';
+import type { Calculation } from './calculation.entity.js';
 
 /** The compute queue: engineers submit and cancel; results are readable by the office roles. */
 @Controller()
 @Roles('admin', 'engineer')
 export class CalculationsController {
-  constructor(private readonly calculations: CalculationsService) {}
+  constructor(
+    private readonly calculations: CalculationsService,
+    private readonly optimise: OptimiseService,
+  ) {}
+
+  private reply(
+    res: Response,
+    r: { calculation: Calculation; reused: boolean },
+  ): CalculationView & { reused: boolean } {
+    res.status(r.reused ? 200 : 201);
+    return { ...toCalculationView(r.calculation), reused: r.reused };
+  }
+
+  /** Fit to mask: Levenberg–Marquardt over the unlocked layers' thicknesses. */
+  @Post('designs/:id/versions/:number/fit')
+  async fit(
+    @Param('id', ParseIntPipe) id: number,
+    @Param('number', ParseIntPipe) number: number,
+    @Body() dto: FitDto,
+    @CurrentUser() user: User,
+    @Res({ passthrough: true }) res: Response,
+  ) {
+    return this.reply(res, await this.optimise.fit(id, number, dto, user));
+  }
+
+  /** Grow layers: needle synthesis from the version's stack with the allowed materials. */
+  @Post('designs/:id/versions/:number/grow')
+  async grow(
+    @Param('id', ParseIntPipe) id: number,
+    @Param('number', ParseIntPipe) number: number,
+    @Body() dto: GrowDto,
+    @CurrentUser() user: User,
+    @Res({ passthrough: true }) res: Response,
+  ) {
+    return this.reply(res, await this.optimise.grow(id, number, dto, user));
+  }
+
+  /** Yield forecast: seeded Monte Carlo of thickness (and index) errors against the mask. */
+  @Post('designs/:id/versions/:number/yield')
+  async yieldForecast(
+    @Param('id', ParseIntPipe) id: number,
+    @Param('number', ParseIntPipe) number: number,
+    @Body() dto: YieldDto,
+    @CurrentUser() user: User,
+    @Res({ passthrough: true }) res: Response,
+  ) {
+    return this.reply(res, await this.optimise.yieldForecast(id, number, dto, user));
+  }
+
+  /** Run diagnosis: which layers of a run most likely deviated, from its measured spectrum. */
+  @Post('runs/:id/spectra/:sid/diagnosis')
+  async diagnosis(
+    @Param('id', ParseIntPipe) id: number,
+    @Param('sid', ParseIntPipe) sid: number,
+    @Body() dto: DiagnosisDto,
+    @CurrentUser() user: User,
+    @Res({ passthrough: true }) res: Response,
+  ) {
+    return this.reply(res, await this.optimise.diagnosis(id, sid, dto, user));
+  }
+
+  /** A Fit to mask or Grow layers result becomes a new draft version. */
+  @Post('calculations/:id/accept')
+  accept(
+    @Param('id', ParseIntPipe) id: number,
+    @Body() dto: AcceptDto,
+    @CurrentUser() user: User,
+  ): Promise<DesignVersionView> {
+    return this.optimise.accept(id, dto.step, user);
+  }
 
   /** 201 with a new queued calculation, or 200 with the identical one already queued or done. */
   @Post('designs/:id/versions/:number/analysis')

@@ -5,10 +5,11 @@ import { QueueModule } from '../queue/queue.module.js';
 import { Calculation } from './calculation.entity.js';
 import { CalculationsController } from './calculations.controller.js';
 import { CalculationsService } from './calculations.service.js';
+import { OptimiseService } from './optimise.service.js';
 
 @Module({
   imports: [TypeOrmModule.forFeature([Calculation]), QueueModule, DesignsModule],
   controllers: [CalculationsController],
-  providers: [CalculationsService],
+  providers: [CalculationsService, OptimiseService],
 })
 export class CalculationsModule {}

@@ -22,7 +22,8 @@ import { contentHash } from '../common/stable-json.js';
 import { DesignsService } from '../designs/designs.service.js';
 import { ANALYSIS_JOB, COMPUTE_QUEUE, type ComputeJobData } from '../queue/queue.constants.js';
 import type { User } from '../users/user.entity.js';
-import { Calculation } from './calculation.entity.js';
+import { Calculation, type CalculationKind } from './calculation.entity.js';
+import type { OptimiseInput, OptimiseKind } from './optimise-jobs.js';
 
 /** The BullMQ job id of a calculation (one job per calculation, so a double add is a no-op). */
 export const jobIdOf = (calculationId: number) => `calc-${calculationId}`;
@@ -92,6 +93,50 @@ export class CalculationsService {
     }
     await this.queue.add(
       ANALYSIS_JOB,
+      { calculationId: saved.id },
+      {
+        jobId: jobIdOf(saved.id),
+        attempts: 1,
+        removeOnComplete: { age: 3600 },
+        removeOnFail: { age: 86_400 },
+      },
+    );
+    return { calculation: await this.get(saved.id), reused: false };
+  }
+
+  /** Queues an optimisation job; an identical request (same stack, mask and options) shares its calculation. */
+  async submitOptimisation(
+    kind: OptimiseKind,
+    input: OptimiseInput,
+    user: User,
+    where: { designId: number; versionNumber: number; runId?: number },
+  ): Promise<{ calculation: Calculation; reused: boolean }> {
+    const inputHash = contentHash(input);
+    const existing = await this.findLive(inputHash, kind);
+    if (existing) return { calculation: existing, reused: true };
+    let saved: Calculation;
+    try {
+      saved = await this.calculations.save(
+        this.calculations.create({
+          kind,
+          inputHash,
+          input,
+          designId: where.designId,
+          versionNumber: where.versionNumber,
+          runId: where.runId ?? null,
+          status: 'queued',
+          progress: 0,
+          live: { history: [] },
+          createdBy: user,
+        }),
+      );
+    } catch (err) {
+      const winner = isUniqueViolation(err) ? await this.findLive(inputHash, kind) : null;
+      if (winner) return { calculation: winner, reused: true };
+      throw err;
+    }
+    await this.queue.add(
+      kind,
       { calculationId: saved.id },
       {
         jobId: jobIdOf(saved.id),
@@ -192,12 +237,12 @@ export class CalculationsService {
     }
     const buf = calc.values;
     const values = new Float64Array(buf.buffer.slice(buf.byteOffset, buf.byteOffset + buf.byteLength));
-    return { summary: calc.summary, values };
+    return { summary: calc.summary as AnalysisSummary, values };
   }
 
-  private findLive(inputHash: string): Promise<Calculation | null> {
+  private findLive(inputHash: string, kind: CalculationKind = 'analysis'): Promise<Calculation | null> {
     return this.calculations.findOneBy({
-      kind: 'analysis',
+      kind,
       inputHash,
       status: In(['queued', 'running', 'completed']),
     });

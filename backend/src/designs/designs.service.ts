@@ -131,17 +131,28 @@ export class DesignsService {
   /** A new draft copied from an existing version (of any status). */
   async newVersion(id: number, fromNumber: number, author: User): Promise<DesignVersionView> {
     const from = await this.findVersion(id, fromNumber);
+    return this.draftFrom(id, fromNumber, from.layers, author);
+  }
+
+  /** A new draft copied from a version with other layers (an accepted optimisation result). */
+  async draftFrom(
+    id: number,
+    fromNumber: number,
+    layers: DesignVersionContent['layers'],
+    author: User,
+  ): Promise<DesignVersionView> {
+    const from = await this.findVersion(id, fromNumber);
+    await this.checkMaterials({ ...content(from), layers });
     const number = await this.db.transaction(async (tx) => {
-      // Serialise version numbering per design.
       await tx.query('SELECT id FROM designs WHERE id = $1 FOR UPDATE', [id]);
       const [{ max }] = (await tx.query(
         'SELECT max(number) AS max FROM design_versions WHERE design_id = $1',
         [id],
-      )) as {
-        max: number;
-      }[];
+      )) as { max: number }[];
       const next = Number(max) + 1;
-      await tx.getRepository(DesignVersion).save(newDraft(tx, from.design, next, from, author));
+      await tx
+        .getRepository(DesignVersion)
+        .save(newDraft(tx, from.design, next, { ...content(from), layers }, author));
       return next;
     });
     await this.designs.update(id, { updatedAt: new Date() });

@@ -389,7 +389,8 @@ function scanNeedles(
         if (k === 0 && j > 0 && layers[j - 1].material === m) continue;
         const a = (d * k) / count;
         thicknesses[j] = a;
-        thicknesses[j + 2] = d - a;
+        // d·k/count can round above d at k = count: keep the rest ≥ 0.
+        thicknesses[j + 2] = Math.max(0, d - a);
         const f = probe.residuals(residual, thicknesses);
         const derivative = (f - f0) / NEEDLE_PROBE_NM;
         if (derivative < 0) out.push({ layer: j, material: m, offsetNm: a, derivative });

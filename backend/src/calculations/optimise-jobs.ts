@@ -1,0 +1,145 @@
+/*
+ * Inputs and results of the optimisation jobs of the compute queue (Fit to mask, Grow layers, Yield
+ * forecast, Run diagnosis): plain JSON, so they are stored with the calculation and cross into a
+ * worker thread unchanged. `runOptimiseJob` is what the thread runs.
+ */
+import { growLayers, type AllowedMaterial, type GrowResult } from '@quietglass/shared/optimise/needle';
+import { fitToMask, type FitResult } from '@quietglass/shared/optimise/fit';
+import type { YieldOptions } from '@quietglass/shared/optimise/yield';
+import type { LimitBand } from '@quietglass/shared/optics/mask';
+import { parseStack, type StackDescription } from '@quietglass/shared/optics/stack';
+
+export type OptimiseKind = 'fit' | 'grow' | 'yield' | 'diagnosis';
+
+interface Base {
+  stack: StackDescription;
+  back: 'none' | 'incoherent';
+  bands: LimitBand[];
+  /** Material id of each front layer (incident side first), to turn a result into a version. */
+  layerMaterialIds: number[];
+}
+
+export interface FitInput extends Base {
+  kind: 'fit';
+  options: { locked: boolean[]; minThicknessNm: number; maxThicknessNm: number; maxIterations: number };
+}
+
+export interface GrowInput extends Base {
+  kind: 'grow';
+  allowed: (AllowedMaterial & { materialId: number })[];
+  options: { maxLayers: number; maxTotalThicknessNm: number; minThicknessNm: number; maxSteps: number };
+}
+
+export interface YieldInput extends Base {
+  kind: 'yield';
+  layerMaterials: string[];
+  options: Pick<YieldOptions, 'trials' | 'seed' | 'thickness' | 'systematic' | 'indexErrors'>;
+}
+
+export interface DiagnosisInput extends Base {
+  kind: 'diagnosis';
+  measured: { quantity: 'R' | 'T'; angleDeg: number; wavelengthsNm: number[]; valuesPercent: number[] };
+  /** How far a layer may have deviated: thickness factor bounds. */
+  factorRange: [number, number];
+}
+
+export type OptimiseInput = FitInput | GrowInput | YieldInput | DiagnosisInput;
+
+export interface LayerDeviation {
+  /** Design layer, 1 = outermost. */
+  layer: number;
+  materialId: number;
+  designNm: number;
+  fittedNm: number;
+  /** fitted ÷ design. */
+  factor: number;
+  deviationPercent: number;
+}
+
+export interface DiagnosisResult {
+  fit: FitResult;
+  /** Ranked by |deviation|, largest first. */
+  layers: LayerDeviation[];
+  /** RMS difference between measured and fitted spectrum, percentage points. */
+  residualRmsPercent: number;
+}
+
+export type ProgressMessage = {
+  type: 'progress';
+  fraction: number;
+  merit?: number;
+  iteration?: number;
+  layerCount?: number;
+};
+
+/** Runs a fit, grow or diagnosis (yield uses its own thread pool). `report` may return false to stop. */
+export function runOptimiseJob(
+  input: FitInput | GrowInput | DiagnosisInput,
+  report: (p: ProgressMessage) => boolean,
+): FitResult | GrowResult | DiagnosisResult {
+  const stack = parseStack(input.stack);
+  const mask = { bands: input.bands };
+  if (input.kind === 'fit') {
+    const max = input.options.maxIterations;
+    return fitToMask(stack, mask, {
+      back: input.back,
+      locked: input.options.locked,
+      minThicknessNm: input.options.minThicknessNm,
+      maxThicknessNm: input.options.maxThicknessNm,
+      maxIterations: max,
+      onIteration: (it) =>
+        report({
+          type: 'progress',
+          fraction: Math.min(0.99, it.iteration / max),
+          merit: it.merit,
+          iteration: it.iteration,
+        }),
+    });
+  }
+  if (input.kind === 'grow') {
+    const max = input.options.maxSteps;
+    return growLayers(stack, mask, {
+      back: input.back,
+      allowedMaterials: input.allowed.map(({ name, model }) => ({ name, model })),
+      maxLayers: input.options.maxLayers,
+      maxTotalThicknessNm: input.options.maxTotalThicknessNm,
+      minThicknessNm: input.options.minThicknessNm,
+      maxSteps: max,
+      onStep: (step) =>
+        report({
+          type: 'progress',
+          fraction: Math.min(0.99, step.step / max),
+          merit: step.merit,
+          layerCount: step.layerCount,
+        }),
+    });
+  }
+  // Run diagnosis: the thicknesses that reproduce the measured spectrum, each within its factor range.
+  const design = stack.layers.map((l) => l.thicknessNm);
+  const [lo, hi] = input.factorRange;
+  const fit = fitToMask(stack, mask, {
+    back: input.back,
+    minThicknessNm: design.map((d) => Math.max(0.5, d * lo)),
+    maxThicknessNm: design.map((d) => d * hi),
+    maxIterations: 200,
+    targets: [{ ...input.measured, polarisation: 'avg' }],
+    onIteration: (it) =>
+      report({
+        type: 'progress',
+        fraction: Math.min(0.99, it.iteration / 200),
+        merit: it.merit,
+        iteration: it.iteration,
+      }),
+  });
+  const layers = design
+    .map((d, i) => ({
+      layer: i + 1,
+      materialId: input.layerMaterialIds[i],
+      designNm: d,
+      fittedNm: fit.thicknessesNm[i],
+      factor: fit.thicknessesNm[i] / d,
+      deviationPercent: (fit.thicknessesNm[i] / d - 1) * 100,
+    }))
+    .sort((a, b) => Math.abs(b.deviationPercent) - Math.abs(a.deviationPercent));
+  return { fit, layers, residualRmsPercent: fit.merit.after };
+}

@@ -1,0 +1,289 @@
+import type { NestExpressApplication } from '@nestjs/platform-express';
+import request from 'supertest';
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { designStackDescription, engineBackSurface } from '@quietglass/shared/designs';
+import { calculateSpectrum } from '@quietglass/shared/optics/batch';
+import { evaluateMask } from '@quietglass/shared/optics/mask';
+import { parseStack } from '@quietglass/shared/optics/stack';
+import { approvedDesign } from './support/approved.js';
+import { createTestApp, demoSession } from './support/app.js';
+import { customerId, materialIds } from './support/fixtures.js';
+import { startWorkerProcess, type WorkerProcess } from './support/worker-process.js';
+
+let app: NestExpressApplication;
+let mira: string;
+let tomas: string;
+let operator: string;
+let m: Record<string, number>;
+let customer: number;
+let broadbandMaskId: number;
+let worker: WorkerProcess;
+
+const http = () => request(app.getHttpServer());
+
+beforeAll(async () => {
+  app = await createTestApp();
+  mira = await demoSession(app, 'engineer', 0);
+  tomas = await demoSession(app, 'engineer', 1);
+  operator = await demoSession(app, 'operator');
+  m = await materialIds(app, mira);
+  customer = await customerId(app, mira, 'Brightwater Instruments');
+  // The usual visible broadband AR requirement at normal incidence (common practice, no source).
+  const mask = await http()
+    .post('/api/spec-masks')
+    .set('Cookie', mira)
+    .send({
+      name: 'BWI broadband',
+      customerId: customer,
+      revision: 'A',
+      bands: [{ from_nm: 420, to_nm: 680, quantity: 'R', max_percent: 0.5, step_nm: 5 }],
+    });
+  broadbandMaskId = mask.body.id;
+  worker = await startWorkerProcess({ QG_COMPUTE_THREADS: '2' });
+});
+afterAll(async () => {
+  await worker?.stop('SIGKILL');
+  await app.close();
+});
+
+const design = (name: string, layers: [string, number][]) => ({
+  name,
+  customerId: customer,
+  specMaskId: broadbandMaskId,
+  incidentMaterialId: m['Air'],
+  substrateMaterialId: m['N-BK7'],
+  substrateThicknessMm: 2,
+  backSurface: 'front-only',
+  referenceWavelengthNm: 550,
+  layers: layers.map(([material, thicknessNm]) => ({ materialId: m[material], thicknessNm })),
+});
+
+async function create(body: ReturnType<typeof design>): Promise<number> {
+  const res = await http().post('/api/designs').set('Cookie', mira).send(body);
+  expect(res.status).toBe(201);
+  return res.body.id;
+}
+
+async function finished(id: number, timeoutMs = 90_000) {
+  const until = Date.now() + timeoutMs;
+  for (;;) {
+    const c = (await http().get(`/api/calculations/${id}`).set('Cookie', mira)).body;
+    if (['completed', 'failed', 'cancelled'].includes(c.status)) return c;
+    if (Date.now() > until) throw new Error(`calculation ${id} still ${c.status}`);
+    await new Promise((r) => setTimeout(r, 150));
+  }
+}
+
+async function stackOf(id: number, n: number) {
+  const v = (await http().get(`/api/designs/${id}/versions/${n}`).set('Cookie', mira)).body;
+  const mats = (await http().get('/api/materials').set('Cookie', mira)).body as {
+    id: number;
+    name: string;
+    model: never;
+  }[];
+  return {
+    version: v,
+    stack: parseStack(
+      designStackDescription(v, new Map(mats.map((x) => [x.id, { name: x.name, model: x.model }]))),
+    ),
+  };
+}
+
+describe('Fit to mask', () => {
+  it('lowers the merit, streams it per iteration, is reused for an identical request, and becomes a new draft', async () => {
+    const id = await create(
+      design('Fit me', [
+        ['MgF2', 90],
+        ['ZrO2', 110],
+        ['Al2O3', 70],
+        ['MgF2', 30],
+      ]),
+    );
+    const sub = await http()
+      .post(`/api/designs/${id}/versions/1/fit`)
+      .set('Cookie', mira)
+      .send({ maxIterations: 60 });
+    expect(sub.status, JSON.stringify(sub.body)).toBe(201);
+    const done = await finished(sub.body.id);
+    expect(done.status, done.error).toBe('completed');
+    expect(done.summary.merit.after).toBeLessThan(done.summary.merit.before);
+    expect(done.live.history.length).toBeGreaterThan(1);
+    expect(done.live.history.at(-1).merit).toBeCloseTo(done.summary.merit.after, 6);
+    for (const d of done.summary.thicknessesNm) expect(d).toBeGreaterThanOrEqual(10 - 1e-9);
+    const again = await http()
+      .post(`/api/designs/${id}/versions/1/fit`)
+      .set('Cookie', mira)
+      .send({ maxIterations: 60 });
+    expect(again.status).toBe(200);
+    expect(again.body.id).toBe(sub.body.id);
+
+    const v2 = await http().post(`/api/calculations/${sub.body.id}/accept`).set('Cookie', mira).send({});
+    expect(v2.status, JSON.stringify(v2.body)).toBe(201);
+    expect(v2.body).toMatchObject({ number: 2, status: 'draft' });
+    v2.body.layers.forEach((l: { thicknessNm: number }, i: number) =>
+      expect(l.thicknessNm).toBeCloseTo(done.summary.thicknessesNm[i], 9),
+    );
+  });
+
+  it('refuses a version whose layers are all locked, and bounds that cross', async () => {
+    const body = design('Locked', [['MgF2', 99]]);
+    body.layers[0] = { ...body.layers[0], locked: true } as (typeof body.layers)[0];
+    const id = await create(body);
+    const locked = await http().post(`/api/designs/${id}/versions/1/fit`).set('Cookie', mira).send({});
+    expect(locked.status).toBe(400);
+    expect(locked.body.details).toEqual(['every layer is locked: unlock at least one layer to fit']);
+    const crossed = await http()
+      .post(`/api/designs/${id}/versions/1/fit`)
+      .set('Cookie', mira)
+      .send({ minThicknessNm: 50, maxThicknessNm: 20 });
+    expect(crossed.body.details).toEqual(['minThicknessNm (50) must not exceed maxThicknessNm (20)']);
+    expect(
+      (await http().post(`/api/designs/${id}/versions/1/fit`).set('Cookie', operator).send({})).status,
+    ).toBe(403);
+  });
+});
+
+describe('Grow layers', () => {
+  it('from a single MgF2 quarter wave on N-BK7 reaches R ≤ 0.5 % over 420–680 nm with at most 10 layers', async () => {
+    const id = await create(design('Grow me', [['MgF2', 99.6]]));
+    const sub = await http()
+      .post(`/api/designs/${id}/versions/1/grow`)
+      .set('Cookie', mira)
+      .send({ allowedMaterialIds: [m['MgF2'], m['SiO2'], m['TiO2']], maxLayers: 10 });
+    expect(sub.status, JSON.stringify(sub.body)).toBe(201);
+    const done = await finished(sub.body.id, 120_000);
+    expect(done.status, done.error).toBe('completed');
+    expect(done.summary.final.pass).toBe(true);
+    expect(done.summary.final.layerCount).toBeLessThanOrEqual(10);
+    expect(done.summary.steps.length).toBeGreaterThan(1);
+    const v2 = await http().post(`/api/calculations/${sub.body.id}/accept`).set('Cookie', mira).send({});
+    expect(v2.status).toBe(201);
+    // Independent check: the engine's own mask evaluation of the accepted version.
+    const { stack } = await stackOf(id, v2.body.number);
+    const mask = (await http().get(`/api/spec-masks/${broadbandMaskId}`).set('Cookie', mira)).body;
+    expect(evaluateMask({ bands: mask.bands }, stack).pass).toBe(true);
+  });
+
+  it('needs at least one allowed material that exists', async () => {
+    const id = await create(design('No materials', [['MgF2', 99.6]]));
+    const none = await http()
+      .post(`/api/designs/${id}/versions/1/grow`)
+      .set('Cookie', mira)
+      .send({ allowedMaterialIds: [] });
+    expect(none.body.details).toContain('allowedMaterialIds: choose at least one material');
+    const ghost = await http()
+      .post(`/api/designs/${id}/versions/1/grow`)
+      .set('Cookie', mira)
+      .send({ allowedMaterialIds: [987654] });
+    expect(ghost.body.details).toEqual(['allowedMaterialIds: material 987654 does not exist']);
+  });
+});
+
+describe('Yield forecast', () => {
+  it('gives 100 % with zero error when the nominal passes, less with errors, and can be cancelled', async () => {
+    // A 4-layer broadband AR that passes the mask nominally (fitted once here).
+    const id = await create(
+      design('Yield base', [
+        ['MgF2', 94],
+        ['ZrO2', 130],
+        ['Al2O3', 80],
+        ['MgF2', 20],
+      ]),
+    );
+    const fit = await http()
+      .post(`/api/designs/${id}/versions/1/fit`)
+      .set('Cookie', mira)
+      .send({ maxIterations: 80 });
+    const fitted = await finished(fit.body.id);
+    const v2 = (await http().post(`/api/calculations/${fit.body.id}/accept`).set('Cookie', mira).send({}))
+      .body.number;
+    const ask = (body: object) =>
+      http().post(`/api/designs/${id}/versions/${v2}/yield`).set('Cookie', mira).send(body);
+    const zero = await finished((await ask({ trials: 200, thickness: { relativePercent: 0 } })).body.id);
+    expect(zero.status, zero.error).toBe('completed');
+    expect(zero.summary.yieldFraction).toBe(fitted.summary.pass ? 1 : 0);
+    const noisy = await finished(
+      (await ask({ trials: 400, seed: 7, thickness: { relativePercent: 3 } })).body.id,
+    );
+    expect(noisy.summary.yieldFraction).toBeLessThanOrEqual(zero.summary.yieldFraction);
+    expect(noisy.summary.sensitivity.length).toBe(4);
+
+    const big = await ask({ trials: 100000, seed: 3, thickness: { relativePercent: 1 } });
+    const until = Date.now() + 30_000;
+    while (
+      (await http().get(`/api/calculations/${big.body.id}`).set('Cookie', mira)).body.status !== 'running'
+    ) {
+      if (Date.now() > until) throw new Error('never started');
+      await new Promise((r) => setTimeout(r, 100));
+    }
+    expect((await http().post(`/api/calculations/${big.body.id}/cancel`).set('Cookie', mira)).status).toBe(
+      201,
+    );
+    const stopped = await finished(big.body.id);
+    expect(stopped.status).toBe('cancelled');
+    expect(stopped.summary).toBeNull();
+  }, 180_000);
+
+  it('checks the number of trials', async () => {
+    const id = await create(design('Trials', [['MgF2', 99.6]]));
+    const res = await http()
+      .post(`/api/designs/${id}/versions/1/yield`)
+      .set('Cookie', mira)
+      .send({ trials: 0, thickness: {} });
+    expect(res.status).toBe(400);
+    expect(res.body.details).toContain('trials must be from 1 to 100000');
+  });
+});
+
+describe('Run diagnosis', () => {
+  it('recovers a layer deposited 8 % thick from a noisy measured spectrum, within 1 %', async () => {
+    const layers: [string, number][] = [
+      ['MgF2', 92],
+      ['ZrO2', 125],
+      ['Al2O3', 78],
+      ['MgF2', 24],
+    ];
+    const id = await approvedDesign(app, mira, tomas, design('Diagnose me', layers), true);
+    const chamberId = (await http().get('/api/chambers').set('Cookie', operator)).body[0].id;
+    const run = await http()
+      .post('/api/runs')
+      .set('Cookie', operator)
+      .send({ designId: id, versionNumber: 1, chamberId, lotNumber: 'D-8', runDate: '2026-12-01' });
+    // The "measured" part: layer 2 (ZrO2) 8 % thick, plus ±0.005 % noise (a fixed pseudo-random sequence).
+    const { version, stack } = await stackOf(id, 1);
+    const built = {
+      ...stack,
+      layers: stack.layers.map((l, i) => (i === 1 ? { ...l, thicknessNm: l.thicknessNm * 1.08 } : l)),
+    };
+    const wavelengthsNm = Array.from({ length: 301 }, (_, i) => 400 + i);
+    const R = calculateSpectrum(
+      built,
+      { wavelengthsNm, anglesDeg: [8], polarisations: ['avg'] },
+      { back: engineBackSurface(version.backSurface) },
+    ).R;
+    let seed = 12345;
+    const noise = () => ((seed = (seed * 1103515245 + 12345) % 2 ** 31) / 2 ** 31 - 0.5) * 0.01;
+    const csv = [
+      'wavelength_nm,R_percent',
+      ...wavelengthsNm.map((wl, i) => `${wl},${(R[i] * 100 + noise()).toFixed(5)}`),
+    ].join('\n');
+    const up = await http()
+      .post(`/api/runs/${run.body.id}/spectra`)
+      .set('Cookie', operator)
+      .send({ filename: 'lot-D-8.csv', csv, angleDeg: 8, sample: 'witness' });
+    expect(up.status).toBe(201);
+    const sub = await http()
+      .post(`/api/runs/${run.body.id}/spectra/${up.body.id}/diagnosis`)
+      .set('Cookie', mira)
+      .send({});
+    expect(sub.status, JSON.stringify(sub.body)).toBe(201);
+    const done = await finished(sub.body.id);
+    expect(done.status, done.error).toBe('completed');
+    const top = done.summary.layers[0];
+    expect(top.layer).toBe(2);
+    expect(top.deviationPercent).toBeGreaterThan(7);
+    expect(top.deviationPercent).toBeLessThan(9);
+    for (const other of done.summary.layers.slice(1))
+      expect(Math.abs(other.deviationPercent)).toBeLessThan(1);
+  });
+});
