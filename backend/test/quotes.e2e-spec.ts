@@ -6,7 +6,7 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { approvedDesign } from './support/approved.js';
 import { binary } from './support/binary.js';
 import { createTestApp, demoSession } from './support/app.js';
-import { customerId, materialIds } from './support/fixtures.js';
+import { customerId, maskId, materialIds } from './support/fixtures.js';
 
 let app: NestExpressApplication;
 let sales: string;
@@ -15,7 +15,7 @@ let tomas: string;
 let admin: string;
 let designId: number;
 let halden: number;
-let maskId: number;
+let haldenMask: number;
 
 const http = () => request(app.getHttpServer());
 async function pdfText(buf: Buffer): Promise<string> {
@@ -36,11 +36,11 @@ beforeAll(async () => {
   admin = await demoSession(app, 'admin');
   const m = await materialIds(app, mira);
   halden = await customerId(app, mira, 'Halden Vision Systems');
-  maskId = (await http().get(`/api/spec-masks?customerId=${halden}`).set('Cookie', mira)).body[0].id;
+  haldenMask = await maskId(app, mira, halden, 'HVS-2210 lens AR');
   designId = await approvedDesign(app, mira, tomas, {
     name: 'HVS lens AR',
     customerId: halden,
-    specMaskId: maskId,
+    specMaskId: haldenMask,
     incidentMaterialId: m['Air'],
     substrateMaterialId: m['N-BK7'],
     substrateThicknessMm: 3,
@@ -109,7 +109,7 @@ describe('compliance reports', () => {
       .send({
         name: 'Draft only',
         customerId: halden,
-        specMaskId: maskId,
+        specMaskId: haldenMask,
         incidentMaterialId: m['Air'],
         substrateMaterialId: m['N-BK7'],
         substrateThicknessMm: 3,
@@ -166,7 +166,7 @@ describe('quotes', () => {
       .send({
         name: 'Unapproved',
         customerId: halden,
-        specMaskId: maskId,
+        specMaskId: haldenMask,
         incidentMaterialId: m['Air'],
         substrateMaterialId: m['N-BK7'],
         substrateThicknessMm: 3,

@@ -3,7 +3,7 @@ import request from 'supertest';
 import { DataSource } from 'typeorm';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { createTestApp, demoSession } from './support/app.js';
-import { customerId, materialIds } from './support/fixtures.js';
+import { customerId, maskId, materialIds } from './support/fixtures.js';
 
 let app: NestExpressApplication;
 let mira: string;
@@ -21,7 +21,7 @@ beforeAll(async () => {
   operator = await demoSession(app, 'operator');
   const m = await materialIds(app, mira);
   const halden = await customerId(app, mira, 'Halden Vision Systems');
-  const mask = (await http().get(`/api/spec-masks?customerId=${halden}`).set('Cookie', mira)).body[0];
+  const mask = { id: await maskId(app, mira, halden, 'HVS-2210 lens AR') };
   const design = await http()
     .post('/api/designs')
     .set('Cookie', mira)

@@ -36,3 +36,18 @@ export function versionContent(design: ReturnType<typeof twoLayerDesign>) {
   const { name: _name, customerId: _customer, ...content } = design;
   return content;
 }
+
+/** A spec mask of a customer by name (lists are sorted by name, and other tests add masks). */
+export async function maskId(
+  app: INestApplication,
+  cookie: string,
+  customer: number,
+  name: string,
+): Promise<number> {
+  const res = await request(app.getHttpServer())
+    .get(`/api/spec-masks?customerId=${customer}`)
+    .set('Cookie', cookie);
+  const found = (res.body as { id: number; name: string }[]).find((m) => m.name === name);
+  if (!found) throw new Error(`customer ${customer} has no spec mask ${name}`);
+  return found.id;
+}

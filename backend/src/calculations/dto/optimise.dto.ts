@@ -12,8 +12,7 @@ import {
   Min,
   ValidateNested,
 } from 'class-validator';
-
-const finite = { allowNaN: false, allowInfinity: false } as const;
+import { finite } from '../../common/dto.js';
 
 class MaskChoice {
   /** Defaults to the design's own spec mask. */

@@ -14,8 +14,7 @@ import {
   MinLength,
   ValidateNested,
 } from 'class-validator';
-
-const finite = { allowNaN: false, allowInfinity: false } as const;
+import { finite } from '../../common/dto.js';
 
 export class ChamberMaterialDto {
   @IsInt({ message: 'materialId must be a material id' })

@@ -16,9 +16,7 @@ import {
   ValidateNested,
 } from 'class-validator';
 import { BACK_SURFACE_TREATMENTS, type BackSurfaceTreatment } from '@quietglass/shared/designs';
-
-const trim = ({ value }: { value: unknown }) => (typeof value === 'string' ? value.trim() : value);
-const finite = { allowNaN: false, allowInfinity: false } as const;
+import { finite, trim } from '../../common/dto.js';
 
 /** Most layers a design may have. */
 export const MAX_LAYERS = 400;

@@ -13,8 +13,7 @@ import {
   MinLength,
   ValidateNested,
 } from 'class-validator';
-
-const trim = ({ value }: { value: unknown }) => (typeof value === 'string' ? value.trim() : value);
+import { trim } from '../../common/dto.js';
 
 export class RangeDto {
   @IsNumber({ allowNaN: false, allowInfinity: false }, { message: 'rangeNm.from must be a number' })

@@ -17,15 +17,17 @@ import {
   MinLength,
   ValidateNested,
 } from 'class-validator';
+import { finite } from '../../common/dto.js';
 
-const finite = { allowNaN: false, allowInfinity: false, maxDecimalPlaces: 4 } as const;
+/** Prices: finite, at most 4 decimals. */
+const money = { ...finite, maxDecimalPlaces: 4 } as const;
 
 export class QuantityBreakDto {
   @IsInt({ message: 'minQuantity must be a whole number' })
   @Min(1, { message: 'minQuantity must be at least 1' })
   minQuantity: number;
 
-  @IsNumber(finite, { message: 'unitPrice must be a number with at most 4 decimals' })
+  @IsNumber(money, { message: 'unitPrice must be a number with at most 4 decimals' })
   @Min(0, { message: 'unitPrice must not be negative' })
   @Max(1e9)
   unitPrice: number;

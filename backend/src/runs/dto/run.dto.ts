@@ -15,9 +15,7 @@ import {
   MinLength,
   ValidateNested,
 } from 'class-validator';
-
-const trim = ({ value }: { value: unknown }) => (typeof value === 'string' ? value.trim() : value);
-const finite = { allowNaN: false, allowInfinity: false } as const;
+import { finite, trim } from '../../common/dto.js';
 
 export class StartRunDto {
   @IsInt({ message: 'designId must be a design id' })

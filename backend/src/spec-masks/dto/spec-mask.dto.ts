@@ -1,7 +1,6 @@
 import { Transform } from 'class-transformer';
 import { IsArray, IsInt, IsOptional, IsString, MaxLength, Min, MinLength } from 'class-validator';
-
-const trim = ({ value }: { value: unknown }) => (typeof value === 'string' ? value.trim() : value);
+import { trim } from '../../common/dto.js';
 
 class SpecMaskMeta {
   @Transform(trim)
