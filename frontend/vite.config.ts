@@ -22,6 +22,8 @@ export default defineConfig({
     outDir: 'dist',
     emptyOutDir: true,
   },
+  // The preview worker is a module worker (`new Worker(url, { type: 'module' })`).
+  worker: { format: 'es' },
   test: {
     environment: 'jsdom',
     include: ['src/**/*.test.{ts,tsx}'],

@@ -146,6 +146,8 @@ async function main() {
       database: 'quietglass_browser',
     });
     pg.resetDatabase();
+    // Jobs the backend tests left in Redis belong to another database: start the queue empty too.
+    runStep('emptying the test Redis…', 'redis-cli', ['-u', env.REDIS_URL, 'flushall']);
     const browserEnv = {
       ...env,
       DATABASE_URL: pg.url,

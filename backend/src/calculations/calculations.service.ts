@@ -25,8 +25,11 @@ import type { User } from '../users/user.entity.js';
 import { Calculation, type CalculationKind } from './calculation.entity.js';
 import type { OptimiseInput, OptimiseKind } from './optimise-jobs.js';
 
-/** The BullMQ job id of a calculation (one job per calculation, so a double add is a no-op). */
-export const jobIdOf = (calculationId: number) => `calc-${calculationId}`;
+/**
+ * The BullMQ job id of a calculation: one job per calculation, so a double add is a no-op. The
+ * creation time keeps ids unique even when a database is recreated while Redis keeps old jobs.
+ */
+export const jobIdOf = (c: Pick<Calculation, 'id' | 'createdAt'>) => `calc-${c.id}-${c.createdAt.getTime()}`;
 
 @Injectable()
 export class CalculationsService {
@@ -95,7 +98,7 @@ export class CalculationsService {
       ANALYSIS_JOB,
       { calculationId: saved.id },
       {
-        jobId: jobIdOf(saved.id),
+        jobId: jobIdOf(saved),
         attempts: 1,
         removeOnComplete: { age: 3600 },
         removeOnFail: { age: 86_400 },
@@ -139,7 +142,7 @@ export class CalculationsService {
       kind,
       { calculationId: saved.id },
       {
-        jobId: jobIdOf(saved.id),
+        jobId: jobIdOf(saved),
         attempts: 1,
         removeOnComplete: { age: 3600 },
         removeOnFail: { age: 86_400 },
@@ -172,7 +175,7 @@ export class CalculationsService {
     );
     if (result.affected !== 1) return this.cancelRace(id);
     // A waiting job is removed; a running one sees the status between slices and stops.
-    await this.queue.remove(jobIdOf(id)).catch(() => 0);
+    await this.queue.remove(jobIdOf(calc)).catch(() => 0);
     return this.get(id);
   }
 

@@ -13,19 +13,52 @@ import { SignInRoute } from './routes/sign-in-route';
 
 export type AppRouter = ReturnType<typeof createBrowserRouter>;
 
-/** The page of a section; the users page (with the data grid) loads on first visit. */
+/** The page of a section; pages with the data grid and plots load on first visit. */
 function sectionPage(section: NavSection): RouteObject {
   const path = section.path.slice(1);
-  if (section.key === 'users') {
-    return { path, lazy: async () => ({ Component: (await import('./routes/users-route')).UsersRoute }) };
+  switch (section.key) {
+    case 'users':
+      return { path, lazy: async () => ({ Component: (await import('./routes/users-route')).UsersRoute }) };
+    case 'materials':
+      return {
+        path,
+        lazy: async () => ({ Component: (await import('./routes/materials-route')).MaterialsRoute }),
+      };
+    case 'masks':
+      return {
+        path,
+        lazy: async () => ({ Component: (await import('./routes/spec-masks-route')).SpecMasksRoute }),
+      };
+    case 'queue':
+      return {
+        path,
+        lazy: async () => ({ Component: (await import('./routes/compute-queue-route')).ComputeQueueRoute }),
+      };
+    case 'designs':
+      return {
+        path,
+        children: [
+          {
+            index: true,
+            lazy: async () => ({ Component: (await import('./routes/designs-route')).DesignsRoute }),
+          },
+          {
+            path: ':id',
+            lazy: async () => ({
+              Component: (await import('./routes/design-workspace-route')).DesignWorkspaceRoute,
+            }),
+          },
+        ],
+      };
+    default:
+      return { path, element: <SectionNotAvailableRoute section={section} /> };
   }
-  return { path, element: <SectionNotAvailableRoute section={section} /> };
 }
 
 export const appRoutes: RouteObject[] = [
   {
     errorElement: <RouteError />,
-    // Shown while a page loaded on first visit (the users page) arrives on a fresh page load.
+    // Shown while a page loaded on first visit arrives on a fresh page load.
     hydrateFallbackElement: <LoadingBlock label="Loading the page" />,
     children: [
       { path: '/sign-in', element: <SignInRoute /> },

@@ -13,4 +13,10 @@ export const SECTION_SUMMARIES: Readonly<Record<NavSection['key'], string>> = {
 };
 
 /** Sections whose pages exist in this release; the others show a plain "not available yet". */
-export const AVAILABLE_SECTIONS: ReadonlySet<NavSection['key']> = new Set(['users']);
+export const AVAILABLE_SECTIONS: ReadonlySet<NavSection['key']> = new Set([
+  'users',
+  'designs',
+  'materials',
+  'masks',
+  'queue',
+]);

@@ -132,4 +132,10 @@ export const apiClient = {
   get: <T>(path: string, signal?: AbortSignal) => apiRequest<T>(path, { method: 'GET', signal }),
   post: <T>(path: string, body?: unknown) => apiRequest<T>(path, { method: 'POST', body }),
   patch: <T>(path: string, body: unknown) => apiRequest<T>(path, { method: 'PATCH', body }),
+  put: <T>(path: string, body: unknown) => apiRequest<T>(path, { method: 'PUT', body }),
 };
+
+/** The address of an API route for a link or download (the browser fetches it itself). */
+export function apiUrl(path: string): string {
+  return `${API_BASE}${path}`;
+}

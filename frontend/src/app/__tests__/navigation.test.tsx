@@ -81,11 +81,45 @@ describe('side navigation', () => {
 
   it('marks the current page in the navigation', async () => {
     mockApi({ 'GET /api/auth/me': { status: 200, body: { user: STAFF.engineer } } });
-    renderApp('/materials');
+    renderApp('/runs');
 
     const nav = await screen.findByRole('navigation', { name: 'Main' });
-    expect(within(nav).getByRole('link', { name: 'Materials' }).getAttribute('aria-current')).toBe('page');
+    expect(within(nav).getByRole('link', { name: 'Chamber runs' }).getAttribute('aria-current')).toBe('page');
     expect(within(nav).getByRole('link', { name: 'Home' }).getAttribute('aria-current')).toBeNull();
-    expect(screen.getByText('Materials is not available yet in this release.')).toBeTruthy();
+    expect(screen.getByText('Chamber runs is not available yet in this release.')).toBeTruthy();
+  });
+
+  it.each([
+    ['/designs', 'Stack designs'],
+    ['/materials', 'Materials'],
+    ['/spec-masks', 'Spec masks'],
+    ['/compute-queue', 'Compute queue'],
+  ])('opens the %s page instead of a placeholder', async (path, title) => {
+    mockApi({
+      'GET /api/auth/me': { status: 200, body: { user: STAFF.engineer } },
+      'GET /api/designs': { status: 200, body: [] },
+      'GET /api/materials': { status: 200, body: [] },
+      'GET /api/customers': { status: 200, body: [] },
+      'GET /api/spec-masks': { status: 200, body: [] },
+      'GET /api/calculations': { status: 200, body: [] },
+    });
+    renderApp(path);
+
+    expect(await screen.findByRole('heading', { level: 1, name: title }, { timeout: 10_000 })).toBeTruthy();
+    expect(screen.queryByText(`${title} is not available yet in this release.`)).toBeNull();
+  });
+
+  it('keeps the placeholder for sections this release does not have', async () => {
+    mockApi({
+      'GET /api/auth/me': { status: 200, body: { user: STAFF.admin } },
+      'GET /api/health': { status: 200, body: HEALTH_OK },
+    });
+    renderApp('/');
+
+    const cards = within(await screen.findByRole('list', { name: 'Your sections' })).getAllByRole('listitem');
+    const unavailable = cards
+      .filter((card) => card.textContent?.includes('Not available yet in this release'))
+      .map((card) => within(card).getByRole('heading').textContent);
+    expect(unavailable).toEqual(['Released recipes', 'Chamber runs', 'Quotes']);
   });
 });

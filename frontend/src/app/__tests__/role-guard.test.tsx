@@ -20,8 +20,13 @@ describe('role guard', () => {
     signedInAs(role);
     renderApp(path);
 
+    // The section's page (with the data grid) is loaded on first visit, which takes a while here.
     expect(
-      await screen.findByRole('heading', { level: 1, name: 'Not permitted for your role' }),
+      await screen.findByRole(
+        'heading',
+        { level: 1, name: 'Not permitted for your role' },
+        { timeout: 10_000 },
+      ),
     ).toBeTruthy();
     expect(
       screen.getByText(

@@ -15,7 +15,8 @@ describe('session', () => {
     mockApi({ 'GET /api/auth/me': apiError(401, 'Unauthorized', 'Not signed in.') });
     const { router } = renderApp('/materials');
 
-    expect(await screen.findByRole('button', { name: 'Sign in' })).toBeTruthy();
+    // The materials page is loaded on first visit, which takes a while in the test runner.
+    expect(await screen.findByRole('button', { name: 'Sign in' }, { timeout: 10_000 })).toBeTruthy();
     expect(router.state.location.pathname).toBe('/sign-in');
     expect(router.state.location.search).toBe('?next=%2Fmaterials');
     expect(screen.queryByRole('navigation', { name: 'Main' })).toBeNull();

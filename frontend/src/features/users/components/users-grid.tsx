@@ -5,17 +5,11 @@ import { DataGrid, type GridColDef } from '@mui/x-data-grid';
 import { ROLES, isRole, type UserView } from '@quietglass/shared';
 import { useMemo, useState } from 'react';
 import { ErrorAlert } from '../../../components/error-alert';
+import { formatDateTime } from '../../../lib/format';
 import { ROLE_LABELS } from '../../../lib/roles';
 import { useUsers } from '../api/get-users';
 import { useUpdateUser } from '../api/update-user';
 import { ResetPasswordDialog } from './reset-password-dialog';
-
-const createdFormat = new Intl.DateTimeFormat(undefined, { dateStyle: 'medium', timeStyle: 'short' });
-
-function formatCreated(value: string): string {
-  const date = new Date(value);
-  return Number.isNaN(date.getTime()) ? value : createdFormat.format(date);
-}
 
 const SELF_HINT = 'Your own role and active flag can only be changed by another administrator.';
 
@@ -82,7 +76,7 @@ export function UsersGrid({ currentUserId }: UsersGridProps) {
         field: 'createdAt',
         headerName: 'Created',
         width: 180,
-        valueFormatter: (value: string) => formatCreated(value),
+        valueFormatter: (value: string) => formatDateTime(value),
       },
       {
         field: 'actions',

@@ -1,0 +1,258 @@
+import { screen, waitFor, within } from '@testing-library/react';
+import type { LimitBand } from '@quietglass/shared';
+import { describe, expect, it, vi } from 'vitest';
+import { TEST_DESIGN, TEST_MATERIALS, testVersion } from '../../../test/design-fixtures';
+import { apiError, mockApi } from '../../../test/mock-api';
+import { renderWithProviders } from '../../../test/render';
+import { DesignWorkspace } from '../components/design-workspace';
+import type { PreviewRequest } from '../preview/compute-preview';
+import { createInlinePreviewComputer } from '../preview/preview-computer';
+import { PreviewComputerProvider } from '../preview/preview-context';
+
+vi.mock('../../../components/plot', () => import('../../../test/plot-mock'));
+
+// Answers: the Stack designs endpoints of the design-workspace API contract (GET/PUT
+// /designs/:id/versions/:n with rowVersion; 409 on a stale rowVersion; POST /designs/:id/versions).
+
+const VERSION_URL = '/api/designs/12/versions/1';
+const STALE_MESSAGE =
+  'Version 1 was saved by someone else since you opened it; reload to see their changes (nothing of yours was saved)';
+
+// Quarter-wave MgF2 (n 1.38) on n 1.52 from air reflects 1.26 % at 550 nm (Macleod ch. 2), inside
+// R ≤ 1.5 %; a 10 nm layer leaves R near the bare glass's 4.26 % (Hecht ch. 4), outside it.
+const MASK: LimitBand[] = [
+  {
+    from_nm: 545,
+    to_nm: 555,
+    angles_deg: [0],
+    polarisation: 'avg',
+    quantity: 'R',
+    max_percent: 1.5,
+    step_nm: 1,
+  },
+];
+
+type User = ReturnType<typeof renderWithProviders>['user'];
+
+function layer(materialId: number, thicknessNm: number) {
+  return { materialId, thicknessNm, locked: false, notes: '' };
+}
+
+function renderWorkspace(
+  options: { status?: 'draft' | 'submitted'; onVersionChange?: (n: number) => void } = {},
+) {
+  const requests: PreviewRequest[] = [];
+  const inline = createInlinePreviewComputer();
+  const computer = {
+    compute: (request: PreviewRequest) => {
+      requests.push(request);
+      return inline.compute(request);
+    },
+    dispose: () => {},
+  };
+  const view = renderWithProviders(
+    <PreviewComputerProvider computer={computer}>
+      <DesignWorkspace
+        design={TEST_DESIGN}
+        versionNumber={1}
+        onVersionChange={options.onVersionChange ?? (() => {})}
+        library={TEST_MATERIALS}
+        maskBands={MASK}
+        maskName="Fenwick lens AR rev A"
+        canEdit
+      />
+    </PreviewComputerProvider>,
+  );
+  return { ...view, requests };
+}
+
+function gridCell(row: number, col: number): HTMLElement {
+  const grid = screen.getByRole('grid', { name: 'Layer grid' });
+  return within(within(grid).getAllByRole('row')[row + 1]).getAllByRole('gridcell')[col];
+}
+
+async function setThickness(user: User, row: number, text: string) {
+  await user.dblClick(gridCell(row, 2));
+  const input = await within(gridCell(row, 2)).findByRole('textbox');
+  await user.clear(input);
+  await user.type(input, `${text}{Enter}`);
+}
+
+function saveButton(): HTMLButtonElement {
+  return screen.getByRole('button', { name: 'Save' }) as HTMLButtonElement;
+}
+
+describe('DesignWorkspace', () => {
+  it('shows Fail, then Pass once the thickness reaches a quarter wave', async () => {
+    mockApi({ [`GET ${VERSION_URL}`]: { status: 200, body: testVersion({ layers: [layer(4, 10)] }) } });
+    const { user, requests } = renderWorkspace();
+
+    const badge = await screen.findByRole('status', { name: 'Spec mask result' });
+    await waitFor(() => expect(within(badge).getByText('Fail')).toBeTruthy(), { timeout: 5000 });
+    expect(badge.textContent).toContain('Fenwick lens AR rev A');
+
+    await setThickness(user, 0, '99.64');
+    await waitFor(() => expect(within(badge).getByText('Pass')).toBeTruthy(), { timeout: 5000 });
+    expect(within(badge).queryByText('Fail')).toBeNull();
+    // 1.5 − R(545 nm) is the worst margin, R rising away from the 550 nm minimum.
+    expect(badge.textContent).toMatch(/Worst margin \+0\.\d{3} percentage points at (545|555) nm, 0°/);
+    // What went to the worker: the design's stack, its mask and the front surface alone.
+    const last = requests[requests.length - 1];
+    expect(last.maskBands).toEqual(MASK);
+    expect(last.back).toBe('none');
+    expect(last.stack.layers).toEqual([{ material: 'material-4', thickness_nm: 99.64, label: '1 MgF2' }]);
+    // Rv and a swatch of the reflected colour are shown beside the badge.
+    expect(screen.getByRole('group', { name: 'Reflected colour' }).textContent).toMatch(/^Rv \d+\.\d\d %/);
+  });
+
+  it('marks a negative thickness in the grid and disables Save with the reason', async () => {
+    mockApi({
+      [`GET ${VERSION_URL}`]: {
+        status: 200,
+        body: testVersion({ layers: [layer(4, 99.64), layer(5, 58.51)] }),
+      },
+    });
+    const { user } = renderWorkspace();
+    await screen.findByRole('grid', { name: 'Layer grid' });
+    expect(saveButton().disabled).toBe(true);
+    expect(screen.getByText('No unsaved changes')).toBeTruthy();
+
+    await setThickness(user, 1, '-20');
+
+    await waitFor(() => expect(gridCell(1, 2).textContent).toBe('-20must be greater than 0 nm'));
+    expect(saveButton().disabled).toBe(true);
+    const reasonId = saveButton().getAttribute('aria-describedby') ?? '';
+    expect(document.getElementById(reasonId)?.textContent).toBe(
+      'Cannot save: Layer 2: thickness must be greater than 0 nm',
+    );
+
+    await setThickness(user, 1, '20');
+    await waitFor(() => expect(saveButton().disabled).toBe(false));
+  });
+
+  it('on a stale save shows the server message and replaces the grid only after the user confirms Reload', async () => {
+    const theirs = testVersion({ rowVersion: 2, layers: [layer(5, 58.51), layer(4, 99.64)] });
+    const api = mockApi({
+      [`GET ${VERSION_URL}`]: [
+        { status: 200, body: testVersion({ layers: [layer(4, 90)] }) },
+        { status: 200, body: theirs },
+      ],
+      [`PUT ${VERSION_URL}`]: apiError(409, 'Conflict', STALE_MESSAGE),
+    });
+    const { user } = renderWorkspace();
+    await screen.findByRole('grid', { name: 'Layer grid' });
+
+    await setThickness(user, 0, '99.64');
+    await waitFor(() => expect(saveButton().disabled).toBe(false));
+    await user.click(saveButton());
+
+    const alert = await screen.findByText(STALE_MESSAGE);
+    expect(api.calls('PUT', VERSION_URL).map((r) => r.body)).toEqual([
+      {
+        incidentMaterialId: 1,
+        substrateMaterialId: 2,
+        substrateThicknessMm: 2,
+        backSurface: 'front-only',
+        referenceWavelengthNm: 550,
+        notes: '',
+        layers: [layer(4, 99.64)],
+        rowVersion: 1,
+      },
+    ]);
+
+    // Reload asks first; keeping the edits changes nothing.
+    await user.click(
+      within(alert.closest('[role="alert"]') as HTMLElement).getByRole('button', { name: 'Reload' }),
+    );
+    const ask = within(
+      await screen.findByRole('dialog', { name: 'Replace your grid with the saved version?' }),
+    );
+    await user.click(ask.getByRole('button', { name: 'Keep my changes' }));
+    await waitFor(() => expect(screen.queryByRole('dialog')).toBeNull());
+    expect(gridCell(0, 2).textContent).toBe('99.64');
+    expect(api.calls('GET', VERSION_URL)).toHaveLength(1);
+
+    await user.click(screen.getByRole('button', { name: 'Reload' }));
+    const again = within(
+      await screen.findByRole('dialog', { name: 'Replace your grid with the saved version?' }),
+    );
+    await user.click(again.getByRole('button', { name: 'Replace with saved version' }));
+
+    await waitFor(() => expect(gridCell(0, 1).textContent).toBe('TiO2'));
+    expect(gridCell(0, 2).textContent).toBe('58.51');
+    expect(gridCell(1, 2).textContent).toBe('99.64');
+    expect(api.calls('GET', VERSION_URL)).toHaveLength(2);
+    expect(screen.queryByText(STALE_MESSAGE)).toBeNull();
+  });
+
+  it('saves a draft with its rowVersion and then has nothing unsaved', async () => {
+    const api = mockApi({
+      [`GET ${VERSION_URL}`]: { status: 200, body: testVersion({ layers: [layer(4, 90)] }) },
+      [`PUT ${VERSION_URL}`]: (request) => ({
+        status: 200,
+        body: { ...testVersion(), ...(request.body as object), rowVersion: 2 },
+      }),
+      'GET /api/designs/12': { status: 200, body: TEST_DESIGN },
+      'GET /api/designs': { status: 200, body: [] },
+    });
+    const { user } = renderWorkspace();
+    await screen.findByRole('grid', { name: 'Layer grid' });
+
+    await setThickness(user, 0, '99.64');
+    await user.click(saveButton());
+
+    await waitFor(() => expect(screen.getByText('No unsaved changes')).toBeTruthy());
+    expect((api.calls('PUT', VERSION_URL)[0].body as { rowVersion: number }).rowVersion).toBe(1);
+  });
+
+  it('submits a saved draft for approval after confirming, and then shows it read-only', async () => {
+    const api = mockApi({
+      [`GET ${VERSION_URL}`]: {
+        status: 200,
+        body: testVersion({ rowVersion: 3, layers: [layer(4, 99.64)] }),
+      },
+      [`POST ${VERSION_URL}/submit`]: {
+        status: 201,
+        body: testVersion({ status: 'submitted', rowVersion: 4, layers: [layer(4, 99.64)] }),
+      },
+      'GET /api/designs/12': { status: 200, body: TEST_DESIGN },
+      'GET /api/designs': { status: 200, body: [] },
+    });
+    const { user } = renderWorkspace();
+    await screen.findByRole('grid', { name: 'Layer grid' });
+
+    await user.click(screen.getByRole('button', { name: 'Submit for approval' }));
+    const ask = within(await screen.findByRole('dialog', { name: 'Submit version 1 for approval?' }));
+    await user.click(ask.getByRole('button', { name: 'Submit' }));
+
+    expect(await screen.findByText(/Version 1 is submitted and read-only/)).toBeTruthy();
+    expect(api.calls('POST', `${VERSION_URL}/submit`).map((r) => r.body)).toEqual([{ rowVersion: 3 }]);
+    expect(screen.queryByRole('toolbar', { name: 'Layer tools' })).toBeNull();
+  });
+
+  it('shows a submitted version read-only and starts a new version from it', async () => {
+    const onVersionChange = vi.fn();
+    const api = mockApi({
+      [`GET ${VERSION_URL}`]: {
+        status: 200,
+        body: testVersion({ status: 'submitted', layers: [layer(4, 99.64)] }),
+      },
+      'POST /api/designs/12/versions': {
+        status: 201,
+        body: testVersion({ number: 2, layers: [layer(4, 99.64)] }),
+      },
+      'GET /api/designs/12': { status: 200, body: TEST_DESIGN },
+      'GET /api/designs': { status: 200, body: [] },
+    });
+    const { user } = renderWorkspace({ onVersionChange });
+    await screen.findByRole('grid', { name: 'Layer grid' });
+
+    expect(screen.queryByRole('toolbar', { name: 'Layer tools' })).toBeNull();
+    expect(screen.queryByRole('button', { name: 'Save' })).toBeNull();
+    expect(screen.getByText(/Version 1 is submitted and read-only/)).toBeTruthy();
+
+    await user.click(screen.getByRole('button', { name: 'Start new version' }));
+    await waitFor(() => expect(onVersionChange).toHaveBeenCalledWith(2));
+    expect(api.calls('POST', '/api/designs/12/versions').map((r) => r.body)).toEqual([{ fromNumber: 1 }]);
+  });
+});

@@ -1,0 +1,106 @@
+import Box from '@mui/material/Box';
+import MenuItem from '@mui/material/MenuItem';
+import TextField from '@mui/material/TextField';
+import type { DesignView, LimitBand } from '@quietglass/shared';
+import { useQueryClient } from '@tanstack/react-query';
+import { useCallback, useState } from 'react';
+import { ConfirmDialog } from '../../../components/confirm-dialog';
+import { ErrorAlert } from '../../../components/error-alert';
+import { LoadingBlock } from '../../../components/loading-block';
+import { getDesignQueryOptions } from '../api/get-design';
+import { getDesignVersionQueryOptions, useDesignVersion } from '../api/get-design-version';
+import type { LibraryMaterial } from '../layers';
+import { VersionEditor } from './version-editor';
+
+interface DesignWorkspaceProps {
+  design: DesignView;
+  /** The version shown; the route keeps it in the address. */
+  versionNumber: number;
+  onVersionChange: (number: number) => void;
+  library: readonly LibraryMaterial[];
+  maskBands: LimitBand[] | null;
+  maskName: string | null;
+  canEdit: boolean;
+}
+
+/** The version picker for the design and, below it, the open version's editor. */
+export function DesignWorkspace({
+  design,
+  versionNumber,
+  onVersionChange,
+  library,
+  maskBands,
+  maskName,
+  canEdit,
+}: DesignWorkspaceProps) {
+  const queryClient = useQueryClient();
+  const version = useDesignVersion(design.id, versionNumber);
+  const [loadCount, setLoadCount] = useState(0);
+  const [dirty, setDirty] = useState(false);
+  const [switchTo, setSwitchTo] = useState<number | null>(null);
+
+  const reload = useCallback(async () => {
+    await queryClient.fetchQuery({ ...getDesignVersionQueryOptions(design.id, versionNumber), staleTime: 0 });
+    await queryClient.invalidateQueries({ queryKey: getDesignQueryOptions(design.id).queryKey, exact: true });
+    setLoadCount((n) => n + 1);
+  }, [queryClient, design.id, versionNumber]);
+
+  const choose = (number: number) => {
+    if (number === versionNumber) return;
+    if (dirty) setSwitchTo(number);
+    else onVersionChange(number);
+  };
+
+  return (
+    <Box sx={{ display: 'grid', gap: 2 }}>
+      <TextField
+        select
+        size="small"
+        label="Version"
+        value={String(versionNumber)}
+        onChange={(event) => choose(Number(event.target.value))}
+        sx={{ width: 260 }}
+      >
+        {design.versions.map((v) => (
+          <MenuItem key={v.number} value={String(v.number)}>
+            Version {v.number} · {v.status} · {v.createdBy}
+          </MenuItem>
+        ))}
+      </TextField>
+      {version.isPending && <LoadingBlock label="Loading the version" />}
+      {version.isError && <ErrorAlert error={version.error} title="The version could not be loaded" />}
+      {version.data && (
+        <VersionEditor
+          key={`${version.data.number}:${loadCount}`}
+          version={version.data}
+          versions={design.versions}
+          library={library}
+          maskBands={maskBands}
+          maskName={maskName}
+          canEdit={canEdit}
+          onReload={reload}
+          onVersionCreated={(number) => {
+            setDirty(false);
+            onVersionChange(number);
+          }}
+          onDirtyChange={setDirty}
+        />
+      )}
+      <ConfirmDialog
+        open={switchTo !== null}
+        title="Leave your unsaved changes?"
+        confirmLabel="Discard and switch"
+        cancelLabel="Stay on this version"
+        onConfirm={() => {
+          if (switchTo !== null) onVersionChange(switchTo);
+          setDirty(false);
+          setSwitchTo(null);
+        }}
+        onCancel={() => setSwitchTo(null)}
+      >
+        The grid of version {versionNumber} has unsaved changes. Switching to version {switchTo} discards
+        them.
+      </ConfirmDialog>
+    </Box>
+  );
+}

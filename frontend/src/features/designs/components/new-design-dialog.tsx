@@ -1,0 +1,143 @@
+import Box from '@mui/material/Box';
+import type { DesignView } from '@quietglass/shared';
+import { useEffect } from 'react';
+import { useForm, useWatch } from 'react-hook-form';
+import { ErrorAlert } from '../../../components/error-alert';
+import { FormDialog } from '../../../components/form-dialog';
+import { FormSelectField, namedOptions } from '../../../components/form-select-field';
+import { FormTextField } from '../../../components/form-text-field';
+import { useCreateDesign } from '../api/create-design';
+import { contentOf, type HeaderValues } from '../header';
+import type { LibraryMaterial } from '../layers';
+import { VersionHeaderFields } from './version-header-fields';
+
+export interface NewDesignValues extends HeaderValues {
+  name: string;
+  customerId: string;
+  specMaskId: string;
+}
+
+interface NewDesignDialogProps {
+  open: boolean;
+  onClose: () => void;
+  onCreated: (design: DesignView) => void;
+  customers: readonly { id: number; name: string }[];
+  specMasks: readonly { id: number; name: string; revision: string; customer: { id: number } }[];
+  materials: readonly LibraryMaterial[];
+}
+
+// CreateDesignDto: name 1–160 characters.
+const MAX_NAME = 160;
+
+function emptyValues(materials: readonly LibraryMaterial[]): NewDesignValues {
+  const air = materials.find((m) => m.name.toLowerCase() === 'air');
+  return {
+    name: '',
+    customerId: '',
+    specMaskId: '',
+    incidentMaterialId: air ? String(air.id) : '',
+    substrateMaterialId: '',
+    substrateThicknessMm: '',
+    backSurface: 'front-only',
+    // 550 nm, the middle of the visible band, is the usual reference for visible AR (common practice, no source).
+    referenceWavelengthNm: '550',
+    notes: '',
+  };
+}
+
+/** A new stack design: its customer, their spec mask, the media and the reference wavelength. */
+export function NewDesignDialog({
+  open,
+  onClose,
+  onCreated,
+  customers,
+  specMasks,
+  materials,
+}: NewDesignDialogProps) {
+  const createDesign = useCreateDesign();
+  const { control, handleSubmit, reset, setValue } = useForm<NewDesignValues>({
+    defaultValues: emptyValues(materials),
+  });
+  const customerId = useWatch({ control, name: 'customerId' });
+  const masksOfCustomer = specMasks.filter((m) => String(m.customer.id) === customerId);
+  // A mask belongs to one customer: choosing another customer clears it.
+  useEffect(() => setValue('specMaskId', ''), [customerId, setValue]);
+
+  const close = () => {
+    reset(emptyValues(materials));
+    createDesign.reset();
+    onClose();
+  };
+
+  const onSubmit = handleSubmit((values) =>
+    createDesign.mutate(
+      {
+        name: values.name.trim(),
+        customerId: Number(values.customerId),
+        specMaskId: values.specMaskId === '' ? null : Number(values.specMaskId),
+        ...contentOf(values, []),
+      },
+      {
+        onSuccess: (design) => {
+          close();
+          onCreated(design);
+        },
+      },
+    ),
+  );
+
+  return (
+    <FormDialog
+      open={open}
+      title="New design"
+      submitLabel="Create design"
+      pending={createDesign.isPending}
+      onSubmit={onSubmit}
+      onClose={close}
+      maxWidth="md"
+    >
+      {createDesign.error && <ErrorAlert error={createDesign.error} />}
+      <Box
+        sx={{
+          display: 'grid',
+          gap: 2,
+          gridTemplateColumns: { xs: '1fr', sm: 'repeat(3, minmax(0, 1fr))' },
+          mt: 1,
+        }}
+      >
+        <FormTextField
+          control={control}
+          name="name"
+          rules={{
+            validate: (v) => v.trim() !== '' || 'Enter a name',
+            maxLength: { value: MAX_NAME, message: `At most ${MAX_NAME} characters` },
+          }}
+          label="Name"
+        />
+        <FormSelectField
+          control={control}
+          name="customerId"
+          rules={{ validate: (v) => v !== '' || 'Choose the customer' }}
+          label="Customer"
+          placeholder="Choose…"
+          options={namedOptions(customers)}
+        />
+        <FormSelectField
+          control={control}
+          name="specMaskId"
+          label="Spec mask"
+          placeholder="No spec mask"
+          disabled={customerId === ''}
+          helperText={
+            customerId === '' ? 'Choose the customer first' : `${masksOfCustomer.length} of their masks`
+          }
+          options={masksOfCustomer.map((m) => ({
+            value: String(m.id),
+            label: `${m.name} rev ${m.revision}`,
+          }))}
+        />
+      </Box>
+      <VersionHeaderFields control={control} materials={materials} disabled={false} size="medium" />
+    </FormDialog>
+  );
+}

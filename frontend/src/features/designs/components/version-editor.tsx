@@ -1,0 +1,321 @@
+import Alert from '@mui/material/Alert';
+import Box from '@mui/material/Box';
+import Button from '@mui/material/Button';
+import Chip from '@mui/material/Chip';
+import Paper from '@mui/material/Paper';
+import Typography from '@mui/material/Typography';
+import type { DesignVersionContent, DesignVersionView, LimitBand, NamedModel } from '@quietglass/shared';
+import { useEffect, useId, useMemo, useState } from 'react';
+import { useForm, useWatch } from 'react-hook-form';
+import { ConfirmDialog } from '../../../components/confirm-dialog';
+import { ConflictAlert } from '../../../components/conflict-alert';
+import { ErrorAlert } from '../../../components/error-alert';
+import { ApiError } from '../../../lib/api-client';
+import { formatDateTime } from '../../../lib/format';
+import { notify } from '../../../lib/notifier';
+import { useCreateDesignVersion } from '../api/create-design-version';
+import { useSaveDesignVersion } from '../api/save-design-version';
+import { useSubmitDesignVersion } from '../api/submit-design-version';
+import { contentOf, headerProblems, headerValuesOf, referenceOf, type HeaderValues } from '../header';
+import {
+  describeProblem,
+  layerProblems,
+  layersFromRows,
+  rowsFromLayers,
+  type LayerRow,
+  type LibraryMaterial,
+} from '../layers';
+import { CompareVersionsPanel } from './compare-versions-panel';
+import { LayerGrid } from './layer-grid';
+import { PreviewPanel } from './preview-panel';
+import { VersionHeaderFields } from './version-header-fields';
+
+interface VersionEditorProps {
+  version: DesignVersionView;
+  /** Every version of the design, for comparing. */
+  versions: readonly { number: number; status: string }[];
+  /** The materials library now (a draft uses it; a submitted version its frozen snapshot). */
+  library: readonly LibraryMaterial[];
+  maskBands: LimitBand[] | null;
+  maskName: string | null;
+  /** The signed-in user's role may change designs. */
+  canEdit: boolean;
+  /** Fetches the saved version again and shows it in place of the local grid. */
+  onReload: () => Promise<void>;
+  onVersionCreated: (number: number) => void;
+  onDirtyChange: (dirty: boolean) => void;
+}
+
+/** The materials a version is computed with: its frozen snapshot once submitted, else the library. */
+function versionMaterials(
+  version: DesignVersionView,
+  library: readonly LibraryMaterial[],
+): LibraryMaterial[] {
+  if (!version.materialsSnapshot) return [...library];
+  return Object.entries(version.materialsSnapshot).map(([id, m]) => ({
+    id: Number(id),
+    name: m.name,
+    model: m.model,
+  }));
+}
+
+function contentKey(version: DesignVersionView): string {
+  return JSON.stringify(contentOf(headerValuesOf(version), version.layers));
+}
+
+/**
+ * One version in the workspace: header fields, the Layer grid, save (with optimistic locking),
+ * submit or start a new version, and the instant preview. A stale save shows the server's message
+ * and a Reload that replaces the grid only after the user confirms.
+ */
+export function VersionEditor({
+  version,
+  versions,
+  library,
+  maskBands,
+  maskName,
+  canEdit,
+  onReload,
+  onVersionCreated,
+  onDirtyChange,
+}: VersionEditorProps) {
+  const [baseline, setBaseline] = useState(version);
+  const [rows, setRows] = useState<LayerRow[]>(() => rowsFromLayers(version.layers));
+  const { control, reset } = useForm<HeaderValues>({
+    defaultValues: headerValuesOf(version),
+    mode: 'onChange',
+  });
+  const header = useWatch({ control }) as HeaderValues;
+  const [conflict, setConflict] = useState<string | null>(null);
+  const [confirmReload, setConfirmReload] = useState(false);
+  const [reloading, setReloading] = useState(false);
+  const [confirmSubmit, setConfirmSubmit] = useState(false);
+  const save = useSaveDesignVersion();
+  const submit = useSubmitDesignVersion();
+  const startVersion = useCreateDesignVersion();
+  const reasonId = useId();
+
+  const editable = canEdit && baseline.status === 'draft';
+  const materials = useMemo(() => versionMaterials(baseline, library), [baseline, library]);
+  const materialsById = useMemo(() => new Map(materials.map((m) => [m.id, m])), [materials]);
+  const models = useMemo(
+    () =>
+      new Map<number, NamedModel>(
+        materials.map((m) => [m.id, { name: m.name, model: m.model, rangeNm: m.rangeNm }]),
+      ),
+    [materials],
+  );
+
+  const problems = useMemo(
+    () => [...headerProblems(header), ...layerProblems(rows, materialsById).map(describeProblem)],
+    [header, rows, materialsById],
+  );
+  const draftKey = problems.length === 0 ? JSON.stringify(contentOf(header, layersFromRows(rows))) : null;
+  // Keyed by its JSON so the preview recomputes when the content changes, not on every render.
+  const content = useMemo(
+    () => (draftKey ? (JSON.parse(draftKey) as DesignVersionContent) : null),
+    [draftKey],
+  );
+  const dirty = draftKey !== contentKey(baseline);
+
+  useEffect(() => onDirtyChange(dirty), [dirty, onDirtyChange]);
+  useEffect(() => {
+    if (!dirty) return;
+    const warn = (event: BeforeUnloadEvent) => event.preventDefault();
+    window.addEventListener('beforeunload', warn);
+    return () => window.removeEventListener('beforeunload', warn);
+  }, [dirty]);
+
+  /** Why Save is disabled, shown beside it; null when it is enabled (or not offered). */
+  const saveBlocked = !editable
+    ? null
+    : problems.length > 0
+      ? `Cannot save: ${problems.slice(0, 3).join('; ')}${problems.length > 3 ? ` (and ${problems.length - 3} more)` : ''}`
+      : dirty
+        ? null
+        : 'No unsaved changes';
+
+  const doSave = () => {
+    if (!content) return;
+    setConflict(null);
+    save.mutate(
+      { designId: baseline.designId, number: baseline.number, content, rowVersion: baseline.rowVersion },
+      {
+        onSuccess: (saved) => {
+          setBaseline(saved);
+          reset(headerValuesOf(saved));
+          notify(`Version ${saved.number} saved.`, 'success');
+        },
+        onError: (error) => {
+          if (error instanceof ApiError && error.status === 409) setConflict(error.message);
+        },
+      },
+    );
+  };
+
+  const doReload = async () => {
+    setReloading(true);
+    try {
+      await onReload();
+    } finally {
+      setReloading(false);
+      setConfirmReload(false);
+    }
+  };
+
+  const doSubmit = () => {
+    submit.mutate(
+      { designId: baseline.designId, number: baseline.number, rowVersion: baseline.rowVersion },
+      {
+        onSuccess: (submitted) => {
+          setBaseline(submitted);
+          setConfirmSubmit(false);
+          notify(`Version ${submitted.number} submitted for approval.`, 'success');
+        },
+        onError: (error) => {
+          setConfirmSubmit(false);
+          if (error instanceof ApiError && error.status === 409) setConflict(error.message);
+        },
+      },
+    );
+  };
+
+  const otherError = [save.error, submit.error].find(
+    (e) => e && !(e instanceof ApiError && e.status === 409),
+  );
+
+  return (
+    <Box sx={{ display: 'grid', gap: 2 }}>
+      <Box sx={{ display: 'flex', gap: 1, alignItems: 'center', flexWrap: 'wrap' }}>
+        <Typography variant="body2" color="text.secondary">
+          Version {baseline.number} by {baseline.createdBy.displayName}, last saved{' '}
+          {formatDateTime(baseline.updatedAt)}
+        </Typography>
+        <Chip
+          size="small"
+          label={baseline.status}
+          color={baseline.status === 'draft' ? 'default' : 'primary'}
+        />
+        {dirty && editable && <Chip size="small" color="warning" label="Unsaved changes" />}
+      </Box>
+      {!editable && canEdit && (
+        <Alert
+          severity="info"
+          action={
+            <Button
+              color="inherit"
+              size="small"
+              loading={startVersion.isPending}
+              onClick={() =>
+                startVersion.mutate(
+                  { designId: baseline.designId, fromNumber: baseline.number },
+                  {
+                    onSuccess: (created) => {
+                      notify(`Version ${created.number} started from version ${baseline.number}.`, 'success');
+                      onVersionCreated(created.number);
+                    },
+                  },
+                )
+              }
+            >
+              Start new version
+            </Button>
+          }
+        >
+          Version {baseline.number} is {baseline.status} and read-only. Start a new version from it to make
+          changes.
+        </Alert>
+      )}
+      {!canEdit && (
+        <Alert severity="info">You can read this design; engineers and administrators change it.</Alert>
+      )}
+      {conflict && <ConflictAlert message={conflict} onReload={() => setConfirmReload(true)} />}
+      {otherError && <ErrorAlert error={otherError} title="Not saved" />}
+      <Paper variant="outlined" sx={{ p: 2 }}>
+        <VersionHeaderFields control={control} materials={materials} disabled={!editable} />
+      </Paper>
+      <Paper variant="outlined" sx={{ p: 2 }} component="section" aria-label="Layers">
+        <Typography variant="h2" component="h2" sx={{ mb: 1 }}>
+          Layer grid
+        </Typography>
+        <Typography variant="body2" color="text.secondary" sx={{ mb: 1 }}>
+          Incident side first; the last row sits on the substrate.
+        </Typography>
+        <LayerGrid
+          rows={rows}
+          onRowsChange={setRows}
+          materials={materials}
+          referenceWavelengthNm={referenceOf(header)}
+          readOnly={!editable}
+        />
+        {editable && (
+          <Box sx={{ display: 'flex', gap: 1, alignItems: 'center', mt: 2, flexWrap: 'wrap' }}>
+            <Button
+              variant="contained"
+              onClick={doSave}
+              disabled={saveBlocked !== null}
+              loading={save.isPending}
+              aria-describedby={saveBlocked ? reasonId : undefined}
+            >
+              Save
+            </Button>
+            <Button
+              variant="outlined"
+              onClick={() => setConfirmSubmit(true)}
+              disabled={dirty || baseline.layers.length === 0}
+              title={dirty ? 'Save your changes before submitting' : undefined}
+            >
+              Submit for approval
+            </Button>
+            {saveBlocked && (
+              <Typography
+                id={reasonId}
+                variant="body2"
+                color={problems.length > 0 ? 'error' : 'text.secondary'}
+              >
+                {saveBlocked}
+              </Typography>
+            )}
+          </Box>
+        )}
+      </Paper>
+      <PreviewPanel
+        content={content}
+        waitingReason={problems[0] ?? null}
+        materials={models}
+        maskBands={maskBands}
+        maskName={maskName}
+      />
+      <CompareVersionsPanel
+        designId={baseline.designId}
+        versions={versions}
+        current={{ number: baseline.number, content }}
+        library={library}
+        maskBands={maskBands}
+      />
+      <ConfirmDialog
+        open={confirmReload}
+        title="Replace your grid with the saved version?"
+        confirmLabel="Replace with saved version"
+        cancelLabel="Keep my changes"
+        pending={reloading}
+        onConfirm={() => void doReload()}
+        onCancel={() => setConfirmReload(false)}
+      >
+        The grid has {rows.length} layer{rows.length === 1 ? '' : 's'} with your unsaved edits. Reloading
+        shows the version as it is saved now and discards your edits; keep them if you want to copy them
+        elsewhere first.
+      </ConfirmDialog>
+      <ConfirmDialog
+        open={confirmSubmit}
+        title={`Submit version ${baseline.number} for approval?`}
+        confirmLabel="Submit"
+        pending={submit.isPending}
+        onConfirm={doSubmit}
+        onCancel={() => setConfirmSubmit(false)}
+      >
+        A submitted version cannot change. Further edits go into a new version.
+      </ConfirmDialog>
+    </Box>
+  );
+}

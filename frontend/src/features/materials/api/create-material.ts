@@ -1,0 +1,26 @@
+import { useMutation, useQueryClient } from '@tanstack/react-query';
+import type { MaterialModel } from '@quietglass/shared';
+import { apiClient } from '../../../lib/api-client';
+import { getMaterialsQueryOptions, type MaterialView } from './get-materials';
+
+export interface MaterialInput {
+  name: string;
+  model: MaterialModel;
+  rangeNm: { from: number; to: number };
+  typical: boolean;
+  provenance: { source: string; date?: string; notes: string };
+}
+
+export function createMaterial(input: MaterialInput): Promise<MaterialView> {
+  return apiClient.post<MaterialView>('/materials', input);
+}
+
+/** Adds a material to the library; the form shows errors itself. */
+export function useCreateMaterial() {
+  const queryClient = useQueryClient();
+  return useMutation({
+    mutationFn: createMaterial,
+    meta: { errorShownInline: true },
+    onSuccess: () => queryClient.invalidateQueries({ queryKey: getMaterialsQueryOptions().queryKey }),
+  });
+}

@@ -1,0 +1,30 @@
+import { useMutation, useQueryClient } from '@tanstack/react-query';
+import { apiClient } from '../../../lib/api-client';
+import { getMaterialsQueryOptions, type MaterialView } from './get-materials';
+
+/** Largest n,k file the API takes (bytes), checked here before sending too. */
+export const MAX_NK_CSV_BYTES = 1_000_000;
+
+export interface ImportMaterialCsvInput {
+  name: string;
+  /** The file's text: wavelength, n and optionally k per row. */
+  csv: string;
+  unit: 'nm' | 'um';
+  interpolation: 'linear' | 'pchip';
+  typical: boolean;
+  provenance?: { source: string; notes: string };
+}
+
+export function importMaterialCsv(input: ImportMaterialCsvInput): Promise<MaterialView> {
+  return apiClient.post<MaterialView>('/materials/import-csv', input);
+}
+
+/** Creates a tabulated material from an n,k file; a bad row rejects the whole file (400, per-row details). */
+export function useImportMaterialCsv() {
+  const queryClient = useQueryClient();
+  return useMutation({
+    mutationFn: importMaterialCsv,
+    meta: { errorShownInline: true },
+    onSuccess: () => queryClient.invalidateQueries({ queryKey: getMaterialsQueryOptions().queryKey }),
+  });
+}

@@ -1,0 +1,98 @@
+import Alert from '@mui/material/Alert';
+import Box from '@mui/material/Box';
+import Button from '@mui/material/Button';
+import Chip from '@mui/material/Chip';
+import Paper from '@mui/material/Paper';
+import Typography from '@mui/material/Typography';
+import { evaluateIndex, type MaterialModel } from '@quietglass/shared';
+import { useMemo } from 'react';
+import { Plot } from '../../../components/plot';
+import { formatDateTime } from '../../../lib/format';
+import type { MaterialView } from '../api/get-materials';
+import { MODEL_KIND_LABELS, describeModel } from '../material-form';
+
+const PLOT_POINTS = 301;
+
+/** n and k of a model over a range (nm), or the engine's error message. */
+export function indexCurve(
+  model: MaterialModel,
+  range: { from: number; to: number },
+  points = PLOT_POINTS,
+): { wavelengthsNm: Float64Array; n: Float64Array; k: Float64Array } | { error: string } {
+  const wavelengthsNm = new Float64Array(points);
+  for (let i = 0; i < points; i++)
+    wavelengthsNm[i] = range.from + ((range.to - range.from) * i) / (points - 1);
+  const out = { n: new Float64Array(points), k: new Float64Array(points) };
+  try {
+    evaluateIndex(out, model, wavelengthsNm);
+    return { wavelengthsNm, ...out };
+  } catch (error) {
+    return { error: error instanceof Error ? error.message : String(error) };
+  }
+}
+
+function kTop(k: Float64Array): number {
+  let max = 0;
+  for (const v of k) max = Math.max(max, v);
+  return max > 0 ? max * 1.2 : 0.01;
+}
+
+interface MaterialDetailProps {
+  material: MaterialView;
+  canEdit: boolean;
+  onEdit: () => void;
+}
+
+/** One material: its model, provenance and a plot of n and k over its valid range. */
+export function MaterialDetail({ material, canEdit, onEdit }: MaterialDetailProps) {
+  const curve = useMemo(() => indexCurve(material.model, material.rangeNm), [material]);
+  return (
+    <Paper variant="outlined" sx={{ p: 2 }} component="section" aria-label={`Material ${material.name}`}>
+      <Box sx={{ display: 'flex', alignItems: 'center', gap: 1, mb: 1, flexWrap: 'wrap' }}>
+        <Typography variant="h2" component="h2" sx={{ flexGrow: 1 }}>
+          {material.name}
+        </Typography>
+        <Chip size="small" label={MODEL_KIND_LABELS[material.model.model]} />
+        {material.typical && <Chip size="small" color="warning" variant="outlined" label="typical value" />}
+        {canEdit && (
+          <Button variant="outlined" size="small" onClick={onEdit}>
+            Edit
+          </Button>
+        )}
+      </Box>
+      <Typography variant="body2">{describeModel(material.model)}</Typography>
+      <Typography variant="body2" color="text.secondary">
+        Valid {material.rangeNm.from}–{material.rangeNm.to} nm ·{' '}
+        {material.provenance.source || 'no source given'}
+        {material.provenance.date ? ` (${material.provenance.date})` : ''} · version {material.version},
+        changed {formatDateTime(material.updatedAt)}
+      </Typography>
+      {material.provenance.notes && (
+        <Typography variant="body2" color="text.secondary">
+          {material.provenance.notes}
+        </Typography>
+      )}
+      {'error' in curve ? (
+        <Alert severity="error" sx={{ mt: 1 }}>
+          The index could not be evaluated: {curve.error}
+        </Alert>
+      ) : (
+        <Plot
+          title={`n and k of ${material.name}`}
+          data={[
+            { type: 'scatter', mode: 'lines', name: 'n', x: curve.wavelengthsNm, y: curve.n },
+            { type: 'scatter', mode: 'lines', name: 'k', x: curve.wavelengthsNm, y: curve.k, yaxis: 'y2' },
+          ]}
+          layout={{
+            xaxis: { title: { text: 'Wavelength (nm)' } },
+            yaxis: { title: { text: 'n' } },
+            // A lossless material's k is 0 everywhere: keep its axis small rather than symmetric about 0.
+            yaxis2: { title: { text: 'k' }, overlaying: 'y', side: 'right', range: [0, kTop(curve.k)] },
+          }}
+          height={300}
+          pngFileName={`material-${material.name}-nk`}
+        />
+      )}
+    </Paper>
+  );
+}

@@ -1,0 +1,203 @@
+import Box from '@mui/material/Box';
+import Typography from '@mui/material/Typography';
+import { useQueryClient } from '@tanstack/react-query';
+import { useState } from 'react';
+import { useForm, useWatch } from 'react-hook-form';
+import { ConflictAlert } from '../../../components/conflict-alert';
+import { ErrorAlert } from '../../../components/error-alert';
+import { FormCheckboxField } from '../../../components/form-checkbox-field';
+import { FormDialog } from '../../../components/form-dialog';
+import { FormSelectField } from '../../../components/form-select-field';
+import { FormTextField } from '../../../components/form-text-field';
+import { ApiError } from '../../../lib/api-client';
+import { notify } from '../../../lib/notifier';
+import { useCreateMaterial } from '../api/create-material';
+import { getMaterialQueryOptions } from '../api/get-material';
+import type { MaterialView } from '../api/get-materials';
+import { useUpdateMaterial } from '../api/update-material';
+import {
+  EMPTY_MATERIAL_VALUES,
+  MODEL_KIND_LABELS,
+  materialInputOf,
+  materialRules,
+  valuesOf,
+  type MaterialFormValues,
+} from '../material-form';
+
+interface MaterialFormDialogProps {
+  open: boolean;
+  /** The material to edit, or null for a new one. */
+  material: MaterialView | null;
+  onClose: () => void;
+}
+
+/** Create or edit a material: constant, Cauchy or Sellmeier model, valid range and provenance. */
+export function MaterialFormDialog({ open, material, onClose }: MaterialFormDialogProps) {
+  const queryClient = useQueryClient();
+  const create = useCreateMaterial();
+  const update = useUpdateMaterial();
+  // The version the edit is based on; replaced by Reload after a conflict.
+  const [base, setBase] = useState<MaterialView | null>(material);
+  const [reloadError, setReloadError] = useState<Error | null>(null);
+  const { control, handleSubmit, reset } = useForm<MaterialFormValues>({
+    defaultValues: material ? valuesOf(material) : EMPTY_MATERIAL_VALUES,
+    mode: 'onTouched',
+  });
+  const kind = useWatch({ control, name: 'kind' });
+  const mutation = material ? update : create;
+  const conflict = update.error instanceof ApiError && update.error.status === 409 ? update.error : null;
+
+  const close = () => {
+    create.reset();
+    update.reset();
+    onClose();
+  };
+
+  const onSubmit = handleSubmit((values) => {
+    const input = materialInputOf(values, base?.model ?? null);
+    const onSuccess = (saved: MaterialView) => {
+      notify(`${saved.name} ${material ? 'saved' : 'added to the library'}.`, 'success');
+      close();
+    };
+    if (base) update.mutate({ id: base.id, version: base.version, material: input }, { onSuccess });
+    else create.mutate(input, { onSuccess });
+  });
+
+  const reload = async () => {
+    if (!base) return;
+    try {
+      const fresh = await queryClient.fetchQuery({ ...getMaterialQueryOptions(base.id), staleTime: 0 });
+      setBase(fresh);
+      reset(valuesOf(fresh));
+      update.reset();
+      setReloadError(null);
+    } catch (error) {
+      setReloadError(error instanceof Error ? error : new Error(String(error)));
+    }
+  };
+
+  const numberField = (
+    name: keyof MaterialFormValues,
+    label: string,
+    validate: (v: string, all: MaterialFormValues) => true | string,
+  ) => (
+    <FormTextField
+      control={control}
+      name={name}
+      rules={{ validate: (v, all) => validate(String(v), all) }}
+      label={label}
+      size="small"
+      slotProps={{ htmlInput: { inputMode: 'decimal' } }}
+    />
+  );
+
+  return (
+    <FormDialog
+      open={open}
+      title={material ? `Edit ${material.name}` : 'New material'}
+      submitLabel={material ? 'Save material' : 'Add material'}
+      pending={mutation.isPending}
+      onSubmit={onSubmit}
+      onClose={close}
+      maxWidth="md"
+    >
+      {conflict && <ConflictAlert message={conflict.message} onReload={() => void reload()} />}
+      {reloadError && <ErrorAlert error={reloadError} title="The material could not be reloaded" />}
+      {mutation.error && !conflict && <ErrorAlert error={mutation.error} title="Not saved" />}
+      <Box sx={{ display: 'grid', gap: 2, gridTemplateColumns: { xs: '1fr', sm: '2fr 1fr' }, mt: 1 }}>
+        <FormTextField
+          control={control}
+          name="name"
+          rules={{ validate: (v) => materialRules.name(String(v)) }}
+          label="Name"
+          size="small"
+        />
+        <FormSelectField
+          control={control}
+          name="kind"
+          label="Dispersion model"
+          size="small"
+          disabled={kind === 'table'}
+          options={(kind === 'table'
+            ? (['table'] as const)
+            : (['constant', 'cauchy', 'sellmeier'] as const)
+          ).map((k) => ({ value: k, label: MODEL_KIND_LABELS[k] }))}
+        />
+      </Box>
+      {kind === 'constant' && (
+        <Box sx={{ display: 'grid', gap: 2, gridTemplateColumns: 'repeat(2, minmax(0, 1fr))' }}>
+          {numberField('n', 'n', materialRules.positive('n'))}
+          {numberField('k', 'k', materialRules.nonNegative('k'))}
+        </Box>
+      )}
+      {kind === 'cauchy' && (
+        <>
+          <Typography variant="body2" color="text.secondary">
+            n(λ) = A + B/λ² + C/λ⁴ with λ in µm.
+          </Typography>
+          <Box sx={{ display: 'grid', gap: 2, gridTemplateColumns: 'repeat(4, minmax(0, 1fr))' }}>
+            {numberField('A', 'A', materialRules.positive('A'))}
+            {numberField('B', 'B (µm²)', materialRules.finiteOrBlank('B'))}
+            {numberField('C', 'C (µm⁴)', materialRules.finiteOrBlank('C'))}
+            {base?.model.model === 'cauchy' && base.model.absorption ? (
+              <Typography variant="body2" color="text.secondary">
+                k follows the saved absorption tail (kept as is).
+              </Typography>
+            ) : (
+              numberField('k', 'k', materialRules.nonNegative('k'))
+            )}
+          </Box>
+        </>
+      )}
+      {kind === 'sellmeier' && (
+        <>
+          <Typography variant="body2" color="text.secondary">
+            n²(λ) = 1 + Σ Bᵢλ²/(λ² − Cᵢ) with λ in µm and Cᵢ in µm²; one to three terms.
+          </Typography>
+          <Box sx={{ display: 'grid', gap: 2, gridTemplateColumns: 'repeat(3, minmax(0, 1fr))' }}>
+            {([1, 2, 3] as const).map((i) => (
+              <Box key={i} sx={{ display: 'grid', gap: 1 }}>
+                {numberField(`B${i}`, `B${i}`, materialRules.sellmeierB(i))}
+                {numberField(`C${i}`, `C${i} (µm²)`, materialRules.sellmeierC(i))}
+              </Box>
+            ))}
+          </Box>
+          <Box sx={{ maxWidth: 200 }}>{numberField('k', 'k', materialRules.nonNegative('k'))}</Box>
+        </>
+      )}
+      {kind === 'table' && (
+        <Typography variant="body2" color="text.secondary">
+          Tabulated n,k data from a file; upload a new file to change the values. The name, range and
+          provenance can be edited here.
+        </Typography>
+      )}
+      <Box sx={{ display: 'grid', gap: 2, gridTemplateColumns: 'repeat(2, minmax(0, 1fr))' }}>
+        {numberField('rangeFrom', 'Valid from (nm)', materialRules.rangeFrom)}
+        {numberField('rangeTo', 'Valid to (nm)', materialRules.rangeTo)}
+      </Box>
+      <FormCheckboxField
+        control={control}
+        name="typical"
+        label="Typical value (not measured on our process)"
+      />
+      <Box sx={{ display: 'grid', gap: 2, gridTemplateColumns: { xs: '1fr', sm: '2fr 1fr' } }}>
+        <FormTextField control={control} name="source" label="Source" size="small" />
+        <FormTextField
+          control={control}
+          name="date"
+          rules={{ validate: (v) => materialRules.date(String(v)) }}
+          label="Date (YYYY-MM-DD)"
+          size="small"
+        />
+      </Box>
+      <FormTextField
+        control={control}
+        name="notes"
+        label="Process notes"
+        size="small"
+        multiline
+        minRows={2}
+      />
+    </FormDialog>
+  );
+}

@@ -1,0 +1,63 @@
+import Box from '@mui/material/Box';
+import type { Control } from 'react-hook-form';
+import { FormSelectField, namedOptions } from '../../../components/form-select-field';
+import { FormTextField } from '../../../components/form-text-field';
+import type { MaskFormValues } from '../band-form';
+
+// SpecMaskDto: name 1–160 characters, a customer, revision 1–20 characters, notes ≤ 4000.
+const MAX_NAME = 160;
+const MAX_REVISION = 20;
+const MAX_NOTES = 4000;
+
+interface MaskDetailsFieldsProps {
+  control: Control<MaskFormValues>;
+  customers: readonly { id: number; name: string }[];
+}
+
+/** Name, customer, revision and notes of a spec mask (its bands are edited apart). */
+export function MaskDetailsFields({ control, customers }: MaskDetailsFieldsProps) {
+  return (
+    <>
+      <Box sx={{ display: 'grid', gap: 2, gridTemplateColumns: { xs: '1fr', sm: '2fr 2fr 1fr' }, mt: 1 }}>
+        <FormTextField
+          control={control}
+          name="name"
+          rules={{
+            validate: (v) => String(v).trim() !== '' || 'Enter a name',
+            maxLength: { value: MAX_NAME, message: `At most ${MAX_NAME} characters` },
+          }}
+          label="Name"
+          size="small"
+        />
+        <FormSelectField
+          control={control}
+          name="customerId"
+          rules={{ validate: (v) => v !== '' || 'Choose the customer' }}
+          label="Customer"
+          size="small"
+          placeholder="Choose…"
+          options={namedOptions(customers)}
+        />
+        <FormTextField
+          control={control}
+          name="revision"
+          rules={{
+            validate: (v) => String(v).trim() !== '' || 'Enter a revision',
+            maxLength: { value: MAX_REVISION, message: `At most ${MAX_REVISION} characters` },
+          }}
+          label="Revision"
+          size="small"
+        />
+      </Box>
+      <FormTextField
+        control={control}
+        name="notes"
+        rules={{ maxLength: { value: MAX_NOTES, message: `At most ${MAX_NOTES} characters` } }}
+        label="Notes"
+        size="small"
+        multiline
+        maxRows={3}
+      />
+    </>
+  );
+}

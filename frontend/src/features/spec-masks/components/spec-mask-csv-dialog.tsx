@@ -1,0 +1,103 @@
+import Typography from '@mui/material/Typography';
+import { LIMIT_BAND_FIELDS } from '@quietglass/shared';
+import { useState } from 'react';
+import { useForm } from 'react-hook-form';
+import { FileField } from '../../../components/file-field';
+import { FileProblemsAlert } from '../../../components/file-problems-alert';
+import { FormDialog } from '../../../components/form-dialog';
+import { notify } from '../../../lib/notifier';
+import { MAX_MASK_CSV_BYTES, useImportSpecMaskCsv } from '../api/import-spec-mask-csv';
+import type { MaskFormValues } from '../band-form';
+import { MaskDetailsFields } from './mask-details-fields';
+
+interface SpecMaskCsvDialogProps {
+  open: boolean;
+  customers: readonly { id: number; name: string }[];
+  defaultCustomerId: number | null;
+  onClose: () => void;
+}
+
+/** A new spec mask from a CSV file with a header naming the limit-band columns. */
+export function SpecMaskCsvDialog({ open, customers, defaultCustomerId, onClose }: SpecMaskCsvDialogProps) {
+  const importCsv = useImportSpecMaskCsv();
+  const [file, setFile] = useState<File | null>(null);
+  const [fileProblem, setFileProblem] = useState<string | null>(null);
+  // The bands come from the file, so the form's band list stays empty.
+  const empty: MaskFormValues = {
+    name: '',
+    customerId: defaultCustomerId === null ? '' : String(defaultCustomerId),
+    revision: 'A',
+    notes: '',
+    bands: [],
+  };
+  const { control, handleSubmit, reset } = useForm<MaskFormValues>({
+    defaultValues: empty,
+    mode: 'onTouched',
+  });
+
+  const close = () => {
+    reset(empty);
+    setFile(null);
+    setFileProblem(null);
+    importCsv.reset();
+    onClose();
+  };
+
+  const onSubmit = handleSubmit(async (values) => {
+    if (!file) {
+      setFileProblem('Choose a CSV file');
+      return;
+    }
+    if (file.size > MAX_MASK_CSV_BYTES) {
+      setFileProblem(`The file is larger than ${MAX_MASK_CSV_BYTES / 1000} kB`);
+      return;
+    }
+    importCsv.mutate(
+      {
+        name: values.name.trim(),
+        customerId: Number(values.customerId),
+        revision: values.revision.trim(),
+        notes: values.notes,
+        csv: await file.text(),
+      },
+      {
+        onSuccess: (saved) => {
+          notify(
+            `Spec mask ${saved.name} rev ${saved.revision} imported with ${saved.bands.length} bands.`,
+            'success',
+          );
+          close();
+        },
+      },
+    );
+  });
+
+  return (
+    <FormDialog
+      open={open}
+      title="Import spec mask"
+      submitLabel="Import mask"
+      pending={importCsv.isPending}
+      onSubmit={onSubmit}
+      onClose={close}
+    >
+      <FileProblemsAlert error={importCsv.error} />
+      <Typography variant="body2" color="text.secondary" sx={{ mt: 1 }}>
+        A header row naming the columns — <code>{LIMIT_BAND_FIELDS.join(',')}</code> — then one limit band per
+        row; from_nm, to_nm and quantity are required, angles are separated by <code>;</code>.
+      </Typography>
+      <FileField
+        label="Spec mask file"
+        accept=".csv,text/csv"
+        file={file}
+        problem={fileProblem}
+        onChange={(chosen) => {
+          setFile(chosen);
+          setFileProblem(null);
+          importCsv.reset();
+        }}
+      />
+      <MaskDetailsFields control={control} customers={customers} />
+    </FormDialog>
+  );
+}

@@ -1,0 +1,342 @@
+import AddOutlined from '@mui/icons-material/AddOutlined';
+import DeleteOutlined from '@mui/icons-material/DeleteOutlined';
+import Alert from '@mui/material/Alert';
+import Box from '@mui/material/Box';
+import Button from '@mui/material/Button';
+import IconButton from '@mui/material/IconButton';
+import Paper from '@mui/material/Paper';
+import Typography from '@mui/material/Typography';
+import { useQueryClient } from '@tanstack/react-query';
+import { useState } from 'react';
+import { useFieldArray, useForm, useWatch, type Control } from 'react-hook-form';
+import { ConflictAlert } from '../../../components/conflict-alert';
+import { ErrorAlert } from '../../../components/error-alert';
+import { FormDialog } from '../../../components/form-dialog';
+import { FormSelectField } from '../../../components/form-select-field';
+import { FormTextField } from '../../../components/form-text-field';
+import { ApiError } from '../../../lib/api-client';
+import { notify } from '../../../lib/notifier';
+import { useCreateSpecMask } from '../api/create-spec-mask';
+import { getSpecMaskQueryOptions } from '../api/get-spec-mask';
+import type { SpecMaskView } from '../api/get-spec-masks';
+import { useUpdateSpecMask } from '../api/update-spec-mask';
+import {
+  BOUND_LABELS,
+  EMPTY_BAND,
+  bandOf,
+  bandRules,
+  mapMaskError,
+  validBands,
+  valuesOfBand,
+  type BandValues,
+  type BoundType,
+  type MaskFormValues,
+} from '../band-form';
+import { MaskDetailsFields } from './mask-details-fields';
+import { MaskPreviewPlot } from './mask-preview-plot';
+
+const POLARISATION_OPTIONS = [
+  { value: 'avg', label: 'Average' },
+  { value: 's', label: 's' },
+  { value: 'p', label: 'p' },
+];
+const QUANTITY_OPTIONS = [
+  { value: 'R', label: 'R' },
+  { value: 'T', label: 'T' },
+];
+const BOUND_OPTIONS = (Object.keys(BOUND_LABELS) as BoundType[]).map((b) => ({
+  value: b,
+  label: BOUND_LABELS[b],
+}));
+
+function valuesOf(mask: SpecMaskView | null, customerId: number | null): MaskFormValues {
+  if (!mask) {
+    return {
+      name: '',
+      customerId: customerId === null ? '' : String(customerId),
+      revision: 'A',
+      notes: '',
+      bands: [{ ...EMPTY_BAND }],
+    };
+  }
+  return {
+    name: mask.name,
+    customerId: String(mask.customer.id),
+    revision: mask.revision,
+    notes: mask.notes,
+    bands: mask.bands.map(valuesOfBand),
+  };
+}
+
+function BandFields({
+  control,
+  index,
+  onRemove,
+  canRemove,
+  bandError,
+}: {
+  control: Control<MaskFormValues>;
+  index: number;
+  onRemove: () => void;
+  canRemove: boolean;
+  bandError: string | undefined;
+}) {
+  const boundType = useWatch({ control, name: `bands.${index}.boundType` });
+  const band = (v: string, all: MaskFormValues) => ({ v, band: all.bands[index] });
+  const n = index + 1;
+  return (
+    <Paper
+      variant="outlined"
+      component="fieldset"
+      aria-label={`Limit band ${n}`}
+      sx={{ p: 1.5, m: 0, border: 1, borderColor: 'divider' }}
+    >
+      <Box sx={{ display: 'flex', alignItems: 'center', mb: 1 }}>
+        <Typography component="h3" variant="subtitle2" sx={{ flexGrow: 1 }}>
+          Limit band {n}
+        </Typography>
+        <IconButton size="small" aria-label={`Remove band ${n}`} onClick={onRemove} disabled={!canRemove}>
+          <DeleteOutlined fontSize="small" />
+        </IconButton>
+      </Box>
+      {bandError && (
+        <Alert severity="error" sx={{ mb: 1 }}>
+          {bandError}
+        </Alert>
+      )}
+      <Box
+        sx={{
+          display: 'grid',
+          gap: 1.5,
+          gridTemplateColumns: { xs: '1fr 1fr', md: 'repeat(6, minmax(0, 1fr))' },
+        }}
+      >
+        <FormTextField
+          control={control}
+          name={`bands.${index}.fromNm`}
+          rules={{ validate: (v) => bandRules.fromNm(String(v)) }}
+          label="From (nm)"
+          size="small"
+        />
+        <FormTextField
+          control={control}
+          name={`bands.${index}.toNm`}
+          rules={{
+            validate: (v, all) => {
+              const b = band(String(v), all);
+              return bandRules.toNm(b.v, b.band);
+            },
+          }}
+          label="To (nm)"
+          size="small"
+        />
+        <FormTextField
+          control={control}
+          name={`bands.${index}.angles`}
+          rules={{ validate: (v) => bandRules.angles(String(v)) }}
+          label="Angles (°)"
+          size="small"
+          helperText="e.g. 0, 15, 30"
+        />
+        <FormSelectField
+          control={control}
+          name={`bands.${index}.polarisation`}
+          label="Polarisation"
+          size="small"
+          options={POLARISATION_OPTIONS}
+        />
+        <FormSelectField
+          control={control}
+          name={`bands.${index}.quantity`}
+          label="Quantity"
+          size="small"
+          options={QUANTITY_OPTIONS}
+        />
+        <FormSelectField
+          control={control}
+          name={`bands.${index}.boundType`}
+          label="Bound"
+          size="small"
+          options={BOUND_OPTIONS}
+        />
+        <FormTextField
+          control={control}
+          name={`bands.${index}.value`}
+          rules={{ validate: (v) => bandRules.value(String(v)) }}
+          label="Value (%)"
+          size="small"
+        />
+        {boundType === 'target' && (
+          <FormTextField
+            control={control}
+            name={`bands.${index}.tolerance`}
+            rules={{
+              validate: (v, all) => {
+                const b = band(String(v), all);
+                return bandRules.tolerance(b.v, b.band);
+              },
+            }}
+            label="Tolerance (%)"
+            size="small"
+          />
+        )}
+        <FormTextField
+          control={control}
+          name={`bands.${index}.stepNm`}
+          rules={{ validate: (v) => bandRules.stepNm(String(v)) }}
+          label="Step (nm)"
+          size="small"
+          helperText="Optional"
+        />
+        <Box sx={{ gridColumn: { xs: 'span 2', md: 'span 2' } }}>
+          <FormTextField
+            control={control}
+            name={`bands.${index}.label`}
+            label="Label"
+            size="small"
+            fullWidth
+          />
+        </Box>
+      </Box>
+    </Paper>
+  );
+}
+
+interface SpecMaskFormDialogProps {
+  open: boolean;
+  /** The mask to edit, or null for a new one. */
+  mask: SpecMaskView | null;
+  customers: readonly { id: number; name: string }[];
+  /** Customer preselected for a new mask. */
+  defaultCustomerId: number | null;
+  onClose: () => void;
+}
+
+/** A customer's spec mask: its limit bands, each a wavelength range, angles, polarisation and one bound. */
+export function SpecMaskFormDialog({
+  open,
+  mask,
+  customers,
+  defaultCustomerId,
+  onClose,
+}: SpecMaskFormDialogProps) {
+  const queryClient = useQueryClient();
+  const create = useCreateSpecMask();
+  const update = useUpdateSpecMask();
+  const [base, setBase] = useState<SpecMaskView | null>(mask);
+  const [bandErrors, setBandErrors] = useState<Record<number, string>>({});
+  const [formError, setFormError] = useState<string | null>(null);
+  const { control, handleSubmit, reset, setError } = useForm<MaskFormValues>({
+    defaultValues: valuesOf(mask, defaultCustomerId),
+    mode: 'onTouched',
+  });
+  const { fields, append, remove } = useFieldArray({ control, name: 'bands' });
+  const bands = useWatch({ control, name: 'bands' }) as BandValues[];
+  const mutation = mask ? update : create;
+  const conflict = update.error instanceof ApiError && update.error.status === 409 ? update.error : null;
+
+  const close = () => {
+    create.reset();
+    update.reset();
+    onClose();
+  };
+
+  const showApiError = (error: Error) => {
+    if (!(error instanceof ApiError) || error.status !== 400) return;
+    const details = error.details.length > 0 ? error.details : [error.message];
+    const perBand: Record<number, string> = {};
+    const general: string[] = [];
+    for (const detail of details) {
+      const mapped = mapMaskError(detail);
+      if (mapped.path)
+        setError(mapped.path, { type: 'server', message: mapped.message }, { shouldFocus: true });
+      else if (mapped.band !== null) perBand[mapped.band] = mapped.message;
+      else general.push(mapped.message);
+    }
+    setBandErrors(perBand);
+    setFormError(general.length > 0 ? general.join('; ') : null);
+  };
+
+  const onSubmit = handleSubmit((values) => {
+    setBandErrors({});
+    setFormError(null);
+    const input = {
+      name: values.name.trim(),
+      customerId: Number(values.customerId),
+      revision: values.revision.trim(),
+      notes: values.notes,
+      bands: values.bands.map(bandOf),
+    };
+    const onSuccess = (saved: SpecMaskView) => {
+      notify(`Spec mask ${saved.name} rev ${saved.revision} saved.`, 'success');
+      close();
+    };
+    if (base)
+      update.mutate(
+        { id: base.id, version: base.version, mask: input },
+        { onSuccess, onError: showApiError },
+      );
+    else create.mutate(input, { onSuccess, onError: showApiError });
+  });
+
+  const reload = async () => {
+    if (!base) return;
+    const fresh = await queryClient.fetchQuery({ ...getSpecMaskQueryOptions(base.id), staleTime: 0 });
+    setBase(fresh);
+    reset(valuesOf(fresh, null));
+    update.reset();
+  };
+
+  const preview = validBands(bands ?? []);
+  const otherError =
+    mutation.error && !conflict && !(mutation.error instanceof ApiError && mutation.error.status === 400)
+      ? mutation.error
+      : null;
+
+  return (
+    <FormDialog
+      open={open}
+      title={mask ? `Edit ${mask.name} rev ${mask.revision}` : 'New spec mask'}
+      submitLabel="Save mask"
+      pending={mutation.isPending}
+      onSubmit={onSubmit}
+      onClose={close}
+      maxWidth="md"
+    >
+      {conflict && <ConflictAlert message={conflict.message} onReload={() => void reload()} />}
+      {otherError && <ErrorAlert error={otherError} title="Not saved" />}
+      {formError && (
+        <Alert severity="error" role="alert">
+          {formError}
+        </Alert>
+      )}
+      {mutation.error instanceof ApiError && mutation.error.status === 400 && (
+        <Alert severity="error" role="alert">
+          Not saved: the marked fields have problems.
+        </Alert>
+      )}
+      <MaskDetailsFields control={control} customers={customers} />
+      <Box sx={{ display: 'grid', gap: 1.5 }}>
+        {fields.map((f, index) => (
+          <BandFields
+            key={f.id}
+            control={control}
+            index={index}
+            canRemove={fields.length > 1}
+            onRemove={() => {
+              remove(index);
+              setBandErrors({});
+            }}
+            bandError={bandErrors[index]}
+          />
+        ))}
+      </Box>
+      <Box>
+        <Button startIcon={<AddOutlined />} onClick={() => append({ ...EMPTY_BAND })}>
+          Add band
+        </Button>
+      </Box>
+      <MaskPreviewPlot bands={preview} title="Mask preview" />
+    </FormDialog>
+  );
+}

@@ -1,0 +1,34 @@
+const dateTimeFormat = new Intl.DateTimeFormat(undefined, { dateStyle: 'medium', timeStyle: 'short' });
+
+/** A timestamp from the API (ISO 8601) in the reader's locale; the raw text if it does not parse. */
+export function formatDateTime(value: string | null | undefined): string {
+  if (!value) return '—';
+  const date = new Date(value);
+  return Number.isNaN(date.getTime()) ? value : dateTimeFormat.format(date);
+}
+
+/** A number with a fixed count of decimals, or "—" for a missing or non-finite value. */
+export function formatFixed(value: number | null | undefined, decimals: number): string {
+  return value === null || value === undefined || !Number.isFinite(value) ? '—' : value.toFixed(decimals);
+}
+
+/**
+ * Parses a number typed by a user: plain decimal or exponent notation, optional sign, nothing else
+ * (no units, no thousands separators). Returns null for anything else, including an empty field.
+ */
+export function parseNumberInput(text: string): number | null {
+  const trimmed = text.trim();
+  if (!/^[+-]?(\d+\.?\d*|\.\d+)([eE][+-]?\d+)?$/.test(trimmed)) return null;
+  const value = Number(trimmed);
+  return Number.isFinite(value) ? value : null;
+}
+
+/** Parses a list like "0, 15, 30" (commas, semicolons or spaces); null when any entry is not a number. */
+export function parseNumberList(text: string): number[] | null {
+  const parts = text
+    .split(/[\s,;]+/)
+    .map((p) => p.trim())
+    .filter((p) => p !== '');
+  const values = parts.map(parseNumberInput);
+  return values.every((v): v is number => v !== null) ? values : null;
+}
