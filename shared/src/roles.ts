@@ -25,7 +25,10 @@ export const NAV_SECTIONS = [
   { key: 'queue', label: 'Compute queue', path: '/compute-queue', roles: ['admin', 'engineer'] },
   { key: 'recipes', label: 'Released recipes', path: '/recipes', roles: ['admin', 'engineer', 'operator'] },
   { key: 'runs', label: 'Chamber runs', path: '/runs', roles: ['admin', 'engineer', 'operator'] },
-  { key: 'quotes', label: 'Quotes', path: '/quotes', roles: ['admin', 'sales'] },
+  { key: 'chambers', label: 'Chambers', path: '/chambers', roles: ['admin', 'engineer'] },
+  { key: 'reports', label: 'Compliance reports', path: '/reports', roles: ['admin', 'engineer', 'sales'] },
+  { key: 'quotes', label: 'Quotes', path: '/quotes', roles: ['admin', 'engineer', 'sales'] },
+  { key: 'outbox', label: 'Outbox', path: '/admin/outbox', roles: ['admin'] },
   { key: 'users', label: 'Users', path: '/admin/users', roles: ['admin'] },
 ] as const satisfies readonly { key: string; label: string; path: string; roles: readonly Role[] }[];
 

@@ -1,3 +1,4 @@
+import type { ComponentType } from 'react';
 import { NAV_SECTIONS, type NavSection } from '@quietglass/shared';
 import { createBrowserRouter, type RouteObject } from 'react-router-dom';
 import { RequireAuth } from '../features/auth/components/require-auth';
@@ -10,49 +11,58 @@ import { LoadingBlock } from '../components/loading-block';
 import { RouteError } from './routes/route-error';
 import { SectionNotAvailableRoute } from './routes/section-not-available-route';
 import { SignInRoute } from './routes/sign-in-route';
+import { AVAILABLE_SECTIONS } from './sections';
 
 export type AppRouter = ReturnType<typeof createBrowserRouter>;
 
-/** The page of a section; pages with the data grid and plots load on first visit. */
+type PageLoader = () => Promise<ComponentType>;
+
+/** A page of a section, loaded on first visit (the pages with the data grid and plots are large). */
+function page(load: PageLoader): Pick<RouteObject, 'lazy'> {
+  return { lazy: async () => ({ Component: await load() }) };
+}
+
+/** Each section's index page and the pages below it (`:id` and the like), relative to its path. */
+const SECTION_PAGES: Record<NavSection['key'], { path?: string; load: PageLoader }[]> = {
+  users: [{ load: async () => (await import('./routes/users-route')).UsersRoute }],
+  materials: [{ load: async () => (await import('./routes/materials-route')).MaterialsRoute }],
+  masks: [{ load: async () => (await import('./routes/spec-masks-route')).SpecMasksRoute }],
+  queue: [{ load: async () => (await import('./routes/compute-queue-route')).ComputeQueueRoute }],
+  designs: [
+    { load: async () => (await import('./routes/designs-route')).DesignsRoute },
+    { path: ':id', load: async () => (await import('./routes/design-workspace-route')).DesignWorkspaceRoute },
+  ],
+  recipes: [
+    { load: async () => (await import('./routes/recipes-route')).RecipesRoute },
+    { path: ':designId/:number', load: async () => (await import('./routes/run-sheet-route')).RunSheetRoute },
+  ],
+  runs: [
+    { load: async () => (await import('./routes/runs-route')).RunsRoute },
+    { path: ':id', load: async () => (await import('./routes/run-route')).RunRoute },
+  ],
+  chambers: [{ load: async () => (await import('./routes/chambers-route')).ChambersRoute }],
+  reports: [
+    { load: async () => (await import('./routes/reports-route')).ReportsRoute },
+    { path: ':id', load: async () => (await import('./routes/report-route')).ReportRoute },
+  ],
+  quotes: [
+    { load: async () => (await import('./routes/quotes-route')).QuotesRoute },
+    { path: ':id', load: async () => (await import('./routes/quote-route')).QuoteRoute },
+  ],
+  outbox: [{ load: async () => (await import('./routes/outbox-route')).OutboxRoute }],
+};
+
 function sectionPage(section: NavSection): RouteObject {
-  const path = section.path.slice(1);
-  switch (section.key) {
-    case 'users':
-      return { path, lazy: async () => ({ Component: (await import('./routes/users-route')).UsersRoute }) };
-    case 'materials':
-      return {
-        path,
-        lazy: async () => ({ Component: (await import('./routes/materials-route')).MaterialsRoute }),
-      };
-    case 'masks':
-      return {
-        path,
-        lazy: async () => ({ Component: (await import('./routes/spec-masks-route')).SpecMasksRoute }),
-      };
-    case 'queue':
-      return {
-        path,
-        lazy: async () => ({ Component: (await import('./routes/compute-queue-route')).ComputeQueueRoute }),
-      };
-    case 'designs':
-      return {
-        path,
-        children: [
-          {
-            index: true,
-            lazy: async () => ({ Component: (await import('./routes/designs-route')).DesignsRoute }),
-          },
-          {
-            path: ':id',
-            lazy: async () => ({
-              Component: (await import('./routes/design-workspace-route')).DesignWorkspaceRoute,
-            }),
-          },
-        ],
-      };
-    default:
-      return { path, element: <SectionNotAvailableRoute section={section} /> };
+  const pages = SECTION_PAGES[section.key];
+  if (!AVAILABLE_SECTIONS.has(section.key)) {
+    return { path: section.path.slice(1), element: <SectionNotAvailableRoute section={section} /> };
   }
+  return {
+    path: section.path.slice(1),
+    children: pages.map(({ path, load }) =>
+      path ? { path, ...page(load) } : { index: true, ...page(load) },
+    ),
+  };
 }
 
 export const appRoutes: RouteObject[] = [

@@ -8,7 +8,10 @@ export const SECTION_SUMMARIES: Readonly<Record<NavSection['key'], string>> = {
   queue: 'Calculations that are running or waiting.',
   recipes: 'Designs released for the chamber.',
   runs: 'Deposition runs and their measured results.',
+  chambers: 'Coating chambers: tooling factors, rates and monitor wavelengths.',
+  reports: 'Spec-compliance PDFs for customers.',
   quotes: 'Prices and lead times offered to customers.',
+  outbox: 'E-mail sent by Quietglass, with its attachments.',
   users: 'Accounts, roles and passwords.',
 };
 
@@ -19,4 +22,10 @@ export const AVAILABLE_SECTIONS: ReadonlySet<NavSection['key']> = new Set([
   'materials',
   'masks',
   'queue',
+  'recipes',
+  'runs',
+  'chambers',
+  'reports',
+  'quotes',
+  'outbox',
 ]);

@@ -16,7 +16,10 @@ const EXPECTED_LINKS: Record<Role, [name: string, href: string][]> = {
     ['Compute queue', '/compute-queue'],
     ['Released recipes', '/recipes'],
     ['Chamber runs', '/runs'],
+    ['Chambers', '/chambers'],
+    ['Compliance reports', '/reports'],
     ['Quotes', '/quotes'],
+    ['Outbox', '/admin/outbox'],
     ['Users', '/admin/users'],
   ],
   engineer: [
@@ -27,11 +30,15 @@ const EXPECTED_LINKS: Record<Role, [name: string, href: string][]> = {
     ['Compute queue', '/compute-queue'],
     ['Released recipes', '/recipes'],
     ['Chamber runs', '/runs'],
+    ['Chambers', '/chambers'],
+    ['Compliance reports', '/reports'],
+    ['Quotes', '/quotes'],
   ],
   sales: [
     ['Home', '/'],
     ['Stack designs', '/designs'],
     ['Spec masks', '/spec-masks'],
+    ['Compliance reports', '/reports'],
     ['Quotes', '/quotes'],
   ],
   operator: [
@@ -73,7 +80,12 @@ describe('side navigation', () => {
     expect(within(banner).getByText('Sales')).toBeTruthy();
     expect(screen.getByRole('heading', { level: 1, name: 'Welcome, Ines Calder' })).toBeTruthy();
     const cards = within(screen.getByRole('list', { name: 'Your sections' })).getAllByRole('heading');
-    expect(cards.map((h) => h.textContent)).toEqual(['Stack designs', 'Spec masks', 'Quotes']);
+    expect(cards.map((h) => h.textContent)).toEqual([
+      'Stack designs',
+      'Spec masks',
+      'Compliance reports',
+      'Quotes',
+    ]);
     expect((await screen.findByRole('status', { name: 'Service status' })).textContent).toBe(
       'All services running · Database ok · Redis ok · Queue ok · Worker ok',
     );
@@ -120,6 +132,6 @@ describe('side navigation', () => {
     const unavailable = cards
       .filter((card) => card.textContent?.includes('Not available yet in this release'))
       .map((card) => within(card).getByRole('heading').textContent);
-    expect(unavailable).toEqual(['Released recipes', 'Chamber runs', 'Quotes']);
+    expect(unavailable).toEqual([]);
   });
 });

@@ -15,7 +15,7 @@ describe('role guard', () => {
   it.each([
     ['sales', '/materials', 'Materials', 'Sales'],
     ['operator', '/designs', 'Stack designs', 'Operator'],
-    ['engineer', '/quotes', 'Quotes', 'Engineer'],
+    ['operator', '/quotes', 'Quotes', 'Operator'],
   ] as const)('refuses %s on %s instead of showing the section', async (role, path, label, roleLabel) => {
     signedInAs(role);
     renderApp(path);

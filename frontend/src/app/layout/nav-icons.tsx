@@ -1,6 +1,9 @@
 import AssignmentTurnedInOutlined from '@mui/icons-material/AssignmentTurnedInOutlined';
+import DescriptionOutlined from '@mui/icons-material/DescriptionOutlined';
+import FactoryOutlined from '@mui/icons-material/FactoryOutlined';
 import HomeOutlined from '@mui/icons-material/HomeOutlined';
 import LayersOutlined from '@mui/icons-material/LayersOutlined';
+import OutboxOutlined from '@mui/icons-material/OutboxOutlined';
 import PeopleOutlined from '@mui/icons-material/PeopleOutlined';
 import PrecisionManufacturingOutlined from '@mui/icons-material/PrecisionManufacturingOutlined';
 import QueueOutlined from '@mui/icons-material/QueueOutlined';
@@ -19,6 +22,9 @@ export const SECTION_ICONS: Readonly<Record<NavSection['key'], SvgIconComponent>
   queue: QueueOutlined,
   recipes: AssignmentTurnedInOutlined,
   runs: PrecisionManufacturingOutlined,
+  chambers: FactoryOutlined,
+  reports: DescriptionOutlined,
   quotes: RequestQuoteOutlined,
+  outbox: OutboxOutlined,
   users: PeopleOutlined,
 };

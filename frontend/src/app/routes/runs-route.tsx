@@ -1,0 +1,7 @@
+import { NAV_SECTIONS } from '@quietglass/shared';
+import { SectionNotAvailableRoute } from './section-not-available-route';
+
+// Placeholder until the page is built.
+export function RunsRoute() {
+  return <SectionNotAvailableRoute section={NAV_SECTIONS.find((s) => s.key === 'runs')!} />;
+}
