@@ -168,3 +168,42 @@ export const DEMO_CHAMBERS: readonly {
       'Electron-beam sources, quartz-crystal rate control, optical monitor through a fused-silica chip (demo data)',
   },
 ];
+
+/**
+ * The demo shop's designs (invented scenario). "HVS-2210 four-layer AR" answers Halden's lens mask:
+ * MgF2 / ZrO2 / Al2O3 / SiO2, incident side first, on N-BK7, thicknesses found with the optics engine
+ * for the demo's typical materials. Mira Castell wrote and submitted version 1; Tomas Reyes approved
+ * and released it, so operators have a recipe to build and sales a version to quote.
+ */
+export const DEMO_DESIGNS: readonly {
+  name: string;
+  customer: string;
+  mask: { name: string; revision: string };
+  author: string;
+  reviewer: string;
+  incident: string;
+  substrate: string;
+  substrateThicknessMm: number;
+  referenceWavelengthNm: number;
+  layers: [material: string, thicknessNm: number][];
+  notes: string;
+}[] = [
+  {
+    name: 'HVS-2210 four-layer AR',
+    customer: 'Halden Vision Systems',
+    mask: { name: 'HVS-2210 lens AR', revision: 'A' },
+    author: 'mira.castell@larkspur.example',
+    reviewer: 'tomas.reyes@larkspur.example',
+    incident: 'Air',
+    substrate: 'N-BK7',
+    substrateThicknessMm: 2,
+    referenceWavelengthNm: 550,
+    layers: [
+      ['MgF2', 96.8],
+      ['ZrO2', 127.6],
+      ['Al2O3', 84.2],
+      ['SiO2', 76.2],
+    ],
+    notes: 'Front surface of the lens; demo design',
+  },
+];

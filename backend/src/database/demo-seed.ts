@@ -9,7 +9,16 @@ import { User } from '../users/user.entity.js';
 import { validateSpecMask } from '@quietglass/shared/optics/mask';
 import { SpecMaskRecord } from '../spec-masks/spec-mask.entity.js';
 import { Chamber } from '../chambers/chamber.entity.js';
-import { DEMO_CHAMBERS, DEMO_CUSTOMERS, DEMO_MATERIALS, DEMO_SPEC_MASKS } from './demo-materials.js';
+import {
+  DEMO_CHAMBERS,
+  DEMO_CUSTOMERS,
+  DEMO_DESIGNS,
+  DEMO_MATERIALS,
+  DEMO_SPEC_MASKS,
+} from './demo-materials.js';
+import { Design } from '../designs/design.entity.js';
+import { DesignVersion } from '../designs/design-version.entity.js';
+import { VersionEvent } from '../designs/version-event.entity.js';
 import { hashPassword } from '../users/passwords.js';
 
 /**
@@ -118,5 +127,73 @@ export async function seedDemo(db: DataSource, signIns: DemoSignIn[]): Promise<n
     await repo.insert({ ...demo, passwordHash: await hashPassword(password), active: true });
     created += 1;
   }
+  for (const demo of DEMO_DESIGNS) {
+    if (await db.getRepository(Design).existsBy({ name: demo.name })) continue;
+    await seedReleasedDesign(db, demo);
+    created += 1;
+  }
   return created;
+}
+
+/** A design whose version 1 went through the whole lifecycle: written, submitted, approved, released. */
+async function seedReleasedDesign(db: DataSource, demo: (typeof DEMO_DESIGNS)[number]): Promise<void> {
+  await db.transaction(async (tx) => {
+    const material = (name: string) => tx.getRepository(Material).findOneByOrFail({ name });
+    const customer = await tx.getRepository(Customer).findOneByOrFail({ name: demo.customer });
+    const mask = await tx.getRepository(SpecMaskRecord).findOneByOrFail({
+      name: demo.mask.name,
+      revision: demo.mask.revision,
+      customer: { id: customer.id },
+    });
+    const author = await tx.getRepository(User).findOneByOrFail({ email: demo.author });
+    const reviewer = await tx.getRepository(User).findOneByOrFail({ email: demo.reviewer });
+    const incident = await material(demo.incident);
+    const substrate = await material(demo.substrate);
+    const layerMaterials: Material[] = [];
+    for (const [name] of demo.layers) layerMaterials.push(await material(name));
+    const snapshot = Object.fromEntries(
+      [incident, substrate, ...layerMaterials].map((m) => [
+        String(m.id),
+        { name: m.name, model: m.model, rangeNm: { from: m.rangeFromNm, to: m.rangeToNm } },
+      ]),
+    );
+    const design = await tx
+      .getRepository(Design)
+      .save(
+        tx
+          .getRepository(Design)
+          .create({ name: demo.name, customer, specMaskId: mask.id, createdBy: author }),
+      );
+    await tx.getRepository(DesignVersion).insert({
+      design,
+      designId: design.id,
+      number: 1,
+      status: 'released',
+      incidentMaterialId: incident.id,
+      substrateMaterialId: substrate.id,
+      substrateThicknessMm: demo.substrateThicknessMm,
+      backSurface: 'front-only',
+      referenceWavelengthNm: demo.referenceWavelengthNm,
+      notes: demo.notes,
+      layers: demo.layers.map(([, thicknessNm], i) => ({
+        materialId: layerMaterials[i].id,
+        thicknessNm,
+        locked: false,
+        notes: '',
+      })),
+      materialsSnapshot: snapshot,
+      rowVersion: 4,
+      createdBy: author,
+    });
+    const steps = [
+      ['draft', 'submitted', author],
+      ['submitted', 'approved', reviewer],
+      ['approved', 'released', reviewer],
+    ] as const;
+    for (const [fromStatus, toStatus, actor] of steps) {
+      await tx
+        .getRepository(VersionEvent)
+        .insert({ designId: design.id, versionNumber: 1, fromStatus, toStatus, actor, comment: '' });
+    }
+  });
 }
