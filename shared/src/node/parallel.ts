@@ -6,8 +6,7 @@
  *
  * Exported from the `@quietglass/shared/node/parallel` subpath, never from the browser-safe index.
  */
-import { availableParallelism } from 'node:os';
-import { Worker } from 'node:worker_threads';
+import type { Worker } from 'node:worker_threads';
 import {
   createSpectrumPlan,
   type SpectralGrid,
@@ -16,15 +15,12 @@ import {
   type SpectrumPlan,
 } from '../optics/batch.js';
 import { OpticsInputError } from '../optics/errors.js';
+import { startWorkers, type StartWorkersOptions } from './worker-start.js';
 import type { OpticalStack } from '../optics/stack.js';
-import type { SliceJob, SliceReply, WorkerReady } from './spectrum-worker.js';
+import type { SliceJob, SliceReply } from './spectrum-worker.js';
 
-export interface WorkerPoolOptions {
-  /** Number of worker threads (default: os.availableParallelism()). */
-  size?: number;
-  /** Location of the worker script; by default spectrum-worker.js beside this module (see startWorker). */
-  workerUrl?: URL;
-}
+/** Pool size and worker script location. */
+export type WorkerPoolOptions = StartWorkersOptions;
 
 /** Result of a parallel computation: the output arrays (over SharedArrayBuffers) and the plan's notes. */
 export interface ParallelSpectrum extends SpectrumOutput {
@@ -60,22 +56,7 @@ export class SpectrumWorkerPool {
 
   /** Starts the workers and waits until every one is ready. */
   static async create(options: WorkerPoolOptions = {}): Promise<SpectrumWorkerPool> {
-    const size = options.size ?? availableParallelism();
-    if (!Number.isInteger(size) || size < 1) throw new OpticsInputError('size', 'must be a whole number ≥ 1');
-    const workers = Array.from({ length: size }, () => startWorker(options.workerUrl));
-    await Promise.all(
-      workers.map(
-        (worker) =>
-          new Promise<void>((resolve, reject) => {
-            worker.once('message', (message: SliceReply | WorkerReady) => {
-              if ('ready' in message) resolve();
-              else reject(new Error('the spectrum worker answered before it was ready'));
-            });
-            worker.once('error', reject);
-          }),
-      ),
-    );
-    return new SpectrumWorkerPool(workers);
+    return new SpectrumWorkerPool(await startWorkers('spectrum-worker.js', 'spectrum worker', options));
   }
 
   /** Number of worker threads. */
@@ -165,20 +146,6 @@ export class SpectrumWorkerPool {
       job.reject(error);
     }
   }
-}
-
-/**
- * Starts one worker. From compiled code (dist) it runs spectrum-worker.js beside this module; when
- * this module itself runs from TypeScript source (tests), the worker loads the .ts source through
- * tsx's loader.
- */
-function startWorker(workerUrl: URL | undefined): Worker {
-  if (workerUrl) return new Worker(workerUrl);
-  const here = import.meta.url;
-  if (!here.endsWith('.ts')) return new Worker(new URL('./spectrum-worker.js', here));
-  const source = new URL('./spectrum-worker.ts', here).href;
-  const bootstrap = `import('tsx/esm/api').then(({ register }) => { register(); return import(${JSON.stringify(source)}); })`;
-  return new Worker(bootstrap, { eval: true });
 }
 
 /** One-off convenience: starts a pool, computes, and stops it again. */

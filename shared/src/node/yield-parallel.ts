@@ -8,9 +8,9 @@
  *
  * Exported from the `@quietglass/shared/node/yield-parallel` subpath, never from the browser-safe index.
  */
-import { availableParallelism } from 'node:os';
-import { Worker } from 'node:worker_threads';
+import type { Worker } from 'node:worker_threads';
 import { OpticsInputError } from '../optics/errors.js';
+import { startWorkers, type StartWorkersOptions } from './worker-start.js';
 import type { SpecMask } from '../optics/mask.js';
 import type { OpticalStack } from '../optics/stack.js';
 import {
@@ -21,14 +21,10 @@ import {
   type YieldOptions,
   type YieldPart,
 } from '../optimise/yield.js';
-import type { YieldChunk, YieldChunkReply, YieldWorkerReady } from './yield-worker.js';
+import type { YieldChunk, YieldChunkReply } from './yield-worker.js';
 
-export interface YieldPoolOptions {
-  /** Number of worker threads (default: os.availableParallelism()). */
-  size?: number;
-  /** Location of the worker script; by default yield-worker.js beside this module. */
-  workerUrl?: URL;
-}
+/** Pool size and worker script location. */
+export type YieldPoolOptions = StartWorkersOptions;
 
 /** A fixed set of worker threads running Yield forecasts; forecasts run one after another. */
 export class YieldWorkerPool {
@@ -53,22 +49,7 @@ export class YieldWorkerPool {
 
   /** Starts the workers and waits until every one is ready. */
   static async create(options: YieldPoolOptions = {}): Promise<YieldWorkerPool> {
-    const size = options.size ?? availableParallelism();
-    if (!Number.isInteger(size) || size < 1) throw new OpticsInputError('size', 'must be a whole number ≥ 1');
-    const workers = Array.from({ length: size }, () => startWorker(options.workerUrl));
-    await Promise.all(
-      workers.map(
-        (worker) =>
-          new Promise<void>((resolve, reject) => {
-            worker.once('message', (message: YieldChunkReply | YieldWorkerReady) => {
-              if ('ready' in message) resolve();
-              else reject(new Error('the yield worker answered before it was ready'));
-            });
-            worker.once('error', reject);
-          }),
-      ),
-    );
-    return new YieldWorkerPool(workers);
+    return new YieldWorkerPool(await startWorkers('yield-worker.js', 'yield worker', options));
   }
 
   /** Number of worker threads. */
@@ -192,19 +173,6 @@ function contiguousFromStart(parts: readonly YieldPart[]): YieldPart[] {
     next = part.to;
   }
   return out;
-}
-
-/**
- * Starts one worker: yield-worker.js beside this module when compiled; from TypeScript source
- * (tests) the worker loads the .ts source through tsx's loader.
- */
-function startWorker(workerUrl: URL | undefined): Worker {
-  if (workerUrl) return new Worker(workerUrl);
-  const here = import.meta.url;
-  if (!here.endsWith('.ts')) return new Worker(new URL('./yield-worker.js', here));
-  const source = new URL('./yield-worker.ts', here).href;
-  const bootstrap = `import('tsx/esm/api').then(({ register }) => { register(); return import(${JSON.stringify(source)}); })`;
-  return new Worker(bootstrap, { eval: true });
 }
 
 /** One-off convenience: starts a pool, runs the forecast, and stops the pool again. */
