@@ -130,6 +130,12 @@ describe('four-eyes approval and release', () => {
     const ids = list.body.map((r: { designId: number }) => r.designId);
     expect(ids).toContain(releasedId);
     expect(ids).not.toContain(draftId);
+    expect(list.body.find((r: { designId: number }) => r.designId === releasedId)).toMatchObject({
+      number: 1,
+      name: 'Window 532 AR',
+      customer: 'Orrin Medical Imaging',
+      releasedBy: 'Tomas Reyes',
+    });
     const recipe = await http().get(`/api/recipes/${releasedId}/1`).set('Cookie', operator);
     expect(recipe.status).toBe(200);
     expect(recipe.body).toMatchObject({ status: 'released', name: 'Window 532 AR' });

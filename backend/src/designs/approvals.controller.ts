@@ -82,14 +82,22 @@ export class ApprovalsController {
   @Get('recipes')
   @Roles('admin', 'engineer', 'operator')
   async recipes(): Promise<
-    { designId: number; number: number; name: string; customer: string; releasedAt: string }[]
+    {
+      designId: number;
+      number: number;
+      name: string;
+      customer: string;
+      releasedAt: string;
+      releasedBy: string | null;
+    }[]
   > {
-    return (await this.approvals.releasedRecipes()).map((v) => ({
+    return (await this.approvals.releasedRecipes()).map(({ version: v, releasedBy }) => ({
       designId: v.designId,
       number: v.number,
       name: v.design.name,
       customer: v.design.customer.name,
       releasedAt: v.updatedAt.toISOString(),
+      releasedBy,
     }));
   }
 

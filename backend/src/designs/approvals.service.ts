@@ -6,7 +6,7 @@ import {
   NotFoundException,
 } from '@nestjs/common';
 import { InjectDataSource } from '@nestjs/typeorm';
-import { DataSource } from 'typeorm';
+import { DataSource, In } from 'typeorm';
 import type { DesignVersionView, VersionStatus } from '@quietglass/shared/designs';
 import type { User } from '../users/user.entity.js';
 import { DesignVersion } from './design-version.entity.js';
@@ -112,13 +112,24 @@ export class ApprovalsService {
     });
   }
 
-  /** Released versions: what operators may build. */
-  async releasedRecipes(): Promise<DesignVersion[]> {
-    return this.db.getRepository(DesignVersion).find({
+  /** Released versions, what operators may build, each with who released it (from the audit trail). */
+  async releasedRecipes(): Promise<{ version: DesignVersion; releasedBy: string | null }[]> {
+    const versions = await this.db.getRepository(DesignVersion).find({
       where: { status: 'released' },
       relations: { design: true },
       order: { updatedAt: 'DESC' },
     });
+    if (versions.length === 0) return [];
+    const events = await this.db.getRepository(VersionEvent).find({
+      where: { designId: In(versions.map((v) => v.designId)), toStatus: 'released' },
+      order: { at: 'ASC', id: 'ASC' },
+    });
+    // The latest release event of each version wins (ordered oldest first, so later ones overwrite).
+    const releasedBy = new Map(events.map((e) => [`${e.designId}:${e.versionNumber}`, e.actor.displayName]));
+    return versions.map((version) => ({
+      version,
+      releasedBy: releasedBy.get(`${version.designId}:${version.number}`) ?? null,
+    }));
   }
 
   /** A released version, or 404 — drafts and other statuses do not exist as recipes. */
