@@ -177,7 +177,7 @@ async function main() {
     await step(
       'browser: end-to-end tests (Chromium)',
       'npx',
-      ['vitest', 'run', '-c', 'vitest.browser.config.ts'],
+      ['vitest', 'run', '-c', 'vitest.browser.config.ts', ...filter],
       {
         cwd: path.join(ROOT, 'tools'),
         env: { ...browserEnv, QG_BASE_URL: `http://127.0.0.1:${port}` },
