@@ -52,12 +52,21 @@ describe('role guard', () => {
   });
 
   it('lets a permitted role through to the section page', async () => {
-    signedInAs('sales');
+    const api = signedInAs('sales', {
+      'GET /api/quotes': { status: 200, body: [] },
+      'GET /api/customers': { status: 200, body: [] },
+      'GET /api/designs': { status: 200, body: [] },
+      'GET /api/spec-masks': { status: 200, body: [] },
+    });
     renderApp('/quotes');
 
     expect(await screen.findByRole('heading', { level: 1, name: 'Quotes' })).toBeTruthy();
-    expect(screen.getByText('Quotes is not available yet in this release.')).toBeTruthy();
+    expect(await screen.findByRole('grid', { name: 'Quotes' })).toBeTruthy();
+    expect(await screen.findByText('No quotes yet')).toBeTruthy();
+    expect(screen.getByRole('button', { name: 'New quote' })).toBeTruthy();
+    expect(screen.queryByText('Quotes is not available yet in this release.')).toBeNull();
     expect(screen.queryByText('Not permitted for your role')).toBeNull();
+    expect(api.calls('GET', '/api/quotes')).toHaveLength(1);
   });
 
   it('shows "Page not found" for an address that is no page', async () => {

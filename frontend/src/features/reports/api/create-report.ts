@@ -1,0 +1,29 @@
+import { useMutation, useQueryClient } from '@tanstack/react-query';
+import { apiClient } from '../../../lib/api-client';
+import { REPORT_LISTS_KEY, type ReportView } from './get-reports';
+
+/** CreateReportDto: an approved or released version against a mask of the design's customer. */
+export interface CreateReportInput {
+  designId: number;
+  versionNumber: number;
+  /** The design's own mask when omitted. */
+  specMaskId?: number;
+  hideLayers: boolean;
+  /** A run's measured spectrum instead of the designed values: both or neither. */
+  runId?: number;
+  spectrumId?: number;
+}
+
+export function createReport(input: CreateReportInput): Promise<ReportView> {
+  return apiClient.post<ReportView>('/reports', input);
+}
+
+/** Computes and stores a report; the dialog shows errors itself. */
+export function useCreateReport() {
+  const queryClient = useQueryClient();
+  return useMutation({
+    mutationFn: createReport,
+    meta: { errorShownInline: true },
+    onSuccess: () => queryClient.invalidateQueries({ queryKey: REPORT_LISTS_KEY }),
+  });
+}

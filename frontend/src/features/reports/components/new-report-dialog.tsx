@@ -1,0 +1,224 @@
+import Box from '@mui/material/Box';
+import Typography from '@mui/material/Typography';
+import type { VersionStatus } from '@quietglass/shared';
+import { useEffect } from 'react';
+import { useForm, useWatch } from 'react-hook-form';
+import { ErrorAlert } from '../../../components/error-alert';
+import { FormCheckboxField } from '../../../components/form-checkbox-field';
+import { FormDialog } from '../../../components/form-dialog';
+import { FormSelectField } from '../../../components/form-select-field';
+import { FormTextField } from '../../../components/form-text-field';
+import { useCreateReport, type CreateReportInput } from '../api/create-report';
+import type { ReportView } from '../api/get-reports';
+
+/** Versions a customer may be shown (the API refuses drafts and versions under review). */
+const REPORTABLE: ReadonlySet<VersionStatus> = new Set(['approved', 'released']);
+
+export interface ReportDesignChoice {
+  id: number;
+  name: string;
+  customer: { id: number; name: string };
+  specMaskId: number | null;
+}
+
+export interface ReportMaskChoice {
+  id: number;
+  name: string;
+  revision: string;
+  customer: { id: number };
+}
+
+interface NewReportValues {
+  designId: string;
+  versionNumber: string;
+  specMaskId: string;
+  hideLayers: boolean;
+  runId: string;
+  spectrumId: string;
+}
+
+interface NewReportDialogProps {
+  open: boolean;
+  onClose: () => void;
+  onCreated: (report: ReportView) => void;
+  designs: readonly ReportDesignChoice[];
+  masks: readonly ReportMaskChoice[];
+  /** Versions of the chosen design; undefined while they load (or before a design is chosen). */
+  versions: readonly { number: number; status: VersionStatus }[] | undefined;
+  /** Told which design is chosen, so its versions can be fetched. */
+  onDesignChange: (designId: number | null) => void;
+  /** Fixed design, version and mask (a report made for a quote). */
+  preset?: { designId: number; versionNumber: number; specMaskId: number };
+  /** Offer a run's measured spectrum (only roles that may read chamber runs). */
+  allowMeasured?: boolean;
+}
+
+const ID_PATTERN = /^\d+$/;
+
+function idRule(what: string) {
+  return (value: unknown) => {
+    const text = String(value).trim();
+    return text === '' || ID_PATTERN.test(text) || `Enter the ${what} number`;
+  };
+}
+
+function defaults(preset: NewReportDialogProps['preset']): NewReportValues {
+  return {
+    designId: preset ? String(preset.designId) : '',
+    versionNumber: preset ? String(preset.versionNumber) : '',
+    specMaskId: preset ? String(preset.specMaskId) : '',
+    hideLayers: false,
+    runId: '',
+    spectrumId: '',
+  };
+}
+
+/** A compliance report of an approved version against a spec mask of the design's customer. */
+export function NewReportDialog({
+  open,
+  onClose,
+  onCreated,
+  designs,
+  masks,
+  versions,
+  onDesignChange,
+  preset,
+  allowMeasured = false,
+}: NewReportDialogProps) {
+  const createReport = useCreateReport();
+  const { control, handleSubmit, setValue, getValues, watch } = useForm<NewReportValues>({
+    defaultValues: defaults(preset),
+  });
+  const designId = useWatch({ control, name: 'designId' });
+  const design = designs.find((d) => String(d.id) === designId);
+  const masksOfCustomer = design ? masks.filter((m) => m.customer.id === design.customer.id) : [];
+  const reportable = (versions ?? []).filter((v) => REPORTABLE.has(v.status));
+
+  useEffect(() => onDesignChange(designId === '' ? null : Number(designId)), [designId, onDesignChange]);
+  useEffect(() => {
+    // Another design chosen: its own versions, and its own mask as the first choice.
+    const subscription = watch((values, { name }) => {
+      if (name !== 'designId') return;
+      const chosen = designs.find((d) => String(d.id) === values.designId);
+      setValue('versionNumber', '');
+      setValue('specMaskId', chosen?.specMaskId ? String(chosen.specMaskId) : '');
+    });
+    return () => subscription.unsubscribe();
+  }, [designs, setValue, watch]);
+
+  const close = () => {
+    createReport.reset();
+    onClose();
+  };
+
+  const onSubmit = handleSubmit((values) => {
+    const input: CreateReportInput = {
+      designId: Number(values.designId),
+      versionNumber: Number(values.versionNumber),
+      specMaskId: Number(values.specMaskId),
+      hideLayers: values.hideLayers,
+    };
+    if (values.runId.trim() !== '') {
+      input.runId = Number(values.runId);
+      input.spectrumId = Number(values.spectrumId);
+    }
+    createReport.mutate(input, {
+      onSuccess: (report) => {
+        close();
+        onCreated(report);
+      },
+    });
+  });
+
+  const versionOptions = preset
+    ? [{ value: String(preset.versionNumber), label: `Version ${preset.versionNumber}` }]
+    : reportable.map((v) => ({ value: String(v.number), label: `Version ${v.number} (${v.status})` }));
+
+  return (
+    <FormDialog
+      open={open}
+      title="New compliance report"
+      submitLabel="Create report"
+      pending={createReport.isPending}
+      onSubmit={onSubmit}
+      onClose={close}
+    >
+      {createReport.error && <ErrorAlert error={createReport.error} title="The report was not created" />}
+      <Box sx={{ display: 'grid', gap: 2, mt: 1 }}>
+        <FormSelectField
+          control={control}
+          name="designId"
+          label="Design"
+          placeholder="Choose…"
+          disabled={Boolean(preset)}
+          rules={{ validate: (v) => v !== '' || 'Choose the design' }}
+          options={designs.map((d) => ({ value: String(d.id), label: `${d.name} — ${d.customer.name}` }))}
+        />
+        <FormSelectField
+          control={control}
+          name="versionNumber"
+          label="Approved version"
+          placeholder="Choose…"
+          disabled={Boolean(preset) || designId === ''}
+          helperText={
+            designId === ''
+              ? 'Choose the design first'
+              : versions === undefined
+                ? 'Loading the versions…'
+                : reportable.length === 0
+                  ? 'This design has no approved or released version yet'
+                  : 'Only approved and released versions are reported'
+          }
+          rules={{ validate: (v) => v !== '' || 'Choose an approved version' }}
+          options={versionOptions}
+        />
+        <FormSelectField
+          control={control}
+          name="specMaskId"
+          label="Spec mask"
+          placeholder="Choose…"
+          disabled={Boolean(preset) || designId === ''}
+          helperText={design ? `Masks of ${design.customer.name}` : undefined}
+          rules={{ validate: (v) => v !== '' || "Choose one of the customer's spec masks" }}
+          options={(preset ? masks.filter((m) => m.id === preset.specMaskId) : masksOfCustomer).map((m) => ({
+            value: String(m.id),
+            label: `${m.name} rev ${m.revision}`,
+          }))}
+        />
+        <FormCheckboxField
+          control={control}
+          name="hideLayers"
+          label="Hide the layer table (design not disclosed)"
+        />
+        {allowMeasured && (
+          <>
+            <Typography variant="subtitle2">Measured spectrum (optional)</Typography>
+            <Typography variant="body2" color="text.secondary">
+              Report a chamber run&apos;s uploaded spectrum instead of the designed values. The run must have
+              built this version.
+            </Typography>
+            <Box sx={{ display: 'grid', gap: 2, gridTemplateColumns: '1fr 1fr' }}>
+              <FormTextField
+                control={control}
+                name="runId"
+                label="Run number"
+                rules={{ validate: idRule('run') }}
+              />
+              <FormTextField
+                control={control}
+                name="spectrumId"
+                label="Spectrum number"
+                rules={{
+                  validate: (value) => {
+                    const both = (getValues('runId').trim() === '') === (String(value).trim() === '');
+                    return both ? idRule('spectrum')(value) : 'Give the run and its spectrum together';
+                  },
+                }}
+              />
+            </Box>
+          </>
+        )}
+      </Box>
+    </FormDialog>
+  );
+}
