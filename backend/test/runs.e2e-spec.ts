@@ -138,6 +138,13 @@ describe('chamber runs', () => {
     expect(cmp.body.mask).toMatchObject({ name: 'HVS-2210 lens AR', pass: false });
     expect(cmp.body.mask.worstMargin).toBeCloseTo(-0.2, 9);
     expect(cmp.body.mask.bands[0].worstAt.wavelengthNm).toBeGreaterThanOrEqual(600);
+    // The mask's own limits come along so the client can draw them (operators cannot read spec masks).
+    expect(cmp.body.mask.limits[0]).toMatchObject({
+      from_nm: 420,
+      to_nm: 680,
+      quantity: 'R',
+      max_percent: 0.5,
+    });
   });
 
   it('rejects a malformed spectrum with row-level messages and stores nothing', async () => {

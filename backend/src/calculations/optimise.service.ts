@@ -15,7 +15,13 @@ import type { User } from '../users/user.entity.js';
 import { Calculation } from './calculation.entity.js';
 import { CalculationsService } from './calculations.service.js';
 import type { DiagnosisDto, FitDto, GrowDto, YieldDto } from './dto/optimise.dto.js';
-import type { DiagnosisInput, FitInput, GrowInput, YieldInput } from './optimise-jobs.js';
+import {
+  grownLayerMaterialId,
+  type DiagnosisInput,
+  type FitInput,
+  type GrowInput,
+  type YieldInput,
+} from './optimise-jobs.js';
 
 /** Builds the inputs of Fit to mask, Grow layers, Yield forecast and Run diagnosis, and accepts results. */
 @Injectable()
@@ -173,7 +179,7 @@ export class OptimiseService {
       const names = await this.materialNames(input.layerMaterialIds);
       names.forEach((id, name) => ids.set(name, id));
       layers = chosen.layers.map((l) => {
-        const id = ids.get(String(l.material));
+        const id = grownLayerMaterialId(String(l.material), input, ids);
         if (id === undefined)
           throw new BadRequestException({
             message: [`material ${String(l.material)} is not in the library`],

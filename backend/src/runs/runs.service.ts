@@ -4,6 +4,7 @@ import { DataSource, In } from 'typeorm';
 import { designStackDescription, engineBackSurface } from '@quietglass/shared/designs';
 import { evaluateMaskOnMeasured, type MeasuredMaskResult } from '@quietglass/shared/measured';
 import { calculateSpectrum } from '@quietglass/shared/optics/batch';
+import type { LimitBand } from '@quietglass/shared/optics/mask';
 import { parseStack } from '@quietglass/shared/optics/stack';
 import { problemDetails } from '../common/csv.js';
 import { ChambersService } from '../chambers/chambers.service.js';
@@ -23,7 +24,8 @@ export interface RunComparison {
   measured: { wavelengthsNm: number[]; valuesPercent: number[] };
   /** The released design at the same angle, unpolarised, with the thick substrate as the design treats it. */
   design: { wavelengthsNm: number[]; valuesPercent: number[] };
-  mask: (MeasuredMaskResult & { name: string; revision: string }) | null;
+  /** `limits` are the mask's own bands, so a client can draw them (operators cannot read spec masks). */
+  mask: (MeasuredMaskResult & { name: string; revision: string; limits: LimitBand[] }) | null;
 }
 
 @Injectable()
@@ -151,6 +153,7 @@ export class RunsService {
       ? {
           name: maskRow.name,
           revision: maskRow.revision,
+          limits: maskRow.bands,
           ...evaluateMaskOnMeasured(
             { bands: maskRow.bands },
             {

@@ -1,0 +1,59 @@
+import { describe, expect, it } from 'vitest';
+import type { GrowResult } from '@quietglass/shared/optimise/needle';
+import { grownLayerMaterialId, runOptimiseJob, type GrowInput } from './optimise-jobs.js';
+
+/*
+ * Constant-index materials (MgF2 1.38, SiO2 1.46, TiO2 2.35, glass 1.52: typical values near 550 nm,
+ * common practice, from memory) and the usual visible AR requirement R ≤ 0.5 % over 420–680 nm
+ * (common practice, no source). Material ids are invented.
+ */
+const constant = (n: number) => ({ model: 'constant' as const, n, k: 0 });
+const IDS = { MgF2: 4, SiO2: 6, TiO2: 7 };
+
+/** A MgF2 quarter wave at 550 nm (550 / (4 · 1.38) = 99.6 nm) grown with SiO2 and TiO2 only. */
+const INPUT: GrowInput = {
+  kind: 'grow',
+  stack: {
+    incident: { material: 'air' },
+    substrate: { material: 'glass', thickness_mm: 2 },
+    materials: { air: constant(1), glass: constant(1.52), 'material-4': constant(1.38) },
+    layers: [{ material: 'material-4', thickness_nm: 99.6 }],
+    reference_nm: 550,
+  },
+  back: 'none',
+  bands: [{ from_nm: 420, to_nm: 680, quantity: 'R', max_percent: 0.5, step_nm: 10 }],
+  layerMaterialIds: [IDS.MgF2],
+  allowed: [
+    { materialId: IDS.SiO2, name: 'SiO2', model: constant(1.46) },
+    { materialId: IDS.TiO2, name: 'TiO2', model: constant(2.35) },
+  ],
+  options: { maxLayers: 8, maxTotalThicknessNm: 2000, minThicknessNm: 10, maxSteps: 4 },
+};
+
+describe('grownLayerMaterialId', () => {
+  it('maps every layer of a grown stack to a material, a start layer of a material not allowed included', () => {
+    const result = runOptimiseJob(INPUT, () => true) as GrowResult;
+    const names = result.final.layers.map((l) => l.material);
+    // The start layer's material was not allowed: the engine names it by its place in the start.
+    expect(names).toContain('layers[0]');
+    const byName = new Map([
+      ['SiO2', IDS.SiO2],
+      ['TiO2', IDS.TiO2],
+      ['MgF2', IDS.MgF2],
+    ]);
+    const ids = names.map((name) => grownLayerMaterialId(name, INPUT, byName));
+    expect(ids.every((id) => id !== undefined)).toBe(true);
+    names.forEach((name, i) => {
+      if (name === 'layers[0]') expect(ids[i]).toBe(IDS.MgF2);
+      else expect(ids[i]).toBe(byName.get(name));
+    });
+  });
+
+  it('prefers the name and leaves an unknown name unresolved', () => {
+    const byName = new Map([['TiO2', 7]]);
+    expect(grownLayerMaterialId('TiO2', { layerMaterialIds: [4] }, byName)).toBe(7);
+    expect(grownLayerMaterialId('layers[0]', { layerMaterialIds: [4] }, byName)).toBe(4);
+    expect(grownLayerMaterialId('layers[3]', { layerMaterialIds: [4] }, byName)).toBeUndefined();
+    expect(grownLayerMaterialId('ZrO2', { layerMaterialIds: [4] }, byName)).toBeUndefined();
+  });
+});
