@@ -14,7 +14,7 @@ import type { MaterialModel, StackDescription } from '@quietglass/shared';
 import {
   createPreviewCalculator,
   type PreviewRequest,
-} from '../../frontend/src/features/designs/preview/compute-preview.ts';
+} from '../../frontend/src/lib/preview/compute-preview.ts';
 
 const LAYERS = 30;
 const WARMUPS = 50;

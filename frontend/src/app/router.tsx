@@ -9,9 +9,7 @@ import { HomeRoute } from './routes/home-route';
 import { NotFoundRoute } from './routes/not-found-route';
 import { LoadingBlock } from '../components/loading-block';
 import { RouteError } from './routes/route-error';
-import { SectionNotAvailableRoute } from './routes/section-not-available-route';
 import { SignInRoute } from './routes/sign-in-route';
-import { AVAILABLE_SECTIONS } from './sections';
 
 export type AppRouter = ReturnType<typeof createBrowserRouter>;
 
@@ -54,9 +52,6 @@ const SECTION_PAGES: Record<NavSection['key'], { path?: string; load: PageLoader
 
 function sectionPage(section: NavSection): RouteObject {
   const pages = SECTION_PAGES[section.key];
-  if (!AVAILABLE_SECTIONS.has(section.key)) {
-    return { path: section.path.slice(1), element: <SectionNotAvailableRoute section={section} /> };
-  }
   return {
     path: section.path.slice(1),
     children: pages.map(({ path, load }) =>

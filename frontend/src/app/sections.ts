@@ -14,18 +14,3 @@ export const SECTION_SUMMARIES: Readonly<Record<NavSection['key'], string>> = {
   outbox: 'E-mail sent by Quietglass, with its attachments.',
   users: 'Accounts, roles and passwords.',
 };
-
-/** Sections whose pages exist in this release; the others show a plain "not available yet". */
-export const AVAILABLE_SECTIONS: ReadonlySet<NavSection['key']> = new Set([
-  'users',
-  'designs',
-  'materials',
-  'masks',
-  'queue',
-  'recipes',
-  'runs',
-  'chambers',
-  'reports',
-  'quotes',
-  'outbox',
-]);

@@ -98,7 +98,6 @@ describe('side navigation', () => {
     const nav = await screen.findByRole('navigation', { name: 'Main' });
     expect(within(nav).getByRole('link', { name: 'Chamber runs' }).getAttribute('aria-current')).toBe('page');
     expect(within(nav).getByRole('link', { name: 'Home' }).getAttribute('aria-current')).toBeNull();
-    expect(screen.getByText('Chamber runs is not available yet in this release.')).toBeTruthy();
   });
 
   it.each([
@@ -106,32 +105,33 @@ describe('side navigation', () => {
     ['/materials', 'Materials'],
     ['/spec-masks', 'Spec masks'],
     ['/compute-queue', 'Compute queue'],
-  ])('opens the %s page instead of a placeholder', async (path, title) => {
-    mockApi({
-      'GET /api/auth/me': { status: 200, body: { user: STAFF.engineer } },
+    ['/recipes', 'Released recipes'],
+    ['/runs', 'Chamber runs'],
+    ['/chambers', 'Chambers'],
+    ['/reports', 'Compliance reports'],
+    ['/quotes', 'Quotes'],
+    ['/admin/outbox', 'Outbox'],
+    ['/admin/users', 'Users'],
+  ])('opens the %s page with its title', async (path, title) => {
+    const api = mockApi({
+      'GET /api/auth/me': { status: 200, body: { user: STAFF.admin } },
       'GET /api/designs': { status: 200, body: [] },
       'GET /api/materials': { status: 200, body: [] },
       'GET /api/customers': { status: 200, body: [] },
       'GET /api/spec-masks': { status: 200, body: [] },
       'GET /api/calculations': { status: 200, body: [] },
+      'GET /api/recipes': { status: 200, body: [] },
+      'GET /api/runs': { status: 200, body: [] },
+      'GET /api/chambers': { status: 200, body: [] },
+      'GET /api/reports': { status: 200, body: [] },
+      'GET /api/quotes': { status: 200, body: [] },
+      'GET /api/outbox': { status: 200, body: [] },
+      'GET /api/users': { status: 200, body: [] },
     });
     renderApp(path);
 
     expect(await screen.findByRole('heading', { level: 1, name: title }, { timeout: 10_000 })).toBeTruthy();
-    expect(screen.queryByText(`${title} is not available yet in this release.`)).toBeNull();
-  });
-
-  it('keeps the placeholder for sections this release does not have', async () => {
-    mockApi({
-      'GET /api/auth/me': { status: 200, body: { user: STAFF.admin } },
-      'GET /api/health': { status: 200, body: HEALTH_OK },
-    });
-    renderApp('/');
-
-    const cards = within(await screen.findByRole('list', { name: 'Your sections' })).getAllByRole('listitem');
-    const unavailable = cards
-      .filter((card) => card.textContent?.includes('Not available yet in this release'))
-      .map((card) => within(card).getByRole('heading').textContent);
-    expect(unavailable).toEqual([]);
+    expect(document.title).toBe(`${title} · Quietglass`);
+    expect(api.unexpected.filter((key) => key !== 'GET /api/health')).toEqual([]);
   });
 });

@@ -1,17 +1,30 @@
 import Box from '@mui/material/Box';
 import Button from '@mui/material/Button';
+import { useQueryClient } from '@tanstack/react-query';
+import { useState } from 'react';
 import { useParams, useSearchParams, Link as RouterLink } from 'react-router-dom';
 import { ErrorAlert } from '../../components/error-alert';
 import { LoadingBlock } from '../../components/loading-block';
 import { PageHeader } from '../../components/page-header';
+import { ApprovalPanel } from '../../features/approvals/components/approval-panel';
 import { useSignedInUser } from '../../features/auth/signed-in-user';
 import { AnalysisPanel } from '../../features/calculations/components/analysis-panel';
 import { useDesign } from '../../features/designs/api/get-design';
+import { storeDesignVersion, useDesignVersion } from '../../features/designs/api/get-design-version';
+import { DesignDetailsDialog } from '../../features/designs/components/design-details-dialog';
 import { DesignWorkspace } from '../../features/designs/components/design-workspace';
 import { useMaterials } from '../../features/materials/api/get-materials';
+import { OptimisePanel } from '../../features/calculations/components/optimise-panel';
 import { useSpecMask } from '../../features/spec-masks/api/get-spec-mask';
+import { useSpecMasks } from '../../features/spec-masks/api/get-spec-masks';
 import { isDesigner } from '../../lib/roles';
 import { NotFoundRoute } from './not-found-route';
+
+/** The version asked for in the address if the design has it, else its latest. */
+function shownVersion(versions: readonly { number: number }[], asked: string | null): number {
+  const number = Number(asked);
+  return versions.some((v) => v.number === number) ? number : Math.max(...versions.map((v) => v.number));
+}
 
 export function DesignWorkspaceRoute() {
   const user = useSignedInUser();
@@ -19,10 +32,21 @@ export function DesignWorkspaceRoute() {
   const params = useParams();
   const designId = Number(params.id);
   const valid = Number.isInteger(designId) && designId > 0;
-  const [search, setSearch] = useSearchParams();
   const design = useDesign(valid ? designId : 0);
   const materials = useMaterials();
   const mask = useSpecMask(design.data?.specMaskId ?? null);
+  const [editingDetails, setEditingDetails] = useState(false);
+  const queryClient = useQueryClient();
+  const customerMasks = useSpecMasks(
+    { customerId: design.data?.customer.id },
+    { enabled: canEdit && editingDetails && design.data !== undefined },
+  );
+  const [search, setSearch] = useSearchParams();
+  // The workspace reads the same query: the optimisations' start version costs no second request.
+  const optimiseVersion = useDesignVersion(
+    designId,
+    canEdit && design.data ? shownVersion(design.data.versions, search.get('version')) : null,
+  );
 
   if (!valid) return <NotFoundRoute />;
   if (design.isPending || materials.isPending) return <LoadingBlock label="Loading the design" />;
@@ -30,9 +54,7 @@ export function DesignWorkspaceRoute() {
   if (materials.isError)
     return <ErrorAlert error={materials.error} title="The materials could not be loaded" />;
 
-  const latest = Math.max(...design.data.versions.map((v) => v.number));
-  const asked = Number(search.get('version'));
-  const versionNumber = design.data.versions.some((v) => v.number === asked) ? asked : latest;
+  const versionNumber = shownVersion(design.data.versions, search.get('version'));
   const maskName =
     design.data.specMaskId === null
       ? null
@@ -46,11 +68,26 @@ export function DesignWorkspaceRoute() {
         title={design.data.name}
         description={`${design.data.customer.name} · ${maskName ?? 'no spec mask'}`}
         actions={
-          <Button component={RouterLink} to="/designs" variant="text">
-            All designs
-          </Button>
+          <>
+            {canEdit && (
+              <Button variant="outlined" onClick={() => setEditingDetails(true)}>
+                Design details…
+              </Button>
+            )}
+            <Button component={RouterLink} to="/designs" variant="text">
+              All designs
+            </Button>
+          </>
         }
       />
+      {canEdit && (
+        <DesignDetailsDialog
+          open={editingDetails}
+          design={design.data}
+          specMasks={customerMasks.data ?? []}
+          onClose={() => setEditingDetails(false)}
+        />
+      )}
       {mask.isError && (
         <ErrorAlert error={mask.error} title="The spec mask could not be loaded" sx={{ mb: 2 }} />
       )}
@@ -63,6 +100,15 @@ export function DesignWorkspaceRoute() {
           maskBands={mask.data?.bands ?? null}
           maskName={maskName}
           canEdit={canEdit}
+          approval={(version, onTransitioned) => (
+            <ApprovalPanel
+              key={version.number}
+              version={version}
+              userId={user.id}
+              canAct={canEdit}
+              onTransitioned={onTransitioned}
+            />
+          )}
         />
         <AnalysisPanel
           key={versionNumber}
@@ -70,6 +116,19 @@ export function DesignWorkspaceRoute() {
           versionNumber={versionNumber}
           canSubmit={canEdit}
         />
+        {canEdit && (
+          <OptimisePanel
+            key={`optimise-${versionNumber}`}
+            designId={design.data.id}
+            versionNumber={versionNumber}
+            library={materials.data}
+            maskBands={mask.data?.bands ?? null}
+            version={optimiseVersion}
+            canRun={canEdit}
+            onVersionChange={(number) => setSearch({ version: String(number) })}
+            storeVersion={(view) => storeDesignVersion(queryClient, view)}
+          />
+        )}
       </Box>
     </>
   );

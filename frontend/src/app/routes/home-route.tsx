@@ -9,7 +9,7 @@ import { PageHeader } from '../../components/page-header';
 import { useSignedInUser } from '../../features/auth/signed-in-user';
 import { HealthStatus } from '../../features/health/components/health-status';
 import { ROLE_LABELS } from '../../lib/roles';
-import { AVAILABLE_SECTIONS, SECTION_SUMMARIES } from '../sections';
+import { SECTION_SUMMARIES } from '../sections';
 
 export function HomeRoute() {
   const user = useSignedInUser();
@@ -45,11 +45,6 @@ export function HomeRoute() {
                   <Typography variant="body2" color="text.secondary">
                     {SECTION_SUMMARIES[section.key]}
                   </Typography>
-                  {!AVAILABLE_SECTIONS.has(section.key) && (
-                    <Typography variant="caption" color="text.secondary" component="p" sx={{ mt: 1 }}>
-                      Not available yet in this release
-                    </Typography>
-                  )}
                 </CardContent>
               </CardActionArea>
             </Card>

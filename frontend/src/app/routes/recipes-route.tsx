@@ -1,7 +1,14 @@
-import { NAV_SECTIONS } from '@quietglass/shared';
-import { SectionNotAvailableRoute } from './section-not-available-route';
+import { PageHeader } from '../../components/page-header';
+import { RecipesGrid } from '../../features/recipes/components/recipes-grid';
 
-// Placeholder until the page is built.
 export function RecipesRoute() {
-  return <SectionNotAvailableRoute section={NAV_SECTIONS.find((s) => s.key === 'recipes')!} />;
+  return (
+    <>
+      <PageHeader
+        title="Released recipes"
+        description="Design versions approved and released for the chamber. Open one for its run sheet."
+      />
+      <RecipesGrid />
+    </>
+  );
 }

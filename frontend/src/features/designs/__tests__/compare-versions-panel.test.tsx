@@ -6,8 +6,8 @@ import { mockApi } from '../../../test/mock-api';
 import { tracesOf } from '../../../test/plot-mock';
 import { renderWithProviders } from '../../../test/render';
 import { CompareVersionsPanel } from '../components/compare-versions-panel';
-import { createInlinePreviewComputer } from '../preview/preview-computer';
-import { PreviewComputerProvider } from '../preview/preview-context';
+import { createInlinePreviewComputer } from '../../../lib/preview/preview-computer';
+import { PreviewComputerProvider } from '../../../lib/preview/preview-context';
 
 vi.mock('../../../components/plot', () => import('../../../test/plot-mock'));
 

@@ -3,11 +3,11 @@ import type { LimitBand } from '@quietglass/shared';
 import { describe, expect, it, vi } from 'vitest';
 import { TEST_DESIGN, TEST_MATERIALS, testVersion } from '../../../test/design-fixtures';
 import { apiError, mockApi } from '../../../test/mock-api';
-import { renderWithProviders } from '../../../test/render';
+import { renderApp, renderWithProviders } from '../../../test/render';
 import { DesignWorkspace } from '../components/design-workspace';
-import type { PreviewRequest } from '../preview/compute-preview';
-import { createInlinePreviewComputer } from '../preview/preview-computer';
-import { PreviewComputerProvider } from '../preview/preview-context';
+import type { PreviewRequest } from '../../../lib/preview/compute-preview';
+import { createInlinePreviewComputer } from '../../../lib/preview/preview-computer';
+import { PreviewComputerProvider } from '../../../lib/preview/preview-context';
 
 vi.mock('../../../components/plot', () => import('../../../test/plot-mock'));
 
@@ -33,6 +33,21 @@ const MASK: LimitBand[] = [
 ];
 
 type User = ReturnType<typeof renderWithProviders>['user'];
+
+/** The signed-in reviewer: an engineer who neither wrote nor submitted the test version. */
+const REVIEWER = {
+  id: 9,
+  email: 'reviewer@example.test',
+  displayName: 'Ines Review',
+  role: 'engineer' as const,
+  active: true,
+  createdAt: '2026-11-01T08:00:00.000Z',
+};
+
+/** The workspace's answers plus an empty audit trail (the page's approval panel reads it). */
+function mockWorkspaceApi(handlers: Parameters<typeof mockApi>[0]) {
+  return mockApi({ 'GET /api/designs/12/history': { status: 200, body: [] }, ...handlers });
+}
 
 function layer(materialId: number, thicknessNm: number) {
   return { materialId, thicknessNm, locked: false, notes: '' };
@@ -84,7 +99,9 @@ function saveButton(): HTMLButtonElement {
 
 describe('DesignWorkspace', () => {
   it('shows Fail, then Pass once the thickness reaches a quarter wave', async () => {
-    mockApi({ [`GET ${VERSION_URL}`]: { status: 200, body: testVersion({ layers: [layer(4, 10)] }) } });
+    mockWorkspaceApi({
+      [`GET ${VERSION_URL}`]: { status: 200, body: testVersion({ layers: [layer(4, 10)] }) },
+    });
     const { user, requests } = renderWorkspace();
 
     const badge = await screen.findByRole('status', { name: 'Spec mask result' });
@@ -106,7 +123,7 @@ describe('DesignWorkspace', () => {
   });
 
   it('marks a negative thickness in the grid and disables Save with the reason', async () => {
-    mockApi({
+    mockWorkspaceApi({
       [`GET ${VERSION_URL}`]: {
         status: 200,
         body: testVersion({ layers: [layer(4, 99.64), layer(5, 58.51)] }),
@@ -132,7 +149,7 @@ describe('DesignWorkspace', () => {
 
   it('on a stale save shows the server message and replaces the grid only after the user confirms Reload', async () => {
     const theirs = testVersion({ rowVersion: 2, layers: [layer(5, 58.51), layer(4, 99.64)] });
-    const api = mockApi({
+    const api = mockWorkspaceApi({
       [`GET ${VERSION_URL}`]: [
         { status: 200, body: testVersion({ layers: [layer(4, 90)] }) },
         { status: 200, body: theirs },
@@ -186,7 +203,7 @@ describe('DesignWorkspace', () => {
   });
 
   it('saves a draft with its rowVersion and then has nothing unsaved', async () => {
-    const api = mockApi({
+    const api = mockWorkspaceApi({
       [`GET ${VERSION_URL}`]: { status: 200, body: testVersion({ layers: [layer(4, 90)] }) },
       [`PUT ${VERSION_URL}`]: (request) => ({
         status: 200,
@@ -206,7 +223,7 @@ describe('DesignWorkspace', () => {
   });
 
   it('submits a saved draft for approval after confirming, and then shows it read-only', async () => {
-    const api = mockApi({
+    const api = mockWorkspaceApi({
       [`GET ${VERSION_URL}`]: {
         status: 200,
         body: testVersion({ rowVersion: 3, layers: [layer(4, 99.64)] }),
@@ -232,7 +249,7 @@ describe('DesignWorkspace', () => {
 
   it('shows a submitted version read-only and starts a new version from it', async () => {
     const onVersionChange = vi.fn();
-    const api = mockApi({
+    const api = mockWorkspaceApi({
       [`GET ${VERSION_URL}`]: {
         status: 200,
         body: testVersion({ status: 'submitted', layers: [layer(4, 99.64)] }),
@@ -254,5 +271,71 @@ describe('DesignWorkspace', () => {
     await user.click(screen.getByRole('button', { name: 'Start new version' }));
     await waitFor(() => expect(onVersionChange).toHaveBeenCalledWith(2));
     expect(api.calls('POST', '/api/designs/12/versions').map((r) => r.body)).toEqual([{ fromNumber: 1 }]);
+  });
+  it('after an approval step shows the new status in the approval panel and the editor', async () => {
+    const submitted = testVersion({ status: 'submitted', rowVersion: 2, layers: [layer(4, 99.64)] });
+    const event = {
+      id: 1,
+      designId: 12,
+      versionNumber: 1,
+      from: 'draft',
+      to: 'submitted',
+      actor: { id: 2, displayName: 'Tomas Reyne', role: 'engineer' },
+      comment: '',
+      at: '2026-12-01T09:00:00.000Z',
+    };
+    const approvedEvent = {
+      ...event,
+      id: 2,
+      from: 'submitted',
+      to: 'approved',
+      actor: { id: 9, displayName: 'Ines Review', role: 'engineer' },
+    };
+    const api = mockWorkspaceApi({
+      [`GET ${VERSION_URL}`]: { status: 200, body: submitted },
+      [`POST ${VERSION_URL}/approve`]: {
+        status: 201,
+        body: { ...submitted, status: 'approved', rowVersion: 3 },
+      },
+      'GET /api/designs/12/history': [
+        { status: 200, body: [event] },
+        { status: 200, body: [event, approvedEvent] },
+      ],
+      'GET /api/designs/12': { status: 200, body: TEST_DESIGN },
+      'GET /api/designs': { status: 200, body: [] },
+      // The design workspace page composes the approval panel: it needs the session and the page's data.
+      'GET /api/auth/me': { status: 200, body: { user: REVIEWER } },
+      'GET /api/materials': { status: 200, body: TEST_MATERIALS },
+      'GET /api/spec-masks/6': {
+        status: 200,
+        body: {
+          id: 6,
+          name: 'Fenwick lens AR',
+          revision: 'A',
+          customer: TEST_DESIGN.customer,
+          bands: MASK,
+          notes: '',
+        },
+      },
+    });
+    const { user } = renderApp('/designs/12?version=1');
+    expect(
+      await screen.findByText(/Version 1 is submitted and read-only/, undefined, { timeout: 10_000 }),
+    ).toBeTruthy();
+
+    await user.click(await screen.findByRole('button', { name: 'Approve' }));
+    const dialog = within(await screen.findByRole('dialog', { name: 'Approve version 1' }));
+    await user.click(dialog.getByRole('button', { name: 'Approve' }));
+
+    expect(await screen.findByText(/Version 1 is approved and read-only/)).toBeTruthy();
+    expect(screen.queryByText(/Version 1 is submitted and read-only/)).toBeNull();
+    expect(screen.getByLabelText('Version status').textContent).toBe('Version 1: approved');
+    expect(screen.getByRole('button', { name: 'Release' })).toBeTruthy();
+    expect(api.calls('POST', `${VERSION_URL}/approve`).map((r) => r.body)).toEqual([{}]);
+    await waitFor(() =>
+      expect(within(screen.getByRole('table', { name: 'Design history' })).getAllByRole('row')).toHaveLength(
+        3,
+      ),
+    );
   });
 });

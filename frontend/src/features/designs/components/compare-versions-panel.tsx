@@ -17,9 +17,9 @@ import { forbiddenRegions } from '../../../lib/mask-regions';
 import { getDesignVersionQueryOptions } from '../api/get-design-version';
 import { getDesignsQueryOptions } from '../api/get-designs';
 import type { LibraryMaterial } from '../layers';
-import type { PreviewRequest, PreviewResult } from '../preview/compute-preview';
-import { usePreviewComputer } from '../preview/preview-context';
-import { DEFAULT_PREVIEW_OPTIONS, previewRequestFor } from '../preview/preview-request';
+import type { PreviewRequest, PreviewResult } from '../../../lib/preview/compute-preview';
+import { usePreviewComputer } from '../../../lib/preview/preview-context';
+import { DEFAULT_PREVIEW_OPTIONS, previewRequestFor } from '../../../lib/preview/preview-request';
 import { PREVIEW_DEBOUNCE_MS } from '../preview/use-preview';
 
 /** Most curves on the compare plot. */

@@ -1,14 +1,18 @@
 import Box from '@mui/material/Box';
 import MenuItem from '@mui/material/MenuItem';
 import TextField from '@mui/material/TextField';
-import type { DesignView, LimitBand } from '@quietglass/shared';
+import type { DesignVersionView, DesignView, LimitBand } from '@quietglass/shared';
 import { useQueryClient } from '@tanstack/react-query';
-import { useCallback, useState } from 'react';
+import { useCallback, useState, type ReactNode } from 'react';
 import { ConfirmDialog } from '../../../components/confirm-dialog';
 import { ErrorAlert } from '../../../components/error-alert';
 import { LoadingBlock } from '../../../components/loading-block';
 import { getDesignQueryOptions } from '../api/get-design';
-import { getDesignVersionQueryOptions, useDesignVersion } from '../api/get-design-version';
+import {
+  getDesignVersionQueryOptions,
+  storeDesignVersion,
+  useDesignVersion,
+} from '../api/get-design-version';
 import type { LibraryMaterial } from '../layers';
 import { VersionEditor } from './version-editor';
 
@@ -21,9 +25,20 @@ interface DesignWorkspaceProps {
   maskBands: LimitBand[] | null;
   maskName: string | null;
   canEdit: boolean;
+  /**
+   * The open version's approval steps and history, shown above the editor. `onTransitioned` takes
+   * the version as the API returns it after a step, caches it and mounts the editor afresh.
+   */
+  approval?: (
+    version: DesignVersionView,
+    onTransitioned: (view: DesignVersionView) => Promise<void>,
+  ) => ReactNode;
 }
 
-/** The version picker for the design and, below it, the open version's editor. */
+/**
+ * The version picker for the design, the open version's approval steps and history (`approval`) and its editor.
+ * After an approval step the editor is mounted afresh so it shows the new status.
+ */
 export function DesignWorkspace({
   design,
   versionNumber,
@@ -32,6 +47,7 @@ export function DesignWorkspace({
   maskBands,
   maskName,
   canEdit,
+  approval,
 }: DesignWorkspaceProps) {
   const queryClient = useQueryClient();
   const version = useDesignVersion(design.id, versionNumber);
@@ -44,6 +60,14 @@ export function DesignWorkspace({
     await queryClient.invalidateQueries({ queryKey: getDesignQueryOptions(design.id).queryKey, exact: true });
     setLoadCount((n) => n + 1);
   }, [queryClient, design.id, versionNumber]);
+
+  const transitioned = useCallback(
+    async (view: DesignVersionView) => {
+      await storeDesignVersion(queryClient, view);
+      setLoadCount((n) => n + 1);
+    },
+    [queryClient],
+  );
 
   const choose = (number: number) => {
     if (number === versionNumber) return;
@@ -69,6 +93,7 @@ export function DesignWorkspace({
       </TextField>
       {version.isPending && <LoadingBlock label="Loading the version" />}
       {version.isError && <ErrorAlert error={version.error} title="The version could not be loaded" />}
+      {version.data && approval?.(version.data, transitioned)}
       {version.data && (
         <VersionEditor
           key={`${version.data.number}:${loadCount}`}

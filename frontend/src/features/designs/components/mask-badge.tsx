@@ -1,7 +1,7 @@
 import Box from '@mui/material/Box';
 import Chip from '@mui/material/Chip';
 import Typography from '@mui/material/Typography';
-import type { PreviewMaskResult } from '../preview/compute-preview';
+import type { PreviewMaskResult } from '../../../lib/preview/compute-preview';
 
 interface MaskBadgeProps {
   result: PreviewMaskResult | null;

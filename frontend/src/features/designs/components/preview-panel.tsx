@@ -19,9 +19,13 @@ import { Plot, type PlotData, type PlotLayout } from '../../../components/plot';
 import { parseNumberInput, parseNumberList } from '../../../lib/format';
 import { forbiddenRegions } from '../../../lib/mask-regions';
 import { swatchHex } from '../../../lib/srgb';
-import type { PreviewResult } from '../preview/compute-preview';
-import { usePreviewComputer } from '../preview/preview-context';
-import { DEFAULT_PREVIEW_OPTIONS, previewRequestFor, type PreviewOptions } from '../preview/preview-request';
+import type { PreviewResult } from '../../../lib/preview/compute-preview';
+import { usePreviewComputer } from '../../../lib/preview/preview-context';
+import {
+  DEFAULT_PREVIEW_OPTIONS,
+  previewRequestFor,
+  type PreviewOptions,
+} from '../../../lib/preview/preview-request';
 import { usePreview } from '../preview/use-preview';
 import { MaskBadge } from './mask-badge';
 

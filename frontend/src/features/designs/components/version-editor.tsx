@@ -34,7 +34,7 @@ interface VersionEditorProps {
   version: DesignVersionView;
   /** Every version of the design, for comparing. */
   versions: readonly { number: number; status: string }[];
-  /** The materials library now (a draft uses it; a submitted version its frozen snapshot). */
+  /** The materials library now (a draft or returned version uses it; a submitted one its frozen snapshot). */
   library: readonly LibraryMaterial[];
   maskBands: LimitBand[] | null;
   maskName: string | null;
@@ -51,7 +51,8 @@ function versionMaterials(
   version: DesignVersionView,
   library: readonly LibraryMaterial[],
 ): LibraryMaterial[] {
-  if (!version.materialsSnapshot) return [...library];
+  // A returned version is edited against the library again; submitting freezes a new snapshot.
+  if (!version.materialsSnapshot || version.status === 'returned') return [...library];
   return Object.entries(version.materialsSnapshot).map(([id, m]) => ({
     id: Number(id),
     name: m.name,
@@ -95,7 +96,8 @@ export function VersionEditor({
   const startVersion = useCreateDesignVersion();
   const reasonId = useId();
 
-  const editable = canEdit && baseline.status === 'draft';
+  // A returned version is edited in place and submitted again; the other statuses are frozen.
+  const editable = canEdit && (baseline.status === 'draft' || baseline.status === 'returned');
   const materials = useMemo(() => versionMaterials(baseline, library), [baseline, library]);
   const materialsById = useMemo(() => new Map(materials.map((m) => [m.id, m])), [materials]);
   const models = useMemo(

@@ -1,6 +1,6 @@
 import { useEffect, useState } from 'react';
-import type { PreviewRequest, PreviewResult } from './compute-preview';
-import type { PreviewCompute } from './preview-context';
+import type { PreviewRequest, PreviewResult } from '../../../lib/preview/compute-preview';
+import type { PreviewCompute } from '../../../lib/preview/preview-context';
 
 /** Wait after the last change before computing: typing a thickness fires one computation. */
 export const PREVIEW_DEBOUNCE_MS = 150;

@@ -1,0 +1,54 @@
+import Box from '@mui/material/Box';
+import Button from '@mui/material/Button';
+import { useForm } from 'react-hook-form';
+import { FormTextField } from '../../../components/form-text-field';
+import type { FitRequest } from '../api/submit-optimisation';
+import { wholeIn } from '../form-rules';
+import { ThicknessBoundsFields } from './thickness-bounds-fields';
+
+interface FitValues {
+  minThicknessNm: string;
+  maxThicknessNm: string;
+  maxIterations: string;
+}
+
+const DEFAULTS: FitValues = { minThicknessNm: '10', maxThicknessNm: '1000', maxIterations: '100' };
+
+interface FitFormProps {
+  pending: boolean;
+  onRun: (body: FitRequest) => void;
+}
+
+/** Bounds and iterations of Fit to mask (Levenberg–Marquardt over the unlocked layers). */
+export function FitForm({ pending, onRun }: FitFormProps) {
+  const { control, handleSubmit } = useForm<FitValues>({ defaultValues: DEFAULTS, mode: 'onTouched' });
+  const onSubmit = handleSubmit((v) =>
+    onRun({
+      minThicknessNm: Number(v.minThicknessNm),
+      maxThicknessNm: Number(v.maxThicknessNm),
+      maxIterations: Number(v.maxIterations),
+    }),
+  );
+  return (
+    <Box
+      component="form"
+      noValidate
+      aria-label="Fit to mask settings"
+      onSubmit={onSubmit}
+      sx={{ display: 'flex', gap: 1.5, flexWrap: 'wrap', alignItems: 'flex-start' }}
+    >
+      <ThicknessBoundsFields control={control} />
+      <FormTextField
+        control={control}
+        name="maxIterations"
+        label="Max iterations"
+        size="small"
+        sx={{ width: 150 }}
+        rules={{ validate: wholeIn('Max iterations', 1, 1000) }}
+      />
+      <Button type="submit" variant="contained" loading={pending} sx={{ mt: 0.25 }}>
+        Run Fit to mask
+      </Button>
+    </Box>
+  );
+}

@@ -1,0 +1,228 @@
+import Alert from '@mui/material/Alert';
+import Box from '@mui/material/Box';
+import Button from '@mui/material/Button';
+import Chip from '@mui/material/Chip';
+import LinearProgress from '@mui/material/LinearProgress';
+import Paper from '@mui/material/Paper';
+import Table from '@mui/material/Table';
+import TableBody from '@mui/material/TableBody';
+import TableCell from '@mui/material/TableCell';
+import TableHead from '@mui/material/TableHead';
+import TableRow from '@mui/material/TableRow';
+import Typography from '@mui/material/Typography';
+import { useState } from 'react';
+import { useForm } from 'react-hook-form';
+import { ErrorAlert } from '../../../components/error-alert';
+import { FormTextField } from '../../../components/form-text-field';
+import { formatFixed, parseNumberInput } from '../../../lib/format';
+import { CALCULATION_POLL_MS, isLive, useCalculation, type CalculationView } from '../api/get-calculation';
+import { diagnosisSummaryOf, useStartDiagnosis, type DiagnosisSummary } from '../api/start-diagnosis';
+
+/**
+ * A layer whose fitted thickness is off its design by at least this much is flagged as a likely
+ * culprit. AR layers are usually held to about ±2 % in thickness (common practice, no source).
+ */
+export const DEVIATION_FLAG_PERCENT = 2;
+
+interface FactorValues {
+  low: string;
+  high: string;
+}
+
+// The API's default factor range.
+const DEFAULTS: FactorValues = { low: '0.7', high: '1.3' };
+
+function statusText(c: CalculationView): string {
+  switch (c.status) {
+    case 'queued':
+      return 'Queued — waiting for a worker';
+    case 'running':
+      return `Running — ${Math.round(100 * c.progress)} %`;
+    case 'completed':
+      return 'Diagnosis completed';
+    case 'failed':
+      return 'Diagnosis failed';
+    case 'cancelled':
+      return 'Diagnosis cancelled';
+  }
+}
+
+function signedPercent(value: number): string {
+  return `${value >= 0 ? '+' : '−'}${Math.abs(value).toFixed(2)} %`;
+}
+
+/** The ranked layers with fitted factor and deviation; likely deviated layers are highlighted. */
+export function DiagnosisTable({
+  summary,
+  layerCount,
+  materialName,
+}: {
+  summary: DiagnosisSummary;
+  layerCount: number;
+  materialName: (materialId: number) => string;
+}) {
+  const flagged = summary.layers.filter((l) => Math.abs(l.deviationPercent) >= DEVIATION_FLAG_PERCENT);
+  return (
+    <Box sx={{ display: 'grid', gap: 1.5 }}>
+      <Typography variant="body2" role="status" aria-label="Diagnosis finding">
+        {flagged.length === 0
+          ? `No layer deviated by ${DEVIATION_FLAG_PERCENT} % or more.`
+          : `Most likely deviated: ${flagged
+              .map(
+                (l) =>
+                  `layer ${l.layer} (${materialName(l.materialId)}, ${signedPercent(l.deviationPercent)})`,
+              )
+              .join(', ')}.`}{' '}
+        Residual between measured and fitted spectrum: {formatFixed(summary.residualRmsPercent, 4)}.
+      </Typography>
+      <Table size="small" aria-label="Fitted thickness factors">
+        <TableHead>
+          <TableRow>
+            <TableCell>Rank</TableCell>
+            <TableCell>Design layer</TableCell>
+            <TableCell>Step</TableCell>
+            <TableCell>Material</TableCell>
+            <TableCell align="right">Design (nm)</TableCell>
+            <TableCell align="right">Fitted (nm)</TableCell>
+            <TableCell align="right">Factor</TableCell>
+            <TableCell align="right">Deviation</TableCell>
+            <TableCell />
+          </TableRow>
+        </TableHead>
+        <TableBody>
+          {summary.layers.map((l, i) => {
+            const deviated = Math.abs(l.deviationPercent) >= DEVIATION_FLAG_PERCENT;
+            return (
+              <TableRow key={l.layer} selected={deviated} aria-label={`Design layer ${l.layer}`}>
+                <TableCell>{i + 1}</TableCell>
+                <TableCell>{l.layer}</TableCell>
+                <TableCell>{layerCount - l.layer + 1}</TableCell>
+                <TableCell>{materialName(l.materialId)}</TableCell>
+                <TableCell align="right">{formatFixed(l.designNm, 1)}</TableCell>
+                <TableCell align="right">{formatFixed(l.fittedNm, 1)}</TableCell>
+                <TableCell align="right">{formatFixed(l.factor, 3)}</TableCell>
+                <TableCell align="right">{signedPercent(l.deviationPercent)}</TableCell>
+                <TableCell>
+                  {deviated && <Chip size="small" color="warning" label="Likely deviated" />}
+                </TableCell>
+              </TableRow>
+            );
+          })}
+        </TableBody>
+      </Table>
+      <Typography variant="caption" color="text.secondary">
+        Design layer 1 is the outermost; step 1 was deposited first, next to the substrate.
+      </Typography>
+    </Box>
+  );
+}
+
+/** The measured spectrum of a chamber run that is diagnosed. */
+export interface DiagnosedSpectrum {
+  id: number;
+  runId: number;
+  filename: string;
+}
+
+interface RunDiagnosisPanelProps {
+  spectrum: DiagnosedSpectrum;
+  layerCount: number;
+  materialName: (materialId: number) => string;
+  pollMs?: number;
+}
+
+/** Run diagnosis: fits the layer thicknesses to the measured spectrum to find which layer went wrong. */
+export function RunDiagnosisPanel({
+  spectrum,
+  layerCount,
+  materialName,
+  pollMs = CALCULATION_POLL_MS,
+}: RunDiagnosisPanelProps) {
+  const [calculationId, setCalculationId] = useState<number | null>(null);
+  const start = useStartDiagnosis();
+  const calculation = useCalculation(calculationId, pollMs);
+  const { control, handleSubmit } = useForm<FactorValues>({ defaultValues: DEFAULTS, mode: 'onTouched' });
+
+  const onSubmit = handleSubmit((values) =>
+    start.mutate(
+      {
+        runId: spectrum.runId,
+        spectrumId: spectrum.id,
+        factorRange: [parseNumberInput(values.low) ?? 0, parseNumberInput(values.high) ?? 0],
+      },
+      { onSuccess: (answer) => setCalculationId(answer.id) },
+    ),
+  );
+
+  const calc = calculation.data;
+  const summary = calc?.status === 'completed' ? diagnosisSummaryOf(calc) : null;
+
+  return (
+    <Paper variant="outlined" sx={{ p: 2 }} component="section" aria-label="Run diagnosis">
+      <Typography variant="h2" component="h2" gutterBottom>
+        Run diagnosis
+      </Typography>
+      <Typography variant="body2" color="text.secondary" sx={{ mb: 1.5 }}>
+        Fits every layer&apos;s thickness to {spectrum.filename} within the factor range, to find which layers
+        most likely went wrong.
+      </Typography>
+      <Box
+        component="form"
+        noValidate
+        onSubmit={onSubmit}
+        sx={{ display: 'flex', gap: 1.5, flexWrap: 'wrap', alignItems: 'flex-start', mb: 2 }}
+      >
+        <FormTextField
+          control={control}
+          name="low"
+          label="Lowest factor"
+          size="small"
+          sx={{ width: 150 }}
+          slotProps={{ htmlInput: { inputMode: 'decimal' } }}
+          rules={{ validate: (v) => (parseNumberInput(v) ?? 0) > 0 || 'Must be a number > 0' }}
+        />
+        <FormTextField
+          control={control}
+          name="high"
+          label="Highest factor"
+          size="small"
+          sx={{ width: 150 }}
+          slotProps={{ htmlInput: { inputMode: 'decimal' } }}
+          rules={{
+            validate: (v, all) =>
+              (parseNumberInput(v) ?? 0) > (parseNumberInput(all.low) ?? Infinity) ||
+              'Must exceed the lowest factor',
+          }}
+        />
+        <Button type="submit" variant="contained" loading={start.isPending}>
+          Run diagnosis
+        </Button>
+      </Box>
+      {start.error && <ErrorAlert error={start.error} title="Run diagnosis was not queued" sx={{ mb: 2 }} />}
+      {calculation.isError && (
+        <ErrorAlert error={calculation.error} title="The diagnosis could not be read" />
+      )}
+      {calc && (
+        <Box sx={{ display: 'grid', gap: 1.5 }}>
+          <Typography role="status" aria-label="Diagnosis status" variant="body1">
+            {statusText(calc)}
+          </Typography>
+          {isLive(calc.status) && (
+            <LinearProgress
+              aria-label="Diagnosis progress"
+              variant={calc.status === 'queued' ? 'indeterminate' : 'determinate'}
+              value={Math.round(100 * calc.progress)}
+            />
+          )}
+          {calc.status === 'failed' && (
+            <Alert severity="error">{calc.error ?? 'The diagnosis failed.'}</Alert>
+          )}
+          {calc.status === 'cancelled' && <Alert severity="info">{calc.error ?? 'Cancelled.'}</Alert>}
+          {summary && (
+            <DiagnosisTable summary={summary} layerCount={layerCount} materialName={materialName} />
+          )}
+        </Box>
+      )}
+    </Paper>
+  );
+}

@@ -1,0 +1,58 @@
+import { keepPreviousData, queryOptions, useQuery } from '@tanstack/react-query';
+import type { RunSheet } from '@quietglass/shared';
+import { apiClient, apiUrl } from '../../../lib/api-client';
+
+/** A released recipe's run sheet on one chamber, as the API computes it. */
+export interface RunSheetView extends RunSheet {
+  recipe: { designId: number; number: number; name: string; customer: string };
+  chamber: { id: number; name: string };
+}
+
+export interface RunSheetParams {
+  designId: number;
+  number: number;
+  chamberId: number;
+  /** One of the chamber's monitor wavelengths; the chamber's first when null. */
+  monitorWavelengthNm: number | null;
+}
+
+function query({ chamberId, monitorWavelengthNm }: RunSheetParams): string {
+  const params = new URLSearchParams({ chamberId: String(chamberId) });
+  if (monitorWavelengthNm !== null) params.set('monitorWavelengthNm', String(monitorWavelengthNm));
+  return params.toString();
+}
+
+export function getRunSheet(params: RunSheetParams, signal?: AbortSignal): Promise<RunSheetView> {
+  return apiClient.get<RunSheetView>(
+    `/recipes/${params.designId}/${params.number}/run-sheet?${query(params)}`,
+    signal,
+  );
+}
+
+/** Where the browser downloads the same run sheet as a PDF. */
+export function runSheetPdfUrl(params: RunSheetParams): string {
+  return apiUrl(`/recipes/${params.designId}/${params.number}/run-sheet.pdf?${query(params)}`);
+}
+
+export function getRunSheetQueryOptions(params: RunSheetParams) {
+  return queryOptions({
+    queryKey: [
+      'recipes',
+      'run-sheet',
+      params.designId,
+      params.number,
+      params.chamberId,
+      params.monitorWavelengthNm,
+    ] as const,
+    queryFn: ({ signal }) => getRunSheet(params, signal),
+  });
+}
+
+/** The run sheet; nothing is fetched until a chamber is chosen. */
+export function useRunSheet(params: RunSheetParams | null) {
+  return useQuery({
+    ...getRunSheetQueryOptions(params ?? { designId: 0, number: 0, chamberId: 0, monitorWavelengthNm: null }),
+    enabled: params !== null,
+    placeholderData: keepPreviousData,
+  });
+}

@@ -1,0 +1,65 @@
+import type { RunSheetLayer } from '@quietglass/shared';
+
+export interface MonitorTrace {
+  name: string;
+  material: string;
+  /** Monitor thickness deposited since the start of the run, nm. */
+  x: number[];
+  /** Expected monitor transmittance, %. */
+  y: number[];
+}
+
+export interface MonitorMarks {
+  x: number[];
+  y: number[];
+  /** Hover text: step and thickness within the layer. */
+  text: string[];
+}
+
+/** Linear interpolation of a sampled curve at `at` (the samples rise in x). */
+function valueAt(x: readonly number[], y: readonly number[], at: number): number {
+  if (x.length === 0) return Number.NaN;
+  if (at <= x[0]) return y[0];
+  for (let i = 1; i < x.length; i++) {
+    if (at <= x[i]) {
+      const f = (at - x[i - 1]) / (x[i] - x[i - 1] || 1);
+      return y[i - 1] + f * (y[i] - y[i - 1]);
+    }
+  }
+  return y[y.length - 1];
+}
+
+/**
+ * The monitor signal of a whole run on one axis: each layer's curve shifted by the monitor
+ * thickness deposited before it, with its turning points and the point where the layer stops.
+ */
+export function monitorPlotData(layers: readonly RunSheetLayer[]): {
+  traces: MonitorTrace[];
+  turningPoints: MonitorMarks;
+  layerEnds: MonitorMarks;
+} {
+  const traces: MonitorTrace[] = [];
+  const turningPoints: MonitorMarks = { x: [], y: [], text: [] };
+  const layerEnds: MonitorMarks = { x: [], y: [], text: [] };
+  let offset = 0;
+  for (const layer of layers) {
+    const { thicknessNm, T } = layer.monitor;
+    const y = T.map((t) => t * 100);
+    traces.push({
+      name: `${layer.step} ${layer.material}`,
+      material: layer.material,
+      x: thicknessNm.map((d) => offset + d),
+      y,
+    });
+    for (const tp of layer.turningPointsNm) {
+      turningPoints.x.push(offset + tp);
+      turningPoints.y.push(valueAt(thicknessNm, y, tp));
+      turningPoints.text.push(`Step ${layer.step}: turning point at ${tp.toFixed(1)} nm into the layer`);
+    }
+    layerEnds.x.push(offset + layer.monitorThicknessNm);
+    layerEnds.y.push(y[y.length - 1]);
+    layerEnds.text.push(`Step ${layer.step}: stop at ${layer.monitorThicknessNm.toFixed(2)} nm`);
+    offset += layer.monitorThicknessNm;
+  }
+  return { traces, turningPoints, layerEnds };
+}

@@ -1,0 +1,38 @@
+import { queryOptions, useQuery } from '@tanstack/react-query';
+import type { LimitBand, MeasuredMaskResult } from '@quietglass/shared';
+import { apiClient, apiUrl } from '../../../lib/api-client';
+
+/** Measured vs the released design (same angle, unpolarised) vs the design's spec mask. */
+export interface SpectrumComparisonView {
+  spectrumId: number;
+  quantity: 'R' | 'T';
+  angleDeg: number;
+  measured: { wavelengthsNm: number[]; valuesPercent: number[] };
+  design: { wavelengthsNm: number[]; valuesPercent: number[] };
+  /** Null when the design has no spec mask; `limits` are the mask's bands, `bands` their results. */
+  mask: (MeasuredMaskResult & { name: string; revision: string; limits: LimitBand[] }) | null;
+}
+
+export function getSpectrumComparison(
+  runId: number,
+  spectrumId: number,
+  signal?: AbortSignal,
+): Promise<SpectrumComparisonView> {
+  return apiClient.get<SpectrumComparisonView>(`/runs/${runId}/spectra/${spectrumId}/comparison`, signal);
+}
+
+export function getSpectrumComparisonQueryOptions(runId: number, spectrumId: number) {
+  return queryOptions({
+    queryKey: ['runs', 'detail', runId, 'spectra', spectrumId, 'comparison'] as const,
+    queryFn: ({ signal }) => getSpectrumComparison(runId, spectrumId, signal),
+  });
+}
+
+export function useSpectrumComparison(runId: number, spectrumId: number) {
+  return useQuery(getSpectrumComparisonQueryOptions(runId, spectrumId));
+}
+
+/** Where the browser downloads the spectrum file exactly as it was uploaded. */
+export function originalSpectrumUrl(runId: number, spectrumId: number): string {
+  return apiUrl(`/runs/${runId}/spectra/${spectrumId}/original`);
+}

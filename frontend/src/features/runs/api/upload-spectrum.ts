@@ -1,0 +1,28 @@
+import { useMutation, useQueryClient } from '@tanstack/react-query';
+import { apiClient } from '../../../lib/api-client';
+import { getRunQueryOptions, type RunSpectrumView } from './get-run';
+
+/** Largest spectrum file the API takes (bytes), checked here before sending too. */
+export const MAX_SPECTRUM_CSV_BYTES = 2_000_000;
+
+/** UploadSpectrumDto: the file's text with `wavelength_nm` and `R_percent` or `T_percent` columns. */
+export interface UploadSpectrumInput {
+  filename: string;
+  csv: string;
+  angleDeg: number;
+  sample: 'witness' | 'part';
+}
+
+export function uploadSpectrum(runId: number, input: UploadSpectrumInput): Promise<RunSpectrumView> {
+  return apiClient.post<RunSpectrumView>(`/runs/${runId}/spectra`, input);
+}
+
+/** Stores a measured spectrum; a bad row rejects the whole file (400 with one detail per bad row). */
+export function useUploadSpectrum(runId: number) {
+  const queryClient = useQueryClient();
+  return useMutation({
+    mutationFn: (input: UploadSpectrumInput) => uploadSpectrum(runId, input),
+    meta: { errorShownInline: true },
+    onSuccess: () => queryClient.invalidateQueries({ queryKey: getRunQueryOptions(runId).queryKey }),
+  });
+}

@@ -1,0 +1,116 @@
+import Box from '@mui/material/Box';
+import Button from '@mui/material/Button';
+import Paper from '@mui/material/Paper';
+import Typography from '@mui/material/Typography';
+import { useState } from 'react';
+import { useForm } from 'react-hook-form';
+import { FileField } from '../../../components/file-field';
+import { FileProblemsAlert } from '../../../components/file-problems-alert';
+import { FormSelectField } from '../../../components/form-select-field';
+import { FormTextField } from '../../../components/form-text-field';
+import { parseNumberInput } from '../../../lib/format';
+import { notify } from '../../../lib/notifier';
+import type { RunSpectrumView } from '../api/get-run';
+import { MAX_SPECTRUM_CSV_BYTES, useUploadSpectrum } from '../api/upload-spectrum';
+
+interface UploadValues {
+  angleDeg: string;
+  sample: 'witness' | 'part';
+}
+
+// Spectrophotometer reflectance accessories usually measure near normal at about 8° (common
+// practice, no source); the mask counts up to 8° as normal incidence.
+const DEFAULTS: UploadValues = { angleDeg: '8', sample: 'witness' };
+
+interface SpectrumUploadProps {
+  runId: number;
+  onUploaded: (spectrum: RunSpectrumView) => void;
+}
+
+/** A measured spectrum file of the run's witness or part; a bad row rejects the whole file. */
+export function SpectrumUpload({ runId, onUploaded }: SpectrumUploadProps) {
+  const upload = useUploadSpectrum(runId);
+  const [file, setFile] = useState<File | null>(null);
+  const [fileProblem, setFileProblem] = useState<string | null>(null);
+  const { control, handleSubmit } = useForm<UploadValues>({ defaultValues: DEFAULTS, mode: 'onTouched' });
+
+  const chooseFile = (chosen: File | null) => {
+    setFile(chosen);
+    upload.reset();
+    if (chosen && chosen.size > MAX_SPECTRUM_CSV_BYTES)
+      setFileProblem(`The file is larger than 2 MB (${(chosen.size / 1_000_000).toFixed(2)} MB).`);
+    else setFileProblem(null);
+  };
+
+  const onSubmit = handleSubmit(async (values) => {
+    if (!file) {
+      setFileProblem('Choose a spectrum file');
+      return;
+    }
+    if (fileProblem) return;
+    const csv = await file.text();
+    upload.mutate(
+      { filename: file.name, csv, angleDeg: parseNumberInput(values.angleDeg) ?? 0, sample: values.sample },
+      {
+        onSuccess: (spectrum) => {
+          notify(`${spectrum.filename} uploaded.`, 'success');
+          onUploaded(spectrum);
+        },
+      },
+    );
+  });
+
+  return (
+    <Paper variant="outlined" sx={{ p: 2 }} component="section" aria-label="Spectrum upload">
+      <Typography variant="h2" component="h2" gutterBottom>
+        Measured spectrum
+      </Typography>
+      <Typography variant="body2" color="text.secondary" sx={{ mb: 1.5 }}>
+        A CSV file with a header naming <code>wavelength_nm</code> and one of <code>R_percent</code> or{' '}
+        <code>T_percent</code>, one row per wavelength in increasing order. At most 2 MB.
+      </Typography>
+      <Box component="form" noValidate onSubmit={onSubmit} sx={{ display: 'grid', gap: 2 }}>
+        <FileProblemsAlert error={upload.error} />
+        <FileField
+          label="Spectrum file"
+          accept=".csv,.txt,text/csv,text/plain"
+          file={file}
+          problem={fileProblem}
+          onChange={chooseFile}
+        />
+        <Box sx={{ display: 'flex', gap: 1.5, flexWrap: 'wrap' }}>
+          <FormTextField
+            control={control}
+            name="angleDeg"
+            label="Angle of incidence (°)"
+            size="small"
+            sx={{ width: 190 }}
+            slotProps={{ htmlInput: { inputMode: 'decimal' } }}
+            rules={{
+              validate: (v) => {
+                const a = parseNumberInput(v);
+                return (a !== null && a >= 0 && a <= 89) || 'Enter an angle from 0 to 89°';
+              },
+            }}
+          />
+          <FormSelectField
+            control={control}
+            name="sample"
+            label="Sample"
+            size="small"
+            sx={{ width: 190 }}
+            options={[
+              { value: 'witness', label: 'Witness sample' },
+              { value: 'part', label: 'Part' },
+            ]}
+          />
+        </Box>
+        <Box>
+          <Button type="submit" variant="contained" loading={upload.isPending}>
+            Upload spectrum
+          </Button>
+        </Box>
+      </Box>
+    </Paper>
+  );
+}

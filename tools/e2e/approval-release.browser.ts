@@ -1,0 +1,204 @@
+import type { Browser, BrowserContext, Page } from 'playwright-core';
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { baseUrl, demoSignIns, launchBrowser, signIn, type DemoSignIn } from './browser.js';
+
+/*
+ * Four-eyes approval to the chamber floor. Mira Castell (engineer) designs the four-layer AR stack of
+ * design-workspace.browser.ts for Halden Vision Systems' mask and submits it; the client and the API
+ * both refuse to let her approve it. Tomas Reyes (engineer) approves and releases it. Jonah Pike
+ * (operator) opens it under Released recipes and prints its run sheet for the demo chamber
+ * "Box coater B2" (monitor 550 nm; SiO2 tooling factor 1.04, rate 0.8 nm/s — demo data).
+ * Stack, incident side first: MgF2 96.8 nm / ZrO2 127.6 nm / Al2O3 84.2 nm / SiO2 76.2 nm.
+ */
+const STACK = ['MgF2\t96.8', 'ZrO2\t127.6', 'Al2O3\t84.2', 'SiO2\t76.2'].join('\n');
+
+let browser: Browser;
+const contexts: BrowserContext[] = [];
+
+beforeAll(async () => {
+  browser = await launchBrowser();
+});
+afterAll(async () => {
+  for (const context of contexts) await context.close();
+  await browser?.close();
+});
+
+function demo(emailStart: string): DemoSignIn {
+  const found = demoSignIns().find((s) => s.email.startsWith(emailStart));
+  if (!found) throw new Error(`no demo sign-in ${emailStart}`);
+  return found;
+}
+
+async function session(who: DemoSignIn): Promise<{ page: Page; pageErrors: string[] }> {
+  const context = await browser.newContext({ viewport: { width: 1440, height: 1000 } });
+  contexts.push(context);
+  const page = await context.newPage();
+  const pageErrors: string[] = [];
+  page.on('pageerror', (error) => pageErrors.push(error.message));
+  await signIn(page, who);
+  return { page, pageErrors };
+}
+
+/** A call to the API with the page's session cookie: status, content type and the start of the body. */
+async function apiCall(page: Page, method: string, path: string) {
+  return page.evaluate(
+    async ({ method, path }) => {
+      const res = await fetch(path, {
+        method,
+        headers: { 'Content-Type': 'application/json' },
+        body: method === 'GET' ? undefined : '{}',
+      });
+      const bytes = new Uint8Array(await res.arrayBuffer());
+      const text = new TextDecoder().decode(bytes);
+      return {
+        status: res.status,
+        type: res.headers.get('content-type') ?? '',
+        head: text.slice(0, 5),
+        json: (res.headers.get('content-type') ?? '').includes('json') ? (JSON.parse(text) as unknown) : null,
+      };
+    },
+    { method, path },
+  );
+}
+
+function statusChip(page: Page) {
+  return page.getByRole('region', { name: 'Approval' }).getByLabel('Version status');
+}
+
+describe('approval and release', () => {
+  it('the author submits, cannot approve; a second engineer approves and releases; the operator prints the run sheet', async () => {
+    // Engineer A writes and submits version 1.
+    const mira = await session(demo('mira.castell'));
+    let page = mira.page;
+    await page.goto(`${baseUrl()}/designs`);
+    await page.getByRole('button', { name: 'New design' }).click();
+    const dialog = page.getByRole('dialog', { name: 'New design' });
+    const name = `HVS-2210 release check ${Date.now()}`;
+    await dialog.getByLabel('Name').fill(name);
+    await dialog.getByLabel('Customer').selectOption({ label: 'Halden Vision Systems' });
+    await dialog.getByLabel('Spec mask').selectOption({ label: 'HVS-2210 lens AR rev A' });
+    await dialog.getByLabel('Incident medium').selectOption({ label: 'Air' });
+    await dialog.getByLabel('Substrate', { exact: true }).selectOption({ label: 'N-BK7' });
+    await dialog.getByLabel('Substrate thickness (mm)').fill('2');
+    await dialog.getByLabel('Back surface').selectOption('front-only');
+    await dialog.getByLabel('Reference wavelength (nm)').fill('550');
+    await dialog.getByRole('button', { name: 'Create design' }).click();
+    await page.waitForURL(/\/designs\/\d+/);
+    const designUrl = page.url();
+    const designId = Number(/\/designs\/(\d+)/.exec(designUrl)?.[1]);
+    await page.getByRole('heading', { level: 1, name }).waitFor();
+
+    await page.getByRole('button', { name: 'Paste rows…' }).click();
+    const paste = page.getByRole('dialog', { name: 'Paste rows' });
+    await paste.getByLabel('Rows from a spreadsheet').fill(STACK);
+    await paste.getByRole('button', { name: 'Add rows' }).click();
+    await paste.waitFor({ state: 'hidden' });
+    await page.getByRole('button', { name: 'Save' }).click();
+    await page.getByText('No unsaved changes').waitFor();
+    await page.getByRole('button', { name: 'Submit for approval' }).click();
+    const confirm = page.getByRole('dialog', { name: 'Submit version 1 for approval?' });
+    await confirm.getByRole('button', { name: 'Submit', exact: true }).click();
+    await expect.poll(() => statusChip(page).innerText()).toBe('Version 1: submitted');
+
+    // Four-eyes: the client says why, and the API refuses her all the same.
+    const approveOwn = page.getByRole('button', { name: 'Approve', exact: true });
+    expect(await approveOwn.isDisabled()).toBe(true);
+    await page.getByText('You wrote this version; another engineer approves it').waitFor();
+    const refused = await apiCall(page, 'POST', `/api/designs/${designId}/versions/1/approve`);
+    expect(refused.status).toBe(403);
+    expect((refused.json as { message: string }).message).toBe(
+      'Four-eyes rule: another engineer must approve version 1; you wrote or submitted it',
+    );
+    expect(mira.pageErrors).toEqual([]);
+
+    // Engineer B approves and releases.
+    const tomas = await session(demo('tomas.reyes'));
+    page = tomas.page;
+    await page.goto(designUrl);
+    await expect.poll(() => statusChip(page).innerText()).toBe('Version 1: submitted');
+    await page.getByRole('button', { name: 'Approve', exact: true }).click();
+    const approve = page.getByRole('dialog', { name: 'Approve version 1' });
+    await approve.getByLabel('Comment').fill('Margins fine at 30°');
+    await approve.getByRole('button', { name: 'Approve', exact: true }).click();
+    await expect.poll(() => statusChip(page).innerText()).toBe('Version 1: approved');
+    await page.getByText('Version 1 is approved and read-only', { exact: false }).waitFor();
+    await page.getByRole('button', { name: 'Release', exact: true }).click();
+    await page
+      .getByRole('dialog', { name: 'Release version 1 as a recipe' })
+      .getByRole('button', { name: 'Release', exact: true })
+      .click();
+    await expect.poll(() => statusChip(page).innerText()).toBe('Version 1: released');
+    const history = page.getByRole('table', { name: 'Design history' });
+    await expect.poll(() => history.getByRole('row').count()).toBe(4);
+    expect(await history.getByRole('row').nth(2).innerText()).toMatch(
+      /Tomas Reyes\s+1\s+submitted → approved\s+Margins fine at 30°/,
+    );
+    expect(tomas.pageErrors).toEqual([]);
+
+    // The operator finds the recipe and its run sheet for Box coater B2.
+    const jonah = await session(demo('jonah.pike'));
+    page = jonah.page;
+    await page.goto(`${baseUrl()}/recipes`);
+    await page.getByRole('link', { name, exact: true }).click();
+    await page.waitForURL(new RegExp(`/recipes/${designId}/1`));
+    await page.getByLabel('Chamber').selectOption({ label: 'Box coater B2' });
+    const layers = page.getByRole('table', { name: 'Run sheet layers' });
+    await layers.waitFor();
+    // Body rows plus header and totals.
+    await expect.poll(() => layers.getByRole('row').count()).toBe(6);
+    const firstStep = (await layers.getByRole('row').nth(1).getByRole('cell').allInnerTexts()).map((t) =>
+      t.trim(),
+    );
+    // Step 1 is SiO2, next to the glass. By hand: monitor = 76.2 ÷ 1.04 = 73.27 nm; time = 73.269 ÷ 0.8
+    // = 91.6 s (tooling factor = part ÷ monitor, rates at the monitor).
+    expect(firstStep.slice(0, 9)).toEqual([
+      '1',
+      '4',
+      'SiO2',
+      '76.20',
+      '1.040',
+      '73.27',
+      expect.any(String),
+      '0.80',
+      '91.6',
+    ]);
+    const chamberId = new URL(page.url()).searchParams.get('chamberId');
+    const json = await apiCall(
+      page,
+      'GET',
+      `/api/recipes/${designId}/1/run-sheet?chamberId=${chamberId}&monitorWavelengthNm=550`,
+    );
+    expect(json.status).toBe(200);
+    const sheet = json.json as {
+      layers: { qwotAtMonitor: number; monitorThicknessNm: number }[];
+      cautions: string[];
+    };
+    expect(sheet.layers[0].monitorThicknessNm).toBeCloseTo(76.2 / 1.04, 9);
+    expect(firstStep[6]).toBe(sheet.layers[0].qwotAtMonitor.toFixed(3));
+
+    const cautions = page.getByRole('region', { name: 'Safety cautions' });
+    expect(await cautions.innerText()).toMatch(/high voltage/);
+    expect(await cautions.innerText()).toMatch(/shop’s own safety procedures.*local regulations/s);
+    expect(await cautions.locator('li').count()).toBe(sheet.cautions.length);
+    expect(await page.getByRole('figure', { name: 'Expected monitor signal' }).count()).toBe(1);
+
+    // On paper: no top bar, navigation or page buttons; the layer table and cautions stay.
+    await page.emulateMedia({ media: 'print' });
+    expect(await page.locator('nav[aria-label="Main"]').isVisible()).toBe(false);
+    expect(await page.locator('header.MuiAppBar-root').isVisible()).toBe(false);
+    expect(await page.getByRole('button', { name: 'Print' }).isVisible()).toBe(false);
+    expect(await layers.isVisible()).toBe(true);
+    expect(await cautions.isVisible()).toBe(true);
+    await page.emulateMedia({ media: 'screen' });
+
+    const pdfHref = await page.getByRole('link', { name: 'Download PDF' }).getAttribute('href');
+    expect(pdfHref).toBe(
+      `/api/recipes/${designId}/1/run-sheet.pdf?chamberId=${chamberId}&monitorWavelengthNm=550`,
+    );
+    const pdf = await apiCall(page, 'GET', pdfHref ?? '');
+    expect(pdf.status).toBe(200);
+    expect(pdf.type).toBe('application/pdf');
+    expect(pdf.head).toBe('%PDF-');
+    expect(jonah.pageErrors).toEqual([]);
+  });
+});

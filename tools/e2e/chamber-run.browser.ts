@@ -1,0 +1,260 @@
+import {
+  calculateSpectrum,
+  designStackDescription,
+  engineBackSurface,
+  evaluateMaskOnMeasured,
+  parseStack,
+  type DesignVersionView,
+  type LimitBand,
+  type NamedModel,
+} from '@quietglass/shared';
+import { request, type APIRequestContext, type Browser, type Page } from 'playwright-core';
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { baseUrl, demoSignIns, launchBrowser, signIn, type DemoSignIn } from './browser.js';
+
+/*
+ * A chamber run of a released recipe, end to end. The engineer Mira Castell designs a four-layer AR
+ * coating for Halden Vision Systems' mask "HVS-2210 lens AR" rev A (R ≤ 0.5 % over 420–680 nm at
+ * 0, 15 and 30°, unpolarised), incident side first MgF2 96.8 / ZrO2 127.6 / Al2O3 84.2 / SiO2
+ * 76.2 nm on N-BK7, front surface only (the stack of the design-workspace test), and submits it;
+ * Tomas Reyes approves and releases it. The operator Jonah Pike starts a run in "Box coater B2",
+ * logs a reading and a durability result, uploads a malformed file (refused row by row) and then a
+ * witness measurement made up for the test: the recipe's own reflectance at 8° computed with the
+ * optics engine, with the ZrO2 layer 5 % thin. Mira then runs Run diagnosis, which must point at
+ * that layer.
+ */
+const STACK: [material: string, thicknessNm: number][] = [
+  ['MgF2', 96.8],
+  ['ZrO2', 127.6],
+  ['Al2O3', 84.2],
+  ['SiO2', 76.2],
+];
+/** The layer made to deviate (design layer 2, ZrO2) and by how much: −5 %. */
+const DEVIATED_LAYER = 1;
+const DEVIATION_FACTOR = 0.95;
+const ANGLE_DEG = 8;
+
+let browser: Browser;
+let recipe: { designId: number; name: string; version: DesignVersionView };
+let maskBands: LimitBand[];
+
+function who(email: string): DemoSignIn {
+  const found = demoSignIns().find((s) => s.email.startsWith(email));
+  if (!found) throw new Error(`no demo sign-in ${email}`);
+  return found;
+}
+
+async function apiSession(user: DemoSignIn): Promise<APIRequestContext> {
+  const api = await request.newContext({ baseURL: baseUrl() });
+  const res = await api.post('/api/auth/sign-in', { data: { email: user.email, password: user.password } });
+  if (res.status() !== 200) throw new Error(`sign-in of ${user.email}: ${res.status()} ${await res.text()}`);
+  return api;
+}
+
+async function json<T>(
+  api: APIRequestContext,
+  method: 'get' | 'post',
+  path: string,
+  data?: object,
+): Promise<T> {
+  const res = method === 'get' ? await api.get(path) : await api.post(path, { data: data ?? {} });
+  if (!res.ok()) throw new Error(`${method.toUpperCase()} ${path}: ${res.status()} ${await res.text()}`);
+  return (await res.json()) as T;
+}
+
+/** The measured witness: the recipe's R at 8°, unpolarised, with one layer off, 400–700 nm every 5 nm. */
+function measuredCsv(): { csv: string; wavelengthsNm: number[]; valuesPercent: number[] } {
+  const version = recipe.version;
+  const materials = new Map(
+    Object.entries(version.materialsSnapshot ?? {}).map(([id, m]) => [Number(id), m as NamedModel]),
+  );
+  const built = {
+    ...version,
+    layers: version.layers.map((l, i) =>
+      i === DEVIATED_LAYER ? { ...l, thicknessNm: l.thicknessNm * DEVIATION_FACTOR } : l,
+    ),
+  };
+  const wavelengthsNm: number[] = [];
+  for (let wl = 400; wl <= 700; wl += 5) wavelengthsNm.push(wl);
+  const spectrum = calculateSpectrum(
+    parseStack(designStackDescription(built, materials)),
+    { wavelengthsNm, anglesDeg: [ANGLE_DEG], polarisations: ['avg'] },
+    { back: engineBackSurface(version.backSurface) },
+  );
+  const valuesPercent = Array.from(spectrum.R, (r) => Number((100 * r).toFixed(4)));
+  const rows = wavelengthsNm.map((wl, i) => `${wl},${valuesPercent[i]}`);
+  return { csv: ['wavelength_nm,R_percent', ...rows].join('\n') + '\n', wavelengthsNm, valuesPercent };
+}
+
+beforeAll(async () => {
+  browser = await launchBrowser();
+  const mira = await apiSession(who('mira.castell'));
+  const tomas = await apiSession(who('tomas.reyes'));
+  const materials = await json<{ id: number; name: string }[]>(mira, 'get', '/api/materials');
+  const m = Object.fromEntries(materials.map((x) => [x.name, x.id]));
+  const customers = await json<{ id: number; name: string }[]>(mira, 'get', '/api/customers');
+  const halden = customers.find((c) => c.name === 'Halden Vision Systems');
+  if (!halden) throw new Error('no customer Halden Vision Systems');
+  const masks = await json<{ id: number; name: string; revision: string; bands: LimitBand[] }[]>(
+    mira,
+    'get',
+    `/api/spec-masks?customerId=${halden.id}`,
+  );
+  const mask = masks.find((x) => x.name === 'HVS-2210 lens AR' && x.revision === 'A');
+  if (!mask) throw new Error('no spec mask HVS-2210 lens AR rev A');
+  maskBands = mask.bands;
+  const name = `HVS-2210 run trial ${Date.now()}`;
+  const design = await json<{ id: number }>(mira, 'post', '/api/designs', {
+    name,
+    customerId: halden.id,
+    specMaskId: mask.id,
+    incidentMaterialId: m['Air'],
+    substrateMaterialId: m['N-BK7'],
+    substrateThicknessMm: 2,
+    backSurface: 'front-only',
+    referenceWavelengthNm: 550,
+    layers: STACK.map(([material, thicknessNm]) => ({ materialId: m[material], thicknessNm })),
+  });
+  await json(mira, 'post', `/api/designs/${design.id}/versions/1/submit`, { rowVersion: 1 });
+  await json(tomas, 'post', `/api/designs/${design.id}/versions/1/approve`);
+  await json(tomas, 'post', `/api/designs/${design.id}/versions/1/release`);
+  const version = await json<DesignVersionView>(mira, 'get', `/api/recipes/${design.id}/1`);
+  recipe = { designId: design.id, name, version };
+  await mira.dispose();
+  await tomas.dispose();
+});
+afterAll(async () => {
+  await browser?.close();
+});
+
+function region(page: Page, name: string) {
+  return page.getByRole('region', { name });
+}
+
+describe('chamber run', () => {
+  it('an operator logs a run and its spectrum; an engineer finds the deviated layer', async () => {
+    const operator = who('jonah.pike');
+    const context = await browser.newContext({ viewport: { width: 1440, height: 1000 } });
+    const page = await context.newPage();
+    const pageErrors: string[] = [];
+    page.on('pageerror', (error) => pageErrors.push(error.message));
+    await signIn(page, operator);
+
+    await page.locator('nav[aria-label="Main"]').getByRole('link', { name: 'Chamber runs' }).click();
+    await page.getByRole('heading', { level: 1, name: 'Chamber runs' }).waitFor();
+    await page.getByRole('button', { name: 'Start a run' }).click();
+    const dialog = page.getByRole('dialog', { name: 'Start a run' });
+    await dialog
+      .getByLabel('Released recipe')
+      .selectOption({ label: `${recipe.name} v1 (Halden Vision Systems)` });
+    await dialog.getByLabel('Chamber').selectOption({ label: 'Box coater B2' });
+    const lot = `L-E2E-${Date.now() % 100000}`;
+    await dialog.getByLabel('Lot number').fill(lot);
+    expect(await dialog.getByLabel('Operator').inputValue()).toBe('Jonah Pike');
+    await dialog.getByRole('button', { name: 'Start run' }).click();
+    await page.waitForURL(/\/runs\/\d+$/);
+    const runUrl = page.url();
+    await page.getByRole('heading', { level: 1, name: `Run ${lot}` }).waitFor();
+
+    // Step 1 is the SiO2 layer next to the glass; the monitor read 75.9 nm.
+    const readings = region(page, 'Layer readings');
+    expect(await readings.getByRole('row').nth(1).innerText()).toMatch(/^1\s+SiO2\s+76\.2/);
+    await readings.getByLabel('Monitor thickness of step 1').fill('75.9');
+    await readings.getByLabel('Remarks on step 1').fill('rate steady');
+    await readings.getByRole('button', { name: 'Save readings' }).click();
+    await page.getByText('Layer readings saved.').waitFor();
+
+    const durability = region(page, 'Durability results');
+    await durability.getByLabel('Adhesion', { exact: true }).selectOption('pass');
+    await durability.getByLabel('Adhesion method').fill('ISO 9211-4, tape adhesion');
+    await durability.getByRole('button', { name: 'Save durability results' }).click();
+    await page.getByText('Durability results saved.').waitFor();
+
+    // Both were stored: a fresh load of the page shows them.
+    await page.reload();
+    await region(page, 'Layer readings').getByLabel('Monitor thickness of step 1').waitFor();
+    expect(await region(page, 'Layer readings').getByLabel('Monitor thickness of step 1').inputValue()).toBe(
+      '75.9',
+    );
+    expect(await region(page, 'Durability results').getByLabel('Adhesion method').inputValue()).toBe(
+      'ISO 9211-4, tape adhesion',
+    );
+
+    const upload = region(page, 'Spectrum upload');
+    await upload.getByLabel('Spectrum file').setInputFiles({
+      name: 'bad.csv',
+      mimeType: 'text/csv',
+      buffer: Buffer.from('wavelength_nm,R_percent\n400,0.3\n405,x\n410,0.4\n'),
+    });
+    await upload.getByRole('button', { name: 'Upload spectrum' }).click();
+    const problems = upload.getByRole('list', { name: 'Problems in the file' });
+    await problems.waitFor();
+    expect(await problems.getByRole('listitem').allInnerTexts()).toEqual(['row 3: not a number: R "x"']);
+    expect(await region(page, 'Comparison with design and mask').count()).toBe(0);
+
+    const measured = measuredCsv();
+    await upload.getByLabel('Spectrum file').setInputFiles({
+      name: 'witness-e2e.csv',
+      mimeType: 'text/csv',
+      buffer: Buffer.from(measured.csv),
+    });
+    await upload.getByLabel('Angle of incidence (°)').fill(String(ANGLE_DEG));
+    await upload.getByRole('button', { name: 'Upload spectrum' }).click();
+
+    // The verdict the page must show, worked out here with the engine's own mask check.
+    const expected = evaluateMaskOnMeasured(
+      { bands: maskBands },
+      {
+        quantity: 'R',
+        angleDeg: ANGLE_DEG,
+        wavelengthsNm: measured.wavelengthsNm,
+        valuesPercent: measured.valuesPercent,
+      },
+    );
+    if (expected.worstMargin === null) throw new Error('the mask judged nothing of the made-up scan');
+    const worst = expected.bands.find((b) => b.worstMargin === expected.worstMargin)!;
+    const sign = expected.worstMargin >= 0 ? '+' : '−';
+    const verdict = region(page, 'Comparison with design and mask').getByRole('status', {
+      name: 'Measured against the mask',
+    });
+    await expect.poll(() => verdict.innerText(), { timeout: 20_000 }).toMatch(/Pass|Fail/);
+    const text = await verdict.innerText();
+    expect(text).toContain(expected.pass ? 'Pass' : 'Fail');
+    expect(text).toContain(
+      `Worst margin ${sign}${Math.abs(expected.worstMargin).toFixed(3)} percentage points at ${worst.worstAt!.wavelengthNm} nm`,
+    );
+    const download = region(page, 'Comparison with design and mask').getByRole('link', {
+      name: 'Download the original file (witness-e2e.csv)',
+    });
+    const original = await context.request.get(
+      new URL((await download.getAttribute('href'))!, baseUrl()).href,
+    );
+    expect(await original.text()).toBe(measured.csv);
+    // Operators have no Run diagnosis.
+    expect(await region(page, 'Run diagnosis').count()).toBe(0);
+    expect(pageErrors).toEqual([]);
+    await context.close();
+
+    const engineerContext = await browser.newContext({ viewport: { width: 1440, height: 1000 } });
+    const engineerPage = await engineerContext.newPage();
+    engineerPage.on('pageerror', (error) => pageErrors.push(error.message));
+    await signIn(engineerPage, who('mira.castell'));
+    await engineerPage.goto(runUrl);
+    const diagnosis = region(engineerPage, 'Run diagnosis');
+    await diagnosis.getByRole('button', { name: 'Run diagnosis' }).click();
+    const status = diagnosis.getByRole('status', { name: 'Diagnosis status' });
+    await expect.poll(() => status.innerText(), { timeout: 45_000 }).toBe('Diagnosis completed');
+    const rows = diagnosis.getByRole('table', { name: 'Fitted thickness factors' }).getByRole('row');
+    expect(await rows.count()).toBe(5);
+    // Ranked first: design layer 2 (ZrO2), deposited third, 5 % thin (the fit recovers 0.950), alone.
+    const top = (await rows.nth(1).getByRole('cell').allInnerTexts()).map((t) => t.trim());
+    expect(top.slice(0, 4)).toEqual(['1', '2', '3', 'ZrO2']);
+    expect(top[6]).toBe(DEVIATION_FACTOR.toFixed(3));
+    expect(top[8]).toBe('Likely deviated');
+    expect(await diagnosis.getByRole('status', { name: 'Diagnosis finding' }).innerText()).toMatch(
+      /Most likely deviated: layer 2 \(ZrO2, −5\.00 %\)\./,
+    );
+    expect(pageErrors).toEqual([]);
+    await engineerContext.close();
+  });
+});
