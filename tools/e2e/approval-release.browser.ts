@@ -1,16 +1,15 @@
 import type { Browser, BrowserContext, Page } from 'playwright-core';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { baseUrl, demoSignIns, launchBrowser, signIn, type DemoSignIn } from './browser.js';
+import { baseUrl, launchBrowser, type DemoSignIn } from './browser.js';
+import { FOUR_LAYER_AR, browserSession, createDesignInBrowser, demoUser } from './demo-shop.js';
 
 /*
- * Four-eyes approval to the chamber floor. Mira Castell (engineer) designs the four-layer AR stack of
- * design-workspace.browser.ts for Halden Vision Systems' mask and submits it; the client and the API
- * both refuse to let her approve it. Tomas Reyes (engineer) approves and releases it. Jonah Pike
+ * Four-eyes approval to the chamber floor. Mira Castell (engineer) designs the demo's four-layer AR
+ * stack (demo-shop.ts) for Halden Vision Systems' mask and submits it; the client and the API both
+ * refuse to let her approve it. Tomas Reyes (engineer) approves and releases it. Jonah Pike
  * (operator) opens it under Released recipes and prints its run sheet for the demo chamber
  * "Box coater B2" (monitor 550 nm; SiO2 tooling factor 1.04, rate 0.8 nm/s — demo data).
- * Stack, incident side first: MgF2 96.8 nm / ZrO2 127.6 nm / Al2O3 84.2 nm / SiO2 76.2 nm.
  */
-const STACK = ['MgF2\t96.8', 'ZrO2\t127.6', 'Al2O3\t84.2', 'SiO2\t76.2'].join('\n');
 
 let browser: Browser;
 const contexts: BrowserContext[] = [];
@@ -23,19 +22,9 @@ afterAll(async () => {
   await browser?.close();
 });
 
-function demo(emailStart: string): DemoSignIn {
-  const found = demoSignIns().find((s) => s.email.startsWith(emailStart));
-  if (!found) throw new Error(`no demo sign-in ${emailStart}`);
-  return found;
-}
-
 async function session(who: DemoSignIn): Promise<{ page: Page; pageErrors: string[] }> {
-  const context = await browser.newContext({ viewport: { width: 1440, height: 1000 } });
+  const { context, page, pageErrors } = await browserSession(browser, who);
   contexts.push(context);
-  const page = await context.newPage();
-  const pageErrors: string[] = [];
-  page.on('pageerror', (error) => pageErrors.push(error.message));
-  await signIn(page, who);
   return { page, pageErrors };
 }
 
@@ -68,31 +57,11 @@ function statusChip(page: Page) {
 describe('approval and release', () => {
   it('the author submits, cannot approve; a second engineer approves and releases; the operator prints the run sheet', async () => {
     // Engineer A writes and submits version 1.
-    const mira = await session(demo('mira.castell'));
+    const mira = await session(demoUser('mira.castell'));
     let page = mira.page;
-    await page.goto(`${baseUrl()}/designs`);
-    await page.getByRole('button', { name: 'New design' }).click();
-    const dialog = page.getByRole('dialog', { name: 'New design' });
     const name = `HVS-2210 release check ${Date.now()}`;
-    await dialog.getByLabel('Name').fill(name);
-    await dialog.getByLabel('Customer').selectOption({ label: 'Halden Vision Systems' });
-    await dialog.getByLabel('Spec mask').selectOption({ label: 'HVS-2210 lens AR rev A' });
-    await dialog.getByLabel('Incident medium').selectOption({ label: 'Air' });
-    await dialog.getByLabel('Substrate', { exact: true }).selectOption({ label: 'N-BK7' });
-    await dialog.getByLabel('Substrate thickness (mm)').fill('2');
-    await dialog.getByLabel('Back surface').selectOption('front-only');
-    await dialog.getByLabel('Reference wavelength (nm)').fill('550');
-    await dialog.getByRole('button', { name: 'Create design' }).click();
-    await page.waitForURL(/\/designs\/\d+/);
+    const designId = await createDesignInBrowser(page, name, FOUR_LAYER_AR);
     const designUrl = page.url();
-    const designId = Number(/\/designs\/(\d+)/.exec(designUrl)?.[1]);
-    await page.getByRole('heading', { level: 1, name }).waitFor();
-
-    await page.getByRole('button', { name: 'Paste rows…' }).click();
-    const paste = page.getByRole('dialog', { name: 'Paste rows' });
-    await paste.getByLabel('Rows from a spreadsheet').fill(STACK);
-    await paste.getByRole('button', { name: 'Add rows' }).click();
-    await paste.waitFor({ state: 'hidden' });
     await page.getByRole('button', { name: 'Save' }).click();
     await page.getByText('No unsaved changes').waitFor();
     await page.getByRole('button', { name: 'Submit for approval' }).click();
@@ -112,7 +81,7 @@ describe('approval and release', () => {
     expect(mira.pageErrors).toEqual([]);
 
     // Engineer B approves and releases.
-    const tomas = await session(demo('tomas.reyes'));
+    const tomas = await session(demoUser('tomas.reyes'));
     page = tomas.page;
     await page.goto(designUrl);
     await expect.poll(() => statusChip(page).innerText()).toBe('Version 1: submitted');
@@ -136,7 +105,7 @@ describe('approval and release', () => {
     expect(tomas.pageErrors).toEqual([]);
 
     // The operator finds the recipe and its run sheet for Box coater B2.
-    const jonah = await session(demo('jonah.pike'));
+    const jonah = await session(demoUser('jonah.pike'));
     page = jonah.page;
     await page.goto(`${baseUrl()}/recipes`);
     await page.getByRole('link', { name, exact: true }).click();

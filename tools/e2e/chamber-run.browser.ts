@@ -8,9 +8,10 @@ import {
   type LimitBand,
   type NamedModel,
 } from '@quietglass/shared';
-import { request, type APIRequestContext, type Browser, type Page } from 'playwright-core';
+import type { Browser, Page } from 'playwright-core';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { baseUrl, demoSignIns, launchBrowser, signIn, type DemoSignIn } from './browser.js';
+import { baseUrl, launchBrowser } from './browser.js';
+import { FOUR_LAYER_AR, browserSession, demoUser, prepareDesign } from './demo-shop.js';
 
 /*
  * A chamber run of a released recipe, end to end. The engineer Mira Castell designs a four-layer AR
@@ -23,12 +24,6 @@ import { baseUrl, demoSignIns, launchBrowser, signIn, type DemoSignIn } from './
  * optics engine, with the ZrO2 layer 5 % thin. Mira then runs Run diagnosis, which must point at
  * that layer.
  */
-const STACK: [material: string, thicknessNm: number][] = [
-  ['MgF2', 96.8],
-  ['ZrO2', 127.6],
-  ['Al2O3', 84.2],
-  ['SiO2', 76.2],
-];
 /** The layer made to deviate (design layer 2, ZrO2) and by how much: −5 %. */
 const DEVIATED_LAYER = 1;
 const DEVIATION_FACTOR = 0.95;
@@ -37,30 +32,6 @@ const ANGLE_DEG = 8;
 let browser: Browser;
 let recipe: { designId: number; name: string; version: DesignVersionView };
 let maskBands: LimitBand[];
-
-function who(email: string): DemoSignIn {
-  const found = demoSignIns().find((s) => s.email.startsWith(email));
-  if (!found) throw new Error(`no demo sign-in ${email}`);
-  return found;
-}
-
-async function apiSession(user: DemoSignIn): Promise<APIRequestContext> {
-  const api = await request.newContext({ baseURL: baseUrl() });
-  const res = await api.post('/api/auth/sign-in', { data: { email: user.email, password: user.password } });
-  if (res.status() !== 200) throw new Error(`sign-in of ${user.email}: ${res.status()} ${await res.text()}`);
-  return api;
-}
-
-async function json<T>(
-  api: APIRequestContext,
-  method: 'get' | 'post',
-  path: string,
-  data?: object,
-): Promise<T> {
-  const res = method === 'get' ? await api.get(path) : await api.post(path, { data: data ?? {} });
-  if (!res.ok()) throw new Error(`${method.toUpperCase()} ${path}: ${res.status()} ${await res.text()}`);
-  return (await res.json()) as T;
-}
 
 /** The measured witness: the recipe's R at 8°, unpolarised, with one layer off, 400–700 nm every 5 nm. */
 function measuredCsv(): { csv: string; wavelengthsNm: number[]; valuesPercent: number[] } {
@@ -88,40 +59,9 @@ function measuredCsv(): { csv: string; wavelengthsNm: number[]; valuesPercent: n
 
 beforeAll(async () => {
   browser = await launchBrowser();
-  const mira = await apiSession(who('mira.castell'));
-  const tomas = await apiSession(who('tomas.reyes'));
-  const materials = await json<{ id: number; name: string }[]>(mira, 'get', '/api/materials');
-  const m = Object.fromEntries(materials.map((x) => [x.name, x.id]));
-  const customers = await json<{ id: number; name: string }[]>(mira, 'get', '/api/customers');
-  const halden = customers.find((c) => c.name === 'Halden Vision Systems');
-  if (!halden) throw new Error('no customer Halden Vision Systems');
-  const masks = await json<{ id: number; name: string; revision: string; bands: LimitBand[] }[]>(
-    mira,
-    'get',
-    `/api/spec-masks?customerId=${halden.id}`,
-  );
-  const mask = masks.find((x) => x.name === 'HVS-2210 lens AR' && x.revision === 'A');
-  if (!mask) throw new Error('no spec mask HVS-2210 lens AR rev A');
-  maskBands = mask.bands;
-  const name = `HVS-2210 run trial ${Date.now()}`;
-  const design = await json<{ id: number }>(mira, 'post', '/api/designs', {
-    name,
-    customerId: halden.id,
-    specMaskId: mask.id,
-    incidentMaterialId: m['Air'],
-    substrateMaterialId: m['N-BK7'],
-    substrateThicknessMm: 2,
-    backSurface: 'front-only',
-    referenceWavelengthNm: 550,
-    layers: STACK.map(([material, thicknessNm]) => ({ materialId: m[material], thicknessNm })),
-  });
-  await json(mira, 'post', `/api/designs/${design.id}/versions/1/submit`, { rowVersion: 1 });
-  await json(tomas, 'post', `/api/designs/${design.id}/versions/1/approve`);
-  await json(tomas, 'post', `/api/designs/${design.id}/versions/1/release`);
-  const version = await json<DesignVersionView>(mira, 'get', `/api/recipes/${design.id}/1`);
-  recipe = { designId: design.id, name, version };
-  await mira.dispose();
-  await tomas.dispose();
+  const prepared = await prepareDesign(`HVS-2210 run trial ${Date.now()}`, FOUR_LAYER_AR, 'released');
+  recipe = { designId: prepared.designId, name: prepared.name, version: prepared.version };
+  maskBands = prepared.maskBands;
 });
 afterAll(async () => {
   await browser?.close();
@@ -133,12 +73,7 @@ function region(page: Page, name: string) {
 
 describe('chamber run', () => {
   it('an operator logs a run and its spectrum; an engineer finds the deviated layer', async () => {
-    const operator = who('jonah.pike');
-    const context = await browser.newContext({ viewport: { width: 1440, height: 1000 } });
-    const page = await context.newPage();
-    const pageErrors: string[] = [];
-    page.on('pageerror', (error) => pageErrors.push(error.message));
-    await signIn(page, operator);
+    const { context, page, pageErrors } = await browserSession(browser, demoUser('jonah.pike'));
 
     await page.locator('nav[aria-label="Main"]').getByRole('link', { name: 'Chamber runs' }).click();
     await page.getByRole('heading', { level: 1, name: 'Chamber runs' }).waitFor();
@@ -235,10 +170,8 @@ describe('chamber run', () => {
     expect(pageErrors).toEqual([]);
     await context.close();
 
-    const engineerContext = await browser.newContext({ viewport: { width: 1440, height: 1000 } });
-    const engineerPage = await engineerContext.newPage();
-    engineerPage.on('pageerror', (error) => pageErrors.push(error.message));
-    await signIn(engineerPage, who('mira.castell'));
+    const engineer = await browserSession(browser, demoUser('mira.castell'));
+    const engineerPage = engineer.page;
     await engineerPage.goto(runUrl);
     const diagnosis = region(engineerPage, 'Run diagnosis');
     await diagnosis.getByRole('button', { name: 'Run diagnosis' }).click();
@@ -254,7 +187,7 @@ describe('chamber run', () => {
     expect(await diagnosis.getByRole('status', { name: 'Diagnosis finding' }).innerText()).toMatch(
       /Most likely deviated: layer 2 \(ZrO2, −5\.00 %\)\./,
     );
-    expect(pageErrors).toEqual([]);
-    await engineerContext.close();
+    expect(engineer.pageErrors).toEqual([]);
+    await engineer.context.close();
   });
 });

@@ -1,6 +1,7 @@
-import type { Browser, Page } from 'playwright-core';
+import type { Browser } from 'playwright-core';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { baseUrl, demoSignIns, launchBrowser, signIn } from './browser.js';
+import { launchBrowser } from './browser.js';
+import { browserSession, createDesignInBrowser, demoUser, layerCell, maskResult } from './demo-shop.js';
 
 /*
  * An engineer refines a rough four-layer AR stack for the demo customer's mask "HVS-2210 lens AR"
@@ -11,7 +12,12 @@ import { baseUrl, demoSignIns, launchBrowser, signIn } from './browser.js';
  * it to a passing stack (merit 0.0000) in a few tens of Levenberg–Marquardt iterations (run with
  * the engine while writing this test; the values below are checked through the page).
  */
-const ROUGH_STACK = ['MgF2\t88', 'ZrO2\t118', 'Al2O3\t92', 'SiO2\t70'].join('\n');
+const ROUGH_STACK = [
+  ['MgF2', 88],
+  ['ZrO2', 118],
+  ['Al2O3', 92],
+  ['SiO2', 70],
+] as const;
 const ROUGH_NM = ['88.00', '118.00', '92.00', '70.00'];
 
 let browser: Browser;
@@ -23,51 +29,10 @@ afterAll(async () => {
   await browser?.close();
 });
 
-function maskResult(page: Page) {
-  return page.getByRole('status', { name: 'Spec mask result' });
-}
-
-/** Cell `column` (0 = order, 1 = material, 2 = thickness nm, 3 = QWOT) of layer `layer` (1-based). */
-function layerCell(page: Page, layer: number, column: number) {
-  return page
-    .getByRole('grid', { name: 'Layer grid' })
-    .getByRole('row')
-    .nth(layer)
-    .getByRole('gridcell')
-    .nth(column);
-}
-
 describe('optimise', () => {
   it('an engineer fits a rough stack to the mask, accepts it as a new draft and forecasts its yield', async () => {
-    const engineer = demoSignIns().find((s) => s.role === 'engineer');
-    if (!engineer) throw new Error('no demo engineer');
-    const context = await browser.newContext({ viewport: { width: 1440, height: 1000 } });
-    const page = await context.newPage();
-    const pageErrors: string[] = [];
-    page.on('pageerror', (error) => pageErrors.push(error.message));
-    await signIn(page, engineer);
-
-    await page.goto(`${baseUrl()}/designs`);
-    await page.getByRole('button', { name: 'New design' }).click();
-    const dialog = page.getByRole('dialog', { name: 'New design' });
-    const name = `HVS-2210 fitted AR ${Date.now()}`;
-    await dialog.getByLabel('Name').fill(name);
-    await dialog.getByLabel('Customer').selectOption({ label: 'Halden Vision Systems' });
-    await dialog.getByLabel('Spec mask').selectOption({ label: 'HVS-2210 lens AR rev A' });
-    await dialog.getByLabel('Incident medium').selectOption({ label: 'Air' });
-    await dialog.getByLabel('Substrate', { exact: true }).selectOption({ label: 'N-BK7' });
-    await dialog.getByLabel('Substrate thickness (mm)').fill('2');
-    await dialog.getByLabel('Back surface').selectOption('front-only');
-    await dialog.getByLabel('Reference wavelength (nm)').fill('550');
-    await dialog.getByRole('button', { name: 'Create design' }).click();
-    await page.waitForURL(/\/designs\/\d+/);
-    await page.getByRole('heading', { level: 1, name }).waitFor();
-
-    await page.getByRole('button', { name: 'Paste rows…' }).click();
-    const paste = page.getByRole('dialog', { name: 'Paste rows' });
-    await paste.getByLabel('Rows from a spreadsheet').fill(ROUGH_STACK);
-    await paste.getByRole('button', { name: 'Add rows' }).click();
-    await paste.waitFor({ state: 'hidden' });
+    const { context, page, pageErrors } = await browserSession(browser, demoUser('mira.castell'));
+    await createDesignInBrowser(page, `HVS-2210 fitted AR ${Date.now()}`, ROUGH_STACK);
     await expect.poll(() => layerCell(page, 4, 1).innerText()).toBe('SiO2');
     await expect.poll(() => maskResult(page).innerText(), { timeout: 30_000 }).toMatch(/Fail/);
     await page.getByRole('button', { name: 'Save' }).click();

@@ -1,108 +1,38 @@
-import { request, type APIRequestContext, type Browser } from 'playwright-core';
+import type { Browser } from 'playwright-core';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { baseUrl, demoSignIns, launchBrowser, signIn, type DemoSignIn } from './browser.js';
+import { baseUrl, launchBrowser } from './browser.js';
+import { FOUR_LAYER_AR, HALDEN, HALDEN_MASK, browserSession, demoUser, prepareDesign } from './demo-shop.js';
 
 /*
  * Sales quote parts coated to an approved design and send the quote with a compliance report;
  * the local SMTP fake in the API process receives the e-mail, and the admin reads it in the
  * Outbox. The design is the demo scenario's four-layer AR stack for Halden's lens mask (see
- * design-workspace.browser.ts): MgF2 96.8 / ZrO2 127.6 / Al2O3 84.2 / SiO2 76.2 nm on N-BK7 in
- * air, written and submitted by one engineer, approved by the other (four-eyes). Prices and the
+ * demo-shop.ts), written and submitted by one engineer, approved by the other (four-eyes). Prices and the
  * contact are invented demo data.
  */
-const STACK: [material: string, thicknessNm: number][] = [
-  ['MgF2', 96.8],
-  ['ZrO2', 127.6],
-  ['Al2O3', 84.2],
-  ['SiO2', 76.2],
-];
-const CUSTOMER = 'Halden Vision Systems';
-const MASK = { name: 'HVS-2210 lens AR', revision: 'A' };
+const CUSTOMER = HALDEN;
+const MASK = HALDEN_MASK;
 
 const inDays = (days: number) => new Date(Date.now() + days * 86_400_000).toISOString().slice(0, 10);
 
 let browser: Browser;
-const apis: APIRequestContext[] = [];
 const stamp = Date.now();
 const designName = `HVS-2210 quote design ${stamp}`;
 const contact = `purchasing-${stamp}@halden-vision.example`;
 const part = `Ø25 mm N-BK7 lens, AR front side (${stamp})`;
 
-function demo(pick: (s: DemoSignIn) => boolean, what: string): DemoSignIn {
-  const found = demoSignIns().find(pick);
-  if (!found) throw new Error(`no demo sign-in for ${what}`);
-  return found;
-}
-
-/** An API session of a demo user (the session cookie stays in the context). */
-async function apiSession(who: DemoSignIn): Promise<APIRequestContext> {
-  const api = await request.newContext({ baseURL: baseUrl() });
-  apis.push(api);
-  const res = await api.post('/api/auth/sign-in', { data: { email: who.email, password: who.password } });
-  expect(res.status(), await res.text()).toBeLessThan(300);
-  return api;
-}
-
-async function json<T>(res: Awaited<ReturnType<APIRequestContext['get']>>): Promise<T> {
-  expect(res.ok(), `${res.url()}: ${res.status()} ${await res.text()}`).toBe(true);
-  return (await res.json()) as T;
-}
-
 beforeAll(async () => {
   browser = await launchBrowser();
-  const author = await apiSession(demo((s) => s.email.startsWith('mira.castell@'), 'mira.castell'));
-  const reviewer = await apiSession(demo((s) => s.email.startsWith('tomas.reyes@'), 'tomas.reyes'));
-
-  const materials = await json<{ id: number; name: string }[]>(await author.get('/api/materials'));
-  const material = (name: string) => {
-    const m = materials.find((x) => x.name === name);
-    if (!m) throw new Error(`the demo library has no ${name}`);
-    return m.id;
-  };
-  const customers = await json<{ id: number; name: string }[]>(await author.get('/api/customers'));
-  const customer = customers.find((c) => c.name === CUSTOMER);
-  if (!customer) throw new Error(`no demo customer ${CUSTOMER}`);
-  const masks = await json<{ id: number; name: string; revision: string }[]>(
-    await author.get(`/api/spec-masks?customerId=${customer.id}`),
-  );
-  const mask = masks.find((m) => m.name === MASK.name && m.revision === MASK.revision);
-  if (!mask) throw new Error(`${CUSTOMER} has no mask ${MASK.name} rev ${MASK.revision}`);
-
-  const design = await json<{ id: number }>(
-    await author.post('/api/designs', {
-      data: {
-        name: designName,
-        customerId: customer.id,
-        specMaskId: mask.id,
-        incidentMaterialId: material('Air'),
-        substrateMaterialId: material('N-BK7'),
-        substrateThicknessMm: 2,
-        backSurface: 'front-only',
-        referenceWavelengthNm: 550,
-        layers: STACK.map(([name, thicknessNm]) => ({ materialId: material(name), thicknessNm })),
-      },
-    }),
-  );
-  await json(await author.post(`/api/designs/${design.id}/versions/1/submit`, { data: { rowVersion: 1 } }));
-  const approved = await json<{ status: string }>(
-    await reviewer.post(`/api/designs/${design.id}/versions/1/approve`, { data: {} }),
-  );
-  expect(approved.status).toBe('approved');
+  const approved = await prepareDesign(designName, FOUR_LAYER_AR, 'approved');
+  expect(approved.version.status).toBe('approved');
 });
 afterAll(async () => {
-  await Promise.all(apis.map((api) => api.dispose()));
   await browser?.close();
 });
 
 describe('quotes', () => {
   it('sales quote an approved version, attach a new compliance report and send it; the admin finds it in the Outbox', async () => {
-    const sales = demo((s) => s.email.startsWith('priya.nand@'), 'priya.nand');
-    const admin = demo((s) => s.email.startsWith('elin.voss@'), 'elin.voss');
-    const context = await browser.newContext({ viewport: { width: 1440, height: 1000 } });
-    const page = await context.newPage();
-    const pageErrors: string[] = [];
-    page.on('pageerror', (error) => pageErrors.push(error.message));
-    await signIn(page, sales);
+    const { context, page, pageErrors } = await browserSession(browser, demoUser('priya.nand'));
 
     await page.goto(`${baseUrl()}/quotes`);
     await page.getByRole('heading', { level: 1, name: 'Quotes' }).waitFor();
@@ -186,10 +116,8 @@ describe('quotes', () => {
     await context.close();
 
     // The admin reads the e-mail the SMTP fake received.
-    const adminContext = await browser.newContext({ viewport: { width: 1440, height: 1000 } });
-    const adminPage = await adminContext.newPage();
-    adminPage.on('pageerror', (error) => pageErrors.push(error.message));
-    await signIn(adminPage, admin);
+    const admin = await browserSession(browser, demoUser('elin.voss'));
+    const adminPage = admin.page;
     await adminPage.goto(`${baseUrl()}/admin/outbox`);
     const subject = `Quote Q-${quoteId}: ${part}`;
     const row = adminPage.getByRole('grid', { name: 'Outbox' }).getByRole('row').filter({ hasText: subject });
@@ -204,11 +132,11 @@ describe('quotes', () => {
     const href = await link.getAttribute('href');
     expect(href).toMatch(/^\/api\/outbox\/\d+\/attachments\/\d+$/);
     // The browser's own session fetches the attachment behind the link.
-    const file = await adminContext.request.get(`${baseUrl()}${href}`);
+    const file = await admin.context.request.get(`${baseUrl()}${href}`);
     expect(file.status()).toBe(200);
     expect(file.headers()['content-type']).toMatch(/^application\/pdf/);
     expect((await file.body()).subarray(0, 5).toString()).toBe('%PDF-');
-    expect(pageErrors).toEqual([]);
-    await adminContext.close();
+    expect(admin.pageErrors).toEqual([]);
+    await admin.context.close();
   });
 });
