@@ -1,4 +1,4 @@
-import { screen, waitFor, within } from '@testing-library/react';
+import { act, screen, waitFor, within } from '@testing-library/react';
 import type { LimitBand } from '@quietglass/shared';
 import { describe, expect, it, vi } from 'vitest';
 import { TEST_DESIGN, TEST_MATERIALS, testVersion } from '../../../test/design-fixtures';
@@ -220,6 +220,28 @@ describe('DesignWorkspace', () => {
 
     await waitFor(() => expect(screen.getByText('No unsaved changes')).toBeTruthy());
     expect((api.calls('PUT', VERSION_URL)[0].body as { rowVersion: number }).rowVersion).toBe(1);
+  });
+
+  it('asks before leaving the page with unsaved grid edits, and stays or leaves as chosen', async () => {
+    mockWorkspaceApi({
+      [`GET ${VERSION_URL}`]: { status: 200, body: testVersion({ layers: [layer(4, 90)] }) },
+    });
+    const { user, router } = renderWorkspace();
+    await screen.findByRole('grid', { name: 'Layer grid' });
+    await setThickness(user, 0, '99.64');
+    expect(screen.getByText('Unsaved changes')).toBeTruthy();
+
+    await act(() => router.navigate('/materials'));
+    const dialog = within(await screen.findByRole('dialog', { name: 'Leave with unsaved changes?' }));
+    await user.click(dialog.getByRole('button', { name: 'Stay here' }));
+    await waitFor(() => expect(screen.queryByRole('dialog')).toBeNull());
+    expect(router.state.location.pathname).toBe('/');
+    expect(gridCell(0, 2).textContent).toBe('99.64');
+
+    await act(() => router.navigate('/materials'));
+    const again = within(await screen.findByRole('dialog', { name: 'Leave with unsaved changes?' }));
+    await user.click(again.getByRole('button', { name: 'Discard and leave' }));
+    await waitFor(() => expect(router.state.location.pathname).toBe('/materials'));
   });
 
   it('submits a saved draft for approval after confirming, and then shows it read-only', async () => {

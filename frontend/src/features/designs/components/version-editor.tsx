@@ -7,6 +7,7 @@ import Typography from '@mui/material/Typography';
 import type { DesignVersionContent, DesignVersionView, LimitBand, NamedModel } from '@quietglass/shared';
 import { useEffect, useId, useMemo, useState } from 'react';
 import { useForm, useWatch } from 'react-hook-form';
+import { useBlocker } from 'react-router-dom';
 import { ConfirmDialog } from '../../../components/confirm-dialog';
 import { ConflictAlert } from '../../../components/conflict-alert';
 import { ErrorAlert } from '../../../components/error-alert';
@@ -127,6 +128,13 @@ export function VersionEditor({
     window.addEventListener('beforeunload', warn);
     return () => window.removeEventListener('beforeunload', warn);
   }, [dirty]);
+
+  // Leaving the page inside the app asks first, like closing the tab does (the version picker, which
+  // only changes the address's ?version=, asks through the workspace's own dialog).
+  const blocker = useBlocker(
+    ({ currentLocation, nextLocation }) =>
+      dirty && editable && currentLocation.pathname !== nextLocation.pathname,
+  );
 
   /** Why Save is disabled, shown beside it; null when it is enabled (or not offered). */
   const saveBlocked = !editable
@@ -307,6 +315,17 @@ export function VersionEditor({
         The grid has {rows.length} layer{rows.length === 1 ? '' : 's'} with your unsaved edits. Reloading
         shows the version as it is saved now and discards your edits; keep them if you want to copy them
         elsewhere first.
+      </ConfirmDialog>
+      <ConfirmDialog
+        open={blocker.state === 'blocked'}
+        title="Leave with unsaved changes?"
+        confirmLabel="Discard and leave"
+        cancelLabel="Stay here"
+        onConfirm={() => blocker.proceed?.()}
+        onCancel={() => blocker.reset?.()}
+      >
+        The grid of version {baseline.number} has unsaved changes. Leaving this page discards them; stay to
+        save them first.
       </ConfirmDialog>
       <ConfirmDialog
         open={confirmSubmit}
