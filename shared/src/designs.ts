@@ -123,3 +123,15 @@ export function designStackDescription(
 export function engineBackSurface(treatment: BackSurfaceTreatment): 'none' | 'incoherent' {
   return treatment === 'front-only' ? 'none' : 'incoherent';
 }
+
+/** One step of a version's lifecycle as the audit trail records it. */
+export interface VersionEventView {
+  id: number;
+  designId: number;
+  versionNumber: number;
+  from: VersionStatus;
+  to: VersionStatus;
+  actor: { id: number; displayName: string; role: string };
+  comment: string;
+  at: string;
+}

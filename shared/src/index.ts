@@ -3,6 +3,13 @@ export * from './designs.js';
 export * from './analysis.js';
 export * from './runsheet.js';
 export * from './measured.js';
+export * from './reports.js';
+export * from './quotes.js';
+export * from './runs.js';
+export * from './chambers.js';
+export * from './recipes.js';
+export * from './outbox.js';
+export * from './calculations.js';
 
 // Optics engine (browser-safe; Node-only helpers live under @quietglass/shared/node/parallel).
 export * from './optics/errors.js';

@@ -82,6 +82,12 @@ export interface RunSheet {
   cautions: readonly string[];
 }
 
+/** A released recipe's run sheet on one chamber, as the API computes it. */
+export interface RunSheetView extends RunSheet {
+  recipe: { designId: number; number: number; name: string; customer: string };
+  chamber: { id: number; name: string };
+}
+
 /** Builds the run sheet; errors name the layer or material whose settings are missing or wrong. */
 export function buildRunSheet(input: RunSheetInput): RunSheet {
   const { chamber } = input;

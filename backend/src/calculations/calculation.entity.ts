@@ -1,17 +1,13 @@
 import { Column, CreateDateColumn, Entity, JoinColumn, ManyToOne, PrimaryGeneratedColumn } from 'typeorm';
 import type { AnalysisInput, AnalysisSummary } from '@quietglass/shared/analysis';
+import type {
+  CalculationKind,
+  CalculationStatus,
+  CalculationView,
+  LiveProgress,
+} from '@quietglass/shared/calculations';
 import type { OptimiseInput } from './optimise-jobs.js';
 import { User } from '../users/user.entity.js';
-
-export const CALCULATION_STATUSES = ['queued', 'running', 'completed', 'failed', 'cancelled'] as const;
-export type CalculationStatus = (typeof CALCULATION_STATUSES)[number];
-export const CALCULATION_KINDS = ['analysis', 'fit', 'grow', 'yield', 'diagnosis'] as const;
-export type CalculationKind = (typeof CALCULATION_KINDS)[number];
-
-/** Streamed while an optimisation runs: merit per iteration (fit, diagnosis) or per layer count (grow). */
-export interface LiveProgress {
-  history: { iteration?: number; layerCount?: number; merit: number }[];
-}
 
 /** A compute-queue job and, once done, its stored result. */
 @Entity({ name: 'calculations' })
@@ -84,28 +80,6 @@ export class Calculation {
   completedCount: number;
 
   @Column({ type: 'integer', default: 0 })
-  attempts: number;
-}
-
-export interface CalculationView {
-  id: number;
-  kind: CalculationKind;
-  status: CalculationStatus;
-  progress: number;
-  error: string | null;
-  designId: number | null;
-  versionNumber: number | null;
-  /** The analysis grid, or the optimisation's options. */
-  request: unknown;
-  summary: AnalysisSummary | Record<string, unknown> | null;
-  live: LiveProgress | null;
-  runId: number | null;
-  createdBy: string;
-  createdAt: string;
-  startedAt: string | null;
-  finishedAt: string | null;
-  computeMs: number | null;
-  processedBy: string | null;
   attempts: number;
 }
 

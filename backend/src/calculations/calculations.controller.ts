@@ -3,10 +3,11 @@ import type { Response } from 'express';
 import { CurrentUser } from '../auth/current-user.decorator.js';
 import { Roles } from '../auth/roles.decorator.js';
 import type { User } from '../users/user.entity.js';
-import { toCalculationView, type CalculationView } from './calculation.entity.js';
+import { toCalculationView } from './calculation.entity.js';
 import { CalculationsService } from './calculations.service.js';
 import { AcceptDto, DiagnosisDto, FitDto, GrowDto, YieldDto } from './dto/optimise.dto.js';
 import { OptimiseService } from './optimise.service.js';
+import type { CalculationView } from '@quietglass/shared/calculations';
 import type { DesignVersionView } from '@quietglass/shared/designs';
 import type { Calculation } from './calculation.entity.js';
 

@@ -13,6 +13,7 @@ import {
   type AnalysisQuantity,
   type AnalysisSummary,
 } from '@quietglass/shared/analysis';
+import type { CalculationKind } from '@quietglass/shared/calculations';
 import { designStackDescription, engineBackSurface, type NamedModel } from '@quietglass/shared/designs';
 import { createSpectrumPlan } from '@quietglass/shared/optics/batch';
 import { OpticsInputError } from '@quietglass/shared/optics/errors';
@@ -22,7 +23,7 @@ import { contentHash } from '../common/stable-json.js';
 import { DesignsService } from '../designs/designs.service.js';
 import { ANALYSIS_JOB, COMPUTE_QUEUE, type ComputeJobData } from '../queue/queue.constants.js';
 import type { User } from '../users/user.entity.js';
-import { Calculation, type CalculationKind } from './calculation.entity.js';
+import { Calculation } from './calculation.entity.js';
 import type { OptimiseInput, OptimiseKind } from './optimise-jobs.js';
 
 /**

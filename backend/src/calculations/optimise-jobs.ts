@@ -3,6 +3,7 @@
  * forecast, Run diagnosis): plain JSON, so they are stored with the calculation and cross into a
  * worker thread unchanged. `runOptimiseJob` is what the thread runs.
  */
+import type { DiagnosisResult } from '@quietglass/shared/calculations';
 import { growLayers, type AllowedMaterial, type GrowResult } from '@quietglass/shared/optimise/needle';
 import { fitToMask, type FitResult } from '@quietglass/shared/optimise/fit';
 import type { YieldOptions } from '@quietglass/shared/optimise/yield';
@@ -44,25 +45,6 @@ export interface DiagnosisInput extends Base {
 }
 
 export type OptimiseInput = FitInput | GrowInput | YieldInput | DiagnosisInput;
-
-export interface LayerDeviation {
-  /** Design layer, 1 = outermost. */
-  layer: number;
-  materialId: number;
-  designNm: number;
-  fittedNm: number;
-  /** fitted ÷ design. */
-  factor: number;
-  deviationPercent: number;
-}
-
-export interface DiagnosisResult {
-  fit: FitResult;
-  /** Ranked by |deviation|, largest first. */
-  layers: LayerDeviation[];
-  /** RMS difference between measured and fitted spectrum, percentage points. */
-  residualRmsPercent: number;
-}
 
 export type ProgressMessage = {
   type: 'progress';

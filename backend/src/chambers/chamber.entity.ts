@@ -6,14 +6,7 @@ import {
   UpdateDateColumn,
   VersionColumn,
 } from 'typeorm';
-
-export interface ChamberMaterialSetting {
-  materialId: number;
-  /** Thickness on the part ÷ thickness on the monitor. */
-  toolingFactor: number;
-  /** Default deposition rate at the monitor, nm/s. */
-  rateNmPerS: number;
-}
+import type { ChamberMaterialSetting, ChamberView } from '@quietglass/shared/chambers';
 
 /** A coating chamber: its tooling factors and rates per material, and its optical monitor. */
 @Entity({ name: 'chambers' })
@@ -46,8 +39,6 @@ export class Chamber {
   @UpdateDateColumn({ name: 'updated_at', type: 'timestamptz' })
   updatedAt: Date;
 }
-
-export type ChamberView = Omit<Chamber, 'createdAt' | 'updatedAt'> & { updatedAt: string };
 
 export function toChamberView(c: Chamber): ChamberView {
   return {

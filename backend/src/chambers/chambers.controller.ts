@@ -12,11 +12,13 @@ import {
   StreamableFile,
 } from '@nestjs/common';
 import type { Response } from 'express';
+import type { ChamberView } from '@quietglass/shared/chambers';
+import type { RunSheetView } from '@quietglass/shared/runsheet';
 import { Roles } from '../auth/roles.decorator.js';
-import { toChamberView, type ChamberView } from './chamber.entity.js';
+import { toChamberView } from './chamber.entity.js';
 import { ChambersService } from './chambers.service.js';
 import { ChamberDto, UpdateChamberDto } from './dto/chamber.dto.js';
-import { RunSheetService, type RunSheetView } from './run-sheet.service.js';
+import { RunSheetService } from './run-sheet.service.js';
 
 /** Chambers are kept by admins and engineers; operators read them and print run sheets. */
 @Controller()

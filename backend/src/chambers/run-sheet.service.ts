@@ -2,16 +2,11 @@ import { BadRequestException, Injectable } from '@nestjs/common';
 import { InjectRepository } from '@nestjs/typeorm';
 import { In, Repository } from 'typeorm';
 import PDFDocument from 'pdfkit';
-import { buildRunSheet, type RunSheet } from '@quietglass/shared/runsheet';
+import { buildRunSheet, type RunSheetView } from '@quietglass/shared/runsheet';
 import { OpticsInputError } from '@quietglass/shared/optics/errors';
 import { ApprovalsService } from '../designs/approvals.service.js';
 import { Material } from '../materials/material.entity.js';
 import { ChambersService } from './chambers.service.js';
-
-export interface RunSheetView extends RunSheet {
-  recipe: { designId: number; number: number; name: string; customer: string };
-  chamber: { id: number; name: string };
-}
 
 /** Run sheets for released recipes on a chosen chamber: JSON for the page, PDF for the floor. */
 @Injectable()

@@ -1,12 +1,13 @@
 import { Body, Controller, Get, Param, ParseIntPipe, Post, Query } from '@nestjs/common';
-import type { DesignVersionView } from '@quietglass/shared/designs';
+import type { DesignVersionView, VersionEventView } from '@quietglass/shared/designs';
+import type { RecipeSummaryView, RecipeView } from '@quietglass/shared/recipes';
 import { CurrentUser } from '../auth/current-user.decorator.js';
 import { Roles } from '../auth/roles.decorator.js';
 import type { User } from '../users/user.entity.js';
 import { ApprovalsService, type Transition } from './approvals.service.js';
 import { toVersionView } from './designs.service.js';
 import { TransitionDto } from './dto/transition.dto.js';
-import { toEventView, type VersionEventView } from './version-event.entity.js';
+import { toEventView } from './version-event.entity.js';
 
 /** Submit, approve, return, release and retire versions; the audit trail; released recipes. */
 @Controller()
@@ -81,16 +82,7 @@ export class ApprovalsController {
 
   @Get('recipes')
   @Roles('admin', 'engineer', 'operator')
-  async recipes(): Promise<
-    {
-      designId: number;
-      number: number;
-      name: string;
-      customer: string;
-      releasedAt: string;
-      releasedBy: string | null;
-    }[]
-  > {
+  async recipes(): Promise<RecipeSummaryView[]> {
     return (await this.approvals.releasedRecipes()).map(({ version: v, releasedBy }) => ({
       designId: v.designId,
       number: v.number,
@@ -106,7 +98,7 @@ export class ApprovalsController {
   async recipe(
     @Param('id', ParseIntPipe) id: number,
     @Param('number', ParseIntPipe) n: number,
-  ): Promise<DesignVersionView & { name: string }> {
+  ): Promise<RecipeView> {
     const v = await this.approvals.releasedRecipe(id, n);
     return { ...toVersionView(v), name: v.design.name };
   }

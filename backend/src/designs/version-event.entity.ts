@@ -1,5 +1,5 @@
 import { Column, CreateDateColumn, Entity, JoinColumn, ManyToOne, PrimaryGeneratedColumn } from 'typeorm';
-import type { VersionStatus } from '@quietglass/shared/designs';
+import type { VersionEventView, VersionStatus } from '@quietglass/shared/designs';
 import { User } from '../users/user.entity.js';
 
 /** One step of a version's lifecycle: who moved it, when, from which status to which, and why. */
@@ -29,17 +29,6 @@ export class VersionEvent {
 
   @CreateDateColumn({ name: 'at', type: 'timestamptz' })
   at: Date;
-}
-
-export interface VersionEventView {
-  id: number;
-  designId: number;
-  versionNumber: number;
-  from: VersionStatus;
-  to: VersionStatus;
-  actor: { id: number; displayName: string; role: string };
-  comment: string;
-  at: string;
 }
 
 export function toEventView(e: VersionEvent): VersionEventView {

@@ -1,21 +1,12 @@
 import { Controller, Get, NotFoundException, Param, ParseIntPipe, Res, StreamableFile } from '@nestjs/common';
 import { InjectDataSource } from '@nestjs/typeorm';
 import type { Response } from 'express';
+import type { OutboxMessageView } from '@quietglass/shared/outbox';
 import { DataSource } from 'typeorm';
 import { Roles } from '../auth/roles.decorator.js';
 import { OutboxAttachment, OutboxMessage } from './outbox.entity.js';
 
-interface OutboxView {
-  id: number;
-  from: string;
-  to: string;
-  subject: string;
-  text: string;
-  receivedAt: string;
-  attachments: { id: number; filename: string; contentType: string; size: number }[];
-}
-
-function view(m: OutboxMessage): OutboxView {
+function view(m: OutboxMessage): OutboxMessageView {
   return {
     id: m.id,
     from: m.from,
@@ -39,7 +30,7 @@ export class OutboxController {
   constructor(@InjectDataSource() private readonly db: DataSource) {}
 
   @Get()
-  async list(): Promise<OutboxView[]> {
+  async list(): Promise<OutboxMessageView[]> {
     const messages = await this.db
       .getRepository(OutboxMessage)
       .find({ relations: { attachments: true }, order: { id: 'DESC' }, take: 200 });
@@ -47,7 +38,7 @@ export class OutboxController {
   }
 
   @Get(':id')
-  async get(@Param('id', ParseIntPipe) id: number): Promise<OutboxView> {
+  async get(@Param('id', ParseIntPipe) id: number): Promise<OutboxMessageView> {
     const m = await this.db
       .getRepository(OutboxMessage)
       .findOne({ where: { id }, relations: { attachments: true } });

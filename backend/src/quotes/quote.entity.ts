@@ -8,24 +8,9 @@ import {
   UpdateDateColumn,
   VersionColumn,
 } from 'typeorm';
+import type { QuantityBreak, QuoteEvent, QuoteStatus } from '@quietglass/shared/quotes';
 import { Customer } from '../customers/customer.entity.js';
 import { User } from '../users/user.entity.js';
-
-export const QUOTE_STATUSES = ['draft', 'sent', 'accepted', 'declined', 'expired'] as const;
-export type QuoteStatus = (typeof QUOTE_STATUSES)[number];
-
-export interface QuantityBreak {
-  /** Smallest order quantity this unit price applies to. */
-  minQuantity: number;
-  unitPrice: number;
-}
-
-export interface QuoteEvent {
-  at: string;
-  actor: string;
-  action: string;
-  detail?: string;
-}
 
 /** A quote to a customer for parts coated to an approved design version. */
 @Entity({ name: 'quotes' })

@@ -1,18 +1,11 @@
 import { Body, Controller, Get, Param, ParseIntPipe, Post, Put } from '@nestjs/common';
+import type { QuoteView } from '@quietglass/shared/quotes';
 import { CurrentUser } from '../auth/current-user.decorator.js';
 import { Roles } from '../auth/roles.decorator.js';
 import type { User } from '../users/user.entity.js';
 import { AttachReportsDto, QuoteDecisionDto, QuoteDto, UpdateQuoteDto } from './dto/quote.dto.js';
-import type { Quote, QuoteStatus } from './quote.entity.js';
+import type { Quote } from './quote.entity.js';
 import { effectiveStatus, QuotesService } from './quotes.service.js';
-
-type QuoteView = Omit<Quote, 'customer' | 'createdBy' | 'createdAt' | 'updatedAt'> & {
-  customer: { id: number; name: string };
-  status: QuoteStatus;
-  createdBy: string;
-  createdAt: string;
-  updatedAt: string;
-};
 
 function view(q: Quote): QuoteView {
   const { customer, createdBy, createdAt, updatedAt, ...rest } = q;

@@ -1,6 +1,7 @@
 import { BadRequestException, ConflictException, Injectable, NotFoundException } from '@nestjs/common';
 import { InjectDataSource } from '@nestjs/typeorm';
 import { DataSource, In } from 'typeorm';
+import type { QuoteStatus } from '@quietglass/shared/quotes';
 import { CustomersService } from '../customers/customers.service.js';
 import { Design } from '../designs/design.entity.js';
 import { DesignVersion } from '../designs/design-version.entity.js';
@@ -10,7 +11,7 @@ import { ReportsService } from '../reports/reports.service.js';
 import { SpecMaskRecord } from '../spec-masks/spec-mask.entity.js';
 import type { User } from '../users/user.entity.js';
 import type { QuoteDecisionDto, QuoteDto, UpdateQuoteDto } from './dto/quote.dto.js';
-import { Quote, type QuoteStatus } from './quote.entity.js';
+import { Quote } from './quote.entity.js';
 
 /** Today in the shop's calendar (UTC), YYYY-MM-DD. */
 const today = () => new Date().toISOString().slice(0, 10);

@@ -1,6 +1,6 @@
 import PDFDocument from 'pdfkit';
 import type { LimitBand } from '@quietglass/shared/optics/mask';
-import type { ReportSummary } from './report.entity.js';
+import type { ReportSummary } from '@quietglass/shared/reports';
 
 export interface PlotSeries {
   title: string;

@@ -1,27 +1,6 @@
 import { Column, CreateDateColumn, Entity, JoinColumn, ManyToOne, PrimaryGeneratedColumn } from 'typeorm';
+import type { ReportSummary } from '@quietglass/shared/reports';
 import { User } from '../users/user.entity.js';
-
-export interface ReportBandRow {
-  band: number;
-  label: string;
-  rule: string;
-  angles: string;
-  polarisation: string;
-  evaluated: boolean;
-  pass: boolean | null;
-  worstMargin: number | null;
-  worstAtNm: number | null;
-  valuePercent: number | null;
-  reason?: string;
-}
-
-export interface ReportSummary {
-  source: 'designed' | 'measured';
-  pass: boolean | null;
-  worstMargin: number | null;
-  bands: ReportBandRow[];
-  colour: { L: number; a: number; b: number; Rv: number } | null;
-}
 
 /** A spec-compliance report (PDF) of an approved design version against a spec mask. */
 @Entity({ name: 'compliance_reports' })

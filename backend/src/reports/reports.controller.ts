@@ -1,16 +1,12 @@
 import { Body, Controller, Get, Param, ParseIntPipe, Post, Query, Res, StreamableFile } from '@nestjs/common';
 import type { Response } from 'express';
+import type { ReportView } from '@quietglass/shared/reports';
 import { CurrentUser } from '../auth/current-user.decorator.js';
 import { Roles } from '../auth/roles.decorator.js';
 import type { User } from '../users/user.entity.js';
 import { CreateReportDto } from './dto/report.dto.js';
 import type { ComplianceReport } from './report.entity.js';
 import { ReportsService } from './reports.service.js';
-
-type ReportView = Omit<ComplianceReport, 'pdf' | 'createdBy' | 'createdAt'> & {
-  createdBy: string;
-  createdAt: string;
-};
 
 function view(r: ComplianceReport): ReportView {
   const { createdBy, createdAt, pdf: _pdf, ...rest } = r;

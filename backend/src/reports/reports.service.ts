@@ -7,6 +7,7 @@ import { calculateSpectrum } from '@quietglass/shared/optics/batch';
 import { reflectedColour } from '@quietglass/shared/optics/colour';
 import { evaluateMask, validateSpecMask, type LimitBand } from '@quietglass/shared/optics/mask';
 import { parseStack, type OpticalStack } from '@quietglass/shared/optics/stack';
+import type { ReportBandRow, ReportSummary } from '@quietglass/shared/reports';
 import { appConfig, type AppConfig } from '../config/configuration.js';
 import { Design } from '../designs/design.entity.js';
 import { DesignVersion } from '../designs/design-version.entity.js';
@@ -15,7 +16,7 @@ import { SpecMaskRecord } from '../spec-masks/spec-mask.entity.js';
 import type { User } from '../users/user.entity.js';
 import type { CreateReportDto } from './dto/report.dto.js';
 import { renderReportPdf, type PlotSeries } from './report-pdf.js';
-import { ComplianceReport, type ReportBandRow, type ReportSummary } from './report.entity.js';
+import { ComplianceReport } from './report.entity.js';
 
 /** Versions a customer may be shown: approved or released (never drafts). */
 const REPORTABLE = ['approved', 'released'] as const;

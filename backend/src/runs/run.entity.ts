@@ -7,24 +7,8 @@ import {
   PrimaryGeneratedColumn,
   UpdateDateColumn,
 } from 'typeorm';
+import type { DurabilityResult, LayerReading } from '@quietglass/shared/runs';
 import { User } from '../users/user.entity.js';
-
-export interface LayerReading {
-  /** Deposition step (1 = next to the substrate), as on the run sheet. */
-  step: number;
-  /** What the monitor or crystal showed at the end of the layer, nm. */
-  monitorThicknessNm?: number;
-  rateNmPerS?: number;
-  notes?: string;
-}
-
-export interface DurabilityResult {
-  test: 'adhesion' | 'abrasion' | 'humidity' | 'other';
-  /** The procedure followed, e.g. "ISO 9211-4, tape adhesion". */
-  method: string;
-  result: 'pass' | 'fail';
-  notes?: string;
-}
 
 /** One chamber run of a released recipe: a lot, its readings and witness results. */
 @Entity({ name: 'chamber_runs' })

@@ -1,21 +1,17 @@
 import { Body, Controller, Get, Header, Param, ParseIntPipe, Post, Put, Res } from '@nestjs/common';
 import type { Response } from 'express';
+import type {
+  RunDetailView,
+  RunSpectrumView,
+  RunView,
+  SpectrumComparisonView,
+} from '@quietglass/shared/runs';
 import { CurrentUser } from '../auth/current-user.decorator.js';
 import { Roles } from '../auth/roles.decorator.js';
 import type { User } from '../users/user.entity.js';
 import { StartRunDto, UpdateRunDto, UploadSpectrumDto } from './dto/run.dto.js';
 import type { ChamberRun, RunSpectrum } from './run.entity.js';
-import { RunsService, type RunComparison } from './runs.service.js';
-
-type RunView = Omit<ChamberRun, 'operator' | 'createdAt' | 'updatedAt'> & {
-  operator: { id: number; displayName: string };
-  createdAt: string;
-  updatedAt: string;
-};
-type SpectrumView = Omit<RunSpectrum, 'uploadedBy' | 'uploadedAt' | 'originalText'> & {
-  uploadedBy: string;
-  uploadedAt: string;
-};
+import { RunsService } from './runs.service.js';
 
 function runView(r: ChamberRun): RunView {
   const { operator, createdAt, updatedAt, ...rest } = r;
@@ -27,7 +23,7 @@ function runView(r: ChamberRun): RunView {
   };
 }
 
-function spectrumView(s: RunSpectrum): SpectrumView {
+function spectrumView(s: RunSpectrum): RunSpectrumView {
   const { uploadedBy, uploadedAt, originalText: _original, ...rest } = s;
   return { ...rest, uploadedBy: uploadedBy.displayName, uploadedAt: uploadedAt.toISOString() };
 }
@@ -49,7 +45,7 @@ export class RunsController {
   }
 
   @Get(':id')
-  async get(@Param('id', ParseIntPipe) id: number): Promise<RunView & { spectra: SpectrumView[] }> {
+  async get(@Param('id', ParseIntPipe) id: number): Promise<RunDetailView> {
     const [run, spectra] = await Promise.all([this.runs.get(id), this.runs.spectra(id)]);
     return { ...runView(run), spectra: spectra.map(spectrumView) };
   }
@@ -64,7 +60,7 @@ export class RunsController {
     @Param('id', ParseIntPipe) id: number,
     @Body() dto: UploadSpectrumDto,
     @CurrentUser() user: User,
-  ): Promise<SpectrumView> {
+  ): Promise<RunSpectrumView> {
     return spectrumView(await this.runs.uploadSpectrum(id, dto, user));
   }
 
@@ -84,7 +80,7 @@ export class RunsController {
   compare(
     @Param('id', ParseIntPipe) id: number,
     @Param('sid', ParseIntPipe) sid: number,
-  ): Promise<RunComparison> {
+  ): Promise<SpectrumComparisonView> {
     return this.runs.compare(id, sid);
   }
 }

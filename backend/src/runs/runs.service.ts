@@ -2,10 +2,10 @@ import { BadRequestException, Injectable, NotFoundException } from '@nestjs/comm
 import { InjectDataSource } from '@nestjs/typeorm';
 import { DataSource, In } from 'typeorm';
 import { designStackDescription, engineBackSurface } from '@quietglass/shared/designs';
-import { evaluateMaskOnMeasured, type MeasuredMaskResult } from '@quietglass/shared/measured';
+import { evaluateMaskOnMeasured } from '@quietglass/shared/measured';
 import { calculateSpectrum } from '@quietglass/shared/optics/batch';
-import type { LimitBand } from '@quietglass/shared/optics/mask';
 import { parseStack } from '@quietglass/shared/optics/stack';
+import type { SpectrumComparisonView } from '@quietglass/shared/runs';
 import { problemDetails } from '../common/csv.js';
 import { ChambersService } from '../chambers/chambers.service.js';
 import { ApprovalsService } from '../designs/approvals.service.js';
@@ -16,17 +16,6 @@ import type { User } from '../users/user.entity.js';
 import type { StartRunDto, UpdateRunDto, UploadSpectrumDto } from './dto/run.dto.js';
 import { ChamberRun, RunSpectrum } from './run.entity.js';
 import { parseSpectrumCsv } from './spectrum-csv.js';
-
-export interface RunComparison {
-  spectrumId: number;
-  quantity: 'R' | 'T';
-  angleDeg: number;
-  measured: { wavelengthsNm: number[]; valuesPercent: number[] };
-  /** The released design at the same angle, unpolarised, with the thick substrate as the design treats it. */
-  design: { wavelengthsNm: number[]; valuesPercent: number[] };
-  /** `limits` are the mask's own bands, so a client can draw them (operators cannot read spec masks). */
-  mask: (MeasuredMaskResult & { name: string; revision: string; limits: LimitBand[] }) | null;
-}
 
 @Injectable()
 export class RunsService {
@@ -119,7 +108,7 @@ export class RunsService {
   }
 
   /** Measured vs design vs the design's spec mask. */
-  async compare(runId: number, spectrumId: number): Promise<RunComparison> {
+  async compare(runId: number, spectrumId: number): Promise<SpectrumComparisonView> {
     const run = await this.get(runId);
     const measured = await this.spectrum(runId, spectrumId);
     const version = await this.version(run);

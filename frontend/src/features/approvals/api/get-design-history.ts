@@ -1,18 +1,8 @@
 import { queryOptions, useQuery } from '@tanstack/react-query';
-import type { VersionStatus } from '@quietglass/shared';
+import type { VersionEventView } from '@quietglass/shared';
 import { apiClient } from '../../../lib/api-client';
 
-/** One step of a version's lifecycle as the audit trail records it. */
-export interface VersionEventView {
-  id: number;
-  designId: number;
-  versionNumber: number;
-  from: VersionStatus;
-  to: VersionStatus;
-  actor: { id: number; displayName: string; role: string };
-  comment: string;
-  at: string;
-}
+export type { VersionEventView } from '@quietglass/shared';
 
 /** Every lifecycle step of a design's versions, oldest first. */
 export function getDesignHistory(designId: number, signal?: AbortSignal): Promise<VersionEventView[]> {

@@ -1,38 +1,13 @@
 import { queryOptions, useQuery } from '@tanstack/react-query';
-import type { AnalysisRequest, AnalysisSummary } from '@quietglass/shared';
+import type {
+  AnalysisRequest,
+  AnalysisSummary,
+  CalculationStatus,
+  CalculationView,
+} from '@quietglass/shared';
 import { apiClient } from '../../../lib/api-client';
 
-export type CalculationStatus = 'queued' | 'running' | 'completed' | 'failed' | 'cancelled';
-
-/** What a job of the compute queue does: a full analysis, or one of the optimisations. */
-export type CalculationKind = 'analysis' | 'fit' | 'grow' | 'yield' | 'diagnosis';
-
-/** A job of the compute queue and, once done, the summary of its result. */
-export interface CalculationView {
-  id: number;
-  kind: CalculationKind;
-  status: CalculationStatus;
-  /** 0 to 1. */
-  progress: number;
-  error: string | null;
-  designId: number | null;
-  versionNumber: number | null;
-  /** An analysis's grid (AnalysisRequest), or an optimisation's options. */
-  request: unknown;
-  /** An analysis's AnalysisSummary, or an optimisation's result. */
-  summary: AnalysisSummary | Record<string, unknown> | null;
-  /** Merit history streamed while an optimisation runs. */
-  live: { history: { iteration?: number; layerCount?: number; merit: number }[] } | null;
-  /** The chamber run a diagnosis belongs to. */
-  runId: number | null;
-  createdBy: string;
-  createdAt: string;
-  startedAt: string | null;
-  finishedAt: string | null;
-  computeMs: number | null;
-  processedBy: string | null;
-  attempts: number;
-}
+export type { CalculationKind, CalculationStatus, CalculationView } from '@quietglass/shared';
 
 /** A full analysis: its request and summary have the analysis shapes. */
 export interface AnalysisCalculationView extends CalculationView {

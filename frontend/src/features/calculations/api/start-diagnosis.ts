@@ -1,26 +1,9 @@
 import { useMutation, useQueryClient } from '@tanstack/react-query';
+import type { DiagnosisSummary } from '@quietglass/shared';
 import { apiClient } from '../../../lib/api-client';
 import { getCalculationQueryOptions, type CalculationView } from './get-calculation';
 
-/** One design layer as Run diagnosis found it. */
-export interface LayerDeviation {
-  /** Design layer, 1 = outermost (incident side). */
-  layer: number;
-  materialId: number;
-  designNm: number;
-  fittedNm: number;
-  /** fitted ÷ design. */
-  factor: number;
-  deviationPercent: number;
-}
-
-/** The summary of a completed Run diagnosis. */
-export interface DiagnosisSummary {
-  /** Ranked by |deviation|, largest first. */
-  layers: LayerDeviation[];
-  /** RMS difference between measured and fitted spectrum, percentage points. */
-  residualRmsPercent: number;
-}
+export type { DiagnosisSummary, LayerDeviation } from '@quietglass/shared';
 
 export interface StartDiagnosisInput {
   runId: number;

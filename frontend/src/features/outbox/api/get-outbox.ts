@@ -1,24 +1,8 @@
 import { queryOptions, useQuery } from '@tanstack/react-query';
+import type { OutboxMessageView } from '@quietglass/shared';
 import { apiClient, apiUrl } from '../../../lib/api-client';
 
-export interface OutboxAttachmentView {
-  id: number;
-  filename: string;
-  contentType: string;
-  /** Bytes. */
-  size: number;
-}
-
-/** A message the local SMTP fake received. */
-export interface OutboxMessageView {
-  id: number;
-  from: string;
-  to: string;
-  subject: string;
-  text: string;
-  receivedAt: string;
-  attachments: OutboxAttachmentView[];
-}
+export type { OutboxAttachmentView, OutboxMessageView } from '@quietglass/shared';
 
 export function getOutbox(signal?: AbortSignal): Promise<OutboxMessageView[]> {
   return apiClient.get<OutboxMessageView[]>('/outbox', signal);

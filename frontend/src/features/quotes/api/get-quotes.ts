@@ -1,49 +1,9 @@
 import { queryOptions, useQuery } from '@tanstack/react-query';
+import type { QuoteView } from '@quietglass/shared';
 import { apiClient } from '../../../lib/api-client';
 
-/** Draft → sent → accepted or declined; a sent quote past its validity date reads as expired. */
-export const QUOTE_STATUSES = ['draft', 'sent', 'accepted', 'declined', 'expired'] as const;
-export type QuoteStatus = (typeof QUOTE_STATUSES)[number];
-
-export interface QuantityBreak {
-  /** Smallest order quantity this unit price applies to. */
-  minQuantity: number;
-  unitPrice: number;
-}
-
-export interface QuoteEvent {
-  at: string;
-  actor: string;
-  action: string;
-  detail?: string;
-}
-
-/** A quote as the API returns it. */
-export interface QuoteView {
-  id: number;
-  customer: { id: number; name: string };
-  contactEmail: string;
-  designId: number;
-  versionNumber: number;
-  specMaskId: number;
-  partDescription: string;
-  quantityBreaks: QuantityBreak[];
-  currency: string;
-  leadTimeDays: number;
-  /** YYYY-MM-DD. */
-  validUntil: string;
-  terms: string;
-  status: QuoteStatus;
-  reportIds: number[];
-  history: QuoteEvent[];
-  /** Why the last send failed; null after a successful one. */
-  lastSendError: string | null;
-  /** Optimistic-locking counter: send it back with an edit. */
-  version: number;
-  createdBy: string;
-  createdAt: string;
-  updatedAt: string;
-}
+export { QUOTE_STATUSES } from '@quietglass/shared';
+export type { QuantityBreak, QuoteEvent, QuoteStatus, QuoteView } from '@quietglass/shared';
 
 export function getQuotes(signal?: AbortSignal): Promise<QuoteView[]> {
   return apiClient.get<QuoteView[]>('/quotes', signal);

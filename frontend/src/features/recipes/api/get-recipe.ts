@@ -1,9 +1,8 @@
 import { queryOptions, useQuery } from '@tanstack/react-query';
-import type { DesignVersionView } from '@quietglass/shared';
+import type { RecipeView } from '@quietglass/shared';
 import { apiClient } from '../../../lib/api-client';
 
-/** A released version with its design's name; anything not released is 404. */
-export type RecipeView = DesignVersionView & { name: string };
+export type { RecipeView } from '@quietglass/shared';
 
 export function getRecipe(designId: number, number: number, signal?: AbortSignal): Promise<RecipeView> {
   return apiClient.get<RecipeView>(`/recipes/${designId}/${number}`, signal);

@@ -1,15 +1,8 @@
 import { queryOptions, useQuery } from '@tanstack/react-query';
+import type { RecipeSummaryView } from '@quietglass/shared';
 import { apiClient } from '../../../lib/api-client';
 
-/** A released version: what the chamber operators may build. */
-export interface RecipeSummaryView {
-  designId: number;
-  number: number;
-  /** The design's name. */
-  name: string;
-  customer: string;
-  releasedAt: string;
-}
+export type { RecipeSummaryView } from '@quietglass/shared';
 
 /** Released recipes, most recently released first. */
 export function getRecipes(signal?: AbortSignal): Promise<RecipeSummaryView[]> {

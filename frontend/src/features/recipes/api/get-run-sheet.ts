@@ -1,12 +1,8 @@
 import { keepPreviousData, queryOptions, useQuery } from '@tanstack/react-query';
-import type { RunSheet } from '@quietglass/shared';
+import type { RunSheetView } from '@quietglass/shared';
 import { apiClient, apiUrl } from '../../../lib/api-client';
 
-/** A released recipe's run sheet on one chamber, as the API computes it. */
-export interface RunSheetView extends RunSheet {
-  recipe: { designId: number; number: number; name: string; customer: string };
-  chamber: { id: number; name: string };
-}
+export type { RunSheetView } from '@quietglass/shared';
 
 export interface RunSheetParams {
   designId: number;

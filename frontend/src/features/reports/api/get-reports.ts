@@ -1,44 +1,8 @@
 import { queryOptions, useQuery } from '@tanstack/react-query';
+import type { ReportView } from '@quietglass/shared';
 import { apiClient } from '../../../lib/api-client';
 
-/** One limit band of a compliance report's summary: the worst point against its rule. */
-export interface ReportBandRow {
-  band: number;
-  label: string;
-  rule: string;
-  angles: string;
-  polarisation: string;
-  evaluated: boolean;
-  pass: boolean | null;
-  /** Percentage points inside (+) or outside (−) the limit at the worst point. */
-  worstMargin: number | null;
-  worstAtNm: number | null;
-  valuePercent: number | null;
-  /** Why a band was not evaluated (measured spectra cover one angle and quantity). */
-  reason?: string;
-}
-
-export interface ReportSummary {
-  source: 'designed' | 'measured';
-  pass: boolean | null;
-  worstMargin: number | null;
-  bands: ReportBandRow[];
-  colour: { L: number; a: number; b: number; Rv: number } | null;
-}
-
-/** A spec-compliance report as the API returns it (the PDF is fetched on its own). */
-export interface ReportView {
-  id: number;
-  designId: number;
-  versionNumber: number;
-  specMaskId: number;
-  hideLayers: boolean;
-  runId: number | null;
-  spectrumId: number | null;
-  summary: ReportSummary;
-  createdBy: string;
-  createdAt: string;
-}
+export type { ReportBandRow, ReportSummary, ReportView } from '@quietglass/shared';
 
 export interface ReportFilter {
   /** Only reports of this design; every report when omitted. */

@@ -1,22 +1,8 @@
 import { queryOptions, useQuery } from '@tanstack/react-query';
+import type { RunDetailView } from '@quietglass/shared';
 import { apiClient } from '../../../lib/api-client';
-import type { RunView } from './get-runs';
 
-/** A measured spectrum of a run (the file itself is downloaded separately). */
-export interface RunSpectrumView {
-  id: number;
-  runId: number;
-  quantity: 'R' | 'T';
-  angleDeg: number;
-  sample: 'witness' | 'part';
-  filename: string;
-  wavelengthsNm: number[];
-  valuesPercent: number[];
-  uploadedBy: string;
-  uploadedAt: string;
-}
-
-export type RunDetailView = RunView & { spectra: RunSpectrumView[] };
+export type { RunDetailView, RunSpectrumView } from '@quietglass/shared';
 
 export function getRun(id: number, signal?: AbortSignal): Promise<RunDetailView> {
   return apiClient.get<RunDetailView>(`/runs/${id}`, signal);

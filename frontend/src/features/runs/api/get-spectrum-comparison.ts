@@ -1,17 +1,8 @@
 import { queryOptions, useQuery } from '@tanstack/react-query';
-import type { LimitBand, MeasuredMaskResult } from '@quietglass/shared';
+import type { SpectrumComparisonView } from '@quietglass/shared';
 import { apiClient, apiUrl } from '../../../lib/api-client';
 
-/** Measured vs the released design (same angle, unpolarised) vs the design's spec mask. */
-export interface SpectrumComparisonView {
-  spectrumId: number;
-  quantity: 'R' | 'T';
-  angleDeg: number;
-  measured: { wavelengthsNm: number[]; valuesPercent: number[] };
-  design: { wavelengthsNm: number[]; valuesPercent: number[] };
-  /** Null when the design has no spec mask; `limits` are the mask's bands, `bands` their results. */
-  mask: (MeasuredMaskResult & { name: string; revision: string; limits: LimitBand[] }) | null;
-}
+export type { SpectrumComparisonView } from '@quietglass/shared';
 
 export function getSpectrumComparison(
   runId: number,

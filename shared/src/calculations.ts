@@ -1,0 +1,70 @@
+/*
+ * Jobs of the compute queue and their results as the API and the client exchange them.
+ */
+import type { AnalysisSummary } from './analysis.js';
+import type { FitResult } from './optimise/fit.js';
+
+export const CALCULATION_STATUSES = ['queued', 'running', 'completed', 'failed', 'cancelled'] as const;
+export type CalculationStatus = (typeof CALCULATION_STATUSES)[number];
+
+/** What a job of the compute queue does: a full analysis, or one of the optimisations. */
+export const CALCULATION_KINDS = ['analysis', 'fit', 'grow', 'yield', 'diagnosis'] as const;
+export type CalculationKind = (typeof CALCULATION_KINDS)[number];
+
+/** Streamed while an optimisation runs: merit per iteration (fit, diagnosis) or per layer count (grow). */
+export interface LiveProgress {
+  history: { iteration?: number; layerCount?: number; merit: number }[];
+}
+
+/** A job of the compute queue and, once done, the summary of its result. */
+export interface CalculationView {
+  id: number;
+  kind: CalculationKind;
+  status: CalculationStatus;
+  /** 0 to 1. */
+  progress: number;
+  error: string | null;
+  designId: number | null;
+  versionNumber: number | null;
+  /** An analysis's grid (AnalysisRequest), or an optimisation's options. */
+  request: unknown;
+  /** An analysis's AnalysisSummary, or an optimisation's result (FitResult, GrowResult, YieldForecast, diagnosis). */
+  summary: AnalysisSummary | Record<string, unknown> | null;
+  /** Merit history streamed while an optimisation runs. */
+  live: LiveProgress | null;
+  /** The chamber run a diagnosis belongs to. */
+  runId: number | null;
+  /** Display name of who asked for it. */
+  createdBy: string;
+  createdAt: string;
+  startedAt: string | null;
+  finishedAt: string | null;
+  computeMs: number | null;
+  processedBy: string | null;
+  attempts: number;
+}
+
+/** One design layer as Run diagnosis found it. */
+export interface LayerDeviation {
+  /** Design layer, 1 = outermost (incident side). */
+  layer: number;
+  materialId: number;
+  designNm: number;
+  fittedNm: number;
+  /** fitted ÷ design. */
+  factor: number;
+  deviationPercent: number;
+}
+
+/** What a client reads of a completed Run diagnosis. */
+export interface DiagnosisSummary {
+  /** Ranked by |deviation|, largest first. */
+  layers: LayerDeviation[];
+  /** RMS difference between measured and fitted spectrum, percentage points. */
+  residualRmsPercent: number;
+}
+
+/** The result of a Run diagnosis, stored as the calculation's summary. */
+export interface DiagnosisResult extends DiagnosisSummary {
+  fit: FitResult;
+}

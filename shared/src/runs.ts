@@ -1,0 +1,77 @@
+/*
+ * Chamber runs, their measured spectra and the comparison of a spectrum with its design, as the API
+ * and the client exchange them.
+ */
+import type { MeasuredMaskResult } from './measured.js';
+import type { LimitBand } from './optics/mask.js';
+
+export type DurabilityTest = 'adhesion' | 'abrasion' | 'humidity' | 'other';
+
+/** What the monitor showed for one deposition step. */
+export interface LayerReading {
+  /** Deposition step (1 = next to the substrate), as on the run sheet. */
+  step: number;
+  /** What the monitor or crystal showed at the end of the layer, nm. */
+  monitorThicknessNm?: number;
+  rateNmPerS?: number;
+  notes?: string;
+}
+
+/** One durability test of the run's witness or part, with the procedure followed. */
+export interface DurabilityResult {
+  test: DurabilityTest;
+  /** The procedure followed, e.g. "ISO 9211-4, tape adhesion". */
+  method: string;
+  result: 'pass' | 'fail';
+  notes?: string;
+}
+
+/** A chamber run of a released recipe. */
+export interface RunView {
+  id: number;
+  designId: number;
+  versionNumber: number;
+  chamberId: number;
+  lotNumber: string;
+  /** YYYY-MM-DD. */
+  runDate: string;
+  operator: { id: number; displayName: string };
+  layerReadings: LayerReading[];
+  durability: DurabilityResult[];
+  notes: string;
+  createdAt: string;
+  updatedAt: string;
+}
+
+/** A measured spectrum of a run (the file itself is downloaded separately). */
+export interface RunSpectrumView {
+  id: number;
+  runId: number;
+  quantity: 'R' | 'T';
+  angleDeg: number;
+  sample: 'witness' | 'part';
+  filename: string;
+  wavelengthsNm: number[];
+  valuesPercent: number[];
+  /** Display name of who uploaded it. */
+  uploadedBy: string;
+  uploadedAt: string;
+}
+
+/** A run with its measured spectra. */
+export type RunDetailView = RunView & { spectra: RunSpectrumView[] };
+
+/** Measured vs the released design (same angle, unpolarised) vs the design's spec mask. */
+export interface SpectrumComparisonView {
+  spectrumId: number;
+  quantity: 'R' | 'T';
+  angleDeg: number;
+  measured: { wavelengthsNm: number[]; valuesPercent: number[] };
+  /** The released design at the same angle, unpolarised, with the thick substrate as the design treats it. */
+  design: { wavelengthsNm: number[]; valuesPercent: number[] };
+  /**
+   * Null when the design has no spec mask; `limits` are the mask's own bands, so a client can draw
+   * them (operators cannot read spec masks), `bands` their results.
+   */
+  mask: (MeasuredMaskResult & { name: string; revision: string; limits: LimitBand[] }) | null;
+}
