@@ -6,7 +6,7 @@ import { RecipesGrid } from '../components/recipes-grid';
 
 // Answers: GET /recipes as in backend/test/approvals.e2e-spec.ts (released versions only). Invented data.
 describe('RecipesGrid', () => {
-  it('lists released recipes with customer and version, each opening its run sheet', async () => {
+  it('lists released recipes with customer, version and who released them, each opening its run sheet', async () => {
     mockApi({
       'GET /api/recipes': {
         status: 200,
@@ -17,6 +17,7 @@ describe('RecipesGrid', () => {
             name: 'Window 532 AR',
             customer: 'Orrin Medical Imaging',
             releasedAt: '2026-12-01T10:00:00.000Z',
+            releasedBy: 'Tomas Reyes',
           },
         ],
       },
@@ -29,6 +30,7 @@ describe('RecipesGrid', () => {
       .getAllByRole('gridcell')
       .map((c) => c.textContent);
     expect(cells.slice(1, 3)).toEqual(['2', 'Orrin Medical Imaging']);
+    expect(cells[4]).toBe('Tomas Reyes');
     expect(
       within(row).getByRole('link', { name: 'Run sheet of Window 532 AR version 2' }).getAttribute('href'),
     ).toBe('/recipes/30/2');

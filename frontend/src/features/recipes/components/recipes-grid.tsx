@@ -30,6 +30,12 @@ const columns: GridColDef<RecipeSummaryView>[] = [
     valueFormatter: (value: string) => formatDateTime(value),
   },
   {
+    field: 'releasedBy',
+    headerName: 'Released by',
+    width: 170,
+    valueFormatter: (value: string | null) => value ?? '—',
+  },
+  {
     field: 'runSheet',
     headerName: 'Run sheet',
     width: 150,
