@@ -70,6 +70,7 @@ export function RunsGrid({ recipes, chambers }: RunsGridProps) {
       loading={runs.isPending}
       autoHeight
       disableRowSelectionOnClick
+      localeText={{ noRowsLabel: 'No runs yet: start one from a released recipe' }}
     />
   );
 }
