@@ -4,7 +4,7 @@ import Typography from '@mui/material/Typography';
 import type { DesignVersionContent, LimitBand, NamedModel } from '@quietglass/shared';
 import { useEffect, useMemo, useState } from 'react';
 import { Plot, PLOT_COLOURS, type PlotData, type PlotLayout } from '../../../components/plot';
-import { maskPlotLayout } from './mask-layout';
+import { maskPlotLayout } from '../../../components/mask-plot-layout';
 import type { PreviewResult } from '../../../lib/preview/compute-preview';
 import { usePreviewComputer } from '../../../lib/preview/preview-context';
 import {

@@ -7,7 +7,7 @@ import TableRow from '@mui/material/TableRow';
 import Typography from '@mui/material/Typography';
 import type { LimitBand, YieldEnvelope, YieldForecast } from '@quietglass/shared';
 import { Plot, PLOT_COLOURS, type PlotData, type PlotLayout } from '../../../components/plot';
-import { maskPlotLayout } from './mask-layout';
+import { maskPlotLayout } from '../../../components/mask-plot-layout';
 import { binCentres, signed } from '../results';
 
 /** The nominal curve and each percentile of one envelope, over the mask's forbidden regions. */

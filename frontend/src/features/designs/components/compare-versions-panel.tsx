@@ -13,7 +13,6 @@ import { useQueries, useQuery } from '@tanstack/react-query';
 import { useEffect, useMemo, useState } from 'react';
 import { Plot, type PlotData } from '../../../components/plot';
 import { parseNumberInput } from '../../../lib/format';
-import { forbiddenRegions } from '../../../lib/mask-regions';
 import { getDesignVersionQueryOptions } from '../api/get-design-version';
 import { getDesignsQueryOptions } from '../api/get-designs';
 import type { LibraryMaterial } from '../layers';
@@ -21,6 +20,7 @@ import type { PreviewRequest, PreviewResult } from '../../../lib/preview/compute
 import { usePreviewComputer } from '../../../lib/preview/preview-context';
 import { DEFAULT_PREVIEW_OPTIONS, previewRequestFor } from '../../../lib/preview/preview-request';
 import { PREVIEW_DEBOUNCE_MS } from '../preview/use-preview';
+import { maskPlotLayout } from '../../../components/mask-plot-layout';
 
 /** Most curves on the compare plot. */
 export const MAX_COMPARED = 4;
@@ -287,25 +287,7 @@ export function CompareVersionsPanel({
         <Plot
           title="Compared spectra"
           data={data}
-          layout={{
-            xaxis: { title: { text: 'Wavelength (nm)' } },
-            yaxis: { title: { text: 'R (%)' }, range: [0, Math.min(100, top)] },
-            shapes: forbiddenRegions(
-              (maskBands ?? []).filter((b) => b.quantity === 'R'),
-              100,
-            ).map((region) => ({
-              type: 'rect',
-              xref: 'x',
-              yref: 'y',
-              x0: region.fromNm,
-              x1: region.toNm,
-              y0: region.lowPercent,
-              y1: Math.min(region.highPercent, top),
-              fillcolor: 'rgba(179, 53, 59, 0.12)',
-              line: { width: 0 },
-              layer: 'below',
-            })),
-          }}
+          layout={maskPlotLayout(maskBands ?? [], 'R', Math.min(100, top))}
         />
       )}
     </Paper>

@@ -17,7 +17,6 @@ import {
 import { useMemo, useState } from 'react';
 import { Plot, type PlotData, type PlotLayout } from '../../../components/plot';
 import { parseNumberInput, parseNumberList } from '../../../lib/format';
-import { forbiddenRegions } from '../../../lib/mask-regions';
 import { swatchHex } from '../../../lib/srgb';
 import type { PreviewResult } from '../../../lib/preview/compute-preview';
 import { usePreviewComputer } from '../../../lib/preview/preview-context';
@@ -28,6 +27,7 @@ import {
 } from '../../../lib/preview/preview-request';
 import { usePreview } from '../preview/use-preview';
 import { MaskBadge } from './mask-badge';
+import { maskShapes } from '../../../components/mask-plot-layout';
 
 const POLARISATION_LABELS: Record<Polarisation, string> = { s: 's', p: 'p', avg: 'Average (unpolarised)' };
 const MAX_PREVIEW_ANGLES = 6;
@@ -103,19 +103,7 @@ export function previewFigure(
   const layout: PlotLayout = {
     xaxis: { title: { text: 'Wavelength (nm)' } },
     yaxis: { title: { text: 'R (%)' }, range: [0, topR] },
-    shapes: forbiddenRegions(bands, 100).map((region) => ({
-      type: 'rect',
-      xref: 'x',
-      yref: region.quantity === 'R' ? 'y' : 'y2',
-      x0: region.fromNm,
-      x1: region.toNm,
-      y0: region.lowPercent,
-      y1: region.quantity === 'R' ? Math.min(region.highPercent, topR) : region.highPercent,
-      fillcolor: 'rgba(179, 53, 59, 0.16)',
-      line: { width: 0 },
-      layer: 'below',
-      name: region.label,
-    })),
+    shapes: maskShapes(bands, { topR, topT: 100, tAxis: 'y2' }),
   };
   if (withT) layout.yaxis2 = { title: { text: 'T (%)' }, overlaying: 'y', side: 'right', range: [0, 100] };
   return { data, layout };

@@ -9,7 +9,6 @@ import { useMemo } from 'react';
 import { ErrorAlert } from '../../../components/error-alert';
 import { LoadingBlock } from '../../../components/loading-block';
 import { Plot, type PlotData, type PlotLayout } from '../../../components/plot';
-import { forbiddenRegions } from '../../../lib/mask-regions';
 import type { RunSpectrumView } from '../api/get-run';
 import {
   originalSpectrumUrl,
@@ -17,6 +16,7 @@ import {
   type SpectrumComparisonView,
 } from '../api/get-spectrum-comparison';
 import { signedMargin } from '../run-labels';
+import { maskPlotLayout } from '../../../components/mask-plot-layout';
 
 /** Traces and layout: measured and design curves, with the mask's forbidden regions shaded. */
 export function comparisonFigure(c: SpectrumComparisonView): { data: PlotData[]; layout: PlotLayout } {
@@ -45,23 +45,7 @@ export function comparisonFigure(c: SpectrumComparisonView): { data: PlotData[];
       line: { dash: 'dash' },
     },
   ];
-  const layout: PlotLayout = {
-    xaxis: { title: { text: 'Wavelength (nm)' } },
-    yaxis: { title: { text: `${q} (%)` }, range: [0, top] },
-    shapes: forbiddenRegions(limits, top).map((region) => ({
-      type: 'rect',
-      xref: 'x',
-      yref: 'y',
-      x0: region.fromNm,
-      x1: region.toNm,
-      y0: region.lowPercent,
-      y1: Math.min(region.highPercent, top),
-      fillcolor: 'rgba(179, 53, 59, 0.16)',
-      line: { width: 0 },
-      layer: 'below',
-      name: region.label,
-    })),
-  };
+  const layout = maskPlotLayout(limits, q, top);
   return { data, layout };
 }
 
