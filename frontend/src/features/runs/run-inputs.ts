@@ -1,4 +1,4 @@
-import type { DesignVersionView } from '@quietglass/shared';
+import type { ChamberView, RecipeSummaryView } from '@quietglass/shared';
 
 /*
  * What the run pages need of released recipes and chambers. The page loads them with the recipes'
@@ -6,19 +6,10 @@ import type { DesignVersionView } from '@quietglass/shared';
  */
 
 /** A released recipe as the run dialog offers it: a design version cleared for the chamber. */
-export interface ReleasedRecipeView {
-  designId: number;
-  number: number;
-  name: string;
-  customer: string;
-  releasedAt: string;
-}
+export type ReleasedRecipeView = RecipeSummaryView;
 
 /** A released recipe's content: its layers (incident side first) and the frozen material models. */
-export type RecipeView = DesignVersionView & { name: string };
+export type { RecipeView } from '@quietglass/shared';
 
 /** A coating chamber, as much of it as a run needs. */
-export interface RunChamberView {
-  id: number;
-  name: string;
-}
+export type RunChamberView = Pick<ChamberView, 'id' | 'name'>;

@@ -15,6 +15,7 @@ export const RECIPES: ReleasedRecipeView[] = [
     name: 'Lens AR trial',
     customer: 'Fenwick Optics Lab',
     releasedAt: '2026-12-01T09:00:00.000Z',
+    releasedBy: 'Ines Review',
   },
   {
     designId: 15,
@@ -22,6 +23,7 @@ export const RECIPES: ReleasedRecipeView[] = [
     name: 'Window AR 532',
     customer: 'Orrin Imaging',
     releasedAt: '2026-11-30T09:00:00.000Z',
+    releasedBy: 'Ines Review',
   },
 ];
 
