@@ -29,6 +29,7 @@ export const NAV_SECTIONS = [
   { key: 'reports', label: 'Compliance reports', path: '/reports', roles: ['admin', 'engineer', 'sales'] },
   { key: 'quotes', label: 'Quotes', path: '/quotes', roles: ['admin', 'engineer', 'sales'] },
   { key: 'outbox', label: 'Outbox', path: '/admin/outbox', roles: ['admin'] },
+  { key: 'audit', label: 'Audit trail', path: '/admin/audit', roles: ['admin'] },
   { key: 'users', label: 'Users', path: '/admin/users', roles: ['admin'] },
 ] as const satisfies readonly { key: string; label: string; path: string; roles: readonly Role[] }[];
 

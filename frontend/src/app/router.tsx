@@ -48,6 +48,7 @@ const SECTION_PAGES: Record<NavSection['key'], { path?: string; load: PageLoader
     { path: ':id', load: async () => (await import('./routes/quote-route')).QuoteRoute },
   ],
   outbox: [{ load: async () => (await import('./routes/outbox-route')).OutboxRoute }],
+  audit: [{ load: async () => (await import('./routes/audit-route')).AuditRoute }],
 };
 
 function sectionPage(section: NavSection): RouteObject {

@@ -12,5 +12,6 @@ export const SECTION_SUMMARIES: Readonly<Record<NavSection['key'], string>> = {
   reports: 'Spec-compliance PDFs for customers.',
   quotes: 'Prices and lead times offered to customers.',
   outbox: 'E-mail sent by Quietglass, with its attachments.',
+  audit: 'Who submitted, approved, released and retired which version.',
   users: 'Accounts, roles and passwords.',
 };

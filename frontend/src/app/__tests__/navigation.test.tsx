@@ -20,6 +20,7 @@ const EXPECTED_LINKS: Record<Role, [name: string, href: string][]> = {
     ['Compliance reports', '/reports'],
     ['Quotes', '/quotes'],
     ['Outbox', '/admin/outbox'],
+    ['Audit trail', '/admin/audit'],
     ['Users', '/admin/users'],
   ],
   engineer: [
@@ -111,6 +112,7 @@ describe('side navigation', () => {
     ['/reports', 'Compliance reports'],
     ['/quotes', 'Quotes'],
     ['/admin/outbox', 'Outbox'],
+    ['/admin/audit', 'Audit trail'],
     ['/admin/users', 'Users'],
   ])('opens the %s page with its title', async (path, title) => {
     const api = mockApi({
@@ -126,6 +128,7 @@ describe('side navigation', () => {
       'GET /api/reports': { status: 200, body: [] },
       'GET /api/quotes': { status: 200, body: [] },
       'GET /api/outbox': { status: 200, body: [] },
+      'GET /api/audit': { status: 200, body: [] },
       'GET /api/users': { status: 200, body: [] },
     });
     renderApp(path);

@@ -1,6 +1,7 @@
 import AssignmentTurnedInOutlined from '@mui/icons-material/AssignmentTurnedInOutlined';
 import DescriptionOutlined from '@mui/icons-material/DescriptionOutlined';
 import FactoryOutlined from '@mui/icons-material/FactoryOutlined';
+import HistoryOutlined from '@mui/icons-material/HistoryOutlined';
 import HomeOutlined from '@mui/icons-material/HomeOutlined';
 import LayersOutlined from '@mui/icons-material/LayersOutlined';
 import OutboxOutlined from '@mui/icons-material/OutboxOutlined';
@@ -26,5 +27,6 @@ export const SECTION_ICONS: Readonly<Record<NavSection['key'], SvgIconComponent>
   reports: DescriptionOutlined,
   quotes: RequestQuoteOutlined,
   outbox: OutboxOutlined,
+  audit: HistoryOutlined,
   users: PeopleOutlined,
 };
