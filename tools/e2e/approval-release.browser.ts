@@ -1,7 +1,13 @@
 import type { Browser, BrowserContext, Page } from 'playwright-core';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { baseUrl, launchBrowser, type DemoSignIn } from './browser.js';
-import { FOUR_LAYER_AR, browserSession, createDesignInBrowser, demoUser } from './demo-shop.js';
+import {
+  FOUR_LAYER_AR,
+  browserSession,
+  createDesignInBrowser,
+  demoUser,
+  startRunInDialog,
+} from './demo-shop.js';
 
 /*
  * Four-eyes approval to the chamber floor. Mira Castell (engineer) designs the demo's four-layer AR
@@ -55,7 +61,7 @@ function statusChip(page: Page) {
 }
 
 describe('approval and release', () => {
-  it('the author submits, cannot approve; a second engineer approves and releases; the operator prints the run sheet', async () => {
+  it('the author submits, cannot approve; a second engineer approves and releases; the operator prints the run sheet and starts a run', async () => {
     // Engineer A writes and submits version 1.
     const mira = await session(demoUser('mira.castell'));
     let page = mira.page;
@@ -168,6 +174,17 @@ describe('approval and release', () => {
     expect(pdf.status).toBe(200);
     expect(pdf.type).toBe('application/pdf');
     expect(pdf.head).toBe('%PDF-');
+
+    // From the sheet to the chamber: the run dialog opens with this recipe chosen.
+    await page.getByRole('link', { name: 'Start a run' }).click();
+    await page.waitForURL(/\/runs\?recipe=/);
+    const recipeField = page.getByRole('dialog', { name: 'Start a run' }).getByLabel('Released recipe');
+    await expect
+      .poll(async () => recipeField.locator('option:checked').innerText())
+      .toBe(`${name} v1 (Halden Vision Systems)`);
+    const lot = `L-REL-${Date.now() % 100000}`;
+    await startRunInDialog(page, null, lot);
+    expect(await page.getByRole('region', { name: 'Layer readings' }).getByRole('row').count()).toBe(5);
     expect(jonah.pageErrors).toEqual([]);
   });
 });

@@ -11,7 +11,7 @@ import {
 import type { Browser, Page } from 'playwright-core';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { baseUrl, launchBrowser } from './browser.js';
-import { FOUR_LAYER_AR, browserSession, demoUser, prepareDesign } from './demo-shop.js';
+import { FOUR_LAYER_AR, browserSession, demoUser, prepareDesign, startRunInDialog } from './demo-shop.js';
 
 /*
  * A chamber run of a released recipe, end to end. The engineer Mira Castell designs a four-layer AR
@@ -78,18 +78,12 @@ describe('chamber run', () => {
     await page.locator('nav[aria-label="Main"]').getByRole('link', { name: 'Chamber runs' }).click();
     await page.getByRole('heading', { level: 1, name: 'Chamber runs' }).waitFor();
     await page.getByRole('button', { name: 'Start a run' }).click();
-    const dialog = page.getByRole('dialog', { name: 'Start a run' });
-    await dialog
-      .getByLabel('Released recipe')
-      .selectOption({ label: `${recipe.name} v1 (Halden Vision Systems)` });
-    await dialog.getByLabel('Chamber').selectOption({ label: 'Box coater B2' });
     const lot = `L-E2E-${Date.now() % 100000}`;
-    await dialog.getByLabel('Lot number').fill(lot);
-    expect(await dialog.getByLabel('Operator').inputValue()).toBe('Jonah Pike');
-    await dialog.getByRole('button', { name: 'Start run' }).click();
-    await page.waitForURL(/\/runs\/\d+$/);
+    expect(await page.getByRole('dialog', { name: 'Start a run' }).getByLabel('Operator').inputValue()).toBe(
+      'Jonah Pike',
+    );
+    await startRunInDialog(page, `${recipe.name} v1 (Halden Vision Systems)`, lot);
     const runUrl = page.url();
-    await page.getByRole('heading', { level: 1, name: `Run ${lot}` }).waitFor();
 
     // Step 1 is the SiO2 layer next to the glass; the monitor read 75.9 nm.
     const readings = region(page, 'Layer readings');

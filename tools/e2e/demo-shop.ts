@@ -180,3 +180,18 @@ export async function prepareDesign(
     await reviewer.dispose();
   }
 }
+
+/**
+ * In the open "Start a run" dialog: picks the recipe (unless `recipeLabel` is null, when the page
+ * chose it already), the demo chamber "Box coater B2" and lot `lot`, starts the run and waits for
+ * the run page.
+ */
+export async function startRunInDialog(page: Page, recipeLabel: string | null, lot: string): Promise<void> {
+  const dialog = page.getByRole('dialog', { name: 'Start a run' });
+  if (recipeLabel !== null) await dialog.getByLabel('Released recipe').selectOption({ label: recipeLabel });
+  await dialog.getByLabel('Chamber').selectOption({ label: 'Box coater B2' });
+  await dialog.getByLabel('Lot number').fill(lot);
+  await dialog.getByRole('button', { name: 'Start run' }).click();
+  await page.waitForURL(/\/runs\/\d+$/);
+  await page.getByRole('heading', { level: 1, name: `Run ${lot}` }).waitFor();
+}
