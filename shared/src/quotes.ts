@@ -20,10 +20,9 @@ export interface QuoteEvent {
   detail?: string;
 }
 
-/** A quote as the API returns it. */
-export interface QuoteView {
-  id: number;
-  customer: { id: number; name: string };
+/** What sales write on a quote: the body of a new quote or an edit (QuoteDto). */
+export interface QuoteInput {
+  customerId: number;
   contactEmail: string;
   designId: number;
   versionNumber: number;
@@ -35,6 +34,12 @@ export interface QuoteView {
   /** YYYY-MM-DD. */
   validUntil: string;
   terms: string;
+}
+
+/** A quote as the API returns it. */
+export interface QuoteView extends Omit<QuoteInput, 'customerId'> {
+  id: number;
+  customer: { id: number; name: string };
   status: QuoteStatus;
   reportIds: number[];
   history: QuoteEvent[];

@@ -1,22 +1,10 @@
 import { useMutation, useQueryClient } from '@tanstack/react-query';
+import type { QuoteInput } from '@quietglass/shared';
 import { apiClient } from '../../../lib/api-client';
-import type { QuantityBreak, QuoteView } from './get-quotes';
+import type { QuoteView } from './get-quotes';
 import { quoteChanged } from './quote-changed';
 
-/** QuoteDto. */
-export interface QuoteInput {
-  customerId: number;
-  contactEmail: string;
-  designId: number;
-  versionNumber: number;
-  specMaskId: number;
-  partDescription: string;
-  quantityBreaks: QuantityBreak[];
-  currency: string;
-  leadTimeDays: number;
-  validUntil: string;
-  terms: string;
-}
+export type { QuoteInput } from '@quietglass/shared';
 
 export function createQuote(input: QuoteInput): Promise<QuoteView> {
   return apiClient.post<QuoteView>('/quotes', input);
