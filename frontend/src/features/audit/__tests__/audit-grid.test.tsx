@@ -57,6 +57,9 @@ describe('AuditGrid', () => {
     expect(cells(2).slice(3)).toEqual(['draft → submitted', 'Mira Castell', '—']);
     const link = within(grid).getAllByRole('link', { name: 'Window 532 AR' })[0];
     expect(link.getAttribute('href')).toBe('/designs/30?version=2');
+    // No filter: the two choosers say so rather than showing blank.
+    expect(screen.getByRole('combobox', { name: 'Design' }).textContent).toBe('All designs');
+    expect(screen.getByRole('combobox', { name: 'Who' }).textContent).toBe('Everyone');
   });
 
   it('asks the API for one design and one person, and reports filter changes', async () => {

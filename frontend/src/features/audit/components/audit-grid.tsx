@@ -81,6 +81,7 @@ export function AuditGrid({ filter, onFilterChange, designs, people }: AuditGrid
               designId: e.target.value === '' ? undefined : Number(e.target.value),
             })
           }
+          slotProps={{ select: { displayEmpty: true }, inputLabel: { shrink: true } }}
           sx={{ minWidth: 260 }}
         >
           <MenuItem value="">All designs</MenuItem>
@@ -98,6 +99,7 @@ export function AuditGrid({ filter, onFilterChange, designs, people }: AuditGrid
           onChange={(e) =>
             onFilterChange({ ...filter, actorId: e.target.value === '' ? undefined : Number(e.target.value) })
           }
+          slotProps={{ select: { displayEmpty: true }, inputLabel: { shrink: true } }}
           sx={{ minWidth: 220 }}
         >
           <MenuItem value="">Everyone</MenuItem>
