@@ -68,3 +68,20 @@ export interface DiagnosisSummary {
 export interface DiagnosisResult extends DiagnosisSummary {
   fit: FitResult;
 }
+
+/**
+ * Library material id of a layer of a Grow layers result. The engine names a layer after its
+ * allowed material; a start layer whose material was not allowed keeps the name `layers[i]` (its
+ * place in the start stack) and so maps back to the material of start layer i. Undefined when
+ * neither applies.
+ */
+export function grownLayerMaterialId(
+  name: string,
+  startMaterialIds: readonly number[],
+  idsByName: ReadonlyMap<string, number>,
+): number | undefined {
+  const id = idsByName.get(name);
+  if (id !== undefined) return id;
+  const start = /^layers\[(\d+)\]$/.exec(name);
+  return start ? startMaterialIds[Number(start[1])] : undefined;
+}

@@ -1,6 +1,7 @@
 import { describe, expect, it } from 'vitest';
 import type { GrowResult } from '@quietglass/shared/optimise/needle';
-import { grownLayerMaterialId, runOptimiseJob, type GrowInput } from './optimise-jobs.js';
+import { grownLayerMaterialId } from '@quietglass/shared/calculations';
+import { runOptimiseJob, type GrowInput } from './optimise-jobs.js';
 
 /*
  * Constant-index materials (MgF2 1.38, SiO2 1.46, TiO2 2.35, glass 1.52: typical values near 550 nm,
@@ -41,7 +42,7 @@ describe('grownLayerMaterialId', () => {
       ['TiO2', IDS.TiO2],
       ['MgF2', IDS.MgF2],
     ]);
-    const ids = names.map((name) => grownLayerMaterialId(name, INPUT, byName));
+    const ids = names.map((name) => grownLayerMaterialId(name, INPUT.layerMaterialIds, byName));
     expect(ids.every((id) => id !== undefined)).toBe(true);
     names.forEach((name, i) => {
       if (name === 'layers[0]') expect(ids[i]).toBe(IDS.MgF2);
@@ -51,9 +52,9 @@ describe('grownLayerMaterialId', () => {
 
   it('prefers the name and leaves an unknown name unresolved', () => {
     const byName = new Map([['TiO2', 7]]);
-    expect(grownLayerMaterialId('TiO2', { layerMaterialIds: [4] }, byName)).toBe(7);
-    expect(grownLayerMaterialId('layers[0]', { layerMaterialIds: [4] }, byName)).toBe(4);
-    expect(grownLayerMaterialId('layers[3]', { layerMaterialIds: [4] }, byName)).toBeUndefined();
-    expect(grownLayerMaterialId('ZrO2', { layerMaterialIds: [4] }, byName)).toBeUndefined();
+    expect(grownLayerMaterialId('TiO2', [4], byName)).toBe(7);
+    expect(grownLayerMaterialId('layers[0]', [4], byName)).toBe(4);
+    expect(grownLayerMaterialId('layers[3]', [4], byName)).toBeUndefined();
+    expect(grownLayerMaterialId('ZrO2', [4], byName)).toBeUndefined();
   });
 });

@@ -54,22 +54,6 @@ export type ProgressMessage = {
   layerCount?: number;
 };
 
-/**
- * Library material id of a layer of a Grow layers result. The engine names a layer after its
- * allowed material; a start layer whose material was not allowed keeps the name `layers[i]` (its
- * place in the start stack) and so maps back to the version's material of that layer.
- */
-export function grownLayerMaterialId(
-  name: string,
-  input: Pick<GrowInput, 'layerMaterialIds'>,
-  idsByName: ReadonlyMap<string, number>,
-): number | undefined {
-  const id = idsByName.get(name);
-  if (id !== undefined) return id;
-  const start = /^layers\[(\d+)\]$/.exec(name);
-  return start ? input.layerMaterialIds[Number(start[1])] : undefined;
-}
-
 /** Runs a fit, grow or diagnosis (yield uses its own thread pool). `report` may return false to stop. */
 export function runOptimiseJob(
   input: FitInput | GrowInput | DiagnosisInput,

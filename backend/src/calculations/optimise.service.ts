@@ -1,6 +1,7 @@
 import { BadRequestException, ConflictException, Injectable } from '@nestjs/common';
 import { InjectDataSource } from '@nestjs/typeorm';
 import { DataSource, In } from 'typeorm';
+import { grownLayerMaterialId } from '@quietglass/shared/calculations';
 import type { DesignVersionView } from '@quietglass/shared/designs';
 import { designStackDescription, engineBackSurface } from '@quietglass/shared/designs';
 import { validateSpecMask, type LimitBand } from '@quietglass/shared/optics/mask';
@@ -15,13 +16,7 @@ import type { User } from '../users/user.entity.js';
 import { Calculation } from './calculation.entity.js';
 import { CalculationsService } from './calculations.service.js';
 import type { DiagnosisDto, FitDto, GrowDto, YieldDto } from './dto/optimise.dto.js';
-import {
-  grownLayerMaterialId,
-  type DiagnosisInput,
-  type FitInput,
-  type GrowInput,
-  type YieldInput,
-} from './optimise-jobs.js';
+import { type DiagnosisInput, type FitInput, type GrowInput, type YieldInput } from './optimise-jobs.js';
 
 /** Builds the inputs of Fit to mask, Grow layers, Yield forecast and Run diagnosis, and accepts results. */
 @Injectable()
@@ -179,7 +174,7 @@ export class OptimiseService {
       const names = await this.materialNames(input.layerMaterialIds);
       names.forEach((id, name) => ids.set(name, id));
       layers = chosen.layers.map((l) => {
-        const id = grownLayerMaterialId(String(l.material), input, ids);
+        const id = grownLayerMaterialId(String(l.material), input.layerMaterialIds, ids);
         if (id === undefined)
           throw new BadRequestException({
             message: [`material ${String(l.material)} is not in the library`],

@@ -2,8 +2,15 @@
  * How the panel reads the summaries of Fit to mask, Grow layers and Yield forecast (the engine's
  * FitResult, GrowResult and YieldForecast, stored as JSON) and turns them into table rows.
  */
-import type { DesignLayer, FitResult, GrowResult, GrowStep, YieldForecast } from '@quietglass/shared';
-import type { CalculationView } from '../calculations/api/get-calculation';
+import {
+  grownLayerMaterialId,
+  type DesignLayer,
+  type FitResult,
+  type GrowResult,
+  type GrowStep,
+  type YieldForecast,
+} from '@quietglass/shared';
+import type { CalculationView } from './api/get-calculation';
 
 /** Merit (percentage points) once the calculation has some: per iteration or per layer count. */
 export interface MeritPoint {
@@ -96,9 +103,11 @@ export function grownLayers(
   idsByName: ReadonlyMap<string, number>,
 ): DesignLayer[] {
   return step.layers.map((layer) => {
-    let id = idsByName.get(layer.material);
-    const start = /^layers\[(\d+)\]$/.exec(layer.material);
-    if (id === undefined && start) id = startLayers[Number(start[1])]?.materialId;
+    const id = grownLayerMaterialId(
+      layer.material,
+      startLayers.map((l) => l.materialId),
+      idsByName,
+    );
     if (id === undefined) throw new Error(`material ${layer.material} is not in the library`);
     return { materialId: id, thicknessNm: layer.thicknessNm, locked: false, notes: '' };
   });
