@@ -1,7 +1,6 @@
 import Alert from '@mui/material/Alert';
 import Box from '@mui/material/Box';
 import Button from '@mui/material/Button';
-import LinearProgress from '@mui/material/LinearProgress';
 import Paper from '@mui/material/Paper';
 import Typography from '@mui/material/Typography';
 import { MAX_ANALYSIS_ANGLES, MAX_ANALYSIS_WAVELENGTHS, type AnalysisRequest } from '@quietglass/shared';
@@ -14,12 +13,12 @@ import { useCancelCalculation } from '../api/cancel-calculation';
 import {
   CALCULATION_POLL_MS,
   isAnalysis,
-  isLive,
   useCalculation,
   type CalculationView,
 } from '../api/get-calculation';
 import { useSubmitAnalysis } from '../api/submit-analysis';
 import { AnalysisResults } from './analysis-results';
+import { CalculationStatus } from './calculation-status';
 
 interface AnalysisValues {
   fromNm: string;
@@ -212,33 +211,13 @@ export function AnalysisPanel({
               An identical analysis was already on the queue; it is shown here instead of a new one.
             </Alert>
           )}
-          <Box sx={{ display: 'flex', alignItems: 'center', gap: 2, flexWrap: 'wrap' }}>
-            <Typography role="status" aria-label="Analysis status" variant="body1">
-              {statusText(calc)}
-            </Typography>
-            {isLive(calc.status) && canSubmit && (
-              <Button
-                variant="outlined"
-                color="warning"
-                size="small"
-                loading={cancel.isPending}
-                onClick={() => cancel.mutate(calc.id)}
-              >
-                Cancel
-              </Button>
-            )}
-          </Box>
-          {isLive(calc.status) && (
-            <LinearProgress
-              aria-label="Analysis progress"
-              variant={calc.status === 'queued' ? 'indeterminate' : 'determinate'}
-              value={Math.round(100 * calc.progress)}
-            />
-          )}
-          {calc.status === 'failed' && (
-            <Alert severity="error">{calc.error ?? 'The calculation failed.'}</Alert>
-          )}
-          {calc.status === 'cancelled' && <Alert severity="info">{calc.error ?? 'Cancelled.'}</Alert>}
+          <CalculationStatus
+            name="Analysis"
+            calculation={calc}
+            text={statusText(calc)}
+            onCancel={canSubmit ? () => cancel.mutate(calc.id) : undefined}
+            cancelling={cancel.isPending}
+          />
           {calc.status === 'completed' && isAnalysis(calc) && (
             <AnalysisResults key={calc.id} calculation={calc} />
           )}

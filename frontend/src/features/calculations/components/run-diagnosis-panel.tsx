@@ -1,8 +1,6 @@
-import Alert from '@mui/material/Alert';
 import Box from '@mui/material/Box';
 import Button from '@mui/material/Button';
 import Chip from '@mui/material/Chip';
-import LinearProgress from '@mui/material/LinearProgress';
 import Paper from '@mui/material/Paper';
 import Table from '@mui/material/Table';
 import TableBody from '@mui/material/TableBody';
@@ -15,8 +13,9 @@ import { useForm } from 'react-hook-form';
 import { ErrorAlert } from '../../../components/error-alert';
 import { FormTextField } from '../../../components/form-text-field';
 import { formatFixed, parseNumberInput } from '../../../lib/format';
-import { CALCULATION_POLL_MS, isLive, useCalculation, type CalculationView } from '../api/get-calculation';
+import { CALCULATION_POLL_MS, useCalculation, type CalculationView } from '../api/get-calculation';
 import { diagnosisSummaryOf, useStartDiagnosis, type DiagnosisSummary } from '../api/start-diagnosis';
+import { CalculationStatus } from './calculation-status';
 
 /**
  * A layer whose fitted thickness is off its design by at least this much is flagged as a likely
@@ -204,20 +203,12 @@ export function RunDiagnosisPanel({
       )}
       {calc && (
         <Box sx={{ display: 'grid', gap: 1.5 }}>
-          <Typography role="status" aria-label="Diagnosis status" variant="body1">
-            {statusText(calc)}
-          </Typography>
-          {isLive(calc.status) && (
-            <LinearProgress
-              aria-label="Diagnosis progress"
-              variant={calc.status === 'queued' ? 'indeterminate' : 'determinate'}
-              value={Math.round(100 * calc.progress)}
-            />
-          )}
-          {calc.status === 'failed' && (
-            <Alert severity="error">{calc.error ?? 'The diagnosis failed.'}</Alert>
-          )}
-          {calc.status === 'cancelled' && <Alert severity="info">{calc.error ?? 'Cancelled.'}</Alert>}
+          <CalculationStatus
+            name="Diagnosis"
+            calculation={calc}
+            text={statusText(calc)}
+            failedText="The diagnosis failed."
+          />
           {summary && (
             <DiagnosisTable summary={summary} layerCount={layerCount} materialName={materialName} />
           )}

@@ -1,7 +1,5 @@
 import Alert from '@mui/material/Alert';
 import Box from '@mui/material/Box';
-import Button from '@mui/material/Button';
-import LinearProgress from '@mui/material/LinearProgress';
 import Typography from '@mui/material/Typography';
 import { useMemo } from 'react';
 import { Plot } from '../../../components/plot';
@@ -9,6 +7,7 @@ import { ErrorAlert } from '../../../components/error-alert';
 import { useCancelCalculation } from '../api/cancel-calculation';
 import { isLive, type CalculationView } from '../api/get-calculation';
 import { liveMerit } from '../results';
+import { CalculationStatus } from './calculation-status';
 
 function statusText(name: string, c: CalculationView): string {
   switch (c.status) {
@@ -50,36 +49,14 @@ export function RunStatus({ name, calculation, meritAxis, reused }: RunStatusPro
           The same {name.toLowerCase()} with the same settings was already on the queue; it is shown here.
         </Alert>
       )}
-      <Box sx={{ display: 'flex', alignItems: 'center', gap: 2, flexWrap: 'wrap' }}>
-        <Typography role="status" aria-label={`${name} status`} variant="body1">
-          {statusText(name, calculation)}
-        </Typography>
-        {live && (
-          <Button
-            variant="outlined"
-            color="warning"
-            size="small"
-            loading={cancel.isPending}
-            onClick={() => cancel.mutate(calculation.id)}
-          >
-            Cancel
-          </Button>
-        )}
-      </Box>
-      {live && (
-        <LinearProgress
-          aria-label={`${name} progress`}
-          variant={calculation.status === 'queued' ? 'indeterminate' : 'determinate'}
-          value={Math.round(100 * calculation.progress)}
-        />
-      )}
+      <CalculationStatus
+        name={name}
+        calculation={calculation}
+        text={statusText(name, calculation)}
+        onCancel={() => cancel.mutate(calculation.id)}
+        cancelling={cancel.isPending}
+      />
       {cancel.error && <ErrorAlert error={cancel.error} title="The calculation was not cancelled" />}
-      {calculation.status === 'failed' && (
-        <Alert severity="error">{calculation.error ?? 'The calculation failed.'}</Alert>
-      )}
-      {calculation.status === 'cancelled' && (
-        <Alert severity="info">{calculation.error ?? 'Cancelled.'}</Alert>
-      )}
       {live && meritAxis && last && (
         <>
           <Typography variant="body2" aria-label="Latest merit">
