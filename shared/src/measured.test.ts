@@ -30,6 +30,7 @@ describe('measured spectrum against a mask', () => {
     expect(r.bands[1]).toMatchObject({ evaluated: false, reason: 'measured at 8°; the band asks for 45°' });
     expect(r.pass).toBe(false);
     expect(r.worstMargin).toBeCloseTo(-0.2, 12);
+    expect(r.worstBand).toBe(0);
   });
 
   it('passes only when every band was evaluated and met; otherwise says it cannot tell', () => {
@@ -44,5 +45,6 @@ describe('measured spectrum against a mask', () => {
     const t = evaluateMaskOnMeasured(mask, { ...low, quantity: 'T' });
     expect(t.bands[0].reason).toBe('the band limits R; T was measured');
     expect(t.pass).toBeNull();
+    expect(t.worstBand).toBeNull();
   });
 });

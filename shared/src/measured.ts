@@ -31,6 +31,8 @@ export interface MeasuredMaskResult {
   /** True when every band was evaluated and passed; false when one failed; null when none could be evaluated. */
   pass: boolean | null;
   worstMargin: number | null;
+  /** Index of the evaluated band with that worst margin (the first of equals); null when none was evaluated. */
+  worstBand: number | null;
   bands: MeasuredBandResult[];
 }
 
@@ -106,9 +108,17 @@ export function evaluateMaskOnMeasured(mask: SpecMask, measured: MeasuredSpectru
     return { ...base, evaluated: true, pass: worst >= 0, worstMargin: worst, worstAt: at };
   });
   const evaluated = bands.filter((b) => b.evaluated);
-  const worstMargin = evaluated.length ? Math.min(...evaluated.map((b) => b.worstMargin as number)) : null;
+  let worstBand: number | null = null;
+  bands.forEach((b, i) => {
+    if (
+      b.evaluated &&
+      (worstBand === null || (b.worstMargin as number) < (bands[worstBand].worstMargin as number))
+    )
+      worstBand = i;
+  });
+  const worstMargin = worstBand === null ? null : (bands[worstBand].worstMargin as number);
   let pass: boolean | null = null;
   if (evaluated.some((b) => !b.pass)) pass = false;
   else if (evaluated.length === bands.length) pass = true;
-  return { pass, worstMargin, bands };
+  return { pass, worstMargin, worstBand, bands };
 }

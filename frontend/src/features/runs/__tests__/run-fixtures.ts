@@ -122,6 +122,7 @@ export const COMPARISON: SpectrumComparisonView = {
     ],
     pass: false,
     worstMargin: -0.2,
+    worstBand: 0,
     bands: [
       {
         band: 0,

@@ -202,6 +202,7 @@ describe('Run page', () => {
         ...COMPARISON.mask!,
         pass: true,
         worstMargin: 0.1234,
+        worstBand: 0,
         bands: [
           {
             band: 0,

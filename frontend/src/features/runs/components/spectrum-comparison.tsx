@@ -4,7 +4,6 @@ import Chip from '@mui/material/Chip';
 import Link from '@mui/material/Link';
 import Paper from '@mui/material/Paper';
 import Typography from '@mui/material/Typography';
-import type { MeasuredBandResult } from '@quietglass/shared';
 import { useMemo } from 'react';
 import { ErrorAlert } from '../../../components/error-alert';
 import { LoadingBlock } from '../../../components/loading-block';
@@ -49,19 +48,6 @@ export function comparisonFigure(c: SpectrumComparisonView): { data: PlotData[];
   return { data, layout };
 }
 
-/** The evaluated band with the smallest margin: where the measurement came closest to (or over) a limit. */
-export function worstBand(bands: readonly MeasuredBandResult[]): MeasuredBandResult | null {
-  let worst: MeasuredBandResult | null = null;
-  for (const b of bands)
-    if (
-      b.evaluated &&
-      b.worstMargin !== undefined &&
-      (!worst || b.worstMargin < (worst.worstMargin ?? Infinity))
-    )
-      worst = b;
-  return worst;
-}
-
 function MaskVerdict({ comparison }: { comparison: SpectrumComparisonView }) {
   const mask = comparison.mask;
   let body;
@@ -74,7 +60,7 @@ function MaskVerdict({ comparison }: { comparison: SpectrumComparisonView }) {
       </Typography>
     );
   } else {
-    const worst = worstBand(mask.bands);
+    const worst = mask.worstBand === null ? null : mask.bands[mask.worstBand];
     const at = worst?.worstAt;
     body = (
       <>
