@@ -12,6 +12,11 @@ export function formatFixed(value: number | null | undefined, decimals: number):
   return value === null || value === undefined || !Number.isFinite(value) ? '—' : value.toFixed(decimals);
 }
 
+/** "+0.123" / "−0.456": a signed value with a true minus sign (U+2212), as margins are shown. */
+export function formatSigned(value: number, decimals = 3): string {
+  return `${value >= 0 ? '+' : '−'}${Math.abs(value).toFixed(decimals)}`;
+}
+
 /**
  * Parses a number typed by a user: plain decimal or exponent notation, optional sign, nothing else
  * (no units, no thousands separators). Returns null for anything else, including an empty field.

@@ -120,11 +120,6 @@ export function binCentres(edges: readonly number[]): number[] {
   return centres;
 }
 
-/** "+0.123" / "−0.456": a signed value with a true minus sign. */
-export function signed(value: number, decimals = 3): string {
-  return `${value >= 0 ? '+' : '−'}${Math.abs(value).toFixed(decimals)}`;
-}
-
 /** Why an engine run stopped, in words. */
 export const STOP_REASONS: Record<string, string> = {
   converged: 'converged',

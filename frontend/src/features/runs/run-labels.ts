@@ -26,8 +26,3 @@ export function durabilityOutcome(results: readonly DurabilityResult[]): 'Pass' 
   if (results.length === 0) return 'Not tested';
   return results.some((r) => r.result === 'fail') ? 'Fail' : 'Pass';
 }
-
-/** A signed margin in percentage points with a true minus sign, e.g. "+0.120" or "−0.200". */
-export function signedMargin(value: number): string {
-  return `${value >= 0 ? '+' : '−'}${Math.abs(value).toFixed(3)}`;
-}

@@ -4,11 +4,12 @@ import Typography from '@mui/material/Typography';
 import type { DesignVersionView, FitResult } from '@quietglass/shared';
 import { useMemo } from 'react';
 import { Plot } from '../../../components/plot';
-import { fittedLayers, signed, STOP_REASONS } from '../results';
+import { fittedLayers, STOP_REASONS } from '../results';
 import { AcceptButton } from './accept-button';
 import { SpectrumOverlay } from './spectrum-overlay';
 import { ThicknessTable } from './thickness-table';
 import { tableLayers, type VersionContext } from './version-context';
+import { formatSigned } from '../../../lib/format';
 
 interface FitResultViewProps {
   calculationId: number;
@@ -52,7 +53,7 @@ export function FitResultView({
         />
         <Typography variant="body2">
           Merit {result.merit.before.toFixed(4)} → {result.merit.after.toFixed(4)} percentage points · worst
-          margin {signed(result.worstMargin)} percentage points · {result.iterations} iterations (
+          margin {formatSigned(result.worstMargin)} percentage points · {result.iterations} iterations (
           {STOP_REASONS[result.stoppedBy] ?? result.stoppedBy})
         </Typography>
       </Box>

@@ -10,11 +10,12 @@ import Typography from '@mui/material/Typography';
 import type { DesignLayer, DesignVersionView, GrowResult } from '@quietglass/shared';
 import { useMemo, useState } from 'react';
 import { Plot } from '../../../components/plot';
-import { grownLayers, signed, STOP_REASONS } from '../results';
+import { grownLayers, STOP_REASONS } from '../results';
 import { AcceptButton } from './accept-button';
 import { SpectrumOverlay } from './spectrum-overlay';
 import { ThicknessTable } from './thickness-table';
 import { tableLayers, type VersionContext } from './version-context';
+import { formatSigned } from '../../../lib/format';
 
 interface GrowResultViewProps {
   calculationId: number;
@@ -102,7 +103,7 @@ export function GrowResultView({
               <TableCell align="right">{s.layerCount}</TableCell>
               <TableCell align="right">{s.totalThicknessNm.toFixed(1)}</TableCell>
               <TableCell align="right">{s.merit.toFixed(4)}</TableCell>
-              <TableCell align="right">{signed(s.worstMargin)}</TableCell>
+              <TableCell align="right">{formatSigned(s.worstMargin)}</TableCell>
               <TableCell>{s.pass ? 'Pass' : 'Fail'}</TableCell>
             </TableRow>
           ))}

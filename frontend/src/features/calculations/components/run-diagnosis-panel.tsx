@@ -12,7 +12,7 @@ import { useState } from 'react';
 import { useForm } from 'react-hook-form';
 import { ErrorAlert } from '../../../components/error-alert';
 import { FormTextField } from '../../../components/form-text-field';
-import { formatFixed, parseNumberInput } from '../../../lib/format';
+import { formatFixed, formatSigned, parseNumberInput } from '../../../lib/format';
 import { CALCULATION_POLL_MS, useCalculation, type CalculationView } from '../api/get-calculation';
 import { diagnosisSummaryOf, useStartDiagnosis, type DiagnosisSummary } from '../api/start-diagnosis';
 import { CalculationStatus } from './calculation-status';
@@ -46,10 +46,6 @@ function statusText(c: CalculationView): string {
   }
 }
 
-function signedPercent(value: number): string {
-  return `${value >= 0 ? '+' : '−'}${Math.abs(value).toFixed(2)} %`;
-}
-
 /** The ranked layers with fitted factor and deviation; likely deviated layers are highlighted. */
 export function DiagnosisTable({
   summary,
@@ -69,7 +65,7 @@ export function DiagnosisTable({
           : `Most likely deviated: ${flagged
               .map(
                 (l) =>
-                  `layer ${l.layer} (${materialName(l.materialId)}, ${signedPercent(l.deviationPercent)})`,
+                  `layer ${l.layer} (${materialName(l.materialId)}, ${formatSigned(l.deviationPercent, 2)} %)`,
               )
               .join(', ')}.`}{' '}
         Residual between measured and fitted spectrum: {formatFixed(summary.residualRmsPercent, 4)}.
@@ -100,7 +96,7 @@ export function DiagnosisTable({
                 <TableCell align="right">{formatFixed(l.designNm, 1)}</TableCell>
                 <TableCell align="right">{formatFixed(l.fittedNm, 1)}</TableCell>
                 <TableCell align="right">{formatFixed(l.factor, 3)}</TableCell>
-                <TableCell align="right">{signedPercent(l.deviationPercent)}</TableCell>
+                <TableCell align="right">{`${formatSigned(l.deviationPercent, 2)} %`}</TableCell>
                 <TableCell>
                   {deviated && <Chip size="small" color="warning" label="Likely deviated" />}
                 </TableCell>

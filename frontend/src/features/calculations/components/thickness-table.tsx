@@ -3,7 +3,8 @@ import TableBody from '@mui/material/TableBody';
 import TableCell from '@mui/material/TableCell';
 import TableHead from '@mui/material/TableHead';
 import TableRow from '@mui/material/TableRow';
-import { signed, thicknessRows, type TableLayer } from '../results';
+import { thicknessRows, type TableLayer } from '../results';
+import { formatSigned } from '../../../lib/format';
 
 interface ThicknessTableProps {
   before: readonly TableLayer[];
@@ -46,7 +47,7 @@ export function ThicknessTable({ before, after }: ThicknessTableProps) {
             )}
             <TableCell align="right">{row.before ? row.before.thicknessNm.toFixed(2) : '—'}</TableCell>
             <TableCell align="right">{row.after ? row.after.thicknessNm.toFixed(2) : '—'}</TableCell>
-            <TableCell align="right">{row.changeNm === null ? '—' : signed(row.changeNm, 2)}</TableCell>
+            <TableCell align="right">{row.changeNm === null ? '—' : formatSigned(row.changeNm, 2)}</TableCell>
           </TableRow>
         ))}
       </TableBody>

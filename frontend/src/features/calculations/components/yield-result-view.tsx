@@ -8,7 +8,8 @@ import Typography from '@mui/material/Typography';
 import type { LimitBand, YieldEnvelope, YieldForecast } from '@quietglass/shared';
 import { Plot, PLOT_COLOURS, type PlotData, type PlotLayout } from '../../../components/plot';
 import { maskPlotLayout } from '../../../components/mask-plot-layout';
-import { binCentres, signed } from '../results';
+import { binCentres } from '../results';
+import { formatSigned } from '../../../lib/format';
 
 /** The nominal curve and each percentile of one envelope, over the mask's forbidden regions. */
 export function envelopeFigure(
@@ -57,8 +58,9 @@ export function YieldResultView({ forecast, maskBands }: YieldResultViewProps) {
           {forecast.passed} of {forecast.trials} trials pass the mask
           {forecast.trials < forecast.requestedTrials ? ` (${forecast.requestedTrials} asked)` : ''}; seed{' '}
           {forecast.seed}. Nominal design: {forecast.nominal.pass ? 'Pass' : 'Fail'}, worst margin{' '}
-          {signed(forecast.nominal.worstMargin)} percentage points. Worst margin of the trials: mean{' '}
-          {signed(margins.mean)}, {margins.percentiles.map((p) => `${p.p} %: ${signed(p.value)}`).join(', ')}.
+          {formatSigned(forecast.nominal.worstMargin)} percentage points. Worst margin of the trials: mean{' '}
+          {formatSigned(margins.mean)},{' '}
+          {margins.percentiles.map((p) => `${p.p} %: ${formatSigned(p.value)}`).join(', ')}.
         </Typography>
       </Box>
       {forecast.envelopes.map((envelope) => {

@@ -2,16 +2,13 @@ import Box from '@mui/material/Box';
 import Chip from '@mui/material/Chip';
 import Typography from '@mui/material/Typography';
 import type { PreviewMaskResult } from '../../../lib/preview/compute-preview';
+import { formatSigned } from '../../../lib/format';
 
 interface MaskBadgeProps {
   result: PreviewMaskResult | null;
   /** The mask's name and revision, or null when the design has no spec mask. */
   maskName: string | null;
   error: string | null;
-}
-
-function signed(value: number): string {
-  return `${value >= 0 ? '+' : '−'}${Math.abs(value).toFixed(3)}`;
 }
 
 /** Pass or fail against the design's spec mask, with the worst margin and where it lies. */
@@ -36,8 +33,8 @@ export function MaskBadge({ result, maskName, error }: MaskBadgeProps) {
           sx={{ fontWeight: 600, minWidth: 56 }}
         />
         <Typography variant="body2">
-          Worst margin {signed(result.worstMargin)} percentage points at {at.wavelengthNm} nm, {at.angleDeg}°
-          ({at.polarisation}): {at.valuePercent.toFixed(3)} %
+          Worst margin {formatSigned(result.worstMargin)} percentage points at {at.wavelengthNm} nm,{' '}
+          {at.angleDeg}° ({at.polarisation}): {at.valuePercent.toFixed(3)} %
         </Typography>
       </>
     );

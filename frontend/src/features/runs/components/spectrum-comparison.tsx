@@ -14,8 +14,8 @@ import {
   useSpectrumComparison,
   type SpectrumComparisonView,
 } from '../api/get-spectrum-comparison';
-import { signedMargin } from '../run-labels';
 import { maskPlotLayout } from '../../../components/mask-plot-layout';
+import { formatSigned } from '../../../lib/format';
 
 /** Traces and layout: measured and design curves, with the mask's forbidden regions shaded. */
 export function comparisonFigure(c: SpectrumComparisonView): { data: PlotData[]; layout: PlotLayout } {
@@ -71,7 +71,7 @@ function MaskVerdict({ comparison }: { comparison: SpectrumComparisonView }) {
           sx={{ fontWeight: 600, minWidth: 56 }}
         />
         <Typography variant="body2">
-          Worst margin {signedMargin(mask.worstMargin)} percentage points
+          Worst margin {formatSigned(mask.worstMargin)} percentage points
           {at ? ` at ${at.wavelengthNm} nm: ${comparison.quantity} ${at.valuePercent.toFixed(3)} %` : ''}
         </Typography>
       </>
