@@ -17,6 +17,14 @@ export const VERSION_STATUSES = [
 export type VersionStatus = (typeof VERSION_STATUSES)[number];
 
 /**
+ * True for the statuses a customer may be shown (in quotes and compliance reports): approved by a
+ * second engineer, or released to the chamber. Never drafts or versions under review.
+ */
+export function isApprovedForCustomers(status: VersionStatus): boolean {
+  return status === 'approved' || status === 'released';
+}
+
+/**
  * What is behind the coated front surface: `front-only` treats the substrate as semi-infinite;
  * `bare` adds the uncoated back surface incoherently; `same-coating` coats the back with the front
  * design too (a part coated on both sides).

@@ -1,6 +1,7 @@
 import { BadRequestException, ConflictException, Injectable, NotFoundException } from '@nestjs/common';
 import { InjectDataSource } from '@nestjs/typeorm';
 import { DataSource, In } from 'typeorm';
+import { isApprovedForCustomers } from '@quietglass/shared/designs';
 import type { QuoteStatus } from '@quietglass/shared/quotes';
 import { CustomersService } from '../customers/customers.service.js';
 import { Design } from '../designs/design.entity.js';
@@ -171,7 +172,7 @@ export class QuotesService {
       .getRepository(DesignVersion)
       .findOne({ where: { designId: dto.designId, number: dto.versionNumber }, relations: { design: true } });
     if (!version) problems.push(`versionNumber: design ${dto.designId} has no version ${dto.versionNumber}`);
-    else if (version.status !== 'approved' && version.status !== 'released') {
+    else if (!isApprovedForCustomers(version.status)) {
       problems.push(
         `versionNumber: version ${dto.versionNumber} is ${version.status}; quotes need an approved version`,
       );

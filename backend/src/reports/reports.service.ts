@@ -1,7 +1,11 @@
 import { BadRequestException, Inject, Injectable, NotFoundException } from '@nestjs/common';
 import { InjectDataSource } from '@nestjs/typeorm';
 import { DataSource, In } from 'typeorm';
-import { designStackDescription, engineBackSurface } from '@quietglass/shared/designs';
+import {
+  designStackDescription,
+  engineBackSurface,
+  isApprovedForCustomers,
+} from '@quietglass/shared/designs';
 import { evaluateMaskOnMeasured } from '@quietglass/shared/measured';
 import { calculateSpectrum } from '@quietglass/shared/optics/batch';
 import { reflectedColour } from '@quietglass/shared/optics/colour';
@@ -17,9 +21,6 @@ import type { User } from '../users/user.entity.js';
 import type { CreateReportDto } from './dto/report.dto.js';
 import { renderReportPdf, type PlotSeries } from './report-pdf.js';
 import { ComplianceReport } from './report.entity.js';
-
-/** Versions a customer may be shown: approved or released (never drafts). */
-const REPORTABLE = ['approved', 'released'] as const;
 
 function rule(b: LimitBand): string {
   if (b.max_percent !== undefined)
@@ -43,7 +44,7 @@ export class ReportsService {
       relations: { design: true },
     });
     if (!version) throw new NotFoundException(`Design ${dto.designId} has no version ${dto.versionNumber}`);
-    if (!(REPORTABLE as readonly string[]).includes(version.status)) {
+    if (!isApprovedForCustomers(version.status)) {
       throw new BadRequestException({
         message: [
           `version ${dto.versionNumber} is ${version.status}; compliance reports are for approved or released versions`,

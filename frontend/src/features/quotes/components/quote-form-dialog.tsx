@@ -5,7 +5,7 @@ import Button from '@mui/material/Button';
 import FormHelperText from '@mui/material/FormHelperText';
 import IconButton from '@mui/material/IconButton';
 import Typography from '@mui/material/Typography';
-import type { VersionStatus } from '@quietglass/shared';
+import { isApprovedForCustomers, type VersionStatus } from '@quietglass/shared';
 import { useEffect } from 'react';
 import { useFieldArray, useForm, useWatch } from 'react-hook-form';
 import { ErrorAlert } from '../../../components/error-alert';
@@ -30,9 +30,6 @@ import {
   validUntilRule,
   type QuoteFormValues,
 } from '../quote-form';
-
-/** Versions a quote may refer to (the API refuses drafts and versions under review). */
-const QUOTABLE: ReadonlySet<VersionStatus> = new Set(['approved', 'released']);
 
 export interface QuoteCustomerChoice {
   id: number;
@@ -101,7 +98,7 @@ export function QuoteFormDialog({
   const designId = useWatch({ control, name: 'designId' });
   const designsOfCustomer = designs.filter((d) => String(d.customer.id) === customerId);
   const masksOfCustomer = masks.filter((m) => String(m.customer.id) === customerId);
-  const quotable = (versions ?? []).filter((v) => QUOTABLE.has(v.status));
+  const quotable = (versions ?? []).filter((v) => isApprovedForCustomers(v.status));
 
   useEffect(() => onDesignChange(designId === '' ? null : Number(designId)), [designId, onDesignChange]);
   useEffect(() => {

@@ -1,6 +1,6 @@
 import Box from '@mui/material/Box';
 import Typography from '@mui/material/Typography';
-import type { VersionStatus } from '@quietglass/shared';
+import { isApprovedForCustomers, type VersionStatus } from '@quietglass/shared';
 import { useEffect } from 'react';
 import { useForm, useWatch } from 'react-hook-form';
 import { ErrorAlert } from '../../../components/error-alert';
@@ -10,9 +10,6 @@ import { FormSelectField } from '../../../components/form-select-field';
 import { FormTextField } from '../../../components/form-text-field';
 import { useCreateReport, type CreateReportInput } from '../api/create-report';
 import type { ReportView } from '../api/get-reports';
-
-/** Versions a customer may be shown (the API refuses drafts and versions under review). */
-const REPORTABLE: ReadonlySet<VersionStatus> = new Set(['approved', 'released']);
 
 export interface ReportDesignChoice {
   id: number;
@@ -92,7 +89,7 @@ export function NewReportDialog({
   const designId = useWatch({ control, name: 'designId' });
   const design = designs.find((d) => String(d.id) === designId);
   const masksOfCustomer = design ? masks.filter((m) => m.customer.id === design.customer.id) : [];
-  const reportable = (versions ?? []).filter((v) => REPORTABLE.has(v.status));
+  const reportable = (versions ?? []).filter((v) => isApprovedForCustomers(v.status));
 
   useEffect(() => onDesignChange(designId === '' ? null : Number(designId)), [designId, onDesignChange]);
   useEffect(() => {
