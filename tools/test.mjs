@@ -111,7 +111,6 @@ async function main() {
       BCRYPT_COST: '4',
       SIGNIN_LIMIT: '10',
       WORKER_PING_TIMEOUT_MS: '1500',
-      QG_SMTP_PORT: String(intEnv('QG_TEST_SMTP_PORT', 2526)),
     };
   }
   const backendDir = path.join(ROOT, 'backend');

@@ -1,6 +1,5 @@
 import { Module } from '@nestjs/common';
 import { ConfigModule } from '@nestjs/config';
-import { ThrottlerModule } from '@nestjs/throttler';
 import { TypeOrmModule } from '@nestjs/typeorm';
 import { appConfig, type AppConfig } from './config/configuration.js';
 import { dataSourceOptions } from './database/data-source.js';
@@ -24,12 +23,6 @@ import { UsersModule } from './users/users.module.js';
     TypeOrmModule.forRootAsync({
       inject: [appConfig.KEY],
       useFactory: (config: AppConfig) => dataSourceOptions(config.databaseUrl),
-    }),
-    ThrottlerModule.forRootAsync({
-      inject: [appConfig.KEY],
-      useFactory: (config: AppConfig) => ({
-        throttlers: [{ name: 'sign-in', limit: config.signInLimit, ttl: config.signInWindowMs }],
-      }),
     }),
     AuthModule,
     UsersModule,

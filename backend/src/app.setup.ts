@@ -5,15 +5,55 @@ import type { NestExpressApplication } from '@nestjs/platform-express';
 import { DocumentBuilder, SwaggerModule } from '@nestjs/swagger';
 import cookieParser from 'cookie-parser';
 import type { NextFunction, Request, Response } from 'express';
+import helmet from 'helmet';
 import { AllExceptionsFilter } from './common/http-exception.filter.js';
+import { checkJsonDepth, csrfGuard, RequestHygienePipe } from './common/request-hygiene.js';
+import { appConfig, type AppConfig } from './config/configuration.js';
+
+/**
+ * Headers of every answer. The client is one origin with no inline script; MUI and Plotly set
+ * inline styles; the PDF preview and the spectrum worker use blob: URLs. No page may frame it.
+ */
+const SECURITY_HEADERS = helmet({
+  contentSecurityPolicy: {
+    useDefaults: false,
+    directives: {
+      defaultSrc: ["'self'"],
+      scriptSrc: ["'self'"],
+      styleSrc: ["'self'", "'unsafe-inline'"],
+      imgSrc: ["'self'", 'data:', 'blob:'],
+      fontSrc: ["'self'", 'data:'],
+      connectSrc: ["'self'"],
+      workerSrc: ["'self'", 'blob:'],
+      frameSrc: ["'self'", 'blob:'],
+      objectSrc: ["'self'", 'blob:'],
+      baseUri: ["'self'"],
+      formAction: ["'self'"],
+      frameAncestors: ["'none'"],
+    },
+  },
+  crossOriginEmbedderPolicy: false,
+  frameguard: { action: 'deny' },
+  referrerPolicy: { policy: 'same-origin' },
+});
 
 /** Everything main.ts and the e2e tests configure alike: prefix, validation, errors, cookies, client. */
 export function configureApp(app: NestExpressApplication, clientDist: string | null): void {
+  const config = app.get<AppConfig>(appConfig.KEY);
   app.setGlobalPrefix('api');
+  app.disable('x-powered-by');
+  app.use(SECURITY_HEADERS);
   app.use(cookieParser());
-  app.useBodyParser('json', { limit: '2mb' });
-  app.set('trust proxy', 'loopback');
-  app.useGlobalPipes(new ValidationPipe({ whitelist: true, forbidNonWhitelisted: true, transform: true }));
+  // Nest's option type leaves out body-parser's `verify`, which Express passes through unchanged.
+  const jsonOptions: Record<string, unknown> = { limit: '2mb', verify: checkJsonDepth };
+  app.useBodyParser('json', jsonOptions);
+  // Forwarded client addresses are believed only from the proxy TRUST_PROXY names.
+  app.set('trust proxy', config.trustProxy);
+  app.use(csrfGuard);
+  app.useGlobalPipes(
+    new RequestHygienePipe(),
+    new ValidationPipe({ whitelist: true, forbidNonWhitelisted: true, transform: true }),
+  );
   app.useGlobalFilters(new AllExceptionsFilter());
   app.enableShutdownHooks();
   // OpenAPI description of every route, built on first request: /api/docs (pages), /api/docs-json.

@@ -27,7 +27,7 @@ describe('sign-in', () => {
       .concat(res.headers['set-cookie'])
       .find((c) => c.startsWith('qg_session='));
     expect(cookie).toMatch(/HttpOnly/i);
-    expect(cookie).toMatch(/SameSite=Lax/i);
+    expect(cookie).toMatch(/SameSite=Strict/i);
   });
 
   it('accepts the e-mail in any case and with spaces around it', async () => {
@@ -115,7 +115,9 @@ describe('session', () => {
   });
 
   it('sign-out clears the cookie', async () => {
-    const res = await http().post('/api/auth/sign-out');
+    const res = await http()
+      .post('/api/auth/sign-out')
+      .set('Cookie', await demoSession(app, 'sales'));
     expect(res.status).toBe(204);
     const cleared = ([] as string[])
       .concat(res.headers['set-cookie'])
@@ -134,6 +136,11 @@ describe('change password', () => {
       .send({ email, displayName: 'Pat Changer', role: 'engineer', password: 'first-password-1' });
     expect(created.status).toBe(201);
     const cookie = await sessionCookie(app, email, 'first-password-1');
+    const held = await http().get('/api/designs').set('Cookie', cookie);
+    expect(held.status).toBe(403);
+    expect(held.body.message).toBe('Choose your own password first (Account → Change password)');
+    const me = await http().get('/api/auth/me').set('Cookie', cookie);
+    expect(me.body.user.mustChangePassword).toBe(true);
 
     const wrong = await http()
       .post('/api/auth/password')
@@ -154,6 +161,9 @@ describe('change password', () => {
       .set('Cookie', cookie)
       .send({ currentPassword: 'first-password-1', newPassword: 'second-password-2' });
     expect(ok.status).toBe(204);
+    // Chosen by the user: the hold is lifted and the same session goes on.
+    expect((await http().get('/api/designs').set('Cookie', cookie)).status).toBe(200);
+    expect((await http().get('/api/auth/me').set('Cookie', cookie)).body.user.mustChangePassword).toBe(false);
     const old = await http().post('/api/auth/sign-in').send({ email, password: 'first-password-1' });
     expect(old.status).toBe(401);
     const fresh = await http().post('/api/auth/sign-in').send({ email, password: 'second-password-2' });

@@ -111,7 +111,6 @@ const RULES: RouteRule[] = [
     okStatus: 200,
     body: () => ({ email: demoSignIn('sales').email, password: demoSignIn('sales').password }),
   },
-  { method: 'post', path: '/api/auth/sign-out', allow: 'public', okStatus: 204 },
   { method: 'get', path: '/api/auth/me', allow: ALL, okStatus: 200 },
   {
     method: 'post',
@@ -591,6 +590,8 @@ const RULES: RouteRule[] = [
     url: (ctx) => `/api/customers/${ctx.customerId}`,
     body: () => ({ name: 'Matrix customer', notes: 'edited by the matrix' }),
   },
+  // Last: signing out ends the session every row above used.
+  { method: 'post', path: '/api/auth/sign-out', allow: ALL, okStatus: 204 },
 ];
 
 let app: NestExpressApplication;

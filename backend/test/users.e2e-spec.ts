@@ -75,7 +75,7 @@ describe('users (admin)', () => {
     expect(await userCount()).toBe(before);
   });
 
-  it('changes a role; the change applies to the user’s existing session at once', async () => {
+  it('changes a role; the user’s existing sessions end and the next one has the new role', async () => {
     const created = await http().post('/api/users').set('Cookie', admin).send({
       email: 'role-change@larkspur.example',
       displayName: 'Ray Change',
@@ -90,10 +90,12 @@ describe('users (admin)', () => {
       .send({ role: 'admin' });
     expect(patched.status).toBe(200);
     expect(patched.body.role).toBe('admin');
-    expect((await http().get('/api/users').set('Cookie', cookie)).status).toBe(200);
+    expect((await http().get('/api/auth/me').set('Cookie', cookie)).status).toBe(401);
+    const next = await sessionCookie(app, 'role-change@larkspur.example', 'a-long-password');
+    expect((await http().get('/api/auth/me').set('Cookie', next)).body.user.role).toBe('admin');
   });
 
-  it('deactivating a user ends their session and refuses their sign-in with the usual message', async () => {
+  it('deactivating a user ends their session; signing in with the right password says the account is inactive', async () => {
     const created = await http().post('/api/users').set('Cookie', admin).send({
       email: 'leaver@larkspur.example',
       displayName: 'Lee Ver',
@@ -111,8 +113,15 @@ describe('users (admin)', () => {
     const again = await http()
       .post('/api/auth/sign-in')
       .send({ email: 'leaver@larkspur.example', password: 'a-long-password' });
-    expect(again.status).toBe(401);
-    expect(again.body.message).toBe('Wrong e-mail or password.');
+    expect(again.status).toBe(403);
+    expect(again.body.message).toBe('This account is inactive; ask an admin of your shop to reactivate it.');
+    expect(again.headers['set-cookie']).toBeUndefined();
+    // A wrong password tells a guesser nothing more than for any other account.
+    const guess = await http()
+      .post('/api/auth/sign-in')
+      .send({ email: 'leaver@larkspur.example', password: 'not-the-password' });
+    expect(guess.status).toBe(401);
+    expect(guess.body.message).toBe('Wrong e-mail or password.');
   });
 
   it('an admin cannot demote or deactivate themselves', async () => {

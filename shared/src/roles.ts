@@ -14,6 +14,8 @@ export interface UserView {
   displayName: string;
   role: Role;
   active: boolean;
+  /** The password was set by an admin: the user must choose their own before anything else. */
+  mustChangePassword: boolean;
   createdAt: string;
 }
 
@@ -39,3 +41,10 @@ export type NavSection = (typeof NAV_SECTIONS)[number];
 export function navSectionsFor(role: Role): NavSection[] {
   return NAV_SECTIONS.filter((s) => (s.roles as readonly Role[]).includes(role));
 }
+
+/**
+ * Header (with value `1`) that every state-changing API request from a browser must carry. A
+ * cross-site form or image cannot set a custom header, and a cross-site script would need a CORS
+ * grant the API never gives: so a request with it was made by the Quietglass client itself.
+ */
+export const CSRF_HEADER = 'x-quietglass-request';

@@ -7,6 +7,7 @@
 import fs from 'node:fs';
 import path from 'node:path';
 import { fileURLToPath } from 'node:url';
+import { CSRF_HEADER } from '@quietglass/shared';
 
 const ROOT = path.resolve(path.dirname(fileURLToPath(import.meta.url)), '..', '..');
 const arg = (name: string, fallback: string) => {
@@ -20,7 +21,11 @@ let cookie = '';
 async function api<T>(method: string, url: string, body?: unknown): Promise<{ status: number; body: T }> {
   const res = await fetch(`${base}/api${url}`, {
     method,
-    headers: { 'Content-Type': 'application/json', ...(cookie ? { Cookie: cookie } : {}) },
+    headers: {
+      'Content-Type': 'application/json',
+      [CSRF_HEADER]: '1',
+      ...(cookie ? { Cookie: cookie } : {}),
+    },
     body: body === undefined ? undefined : JSON.stringify(body),
   });
   const set = res.headers.get('set-cookie');

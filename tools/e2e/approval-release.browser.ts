@@ -40,7 +40,8 @@ async function apiCall(page: Page, method: string, path: string) {
     async ({ method, path }) => {
       const res = await fetch(path, {
         method,
-        headers: { 'Content-Type': 'application/json' },
+        // The header the client's fetch wrapper sends (CSRF_HEADER in shared).
+        headers: { 'Content-Type': 'application/json', 'x-quietglass-request': '1' },
         body: method === 'GET' ? undefined : '{}',
       });
       const bytes = new Uint8Array(await res.arrayBuffer());

@@ -1,4 +1,4 @@
-import type { DesignVersionView, LimitBand } from '@quietglass/shared';
+import { CSRF_HEADER, type DesignVersionView, type LimitBand } from '@quietglass/shared';
 import {
   request,
   type APIRequestContext,
@@ -104,7 +104,8 @@ export async function createDesignInBrowser(
 
 /** An API session of a demo user (the session cookie stays in the context); dispose it when done. */
 export async function apiSession(who: DemoSignIn): Promise<APIRequestContext> {
-  const api = await request.newContext({ baseURL: baseUrl() });
+  // Like the client's fetch wrapper, every request carries the header the API wants on changes.
+  const api = await request.newContext({ baseURL: baseUrl(), extraHTTPHeaders: { [CSRF_HEADER]: '1' } });
   const res = await api.post('/api/auth/sign-in', { data: { email: who.email, password: who.password } });
   if (res.status() !== 200) throw new Error(`sign-in of ${who.email}: ${res.status()} ${await res.text()}`);
   return api;

@@ -1,15 +1,14 @@
-import { Body, Controller, Get, HttpCode, Inject, Post, Res, UseGuards } from '@nestjs/common';
-import type { Response } from 'express';
+import { Body, Controller, Get, HttpCode, Inject, Post, Req, Res } from '@nestjs/common';
+import type { Request, Response } from 'express';
 import type { UserView } from '@quietglass/shared';
 import { appConfig, type AppConfig } from '../config/configuration.js';
 import { toUserView, type User } from '../users/user.entity.js';
 import { AuthService } from './auth.service.js';
-import { CurrentUser } from './current-user.decorator.js';
+import { CurrentSession, CurrentUser } from './current-user.decorator.js';
 import { ChangePasswordDto } from './dto/change-password.dto.js';
 import { SignInDto } from './dto/sign-in.dto.js';
-import { Public } from './public.decorator.js';
+import { AllowedBeforePasswordChange, Public } from './public.decorator.js';
 import { SESSION_COOKIE } from './session.js';
-import { SignInThrottlerGuard } from './sign-in-throttler.guard.js';
 
 @Controller('auth')
 export class AuthController {
@@ -21,37 +20,50 @@ export class AuthController {
   @Public()
   @Post('sign-in')
   @HttpCode(200)
-  @UseGuards(SignInThrottlerGuard)
   async signIn(
     @Body() dto: SignInDto,
+    @Req() req: Request,
     @Res({ passthrough: true }) res: Response,
   ): Promise<{ user: UserView }> {
-    const { user, token } = await this.auth.signIn(dto.email, dto.password);
+    const { user, token } = await this.auth.signIn(dto.email, dto.password, req.ip ?? 'unknown');
     res.cookie(SESSION_COOKIE, token, {
       httpOnly: true,
-      sameSite: 'lax',
-      secure: this.config.cookieSecure,
+      // The client and API share one origin: the cookie never needs to go along cross-site.
+      sameSite: 'strict',
+      secure: this.config.cookieSecure || req.secure,
       path: '/',
       maxAge: this.config.jwtTtlSeconds * 1000,
     });
     return { user: toUserView(user) };
   }
 
-  @Public()
+  /** Ends this session on the server (the token stops working at once) and clears the cookie. */
   @Post('sign-out')
   @HttpCode(204)
-  signOut(@Res({ passthrough: true }) res: Response): void {
+  @AllowedBeforePasswordChange()
+  async signOut(
+    @CurrentSession() sessionId: string,
+    @Res({ passthrough: true }) res: Response,
+  ): Promise<void> {
+    await this.auth.signOut(sessionId);
     res.clearCookie(SESSION_COOKIE, { path: '/' });
   }
 
   @Get('me')
+  @AllowedBeforePasswordChange()
   me(@CurrentUser() user: User): { user: UserView } {
     return { user: toUserView(user) };
   }
 
+  /** Changes the user's own password; every other session of theirs ends. */
   @Post('password')
   @HttpCode(204)
-  async changePassword(@CurrentUser() user: User, @Body() dto: ChangePasswordDto): Promise<void> {
-    await this.auth.changePassword(user, dto.currentPassword, dto.newPassword);
+  @AllowedBeforePasswordChange()
+  async changePassword(
+    @CurrentUser() user: User,
+    @CurrentSession() sessionId: string,
+    @Body() dto: ChangePasswordDto,
+  ): Promise<void> {
+    await this.auth.changePassword(user, sessionId, dto.currentPassword, dto.newPassword);
   }
 }

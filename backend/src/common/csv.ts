@@ -44,3 +44,20 @@ export function readCsvRows(
 export function problemDetails(problems: CsvProblem[]): string[] {
   return problems.map((p) => (p.row > 0 ? `row ${p.row}: ${p.reason}` : p.reason));
 }
+
+/**
+ * Writes CSV for download. Text cells that a spreadsheet would run as a formula (a leading
+ * `=`, `+`, `-`, `@`, tab or carriage return) get a `'` in front, as OWASP's CSV-injection guidance
+ * advises; numbers are written as numbers, so a negative value stays a number.
+ */
+export function writeCsv(
+  fields: readonly string[],
+  rows: readonly (readonly (string | number | boolean | null | undefined)[])[],
+): string {
+  return (
+    Papa.unparse(
+      { fields: [...fields], data: rows.map((r) => [...r]) },
+      { newline: '\n', escapeFormulae: true },
+    ) + '\n'
+  );
+}

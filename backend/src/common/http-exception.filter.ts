@@ -1,5 +1,6 @@
 import { ArgumentsHost, Catch, ExceptionFilter, HttpException, HttpStatus, Logger } from '@nestjs/common';
 import type { Response } from 'express';
+import { JsonTooDeepError } from './request-hygiene.js';
 
 /** The one error shape of the API. */
 export interface ErrorBody {
@@ -7,6 +8,8 @@ export interface ErrorBody {
   error: string;
   message: string;
   details?: string[];
+  /** With 429: how long to wait (also sent as Retry-After). */
+  retryAfterSeconds?: number;
 }
 
 const REASONS: Record<number, string> = {
@@ -28,6 +31,7 @@ export class AllExceptionsFilter implements ExceptionFilter {
   catch(exception: unknown, host: ArgumentsHost): void {
     const res = host.switchToHttp().getResponse<Response>();
     const body = toErrorBody(exception);
+    if (body.retryAfterSeconds !== undefined) res.setHeader('Retry-After', String(body.retryAfterSeconds));
     if (body.statusCode >= 500) {
       this.logger.error(
         exception instanceof Error ? (exception.stack ?? exception.message) : String(exception),
@@ -38,11 +42,24 @@ export class AllExceptionsFilter implements ExceptionFilter {
 }
 
 export function toErrorBody(exception: unknown): ErrorBody {
+  const cause = exception instanceof Error ? exception.cause : undefined;
+  if (exception instanceof JsonTooDeepError || cause instanceof JsonTooDeepError) {
+    return {
+      statusCode: 400,
+      error: REASONS[400],
+      message: (cause ?? (exception as Error)).toString().replace(/^Error: /, ''),
+    };
+  }
   if (exception instanceof HttpException) {
     const statusCode = exception.getStatus();
     const response = exception.getResponse();
     const error = REASONS[statusCode] ?? 'Error';
     if (statusCode === HttpStatus.TOO_MANY_REQUESTS) {
+      const own = response as { message?: unknown; retryAfterSeconds?: unknown };
+      if (typeof own === 'object' && typeof own.message === 'string') {
+        const retry = typeof own.retryAfterSeconds === 'number' ? own.retryAfterSeconds : undefined;
+        return { statusCode, error, message: own.message, ...(retry ? { retryAfterSeconds: retry } : {}) };
+      }
       return { statusCode, error, message: 'Too many attempts; wait a minute and try again' };
     }
     if (statusCode === HttpStatus.PAYLOAD_TOO_LARGE) {

@@ -16,7 +16,23 @@ describe('loadConfig', () => {
       signInLimit: 10,
       signInWindowMs: 60_000,
       cookieSecure: false,
+      trustProxy: false,
+      sessionIdleSeconds: 30 * 60,
     });
+  });
+
+  it('reads COOKIE_SECURE as the usual true/false words and refuses anything else', () => {
+    for (const word of ['true', '1', 'yes', 'YES', 'on'])
+      expect(loadConfig({ ...base, COOKIE_SECURE: word }).cookieSecure).toBe(true);
+    for (const word of ['false', '0', 'no', 'off'])
+      expect(loadConfig({ ...base, COOKIE_SECURE: word }).cookieSecure).toBe(false);
+    expect(() => loadConfig({ ...base, COOKIE_SECURE: 'sure' })).toThrow(
+      'COOKIE_SECURE must be true or false (also 1/0, yes/no, on/off), got "sure"',
+    );
+  });
+
+  it('trusts forwarded addresses only from the proxy TRUST_PROXY names', () => {
+    expect(loadConfig({ ...base, TRUST_PROXY: '10.1.2.3' }).trustProxy).toBe('10.1.2.3');
   });
 
   it('names the variable that is missing or wrong', () => {

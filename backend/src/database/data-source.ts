@@ -12,6 +12,8 @@ import { Quote } from '../quotes/quote.entity.js';
 import { ComplianceReport } from '../reports/report.entity.js';
 import { ChamberRun, RunSpectrum } from '../runs/run.entity.js';
 import { SpecMaskRecord } from '../spec-masks/spec-mask.entity.js';
+import { Session } from '../sessions/session.entity.js';
+import { RedactingDbLogger } from './db-logger.js';
 import { User } from '../users/user.entity.js';
 import { CreateUsers1764633600000 } from '../migrations/1764633600000-create-users.js';
 import { CustomersMaterials1764633700000 } from '../migrations/1764633700000-customers-materials.js';
@@ -22,6 +24,7 @@ import { Chambers1764634100000 } from '../migrations/1764634100000-chambers.js';
 import { ChamberRuns1764634200000 } from '../migrations/1764634200000-chamber-runs.js';
 import { ReportsQuotesOutbox1764634300000 } from '../migrations/1764634300000-reports-quotes-outbox.js';
 import { CalculationLive1764634400000 } from '../migrations/1764634400000-calculation-live.js';
+import { Sessions1764634700000 } from '../migrations/1764634700000-sessions.js';
 
 /** Every entity of the app; each domain module also registers its own with forFeature. */
 export const ENTITIES = [
@@ -40,6 +43,7 @@ export const ENTITIES = [
   Quote,
   OutboxMessage,
   OutboxAttachment,
+  Session,
 ];
 
 /** Every migration, in order. Listed explicitly so the same list works from src (tests) and dist. */
@@ -53,6 +57,7 @@ export const MIGRATIONS = [
   ChamberRuns1764634200000,
   ReportsQuotesOutbox1764634300000,
   CalculationLive1764634400000,
+  Sessions1764634700000,
 ];
 
 /** TypeORM options for PostgreSQL; never `synchronize` — the schema comes from migrations. */
@@ -66,6 +71,7 @@ export function dataSourceOptions(databaseUrl: string): DataSourceOptions {
     synchronize: false,
     migrationsRun: false,
     logging: ['error', 'warn'],
+    logger: new RedactingDbLogger(),
   };
 }
 

@@ -1,6 +1,5 @@
-import { Controller, Get, NotFoundException, Param, ParseIntPipe, Res, StreamableFile } from '@nestjs/common';
+import { Controller, Get, NotFoundException, Param, ParseIntPipe, StreamableFile } from '@nestjs/common';
 import { InjectDataSource } from '@nestjs/typeorm';
-import type { Response } from 'express';
 import type { OutboxMessageView } from '@quietglass/shared/outbox';
 import { DataSource } from 'typeorm';
 import { Roles } from '../auth/roles.decorator.js';
@@ -21,6 +20,12 @@ function view(m: OutboxMessage): OutboxMessageView {
       size: a.size,
     })),
   };
+}
+
+/** Content-Disposition for a download: an ASCII fallback name and the exact name (RFC 6266). */
+export function attachmentDisposition(filename: string): string {
+  const ascii = filename.replace(/[^\x20-\x7e]|["\\]/g, '_');
+  return `attachment; filename="${ascii}"; filename*=UTF-8''${encodeURIComponent(filename)}`;
 }
 
 /** What the local SMTP fake received: for admins. */
@@ -50,14 +55,15 @@ export class OutboxController {
   async attachment(
     @Param('id', ParseIntPipe) id: number,
     @Param('aid', ParseIntPipe) aid: number,
-    @Res({ passthrough: true }) res: Response,
   ): Promise<StreamableFile> {
     const a = await this.db.getRepository(OutboxAttachment).findOne({
       where: { id: aid, message: { id } },
       select: { id: true, filename: true, contentType: true, content: true },
     });
     if (!a) throw new NotFoundException(`Message ${id} has no attachment ${aid}`);
-    res.setHeader('Content-Disposition', `inline; filename="${a.filename.replace(/["\\\r\n]/g, '_')}"`);
-    return new StreamableFile(a.content, { type: a.contentType });
+    // Whatever a message carried, it is handed over as a download, never shown as a page of this
+    // origin: a PDF keeps its type (the browser saves it), anything else is plain bytes.
+    const type = a.contentType === 'application/pdf' ? 'application/pdf' : 'application/octet-stream';
+    return new StreamableFile(a.content, { type, disposition: attachmentDisposition(a.filename) });
   }
 }

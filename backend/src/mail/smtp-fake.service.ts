@@ -1,3 +1,5 @@
+import { randomBytes, timingSafeEqual } from 'node:crypto';
+import type { AddressInfo } from 'node:net';
 import { Inject, Injectable, Logger, type OnModuleDestroy, type OnModuleInit } from '@nestjs/common';
 import { InjectDataSource } from '@nestjs/typeorm';
 import { simpleParser, type AddressObject } from 'mailparser';
@@ -11,15 +13,26 @@ function addresses(a: AddressObject | AddressObject[] | undefined): string {
   return (Array.isArray(a) ? a : [a]).map((x) => x.text).join(', ');
 }
 
+function sameSecret(a: string, b: string): boolean {
+  const x = Buffer.from(a);
+  const y = Buffer.from(b);
+  return x.length === y.length && timingSafeEqual(x, y);
+}
+
 /**
  * The local SMTP fake: when no SMTP_URL is configured, the API listens on 127.0.0.1 and stores
  * every message it is sent (with attachments) in the outbox, where admins can read it. Nothing
- * leaves the machine.
+ * leaves the machine. It accepts mail only from this API process: the sender must log in with a
+ * secret made afresh at each start. With QG_SMTP_PORT it listens there (and the API refuses to
+ * start when the port is taken, rather than hand its mail to whoever holds it); without, on a free
+ * port the system picks.
  */
 @Injectable()
 export class SmtpFakeService implements OnModuleInit, OnModuleDestroy {
   private readonly logger = new Logger('SmtpFake');
   private server: SMTPServer | null = null;
+  /** Where the fake listens and how to log in; null until started (or with a real SMTP server). */
+  private endpoint: { port: number; user: string; pass: string } | null = null;
 
   constructor(
     @Inject(appConfig.KEY) private readonly config: AppConfig,
@@ -28,11 +41,23 @@ export class SmtpFakeService implements OnModuleInit, OnModuleDestroy {
 
   async onModuleInit(): Promise<void> {
     if (this.config.smtpUrl) return;
+    const user = 'quietglass-api';
+    const pass = randomBytes(24).toString('base64url');
     const server = new SMTPServer({
-      authOptional: true,
-      disabledCommands: ['STARTTLS', 'AUTH'],
+      authOptional: false,
+      authMethods: ['PLAIN', 'LOGIN'],
+      // Loopback only, and the secret never leaves this process: TLS would add nothing here.
+      allowInsecureAuth: true,
+      disabledCommands: ['STARTTLS'],
       banner: 'Quietglass local SMTP fake',
       size: 25 * 1024 * 1024,
+      onAuth: (auth, _session, callback) => {
+        if (auth.username === user && sameSecret(auth.password ?? '', pass)) {
+          callback(null, { user });
+        } else {
+          callback(new Error('Invalid username or password'));
+        }
+      },
       onData: (stream, _session, callback) => {
         simpleParser(stream)
           .then((mail) => this.store(mail))
@@ -41,17 +66,26 @@ export class SmtpFakeService implements OnModuleInit, OnModuleDestroy {
       },
     });
     server.on('error', (err) => this.logger.warn(`SMTP fake: ${err.message}`));
-    await new Promise<void>((resolve) => {
-      server.listen(this.config.smtpFakePort, '127.0.0.1', () => resolve());
+    const wanted = this.config.smtpFakePort ?? 0;
+    await new Promise<void>((resolve, reject) => {
       server.server.once('error', (err: NodeJS.ErrnoException) => {
-        // Another API process on this machine already runs the fake; it stores to the same outbox.
-        this.logger.warn(
-          `SMTP fake not started on port ${this.config.smtpFakePort}: ${err.code ?? err.message}`,
+        reject(
+          new Error(
+            `The local SMTP fake cannot listen on 127.0.0.1:${wanted} (${err.code ?? err.message}); ` +
+              'set QG_SMTP_PORT to a free port, or leave it unset to pick one',
+          ),
         );
-        resolve();
       });
+      server.listen(wanted, '127.0.0.1', () => resolve());
     });
     this.server = server;
+    this.endpoint = { port: (server.server.address() as AddressInfo).port, user, pass };
+  }
+
+  /** How MailService reaches the fake; throws when it is not running. */
+  connection(): { port: number; user: string; pass: string } {
+    if (!this.endpoint) throw new Error('The local SMTP fake is not running');
+    return this.endpoint;
   }
 
   async onModuleDestroy(): Promise<void> {

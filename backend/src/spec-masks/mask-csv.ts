@@ -1,5 +1,4 @@
-import Papa from 'papaparse';
-import { numericCell as numeric, readCsvRows } from '../common/csv.js';
+import { numericCell as numeric, readCsvRows, writeCsv } from '../common/csv.js';
 import { LIMIT_BAND_FIELDS, type LimitBand } from '@quietglass/shared/optics/mask';
 import type { CsvProblem } from '../common/csv.js';
 
@@ -89,10 +88,10 @@ export function maskToCsv(bands: readonly LimitBand[]): string {
   const rows = bands.map((b) =>
     MASK_CSV_COLUMNS.map((c) => {
       const v = (b as unknown as Record<string, unknown>)[c];
-      if (v === undefined) return '';
+      if (v === undefined || v === null) return '';
       if (Array.isArray(v)) return v.join(';');
-      return String(v);
+      return typeof v === 'number' ? v : String(v);
     }),
   );
-  return Papa.unparse({ fields: [...MASK_CSV_COLUMNS], data: rows }, { newline: '\n' }) + '\n';
+  return writeCsv(MASK_CSV_COLUMNS, rows);
 }

@@ -16,5 +16,13 @@ export function verifyPassword(plain: string, hash: string): Promise<boolean> {
   return bcrypt.compare(plain, hash);
 }
 
-/** A hash of nothing, compared against when the e-mail is unknown so timing does not tell. */
-export const UNKNOWN_USER_HASH = bcrypt.hashSync('no such user', 4);
+let unknownHash: Promise<string> | null = null;
+
+/**
+ * A hash of nothing at the same cost as real ones, compared against when the e-mail is unknown so
+ * the answer takes as long as for a real account.
+ */
+export function unknownUserHash(): Promise<string> {
+  unknownHash ??= bcrypt.hash('no such user', cost());
+  return unknownHash;
+}

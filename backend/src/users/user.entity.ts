@@ -22,6 +22,10 @@ export class User {
   @Column({ type: 'boolean', default: true })
   active: boolean;
 
+  /** Set when an admin created the account or reset its password; cleared by the user's own change. */
+  @Column({ name: 'must_change_password', type: 'boolean', default: false })
+  mustChangePassword: boolean;
+
   @CreateDateColumn({ name: 'created_at', type: 'timestamptz' })
   createdAt: Date;
 
@@ -37,6 +41,7 @@ export function toUserView(user: User): UserView {
     displayName: user.displayName,
     role: user.role,
     active: user.active,
+    mustChangePassword: user.mustChangePassword,
     createdAt: user.createdAt.toISOString(),
   };
 }

@@ -35,6 +35,6 @@ export class UsersController {
   @Post(':id/password')
   @HttpCode(204)
   async resetPassword(@Param('id', ParseIntPipe) id: number, @Body() dto: SetPasswordDto): Promise<void> {
-    await this.users.setPassword(id, dto.newPassword);
+    await this.users.setPassword(id, dto.newPassword, { kind: 'admin' });
   }
 }

@@ -5,11 +5,15 @@ import { User } from './user.entity.js';
 import type { CreateUserDto } from './dto/create-user.dto.js';
 import type { UpdateUserDto } from './dto/update-user.dto.js';
 import { isUniqueViolation } from '../common/db-errors.js';
+import { SessionsService } from '../sessions/sessions.service.js';
 import { hashPassword } from './passwords.js';
 
 @Injectable()
 export class UsersService {
-  constructor(@InjectRepository(User) private readonly users: Repository<User>) {}
+  constructor(
+    @InjectRepository(User) private readonly users: Repository<User>,
+    private readonly sessions: SessionsService,
+  ) {}
 
   list(): Promise<User[]> {
     return this.users.find({ order: { id: 'ASC' } });
@@ -36,6 +40,8 @@ export class UsersService {
       role: dto.role,
       passwordHash: await hashPassword(dto.password),
       active: true,
+      // The admin chose this password: the user picks their own at first sign-in.
+      mustChangePassword: true,
     });
     try {
       return await this.users.save(user);
@@ -56,15 +62,32 @@ export class UsersService {
     if (id === actorId && dto.active === false) {
       throw new ConflictException('You cannot deactivate yourself; ask another admin');
     }
+    const roleChanged = dto.role !== undefined && dto.role !== user.role;
+    const deactivated = dto.active === false && user.active;
     if (dto.displayName !== undefined) user.displayName = dto.displayName;
     if (dto.role !== undefined) user.role = dto.role;
     if (dto.active !== undefined) user.active = dto.active;
-    return this.users.save(user);
+    const saved = await this.users.save(user);
+    // A session carries what its user could do when it began: a new role or a deactivation ends them.
+    if (deactivated) await this.sessions.endAllOf(id, 'deactivated');
+    else if (roleChanged) await this.sessions.endAllOf(id, 'role-changed');
+    return saved;
   }
 
-  async setPassword(id: number, newPassword: string): Promise<void> {
+  /**
+   * Sets a new password. By an admin (a reset): every session of the user ends and the user must
+   * choose their own at next sign-in. By the user: their other sessions end, this one stays.
+   */
+  async setPassword(
+    id: number,
+    newPassword: string,
+    by: { kind: 'admin' } | { kind: 'self'; keepSession?: string },
+  ): Promise<void> {
     const user = await this.get(id);
     user.passwordHash = await hashPassword(newPassword);
+    user.mustChangePassword = by.kind === 'admin';
     await this.users.save(user);
+    if (by.kind === 'admin') await this.sessions.endAllOf(id, 'password-reset');
+    else await this.sessions.endAllOf(id, 'password-changed', { keep: by.keepSession });
   }
 }

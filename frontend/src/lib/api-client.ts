@@ -1,3 +1,5 @@
+import { CSRF_HEADER } from '@quietglass/shared';
+
 /** Base path of every API route; the dev server proxies it to the API process. */
 export const API_BASE = '/api';
 
@@ -99,7 +101,9 @@ async function readBody(response: Response): Promise<{ ok: true; value: unknown 
  */
 export async function apiRequest<T>(path: string, options: ApiRequestOptions = {}): Promise<T> {
   const { method = 'GET', body, signal } = options;
+  // The API refuses state-changing requests without this header: a cross-site form cannot send it.
   const headers: Record<string, string> = { Accept: 'application/json' };
+  if (method !== 'GET') headers[CSRF_HEADER] = '1';
   if (body !== undefined) headers['Content-Type'] = 'application/json';
 
   let response: Response;

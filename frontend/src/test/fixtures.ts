@@ -8,6 +8,7 @@ export const STAFF: Record<Role, UserView> = {
     displayName: 'Mira Holt',
     role: 'admin',
     active: true,
+    mustChangePassword: false,
     createdAt: '2026-11-02T08:15:00.000Z',
   },
   engineer: {
@@ -16,6 +17,7 @@ export const STAFF: Record<Role, UserView> = {
     displayName: 'Tomas Reyne',
     role: 'engineer',
     active: true,
+    mustChangePassword: false,
     createdAt: '2026-11-03T09:30:00.000Z',
   },
   sales: {
@@ -24,6 +26,7 @@ export const STAFF: Record<Role, UserView> = {
     displayName: 'Ines Calder',
     role: 'sales',
     active: true,
+    mustChangePassword: false,
     createdAt: '2026-11-04T10:45:00.000Z',
   },
   operator: {
@@ -32,6 +35,7 @@ export const STAFF: Record<Role, UserView> = {
     displayName: 'Jonah Pell',
     role: 'operator',
     active: false,
+    mustChangePassword: false,
     createdAt: '2026-11-05T11:00:00.000Z',
   },
 };

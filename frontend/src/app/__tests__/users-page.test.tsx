@@ -13,6 +13,7 @@ const PETRA = {
   displayName: 'Petra Lind',
   role: 'sales' as const,
   active: true,
+  mustChangePassword: false,
   createdAt: '2026-12-01T07:00:00.000Z',
 };
 

@@ -32,8 +32,19 @@ describe('apiClient', () => {
     const { init, body } = api.requests[0];
     expect(init?.method).toBe('PATCH');
     expect(init?.credentials).toBe('same-origin');
-    expect(init?.headers).toEqual({ Accept: 'application/json', 'Content-Type': 'application/json' });
+    // A change carries the header the API requires against cross-site request forgery.
+    expect(init?.headers).toEqual({
+      Accept: 'application/json',
+      'x-quietglass-request': '1',
+      'Content-Type': 'application/json',
+    });
     expect(body).toEqual({ role: 'sales' });
+  });
+
+  it('sends no CSRF header on a read', async () => {
+    const api = mockApi({ 'GET /api/users': { status: 200, body: [] } });
+    await apiClient.get('/users');
+    expect(api.requests[0].init?.headers).toEqual({ Accept: 'application/json' });
   });
 
   it('returns undefined for 204 No Content', async () => {

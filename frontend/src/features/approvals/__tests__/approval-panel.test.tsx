@@ -16,6 +16,7 @@ const MIRA: UserView = {
   displayName: 'Mira Castell',
   role: 'engineer',
   active: true,
+  mustChangePassword: false,
   createdAt: '2026-11-01T08:00:00.000Z',
 };
 const TOMAS: UserView = { ...MIRA, id: 3, email: 'tomas@example.test', displayName: 'Tomas Reyes' };

@@ -1,5 +1,6 @@
-import { useMutation } from '@tanstack/react-query';
+import { useMutation, useQueryClient } from '@tanstack/react-query';
 import { apiClient } from '../../../lib/api-client';
+import { getMeQueryOptions } from './get-me';
 
 export interface ChangePasswordInput {
   currentPassword: string;
@@ -10,7 +11,15 @@ export async function changePassword(input: ChangePasswordInput): Promise<void> 
   await apiClient.post<void>('/auth/password', input);
 }
 
-/** Changes the signed-in user's own password; nothing cached depends on it. */
+/**
+ * Changes the signed-in user's own password. The user is read again: a password an admin set must
+ * be replaced before anything else, and this lifts that.
+ */
 export function useChangePassword() {
-  return useMutation({ mutationFn: changePassword, meta: { errorShownInline: true } });
+  const queryClient = useQueryClient();
+  return useMutation({
+    mutationFn: changePassword,
+    meta: { errorShownInline: true },
+    onSuccess: () => queryClient.invalidateQueries({ queryKey: getMeQueryOptions().queryKey }),
+  });
 }

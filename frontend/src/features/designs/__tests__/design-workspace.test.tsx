@@ -41,6 +41,7 @@ const REVIEWER = {
   displayName: 'Ines Review',
   role: 'engineer' as const,
   active: true,
+  mustChangePassword: false,
   createdAt: '2026-11-01T08:00:00.000Z',
 };
 

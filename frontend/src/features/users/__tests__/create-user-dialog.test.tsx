@@ -17,6 +17,7 @@ const NEW_USER = {
   displayName: 'Petra Lind',
   role: 'operator',
   active: true,
+  mustChangePassword: false,
   createdAt: '2026-12-01T07:00:00.000Z',
 };
 
