@@ -19,7 +19,7 @@ export function useOutbox() {
   return useQuery(getOutboxQueryOptions());
 }
 
-/** Where the browser fetches an attachment (served inline with its own content type). */
+/** Where the browser downloads an attachment (always as a file, never shown as a page). */
 export function outboxAttachmentUrl(messageId: number, attachmentId: number): string {
   return apiUrl(`/outbox/${messageId}/attachments/${attachmentId}`);
 }
