@@ -253,6 +253,21 @@ export async function startPostgres({ dir: wantedDir, port, database, user = 'qu
   };
 }
 
+/** Stops (fast shutdown) the PostgreSQL server that startPostgres runs from `dir`; for fault drills. */
+export function stopPostgresAt(dir) {
+  const bin = findPostgresBin();
+  if (!bin) throw new StartupError('PostgreSQL server binaries not found (Debian package postgresql).');
+  const [cmd, args] = pgRunner().wrap(path.join(bin, 'pg_ctl'), [
+    '-D',
+    path.join(dir, 'pgdata'),
+    '-m',
+    'fast',
+    '-w',
+    'stop',
+  ]);
+  runChecked(cmd, args);
+}
+
 /**
  * Start (or reuse) a Redis server on 127.0.0.1:port with its files in `dir`.
  * `persistent` turns on the append-only file so queued jobs survive a Redis restart.
@@ -313,9 +328,18 @@ export async function startRedis({ dir, port, persistent }) {
   };
 }
 
-/** Spawn a long-running child with prefixed output; resolves nothing, returns the ChildProcess. */
-export function spawnService(name, cmd, args, { env, cwd = ROOT } = {}) {
-  const child = spawn(cmd, args, { cwd, env, stdio: ['ignore', 'pipe', 'pipe'] });
+/**
+ * Spawn a long-running child with prefixed output; resolves nothing, returns the ChildProcess.
+ * `tied`: the child gets QG_SUPERVISED=1 and a stdin pipe we never write to; the API and worker
+ * stop by themselves when it closes, i.e. when this process dies in any way (even SIGKILL).
+ */
+export function spawnService(name, cmd, args, { env, cwd = ROOT, tied = false } = {}) {
+  const child = spawn(cmd, args, {
+    cwd,
+    env: tied ? { ...env, QG_SUPERVISED: '1' } : env,
+    stdio: [tied ? 'pipe' : 'ignore', 'pipe', 'pipe'],
+  });
+  child.stdin?.on('error', () => undefined);
   const prefix = (chunk) =>
     chunk
       .toString()

@@ -19,9 +19,16 @@ import { createSpectrumPlan } from '@quietglass/shared/optics/batch';
 import { OpticsInputError } from '@quietglass/shared/optics/errors';
 import { parseStack } from '@quietglass/shared/optics/stack';
 import { isUniqueViolation } from '../common/db-errors.js';
+import { QueueUnavailableError, isOutage, withDeadline } from '../common/outage.js';
 import { contentHash } from '../common/stable-json.js';
 import { DesignsService } from '../designs/designs.service.js';
-import { ANALYSIS_JOB, COMPUTE_QUEUE, type ComputeJobData } from '../queue/queue.constants.js';
+import {
+  ANALYSIS_JOB,
+  COMPUTE_JOB_OPTIONS,
+  COMPUTE_QUEUE,
+  QUEUE_ADD_TIMEOUT_MS,
+  type ComputeJobData,
+} from '../queue/queue.constants.js';
 import type { User } from '../users/user.entity.js';
 import { Calculation } from './calculation.entity.js';
 import type { OptimiseInput, OptimiseKind } from './optimise-jobs.js';
@@ -95,16 +102,7 @@ export class CalculationsService {
       if (winner) return { calculation: winner, reused: true };
       throw err;
     }
-    await this.queue.add(
-      ANALYSIS_JOB,
-      { calculationId: saved.id },
-      {
-        jobId: jobIdOf(saved),
-        attempts: 1,
-        removeOnComplete: { age: 3600 },
-        removeOnFail: { age: 86_400 },
-      },
-    );
+    await this.enqueue(ANALYSIS_JOB, saved);
     return { calculation: await this.get(saved.id), reused: false };
   }
 
@@ -139,17 +137,30 @@ export class CalculationsService {
       if (winner) return { calculation: winner, reused: true };
       throw err;
     }
-    await this.queue.add(
-      kind,
-      { calculationId: saved.id },
-      {
-        jobId: jobIdOf(saved),
-        attempts: 1,
-        removeOnComplete: { age: 3600 },
-        removeOnFail: { age: 86_400 },
-      },
-    );
+    await this.enqueue(kind, saved);
     return { calculation: await this.get(saved.id), reused: false };
+  }
+
+  /**
+   * Puts the calculation on the compute queue. When Redis does not take it in time the calculation
+   * is marked failed (so it holds no slot and no identical request reuses it) and the API says 503.
+   */
+  private async enqueue(name: string, saved: Calculation): Promise<void> {
+    try {
+      await withDeadline(
+        this.queue.add(name, { calculationId: saved.id }, { jobId: jobIdOf(saved), ...COMPUTE_JOB_OPTIONS }),
+        QUEUE_ADD_TIMEOUT_MS,
+        'queueing the calculation',
+      );
+    } catch (err) {
+      await this.calculations
+        .update(
+          { id: saved.id, status: 'queued' },
+          { status: 'failed', error: 'The job queue was not reachable', finishedAt: new Date() },
+        )
+        .catch(() => undefined);
+      throw isOutage(err) ? err : new QueueUnavailableError(String(err));
+    }
   }
 
   list(): Promise<Calculation[]> {
@@ -176,7 +187,9 @@ export class CalculationsService {
     );
     if (result.affected !== 1) return this.cancelRace(id);
     // A waiting job is removed; a running one sees the status between slices and stops.
-    await this.queue.remove(jobIdOf(calc)).catch(() => 0);
+    await withDeadline(this.queue.remove(jobIdOf(calc)), QUEUE_ADD_TIMEOUT_MS, 'removing the job').catch(
+      () => 0,
+    );
     return this.get(id);
   }
 
