@@ -116,6 +116,8 @@ async function main() {
       SIGNIN_LIMIT: '10',
       WORKER_PING_TIMEOUT_MS: '1500',
       QG_HEALTH_INTERVAL_MS: '1000',
+      // The suites share demo users and leave jobs queued; budgets.e2e-spec checks the real limit.
+      QG_MAX_ACTIVE_JOBS: '1000',
       // The fault drill stops and restarts this PostgreSQL (see backend/test/fault-drill.e2e-spec.ts).
       QG_TEST_PG_DIR: path.join(dataDir, 'postgres'),
       QG_TEST_PG_PORT: String(intEnv('QG_TEST_PG_PORT', 5434)),

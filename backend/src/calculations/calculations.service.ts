@@ -13,6 +13,13 @@ import {
   type AnalysisQuantity,
   type AnalysisSummary,
 } from '@quietglass/shared/analysis';
+import {
+  MAX_ACTIVE_JOBS_PER_USER,
+  overBudget,
+  tooManyActiveJobs,
+  type BudgetedKind,
+  type JobSize,
+} from '@quietglass/shared/budgets';
 import type { CalculationKind } from '@quietglass/shared/calculations';
 import { designStackDescription, engineBackSurface, type NamedModel } from '@quietglass/shared/designs';
 import { createSpectrumPlan } from '@quietglass/shared/optics/batch';
@@ -31,7 +38,7 @@ import {
 } from '../queue/queue.constants.js';
 import type { User } from '../users/user.entity.js';
 import { Calculation } from './calculation.entity.js';
-import type { OptimiseInput, OptimiseKind } from './optimise-jobs.js';
+import { optimiseJobSize, type OptimiseInput, type OptimiseKind } from './optimise-jobs.js';
 
 /**
  * The BullMQ job id of a calculation: one job per calculation, so a double add is a no-op. The
@@ -79,9 +86,14 @@ export class CalculationsService {
       if (err instanceof OpticsInputError) throw new BadRequestException({ message: [err.message] });
       throw err;
     }
+    checkBudget('analysis', {
+      layers: input.stack.layers.length + (input.stack.back_layers?.length ?? 0),
+      samples: input.request.wavelengthCount * input.request.angleCount,
+    });
     const inputHash = contentHash(input);
     const existing = await this.findLive(inputHash);
     if (existing) return { calculation: existing, reused: true };
+    await this.checkActiveJobs(user);
     let saved: Calculation;
     try {
       saved = await this.calculations.save(
@@ -113,9 +125,11 @@ export class CalculationsService {
     user: User,
     where: { designId: number; versionNumber: number; runId?: number },
   ): Promise<{ calculation: Calculation; reused: boolean }> {
+    checkBudget(kind, optimiseJobSize(input));
     const inputHash = contentHash(input);
     const existing = await this.findLive(inputHash, kind);
     if (existing) return { calculation: existing, reused: true };
+    await this.checkActiveJobs(user);
     let saved: Calculation;
     try {
       saved = await this.calculations.save(
@@ -139,6 +153,16 @@ export class CalculationsService {
     }
     await this.enqueue(kind, saved);
     return { calculation: await this.get(saved.id), reused: false };
+  }
+
+  /** A user may have only so many calculations queued or running (an identical request is shared). */
+  private async checkActiveJobs(user: User): Promise<void> {
+    const active = await this.calculations.countBy({
+      createdBy: { id: user.id },
+      status: In(['queued', 'running']),
+    });
+    const limit = activeJobLimit();
+    if (active >= limit) throw new ConflictException(tooManyActiveJobs(active, limit));
   }
 
   /**
@@ -271,6 +295,18 @@ export class CalculationsService {
       `Calculation ${id} is ${now.status}; only a queued or running one can be cancelled`,
     );
   }
+}
+
+/** Jobs a user may have queued or running: QG_MAX_ACTIVE_JOBS, else the shared default. */
+function activeJobLimit(): number {
+  const v = Number(process.env.QG_MAX_ACTIVE_JOBS);
+  return Number.isInteger(v) && v > 0 ? v : MAX_ACTIVE_JOBS_PER_USER;
+}
+
+/** A job larger than its kind's work budget is refused with the limit stated. */
+function checkBudget(kind: BudgetedKind, size: JobSize): void {
+  const problem = overBudget(kind, size);
+  if (problem) throw new BadRequestException({ message: [problem] });
 }
 
 /** Each material must be valid over the whole analysed range: no result from data outside it. */

@@ -203,25 +203,52 @@ export class ComputeProcessor extends WorkerHost implements OnModuleInit, OnModu
       size: envMs('QG_COMPUTE_THREADS', os.availableParallelism()),
     });
     const pool = await this.yieldPool;
-    const result = await pool.forecast(
-      parseStack(input.stack),
-      { bands: input.bands },
-      {
-        ...input.options,
-        layerMaterials: input.layerMaterials,
-        back: input.back,
-        onProgress: (fraction) => {
-          // Fire and forget, but never a rejection left unhandled.
-          job.updateProgress(Math.round(fraction * 100)).catch(() => undefined);
-          this.note(`UPDATE calculations SET progress = $2 WHERE id = $1 AND status = 'running'`, [
-            id,
-            fraction,
-          ]).catch((err: unknown) => this.logger.warn(`calculation ${id} progress: ${String(err)}`));
-          return !signal.aborted;
+    // A chunk of trials can run for seconds: on cancel the threads are ended mid-chunk and a
+    // fresh pool is started for the next job.
+    const stopThreads = () => {
+      this.yieldPool = null;
+      this.stopPool(id, pool);
+    };
+    signal.addEventListener('abort', stopThreads, { once: true });
+    try {
+      const result = await pool.forecast(
+        parseStack(input.stack),
+        { bands: input.bands },
+        {
+          ...input.options,
+          layerMaterials: input.layerMaterials,
+          back: input.back,
+          onProgress: (fraction) => {
+            // Fire and forget, but never a rejection left unhandled.
+            job.updateProgress(Math.round(fraction * 100)).catch(() => undefined);
+            this.note(`UPDATE calculations SET progress = $2 WHERE id = $1 AND status = 'running'`, [
+              id,
+              fraction,
+            ]).catch((err: unknown) => this.logger.warn(`calculation ${id} progress: ${String(err)}`));
+            return !signal.aborted;
+          },
         },
-      },
-    );
-    return result.stoppedBy === 'cancelled' ? null : result;
+      );
+      return result.stoppedBy === 'cancelled' || signal.aborted ? null : result;
+    } catch (err) {
+      if (signal.aborted) return null;
+      throw err;
+    } finally {
+      signal.removeEventListener('abort', stopThreads);
+    }
+  }
+
+  /** Ends a pool's threads (cancel) and logs how long they took to stop. */
+  private stopPool(id: number, pool: { close(): Promise<void> }): void {
+    const started = performance.now();
+    pool
+      .close()
+      .then(() =>
+        this.logger.log(
+          `calculation ${id} cancelled: its threads stopped ${Math.round(performance.now() - started)} ms after the cancel was seen`,
+        ),
+      )
+      .catch((err: unknown) => this.logger.warn(`calculation ${id}: stopping threads: ${String(err)}`));
   }
 
   private async claim(id: number): Promise<{ input: unknown } | null> {
@@ -251,9 +278,15 @@ export class ComputeProcessor extends WorkerHost implements OnModuleInit, OnModu
     const input = claimed.input as AnalysisInput;
     const started = performance.now();
     const watch = this.watchCancel(id);
+    const threads = await this.threads();
+    const stopThreads = () => {
+      this.pool = null;
+      this.stopPool(id, threads);
+    };
+    watch.signal.addEventListener('abort', stopThreads, { once: true });
     let outcome: { summary: AnalysisSummary; values: Float64Array };
     try {
-      outcome = await runAnalysis(input, await this.threads(), {
+      outcome = await runAnalysis(input, threads, {
         onProgress: async (fraction) => {
           await job.updateProgress(Math.round(fraction * 100)).catch(() => undefined);
           await this.note(`UPDATE calculations SET progress = $2 WHERE id = $1 AND status = 'running'`, [
@@ -264,9 +297,11 @@ export class ComputeProcessor extends WorkerHost implements OnModuleInit, OnModu
         isCancelled: () => Promise.resolve(watch.signal.aborted),
       });
     } catch (err) {
-      if (err instanceof AnalysisCancelled) return { calculationId: id, outcome: 'cancelled' };
+      if (err instanceof AnalysisCancelled || watch.signal.aborted)
+        return { calculationId: id, outcome: 'cancelled' };
       throw err;
     } finally {
+      watch.signal.removeEventListener('abort', stopThreads);
       watch.stop();
     }
     const { summary, values } = outcome;
