@@ -136,27 +136,27 @@ function pgRunner() {
 }
 
 /**
- * The postgres system user must be able to enter the data folder (every parent needs o+x). When
- * the project sits in a folder closed to other users, the server's files go to a folder of the
- * system's temporary directory named after the project's path instead, and we say so.
+ * The postgres system user must be able to enter and write the data folder (every parent needs
+ * o+x). When it cannot, start-up stops and names the folder that blocks it: the database is never
+ * moved elsewhere (a temporary folder could be emptied at the next boot).
  */
 function reachableByPostgres(dir) {
   fs.mkdirSync(dir, { recursive: true });
   runChecked('chown', ['postgres', dir]);
   if (run('runuser', ['-u', 'postgres', '--', 'test', '-w', dir]).status === 0) return dir;
-  const fallback = path.join(
-    os.tmpdir(),
-    `quietglass-pg-${createHash('sha256').update(dir).digest('hex').slice(0, 12)}`,
-  );
-  fs.mkdirSync(fallback, { recursive: true, mode: 0o755 });
-  runChecked('chown', ['postgres', fallback]);
-  if (run('runuser', ['-u', 'postgres', '--', 'test', '-w', fallback]).status !== 0) {
-    throw new StartupError(
-      `The postgres system user can write neither to ${dir} nor to ${fallback}; set QG_DATA_DIR.`,
-    );
+  let blocking = dir;
+  const parts = path.resolve(dir).split(path.sep).filter(Boolean);
+  for (let n = 1; n <= parts.length; n++) {
+    const at = path.sep + parts.slice(0, n).join(path.sep);
+    if (run('runuser', ['-u', 'postgres', '--', 'test', '-x', at]).status !== 0) {
+      blocking = at;
+      break;
+    }
   }
-  log(`the postgres system user cannot enter ${dir}; keeping PostgreSQL's files in ${fallback}`);
-  return fallback;
+  throw new StartupError(
+    `The postgres system user cannot use the data folder ${dir}: it cannot enter ${blocking}. ` +
+      `Allow it (chmod o+x ${blocking}) or set QG_DATA_DIR to a folder it can reach. Nothing was started or moved.`,
+  );
 }
 
 /**

@@ -1,4 +1,5 @@
 import { BadRequestException, ConflictException, Injectable, NotFoundException } from '@nestjs/common';
+import { Readable } from 'node:stream';
 import { InjectQueue } from '@nestjs/bullmq';
 import { InjectRepository } from '@nestjs/typeorm';
 import { Queue } from 'bullmq';
@@ -44,6 +45,9 @@ import { optimiseJobSize, type OptimiseInput, type OptimiseKind } from './optimi
  * The BullMQ job id of a calculation: one job per calculation, so a double add is a no-op. The
  * creation time keeps ids unique even when a database is recreated while Redis keeps old jobs.
  */
+/** Lines per piece of a streamed result CSV. */
+const CSV_LINES_PER_PIECE = 4000;
+
 export const jobIdOf = (c: Pick<Calculation, 'id' | 'createdAt'>) => `calc-${c.id}-${c.createdAt.getTime()}`;
 
 @Injectable()
@@ -252,19 +256,32 @@ export class CalculationsService {
     };
   }
 
-  /** The whole result as CSV: `wavelength_nm,angle_deg,pol,R,T,A` (fractions, full precision). */
-  async resultCsv(id: number): Promise<string> {
+  /**
+   * The whole result as CSV: `wavelength_nm,angle_deg,pol,R,T,A` (fractions, full precision),
+   * produced in pieces of a few thousand lines as the client reads them, so a large result never
+   * sits in memory as one string and the event loop is given back between pieces.
+   */
+  async resultCsv(id: number): Promise<Readable> {
     const { summary, values } = await this.completed(id);
-    const lines = ['wavelength_nm,angle_deg,pol,R,T,A'];
-    for (const pol of ANALYSIS_POLARISATIONS) {
-      summary.anglesDeg.forEach((angle, ia) => {
-        summary.wavelengthsNm.forEach((wl, iw) => {
-          const at = (q: AnalysisQuantity) => values[analysisIndex(summary, q, pol, ia, iw)];
-          lines.push(`${wl},${angle},${pol},${at('R')},${at('T')},${at('A')}`);
-        });
-      });
+    function* lines(): Generator<string> {
+      yield 'wavelength_nm,angle_deg,pol,R,T,A\n';
+      let chunk: string[] = [];
+      for (const pol of ANALYSIS_POLARISATIONS) {
+        for (let ia = 0; ia < summary.anglesDeg.length; ia++) {
+          const angle = summary.anglesDeg[ia];
+          for (let iw = 0; iw < summary.wavelengthsNm.length; iw++) {
+            const at = (q: AnalysisQuantity) => values[analysisIndex(summary, q, pol, ia, iw)];
+            chunk.push(`${summary.wavelengthsNm[iw]},${angle},${pol},${at('R')},${at('T')},${at('A')}\n`);
+            if (chunk.length === CSV_LINES_PER_PIECE) {
+              yield chunk.join('');
+              chunk = [];
+            }
+          }
+        }
+      }
+      if (chunk.length > 0) yield chunk.join('');
     }
-    return lines.join('\n') + '\n';
+    return Readable.from(lines(), { objectMode: false, highWaterMark: 1 << 16 });
   }
 
   private async completed(id: number): Promise<{ summary: AnalysisSummary; values: Float64Array }> {
