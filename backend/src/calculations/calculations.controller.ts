@@ -1,4 +1,16 @@
-import { Body, Controller, Get, Param, ParseIntPipe, Post, Query, Res, StreamableFile } from '@nestjs/common';
+import {
+  Body,
+  Controller,
+  Delete,
+  Get,
+  HttpCode,
+  Param,
+  ParseIntPipe,
+  Post,
+  Query,
+  Res,
+  StreamableFile,
+} from '@nestjs/common';
 import type { Response } from 'express';
 import { CurrentUser } from '../auth/current-user.decorator.js';
 import { Roles } from '../auth/roles.decorator.js';
@@ -134,5 +146,12 @@ export class CalculationsController {
   @Post('calculations/:id/cancel')
   async cancel(@Param('id', ParseIntPipe) id: number): Promise<CalculationView> {
     return toCalculationView(await this.calculations.cancel(id));
+  }
+
+  /** Owner or admin; 204. */
+  @Delete('calculations/:id')
+  @HttpCode(204)
+  async remove(@Param('id', ParseIntPipe) id: number, @CurrentUser() user: User): Promise<void> {
+    await this.calculations.remove(id, user);
   }
 }

@@ -1,4 +1,11 @@
-import { BadRequestException, ConflictException, Injectable, NotFoundException } from '@nestjs/common';
+import {
+  BadRequestException,
+  ConflictException,
+  ForbiddenException,
+  Injectable,
+  Logger,
+  NotFoundException,
+} from '@nestjs/common';
 import { Readable } from 'node:stream';
 import { InjectQueue } from '@nestjs/bullmq';
 import { InjectRepository } from '@nestjs/typeorm';
@@ -52,6 +59,8 @@ export const jobIdOf = (c: Pick<Calculation, 'id' | 'createdAt'>) => `calc-${c.i
 
 @Injectable()
 export class CalculationsService {
+  private readonly logger = new Logger('Calculations');
+
   constructor(
     @InjectRepository(Calculation) private readonly calculations: Repository<Calculation>,
     @InjectQueue(COMPUTE_QUEUE) private readonly queue: Queue<ComputeJobData>,
@@ -219,6 +228,36 @@ export class CalculationsService {
       () => 0,
     );
     return this.get(id);
+  }
+
+  /**
+   * Deletes a calculation and its stored result, for the user who asked for it or an admin. A
+   * queued or running one is taken off the queue; its worker sees it gone and stops. Who deleted
+   * what is written to the structured log.
+   */
+  async remove(id: number, user: User): Promise<void> {
+    const calc = await this.get(id);
+    if (user.role !== 'admin' && calc.createdBy.id !== user.id) {
+      throw new ForbiddenException(
+        `Only ${calc.createdBy.displayName}, who asked for calculation ${id}, or an admin may delete it`,
+      );
+    }
+    await this.calculations.delete({ id });
+    await withDeadline(this.queue.remove(jobIdOf(calc)), QUEUE_ADD_TIMEOUT_MS, 'removing the job').catch(
+      () => 0,
+    );
+    this.logger.log(
+      JSON.stringify({
+        event: 'calculation.deleted',
+        calculationId: id,
+        kind: calc.kind,
+        status: calc.status,
+        designId: calc.designId,
+        createdBy: calc.createdBy.id,
+        deletedBy: user.id,
+        at: new Date().toISOString(),
+      }),
+    );
   }
 
   /** One quantity and polarisation of a completed analysis, as rows per angle. */
