@@ -74,10 +74,14 @@ async function main() {
     } else {
       const out = path.resolve(file ?? path.join(ROOT, '.data', 'backups', `quietglass-${stamp()}.dump`));
       fs.mkdirSync(path.dirname(out), { recursive: true });
-      const res = spawnSync(pgTool('pg_dump'), ['--format=custom', '--no-owner', '--file', out, url], {
-        env,
-        stdio: ['ignore', 'inherit', 'inherit'],
-      });
+      const res = spawnSync(
+        pgTool('pg_dump'),
+        ['--format=custom', '--compress=1', '--no-owner', '--file', out, url],
+        {
+          env,
+          stdio: ['ignore', 'inherit', 'inherit'],
+        },
+      );
       if (res.status !== 0) {
         fs.rmSync(out, { force: true });
         throw new StartupError(`pg_dump failed (exit ${res.status}); no backup was written`);

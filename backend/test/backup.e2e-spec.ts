@@ -72,7 +72,8 @@ describe('backups', () => {
     );
     // pg_dump's custom format starts with the magic bytes "PGDMP" (PostgreSQL docs, pg_dump -Fc).
     expect((res.body as Buffer).subarray(0, 5).toString('latin1')).toBe('PGDMP');
-  });
+    // The whole test database, with the stored results of every suite before this one.
+  }, 180_000);
 
   it('npm run backup, a wiped schema and npm run restore give back every table exactly', async () => {
     const { databaseUrl } = requireE2eEnv();

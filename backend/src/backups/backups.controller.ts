@@ -35,7 +35,7 @@ export class BackupsController {
     const u = new URL(this.config.databaseUrl);
     const password = decodeURIComponent(u.password);
     u.password = '';
-    const child = spawn(pgDumpPath(), ['--format=custom', '--no-owner', u.toString()], {
+    const child = spawn(pgDumpPath(), ['--format=custom', '--compress=1', '--no-owner', u.toString()], {
       env: { ...process.env, PGPASSWORD: password },
       stdio: ['ignore', 'pipe', 'pipe'],
     });
