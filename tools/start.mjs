@@ -2,6 +2,12 @@
 // `npm start`: installs what is missing, starts PostgreSQL and Redis on 127.0.0.1 in .data/,
 // migrates and seeds the demo shop, builds and starts the API, the worker and the client.
 // `npm run dev`: the same, with Vite's dev server for the client.
+// It supervises what it started: a crashed API, worker or client is restarted with growing delays
+// (1, 2, 4 … 30 s; back to 1 s once a process has run a minute), and SIGINT or SIGTERM stops
+// everything. The API and worker also stop by themselves when this process dies (see
+// spawnService's `tied`), so none is left behind as an orphan.
+//   --keep-services  leave PostgreSQL and Redis running on exit
+//   --no-build       use the existing builds (serves the client only when frontend/dist exists)
 // Plain Node on purpose: it runs before npm dependencies are installed.
 import fs from 'node:fs';
 import path from 'node:path';
@@ -22,6 +28,7 @@ import {
 const args = new Set(process.argv.slice(2));
 const dev = args.has('--dev');
 const keepServices = args.has('--keep-services');
+const noBuild = args.has('--no-build');
 
 function intEnv(name, fallback) {
   const raw = process.env[name];
@@ -32,19 +39,54 @@ function intEnv(name, fallback) {
   return n;
 }
 
-const children = [];
+/** Supervised processes by name: the running child and a pending restart. */
+const services = new Map();
 const stoppers = [];
 let shuttingDown = false;
+
+function delayEnv(name, fallback) {
+  const n = Number(process.env[name]);
+  return Number.isFinite(n) && n > 0 ? n : fallback;
+}
+const RESTART_BASE_MS = delayEnv('QG_RESTART_DELAY_MS', 1000);
+const RESTART_MAX_MS = 30_000;
+const STABLE_MS = 60_000;
+
+/** Starts a process and restarts it with exponential backoff whenever it stops on its own. */
+function supervise(name, cmd, cmdArgs, opts) {
+  const state = { child: null, timer: null, restarts: 0 };
+  services.set(name, state);
+  const launch = () => {
+    state.timer = null;
+    const startedAt = Date.now();
+    const child = spawnService(name, cmd, cmdArgs, opts);
+    state.child = child;
+    if (state.restarts > 0) child.once('spawn', () => log(`${name} restarted (pid ${child.pid})`));
+    child.once('exit', (code, signal) => {
+      if (shuttingDown) return;
+      if (Date.now() - startedAt > STABLE_MS) state.restarts = 0;
+      const delay = Math.min(RESTART_MAX_MS, RESTART_BASE_MS * 2 ** state.restarts);
+      state.restarts++;
+      log(
+        `${name} stopped unexpectedly (${signal ?? `exit ${code}`}); restarting it in ${(delay / 1000).toFixed(1)} s (restart ${state.restarts})`,
+      );
+      state.timer = setTimeout(launch, delay);
+    });
+  };
+  launch();
+}
 
 async function shutdown(code) {
   if (shuttingDown) return;
   shuttingDown = true;
   log('stopping…');
   await Promise.all(
-    children.map(
-      (child) =>
+    [...services.values()].map(
+      (state) =>
         new Promise((resolve) => {
-          if (child.exitCode !== null || child.signalCode !== null) return resolve();
+          if (state.timer) clearTimeout(state.timer);
+          const child = state.child;
+          if (!child || child.exitCode !== null || child.signalCode !== null) return resolve();
           const timer = setTimeout(() => child.kill('SIGKILL'), 10_000);
           child.once('exit', () => {
             clearTimeout(timer);
@@ -55,6 +97,7 @@ async function shutdown(code) {
     ),
   );
   if (!keepServices) for (const stop of stoppers.reverse()) stop();
+  log('stopped');
   process.exit(code);
 }
 
@@ -65,6 +108,12 @@ async function main() {
   }
   process.on('SIGINT', () => void shutdown(0));
   process.on('SIGTERM', () => void shutdown(0));
+  process.on('SIGHUP', () => void shutdown(0));
+  // Whoever started us (npm, a shell) went away without passing a signal on: stop too.
+  const parent = process.ppid;
+  setInterval(() => {
+    if (process.ppid !== parent) void shutdown(0);
+  }, 1000).unref();
 
   ensureNpmDependencies();
   const dataDir = path.resolve(process.env.QG_DATA_DIR ?? path.join(ROOT, '.data'));
@@ -106,9 +155,12 @@ async function main() {
     JWT_SECRET: process.env.JWT_SECRET ?? readOrCreateSecret(path.join(dataDir, 'jwt-secret'), 48),
   };
 
-  runStep('building the optics engine (shared)…', 'npm', ['run', 'build', '-w', 'shared', '--silent']);
-  runStep('building the API and worker (backend)…', 'npm', ['run', 'build', '-w', 'backend', '--silent']);
-  if (!dev) runStep('building the client (frontend)…', 'npm', ['run', 'build', '-w', 'frontend', '--silent']);
+  if (!noBuild) {
+    runStep('building the optics engine (shared)…', 'npm', ['run', 'build', '-w', 'shared', '--silent']);
+    runStep('building the API and worker (backend)…', 'npm', ['run', 'build', '-w', 'backend', '--silent']);
+    if (!dev)
+      runStep('building the client (frontend)…', 'npm', ['run', 'build', '-w', 'frontend', '--silent']);
+  }
   const credentialsFile = path.join(dataDir, 'demo-sign-ins.json');
   runStep(
     'migrating the database and seeding the demo shop…',
@@ -117,32 +169,18 @@ async function main() {
     { env },
   );
 
-  const apiEnv = dev ? env : { ...env, CLIENT_DIST: path.join(ROOT, 'frontend', 'dist') };
-  const watch = (name, child) => {
-    children.push(child);
-    child.once('exit', (code, signal) => {
-      if (shuttingDown) return;
-      log(`${name} stopped unexpectedly (${signal ?? `exit ${code}`}); stopping the rest`);
-      void shutdown(1);
-    });
-  };
-  watch('api', spawnService('api', 'node', ['backend/dist/main.js'], { env: apiEnv }));
-  watch('worker', spawnService('worker', 'node', ['backend/dist/worker/main.js'], { env }));
+  const clientDist = path.join(ROOT, 'frontend', 'dist');
+  const serveClient = !dev && (!noBuild || fs.existsSync(path.join(clientDist, 'index.html')));
+  const apiEnv = serveClient ? { ...env, CLIENT_DIST: clientDist } : env;
+  supervise('api', 'node', ['backend/dist/main.js'], { env: apiEnv, tied: true });
+  supervise('worker', 'node', ['backend/dist/worker/main.js'], { env, tied: true });
   let clientUrl = `http://127.0.0.1:${port}/`;
   if (dev) {
     const vitePort = intEnv('QG_VITE_PORT', 5173);
-    watch(
-      'client',
-      spawnService(
-        'client',
-        'npx',
-        ['vite', '--port', String(vitePort), '--strictPort', '--host', '127.0.0.1'],
-        {
-          env: { ...env, QG_API_PORT: String(port) },
-          cwd: path.join(ROOT, 'frontend'),
-        },
-      ),
-    );
+    supervise('client', 'npx', ['vite', '--port', String(vitePort), '--strictPort', '--host', '127.0.0.1'], {
+      env: { ...env, QG_API_PORT: String(port) },
+      cwd: path.join(ROOT, 'frontend'),
+    });
     clientUrl = `http://127.0.0.1:${vitePort}/`;
   }
 

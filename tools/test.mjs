@@ -28,9 +28,13 @@ const only = onlyIdx >= 0 ? (process.argv[onlyIdx + 1] ?? '').split(',').filter(
 for (const s of only)
   if (!STAGES.includes(s)) throw new StartupError(`unknown stage "${s}"; stages: ${STAGES.join(', ')}`);
 
-// `--filter PATTERN` narrows the vitest runs to matching test files (handy while working on one).
+// `--filter PATTERN[,PATTERN…]` narrows the vitest runs to matching test files (handy while working on one).
 const filterIdx = process.argv.indexOf('--filter');
-const filter = filterIdx >= 0 ? ['--passWithNoTests', process.argv[filterIdx + 1]] : [];
+// Several patterns may be given comma-separated (`--filter health,roles`).
+const filter =
+  filterIdx >= 0
+    ? ['--passWithNoTests', ...(process.argv[filterIdx + 1] ?? '').split(',').filter(Boolean)]
+    : [];
 const results = [];
 const stoppers = [];
 const children = [];
@@ -111,6 +115,13 @@ async function main() {
       BCRYPT_COST: '4',
       SIGNIN_LIMIT: '10',
       WORKER_PING_TIMEOUT_MS: '1500',
+      QG_HEALTH_INTERVAL_MS: '1000',
+      // The suites share demo users and leave jobs queued; budgets.e2e-spec checks the real limit.
+      QG_MAX_ACTIVE_JOBS: '1000',
+      // The fault drill stops and restarts this PostgreSQL (see backend/test/fault-drill.e2e-spec.ts).
+      QG_TEST_PG_DIR: path.join(dataDir, 'postgres'),
+      QG_TEST_PG_PORT: String(intEnv('QG_TEST_PG_PORT', 5434)),
+      QG_TEST_PORT: String(intEnv('QG_TEST_PORT', 3100)),
     };
   }
   const backendDir = path.join(ROOT, 'backend');

@@ -4,7 +4,7 @@ import { defineConfig } from 'vitest/config';
 // global setup builds the shared workspace once first. Browser tests have their own config.
 export default defineConfig({
   test: {
-    include: ['calc/**/*.test.ts', 'bench/**/*.test.ts'],
+    include: ['calc/**/*.test.ts', 'bench/**/*.test.ts', 'lib/**/*.test.ts'],
     globalSetup: ['./calc/build-shared.setup.ts'],
     testTimeout: 120_000,
   },

@@ -4,6 +4,7 @@ import { TypeOrmModule } from '@nestjs/typeorm';
 import { appConfig, type AppConfig } from './config/configuration.js';
 import { dataSourceOptions } from './database/data-source.js';
 import { AuthModule } from './auth/auth.module.js';
+import { BackupsModule } from './backups/backups.module.js';
 import { CalculationsModule } from './calculations/calculations.module.js';
 import { ChambersModule } from './chambers/chambers.module.js';
 import { CustomersModule } from './customers/customers.module.js';
@@ -37,6 +38,7 @@ import { UsersModule } from './users/users.module.js';
     ReportsModule,
     MailModule,
     QuotesModule,
+    BackupsModule,
   ],
 })
 export class AppModule {}

@@ -3,6 +3,7 @@ import { NestFactory } from '@nestjs/core';
 import type { NestExpressApplication } from '@nestjs/platform-express';
 import { AppModule } from './app.module.js';
 import { configureApp } from './app.setup.js';
+import { installProcessGuards } from './common/process-guards.js';
 import { loadConfig } from './config/configuration.js';
 
 async function main(): Promise<void> {
@@ -14,8 +15,9 @@ async function main(): Promise<void> {
     logger: quiet ? ['error', 'warn'] : ['error', 'warn', 'log'],
   });
   configureApp(app, config.clientDist);
+  installProcessGuards('Api', () => app.close());
   await app.listen(config.port, config.host);
-  console.log(`API listening on http://${config.host}:${config.port}/api`);
+  console.log(`API ${process.pid} listening on http://${config.host}:${config.port}/api`);
 }
 
 main().catch((err: unknown) => {

@@ -84,4 +84,29 @@ describe('demo shop', () => {
       (recipes.body as { name: string }[]).filter((r) => r.name === 'HVS-2210 four-layer AR'),
     ).toHaveLength(1);
   });
+
+  it('never re-creates a demo record the shop renamed', async () => {
+    const { databaseUrl, credentialsFile } = requireE2eEnv();
+    const db = new DataSource(dataSourceOptions(databaseUrl));
+    await db.initialize();
+    try {
+      const [chamber] = (await db.query(`SELECT id, name FROM chambers WHERE name = 'Box coater B2'`)) as {
+        id: number;
+        name: string;
+      }[];
+      expect(chamber).toBeDefined();
+      await db.query(`UPDATE chambers SET name = 'Box coater B2 (renamed)' WHERE id = $1`, [chamber.id]);
+      try {
+        expect(await seedDemo(db, demoSignIns(credentialsFile))).toBe(0);
+        const rows = (await db.query(`SELECT name FROM chambers WHERE name LIKE 'Box coater B2%'`)) as {
+          name: string;
+        }[];
+        expect(rows.map((r) => r.name)).toEqual(['Box coater B2 (renamed)']);
+      } finally {
+        await db.query(`UPDATE chambers SET name = 'Box coater B2' WHERE id = $1`, [chamber.id]);
+      }
+    } finally {
+      await db.destroy();
+    }
+  });
 });

@@ -8,7 +8,7 @@ import { afterAll, afterEach, beforeAll, beforeEach, describe, expect, it } from
 import { CSRF_HEADER } from '@quietglass/shared';
 import { loadConfig } from '../src/config/configuration.js';
 import { SmtpFakeService } from '../src/mail/smtp-fake.service.js';
-import { createTestApp, demoSession, sessionCookie } from './support/app.js';
+import { createTestApp, demoSession, sessionCookie, sessionWithOwnPassword } from './support/app.js';
 import { demoSignIn } from './support/env.js';
 import { rawRequest } from './support/request.js';
 
@@ -46,13 +46,8 @@ async function readyUser(role: 'engineer' | 'sales' = 'engineer') {
     .set('Cookie', admin)
     .send({ email, displayName: `Sec User ${counter}`, role, password: 'admin-set-password' });
   expect(created.status).toBe(201);
-  const first = await sessionCookie(app, email, 'admin-set-password');
-  const own = await http()
-    .post('/api/auth/password')
-    .set('Cookie', first)
-    .send({ currentPassword: 'admin-set-password', newPassword: 'own-chosen-password' });
-  expect(own.status).toBe(204);
-  return { id: created.body.id as number, email, password: 'own-chosen-password', cookie: first };
+  const cookie = await sessionWithOwnPassword(app, email, 'admin-set-password');
+  return { id: created.body.id as number, email, password: 'admin-set-password-own', cookie };
 }
 
 const me = (cookie: string) => http().get('/api/auth/me').set('Cookie', cookie);

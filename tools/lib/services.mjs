@@ -136,27 +136,27 @@ function pgRunner() {
 }
 
 /**
- * The postgres system user must be able to enter the data folder (every parent needs o+x). When
- * the project sits in a folder closed to other users, the server's files go to a folder of the
- * system's temporary directory named after the project's path instead, and we say so.
+ * The postgres system user must be able to enter and write the data folder (every parent needs
+ * o+x). When it cannot, start-up stops and names the folder that blocks it: the database is never
+ * moved elsewhere (a temporary folder could be emptied at the next boot).
  */
 function reachableByPostgres(dir) {
   fs.mkdirSync(dir, { recursive: true });
   runChecked('chown', ['postgres', dir]);
   if (run('runuser', ['-u', 'postgres', '--', 'test', '-w', dir]).status === 0) return dir;
-  const fallback = path.join(
-    os.tmpdir(),
-    `quietglass-pg-${createHash('sha256').update(dir).digest('hex').slice(0, 12)}`,
-  );
-  fs.mkdirSync(fallback, { recursive: true, mode: 0o755 });
-  runChecked('chown', ['postgres', fallback]);
-  if (run('runuser', ['-u', 'postgres', '--', 'test', '-w', fallback]).status !== 0) {
-    throw new StartupError(
-      `The postgres system user can write neither to ${dir} nor to ${fallback}; set QG_DATA_DIR.`,
-    );
+  let blocking = dir;
+  const parts = path.resolve(dir).split(path.sep).filter(Boolean);
+  for (let n = 1; n <= parts.length; n++) {
+    const at = path.sep + parts.slice(0, n).join(path.sep);
+    if (run('runuser', ['-u', 'postgres', '--', 'test', '-x', at]).status !== 0) {
+      blocking = at;
+      break;
+    }
   }
-  log(`the postgres system user cannot enter ${dir}; keeping PostgreSQL's files in ${fallback}`);
-  return fallback;
+  throw new StartupError(
+    `The postgres system user cannot use the data folder ${dir}: it cannot enter ${blocking}. ` +
+      `Allow it (chmod o+x ${blocking}) or set QG_DATA_DIR to a folder it can reach. Nothing was started or moved.`,
+  );
 }
 
 /**
@@ -253,6 +253,21 @@ export async function startPostgres({ dir: wantedDir, port, database, user = 'qu
   };
 }
 
+/** Stops (fast shutdown) the PostgreSQL server that startPostgres runs from `dir`; for fault drills. */
+export function stopPostgresAt(dir) {
+  const bin = findPostgresBin();
+  if (!bin) throw new StartupError('PostgreSQL server binaries not found (Debian package postgresql).');
+  const [cmd, args] = pgRunner().wrap(path.join(bin, 'pg_ctl'), [
+    '-D',
+    path.join(dir, 'pgdata'),
+    '-m',
+    'fast',
+    '-w',
+    'stop',
+  ]);
+  runChecked(cmd, args);
+}
+
 /**
  * Start (or reuse) a Redis server on 127.0.0.1:port with its files in `dir`.
  * `persistent` turns on the append-only file so queued jobs survive a Redis restart.
@@ -313,9 +328,18 @@ export async function startRedis({ dir, port, persistent }) {
   };
 }
 
-/** Spawn a long-running child with prefixed output; resolves nothing, returns the ChildProcess. */
-export function spawnService(name, cmd, args, { env, cwd = ROOT } = {}) {
-  const child = spawn(cmd, args, { cwd, env, stdio: ['ignore', 'pipe', 'pipe'] });
+/**
+ * Spawn a long-running child with prefixed output; resolves nothing, returns the ChildProcess.
+ * `tied`: the child gets QG_SUPERVISED=1 and a stdin pipe we never write to; the API and worker
+ * stop by themselves when it closes, i.e. when this process dies in any way (even SIGKILL).
+ */
+export function spawnService(name, cmd, args, { env, cwd = ROOT, tied = false } = {}) {
+  const child = spawn(cmd, args, {
+    cwd,
+    env: tied ? { ...env, QG_SUPERVISED: '1' } : env,
+    stdio: [tied ? 'pipe' : 'ignore', 'pipe', 'pipe'],
+  });
+  child.stdin?.on('error', () => undefined);
   const prefix = (chunk) =>
     chunk
       .toString()

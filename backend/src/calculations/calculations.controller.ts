@@ -1,4 +1,16 @@
-import { Body, Controller, Get, Header, Param, ParseIntPipe, Post, Query, Res } from '@nestjs/common';
+import {
+  Body,
+  Controller,
+  Delete,
+  Get,
+  HttpCode,
+  Param,
+  ParseIntPipe,
+  Post,
+  Query,
+  Res,
+  StreamableFile,
+} from '@nestjs/common';
 import type { Response } from 'express';
 import { CurrentUser } from '../auth/current-user.decorator.js';
 import { Roles } from '../auth/roles.decorator.js';
@@ -121,19 +133,25 @@ export class CalculationsController {
     return this.calculations.result(id, quantity, polarisation);
   }
 
+  /** Streamed: a large result is never held in memory as one string. */
   @Get('calculations/:id/result.csv')
   @Roles('admin', 'engineer', 'sales')
-  @Header('Content-Type', 'text/csv; charset=utf-8')
-  async resultCsv(
-    @Param('id', ParseIntPipe) id: number,
-    @Res({ passthrough: true }) res: Response,
-  ): Promise<string> {
-    res.setHeader('Content-Disposition', `attachment; filename="analysis-${id}.csv"`);
-    return this.calculations.resultCsv(id);
+  async resultCsv(@Param('id', ParseIntPipe) id: number): Promise<StreamableFile> {
+    return new StreamableFile(await this.calculations.resultCsv(id), {
+      type: 'text/csv; charset=utf-8',
+      disposition: `attachment; filename="analysis-${id}.csv"`,
+    });
   }
 
   @Post('calculations/:id/cancel')
   async cancel(@Param('id', ParseIntPipe) id: number): Promise<CalculationView> {
     return toCalculationView(await this.calculations.cancel(id));
+  }
+
+  /** Owner or admin; 204. */
+  @Delete('calculations/:id')
+  @HttpCode(204)
+  async remove(@Param('id', ParseIntPipe) id: number, @CurrentUser() user: User): Promise<void> {
+    await this.calculations.remove(id, user);
   }
 }

@@ -1,4 +1,12 @@
-import { BadRequestException, ConflictException, Injectable, NotFoundException } from '@nestjs/common';
+import {
+  BadRequestException,
+  ConflictException,
+  ForbiddenException,
+  Injectable,
+  Logger,
+  NotFoundException,
+} from '@nestjs/common';
+import { Readable } from 'node:stream';
 import { InjectQueue } from '@nestjs/bullmq';
 import { InjectRepository } from '@nestjs/typeorm';
 import { Queue } from 'bullmq';
@@ -13,27 +21,46 @@ import {
   type AnalysisQuantity,
   type AnalysisSummary,
 } from '@quietglass/shared/analysis';
+import {
+  MAX_ACTIVE_JOBS_PER_USER,
+  overBudget,
+  tooManyActiveJobs,
+  type BudgetedKind,
+  type JobSize,
+} from '@quietglass/shared/budgets';
 import type { CalculationKind } from '@quietglass/shared/calculations';
 import { designStackDescription, engineBackSurface, type NamedModel } from '@quietglass/shared/designs';
 import { createSpectrumPlan } from '@quietglass/shared/optics/batch';
 import { OpticsInputError } from '@quietglass/shared/optics/errors';
 import { parseStack } from '@quietglass/shared/optics/stack';
 import { isUniqueViolation } from '../common/db-errors.js';
+import { QueueUnavailableError, isOutage, withDeadline } from '../common/outage.js';
 import { contentHash } from '../common/stable-json.js';
 import { DesignsService } from '../designs/designs.service.js';
-import { ANALYSIS_JOB, COMPUTE_QUEUE, type ComputeJobData } from '../queue/queue.constants.js';
+import {
+  ANALYSIS_JOB,
+  COMPUTE_JOB_OPTIONS,
+  COMPUTE_QUEUE,
+  QUEUE_ADD_TIMEOUT_MS,
+  type ComputeJobData,
+} from '../queue/queue.constants.js';
 import type { User } from '../users/user.entity.js';
 import { Calculation } from './calculation.entity.js';
-import type { OptimiseInput, OptimiseKind } from './optimise-jobs.js';
+import { optimiseJobSize, type OptimiseInput, type OptimiseKind } from './optimise-jobs.js';
 
 /**
  * The BullMQ job id of a calculation: one job per calculation, so a double add is a no-op. The
  * creation time keeps ids unique even when a database is recreated while Redis keeps old jobs.
  */
+/** Lines per piece of a streamed result CSV. */
+const CSV_LINES_PER_PIECE = 4000;
+
 export const jobIdOf = (c: Pick<Calculation, 'id' | 'createdAt'>) => `calc-${c.id}-${c.createdAt.getTime()}`;
 
 @Injectable()
 export class CalculationsService {
+  private readonly logger = new Logger('Calculations');
+
   constructor(
     @InjectRepository(Calculation) private readonly calculations: Repository<Calculation>,
     @InjectQueue(COMPUTE_QUEUE) private readonly queue: Queue<ComputeJobData>,
@@ -72,9 +99,14 @@ export class CalculationsService {
       if (err instanceof OpticsInputError) throw new BadRequestException({ message: [err.message] });
       throw err;
     }
+    checkBudget('analysis', {
+      layers: input.stack.layers.length + (input.stack.back_layers?.length ?? 0),
+      samples: input.request.wavelengthCount * input.request.angleCount,
+    });
     const inputHash = contentHash(input);
     const existing = await this.findLive(inputHash);
     if (existing) return { calculation: existing, reused: true };
+    await this.checkActiveJobs(user);
     let saved: Calculation;
     try {
       saved = await this.calculations.save(
@@ -95,16 +127,7 @@ export class CalculationsService {
       if (winner) return { calculation: winner, reused: true };
       throw err;
     }
-    await this.queue.add(
-      ANALYSIS_JOB,
-      { calculationId: saved.id },
-      {
-        jobId: jobIdOf(saved),
-        attempts: 1,
-        removeOnComplete: { age: 3600 },
-        removeOnFail: { age: 86_400 },
-      },
-    );
+    await this.enqueue(ANALYSIS_JOB, saved);
     return { calculation: await this.get(saved.id), reused: false };
   }
 
@@ -115,9 +138,11 @@ export class CalculationsService {
     user: User,
     where: { designId: number; versionNumber: number; runId?: number },
   ): Promise<{ calculation: Calculation; reused: boolean }> {
+    checkBudget(kind, optimiseJobSize(input));
     const inputHash = contentHash(input);
     const existing = await this.findLive(inputHash, kind);
     if (existing) return { calculation: existing, reused: true };
+    await this.checkActiveJobs(user);
     let saved: Calculation;
     try {
       saved = await this.calculations.save(
@@ -139,17 +164,40 @@ export class CalculationsService {
       if (winner) return { calculation: winner, reused: true };
       throw err;
     }
-    await this.queue.add(
-      kind,
-      { calculationId: saved.id },
-      {
-        jobId: jobIdOf(saved),
-        attempts: 1,
-        removeOnComplete: { age: 3600 },
-        removeOnFail: { age: 86_400 },
-      },
-    );
+    await this.enqueue(kind, saved);
     return { calculation: await this.get(saved.id), reused: false };
+  }
+
+  /** A user may have only so many calculations queued or running (an identical request is shared). */
+  private async checkActiveJobs(user: User): Promise<void> {
+    const active = await this.calculations.countBy({
+      createdBy: { id: user.id },
+      status: In(['queued', 'running']),
+    });
+    const limit = activeJobLimit();
+    if (active >= limit) throw new ConflictException(tooManyActiveJobs(active, limit));
+  }
+
+  /**
+   * Puts the calculation on the compute queue. When Redis does not take it in time the calculation
+   * is marked failed (so it holds no slot and no identical request reuses it) and the API says 503.
+   */
+  private async enqueue(name: string, saved: Calculation): Promise<void> {
+    try {
+      await withDeadline(
+        this.queue.add(name, { calculationId: saved.id }, { jobId: jobIdOf(saved), ...COMPUTE_JOB_OPTIONS }),
+        QUEUE_ADD_TIMEOUT_MS,
+        'queueing the calculation',
+      );
+    } catch (err) {
+      await this.calculations
+        .update(
+          { id: saved.id, status: 'queued' },
+          { status: 'failed', error: 'The job queue was not reachable', finishedAt: new Date() },
+        )
+        .catch(() => undefined);
+      throw isOutage(err) ? err : new QueueUnavailableError(String(err));
+    }
   }
 
   list(): Promise<Calculation[]> {
@@ -176,8 +224,40 @@ export class CalculationsService {
     );
     if (result.affected !== 1) return this.cancelRace(id);
     // A waiting job is removed; a running one sees the status between slices and stops.
-    await this.queue.remove(jobIdOf(calc)).catch(() => 0);
+    await withDeadline(this.queue.remove(jobIdOf(calc)), QUEUE_ADD_TIMEOUT_MS, 'removing the job').catch(
+      () => 0,
+    );
     return this.get(id);
+  }
+
+  /**
+   * Deletes a calculation and its stored result, for the user who asked for it or an admin. A
+   * queued or running one is taken off the queue; its worker sees it gone and stops. Who deleted
+   * what is written to the structured log.
+   */
+  async remove(id: number, user: User): Promise<void> {
+    const calc = await this.get(id);
+    if (user.role !== 'admin' && calc.createdBy.id !== user.id) {
+      throw new ForbiddenException(
+        `Only ${calc.createdBy.displayName}, who asked for calculation ${id}, or an admin may delete it`,
+      );
+    }
+    await this.calculations.delete({ id });
+    await withDeadline(this.queue.remove(jobIdOf(calc)), QUEUE_ADD_TIMEOUT_MS, 'removing the job').catch(
+      () => 0,
+    );
+    this.logger.log(
+      JSON.stringify({
+        event: 'calculation.deleted',
+        calculationId: id,
+        kind: calc.kind,
+        status: calc.status,
+        designId: calc.designId,
+        createdBy: calc.createdBy.id,
+        deletedBy: user.id,
+        at: new Date().toISOString(),
+      }),
+    );
   }
 
   /** One quantity and polarisation of a completed analysis, as rows per angle. */
@@ -215,19 +295,32 @@ export class CalculationsService {
     };
   }
 
-  /** The whole result as CSV: `wavelength_nm,angle_deg,pol,R,T,A` (fractions, full precision). */
-  async resultCsv(id: number): Promise<string> {
+  /**
+   * The whole result as CSV: `wavelength_nm,angle_deg,pol,R,T,A` (fractions, full precision),
+   * produced in pieces of a few thousand lines as the client reads them, so a large result never
+   * sits in memory as one string and the event loop is given back between pieces.
+   */
+  async resultCsv(id: number): Promise<Readable> {
     const { summary, values } = await this.completed(id);
-    const lines = ['wavelength_nm,angle_deg,pol,R,T,A'];
-    for (const pol of ANALYSIS_POLARISATIONS) {
-      summary.anglesDeg.forEach((angle, ia) => {
-        summary.wavelengthsNm.forEach((wl, iw) => {
-          const at = (q: AnalysisQuantity) => values[analysisIndex(summary, q, pol, ia, iw)];
-          lines.push(`${wl},${angle},${pol},${at('R')},${at('T')},${at('A')}`);
-        });
-      });
+    function* lines(): Generator<string> {
+      yield 'wavelength_nm,angle_deg,pol,R,T,A\n';
+      let chunk: string[] = [];
+      for (const pol of ANALYSIS_POLARISATIONS) {
+        for (let ia = 0; ia < summary.anglesDeg.length; ia++) {
+          const angle = summary.anglesDeg[ia];
+          for (let iw = 0; iw < summary.wavelengthsNm.length; iw++) {
+            const at = (q: AnalysisQuantity) => values[analysisIndex(summary, q, pol, ia, iw)];
+            chunk.push(`${summary.wavelengthsNm[iw]},${angle},${pol},${at('R')},${at('T')},${at('A')}\n`);
+            if (chunk.length === CSV_LINES_PER_PIECE) {
+              yield chunk.join('');
+              chunk = [];
+            }
+          }
+        }
+      }
+      if (chunk.length > 0) yield chunk.join('');
     }
-    return lines.join('\n') + '\n';
+    return Readable.from(lines(), { objectMode: false, highWaterMark: 1 << 16 });
   }
 
   private async completed(id: number): Promise<{ summary: AnalysisSummary; values: Float64Array }> {
@@ -258,6 +351,18 @@ export class CalculationsService {
       `Calculation ${id} is ${now.status}; only a queued or running one can be cancelled`,
     );
   }
+}
+
+/** Jobs a user may have queued or running: QG_MAX_ACTIVE_JOBS, else the shared default. */
+function activeJobLimit(): number {
+  const v = Number(process.env.QG_MAX_ACTIVE_JOBS);
+  return Number.isInteger(v) && v > 0 ? v : MAX_ACTIVE_JOBS_PER_USER;
+}
+
+/** A job larger than its kind's work budget is refused with the limit stated. */
+function checkBudget(kind: BudgetedKind, size: JobSize): void {
+  const problem = overBudget(kind, size);
+  if (problem) throw new BadRequestException({ message: [problem] });
 }
 
 /** Each material must be valid over the whole analysed range: no result from data outside it. */

@@ -3,6 +3,7 @@
  * forecast, Run diagnosis): plain JSON, so they are stored with the calculation and cross into a
  * worker thread unchanged. `runOptimiseJob` is what the thread runs.
  */
+import { maskSamples, type JobSize } from '@quietglass/shared/budgets';
 import type { DiagnosisResult } from '@quietglass/shared/calculations';
 import { growLayers, type AllowedMaterial, type GrowResult } from '@quietglass/shared/optimise/needle';
 import { fitToMask, type FitResult } from '@quietglass/shared/optimise/fit';
@@ -11,6 +12,9 @@ import type { LimitBand } from '@quietglass/shared/optics/mask';
 import { parseStack, type StackDescription } from '@quietglass/shared/optics/stack';
 
 export type OptimiseKind = 'fit' | 'grow' | 'yield' | 'diagnosis';
+
+/** Iterations of the Run diagnosis fit. */
+const DIAGNOSIS_ITERATIONS = 200;
 
 interface Base {
   stack: StackDescription;
@@ -103,12 +107,12 @@ export function runOptimiseJob(
     back: input.back,
     minThicknessNm: design.map((d) => Math.max(0.5, d * lo)),
     maxThicknessNm: design.map((d) => d * hi),
-    maxIterations: 200,
+    maxIterations: DIAGNOSIS_ITERATIONS,
     targets: [{ ...input.measured, polarisation: 'avg' }],
     onIteration: (it) =>
       report({
         type: 'progress',
-        fraction: Math.min(0.99, it.iteration / 200),
+        fraction: Math.min(0.99, it.iteration / DIAGNOSIS_ITERATIONS),
         merit: it.merit,
         iteration: it.iteration,
       }),
@@ -124,4 +128,18 @@ export function runOptimiseJob(
     }))
     .sort((a, b) => Math.abs(b.deviationPercent) - Math.abs(a.deviationPercent));
   return { fit, layers, residualRmsPercent: fit.merit.after };
+}
+
+/** The size of an optimisation job for its work budget (shared/budgets). */
+export function optimiseJobSize(input: OptimiseInput): JobSize {
+  const layers = input.stack.layers.length;
+  const samples = maskSamples(input.bands);
+  if (input.kind === 'fit') return { layers, samples, iterations: input.options.maxIterations };
+  if (input.kind === 'grow')
+    return { layers, samples, maxLayers: input.options.maxLayers, steps: input.options.maxSteps };
+  if (input.kind === 'yield') {
+    const trials = input.options.trials ?? 2000;
+    return { layers, samples, trials, sensitivityTrials: Math.min(trials, 1000) };
+  }
+  return { layers, samples: input.measured.wavelengthsNm.length, iterations: DIAGNOSIS_ITERATIONS };
 }

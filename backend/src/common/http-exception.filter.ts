@@ -1,5 +1,6 @@
 import { ArgumentsHost, Catch, ExceptionFilter, HttpException, HttpStatus, Logger } from '@nestjs/common';
 import type { Response } from 'express';
+import { OUTAGE_MESSAGES, isDatabaseOutage, isRedisOutage } from './outage.js';
 import { JsonTooDeepError } from './request-hygiene.js';
 
 /** The one error shape of the API. */
@@ -21,6 +22,7 @@ const REASONS: Record<number, string> = {
   413: 'Payload Too Large',
   429: 'Too Many Requests',
   500: 'Internal Server Error',
+  503: 'Service Unavailable',
 };
 
 /** Turns every error into ErrorBody; unexpected errors are logged and shown without internals. */
@@ -32,7 +34,9 @@ export class AllExceptionsFilter implements ExceptionFilter {
     const res = host.switchToHttp().getResponse<Response>();
     const body = toErrorBody(exception);
     if (body.retryAfterSeconds !== undefined) res.setHeader('Retry-After', String(body.retryAfterSeconds));
-    if (body.statusCode >= 500) {
+    if (body.statusCode === 503) {
+      this.logger.warn(exception instanceof Error ? exception.message : String(exception));
+    } else if (body.statusCode >= 500) {
       this.logger.error(
         exception instanceof Error ? (exception.stack ?? exception.message) : String(exception),
       );
@@ -77,6 +81,11 @@ export function toErrorBody(exception: unknown): ErrorBody {
     }
     return { statusCode, error, message: typeof raw === 'string' ? raw : exception.message };
   }
+  // An outage of PostgreSQL or Redis is not a bug: say so plainly, with 503.
+  if (isRedisOutage(exception))
+    return { statusCode: 503, error: REASONS[503], message: OUTAGE_MESSAGES.redis };
+  if (isDatabaseOutage(exception))
+    return { statusCode: 503, error: REASONS[503], message: OUTAGE_MESSAGES.database };
   return {
     statusCode: 500,
     error: REASONS[500],

@@ -24,6 +24,7 @@ import { Chambers1764634100000 } from '../migrations/1764634100000-chambers.js';
 import { ChamberRuns1764634200000 } from '../migrations/1764634200000-chamber-runs.js';
 import { ReportsQuotesOutbox1764634300000 } from '../migrations/1764634300000-reports-quotes-outbox.js';
 import { CalculationLive1764634400000 } from '../migrations/1764634400000-calculation-live.js';
+import { DemoSeeds1764634600000 } from '../migrations/1764634600000-demo-seeds.js';
 import { Sessions1764634700000 } from '../migrations/1764634700000-sessions.js';
 
 /** Every entity of the app; each domain module also registers its own with forFeature. */
@@ -57,6 +58,7 @@ export const MIGRATIONS = [
   ChamberRuns1764634200000,
   ReportsQuotesOutbox1764634300000,
   CalculationLive1764634400000,
+  DemoSeeds1764634600000,
   Sessions1764634700000,
 ];
 

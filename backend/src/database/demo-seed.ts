@@ -61,11 +61,26 @@ export function demoSignIns(file: string): DemoSignIn[] {
   return signIns;
 }
 
+/** The name under which the demo shop is recorded in demo_seeds once created. */
+const DEMO_SEED = 'larkspur-demo-shop';
+
 /**
- * Creates what of the demo shop does not exist yet (users, customers, materials, by name); leaves
- * existing records — and changed passwords — alone. Returns how many records it created.
+ * Creates the demo shop once. Its creation is recorded (demo_seeds), and every later call creates
+ * nothing, so records the shop renamed or deleted are never made again. A database that already
+ * has the demo users (from before the record existed) counts as seeded. Returns how many records
+ * it created.
  */
 export async function seedDemo(db: DataSource, signIns: DemoSignIn[]): Promise<number> {
+  const [done] = (await db.query('SELECT 1 FROM demo_seeds WHERE name = $1', [DEMO_SEED])) as unknown[];
+  if (done) return 0;
+  const earlier = await db.getRepository(User).existsBy({ email: DEMO_USERS[0].email });
+  const created = earlier ? 0 : await createDemo(db, signIns);
+  await db.query('INSERT INTO demo_seeds (name) VALUES ($1) ON CONFLICT DO NOTHING', [DEMO_SEED]);
+  return created;
+}
+
+/** Creates what of the demo shop does not exist yet (by name), leaving existing records alone. */
+async function createDemo(db: DataSource, signIns: DemoSignIn[]): Promise<number> {
   const repo = db.getRepository(User);
   let created = 0;
   for (const customer of DEMO_CUSTOMERS) {

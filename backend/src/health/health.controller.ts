@@ -1,4 +1,5 @@
-import { Controller, Get } from '@nestjs/common';
+import { Controller, Get, Res } from '@nestjs/common';
+import type { Response } from 'express';
 import { Public } from '../auth/public.decorator.js';
 import { HealthService, type HealthReport } from './health.service.js';
 
@@ -6,10 +7,15 @@ import { HealthService, type HealthReport } from './health.service.js';
 export class HealthController {
   constructor(private readonly health: HealthService) {}
 
-  /** Public: database, Redis, queue and worker state. Always 200; `status` says whether all is well. */
+  /**
+   * Public: database, Redis, queue and worker state from the latest background checks. 200 when
+   * all is well, 503 with the same report when anything is degraded.
+   */
   @Public()
   @Get()
-  report(): Promise<HealthReport> {
-    return this.health.report();
+  async report(@Res({ passthrough: true }) res: Response): Promise<HealthReport> {
+    const report = await this.health.report();
+    res.status(report.status === 'ok' ? 200 : 503);
+    return report;
   }
 }

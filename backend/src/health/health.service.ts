@@ -15,6 +15,8 @@ export interface CheckResult {
 
 export interface HealthReport {
   status: 'ok' | 'degraded';
+  /** When these checks ran (they run in the background, not per request). */
+  checkedAt: string;
   database: CheckResult;
   redis: CheckResult;
   queue: CheckResult & { waiting?: number; active?: number; failed?: number };
@@ -44,10 +46,24 @@ function withTimeout<T>(p: Promise<T>, ms: number, what: string): Promise<T> {
   ]);
 }
 
+/** How often the checks run, ms (QG_HEALTH_INTERVAL_MS). */
+const intervalMs = (() => {
+  const v = Number(process.env.QG_HEALTH_INTERVAL_MS);
+  return Number.isInteger(v) && v >= 200 ? v : 5000;
+})();
+
+/**
+ * The service's health, checked in the background every few seconds (a ping job through the queue
+ * among them) and answered from that cache, so a public health request costs nothing and cannot
+ * flood the queue.
+ */
 @Injectable()
 export class HealthService implements OnModuleInit, OnModuleDestroy {
   private events: QueueEvents;
   private redis: Redis;
+  private latest: HealthReport | null = null;
+  private running: Promise<HealthReport> | null = null;
+  private timer: NodeJS.Timeout | null = null;
 
   constructor(
     @InjectDataSource() private readonly db: DataSource,
@@ -64,13 +80,37 @@ export class HealthService implements OnModuleInit, OnModuleDestroy {
     this.events.on('error', () => undefined);
     this.redis = new Redis({ ...redisConnection(this.config.redisUrl), maxRetriesPerRequest: 1 });
     this.redis.on('error', () => undefined);
+    this.systemQueue.on('error', () => undefined);
+    const tick = () => {
+      void this.refresh().finally(() => {
+        if (this.timer !== null) this.timer = setTimeout(tick, intervalMs);
+      });
+    };
+    this.timer = setTimeout(tick, 0);
   }
 
   async onModuleDestroy(): Promise<void> {
+    if (this.timer) clearTimeout(this.timer);
+    this.timer = null;
+    await this.running?.catch(() => undefined);
     await Promise.all([this.events.close(), this.redis.quit().catch(() => undefined)]);
   }
 
+  /** The latest checks; waits for the first round when none has finished yet. */
   async report(): Promise<HealthReport> {
+    return this.latest ?? (await this.refresh());
+  }
+
+  /** One round of checks; concurrent callers share it. */
+  private refresh(): Promise<HealthReport> {
+    this.running ??= this.check()
+      .then((report) => (this.latest = report))
+      .finally(() => (this.running = null));
+    return this.running;
+  }
+
+  private async check(): Promise<HealthReport> {
+    const checkedAt = new Date().toISOString();
     const [database, redis, queue, worker] = await Promise.all([
       this.checkDatabase(),
       this.checkRedis(),
@@ -78,7 +118,7 @@ export class HealthService implements OnModuleInit, OnModuleDestroy {
       this.checkWorker(),
     ]);
     const status = database.ok && redis.ok && queue.ok && worker.ok ? 'ok' : 'degraded';
-    return { status, database, redis, queue, worker };
+    return { status, checkedAt, database, redis, queue, worker };
   }
 
   private async checkDatabase(): Promise<CheckResult> {
@@ -128,11 +168,15 @@ export class HealthService implements OnModuleInit, OnModuleDestroy {
     let jobId: string | undefined;
     try {
       const workers = (await withTimeout(this.systemQueue.getWorkers(), 2000, 'worker list')).length;
-      const job = await this.systemQueue.add(
-        PING_JOB,
-        { askedAt: new Date().toISOString() },
-        // Kept for a minute: removing at once would race with waitUntilFinished on a fast worker.
-        { removeOnComplete: { age: 60 }, removeOnFail: { age: 60 }, attempts: 1 },
+      const job = await withTimeout(
+        this.systemQueue.add(
+          PING_JOB,
+          { askedAt: new Date().toISOString() },
+          // Kept for a minute: removing at once would race with waitUntilFinished on a fast worker.
+          { removeOnComplete: { age: 60 }, removeOnFail: { age: 60 }, attempts: 1 },
+        ),
+        2000,
+        'queueing the ping',
       );
       jobId = job.id;
       const answeredBy = (await job.waitUntilFinished(this.events, timeoutMs)) as PingResult;

@@ -16,3 +16,17 @@ export const ANALYSIS_JOB = 'analysis';
 export interface ComputeJobData {
   calculationId: number;
 }
+
+/**
+ * How compute jobs are queued: a job that meets a database or Redis outage goes back to the queue
+ * and is tried again after 2, 4, 8, 16 and 32 s (about a minute in all); any other failure is final.
+ */
+export const COMPUTE_JOB_OPTIONS = {
+  attempts: 6,
+  backoff: { type: 'exponential', delay: 2000 },
+  removeOnComplete: { age: 3600 },
+  removeOnFail: { age: 86_400 },
+} as const;
+
+/** Longest wait for Redis to take a job before the API answers 503. */
+export const QUEUE_ADD_TIMEOUT_MS = 5000;

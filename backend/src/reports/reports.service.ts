@@ -7,10 +7,8 @@ import {
   isApprovedForCustomers,
 } from '@quietglass/shared/designs';
 import { evaluateMaskOnMeasured } from '@quietglass/shared/measured';
-import { calculateSpectrum } from '@quietglass/shared/optics/batch';
-import { reflectedColour } from '@quietglass/shared/optics/colour';
-import { evaluateMask, validateSpecMask, type LimitBand } from '@quietglass/shared/optics/mask';
-import { parseStack, type OpticalStack } from '@quietglass/shared/optics/stack';
+import { validateSpecMask, type LimitBand } from '@quietglass/shared/optics/mask';
+import { parseStack } from '@quietglass/shared/optics/stack';
 import type { ReportBandRow, ReportSummary } from '@quietglass/shared/reports';
 import { appConfig, type AppConfig } from '../config/configuration.js';
 import { Design } from '../designs/design.entity.js';
@@ -21,14 +19,7 @@ import type { User } from '../users/user.entity.js';
 import type { CreateReportDto } from './dto/report.dto.js';
 import { renderReportPdf, type PlotSeries } from './report-pdf.js';
 import { ComplianceReport } from './report.entity.js';
-
-function rule(b: LimitBand): string {
-  if (b.max_percent !== undefined)
-    return `${b.quantity} ≤ ${b.max_percent} % over ${b.from_nm}–${b.to_nm} nm`;
-  if (b.min_percent !== undefined)
-    return `${b.quantity} ≥ ${b.min_percent} % over ${b.from_nm}–${b.to_nm} nm`;
-  return `${b.quantity} = ${b.target_percent} ± ${b.tolerance_percent} % over ${b.from_nm}–${b.to_nm} nm`;
-}
+import { colourOf, computeDesignedOffThread, rule } from './report-compute.js';
 
 @Injectable()
 export class ReportsService {
@@ -64,25 +55,25 @@ export class ReportsService {
     }
     const snapshot = version.materialsSnapshot ?? {};
     const materials = new Map(Object.entries(snapshot).map(([k, v]) => [Number(k), v]));
-    const stack = parseStack(designStackDescription(version, materials));
+    const description = designStackDescription(version, materials);
     const back = engineBackSurface(version.backSurface);
     const bands = validateSpecMask({ bands: mask.bands }).bands;
 
     const measured =
       dto.runId !== undefined || dto.spectrumId !== undefined ? await this.measured(dto) : null;
-    const summary = measured
-      ? this.measuredSummary(bands, measured)
-      : this.designedSummary(bands, stack, back);
-    const plots = measured ? this.measuredPlots(bands, measured) : this.designedPlots(bands, stack, back);
-    const colour = (() => {
-      try {
-        const c = reflectedColour(stack, { angleDeg: 0, back });
-        return { L: c.L, a: c.a, b: c.b, Rv: c.Rv };
-      } catch {
-        return null;
-      }
-    })();
-    summary.colour = colour;
+    let summary: ReportSummary;
+    let plots: PlotSeries[];
+    if (measured) {
+      summary = this.measuredSummary(bands, measured);
+      plots = this.measuredPlots(bands, measured);
+      summary.colour = colourOf(parseStack(description), back);
+    } else {
+      // The designed spectrum on the mask's grid can be large: computed off the event loop.
+      const designed = await computeDesignedOffThread({ bands, stack: description, back });
+      summary = designed.summary;
+      plots = designed.plots;
+      summary.colour = designed.colour;
+    }
     const date = new Date().toISOString().slice(0, 10);
     const statement = measured
       ? `Measured values: ${measured.sample} of run ${dto.runId}, lot ${measured.lot}, ${measured.quantity} at ${measured.angleDeg}° (file ${measured.filename}). Bands at other angles or quantities are not evaluated from this measurement.`
@@ -150,71 +141,6 @@ export class ReportsService {
       .getRepository(ComplianceReport)
       .find({ where: { id: In(ids) }, select: { id: true, pdf: true } });
     return rows.map((r) => ({ id: r.id, pdf: r.pdf }));
-  }
-
-  private designedSummary(
-    bands: LimitBand[],
-    stack: OpticalStack,
-    back: 'none' | 'incoherent',
-  ): ReportSummary {
-    const result = evaluateMask({ bands }, stack, { back });
-    const rows: ReportBandRow[] = result.bands.map((b, i) => ({
-      band: i,
-      label: bands[i].label ?? '',
-      rule: rule(bands[i]),
-      angles: (bands[i].angles_deg ?? [0]).join(', ') + '°',
-      polarisation: bands[i].polarisation ?? 'avg',
-      evaluated: true,
-      pass: b.pass,
-      worstMargin: b.worstMargin,
-      worstAtNm: b.worstAt.wavelengthNm,
-      valuePercent: b.worstAt.valuePercent,
-    }));
-    return {
-      source: 'designed',
-      pass: result.pass,
-      worstMargin: result.worstMargin,
-      bands: rows,
-      colour: null,
-    };
-  }
-
-  /** One plot per quantity, angle and polarisation the mask names. */
-  private designedPlots(bands: LimitBand[], stack: OpticalStack, back: 'none' | 'incoherent'): PlotSeries[] {
-    const groups = new Map<
-      string,
-      { quantity: 'R' | 'T'; angle: number; pol: 's' | 'p' | 'avg'; bands: LimitBand[] }
-    >();
-    for (const b of bands) {
-      for (const angle of b.angles_deg ?? [0]) {
-        const pol = b.polarisation ?? 'avg';
-        const key = `${b.quantity}|${angle}|${pol}`;
-        const g = groups.get(key) ?? { quantity: b.quantity, angle, pol, bands: [] };
-        g.bands.push(b);
-        groups.set(key, g);
-      }
-    }
-    return [...groups.values()].map((g) => {
-      const lo = Math.min(...g.bands.map((b) => b.from_nm));
-      const hi = Math.max(...g.bands.map((b) => b.to_nm));
-      const pad = Math.max(5, (hi - lo) * 0.05);
-      const from = Math.max(1, lo - pad);
-      const to = hi + pad;
-      const wavelengthsNm = Array.from({ length: 301 }, (_, i) => from + ((to - from) * i) / 300);
-      const s = calculateSpectrum(
-        stack,
-        { wavelengthsNm, anglesDeg: [g.angle], polarisations: [g.pol] },
-        { back },
-      );
-      const values = g.quantity === 'R' ? s.R : s.T;
-      return {
-        title: `${g.quantity} at ${g.angle}°, ${g.pol === 'avg' ? 'unpolarised' : `${g.pol}-polarised`} (designed)`,
-        quantity: g.quantity,
-        wavelengthsNm,
-        valuesPercent: Array.from(values, (v) => v * 100),
-        bands: g.bands,
-      };
-    });
   }
 
   private async measured(dto: CreateReportDto) {

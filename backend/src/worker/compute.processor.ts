@@ -1,16 +1,17 @@
 import os from 'node:os';
 import { Logger, type OnModuleDestroy, type OnModuleInit } from '@nestjs/common';
-import { Processor, WorkerHost } from '@nestjs/bullmq';
+import { OnWorkerEvent, Processor, WorkerHost } from '@nestjs/bullmq';
 import { InjectDataSource } from '@nestjs/typeorm';
-import type { Job } from 'bullmq';
+import { UnrecoverableError, type Job } from 'bullmq';
 import { DataSource } from 'typeorm';
 import { SpectrumWorkerPool } from '@quietglass/shared/node/parallel';
-import type { AnalysisInput } from '@quietglass/shared/analysis';
+import type { AnalysisInput, AnalysisSummary } from '@quietglass/shared/analysis';
 import { YieldWorkerPool } from '@quietglass/shared/node/yield-parallel';
 import { parseStack } from '@quietglass/shared/optics/stack';
 import { AnalysisCancelled, runAnalysis } from '../calculations/analysis-runner.js';
 import type { OptimiseInput, ProgressMessage, YieldInput } from '../calculations/optimise-jobs.js';
 import { runInThread } from './optimise-runner.js';
+import { isOutage } from '../common/outage.js';
 import { ANALYSIS_JOB, COMPUTE_QUEUE, type ComputeJobData } from '../queue/queue.constants.js';
 
 const envMs = (name: string, fallback: number) => {
@@ -22,6 +23,12 @@ const envMs = (name: string, fallback: number) => {
  * Runs compute-queue jobs. One job at a time per process, using every core through worker
  * threads. A worker that dies mid-job loses its lock; BullMQ's stalled-job check hands the job to
  * another worker, and the database write of the result happens at most once.
+ *
+ * A database or Redis outage never ends the process: progress writes that fail are skipped, the
+ * final write is retried with backoff, and a job that still cannot finish is handed back to the
+ * queue (its attempts and backoff are set when it is queued). Any other failure marks the
+ * calculation failed with its message and is not retried. Cancellation is watched by a poll of the
+ * calculation's status every QG_CANCEL_POLL_MS (250 ms), independent of the job's own progress.
  */
 @Processor(COMPUTE_QUEUE, {
   concurrency: 1,
@@ -62,15 +69,83 @@ export class ComputeProcessor extends WorkerHost implements OnModuleInit, OnModu
   private yieldPool: Promise<YieldWorkerPool> | null = null;
 
   async process(job: Job<ComputeJobData>): Promise<{ calculationId: number; outcome: string }> {
-    if (job.name === ANALYSIS_JOB) return this.analysis(job);
-    if (['fit', 'grow', 'diagnosis', 'yield'].includes(job.name)) return this.optimisation(job);
-    throw new Error(`Unknown compute job "${job.name}"`);
+    const id = job.data.calculationId;
+    try {
+      if (job.name === ANALYSIS_JOB) return await this.analysis(job);
+      if (['fit', 'grow', 'diagnosis', 'yield'].includes(job.name)) return await this.optimisation(job);
+      throw new UnrecoverableError(`Unknown compute job "${job.name}"`);
+    } catch (err) {
+      const message = err instanceof Error ? err.message : String(err);
+      if (isOutage(err)) {
+        // Back to the queue: a later attempt claims the calculation again.
+        this.logger.warn(
+          `calculation ${id}: ${message}; handing the job back to the queue (attempt ${job.attemptsMade + 1})`,
+        );
+        throw err;
+      }
+      if (err instanceof UnrecoverableError) throw err;
+      await this.fail(id, message).catch((e: unknown) => this.logger.warn(`calculation ${id}: ${String(e)}`));
+      throw new UnrecoverableError(message);
+    }
+  }
+
+  /** BullMQ reports Redis connection trouble here; it reconnects by itself. */
+  @OnWorkerEvent('error')
+  onWorkerError(err: Error): void {
+    this.logger.warn(`queue connection: ${err.message}`);
+  }
+
+  /** Runs a database write, retrying through an outage of up to about a minute. */
+  private async persist<T>(what: string, write: () => Promise<T>): Promise<T> {
+    for (let attempt = 0; ; attempt++) {
+      try {
+        return await write();
+      } catch (err) {
+        if (!isOutage(err) || attempt >= 6) throw err;
+        const delay = Math.min(16_000, 500 * 2 ** attempt);
+        this.logger.warn(`${what}: ${(err as Error).message}; trying again in ${delay} ms`);
+        await new Promise((r) => setTimeout(r, delay));
+      }
+    }
+  }
+
+  /** A progress write that may be lost in an outage: the job goes on without it. */
+  private async note(sql: string, params: unknown[]): Promise<void> {
+    try {
+      await this.db.query(sql, params);
+    } catch (err) {
+      if (!isOutage(err)) throw err;
+    }
+  }
+
+  /**
+   * Polls the calculation's status; the signal aborts once it is no longer running (cancelled).
+   * An outage is not a cancellation: the poll just tries again.
+   */
+  private watchCancel(id: number): { signal: AbortSignal; stop: () => void } {
+    const controller = new AbortController();
+    let busy = false;
+    const timer = setInterval(
+      () => {
+        if (busy || controller.signal.aborted) return;
+        busy = true;
+        this.db
+          .query('SELECT status FROM calculations WHERE id = $1', [id])
+          .then((rows: { status: string }[]) => {
+            if (rows[0]?.status !== 'running') controller.abort();
+          })
+          .catch(() => undefined)
+          .finally(() => (busy = false));
+      },
+      envMs('QG_CANCEL_POLL_MS', 250),
+    );
+    return { signal: controller.signal, stop: () => clearInterval(timer) };
   }
 
   /**
    * Fit to mask, Grow layers, Run diagnosis (in a worker thread) and Yield forecast (across the
-   * yield thread pool): merit per iteration is streamed into `live`, cancellation is checked at each
-   * report, and the result is stored at most once.
+   * yield thread pool): merit per iteration is streamed into `live`, cancellation is watched all
+   * along, and the result is stored at most once.
    */
   private async optimisation(job: Job<ComputeJobData>): Promise<{ calculationId: number; outcome: string }> {
     const id = job.data.calculationId;
@@ -78,65 +153,63 @@ export class ComputeProcessor extends WorkerHost implements OnModuleInit, OnModu
     if (!rows) return { calculationId: id, outcome: 'skipped' };
     const input = rows.input as unknown as OptimiseInput;
     const started = performance.now();
-    const cancelled = async () => {
-      const [row] = (await this.db.query('SELECT status FROM calculations WHERE id = $1', [id])) as {
-        status: string;
-      }[];
-      return row?.status !== 'running';
-    };
+    const watch = this.watchCancel(id);
+    let result: unknown;
     try {
-      let result: unknown;
       if (input.kind === 'yield') {
-        result = await this.forecast(id, job, input, cancelled);
+        result = await this.forecast(id, job, input, watch.signal);
       } else {
-        result = await runInThread(input, async (p: ProgressMessage) => {
-          await job.updateProgress(Math.round(p.fraction * 100));
-          const point = {
-            merit: p.merit ?? NaN,
-            ...(p.iteration !== undefined ? { iteration: p.iteration } : {}),
-            ...(p.layerCount !== undefined ? { layerCount: p.layerCount } : {}),
-          };
-          await this.db.query(
-            `UPDATE calculations SET progress = $2, live = jsonb_set(coalesce(live, '{"history": []}'), '{history}', coalesce(live->'history', '[]') || $3::jsonb)
-             WHERE id = $1 AND status = 'running'`,
-            [id, p.fraction, JSON.stringify([point])],
-          );
-          return !(await cancelled());
-        });
+        result = await runInThread(
+          input,
+          async (p: ProgressMessage) => {
+            await job.updateProgress(Math.round(p.fraction * 100)).catch(() => undefined);
+            const point = {
+              merit: p.merit ?? NaN,
+              ...(p.iteration !== undefined ? { iteration: p.iteration } : {}),
+              ...(p.layerCount !== undefined ? { layerCount: p.layerCount } : {}),
+            };
+            await this.note(
+              `UPDATE calculations SET progress = $2, live = jsonb_set(coalesce(live, '{"history": []}'), '{history}', coalesce(live->'history', '[]') || $3::jsonb)
+               WHERE id = $1 AND status = 'running'`,
+              [id, p.fraction, JSON.stringify([point])],
+            );
+            return !watch.signal.aborted;
+          },
+          watch.signal,
+        );
       }
-      if (result === null) return { calculationId: id, outcome: 'cancelled' };
-      await this.db.query(
+    } catch (err) {
+      if (err instanceof Error && err.message === 'cancelled')
+        return { calculationId: id, outcome: 'cancelled' };
+      throw err;
+    } finally {
+      watch.stop();
+    }
+    if (result === null) return { calculationId: id, outcome: 'cancelled' };
+    await this.persist(`storing calculation ${id}`, () =>
+      this.db.query(
         `UPDATE calculations SET status = 'completed', progress = 1, summary = $2, finished_at = now(), compute_ms = $3,
            processed_by = $4, completed_count = completed_count + 1
          WHERE id = $1 AND status = 'running' AND completed_count = 0`,
         [id, JSON.stringify(result), performance.now() - started, this.me],
-      );
-      return { calculationId: id, outcome: 'completed' };
-    } catch (err) {
-      const message = err instanceof Error ? err.message : String(err);
-      if (message === 'cancelled') return { calculationId: id, outcome: 'cancelled' };
-      await this.fail(id, message);
-      throw err;
-    }
+      ),
+    );
+    return { calculationId: id, outcome: 'completed' };
   }
 
   /** Yield forecast on the thread pool; returns null when cancelled. */
-  private async forecast(
-    id: number,
-    job: Job<ComputeJobData>,
-    input: YieldInput,
-    cancelled: () => Promise<boolean>,
-  ) {
+  private async forecast(id: number, job: Job<ComputeJobData>, input: YieldInput, signal: AbortSignal) {
     this.yieldPool ??= YieldWorkerPool.create({
       size: envMs('QG_COMPUTE_THREADS', os.availableParallelism()),
     });
     const pool = await this.yieldPool;
-    let stop = false;
-    const watch = setInterval(() => {
-      void cancelled().then((c) => {
-        stop = stop || c;
-      });
-    }, 300);
+    // A chunk of trials can run for seconds: on cancel the threads are ended mid-chunk and a
+    // fresh pool is started for the next job.
+    const stopThreads = () => {
+      this.yieldPool = null;
+      this.stopPool(id, pool);
+    };
+    signal.addEventListener('abort', stopThreads, { once: true });
     try {
       const result = await pool.forecast(
         parseStack(input.stack),
@@ -146,19 +219,36 @@ export class ComputeProcessor extends WorkerHost implements OnModuleInit, OnModu
           layerMaterials: input.layerMaterials,
           back: input.back,
           onProgress: (fraction) => {
-            void job.updateProgress(Math.round(fraction * 100));
-            void this.db.query(`UPDATE calculations SET progress = $2 WHERE id = $1 AND status = 'running'`, [
+            // Fire and forget, but never a rejection left unhandled.
+            job.updateProgress(Math.round(fraction * 100)).catch(() => undefined);
+            this.note(`UPDATE calculations SET progress = $2 WHERE id = $1 AND status = 'running'`, [
               id,
               fraction,
-            ]);
-            return !stop;
+            ]).catch((err: unknown) => this.logger.warn(`calculation ${id} progress: ${String(err)}`));
+            return !signal.aborted;
           },
         },
       );
-      return result.stoppedBy === 'cancelled' ? null : result;
+      return result.stoppedBy === 'cancelled' || signal.aborted ? null : result;
+    } catch (err) {
+      if (signal.aborted) return null;
+      throw err;
     } finally {
-      clearInterval(watch);
+      signal.removeEventListener('abort', stopThreads);
     }
+  }
+
+  /** Ends a pool's threads (cancel) and logs how long they took to stop. */
+  private stopPool(id: number, pool: { close(): Promise<void> }): void {
+    const started = performance.now();
+    pool
+      .close()
+      .then(() =>
+        this.logger.log(
+          `calculation ${id} cancelled: its threads stopped ${Math.round(performance.now() - started)} ms after the cancel was seen`,
+        ),
+      )
+      .catch((err: unknown) => this.logger.warn(`calculation ${id}: stopping threads: ${String(err)}`));
   }
 
   private async claim(id: number): Promise<{ input: unknown } | null> {
@@ -171,9 +261,11 @@ export class ComputeProcessor extends WorkerHost implements OnModuleInit, OnModu
   }
 
   private async fail(id: number, message: string): Promise<void> {
-    await this.db.query(
-      `UPDATE calculations SET status = 'failed', error = $2, finished_at = now() WHERE id = $1 AND status = 'running'`,
-      [id, message],
+    await this.persist(`marking calculation ${id} failed`, () =>
+      this.db.query(
+        `UPDATE calculations SET status = 'failed', error = $2, finished_at = now() WHERE id = $1 AND status = 'running'`,
+        [id, message],
+      ),
     );
     this.logger.warn(`calculation ${id} failed: ${message}`);
   }
@@ -183,26 +275,39 @@ export class ComputeProcessor extends WorkerHost implements OnModuleInit, OnModu
     // Claim the calculation; a cancelled or finished one is left alone.
     const claimed = await this.claim(id);
     if (!claimed) return { calculationId: id, outcome: 'skipped' };
-    const rows = [claimed as { input: AnalysisInput }];
+    const input = claimed.input as AnalysisInput;
     const started = performance.now();
+    const watch = this.watchCancel(id);
+    const threads = await this.threads();
+    const stopThreads = () => {
+      this.pool = null;
+      this.stopPool(id, threads);
+    };
+    watch.signal.addEventListener('abort', stopThreads, { once: true });
+    let outcome: { summary: AnalysisSummary; values: Float64Array };
     try {
-      const { summary, values } = await runAnalysis(rows[0].input, await this.threads(), {
+      outcome = await runAnalysis(input, threads, {
         onProgress: async (fraction) => {
-          await job.updateProgress(Math.round(fraction * 100));
-          await this.db.query(`UPDATE calculations SET progress = $2 WHERE id = $1 AND status = 'running'`, [
+          await job.updateProgress(Math.round(fraction * 100)).catch(() => undefined);
+          await this.note(`UPDATE calculations SET progress = $2 WHERE id = $1 AND status = 'running'`, [
             id,
             fraction,
           ]);
         },
-        isCancelled: async () => {
-          const [row] = (await this.db.query('SELECT status FROM calculations WHERE id = $1', [id])) as {
-            status: string;
-          }[];
-          return row?.status !== 'running';
-        },
+        isCancelled: () => Promise.resolve(watch.signal.aborted),
       });
-      const computeMs = performance.now() - started;
-      await this.db.query(
+    } catch (err) {
+      if (err instanceof AnalysisCancelled || watch.signal.aborted)
+        return { calculationId: id, outcome: 'cancelled' };
+      throw err;
+    } finally {
+      watch.signal.removeEventListener('abort', stopThreads);
+      watch.stop();
+    }
+    const { summary, values } = outcome;
+    const computeMs = performance.now() - started;
+    await this.persist(`storing calculation ${id}`, () =>
+      this.db.query(
         `UPDATE calculations SET status = 'completed', progress = 1, summary = $2, values = $3, finished_at = now(),
            compute_ms = $4, processed_by = $5, completed_count = completed_count + 1
          WHERE id = $1 AND status = 'running' AND completed_count = 0`,
@@ -213,12 +318,8 @@ export class ComputeProcessor extends WorkerHost implements OnModuleInit, OnModu
           computeMs,
           this.me,
         ],
-      );
-      return { calculationId: id, outcome: 'completed' };
-    } catch (err) {
-      if (err instanceof AnalysisCancelled) return { calculationId: id, outcome: 'cancelled' };
-      await this.fail(id, err instanceof Error ? err.message : String(err));
-      throw err;
-    }
+      ),
+    );
+    return { calculationId: id, outcome: 'completed' };
   }
 }

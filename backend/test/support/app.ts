@@ -37,3 +37,21 @@ export async function demoSession(app: INestApplication, role: Role, index = 0):
   const demo = demoSignIn(role, index);
   return sessionCookie(app, demo.email, demo.password);
 }
+
+/**
+ * Signs in a user whose password an admin set and chooses their own (`password` + `-own`), as the
+ * API requires before anything else; returns the session cookie, which stays valid.
+ */
+export async function sessionWithOwnPassword(
+  app: INestApplication,
+  email: string,
+  adminSetPassword: string,
+): Promise<string> {
+  const cookie = await sessionCookie(app, email, adminSetPassword);
+  const res = await request(app.getHttpServer())
+    .post('/api/auth/password')
+    .set('Cookie', cookie)
+    .send({ currentPassword: adminSetPassword, newPassword: `${adminSetPassword}-own` });
+  if (res.status !== 204) throw new Error(`own password for ${email} gave ${res.status}`);
+  return cookie;
+}

@@ -8,6 +8,8 @@ export interface WorkerProcess {
   child: ChildProcess;
   /** host:pid, as the worker records it on the calculations it runs. */
   id: string;
+  /** Everything the worker has printed so far. */
+  output(): string;
   stop(signal?: NodeJS.Signals): Promise<void>;
 }
 
@@ -51,6 +53,7 @@ export async function startWorkerProcess(extraEnv: Record<string, string> = {}):
   return {
     child,
     id,
+    output: () => output,
     stop: (signal = 'SIGTERM') =>
       new Promise<void>((resolve) => {
         if (child.exitCode !== null || child.signalCode !== null) return resolve();

@@ -118,6 +118,13 @@ interface Bound {
   tolerance: number;
 }
 
+/** Most limit bands of one mask. */
+export const MAX_MASK_BANDS = 10_000;
+/** Most angles of one limit band. */
+export const MAX_BAND_ANGLES = 91;
+/** Most wavelength-angle samples of one mask, summed over its bands. */
+export const MAX_MASK_SAMPLES = 500_000;
+
 /**
  * Checks a spec mask and returns a normalised copy (defaults filled in). Throws
  * {@link OpticsInputError} naming the field for NaN or missing values, from_nm > to_nm, bounds
@@ -130,10 +137,18 @@ export function validateSpecMask(input: unknown): SpecMask {
   const defaultStep = obj.step_nm === undefined ? 1 : positiveNumber(obj.step_nm, 'step_nm');
   const list = arrayValue(obj.bands, 'bands');
   if (list.length === 0) throw new OpticsInputError('bands', 'must hold at least one limit band');
+  if (list.length > MAX_MASK_BANDS)
+    throw new OpticsInputError('bands', `holds ${list.length} bands; a mask has at most ${MAX_MASK_BANDS}`);
   const bands = list.map((item, i) => validateBand(item, fieldPath('bands', i), defaultStep));
-  for (let j = 0; j < bands.length; j++) {
-    for (let i = 0; i < j; i++) checkConsistent(bands[i], bands[j], i, j);
+  let samples = 0;
+  for (const band of bands) samples += bandSampleCount(band) * (band.angles_deg?.length ?? 1);
+  if (samples > MAX_MASK_SAMPLES) {
+    throw new OpticsInputError(
+      'bands',
+      `sample ${samples} wavelength-angle points; a mask has at most ${MAX_MASK_SAMPLES} (use a coarser step_nm or fewer angles)`,
+    );
   }
+  checkAllConsistent(bands);
   const out: SpecMask = { bands, step_nm: defaultStep };
   if (obj.name !== undefined) {
     if (typeof obj.name !== 'string') throw new OpticsInputError('name', 'must be text');
@@ -154,6 +169,11 @@ function validateBand(item: unknown, field: string, defaultStep: number): LimitB
   const angles =
     obj.angles_deg === undefined ? [0] : numberList(obj.angles_deg, at('angles_deg'), incidenceAngle);
   if (angles.length === 0) throw new OpticsInputError(at('angles_deg'), 'must list at least one angle');
+  if (angles.length > MAX_BAND_ANGLES)
+    throw new OpticsInputError(
+      at('angles_deg'),
+      `lists ${angles.length} angles; a band has at most ${MAX_BAND_ANGLES}`,
+    );
   const polarisation =
     obj.polarisation === undefined ? 'avg' : oneOf(obj.polarisation, POLARISATIONS, at('polarisation'));
   const quantity = oneOf(obj.quantity, ['R', 'T'] as const, at('quantity'));
@@ -227,28 +247,111 @@ function describeBand(band: LimitBand, index: number): string {
   return `bands[${index}] (${rule})`;
 }
 
-function checkConsistent(a: LimitBand, b: LimitBand, i: number, j: number): void {
-  if (a.polarisation !== b.polarisation) return;
-  const lo = Math.max(a.from_nm, b.from_nm);
-  const hi = Math.min(a.to_nm, b.to_nm);
-  if (lo > hi) return;
-  const angle = (a.angles_deg ?? [0]).find((x) => (b.angles_deg ?? [0]).includes(x));
-  if (angle === undefined) return;
-  const [aLo, aHi] = allowed(boundOf(a));
-  const [bLo, bHi] = allowed(boundOf(b));
-  const where = `over ${lo}–${hi} nm at ${angle}°, ${a.polarisation}`;
-  if (a.quantity === b.quantity && Math.max(aLo, bLo) > Math.min(aHi, bHi)) {
-    throw new OpticsInputError(
-      fieldPath('bands', j),
-      `${describeBand(b, j)} contradicts ${describeBand(a, i)} ${where}: no value meets both`,
-    );
+/** Samples of a band: from_nm, from_nm + step, … and to_nm itself. */
+function bandSampleCount(band: LimitBand): number {
+  const step = band.step_nm ?? 1;
+  return Math.max(0, Math.ceil((band.to_nm - band.from_nm) / step - 1e-9)) + 1;
+}
+
+interface SweepItem {
+  band: LimitBand;
+  index: number;
+  lo: number;
+  hi: number;
+}
+
+/** Binary heap of sweep items, best first by `better`. */
+class ItemHeap {
+  private readonly items: SweepItem[] = [];
+  constructor(private readonly better: (a: SweepItem, b: SweepItem) => boolean) {}
+
+  /** The best item whose band still reaches `fromNm` (bands that end before it are dropped for good). */
+  top(fromNm: number): SweepItem | undefined {
+    while (this.items.length > 0 && this.items[0].band.to_nm < fromNm) this.pop();
+    return this.items[0];
   }
-  if (a.quantity !== b.quantity && aLo + bLo > 100) {
-    throw new OpticsInputError(
-      fieldPath('bands', j),
-      `${describeBand(b, j)} contradicts ${describeBand(a, i)} ${where}: R + T cannot exceed 100 %`,
-    );
+
+  push(item: SweepItem): void {
+    const a = this.items;
+    a.push(item);
+    for (let i = a.length - 1; i > 0;) {
+      const parent = (i - 1) >> 1;
+      if (!this.better(a[i], a[parent])) break;
+      [a[i], a[parent]] = [a[parent], a[i]];
+      i = parent;
+    }
   }
+
+  private pop(): void {
+    const a = this.items;
+    const last = a.pop() as SweepItem;
+    if (a.length === 0) return;
+    a[0] = last;
+    for (let i = 0; ;) {
+      const l = 2 * i + 1;
+      const r = l + 1;
+      let best = i;
+      if (l < a.length && this.better(a[l], a[best])) best = l;
+      if (r < a.length && this.better(a[r], a[best])) best = r;
+      if (best === i) return;
+      [a[i], a[best]] = [a[best], a[i]];
+      i = best;
+    }
+  }
+}
+
+/**
+ * Finds overlapping bands that contradict each other in O(n log n): per polarisation and angle, a
+ * sweep over the bands in order of from_nm keeps, for R and for T, the bands still open (reaching
+ * the current from_nm) in heaps by their lowest and highest allowed value. Two overlapping bands
+ * of one quantity contradict when one's lowest allowed value exceeds the other's highest; an R and
+ * a T band when their lowest allowed values add to more than 100 %.
+ */
+function checkAllConsistent(bands: LimitBand[]): void {
+  const groups = new Map<string, SweepItem[]>();
+  bands.forEach((band, index) => {
+    const [lo, hi] = allowed(boundOf(band));
+    for (const angle of band.angles_deg ?? [0]) {
+      const key = `${band.polarisation}|${angle}`;
+      let group = groups.get(key);
+      if (!group) groups.set(key, (group = []));
+      group.push({ band, index, lo, hi });
+    }
+  });
+  for (const [key, items] of groups) {
+    const angle = Number(key.slice(key.indexOf('|') + 1));
+    items.sort((a, b) => a.band.from_nm - b.band.from_nm || a.index - b.index);
+    const heaps = {
+      R: { maxLo: new ItemHeap((a, b) => a.lo > b.lo), minHi: new ItemHeap((a, b) => a.hi < b.hi) },
+      T: { maxLo: new ItemHeap((a, b) => a.lo > b.lo), minHi: new ItemHeap((a, b) => a.hi < b.hi) },
+    };
+    for (const item of items) {
+      const from = item.band.from_nm;
+      const same = heaps[item.band.quantity];
+      const other = heaps[item.band.quantity === 'R' ? 'T' : 'R'];
+      const highLo = same.maxLo.top(from);
+      if (highLo && highLo.lo > item.hi) contradiction(highLo, item, angle, false);
+      const lowHi = same.minHi.top(from);
+      if (lowHi && lowHi.hi < item.lo) contradiction(lowHi, item, angle, false);
+      const otherLo = other.maxLo.top(from);
+      if (otherLo && otherLo.lo + item.lo > 100) contradiction(otherLo, item, angle, true);
+      same.maxLo.push(item);
+      same.minHi.push(item);
+    }
+  }
+}
+
+function contradiction(x: SweepItem, y: SweepItem, angle: number, sum: boolean): never {
+  const [first, second] = x.index < y.index ? [x, y] : [y, x];
+  const a = first.band;
+  const b = second.band;
+  const where = `over ${Math.max(a.from_nm, b.from_nm)}–${Math.min(a.to_nm, b.to_nm)} nm at ${angle}°, ${a.polarisation}`;
+  throw new OpticsInputError(
+    fieldPath('bands', second.index),
+    `${describeBand(b, second.index)} contradicts ${describeBand(a, first.index)} ${where}: ${
+      sum ? 'R + T cannot exceed 100 %' : 'no value meets both'
+    }`,
+  );
 }
 
 /** Sample wavelengths of a band: from_nm, from_nm + step, …, and to_nm itself. */

@@ -1,0 +1,137 @@
+/*
+ * Responsiveness under load, on a running Quietglass (`npm start` in another terminal): p50/p95/max
+ * latency of a light GET (the signed-in user) while the worker runs the largest Yield forecast the
+ * demo recipe allows (100 000 trials) and 10 000-band spec masks are posted one after another.
+ * Then the forecast is cancelled and the time until the worker has started the next job is taken.
+ *   npx tsx tools/bench/latency.bench.ts [--seconds 15] [--url http://127.0.0.1:3000]
+ */
+import fs from 'node:fs';
+import path from 'node:path';
+import { fileURLToPath } from 'node:url';
+import { CSRF_HEADER } from '@quietglass/shared';
+
+const ROOT = path.resolve(path.dirname(fileURLToPath(import.meta.url)), '..', '..');
+const arg = (name: string, fallback: string) => {
+  const i = process.argv.indexOf(name);
+  return i >= 0 ? process.argv[i + 1] : fallback;
+};
+const base = arg('--url', 'http://127.0.0.1:3000');
+const seconds = Number(arg('--seconds', '15'));
+const credentials = arg('--credentials', path.join(ROOT, '.data', 'demo-sign-ins.json'));
+
+let cookie = '';
+async function api<T>(method: string, url: string, body?: unknown): Promise<{ status: number; body: T }> {
+  const res = await fetch(`${base}/api${url}`, {
+    method,
+    headers: {
+      'Content-Type': 'application/json',
+      [CSRF_HEADER]: '1',
+      ...(cookie ? { Cookie: cookie } : {}),
+    },
+    body: body === undefined ? undefined : JSON.stringify(body),
+  });
+  const set = res.headers.get('set-cookie');
+  if (set) cookie = set.split(';')[0];
+  const text = await res.text();
+  return { status: res.status, body: (text ? JSON.parse(text) : null) as T };
+}
+
+const sleep = (ms: number) => new Promise((r) => setTimeout(r, ms));
+const percentile = (sorted: number[], p: number) =>
+  sorted[Math.min(sorted.length - 1, Math.floor((p / 100) * sorted.length))];
+
+async function waitStatus(id: number, want: string, timeoutMs = 60_000): Promise<void> {
+  const until = Date.now() + timeoutMs;
+  while ((await api<{ status: string }>('GET', `/calculations/${id}`)).body.status !== want) {
+    if (Date.now() > until) throw new Error(`calculation ${id} never became ${want}`);
+    await sleep(20);
+  }
+}
+
+async function main(): Promise<void> {
+  const signIns = JSON.parse(fs.readFileSync(credentials, 'utf8')) as {
+    email: string;
+    role: string;
+    password: string;
+  }[];
+  const engineer = signIns.find((s) => s.role === 'engineer');
+  if (!engineer) throw new Error('no demo engineer; run npm start first');
+  const signIn = await api('POST', '/auth/sign-in', { email: engineer.email, password: engineer.password });
+  if (signIn.status !== 200)
+    throw new Error(`sign-in failed (${signIn.status}); is npm start running at ${base}?`);
+  const designs = (await api<{ id: number; name: string; customerId?: number }[]>('GET', '/designs')).body;
+  const demo = designs.find((d) => d.name.startsWith('HVS-2210'));
+  if (!demo) throw new Error('the demo recipe is missing');
+  const customers = (await api<{ id: number }[]>('GET', '/customers')).body;
+
+  const seed = Date.now() % 1_000_000;
+  const big = await api<{ id: number; message?: string }>('POST', `/designs/${demo.id}/versions/1/yield`, {
+    trials: 100_000,
+    seed,
+    thickness: { relativePercent: 1 },
+  });
+  if (big.status !== 201) throw new Error(`the forecast was not queued: ${JSON.stringify(big.body)}`);
+  await waitStatus(big.body.id, 'running');
+
+  // 10 000 consistent bands, 1 nm wide, 0.05 nm apart (about 1 MB of JSON).
+  const bands = Array.from({ length: 10_000 }, (_, i) => ({
+    from_nm: 400 + i * 0.05,
+    to_nm: 401 + i * 0.05,
+    quantity: 'R',
+    max_percent: 1,
+  }));
+  let masks = 0;
+  let maskMs = 0;
+  let stop = false;
+  const poster = (async () => {
+    while (!stop) {
+      const t = performance.now();
+      const res = await api('POST', '/spec-masks', {
+        name: `Bench 10k bands ${seed}-${masks}`,
+        customerId: customers[0].id,
+        revision: 'A',
+        bands,
+      });
+      if (res.status !== 201) throw new Error(`mask post gave ${res.status}: ${JSON.stringify(res.body)}`);
+      maskMs += performance.now() - t;
+      masks++;
+    }
+  })();
+
+  const latencies: number[] = [];
+  const until = Date.now() + seconds * 1000;
+  while (Date.now() < until) {
+    const t = performance.now();
+    const res = await api('GET', '/auth/me');
+    if (res.status !== 200) throw new Error(`GET /auth/me gave ${res.status}`);
+    latencies.push(performance.now() - t);
+    await sleep(50);
+  }
+  stop = true;
+  await poster;
+
+  const cancelAt = performance.now();
+  await api('POST', `/calculations/${big.body.id}/cancel`);
+  const next = await api<{ id: number }>('POST', `/designs/${demo.id}/versions/1/yield`, {
+    trials: 100,
+    seed: seed + 1,
+    thickness: { relativePercent: 1 },
+  });
+  await waitStatus(next.body.id, 'running');
+  const freedMs = performance.now() - cancelAt;
+  await waitStatus(next.body.id, 'completed');
+
+  latencies.sort((a, b) => a - b);
+  const f = (v: number) => v.toFixed(1);
+  console.log(`light GET /api/auth/me under load, ${latencies.length} requests over ${seconds} s:`);
+  console.log(
+    `  p50 ${f(percentile(latencies, 50))} ms, p95 ${f(percentile(latencies, 95))} ms, max ${f(latencies[latencies.length - 1])} ms`,
+  );
+  console.log(`10 000-band masks posted meanwhile: ${masks}, mean ${f(maskMs / Math.max(1, masks))} ms each`);
+  console.log(`cancel of the 100 000-trial forecast → next job running: ${f(freedMs)} ms`);
+}
+
+main().catch((err: unknown) => {
+  console.error(err instanceof Error ? err.message : err);
+  process.exit(1);
+});
