@@ -210,6 +210,12 @@ export class ComputeProcessor extends WorkerHost implements OnModuleInit, OnModu
       this.stopPool(id, pool);
     };
     signal.addEventListener('abort', stopThreads, { once: true });
+    // Cancelled while the pool was starting: the listener above will never fire.
+    if (signal.aborted) {
+      signal.removeEventListener('abort', stopThreads);
+      stopThreads();
+      return null;
+    }
     try {
       const result = await pool.forecast(
         parseStack(input.stack),
@@ -284,6 +290,12 @@ export class ComputeProcessor extends WorkerHost implements OnModuleInit, OnModu
       this.stopPool(id, threads);
     };
     watch.signal.addEventListener('abort', stopThreads, { once: true });
+    if (watch.signal.aborted) {
+      watch.signal.removeEventListener('abort', stopThreads);
+      watch.stop();
+      stopThreads();
+      return { calculationId: id, outcome: 'cancelled' };
+    }
     let outcome: { summary: AnalysisSummary; values: Float64Array };
     try {
       outcome = await runAnalysis(input, threads, {
