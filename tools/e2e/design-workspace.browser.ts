@@ -8,6 +8,7 @@ import {
   demoUser,
   layerCell,
   maskResult,
+  openWorkspaceTab,
 } from './demo-shop.js';
 
 /*
@@ -49,6 +50,7 @@ describe('design workspace', () => {
     await page.getByRole('button', { name: 'Save' }).click();
     await page.getByText('No unsaved changes').waitFor();
 
+    await openWorkspaceTab(page, 'Full analysis');
     const analysis = page.getByRole('region', { name: 'Full analysis' });
     await analysis.getByLabel('From (nm)').fill('400');
     await analysis.getByLabel('To (nm)').fill('700');

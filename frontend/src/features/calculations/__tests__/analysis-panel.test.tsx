@@ -75,6 +75,26 @@ function renderPanel() {
 }
 
 describe('AnalysisPanel', () => {
+  it('starts on the range that covers every band of the mask', () => {
+    mockApi({ 'GET /api/calculations': { status: 200, body: [] } });
+    renderWithProviders(
+      <AnalysisPanel
+        designId={12}
+        versionNumber={1}
+        canSubmit
+        pollMs={40}
+        maskBands={[
+          { from_nm: 420, to_nm: 680, quantity: 'R', max_percent: 0.5, angles_deg: [0, 30] },
+          { from_nm: 840, to_nm: 880, quantity: 'R', max_percent: 1 },
+        ]}
+      />,
+    );
+    // 420–880 nm with a 46 nm margin, rounded outward to 10 nm (plotRangeForMask); 1 nm steps.
+    expect((screen.getByLabelText('From (nm)') as HTMLInputElement).value).toBe('370');
+    expect((screen.getByLabelText('To (nm)') as HTMLInputElement).value).toBe('930');
+    expect((screen.getByLabelText('Wavelengths') as HTMLInputElement).value).toBe('561');
+  });
+
   it('queues the analysis, shows progress while it runs and the heat map once it completes', async () => {
     const poll = changing(calculation({ status: 'running', progress: 0.4 }));
     const api = mockApi({

@@ -97,11 +97,11 @@ export function LayerGrid({
 
   const columns = useMemo<GridColDef<GridRow>[]>(
     () => [
-      { field: 'order', headerName: '#', width: 56, sortable: false, type: 'number' },
+      { field: 'order', headerName: '#', width: 48, sortable: false, type: 'number' },
       {
         field: 'materialId',
         headerName: 'Material',
-        width: 170,
+        width: 140,
         editable: !readOnly,
         sortable: false,
         type: 'singleSelect',
@@ -117,7 +117,7 @@ export function LayerGrid({
       {
         field: 'thicknessNm',
         headerName: 'Thickness (nm)',
-        width: 150,
+        width: 130,
         editable: !readOnly,
         sortable: false,
         valueSetter: (value: unknown, row) => ({
@@ -139,7 +139,7 @@ export function LayerGrid({
       {
         field: 'qwot',
         headerName: 'QWOT',
-        width: 130,
+        width: 100,
         editable: !readOnly,
         sortable: false,
         valueGetter: (_value, row) => {
@@ -172,7 +172,7 @@ export function LayerGrid({
       {
         field: 'locked',
         headerName: 'Locked',
-        width: 90,
+        width: 76,
         sortable: false,
         renderCell: ({ row }) => (
           <Checkbox
@@ -186,7 +186,7 @@ export function LayerGrid({
           />
         ),
       },
-      { field: 'notes', headerName: 'Notes', flex: 1, minWidth: 160, editable: !readOnly, sortable: false },
+      { field: 'notes', headerName: 'Notes', flex: 1, minWidth: 120, editable: !readOnly, sortable: false },
     ],
     [materials, materialsById, readOnly, referenceWavelengthNm, rows, onRowsChange],
   );
@@ -282,29 +282,32 @@ export function LayerGrid({
           ))}
         </Box>
       )}
-      <DataGrid
-        aria-label="Layer grid"
-        rows={gridRows}
-        columns={columns}
-        autoHeight
-        hideFooter
-        disableColumnMenu
-        disableColumnFilter
-        disableMultipleRowSelection
-        rowSelectionModel={selectionModel}
-        onRowSelectionModelChange={(model) =>
-          setSelectedId(([...model.ids][0] as string | undefined) ?? null)
-        }
-        processRowUpdate={(updated) => {
-          const { order: _order, ...row } = updated;
-          onRowsChange(rows.map((r) => (r.id === row.id ? row : r)));
-          return updated;
-        }}
-        localeText={{
-          noRowsLabel: readOnly ? 'This version has no layers' : 'No layers yet: add one or paste rows',
-        }}
-        sx={{ '& .MuiDataGrid-cell': { display: 'flex', alignItems: 'center' } }}
-      />
+      <Box sx={{ maxHeight: 380, overflow: 'auto' }}>
+        <DataGrid
+          aria-label="Layer grid"
+          rows={gridRows}
+          columns={columns}
+          autoHeight
+          density="compact"
+          hideFooter
+          disableColumnMenu
+          disableColumnFilter
+          disableMultipleRowSelection
+          rowSelectionModel={selectionModel}
+          onRowSelectionModelChange={(model) =>
+            setSelectedId(([...model.ids][0] as string | undefined) ?? null)
+          }
+          processRowUpdate={(updated) => {
+            const { order: _order, ...row } = updated;
+            onRowsChange(rows.map((r) => (r.id === row.id ? row : r)));
+            return updated;
+          }}
+          localeText={{
+            noRowsLabel: readOnly ? 'This version has no layers' : 'No layers yet: add one or paste rows',
+          }}
+          sx={{ '& .MuiDataGrid-cell': { display: 'flex', alignItems: 'center' } }}
+        />
+      </Box>
       <PasteRowsDialog
         open={pasting}
         materials={materials}
