@@ -2,7 +2,7 @@ import { BadRequestException, ConflictException, Injectable, NotFoundException }
 import { InjectQueue } from '@nestjs/bullmq';
 import { InjectRepository } from '@nestjs/typeorm';
 import { Queue } from 'bullmq';
-import { In, Repository } from 'typeorm';
+import { In, IsNull, Repository } from 'typeorm';
 import {
   ANALYSIS_POLARISATIONS,
   ANALYSIS_QUANTITIES,
@@ -13,7 +13,11 @@ import {
   type AnalysisQuantity,
   type AnalysisSummary,
 } from '@quietglass/shared/analysis';
-import type { CalculationKind } from '@quietglass/shared/calculations';
+import {
+  VERSION_CALCULATION_KINDS,
+  type CalculationKind,
+  type VersionCalculationKind,
+} from '@quietglass/shared/calculations';
 import { designStackDescription, engineBackSurface, type NamedModel } from '@quietglass/shared/designs';
 import { createSpectrumPlan } from '@quietglass/shared/optics/batch';
 import { OpticsInputError } from '@quietglass/shared/optics/errors';
@@ -150,6 +154,37 @@ export class CalculationsService {
       },
     );
     return { calculation: await this.get(saved.id), reused: false };
+  }
+
+  /**
+   * The latest completed calculation of each design kind (analysis, Fit to mask, Grow layers,
+   * Yield forecast) of a version, so a result shows again when the version is reopened.
+   */
+  async latestForVersion(
+    designId: number,
+    number: number,
+  ): Promise<Record<VersionCalculationKind, Calculation | null>> {
+    await this.designs.findVersion(designId, number);
+    const latest = await Promise.all(
+      VERSION_CALCULATION_KINDS.map((kind) =>
+        this.calculations.findOne({
+          where: { designId, versionNumber: number, kind, status: 'completed', runId: IsNull() },
+          order: { id: 'DESC' },
+        }),
+      ),
+    );
+    return Object.fromEntries(VERSION_CALCULATION_KINDS.map((kind, i) => [kind, latest[i]])) as Record<
+      VersionCalculationKind,
+      Calculation | null
+    >;
+  }
+
+  /** The latest completed Run diagnosis of a chamber run, or null. */
+  latestDiagnosis(runId: number): Promise<Calculation | null> {
+    return this.calculations.findOne({
+      where: { runId, kind: 'diagnosis', status: 'completed' },
+      order: { id: 'DESC' },
+    });
   }
 
   list(): Promise<Calculation[]> {

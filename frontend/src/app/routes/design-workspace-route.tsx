@@ -54,6 +54,8 @@ export function DesignWorkspaceRoute() {
     return <ErrorAlert error={materials.error} title="The materials could not be loaded" />;
 
   const versionNumber = shownVersion(design.data.versions, search.get('version'));
+  // A compute-queue link names the tab and the calculation to open.
+  const openCalculationId = Number(search.get('calculation')) || null;
   const maskName =
     design.data.specMaskId === null
       ? null
@@ -98,6 +100,7 @@ export function DesignWorkspaceRoute() {
         maskBands={mask.data?.bands ?? null}
         maskName={maskName}
         canEdit={canEdit}
+        initialTab={search.get('tab')}
         approval={(version, onTransitioned) => (
           <ApprovalPanel
             key={version.number}
@@ -118,6 +121,7 @@ export function DesignWorkspaceRoute() {
                 versionNumber={versionNumber}
                 canSubmit={canEdit}
                 maskBands={mask.data?.bands ?? null}
+                openCalculationId={search.get('tab') === 'analysis' ? openCalculationId : null}
               />
             ),
           },
@@ -137,6 +141,7 @@ export function DesignWorkspaceRoute() {
                       canRun={canEdit}
                       onVersionChange={(number) => setSearch({ version: String(number) })}
                       storeVersion={(view) => storeDesignVersion(queryClient, view)}
+                      openCalculationId={search.get('tab') === 'optimise' ? openCalculationId : null}
                     />
                   ),
                 },

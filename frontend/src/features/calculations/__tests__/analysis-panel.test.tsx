@@ -197,6 +197,26 @@ describe('AnalysisPanel', () => {
     expect(screen.queryByRole('progressbar', { name: 'Analysis progress' })).toBeNull();
   });
 
+  it('shows the version’s latest stored analysis on open, with who ran it and when', async () => {
+    const api = mockApi({
+      'GET /api/designs/12/versions/1/calculations/latest': {
+        status: 200,
+        body: { analysis: COMPLETED, fit: null, grow: null, yield: null },
+      },
+      [POLL]: { status: 200, body: COMPLETED },
+      [RESULT]: { status: 200, body: RESULT_BODY },
+    });
+    renderPanel();
+    expect(await screen.findByRole('figure', { name: 'Heat map' })).toBeTruthy();
+    expect(screen.getByRole('status', { name: 'Analysis status' }).textContent).toBe(
+      'Calculation 7 completed in 0.84 s',
+    );
+    expect(screen.getByLabelText('Analysis run by').textContent).toMatch(
+      new RegExp(`^Run by ${COMPLETED.createdBy}, finished `),
+    );
+    expect(api.requests.filter((r) => r.method === 'POST')).toHaveLength(0);
+  });
+
   it('shows why a calculation failed', async () => {
     const failed = calculation({
       status: 'failed',
@@ -229,6 +249,6 @@ describe('AnalysisPanel', () => {
     const section = within(screen.getByRole('region', { name: 'Full analysis' }));
     expect(section.getByText('A whole number from 1 to 4001')).toBeTruthy();
     expect(section.getByText('An angle from 0 to below 90°')).toBeTruthy();
-    expect(api.requests).toHaveLength(0);
+    expect(api.requests.filter((r) => r.method === 'POST')).toHaveLength(0);
   });
 });

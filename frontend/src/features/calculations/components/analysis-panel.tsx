@@ -22,6 +22,7 @@ import {
   useCalculation,
   type CalculationView,
 } from '../api/get-calculation';
+import { useLatestCalculations } from '../api/get-latest-calculations';
 import { useSubmitAnalysis } from '../api/submit-analysis';
 import { AnalysisResults } from './analysis-results';
 import { CalculationStatus } from './calculation-status';
@@ -115,6 +116,8 @@ interface AnalysisPanelProps {
   canSubmit: boolean;
   /** The design's mask: the form starts on the range that covers its bands. */
   maskBands?: readonly LimitBand[] | null;
+  /** A calculation to show at first (opened from the compute queue) instead of the latest. */
+  openCalculationId?: number | null;
   pollMs?: number;
 }
 
@@ -127,13 +130,16 @@ export function AnalysisPanel({
   versionNumber,
   canSubmit,
   maskBands = null,
+  openCalculationId = null,
   pollMs = CALCULATION_POLL_MS,
 }: AnalysisPanelProps) {
-  const [calculationId, setCalculationId] = useState<number | null>(null);
+  const [calculationId, setCalculationId] = useState<number | null>(openCalculationId);
   const [reused, setReused] = useState(false);
   const submit = useSubmitAnalysis();
   const cancel = useCancelCalculation();
-  const calculation = useCalculation(calculationId, pollMs);
+  // Until one is run here, the version's latest completed analysis is shown.
+  const latest = useLatestCalculations(designId, versionNumber);
+  const calculation = useCalculation(calculationId ?? latest.data?.analysis?.id ?? null, pollMs);
   const { control, handleSubmit, getFieldState, setValue } = useForm<AnalysisValues>({
     defaultValues: { ...DEFAULTS, ...maskAnalysisRange(maskBands) },
     mode: 'onTouched',

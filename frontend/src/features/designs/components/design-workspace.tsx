@@ -35,6 +35,8 @@ interface DesignWorkspaceProps {
   ) => ReactNode;
   /** Further tabs after Stack setup and Compare (Full analysis, Optimise); Approval & history comes last. */
   panels?: readonly WorkspaceTab[];
+  /** The tab open at first (e.g. from a compute-queue link). */
+  initialTab?: string | null;
 }
 
 /**
@@ -51,8 +53,9 @@ export function DesignWorkspace({
   canEdit,
   approval,
   panels = [],
+  initialTab = null,
 }: DesignWorkspaceProps) {
-  const [tab, setTab] = useState('setup');
+  const [tab, setTab] = useState(initialTab ?? 'setup');
   const queryClient = useQueryClient();
   const version = useDesignVersion(design.id, versionNumber);
   const [loadCount, setLoadCount] = useState(0);

@@ -225,13 +225,49 @@ describe('Run page', () => {
     );
   });
 
-  it('operators do not see Run diagnosis', async () => {
-    const calls = api('operator', testRun({ spectra: [SPECTRUM] }));
+  it('operators see the run’s stored diagnosis with who ran it, and cannot run one', async () => {
+    const stored = {
+      id: 78,
+      kind: 'diagnosis',
+      status: 'completed',
+      progress: 1,
+      error: null,
+      designId: 12,
+      versionNumber: 1,
+      request: null,
+      live: null,
+      runId: 40,
+      createdBy: 'Tomas Reyne',
+      createdAt: '2026-12-01T13:00:00.000Z',
+      startedAt: '2026-12-01T13:00:01.000Z',
+      finishedAt: '2026-12-01T13:00:03.000Z',
+      computeMs: 2000,
+      processedBy: 'worker-1',
+      attempts: 1,
+      summary: {
+        residualRmsPercent: 0.0123,
+        layers: [
+          {
+            layer: 2,
+            materialId: 11,
+            designNm: 127.6,
+            fittedNm: 117.392,
+            factor: 0.92,
+            deviationPercent: -8,
+          },
+        ],
+      },
+    };
+    const calls = api('operator', testRun({ spectra: [SPECTRUM] }), {
+      'GET /api/runs/40/diagnosis/latest': { status: 200, body: { calculation: stored } },
+    });
     renderApp('/runs/40');
-    await section('Comparison with design and mask');
-    expect(screen.queryByRole('region', { name: 'Run diagnosis' })).toBeNull();
-    expect(screen.queryByRole('button', { name: 'Run diagnosis' })).toBeNull();
-    expect(calls.requests.filter((r) => r.path.includes('diagnosis'))).toHaveLength(0);
+    const panel = await section('Run diagnosis');
+    expect(panel.queryByRole('button', { name: 'Run diagnosis' })).toBeNull();
+    const table = within(await panel.findByRole('table', { name: 'Fitted thickness factors' }));
+    expect(within(table.getAllByRole('row')[1]).getAllByRole('cell')[6].textContent).toBe('0.920');
+    expect(panel.getByLabelText('Diagnosis run by').textContent).toMatch(/^Run by Tomas Reyne, finished /);
+    expect(calls.requests.filter((r) => r.method === 'POST')).toHaveLength(0);
   });
 
   it('engineers get Run diagnosis of the shown spectrum, with the layers and materials of its recipe', async () => {
