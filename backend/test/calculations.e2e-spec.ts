@@ -160,6 +160,23 @@ describe('compute queue: full analysis', () => {
       .send(small);
     expect(later.status).toBe(200);
     expect(later.body).toMatchObject({ id: first.body.id, status: 'completed', reused: true });
+
+    // Reopening the version finds the result again, with who ran it; other kinds have none yet.
+    const latest = await http()
+      .get(`/api/designs/${id}/versions/1/calculations/latest`)
+      .set('Cookie', engineer);
+    expect(latest.status).toBe(200);
+    expect(latest.body.analysis).toMatchObject({
+      id: first.body.id,
+      status: 'completed',
+      createdBy: 'Mira Castell',
+    });
+    expect(latest.body.analysis.finishedAt).toEqual(done.finishedAt);
+    expect(latest.body).toMatchObject({ fit: null, grow: null, yield: null });
+    const missing = await http()
+      .get(`/api/designs/${id}/versions/9/calculations/latest`)
+      .set('Cookie', engineer);
+    expect(missing.status).toBe(404);
   });
 
   it('rejects a bad request with the field named, and a grid beyond a material’s range', async () => {

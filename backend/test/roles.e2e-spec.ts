@@ -374,6 +374,20 @@ const RULES: RouteRule[] = [
   },
   {
     method: 'get',
+    path: '/api/designs/:id/versions/:number/calculations/latest',
+    allow: OFFICE,
+    okStatus: 200,
+    url: (ctx) => `/api/designs/${ctx.designId}/versions/1/calculations/latest`,
+  },
+  {
+    method: 'get',
+    path: '/api/runs/:id/diagnosis/latest',
+    allow: ['admin', 'engineer', 'operator'],
+    okStatus: 200,
+    url: (ctx) => `/api/runs/${ctx.runId}/diagnosis/latest`,
+  },
+  {
+    method: 'get',
     path: '/api/calculations/:id/result.csv',
     allow: OFFICE,
     okStatus: 200,

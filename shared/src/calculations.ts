@@ -11,6 +11,10 @@ export type CalculationStatus = (typeof CALCULATION_STATUSES)[number];
 export const CALCULATION_KINDS = ['analysis', 'fit', 'grow', 'yield', 'diagnosis'] as const;
 export type CalculationKind = (typeof CALCULATION_KINDS)[number];
 
+/** The kinds of job a design version keeps its latest result of (Run diagnosis belongs to a run). */
+export const VERSION_CALCULATION_KINDS = ['analysis', 'fit', 'grow', 'yield'] as const;
+export type VersionCalculationKind = (typeof VERSION_CALCULATION_KINDS)[number];
+
 /** Streamed while an optimisation runs: merit per iteration (fit, diagnosis) or per layer count (grow). */
 export interface LiveProgress {
   history: { iteration?: number; layerCount?: number; merit: number }[];
@@ -85,3 +89,6 @@ export function grownLayerMaterialId(
   const start = /^layers\[(\d+)\]$/.exec(name);
   return start ? startMaterialIds[Number(start[1])] : undefined;
 }
+
+/** The latest completed calculation of each kind for a design version (null: none yet). */
+export type LatestCalculations = Record<VersionCalculationKind, CalculationView | null>;

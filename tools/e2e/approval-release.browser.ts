@@ -6,6 +6,7 @@ import {
   browserSession,
   createDesignInBrowser,
   demoUser,
+  openWorkspaceTab,
   startRunInDialog,
 } from './demo-shop.js';
 
@@ -71,6 +72,7 @@ describe('approval and release', () => {
     const designUrl = page.url();
     await page.getByRole('button', { name: 'Save' }).click();
     await page.getByText('No unsaved changes').waitFor();
+    await openWorkspaceTab(page, 'Approval & history');
     await page.getByRole('button', { name: 'Submit for approval' }).click();
     const confirm = page.getByRole('dialog', { name: 'Submit version 1 for approval?' });
     await confirm.getByRole('button', { name: 'Submit', exact: true }).click();
@@ -91,6 +93,7 @@ describe('approval and release', () => {
     const tomas = await session(demoUser('tomas.reyes'));
     page = tomas.page;
     await page.goto(designUrl);
+    await openWorkspaceTab(page, 'Approval & history');
     await expect.poll(() => statusChip(page).innerText()).toBe('Version 1: submitted');
     await page.getByRole('button', { name: 'Approve', exact: true }).click();
     const approve = page.getByRole('dialog', { name: 'Approve version 1' });

@@ -159,10 +159,11 @@ describe('chamber run', () => {
       new URL((await download.getAttribute('href'))!, baseUrl()).href,
     );
     expect(await original.text()).toBe(measured.csv);
-    // Operators have no Run diagnosis.
-    expect(await region(page, 'Run diagnosis').count()).toBe(0);
+    // Operators cannot run a diagnosis; they see the run's stored one once an engineer has run it.
+    expect(await region(page, 'Run diagnosis').getByRole('button', { name: 'Run diagnosis' }).count()).toBe(
+      0,
+    );
     expect(pageErrors).toEqual([]);
-    await context.close();
 
     const engineer = await browserSession(browser, demoUser('mira.castell'));
     const engineerPage = engineer.page;
@@ -183,5 +184,17 @@ describe('chamber run', () => {
     );
     expect(engineer.pageErrors).toEqual([]);
     await engineer.context.close();
+
+    // The diagnosis is stored with the run: the operator's page shows it after a reload.
+    await page.reload();
+    const stored = region(page, 'Run diagnosis');
+    const storedRows = stored.getByRole('table', { name: 'Fitted thickness factors' }).getByRole('row');
+    await expect.poll(() => storedRows.count(), { timeout: 20_000 }).toBe(5);
+    expect((await storedRows.nth(1).getByRole('cell').allInnerTexts()).map((t) => t.trim())[3]).toBe('ZrO2');
+    expect(await stored.getByLabel('Diagnosis run by').innerText()).toMatch(
+      /^Run by Mira Castell, finished /,
+    );
+    expect(pageErrors).toEqual([]);
+    await context.close();
   });
 });

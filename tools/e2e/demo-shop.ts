@@ -196,3 +196,8 @@ export async function startRunInDialog(page: Page, recipeLabel: string | null, l
   await page.waitForURL(/\/runs\/\d+$/);
   await page.getByRole('heading', { level: 1, name: `Run ${lot}` }).waitFor();
 }
+
+/** Opens a tab of the design workspace below the grid and the plot ("Full analysis", "Optimise" …). */
+export async function openWorkspaceTab(page: Page, name: string): Promise<void> {
+  await page.getByRole('tablist', { name: 'Workspace' }).getByRole('tab', { name, exact: true }).click();
+}

@@ -8,6 +8,7 @@ import {
   demoUser,
   layerCell,
   maskResult,
+  openWorkspaceTab,
 } from './demo-shop.js';
 
 /*
@@ -49,6 +50,7 @@ describe('design workspace', () => {
     await page.getByRole('button', { name: 'Save' }).click();
     await page.getByText('No unsaved changes').waitFor();
 
+    await openWorkspaceTab(page, 'Full analysis');
     const analysis = page.getByRole('region', { name: 'Full analysis' });
     await analysis.getByLabel('From (nm)').fill('400');
     await analysis.getByLabel('To (nm)').fill('700');
@@ -66,7 +68,31 @@ describe('design workspace', () => {
       .poll(() => heatMap.locator('.js-plotly-plot .heatmaplayer .hm').count(), { timeout: 20_000 })
       .toBe(1);
     expect(await analysis.getByRole('figure', { name: 'Field profile' }).count()).toBe(1);
+
+    // The result stays: reopening the version shows it again, with who ran it.
+    await page.reload();
+    await openWorkspaceTab(page, 'Full analysis');
+    const reopened = page.getByRole('region', { name: 'Full analysis' });
+    await expect
+      .poll(() => reopened.getByRole('status', { name: 'Analysis status' }).innerText(), { timeout: 20_000 })
+      .toMatch(/completed/);
+    expect(await reopened.getByLabel('Analysis run by').innerText()).toMatch(
+      /^Run by Mira Castell, finished /,
+    );
+    await reopened.getByRole('figure', { name: 'Heat map' }).waitFor();
+
+    // The compute queue's row opens the same result.
+    await page.goto(page.url().replace(/\/designs\/.*$/, '/compute-queue'));
+    await page
+      .getByRole('link', { name: /^Open the result of calculation / })
+      .first()
+      .click();
+    await page.waitForURL(/tab=analysis&calculation=\d+/);
+    await page
+      .getByRole('region', { name: 'Full analysis' })
+      .getByRole('figure', { name: 'Heat map' })
+      .waitFor({ timeout: 20_000 });
     expect(pageErrors).toEqual([]);
     await context.close();
-  });
+  }, 150_000);
 });

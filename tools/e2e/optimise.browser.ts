@@ -1,7 +1,14 @@
 import type { Browser } from 'playwright-core';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { launchBrowser } from './browser.js';
-import { browserSession, createDesignInBrowser, demoUser, layerCell, maskResult } from './demo-shop.js';
+import {
+  browserSession,
+  createDesignInBrowser,
+  demoUser,
+  layerCell,
+  maskResult,
+  openWorkspaceTab,
+} from './demo-shop.js';
 
 /*
  * An engineer refines a rough four-layer AR stack for the demo customer's mask "HVS-2210 lens AR"
@@ -39,6 +46,7 @@ describe('optimise', () => {
     await page.getByText('No unsaved changes').waitFor();
 
     // Fit to mask of the saved version 1.
+    await openWorkspaceTab(page, 'Optimise');
     const optimise = page.getByRole('region', { name: 'Optimise' });
     await optimise.getByRole('tab', { name: 'Fit to mask' }).click();
     await optimise.getByRole('button', { name: 'Run Fit to mask' }).click();

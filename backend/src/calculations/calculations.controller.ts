@@ -19,7 +19,7 @@ import { toCalculationView } from './calculation.entity.js';
 import { CalculationsService } from './calculations.service.js';
 import { AcceptDto, DiagnosisDto, FitDto, GrowDto, YieldDto } from './dto/optimise.dto.js';
 import { OptimiseService } from './optimise.service.js';
-import type { CalculationView } from '@quietglass/shared/calculations';
+import type { CalculationView, LatestCalculations } from '@quietglass/shared/calculations';
 import type { DesignVersionView } from '@quietglass/shared/designs';
 import type { Calculation } from './calculation.entity.js';
 
@@ -110,6 +110,29 @@ export class CalculationsController {
     const { calculation, reused } = await this.calculations.submitAnalysis(id, number, body, user);
     res.status(reused ? 200 : 201);
     return { ...toCalculationView(calculation), reused };
+  }
+
+  /** The latest completed result of each kind for a version, with when and by whom it was run. */
+  @Get('designs/:id/versions/:number/calculations/latest')
+  @Roles('admin', 'engineer', 'sales')
+  async latestForVersion(
+    @Param('id', ParseIntPipe) id: number,
+    @Param('number', ParseIntPipe) number: number,
+  ): Promise<LatestCalculations> {
+    const latest = await this.calculations.latestForVersion(id, number);
+    return Object.fromEntries(
+      Object.entries(latest).map(([kind, c]) => [kind, c ? toCalculationView(c) : null]),
+    ) as LatestCalculations;
+  }
+
+  /** The latest completed Run diagnosis of a chamber run, for the run page. */
+  @Get('runs/:id/diagnosis/latest')
+  @Roles('admin', 'engineer', 'operator')
+  async latestDiagnosis(
+    @Param('id', ParseIntPipe) id: number,
+  ): Promise<{ calculation: CalculationView | null }> {
+    const calc = await this.calculations.latestDiagnosis(id);
+    return { calculation: calc ? toCalculationView(calc) : null };
   }
 
   @Get('calculations')

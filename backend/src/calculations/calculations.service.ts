@@ -10,7 +10,7 @@ import { Readable } from 'node:stream';
 import { InjectQueue } from '@nestjs/bullmq';
 import { InjectRepository } from '@nestjs/typeorm';
 import { Queue } from 'bullmq';
-import { In, Repository } from 'typeorm';
+import { In, IsNull, Repository } from 'typeorm';
 import {
   ANALYSIS_POLARISATIONS,
   ANALYSIS_QUANTITIES,
@@ -28,7 +28,11 @@ import {
   type BudgetedKind,
   type JobSize,
 } from '@quietglass/shared/budgets';
-import type { CalculationKind } from '@quietglass/shared/calculations';
+import {
+  VERSION_CALCULATION_KINDS,
+  type CalculationKind,
+  type VersionCalculationKind,
+} from '@quietglass/shared/calculations';
 import { designStackDescription, engineBackSurface, type NamedModel } from '@quietglass/shared/designs';
 import { createSpectrumPlan } from '@quietglass/shared/optics/batch';
 import { OpticsInputError } from '@quietglass/shared/optics/errors';
@@ -198,6 +202,37 @@ export class CalculationsService {
         .catch(() => undefined);
       throw isOutage(err) ? err : new QueueUnavailableError(String(err));
     }
+  }
+
+  /**
+   * The latest completed calculation of each design kind (analysis, Fit to mask, Grow layers,
+   * Yield forecast) of a version, so a result shows again when the version is reopened.
+   */
+  async latestForVersion(
+    designId: number,
+    number: number,
+  ): Promise<Record<VersionCalculationKind, Calculation | null>> {
+    await this.designs.findVersion(designId, number);
+    const latest = await Promise.all(
+      VERSION_CALCULATION_KINDS.map((kind) =>
+        this.calculations.findOne({
+          where: { designId, versionNumber: number, kind, status: 'completed', runId: IsNull() },
+          order: { id: 'DESC' },
+        }),
+      ),
+    );
+    return Object.fromEntries(VERSION_CALCULATION_KINDS.map((kind, i) => [kind, latest[i]])) as Record<
+      VersionCalculationKind,
+      Calculation | null
+    >;
+  }
+
+  /** The latest completed Run diagnosis of a chamber run, or null. */
+  latestDiagnosis(runId: number): Promise<Calculation | null> {
+    return this.calculations.findOne({
+      where: { runId, kind: 'diagnosis', status: 'completed' },
+      order: { id: 'DESC' },
+    });
   }
 
   list(): Promise<Calculation[]> {

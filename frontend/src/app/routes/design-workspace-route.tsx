@@ -1,4 +1,3 @@
-import Box from '@mui/material/Box';
 import Button from '@mui/material/Button';
 import { useQueryClient } from '@tanstack/react-query';
 import { useState } from 'react';
@@ -55,6 +54,8 @@ export function DesignWorkspaceRoute() {
     return <ErrorAlert error={materials.error} title="The materials could not be loaded" />;
 
   const versionNumber = shownVersion(design.data.versions, search.get('version'));
+  // A compute-queue link names the tab and the calculation to open.
+  const openCalculationId = Number(search.get('calculation')) || null;
   const maskName =
     design.data.specMaskId === null
       ? null
@@ -91,45 +92,63 @@ export function DesignWorkspaceRoute() {
       {mask.isError && (
         <ErrorAlert error={mask.error} title="The spec mask could not be loaded" sx={{ mb: 2 }} />
       )}
-      <Box sx={{ display: 'grid', gap: 3 }}>
-        <DesignWorkspace
-          design={design.data}
-          versionNumber={versionNumber}
-          onVersionChange={(number) => setSearch({ version: String(number) })}
-          library={materials.data}
-          maskBands={mask.data?.bands ?? null}
-          maskName={maskName}
-          canEdit={canEdit}
-          approval={(version, onTransitioned) => (
-            <ApprovalPanel
-              key={version.number}
-              version={version}
-              userId={user.id}
-              canAct={canEdit}
-              onTransitioned={onTransitioned}
-            />
-          )}
-        />
-        <AnalysisPanel
-          key={versionNumber}
-          designId={design.data.id}
-          versionNumber={versionNumber}
-          canSubmit={canEdit}
-        />
-        {canEdit && (
-          <OptimisePanel
-            key={`optimise-${versionNumber}`}
-            designId={design.data.id}
-            versionNumber={versionNumber}
-            library={materials.data}
-            maskBands={mask.data?.bands ?? null}
-            version={optimiseVersion}
-            canRun={canEdit}
-            onVersionChange={(number) => setSearch({ version: String(number) })}
-            storeVersion={(view) => storeDesignVersion(queryClient, view)}
+      <DesignWorkspace
+        design={design.data}
+        versionNumber={versionNumber}
+        onVersionChange={(number) => setSearch({ version: String(number) })}
+        library={materials.data}
+        maskBands={mask.data?.bands ?? null}
+        maskName={maskName}
+        canEdit={canEdit}
+        initialTab={search.get('tab')}
+        approval={(version, onTransitioned) => (
+          <ApprovalPanel
+            key={version.number}
+            version={version}
+            userId={user.id}
+            canAct={canEdit}
+            onTransitioned={onTransitioned}
           />
         )}
-      </Box>
+        panels={[
+          {
+            key: 'analysis',
+            label: 'Full analysis',
+            content: (
+              <AnalysisPanel
+                key={versionNumber}
+                designId={design.data.id}
+                versionNumber={versionNumber}
+                canSubmit={canEdit}
+                maskBands={mask.data?.bands ?? null}
+                openCalculationId={search.get('tab') === 'analysis' ? openCalculationId : null}
+              />
+            ),
+          },
+          ...(canEdit
+            ? [
+                {
+                  key: 'optimise',
+                  label: 'Optimise',
+                  content: (
+                    <OptimisePanel
+                      key={`optimise-${versionNumber}`}
+                      designId={design.data.id}
+                      versionNumber={versionNumber}
+                      library={materials.data}
+                      maskBands={mask.data?.bands ?? null}
+                      version={optimiseVersion}
+                      canRun={canEdit}
+                      onVersionChange={(number) => setSearch({ version: String(number) })}
+                      storeVersion={(view) => storeDesignVersion(queryClient, view)}
+                      openCalculationId={search.get('tab') === 'optimise' ? openCalculationId : null}
+                    />
+                  ),
+                },
+              ]
+            : []),
+        ]}
+      />
     </>
   );
 }

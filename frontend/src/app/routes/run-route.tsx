@@ -32,18 +32,15 @@ function ComposedRunPage({ runId, role }: { runId: number; role: Role }) {
       role={role}
       recipe={recipe}
       chambers={chambers.data}
-      diagnosis={
-        isDesigner(role)
-          ? (spectrum) => (
-              <RunDiagnosisPanel
-                key={`diagnosis-${spectrum.id}`}
-                spectrum={spectrum}
-                layerCount={recipe.data?.layers.length ?? 0}
-                materialName={materialName}
-              />
-            )
-          : undefined
-      }
+      diagnosis={(spectrum) => (
+        <RunDiagnosisPanel
+          key={`diagnosis-${spectrum.id}`}
+          spectrum={spectrum}
+          layerCount={recipe.data?.layers.length ?? 0}
+          materialName={materialName}
+          canRun={isDesigner(role)}
+        />
+      )}
     />
   );
 }

@@ -186,33 +186,157 @@ export function insertRow(rows: readonly LayerRow[], index: number, row: LayerRo
 
 export type PasteResult = { ok: true; rows: LayerRow[] } | { ok: false; problems: string[] };
 
+/** How pasted thicknesses are read: physical nm, quarter waves or full waves at the reference wavelength. */
+export type ThicknessUnit = 'nm' | 'qwot' | 'fwot';
+
+export const THICKNESS_UNIT_LABELS: Record<ThicknessUnit, string> = {
+  nm: 'nm',
+  qwot: 'QWOT',
+  fwot: 'FWOT',
+};
+
+export interface PasteOptions {
+  /** The unit of a thickness column whose header does not name one (default nm). */
+  unit?: ThicknessUnit;
+  /** Reference wavelength for QWOT and FWOT, nm. */
+  referenceNm?: number | null;
+}
+
+/** The cell separator of pasted text: tabs (spreadsheets), else semicolons, else commas. */
+export function pastedSeparator(text: string): '\t' | ';' | ',' {
+  if (text.includes('\t')) return '\t';
+  if (text.includes(';')) return ';';
+  return ',';
+}
+
+/** Splits one line at `separator`, keeping separators inside double quotes ("a, b"). */
+function splitCells(line: string, separator: string): string[] {
+  const cells: string[] = [];
+  let cell = '';
+  let quoted = false;
+  for (let i = 0; i < line.length; i++) {
+    const c = line[i];
+    if (c === '"') {
+      if (quoted && line[i + 1] === '"') {
+        cell += '"';
+        i++;
+      } else quoted = !quoted;
+    } else if (c === separator && !quoted) {
+      cells.push(cell);
+      cell = '';
+    } else cell += c;
+  }
+  cells.push(cell);
+  return cells.map((x) => x.trim());
+}
+
+/** A number typed with a decimal comma ("96,8") as the engine reads it ("96.8"). */
+export function withDecimalPoint(text: string): string {
+  const trimmed = text.trim();
+  return /^[+-]?\d*,\d+$/.test(trimmed) ? trimmed.replace(',', '.') : trimmed;
+}
+
+interface PasteColumns {
+  material: number;
+  thickness: number;
+  notes: number[];
+  unit: ThicknessUnit | null;
+}
+
+/** The columns named by a header line, or null when the line is not a header. */
+function headerColumns(cells: readonly string[]): PasteColumns | null {
+  const material = cells.findIndex(
+    (c) => /^(material|layer material|mat\.?)$/i.test(c) || /^material\b/i.test(c),
+  );
+  const thickness = cells.findIndex((c) => /thickness|qwot|fwot|\bnm\b|optical/i.test(c));
+  if (material < 0 || thickness < 0) return null;
+  const head = cells[thickness];
+  const unit: ThicknessUnit | null = /fwot|full.?wave/i.test(head)
+    ? 'fwot'
+    : /qwot|quarter.?wave/i.test(head)
+      ? 'qwot'
+      : /\bnm\b|\(nm\)/i.test(head)
+        ? 'nm'
+        : null;
+  const notes = cells.flatMap((c, i) =>
+    i !== material && i !== thickness && /note|comment/i.test(c) ? [i] : [],
+  );
+  return { material, thickness, notes, unit };
+}
+
 /**
- * Reads rows copied from a spreadsheet: one layer per line, cells separated by tabs — material
- * name, thickness in nm and optionally notes. A first line naming the columns ("Material…") is
- * skipped. Any bad line rejects the whole paste and every problem is listed with its line.
+ * Reads rows copied from a spreadsheet or a CSV file: one layer per line, cells separated by tabs,
+ * semicolons or commas — material name (any case), thickness and optionally notes. A first line
+ * naming the columns ("Material; QWOT; Notes") sets their order and the thickness unit (nm, QWOT
+ * or FWOT, else `options.unit`); a decimal comma is read as a decimal point. QWOT and FWOT become
+ * nm at the reference wavelength (QWOT = 4·n·d/λ, FWOT = n·d/λ). Any bad line rejects the whole
+ * paste and every problem is listed with its line.
  */
-export function parsePastedRows(text: string, materials: readonly LibraryMaterial[]): PasteResult {
+export function parsePastedRows(
+  text: string,
+  materials: readonly LibraryMaterial[],
+  options: PasteOptions = {},
+): PasteResult {
   const byName = new Map(materials.map((m) => [m.name.trim().toLowerCase(), m]));
+  const separator = pastedSeparator(text);
   const lines = text.replace(/\r\n?/g, '\n').split('\n');
   const problems: string[] = [];
   const rows: LayerRow[] = [];
+  let columns: PasteColumns = { material: 0, thickness: 1, notes: [], unit: null };
+  let notesFromRest = true;
+  const firstLine = lines.findIndex((l) => l.trim() !== '');
   lines.forEach((line, i) => {
     if (line.trim() === '') return;
     const lineNo = i + 1;
-    const cells = line.split('\t');
-    if (i === 0 && /^\s*material/i.test(cells[0]) && parseNumberInput(cells[1] ?? '') === null) return;
+    const cells = splitCells(line, separator);
+    if (i === firstLine && parseNumberInput(withDecimalPoint(cells[1] ?? '')) === null) {
+      const header = headerColumns(cells);
+      if (header) {
+        columns = header;
+        notesFromRest = false;
+        return;
+      }
+    }
     if (cells.length < 2) {
-      problems.push(`Row ${lineNo}: expected a material name and a thickness separated by a tab`);
+      problems.push(
+        `Row ${lineNo}: expected a material name and a thickness separated by a tab, comma or semicolon`,
+      );
       return;
     }
-    const name = cells[0].trim();
+    const name = (cells[columns.material] ?? '').trim();
     const material = byName.get(name.toLowerCase());
     const rowProblems: string[] = [];
     if (name === '') rowProblems.push('the material name is empty');
     else if (!material) rowProblems.push(`unknown material "${name}"`);
-    const thickness = thicknessProblem(cells[1]);
-    if (thickness) rowProblems.push(`thickness ${thickness}`);
-    const notes = cells.slice(2).join(' ').trim();
+    const thicknessText = withDecimalPoint(cells[columns.thickness] ?? '');
+    const unit = columns.unit ?? options.unit ?? 'nm';
+    let thicknessNm = thicknessText;
+    if (unit === 'nm') {
+      const problem = thicknessProblem(thicknessText);
+      if (problem) rowProblems.push(`thickness ${problem}`);
+    } else {
+      const label = THICKNESS_UNIT_LABELS[unit];
+      const problem = qwotProblem(thicknessText);
+      if (problem) rowProblems.push(`${label} ${problem}`);
+      else if (material) {
+        const value = parseNumberInput(thicknessText) ?? 0;
+        const nm = thicknessForQwot(
+          material,
+          unit === 'fwot' ? 4 * value : value,
+          options.referenceNm ?? null,
+        );
+        if (nm === null) rowProblems.push(`${label} needs a valid reference wavelength`);
+        else {
+          const problem = thicknessProblem(String(nm));
+          if (problem) rowProblems.push(`thickness ${problem}`);
+          thicknessNm = String(nm);
+        }
+      }
+    }
+    const noteCells = notesFromRest
+      ? cells.filter((_c, k) => k !== columns.material && k !== columns.thickness)
+      : columns.notes.map((k) => cells[k] ?? '');
+    const notes = noteCells.join(' ').trim();
     if (notes.length > MAX_LAYER_NOTES)
       rowProblems.push(`notes must be at most ${MAX_LAYER_NOTES} characters`);
     if (rowProblems.length > 0 || !material) {
@@ -222,7 +346,7 @@ export function parsePastedRows(text: string, materials: readonly LibraryMateria
     rows.push({
       id: newRowId(),
       materialId: material.id,
-      thicknessNm: cells[1].trim(),
+      thicknessNm,
       qwotInput: null,
       locked: false,
       notes,
@@ -230,5 +354,29 @@ export function parsePastedRows(text: string, materials: readonly LibraryMateria
   });
   if (problems.length > 0) return { ok: false, problems };
   if (rows.length === 0) return { ok: false, problems: ['Nothing to paste: the text has no rows'] };
+  if (rows.length > MAX_LAYERS)
+    return { ok: false, problems: [`At most ${MAX_LAYERS} layers can be pasted`] };
   return { ok: true, rows };
+}
+
+/** Text of a block of rows is a paste of layers rather than one cell's value: several lines or cells. */
+export function looksLikeRows(text: string): boolean {
+  const trimmed = text.trim();
+  return /\n/.test(trimmed) || /\t/.test(trimmed) || /^[^;,]*[A-Za-z][^;,]*[;,]\s*[\d.,]+/.test(trimmed);
+}
+
+/**
+ * The period (H L)^n: `count` repeats of the two rows, as new rows (their ids fresh), in order.
+ */
+export function periodRows(high: LayerRow, low: LayerRow, count: number): LayerRow[] {
+  const rows: LayerRow[] = [];
+  for (let i = 0; i < count; i++) rows.push({ ...high, id: newRowId() }, { ...low, id: newRowId() });
+  return rows;
+}
+
+/** The rows with the block from `from` to `to` (inclusive, 0-based) in reverse order. */
+export function reverseBlock(rows: readonly LayerRow[], from: number, to: number): LayerRow[] {
+  const a = Math.max(0, Math.min(from, to));
+  const b = Math.min(rows.length - 1, Math.max(from, to));
+  return [...rows.slice(0, a), ...rows.slice(a, b + 1).reverse(), ...rows.slice(b + 1)];
 }

@@ -75,6 +75,26 @@ function renderPanel() {
 }
 
 describe('AnalysisPanel', () => {
+  it('starts on the range that covers every band of the mask', () => {
+    mockApi({ 'GET /api/calculations': { status: 200, body: [] } });
+    renderWithProviders(
+      <AnalysisPanel
+        designId={12}
+        versionNumber={1}
+        canSubmit
+        pollMs={40}
+        maskBands={[
+          { from_nm: 420, to_nm: 680, quantity: 'R', max_percent: 0.5, angles_deg: [0, 30] },
+          { from_nm: 840, to_nm: 880, quantity: 'R', max_percent: 1 },
+        ]}
+      />,
+    );
+    // 420–880 nm with a 46 nm margin, rounded outward to 10 nm (plotRangeForMask); 1 nm steps.
+    expect((screen.getByLabelText('From (nm)') as HTMLInputElement).value).toBe('370');
+    expect((screen.getByLabelText('To (nm)') as HTMLInputElement).value).toBe('930');
+    expect((screen.getByLabelText('Wavelengths') as HTMLInputElement).value).toBe('561');
+  });
+
   it('queues the analysis, shows progress while it runs and the heat map once it completes', async () => {
     const poll = changing(calculation({ status: 'running', progress: 0.4 }));
     const api = mockApi({
@@ -177,6 +197,26 @@ describe('AnalysisPanel', () => {
     expect(screen.queryByRole('progressbar', { name: 'Analysis progress' })).toBeNull();
   });
 
+  it('shows the version’s latest stored analysis on open, with who ran it and when', async () => {
+    const api = mockApi({
+      'GET /api/designs/12/versions/1/calculations/latest': {
+        status: 200,
+        body: { analysis: COMPLETED, fit: null, grow: null, yield: null },
+      },
+      [POLL]: { status: 200, body: COMPLETED },
+      [RESULT]: { status: 200, body: RESULT_BODY },
+    });
+    renderPanel();
+    expect(await screen.findByRole('figure', { name: 'Heat map' })).toBeTruthy();
+    expect(screen.getByRole('status', { name: 'Analysis status' }).textContent).toBe(
+      'Calculation 7 completed in 0.84 s',
+    );
+    expect(screen.getByLabelText('Analysis run by').textContent).toMatch(
+      new RegExp(`^Run by ${COMPLETED.createdBy}, finished `),
+    );
+    expect(api.requests.filter((r) => r.method === 'POST')).toHaveLength(0);
+  });
+
   it('shows why a calculation failed', async () => {
     const failed = calculation({
       status: 'failed',
@@ -209,6 +249,6 @@ describe('AnalysisPanel', () => {
     const section = within(screen.getByRole('region', { name: 'Full analysis' }));
     expect(section.getByText('A whole number from 1 to 4001')).toBeTruthy();
     expect(section.getByText('An angle from 0 to below 90°')).toBeTruthy();
-    expect(api.requests).toHaveLength(0);
+    expect(api.requests.filter((r) => r.method === 'POST')).toHaveLength(0);
   });
 });

@@ -38,8 +38,9 @@ function api(role: Role) {
 describe('Optimise on the design workspace page', () => {
   it('is there for an engineer, with its three optimisations', async () => {
     api('engineer');
-    renderApp('/designs/12');
-    await screen.findByRole('region', { name: 'Optimise' }, { timeout: 10_000 });
+    const { user } = renderApp('/designs/12');
+    await user.click(await screen.findByRole('tab', { name: 'Optimise' }, { timeout: 10_000 }));
+    await screen.findByRole('region', { name: 'Optimise' });
     expect(screen.getAllByRole('tab').map((t) => t.textContent)).toEqual(
       expect.arrayContaining(['Fit to mask', 'Grow layers', 'Yield forecast']),
     );
@@ -48,9 +49,11 @@ describe('Optimise on the design workspace page', () => {
 
   it('is not shown to sales, who see the design read-only', async () => {
     const calls = api('sales');
-    renderApp('/designs/12');
-    await screen.findByRole('region', { name: 'Full analysis' }, { timeout: 10_000 });
-    expect(screen.queryByRole('region', { name: 'Optimise' })).toBeNull();
+    const { user } = renderApp('/designs/12');
+    await user.click(await screen.findByRole('tab', { name: 'Full analysis' }, { timeout: 10_000 }));
+    await screen.findByRole('region', { name: 'Full analysis' });
+    expect(screen.queryByRole('tab', { name: 'Optimise' })).toBeNull();
+    expect(screen.queryByRole('region', { name: 'Optimise', hidden: true })).toBeNull();
     expect(screen.queryByRole('button', { name: /Run (Fit to mask|Grow layers|Yield forecast)/ })).toBeNull();
     expect(calls.requests.filter((r) => r.method === 'POST')).toHaveLength(0);
   });

@@ -3,8 +3,14 @@ import Box from '@mui/material/Box';
 import Button from '@mui/material/Button';
 import Paper from '@mui/material/Paper';
 import Typography from '@mui/material/Typography';
-import { MAX_ANALYSIS_ANGLES, MAX_ANALYSIS_WAVELENGTHS, type AnalysisRequest } from '@quietglass/shared';
-import { useState } from 'react';
+import {
+  MAX_ANALYSIS_ANGLES,
+  MAX_ANALYSIS_WAVELENGTHS,
+  plotRangeForMask,
+  type AnalysisRequest,
+  type LimitBand,
+} from '@quietglass/shared';
+import { useEffect, useState } from 'react';
 import { useForm } from 'react-hook-form';
 import { ErrorAlert } from '../../../components/error-alert';
 import { FormTextField } from '../../../components/form-text-field';
@@ -16,6 +22,7 @@ import {
   useCalculation,
   type CalculationView,
 } from '../api/get-calculation';
+import { useLatestCalculations } from '../api/get-latest-calculations';
 import { useSubmitAnalysis } from '../api/submit-analysis';
 import { AnalysisResults } from './analysis-results';
 import { CalculationStatus } from './calculation-status';
@@ -41,6 +48,22 @@ const DEFAULTS: AnalysisValues = {
   fieldWavelengthNm: '',
   fieldAngleDeg: '',
 };
+
+/** The form's wavelengths and angles for the range that covers the mask (1 nm steps where they fit). */
+export function maskAnalysisRange(
+  maskBands: readonly LimitBand[] | null,
+): Partial<Pick<AnalysisValues, 'fromNm' | 'toNm' | 'wavelengthCount' | 'angleToDeg'>> {
+  if (!maskBands || maskBands.length === 0) return {};
+  const range = plotRangeForMask(maskBands);
+  const count = Math.min(MAX_ANALYSIS_WAVELENGTHS, Math.round(range.toNm - range.fromNm) + 1);
+  const maxAngle = Math.max(...range.anglesDeg);
+  return {
+    fromNm: String(range.fromNm),
+    toNm: String(range.toNm),
+    wavelengthCount: String(count),
+    angleToDeg: String(Math.min(85, Math.max(60, maxAngle))),
+  };
+}
 
 // Rules of the engine's validateAnalysisRequest (shared/src/analysis.ts), which the API applies.
 const num = (v: string) => parseNumberInput(v);
@@ -91,6 +114,10 @@ interface AnalysisPanelProps {
   versionNumber: number;
   /** The signed-in role may queue and cancel calculations. */
   canSubmit: boolean;
+  /** The design's mask: the form starts on the range that covers its bands. */
+  maskBands?: readonly LimitBand[] | null;
+  /** A calculation to show at first (opened from the compute queue) instead of the latest. */
+  openCalculationId?: number | null;
   pollMs?: number;
 }
 
@@ -102,14 +129,27 @@ export function AnalysisPanel({
   designId,
   versionNumber,
   canSubmit,
+  maskBands = null,
+  openCalculationId = null,
   pollMs = CALCULATION_POLL_MS,
 }: AnalysisPanelProps) {
-  const [calculationId, setCalculationId] = useState<number | null>(null);
+  const [calculationId, setCalculationId] = useState<number | null>(openCalculationId);
   const [reused, setReused] = useState(false);
   const submit = useSubmitAnalysis();
   const cancel = useCancelCalculation();
-  const calculation = useCalculation(calculationId, pollMs);
-  const { control, handleSubmit } = useForm<AnalysisValues>({ defaultValues: DEFAULTS, mode: 'onTouched' });
+  // Until one is run here, the version's latest completed analysis is shown.
+  const latest = useLatestCalculations(designId, versionNumber);
+  const calculation = useCalculation(calculationId ?? latest.data?.analysis?.id ?? null, pollMs);
+  const { control, handleSubmit, getFieldState, setValue } = useForm<AnalysisValues>({
+    defaultValues: { ...DEFAULTS, ...maskAnalysisRange(maskBands) },
+    mode: 'onTouched',
+  });
+  // A mask that arrives after the form opened moves the fields the engineer has not changed.
+  useEffect(() => {
+    const range = maskAnalysisRange(maskBands);
+    for (const [name, value] of Object.entries(range) as [keyof typeof range, string][])
+      if (!getFieldState(name).isDirty) setValue(name, value);
+  }, [maskBands, getFieldState, setValue]);
 
   const onSubmit = handleSubmit((values) =>
     submit.mutate(

@@ -3,6 +3,7 @@ import Box from '@mui/material/Box';
 import Button from '@mui/material/Button';
 import LinearProgress from '@mui/material/LinearProgress';
 import Typography from '@mui/material/Typography';
+import { formatDateTime } from '../../../lib/format';
 import { isLive, type CalculationView } from '../api/get-calculation';
 
 interface CalculationStatusProps {
@@ -43,6 +44,12 @@ export function CalculationStatus({
           </Button>
         )}
       </Box>
+      <Typography variant="body2" color="text.secondary" aria-label={`${name} run by`}>
+        Run by {calculation.createdBy}
+        {calculation.finishedAt
+          ? `, finished ${formatDateTime(calculation.finishedAt)}`
+          : `, queued ${formatDateTime(calculation.createdAt)}`}
+      </Typography>
       {live && (
         <LinearProgress
           aria-label={`${name} progress`}

@@ -48,6 +48,13 @@ interface ComputeQueueGridProps {
   pollMs?: number;
 }
 
+/** Where a finished calculation's result is shown: its run page, or its version's workspace tab. */
+export function resultPath(c: CalculationView): string {
+  if (c.kind === 'diagnosis' && c.runId !== null) return `/runs/${c.runId}`;
+  const tab = c.kind === 'analysis' ? 'analysis' : 'optimise';
+  return `/designs/${c.designId}?version=${c.versionNumber ?? ''}&tab=${tab}&calculation=${c.id}`;
+}
+
 /** The compute queue: recent calculations with status, progress and timings; cancel the live ones. */
 export function ComputeQueueGrid({ designNames, canCancel, pollMs }: ComputeQueueGridProps) {
   const calculations = useCalculations(pollMs);
@@ -57,7 +64,26 @@ export function ComputeQueueGrid({ designNames, canCancel, pollMs }: ComputeQueu
 
   const columns = useMemo<GridColDef<CalculationView>[]>(
     () => [
-      { field: 'id', headerName: 'No.', width: 80, type: 'number' },
+      {
+        field: 'id',
+        headerName: 'No.',
+        width: 80,
+        type: 'number',
+        // A finished calculation's number opens its result.
+        renderCell: ({ row }) =>
+          row.status === 'completed' ? (
+            <Link
+              component={RouterLink}
+              to={resultPath(row)}
+              aria-label={`Open the result of calculation ${row.id}`}
+              title="Open the result"
+            >
+              {row.id}
+            </Link>
+          ) : (
+            row.id
+          ),
+      },
       {
         field: 'status',
         headerName: 'Status',

@@ -9,6 +9,7 @@ import { useMemo, useState, type ReactNode } from 'react';
 import { ErrorAlert } from '../../../components/error-alert';
 import { LoadingBlock } from '../../../components/loading-block';
 import { CALCULATION_POLL_MS, useCalculation } from '../api/get-calculation';
+import { useLatestCalculations } from '../api/get-latest-calculations';
 import {
   useSubmitOptimisation,
   type OptimisationInput,
@@ -72,6 +73,8 @@ interface OptimisePanelProps {
   onVersionChange: (number: number) => void;
   /** Caches a new draft version and refreshes the design's version list; awaited before it opens. */
   storeVersion: (view: DesignVersionView) => Promise<void>;
+  /** A calculation to show at first (opened from the compute queue): its tab opens with it. */
+  openCalculationId?: number | null;
   pollMs?: number;
 }
 
@@ -85,14 +88,25 @@ export function OptimisePanel({
   canRun,
   onVersionChange,
   storeVersion,
+  openCalculationId = null,
   pollMs = CALCULATION_POLL_MS,
 }: OptimisePanelProps) {
-  const [tab, setTab] = useState<OptimisationKind>('fit');
+  const opened = useCalculation(canRun ? openCalculationId : null, pollMs);
+  const openedKind = TABS.find((t) => t.kind === opened.data?.kind)?.kind ?? null;
+  const [chosenTab, setTab] = useState<OptimisationKind | null>(null);
+  const tab = chosenTab ?? openedKind ?? 'fit';
   const [runs, setRuns] = useState<Record<OptimisationKind, Run | null>>({
     fit: null,
     grow: null,
     yield: null,
   });
+
+  // Until one is run here, each optimisation shows the version's latest completed result.
+  const latest = useLatestCalculations(designId, versionNumber, canRun);
+  const runOf = (kind: OptimisationKind): Run | null => {
+    const stored = opened.data && openedKind === kind ? opened.data : latest.data?.[kind];
+    return runs[kind] ?? (stored ? { id: stored.id, reused: false } : null);
+  };
 
   const context = useMemo((): VersionContext | null => {
     if (!version.data) return null;
@@ -144,7 +158,7 @@ export function OptimisePanel({
             name={current.label}
             designId={designId}
             versionNumber={versionNumber}
-            run={runs[current.kind]}
+            run={runOf(current.kind)}
             onRun={(run) => setRuns((r) => ({ ...r, [current.kind]: run }))}
             pollMs={pollMs}
             form={(pending, submit) =>

@@ -14,6 +14,7 @@ import { ErrorAlert } from '../../../components/error-alert';
 import { FormTextField } from '../../../components/form-text-field';
 import { formatFixed, formatSigned, parseNumberInput } from '../../../lib/format';
 import { CALCULATION_POLL_MS, useCalculation, type CalculationView } from '../api/get-calculation';
+import { useLatestDiagnosis } from '../api/get-latest-calculations';
 import { diagnosisSummaryOf, useStartDiagnosis, type DiagnosisSummary } from '../api/start-diagnosis';
 import { CalculationStatus } from './calculation-status';
 
@@ -123,6 +124,8 @@ interface RunDiagnosisPanelProps {
   spectrum: DiagnosedSpectrum;
   layerCount: number;
   materialName: (materialId: number) => string;
+  /** Engineers and admins run a diagnosis; operators see the run's latest one. */
+  canRun?: boolean;
   pollMs?: number;
 }
 
@@ -131,11 +134,14 @@ export function RunDiagnosisPanel({
   spectrum,
   layerCount,
   materialName,
+  canRun = true,
   pollMs = CALCULATION_POLL_MS,
 }: RunDiagnosisPanelProps) {
   const [calculationId, setCalculationId] = useState<number | null>(null);
   const start = useStartDiagnosis();
   const calculation = useCalculation(calculationId, pollMs);
+  // The run's latest stored diagnosis until one is run here.
+  const latest = useLatestDiagnosis(spectrum.runId);
   const { control, handleSubmit } = useForm<FactorValues>({ defaultValues: DEFAULTS, mode: 'onTouched' });
 
   const onSubmit = handleSubmit((values) =>
@@ -149,7 +155,8 @@ export function RunDiagnosisPanel({
     ),
   );
 
-  const calc = calculation.data;
+  const calc =
+    calculation.data ?? (calculationId === null ? (latest.data?.calculation ?? undefined) : undefined);
   const summary = calc?.status === 'completed' ? diagnosisSummaryOf(calc) : null;
 
   return (
@@ -161,38 +168,45 @@ export function RunDiagnosisPanel({
         Fits every layer&apos;s thickness to {spectrum.filename} within the factor range, to find which layers
         most likely went wrong.
       </Typography>
-      <Box
-        component="form"
-        noValidate
-        onSubmit={onSubmit}
-        sx={{ display: 'flex', gap: 1.5, flexWrap: 'wrap', alignItems: 'flex-start', mb: 2 }}
-      >
-        <FormTextField
-          control={control}
-          name="low"
-          label="Lowest factor"
-          size="small"
-          sx={{ width: 150 }}
-          slotProps={{ htmlInput: { inputMode: 'decimal' } }}
-          rules={{ validate: (v) => (parseNumberInput(v) ?? 0) > 0 || 'Must be a number > 0' }}
-        />
-        <FormTextField
-          control={control}
-          name="high"
-          label="Highest factor"
-          size="small"
-          sx={{ width: 150 }}
-          slotProps={{ htmlInput: { inputMode: 'decimal' } }}
-          rules={{
-            validate: (v, all) =>
-              (parseNumberInput(v) ?? 0) > (parseNumberInput(all.low) ?? Infinity) ||
-              'Must exceed the lowest factor',
-          }}
-        />
-        <Button type="submit" variant="contained" loading={start.isPending}>
-          Run diagnosis
-        </Button>
-      </Box>
+      {!canRun && !calc && (
+        <Typography variant="body2" color="text.secondary">
+          No diagnosis of this run yet; an engineer runs it.
+        </Typography>
+      )}
+      {canRun && (
+        <Box
+          component="form"
+          noValidate
+          onSubmit={onSubmit}
+          sx={{ display: 'flex', gap: 1.5, flexWrap: 'wrap', alignItems: 'flex-start', mb: 2 }}
+        >
+          <FormTextField
+            control={control}
+            name="low"
+            label="Lowest factor"
+            size="small"
+            sx={{ width: 150 }}
+            slotProps={{ htmlInput: { inputMode: 'decimal' } }}
+            rules={{ validate: (v) => (parseNumberInput(v) ?? 0) > 0 || 'Must be a number > 0' }}
+          />
+          <FormTextField
+            control={control}
+            name="high"
+            label="Highest factor"
+            size="small"
+            sx={{ width: 150 }}
+            slotProps={{ htmlInput: { inputMode: 'decimal' } }}
+            rules={{
+              validate: (v, all) =>
+                (parseNumberInput(v) ?? 0) > (parseNumberInput(all.low) ?? Infinity) ||
+                'Must exceed the lowest factor',
+            }}
+          />
+          <Button type="submit" variant="contained" loading={start.isPending}>
+            Run diagnosis
+          </Button>
+        </Box>
+      )}
       {start.error && <ErrorAlert error={start.error} title="Run diagnosis was not queued" sx={{ mb: 2 }} />}
       {calculation.isError && (
         <ErrorAlert error={calculation.error} title="The diagnosis could not be read" />

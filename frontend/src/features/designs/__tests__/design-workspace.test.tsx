@@ -123,6 +123,59 @@ describe('DesignWorkspace', () => {
     expect(screen.getByRole('group', { name: 'Reflected colour' }).textContent).toMatch(/^Rv \d+\.\d\d %/);
   });
 
+  it('starts the preview on the range of the mask and remembers the range set for the design', async () => {
+    window.localStorage.clear();
+    mockWorkspaceApi({
+      [`GET ${VERSION_URL}`]: { status: 200, body: testVersion({ layers: [layer(4, 99.64)] }) },
+    });
+    const first = renderWorkspace();
+    // 545–555 nm with the 20 nm least margin, rounded outward to 10 nm (plotRangeForMask).
+    await waitFor(() => expect(first.requests.at(-1)?.wavelengths).toMatchObject({ fromNm: 520, toNm: 580 }));
+    const preview = () => within(screen.getByRole('region', { name: 'Instant preview' }));
+    const from = preview().getByLabelText('From (nm)') as HTMLInputElement;
+    expect(from.value).toBe('520');
+    expect((preview().getByLabelText('Angles (°)') as HTMLInputElement).value).toBe('0');
+
+    await first.user.clear(from);
+    await first.user.type(from, '450');
+    await waitFor(() => expect(first.requests.at(-1)?.wavelengths).toMatchObject({ fromNm: 450, toNm: 580 }));
+    first.unmount();
+
+    const second = renderWorkspace();
+    await waitFor(() =>
+      expect(second.requests.at(-1)?.wavelengths).toMatchObject({ fromNm: 450, toNm: 580 }),
+    );
+    expect((preview().getByLabelText('From (nm)') as HTMLInputElement).value).toBe('450');
+    await second.user.click(screen.getByRole('button', { name: 'Range of the mask' }));
+    await waitFor(() =>
+      expect(second.requests.at(-1)?.wavelengths).toMatchObject({ fromNm: 520, toNm: 580 }),
+    );
+    window.localStorage.clear();
+  });
+
+  it('undoes and redoes grid edits with the buttons and Ctrl+Z / Ctrl+Shift+Z', async () => {
+    mockWorkspaceApi({
+      [`GET ${VERSION_URL}`]: { status: 200, body: testVersion({ layers: [layer(4, 90)] }) },
+    });
+    const { user } = renderWorkspace();
+    await screen.findByRole('grid', { name: 'Layer grid' });
+    await setThickness(user, 0, '99.64');
+    await waitFor(() => expect(gridCell(0, 2).textContent).toBe('99.64'));
+    await setThickness(user, 0, '101');
+    await waitFor(() => expect(gridCell(0, 2).textContent).toBe('101.00'));
+
+    await user.click(screen.getByRole('button', { name: 'Undo' }));
+    expect(gridCell(0, 2).textContent).toBe('99.64');
+    (document.activeElement as HTMLElement | null)?.blur();
+    await user.keyboard('{Control>}z{/Control}');
+    expect(gridCell(0, 2).textContent).toBe('90.00');
+    expect(saveButton().disabled).toBe(true);
+    await user.keyboard('{Control>}{Shift>}z{/Shift}{/Control}');
+    expect(gridCell(0, 2).textContent).toBe('99.64');
+    await user.click(screen.getByRole('button', { name: 'Redo' }));
+    expect(gridCell(0, 2).textContent).toBe('101.00');
+  });
+
   it('marks a negative thickness in the grid and disables Save with the reason', async () => {
     mockWorkspaceApi({
       [`GET ${VERSION_URL}`]: {
@@ -346,6 +399,7 @@ describe('DesignWorkspace', () => {
       await screen.findByText(/Version 1 is submitted and read-only/, undefined, { timeout: 10_000 }),
     ).toBeTruthy();
 
+    await user.click(screen.getByRole('tab', { name: 'Approval & history' }));
     await user.click(await screen.findByRole('button', { name: 'Approve' }));
     const dialog = within(await screen.findByRole('dialog', { name: 'Approve version 1' }));
     await user.click(dialog.getByRole('button', { name: 'Approve' }));

@@ -149,7 +149,7 @@ describe('LayerGrid', () => {
       'Row 2: unknown material "MgF3"',
       'Row 3: thickness "abc" is not a number',
       'Row 4: thickness must be greater than 0 nm',
-      'Row 5: expected a material name and a thickness separated by a tab',
+      'Row 5: expected a material name and a thickness separated by a tab, comma or semicolon',
     ]);
     expect(dialog.getByRole('alert').textContent).toContain('Nothing was added');
     await user.click(dialog.getByRole('button', { name: 'Cancel' }));

@@ -8,11 +8,18 @@ import MenuItem from '@mui/material/MenuItem';
 import Paper from '@mui/material/Paper';
 import TextField from '@mui/material/TextField';
 import Typography from '@mui/material/Typography';
-import type { DesignVersionContent, LimitBand, NamedModel, Polarisation } from '@quietglass/shared';
+import {
+  plotRangeForMask,
+  type DesignVersionContent,
+  type LimitBand,
+  type NamedModel,
+  type Polarisation,
+} from '@quietglass/shared';
 import { useQueries, useQuery } from '@tanstack/react-query';
 import { useEffect, useMemo, useState } from 'react';
 import { Plot, type PlotData } from '../../../components/plot';
 import { parseNumberInput } from '../../../lib/format';
+import { rememberedKey, useRemembered } from '../../../lib/remembered';
 import { getDesignVersionQueryOptions } from '../api/get-design-version';
 import { getDesignsQueryOptions } from '../api/get-designs';
 import type { LibraryMaterial } from '../layers';
@@ -50,6 +57,19 @@ interface Compared {
   error: string | null;
 }
 
+/** Compare's own wavelength range and angle, as typed. */
+interface CompareRange {
+  fromNm: string;
+  toNm: string;
+  angle: string;
+}
+
+/** The mask's range (plotRangeForMask) at its first angle. */
+function maskCompareRange(maskBands: readonly LimitBand[] | null): CompareRange {
+  const range = plotRangeForMask(maskBands);
+  return { fromNm: String(range.fromNm), toNm: String(range.toNm), angle: String(range.anglesDeg[0] ?? 0) };
+}
+
 /** Only what the panel reads of each query, so the combined list keeps its identity between renders. */
 function dataAndErrors<T>(results: { data?: T; error: Error | null }[]) {
   return results.map(({ data, error }) => ({ data, error }));
@@ -78,11 +98,22 @@ export function CompareVersionsPanel({
   const [checked, setChecked] = useState<string[]>([]);
   const [others, setOthers] = useState<Comparable[]>([]);
   const [choosingDesign, setChoosingDesign] = useState(false);
-  const [angleText, setAngleText] = useState('0');
-  const [polarisation, setPolarisation] = useState<Polarisation>('avg');
+  // Compare keeps its own range and angle, remembered per design; until set, the mask's range.
+  const [chosenRange, rememberRange, forgetRange] = useRemembered<CompareRange>(
+    rememberedKey('compare-range', designId),
+  );
+  const range = useMemo(() => chosenRange ?? maskCompareRange(maskBands), [chosenRange, maskBands]);
+  const setRange = (key: keyof CompareRange) => (event: { target: { value: string } }) =>
+    rememberRange({ ...range, [key]: event.target.value });
+  const angleText = range.angle;
+  const [polarisation, setPolarisation] = useState<Polarisation>(maskBands?.[0]?.polarisation ?? 'avg');
   const [results, setResults] = useState<Record<string, PreviewResult | string>>({});
   const angle = parseNumberInput(angleText);
   const angleOk = angle !== null && angle >= 0 && angle < 90;
+  const fromNm = parseNumberInput(range.fromNm);
+  const toNm = parseNumberInput(range.toNm);
+  const fromOk = fromNm !== null && fromNm > 0;
+  const toOk = toNm !== null && fromNm !== null && toNm > fromNm;
   // The list of designs is fetched only when another design is to be added.
   const designs = useQuery({ ...getDesignsQueryOptions(), enabled: choosingDesign });
 
@@ -108,8 +139,8 @@ export function CompareVersionsPanel({
   });
 
   const compared = useMemo<Compared[]>(() => {
-    if (!angleOk) return [];
-    const options = { ...DEFAULT_PREVIEW_OPTIONS, anglesDeg: [angle], polarisation };
+    if (!angleOk || !fromOk || !toOk) return [];
+    const options = { ...DEFAULT_PREVIEW_OPTIONS, fromNm, toNm, anglesDeg: [angle], polarisation };
     const build = (
       key: string,
       label: string,
@@ -141,7 +172,20 @@ export function CompareVersionsPanel({
       items.push(build(c.key, c.label, query.data, modelsOf(query.data.materialsSnapshot, library)));
     });
     return items;
-  }, [checked, current.content, library, angle, angleOk, polarisation, loaded, saved]);
+  }, [
+    checked,
+    current.content,
+    library,
+    angle,
+    angleOk,
+    fromNm,
+    fromOk,
+    toNm,
+    toOk,
+    polarisation,
+    loaded,
+    saved,
+  ]);
 
   useEffect(() => {
     let live = true;
@@ -254,12 +298,30 @@ export function CompareVersionsPanel({
             </Button>
           )}
         </FormGroup>
-        <Box sx={{ display: 'flex', gap: 1.5 }}>
+        <Box sx={{ display: 'flex', gap: 1.5, flexWrap: 'wrap' }}>
+          <TextField
+            size="small"
+            label="From (nm)"
+            value={range.fromNm}
+            onChange={setRange('fromNm')}
+            error={!fromOk}
+            helperText={fromOk ? ' ' : 'A wavelength > 0 nm'}
+            sx={{ width: 110 }}
+          />
+          <TextField
+            size="small"
+            label="To (nm)"
+            value={range.toNm}
+            onChange={setRange('toNm')}
+            error={!toOk}
+            helperText={toOk ? ' ' : 'Above From'}
+            sx={{ width: 110 }}
+          />
           <TextField
             size="small"
             label="Angle (°)"
             value={angleText}
-            onChange={(e) => setAngleText(e.target.value)}
+            onChange={setRange('angle')}
             error={!angleOk}
             helperText={angleOk ? ' ' : 'From 0 to below 90'}
             sx={{ width: 110 }}
@@ -276,6 +338,11 @@ export function CompareVersionsPanel({
             <MenuItem value="p">p</MenuItem>
             <MenuItem value="avg">Average</MenuItem>
           </TextField>
+          {chosenRange && (
+            <Button size="small" onClick={forgetRange} sx={{ alignSelf: 'flex-start', mt: 0.5 }}>
+              Range of the mask
+            </Button>
+          )}
         </Box>
       </Box>
       {problems.length > 0 && (

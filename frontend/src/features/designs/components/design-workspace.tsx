@@ -14,7 +14,7 @@ import {
   useDesignVersion,
 } from '../api/get-design-version';
 import type { LibraryMaterial } from '../layers';
-import { VersionEditor } from './version-editor';
+import { VersionEditor, type WorkspaceTab } from './version-editor';
 
 interface DesignWorkspaceProps {
   design: DesignView;
@@ -33,6 +33,10 @@ interface DesignWorkspaceProps {
     version: DesignVersionView,
     onTransitioned: (view: DesignVersionView) => Promise<void>,
   ) => ReactNode;
+  /** Further tabs after Stack setup and Compare (Full analysis, Optimise); Approval & history comes last. */
+  panels?: readonly WorkspaceTab[];
+  /** The tab open at first (e.g. from a compute-queue link). */
+  initialTab?: string | null;
 }
 
 /**
@@ -48,7 +52,10 @@ export function DesignWorkspace({
   maskName,
   canEdit,
   approval,
+  panels = [],
+  initialTab = null,
 }: DesignWorkspaceProps) {
+  const [tab, setTab] = useState(initialTab ?? 'setup');
   const queryClient = useQueryClient();
   const version = useDesignVersion(design.id, versionNumber);
   const [loadCount, setLoadCount] = useState(0);
@@ -75,27 +82,45 @@ export function DesignWorkspace({
     else onVersionChange(number);
   };
 
+  const versionPicker = (
+    <TextField
+      select
+      size="small"
+      label="Version"
+      value={String(versionNumber)}
+      onChange={(event) => choose(Number(event.target.value))}
+      sx={{ width: 240 }}
+    >
+      {design.versions.map((v) => (
+        <MenuItem key={v.number} value={String(v.number)}>
+          Version {v.number} · {v.status} · {v.createdBy}
+        </MenuItem>
+      ))}
+    </TextField>
+  );
+
   return (
-    <Box sx={{ display: 'grid', gap: 2 }}>
-      <TextField
-        select
-        size="small"
-        label="Version"
-        value={String(versionNumber)}
-        onChange={(event) => choose(Number(event.target.value))}
-        sx={{ width: 260 }}
-      >
-        {design.versions.map((v) => (
-          <MenuItem key={v.number} value={String(v.number)}>
-            Version {v.number} · {v.status} · {v.createdBy}
-          </MenuItem>
-        ))}
-      </TextField>
+    <Box sx={{ display: 'grid', gap: 1.5 }}>
+      {!version.data && versionPicker}
       {version.isPending && <LoadingBlock label="Loading the version" />}
       {version.isError && <ErrorAlert error={version.error} title="The version could not be loaded" />}
-      {version.data && approval?.(version.data, transitioned)}
       {version.data && (
         <VersionEditor
+          versionPicker={versionPicker}
+          tab={tab}
+          onTabChange={setTab}
+          tabs={[
+            ...panels,
+            ...(approval
+              ? [
+                  {
+                    key: 'approval',
+                    label: 'Approval & history',
+                    content: approval(version.data, transitioned),
+                  },
+                ]
+              : []),
+          ]}
           key={`${version.data.number}:${loadCount}`}
           version={version.data}
           versions={design.versions}

@@ -4,27 +4,40 @@ import ArrowUpwardOutlined from '@mui/icons-material/ArrowUpwardOutlined';
 import ContentCopyOutlined from '@mui/icons-material/ContentCopyOutlined';
 import ContentPasteOutlined from '@mui/icons-material/ContentPasteOutlined';
 import DeleteOutlined from '@mui/icons-material/DeleteOutlined';
+import RepeatOutlined from '@mui/icons-material/RepeatOutlined';
+import SwapVertOutlined from '@mui/icons-material/SwapVertOutlined';
 import VerticalAlignTopOutlined from '@mui/icons-material/VerticalAlignTopOutlined';
 import Box from '@mui/material/Box';
 import Button from '@mui/material/Button';
+import Alert from '@mui/material/Alert';
 import Checkbox from '@mui/material/Checkbox';
+import IconButton from '@mui/material/IconButton';
+import ToggleButton from '@mui/material/ToggleButton';
+import ToggleButtonGroup from '@mui/material/ToggleButtonGroup';
 import Typography from '@mui/material/Typography';
 import {
   DataGrid,
   GridEditSingleSelectCell,
   useGridApiContext,
+  useGridApiRef,
   type GridColDef,
   type GridRenderEditCellParams,
   type GridRowSelectionModel,
 } from '@mui/x-data-grid';
-import { useMemo, useState, type ReactNode } from 'react';
+import { useMemo, useState, type ClipboardEvent, type ReactNode } from 'react';
 import { parseNumberInput } from '../../../lib/format';
 import {
   emptyRow,
   formatQwot,
   formatThickness,
   insertRow,
+  looksLikeRows,
   materialProblem,
+  parsePastedRows,
+  periodRows,
+  reverseBlock,
+  THICKNESS_UNIT_LABELS,
+  type ThicknessUnit,
   moveRow,
   newRowId,
   parsedThickness,
@@ -36,6 +49,7 @@ import {
   type LibraryMaterial,
 } from '../layers';
 import { PasteRowsDialog } from './paste-rows-dialog';
+import { PeriodDialog, ReverseDialog } from './block-dialogs';
 
 type GridRow = LayerRow & { order: number };
 
@@ -63,17 +77,55 @@ function CellWithProblem({ children, problem }: { children: ReactNode; problem: 
   );
 }
 
-/** The material picker of a cell: choosing a material commits it, as Enter would. */
+/**
+ * The material picker of a cell: choosing a material with the mouse commits it, as Enter would.
+ * A choice made with Enter is committed by the grid itself (committing it here as well would stop
+ * an edit that is no longer open).
+ */
 function MaterialEditCell(props: GridRenderEditCellParams<GridRow>) {
   const apiRef = useGridApiContext();
   return (
     <GridEditSingleSelectCell
       {...props}
-      onValueChange={async () => {
+      onValueChange={async (event) => {
+        if ('key' in event && event.key) return;
+        if (apiRef.current.getCellMode(props.id, props.field) !== 'edit') return;
         await apiRef.current.stopCellEditMode({ id: props.id, field: props.field });
       }}
     />
   );
+}
+
+/** Toolbar actions shown as icons (named by their label for assistive technology and as a tooltip). */
+const ICON_ONLY = new Set(['Insert above', 'Duplicate', 'Delete', 'Move up', 'Move down']);
+
+/** The editable columns in Tab order. */
+export const EDITABLE_FIELDS = ['materialId', 'thicknessNm', 'qwot', 'notes'] as const;
+
+/**
+ * The cell Tab (or Shift+Tab) moves to from `field` of row `rowIndex`: the next editable cell of
+ * the row, then the first of the next row; null past either end of the grid.
+ */
+export function nextEditableCell(
+  rowIndex: number,
+  field: string,
+  rowCount: number,
+  backwards: boolean,
+): { rowIndex: number; field: (typeof EDITABLE_FIELDS)[number] } | null {
+  const n = EDITABLE_FIELDS.length;
+  const at = EDITABLE_FIELDS.indexOf(field as (typeof EDITABLE_FIELDS)[number]);
+  let next = at < 0 ? (backwards ? n : -1) : at;
+  let row = rowIndex;
+  next += backwards ? -1 : 1;
+  if (next >= n) {
+    next = 0;
+    row += 1;
+  } else if (next < 0) {
+    next = n - 1;
+    row -= 1;
+  }
+  if (row < 0 || row >= rowCount) return null;
+  return { rowIndex: row, field: EDITABLE_FIELDS[next] };
 }
 
 /**
@@ -90,6 +142,10 @@ export function LayerGrid({
 }: LayerGridProps) {
   const [selectedId, setSelectedId] = useState<string | null>(null);
   const [pasting, setPasting] = useState(false);
+  const [blockDialog, setBlockDialog] = useState<'period' | 'reverse' | null>(null);
+  const [unit, setUnit] = useState<ThicknessUnit>('nm');
+  const [pasteProblems, setPasteProblems] = useState<string[]>([]);
+  const apiRef = useGridApiRef();
   const materialsById = useMemo(() => new Map(materials.map((m) => [m.id, m])), [materials]);
   const gridRows = useMemo<GridRow[]>(() => rows.map((row, i) => ({ ...row, order: i + 1 })), [rows]);
   const selectedIndex = rows.findIndex((r) => r.id === selectedId);
@@ -97,11 +153,11 @@ export function LayerGrid({
 
   const columns = useMemo<GridColDef<GridRow>[]>(
     () => [
-      { field: 'order', headerName: '#', width: 56, sortable: false, type: 'number' },
+      { field: 'order', headerName: '#', width: 48, sortable: false, type: 'number' },
       {
         field: 'materialId',
         headerName: 'Material',
-        width: 170,
+        width: 140,
         editable: !readOnly,
         sortable: false,
         type: 'singleSelect',
@@ -117,7 +173,7 @@ export function LayerGrid({
       {
         field: 'thicknessNm',
         headerName: 'Thickness (nm)',
-        width: 150,
+        width: 130,
         editable: !readOnly,
         sortable: false,
         valueSetter: (value: unknown, row) => ({
@@ -139,7 +195,7 @@ export function LayerGrid({
       {
         field: 'qwot',
         headerName: 'QWOT',
-        width: 130,
+        width: 100,
         editable: !readOnly,
         sortable: false,
         valueGetter: (_value, row) => {
@@ -149,6 +205,8 @@ export function LayerGrid({
         },
         valueSetter: (value: unknown, row) => {
           const text = String(value ?? '').trim();
+          // An empty QWOT cell (left without typing) keeps the thickness.
+          if (text === '') return row;
           // An unchanged cell (edit opened and left) keeps the exact thickness behind the rounded QWOT.
           const shown = qwotOfRow(row, materialsById.get(row.materialId ?? -1), referenceWavelengthNm);
           if (row.qwotInput === null && shown !== null && text === formatQwot(shown)) return row;
@@ -172,7 +230,7 @@ export function LayerGrid({
       {
         field: 'locked',
         headerName: 'Locked',
-        width: 90,
+        width: 76,
         sortable: false,
         renderCell: ({ row }) => (
           <Checkbox
@@ -186,7 +244,7 @@ export function LayerGrid({
           />
         ),
       },
-      { field: 'notes', headerName: 'Notes', flex: 1, minWidth: 160, editable: !readOnly, sortable: false },
+      { field: 'notes', headerName: 'Notes', flex: 1, minWidth: 120, editable: !readOnly, sortable: false },
     ],
     [materials, materialsById, readOnly, referenceWavelengthNm, rows, onRowsChange],
   );
@@ -258,61 +316,182 @@ export function LayerGrid({
       disabled: false,
       run: () => setPasting(true),
     },
+    {
+      label: 'Insert period…',
+      icon: <RepeatOutlined />,
+      disabled: materials.length === 0,
+      run: () => setBlockDialog('period'),
+    },
+    {
+      label: 'Reverse block…',
+      icon: <SwapVertOutlined />,
+      disabled: rows.length < 2,
+      run: () => setBlockDialog('reverse'),
+    },
   ];
 
+  /** Rows pasted into the grid go after the selected layer (else at the end). */
+  const insertPasted = (pasted: LayerRow[]) => {
+    const at = selected ? selectedIndex + 1 : rows.length;
+    replace([...rows.slice(0, at), ...pasted, ...rows.slice(at)], pasted[pasted.length - 1].id);
+  };
+
+  // Ctrl+V of a block of rows anywhere on the grid (not inside a cell being edited) adds them.
+  const onPaste = (event: ClipboardEvent<HTMLDivElement>) => {
+    if (readOnly) return;
+    const target = event.target as HTMLElement;
+    if (['INPUT', 'TEXTAREA'].includes(target.tagName) || target.isContentEditable) return;
+    const text = event.clipboardData.getData('text/plain');
+    if (!looksLikeRows(text)) {
+      // One value into the focused cell: opens its editor with the value, Enter commits it.
+      const focus = apiRef.current?.state.focus.cell;
+      if (
+        focus &&
+        (EDITABLE_FIELDS as readonly string[]).includes(focus.field) &&
+        focus.field !== 'materialId'
+      ) {
+        event.preventDefault();
+        apiRef.current?.startCellEditMode({ id: focus.id, field: focus.field, initialValue: text.trim() });
+      }
+      return;
+    }
+    event.preventDefault();
+    const result = parsePastedRows(text, materials, { unit, referenceNm: referenceWavelengthNm });
+    if (!result.ok) {
+      setPasteProblems(result.problems);
+      return;
+    }
+    setPasteProblems([]);
+    insertPasted(result.rows);
+  };
+
   return (
-    <Box>
+    <Box onPaste={onPaste}>
       {!readOnly && (
         <Box
           role="toolbar"
           aria-label="Layer tools"
           sx={{ display: 'flex', flexWrap: 'wrap', gap: 1, mb: 1 }}
         >
-          {actions.map((action) => (
-            <Button
-              key={action.label}
-              size="small"
-              variant="outlined"
-              startIcon={action.icon}
-              disabled={action.disabled}
-              onClick={action.run}
-            >
-              {action.label}
-            </Button>
-          ))}
+          {actions.map((action) =>
+            ICON_ONLY.has(action.label) ? (
+              <IconButton
+                key={action.label}
+                size="small"
+                aria-label={action.label}
+                title={action.label}
+                disabled={action.disabled}
+                onClick={action.run}
+                sx={{ border: 1, borderColor: 'divider', borderRadius: 1 }}
+              >
+                {action.icon}
+              </IconButton>
+            ) : (
+              <Button
+                key={action.label}
+                size="small"
+                variant="outlined"
+                startIcon={action.icon}
+                disabled={action.disabled}
+                onClick={action.run}
+              >
+                {action.label}
+              </Button>
+            ),
+          )}
+          <ToggleButtonGroup
+            size="small"
+            exclusive
+            title="Unit of pasted thicknesses when the rows have no header naming it"
+            value={unit}
+            onChange={(_e, value: ThicknessUnit | null) => value && setUnit(value)}
+            aria-label="Pasted thickness unit"
+          >
+            {(Object.keys(THICKNESS_UNIT_LABELS) as ThicknessUnit[]).map((u) => (
+              <ToggleButton key={u} value={u} sx={{ py: 0.25 }}>
+                {THICKNESS_UNIT_LABELS[u]}
+              </ToggleButton>
+            ))}
+          </ToggleButtonGroup>
         </Box>
       )}
-      <DataGrid
-        aria-label="Layer grid"
-        rows={gridRows}
-        columns={columns}
-        autoHeight
-        hideFooter
-        disableColumnMenu
-        disableColumnFilter
-        disableMultipleRowSelection
-        rowSelectionModel={selectionModel}
-        onRowSelectionModelChange={(model) =>
-          setSelectedId(([...model.ids][0] as string | undefined) ?? null)
-        }
-        processRowUpdate={(updated) => {
-          const { order: _order, ...row } = updated;
-          onRowsChange(rows.map((r) => (r.id === row.id ? row : r)));
-          return updated;
-        }}
-        localeText={{
-          noRowsLabel: readOnly ? 'This version has no layers' : 'No layers yet: add one or paste rows',
-        }}
-        sx={{ '& .MuiDataGrid-cell': { display: 'flex', alignItems: 'center' } }}
-      />
+      {pasteProblems.length > 0 && (
+        <Alert severity="error" onClose={() => setPasteProblems([])} sx={{ mb: 1 }}>
+          Nothing was pasted. Fix these rows and paste again:
+          <ul aria-label="Paste problems" style={{ margin: '4px 0 0', paddingLeft: '1.25em' }}>
+            {pasteProblems.map((p) => (
+              <li key={p}>{p}</li>
+            ))}
+          </ul>
+        </Alert>
+      )}
+      <Box sx={{ maxHeight: 380, overflow: 'auto' }}>
+        <DataGrid
+          apiRef={apiRef}
+          aria-label="Layer grid"
+          rows={gridRows}
+          columns={columns}
+          autoHeight
+          density="compact"
+          hideFooter
+          disableColumnMenu
+          disableColumnFilter
+          disableMultipleRowSelection
+          rowSelectionModel={selectionModel}
+          onRowSelectionModelChange={(model) =>
+            setSelectedId(([...model.ids][0] as string | undefined) ?? null)
+          }
+          onCellEditStart={(params, event) => {
+            // Ctrl+V on a cell is a paste into the grid (rows or one value), handled by onPaste.
+            if (params.reason === 'pasteKeyDown') event.defaultMuiPrevented = true;
+          }}
+          onCellKeyDown={(params, event) => {
+            if (event.key !== 'Tab' || readOnly) return;
+            const rowIndex = gridRows.findIndex((r) => r.id === params.id);
+            const next = nextEditableCell(rowIndex, params.field, gridRows.length, event.shiftKey);
+            if (!next) return;
+            event.preventDefault();
+            event.defaultMuiPrevented = true;
+            const editing = params.cellMode === 'edit';
+            if (editing) void apiRef.current?.stopCellEditMode({ id: params.id, field: params.field });
+            const id = gridRows[next.rowIndex].id;
+            apiRef.current?.setCellFocus(id, next.field);
+            // Text cells open for typing at once; the material cell opens its list with Enter.
+            if (editing && next.field !== 'materialId')
+              apiRef.current?.startCellEditMode({ id, field: next.field });
+          }}
+          processRowUpdate={(updated) => {
+            const { order: _order, ...row } = updated;
+            onRowsChange(rows.map((r) => (r.id === row.id ? row : r)));
+            return updated;
+          }}
+          localeText={{
+            noRowsLabel: readOnly ? 'This version has no layers' : 'No layers yet: add one or paste rows',
+          }}
+          sx={{ '& .MuiDataGrid-cell': { display: 'flex', alignItems: 'center' } }}
+        />
+      </Box>
       <PasteRowsDialog
         open={pasting}
         materials={materials}
         onClose={() => setPasting(false)}
-        onPaste={(pasted) => {
-          const at = selected ? selectedIndex + 1 : rows.length;
-          replace([...rows.slice(0, at), ...pasted, ...rows.slice(at)], pasted[pasted.length - 1].id);
-        }}
+        unit={unit}
+        referenceWavelengthNm={referenceWavelengthNm}
+        onPaste={insertPasted}
+      />
+      <PeriodDialog
+        open={blockDialog === 'period'}
+        materials={materials}
+        referenceWavelengthNm={referenceWavelengthNm}
+        onClose={() => setBlockDialog(null)}
+        onInsert={(high, low, count) => insertPasted(periodRows(high, low, count))}
+      />
+      <ReverseDialog
+        open={blockDialog === 'reverse'}
+        rowCount={rows.length}
+        initialFrom={selected ? selectedIndex + 1 : 1}
+        onClose={() => setBlockDialog(null)}
+        onReverse={(from, to) => replace(reverseBlock(rows, from - 1, to - 1))}
       />
     </Box>
   );

@@ -2,18 +2,34 @@ import Alert from '@mui/material/Alert';
 import TextField from '@mui/material/TextField';
 import { useState, type FormEvent } from 'react';
 import { FormDialog } from '../../../components/form-dialog';
-import { parsePastedRows, type LayerRow, type LibraryMaterial } from '../layers';
+import {
+  parsePastedRows,
+  THICKNESS_UNIT_LABELS,
+  type LayerRow,
+  type LibraryMaterial,
+  type ThicknessUnit,
+} from '../layers';
 
 interface PasteRowsDialogProps {
   open: boolean;
   materials: readonly LibraryMaterial[];
+  /** The thickness unit when no header names one. */
+  unit: ThicknessUnit;
+  referenceWavelengthNm: number | null;
   onClose: () => void;
   /** Called with the parsed rows; only when every line was valid. */
   onPaste: (rows: LayerRow[]) => void;
 }
 
-/** Rows copied from a spreadsheet (material, thickness nm, notes — tab-separated) into the grid. */
-export function PasteRowsDialog({ open, materials, onClose, onPaste }: PasteRowsDialogProps) {
+/** Rows copied from a spreadsheet or CSV (material, thickness, notes) into the grid. */
+export function PasteRowsDialog({
+  open,
+  materials,
+  unit,
+  referenceWavelengthNm,
+  onClose,
+  onPaste,
+}: PasteRowsDialogProps) {
   const [text, setText] = useState('');
   const [problems, setProblems] = useState<string[]>([]);
 
@@ -25,7 +41,7 @@ export function PasteRowsDialog({ open, materials, onClose, onPaste }: PasteRows
 
   const submit = (event: FormEvent<HTMLFormElement>) => {
     event.preventDefault();
-    const result = parsePastedRows(text, materials);
+    const result = parsePastedRows(text, materials, { unit, referenceNm: referenceWavelengthNm });
     if (!result.ok) {
       setProblems(result.problems);
       return;
@@ -62,7 +78,7 @@ export function PasteRowsDialog({ open, materials, onClose, onPaste }: PasteRows
         fullWidth
         autoFocus
         sx={{ mt: 1 }}
-        helperText="One layer per line: material name, thickness in nm and optional notes, separated by tabs."
+        helperText={`One layer per line: material name, thickness (${THICKNESS_UNIT_LABELS[unit]} unless a header line names nm, QWOT or FWOT) and optional notes, separated by tabs, semicolons or commas; a decimal comma is fine.`}
         slotProps={{ htmlInput: { spellCheck: false, style: { fontFamily: 'monospace' } } }}
       />
     </FormDialog>

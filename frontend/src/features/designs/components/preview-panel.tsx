@@ -1,5 +1,6 @@
 import Alert from '@mui/material/Alert';
 import Box from '@mui/material/Box';
+import Button from '@mui/material/Button';
 import Checkbox from '@mui/material/Checkbox';
 import FormControlLabel from '@mui/material/FormControlLabel';
 import MenuItem from '@mui/material/MenuItem';
@@ -12,11 +13,13 @@ import {
   type DesignVersionContent,
   type LimitBand,
   type NamedModel,
+  plotRangeForMask,
   type Polarisation,
 } from '@quietglass/shared';
 import { useMemo, useState } from 'react';
 import { Plot, type PlotData, type PlotLayout } from '../../../components/plot';
 import { parseNumberInput, parseNumberList } from '../../../lib/format';
+import { rememberedKey, useRemembered } from '../../../lib/remembered';
 import { swatchHex } from '../../../lib/srgb';
 import type { PreviewResult } from '../../../lib/preview/compute-preview';
 import { usePreviewComputer } from '../../../lib/preview/preview-context';
@@ -29,7 +32,7 @@ import { usePreview } from '../preview/use-preview';
 import { MaskBadge } from './mask-badge';
 import { maskShapes } from '../../../components/mask-plot-layout';
 
-const POLARISATION_LABELS: Record<Polarisation, string> = { s: 's', p: 'p', avg: 'Average (unpolarised)' };
+const POLARISATION_LABELS: Record<Polarisation, string> = { s: 's', p: 'p', avg: 'Average' };
 const MAX_PREVIEW_ANGLES = 6;
 
 interface OptionFields {
@@ -132,6 +135,8 @@ function materialsOutOfRange(
 }
 
 interface PreviewPanelProps {
+  /** The design: the range the engineer sets is remembered for it. */
+  designId: number;
   /** The content to preview; null while the grid or header has a problem (`waitingReason`). */
   content: DesignVersionContent | null;
   waitingReason: string | null;
@@ -141,14 +146,30 @@ interface PreviewPanelProps {
 }
 
 /** The instant preview: R (and T) against wavelength as the grid changes, computed in a worker. */
-export function PreviewPanel({ content, waitingReason, materials, maskBands, maskName }: PreviewPanelProps) {
+/** The preview's fields for the range that covers the mask (plotRangeForMask). */
+export function maskOptionFields(maskBands: readonly LimitBand[] | null): OptionFields {
+  const range = plotRangeForMask(maskBands);
+  return {
+    fromNm: String(range.fromNm),
+    toNm: String(range.toNm),
+    angles: range.anglesDeg.join(', '),
+    polarisation: maskBands?.[0]?.polarisation ?? 'avg',
+  };
+}
+
+export function PreviewPanel({
+  designId,
+  content,
+  waitingReason,
+  materials,
+  maskBands,
+  maskName,
+}: PreviewPanelProps) {
   const computer = usePreviewComputer();
-  const [fields, setFields] = useState<OptionFields>({
-    fromNm: '380',
-    toNm: '780',
-    angles: '0',
-    polarisation: 'avg',
-  });
+  // Until the engineer sets a range, the preview follows the mask's bands and angles.
+  const [chosen, remember, forget] = useRemembered<OptionFields>(rememberedKey('preview-range', designId));
+  const fields = useMemo(() => chosen ?? maskOptionFields(maskBands), [chosen, maskBands]);
+  const setFields = (update: (f: OptionFields) => OptionFields) => remember(update(fields));
   const [showT, setShowT] = useState(false);
   const { options, problem } = useMemo(() => checkedOptions(fields), [fields]);
   const built = useMemo(
@@ -199,8 +220,8 @@ export function PreviewPanel({ content, waitingReason, materials, maskBands, mas
           label="Angles (°)"
           value={fields.angles}
           onChange={set('angles')}
-          sx={{ width: 140 }}
-          helperText="e.g. 0, 15, 30"
+          sx={{ width: 130 }}
+          placeholder="0, 15, 30"
         />
         <TextField
           size="small"
@@ -208,7 +229,7 @@ export function PreviewPanel({ content, waitingReason, materials, maskBands, mas
           label="Polarisation"
           value={fields.polarisation}
           onChange={set('polarisation')}
-          sx={{ width: 200 }}
+          sx={{ width: 130 }}
         >
           {(Object.keys(POLARISATION_LABELS) as Polarisation[]).map((p) => (
             <MenuItem key={p} value={p}>
@@ -220,6 +241,11 @@ export function PreviewPanel({ content, waitingReason, materials, maskBands, mas
           control={<Checkbox checked={showT} onChange={(e) => setShowT(e.target.checked)} />}
           label="Show T"
         />
+        {chosen && (
+          <Button size="small" onClick={forget} sx={{ alignSelf: 'center' }}>
+            Range of the mask
+          </Button>
+        )}
       </Box>
       {problem && (
         <Alert severity="warning" sx={{ mb: 1 }}>
@@ -278,7 +304,7 @@ export function PreviewPanel({ content, waitingReason, materials, maskBands, mas
           No colour: {result.colourError}
         </Typography>
       )}
-      {figure && <Plot title="Preview spectrum" data={figure.data} layout={figure.layout} height={340} />}
+      {figure && <Plot title="Preview spectrum" data={figure.data} layout={figure.layout} height={360} />}
     </Paper>
   );
 }

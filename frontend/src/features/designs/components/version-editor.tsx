@@ -3,9 +3,11 @@ import Box from '@mui/material/Box';
 import Button from '@mui/material/Button';
 import Chip from '@mui/material/Chip';
 import Paper from '@mui/material/Paper';
+import Tab from '@mui/material/Tab';
+import Tabs from '@mui/material/Tabs';
 import Typography from '@mui/material/Typography';
 import type { DesignVersionContent, DesignVersionView, LimitBand, NamedModel } from '@quietglass/shared';
-import { useEffect, useId, useMemo, useState } from 'react';
+import { useEffect, useId, useMemo, useRef, useState, type ReactNode } from 'react';
 import { useForm, useWatch } from 'react-hook-form';
 import { useBlocker } from 'react-router-dom';
 import { ConfirmDialog } from '../../../components/confirm-dialog';
@@ -14,6 +16,7 @@ import { ErrorAlert } from '../../../components/error-alert';
 import { ApiError } from '../../../lib/api-client';
 import { formatDateTime } from '../../../lib/format';
 import { notify } from '../../../lib/notifier';
+import { useUndoable } from '../../../lib/undo-history';
 import { useCreateDesignVersion } from '../api/create-design-version';
 import { useSaveDesignVersion } from '../api/save-design-version';
 import { useSubmitDesignVersion } from '../api/submit-design-version';
@@ -27,11 +30,32 @@ import {
   type LibraryMaterial,
 } from '../layers';
 import { CompareVersionsPanel } from './compare-versions-panel';
+import { IndexProfileStrip } from './index-profile-strip';
 import { LayerGrid } from './layer-grid';
 import { PreviewPanel } from './preview-panel';
 import { VersionHeaderFields } from './version-header-fields';
 
+/** A tab of the workspace below the grid and the plot (Full analysis, Optimise, Approval …). */
+export interface WorkspaceTab {
+  key: string;
+  label: string;
+  content: ReactNode;
+}
+
+/** The tabs the editor has itself, before the ones it is given. */
+const OWN_TABS = [
+  { key: 'setup', label: 'Stack setup' },
+  { key: 'compare', label: 'Compare' },
+] as const;
+
 interface VersionEditorProps {
+  /** The workspace's version picker, shown at the start of the status line. */
+  versionPicker?: ReactNode;
+  /** Further tabs (analysis, optimisation, approval and history), shown after Stack setup and Compare. */
+  tabs?: readonly WorkspaceTab[];
+  /** The open tab's key; the workspace keeps it so it survives a reload of the version. */
+  tab: string;
+  onTabChange: (key: string) => void;
   version: DesignVersionView;
   /** Every version of the design, for comparing. */
   versions: readonly { number: number; status: string }[];
@@ -71,6 +95,10 @@ function contentKey(version: DesignVersionView): string {
  * and a Reload that replaces the grid only after the user confirms.
  */
 export function VersionEditor({
+  versionPicker,
+  tabs = [],
+  tab,
+  onTabChange,
   version,
   versions,
   library,
@@ -82,7 +110,9 @@ export function VersionEditor({
   onDirtyChange,
 }: VersionEditorProps) {
   const [baseline, setBaseline] = useState(version);
-  const [rows, setRows] = useState<LayerRow[]>(() => rowsFromLayers(version.layers));
+  const history = useUndoable<LayerRow[]>(() => rowsFromLayers(version.layers));
+  const rows = history.value;
+  const setRows = history.set;
   const { control, reset } = useForm<HeaderValues>({
     defaultValues: headerValuesOf(version),
     mode: 'onChange',
@@ -194,9 +224,68 @@ export function VersionEditor({
     (e) => e && !(e instanceof ApiError && e.status === 409),
   );
 
+  const allTabs = [...OWN_TABS, ...tabs];
+  const openTab = allTabs.some((t) => t.key === tab) ? tab : allTabs[0].key;
+
+  // Keyboard shortcuts of the workspace; the latest handlers are read through a ref.
+  const shortcuts = useRef({ save: () => {}, undo: () => {}, redo: () => {}, tab: (_i: number) => {} });
+  shortcuts.current = {
+    save: () => {
+      if (editable && saveBlocked === null) doSave();
+    },
+    undo: () => editable && history.undo(),
+    redo: () => editable && history.redo(),
+    tab: (i) => {
+      const target = allTabs[i];
+      if (target) onTabChange(target.key);
+    },
+  };
+  useEffect(() => {
+    const onKey = (event: KeyboardEvent) => {
+      const target = event.target as HTMLElement | null;
+      const typing =
+        !!target && (target.isContentEditable || ['INPUT', 'TEXTAREA', 'SELECT'].includes(target.tagName));
+      const mod = event.ctrlKey || event.metaKey;
+      const key = event.key.toLowerCase();
+      if (mod && key === 's') {
+        event.preventDefault();
+        shortcuts.current.save();
+      } else if (mod && !typing && key === 'z') {
+        event.preventDefault();
+        if (event.shiftKey) shortcuts.current.redo();
+        else shortcuts.current.undo();
+      } else if (mod && !typing && key === 'y') {
+        event.preventDefault();
+        shortcuts.current.redo();
+      } else if (event.altKey && !mod && /^Digit[1-9]$/.test(event.code)) {
+        event.preventDefault();
+        shortcuts.current.tab(Number(event.code.slice(5)) - 1);
+      }
+    };
+    document.addEventListener('keydown', onKey);
+    return () => document.removeEventListener('keydown', onKey);
+  }, []);
+
+  const tabContent = (key: string): ReactNode => {
+    if (key === 'setup')
+      return <VersionHeaderFields control={control} materials={materials} disabled={!editable} />;
+    if (key === 'compare')
+      return (
+        <CompareVersionsPanel
+          designId={baseline.designId}
+          versions={versions}
+          current={{ number: baseline.number, content }}
+          library={library}
+          maskBands={maskBands}
+        />
+      );
+    return tabs.find((t) => t.key === key)?.content ?? null;
+  };
+
   return (
-    <Box sx={{ display: 'grid', gap: 2 }}>
+    <Box sx={{ display: 'grid', gap: 1.5 }}>
       <Box sx={{ display: 'flex', gap: 1, alignItems: 'center', flexWrap: 'wrap' }}>
+        {versionPicker}
         <Typography variant="body2" color="text.secondary">
           Version {baseline.number} by {baseline.createdBy.displayName}, last saved{' '}
           {formatDateTime(baseline.updatedAt)}
@@ -207,7 +296,58 @@ export function VersionEditor({
           color={baseline.status === 'draft' ? 'default' : 'primary'}
         />
         {dirty && editable && <Chip size="small" color="warning" label="Unsaved changes" />}
+        {editable && (
+          <>
+            <Box sx={{ flex: 1 }} />
+            <Button
+              size="small"
+              onClick={history.undo}
+              disabled={!history.canUndo}
+              title="Undo the last change to the grid (Ctrl+Z)"
+            >
+              Undo
+            </Button>
+            <Button
+              size="small"
+              onClick={history.redo}
+              disabled={!history.canRedo}
+              title="Redo (Ctrl+Shift+Z)"
+            >
+              Redo
+            </Button>
+            <Button
+              variant="contained"
+              size="small"
+              onClick={doSave}
+              disabled={saveBlocked !== null}
+              loading={save.isPending}
+              aria-describedby={saveBlocked ? reasonId : undefined}
+              title="Save (Ctrl+S)"
+            >
+              Save
+            </Button>
+            <Button
+              variant="outlined"
+              size="small"
+              onClick={() => setConfirmSubmit(true)}
+              disabled={dirty || baseline.layers.length === 0}
+              title={dirty ? 'Save your changes before submitting' : undefined}
+            >
+              Submit for approval
+            </Button>
+          </>
+        )}
       </Box>
+      {editable && saveBlocked && (
+        <Typography
+          id={reasonId}
+          variant="body2"
+          color={problems.length > 0 ? 'error' : 'text.secondary'}
+          sx={{ textAlign: 'right', mt: -1 }}
+        >
+          {saveBlocked}
+        </Typography>
+      )}
       {!editable && canEdit && (
         <Alert
           severity="info"
@@ -241,68 +381,78 @@ export function VersionEditor({
       )}
       {conflict && <ConflictAlert message={conflict} onReload={() => setConfirmReload(true)} />}
       {otherError && <ErrorAlert error={otherError} title="Not saved" />}
-      <Paper variant="outlined" sx={{ p: 2 }}>
-        <VersionHeaderFields control={control} materials={materials} disabled={!editable} />
-      </Paper>
-      <Paper variant="outlined" sx={{ p: 2 }} component="section" aria-label="Layers">
-        <Typography variant="h2" component="h2" sx={{ mb: 1 }}>
-          Layer grid
-        </Typography>
-        <Typography variant="body2" color="text.secondary" sx={{ mb: 1 }}>
-          Incident side first; the last row sits on the substrate.
-        </Typography>
-        <LayerGrid
-          rows={rows}
-          onRowsChange={setRows}
-          materials={materials}
-          referenceWavelengthNm={referenceOf(header)}
-          readOnly={!editable}
-        />
-        {editable && (
-          <Box sx={{ display: 'flex', gap: 1, alignItems: 'center', mt: 2, flexWrap: 'wrap' }}>
-            <Button
-              variant="contained"
-              onClick={doSave}
-              disabled={saveBlocked !== null}
-              loading={save.isPending}
-              aria-describedby={saveBlocked ? reasonId : undefined}
-            >
-              Save
-            </Button>
-            <Button
-              variant="outlined"
-              onClick={() => setConfirmSubmit(true)}
-              disabled={dirty || baseline.layers.length === 0}
-              title={dirty ? 'Save your changes before submitting' : undefined}
-            >
-              Submit for approval
-            </Button>
-            {saveBlocked && (
-              <Typography
-                id={reasonId}
-                variant="body2"
-                color={problems.length > 0 ? 'error' : 'text.secondary'}
-              >
-                {saveBlocked}
-              </Typography>
-            )}
+      <Box
+        sx={{
+          display: 'grid',
+          gap: 2,
+          alignItems: 'start',
+          gridTemplateColumns: { xs: 'minmax(0, 1fr)', lg: 'minmax(0, 1fr) minmax(0, 1fr)' },
+        }}
+      >
+        <Paper variant="outlined" sx={{ p: 1.5 }} component="section" aria-label="Layers">
+          <Box sx={{ display: 'flex', alignItems: 'baseline', gap: 1.5, mb: 0.5 }}>
+            <Typography variant="h2" component="h2">
+              Layer grid
+            </Typography>
+            <Typography variant="caption" color="text.secondary">
+              Incident side first; the last row sits on the substrate.
+            </Typography>
           </Box>
-        )}
+          <LayerGrid
+            rows={rows}
+            onRowsChange={setRows}
+            materials={materials}
+            referenceWavelengthNm={referenceOf(header)}
+            readOnly={!editable}
+          />
+          <IndexProfileStrip rows={rows} materials={materials} referenceWavelengthNm={referenceOf(header)} />
+        </Paper>
+        <PreviewPanel
+          designId={baseline.designId}
+          content={content}
+          waitingReason={problems[0] ?? null}
+          materials={models}
+          maskBands={maskBands}
+          maskName={maskName}
+        />
+      </Box>
+      <Paper variant="outlined" component="section" aria-label="Workspace tabs">
+        <Tabs
+          value={openTab}
+          onChange={(_e, key: string) => onTabChange(key)}
+          variant="scrollable"
+          aria-label="Workspace"
+          sx={{ borderBottom: 1, borderColor: 'divider', px: 1 }}
+        >
+          {allTabs.map((t, i) => (
+            <Tab
+              key={t.key}
+              value={t.key}
+              label={t.label}
+              id={`workspace-tab-${t.key}`}
+              aria-controls={`workspace-panel-${t.key}`}
+              title={i < 9 ? `Alt+${i + 1}` : undefined}
+            />
+          ))}
+        </Tabs>
+        {allTabs.map((t) => (
+          // Every tab stays mounted so a running job or a half-filled form survives switching tabs.
+          <Box
+            key={t.key}
+            role="tabpanel"
+            id={`workspace-panel-${t.key}`}
+            aria-labelledby={`workspace-tab-${t.key}`}
+            hidden={t.key !== openTab}
+            sx={{ p: 2 }}
+          >
+            {tabContent(t.key)}
+          </Box>
+        ))}
+        <Typography variant="caption" color="text.secondary" component="p" sx={{ px: 2, pb: 1 }}>
+          Shortcuts: Ctrl+S save · Ctrl+Z undo · Ctrl+Shift+Z redo · Ctrl+V paste rows into the grid · Alt+1…
+          {Math.min(9, allTabs.length)} open a tab
+        </Typography>
       </Paper>
-      <PreviewPanel
-        content={content}
-        waitingReason={problems[0] ?? null}
-        materials={models}
-        maskBands={maskBands}
-        maskName={maskName}
-      />
-      <CompareVersionsPanel
-        designId={baseline.designId}
-        versions={versions}
-        current={{ number: baseline.number, content }}
-        library={library}
-        maskBands={maskBands}
-      />
       <ConfirmDialog
         open={confirmReload}
         title="Replace your grid with the saved version?"

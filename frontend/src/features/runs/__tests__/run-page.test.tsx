@@ -31,6 +31,42 @@ async function section(name: string) {
   return within(await screen.findByRole('region', { name }, { timeout: 10_000 }));
 }
 
+/** A completed Run diagnosis of run 40 as the API sends it: design layer 2 (ZrO2) 8 % thin. */
+function diagnosisCalculation() {
+  return {
+    id: 77,
+    kind: 'diagnosis',
+    status: 'completed',
+    progress: 1,
+    error: null,
+    designId: 12,
+    versionNumber: 1,
+    request: null,
+    live: null,
+    runId: 40,
+    createdBy: 'Tomas Reyne',
+    createdAt: '2026-12-01T13:00:00.000Z',
+    startedAt: '2026-12-01T13:00:01.000Z',
+    finishedAt: '2026-12-01T13:00:03.000Z',
+    computeMs: 2000,
+    processedBy: 'worker-1',
+    attempts: 1,
+    summary: {
+      residualRmsPercent: 0.0123,
+      layers: [
+        {
+          layer: 2,
+          materialId: 11,
+          designNm: 127.6,
+          fittedNm: 117.392,
+          factor: 0.92,
+          deviationPercent: -8,
+        },
+      ],
+    },
+  };
+}
+
 describe('Run page', () => {
   it('shows the run header and lists the layers in deposition order', async () => {
     api('operator', testRun());
@@ -225,49 +261,23 @@ describe('Run page', () => {
     );
   });
 
-  it('operators do not see Run diagnosis', async () => {
-    const calls = api('operator', testRun({ spectra: [SPECTRUM] }));
+  it('operators see the run’s stored diagnosis with who ran it, and cannot run one', async () => {
+    const stored = { ...diagnosisCalculation(), id: 78 };
+    const calls = api('operator', testRun({ spectra: [SPECTRUM] }), {
+      'GET /api/runs/40/diagnosis/latest': { status: 200, body: { calculation: stored } },
+    });
     renderApp('/runs/40');
-    await section('Comparison with design and mask');
-    expect(screen.queryByRole('region', { name: 'Run diagnosis' })).toBeNull();
-    expect(screen.queryByRole('button', { name: 'Run diagnosis' })).toBeNull();
-    expect(calls.requests.filter((r) => r.path.includes('diagnosis'))).toHaveLength(0);
+    const panel = await section('Run diagnosis');
+    expect(panel.queryByRole('button', { name: 'Run diagnosis' })).toBeNull();
+    const table = within(await panel.findByRole('table', { name: 'Fitted thickness factors' }));
+    expect(within(table.getAllByRole('row')[1]).getAllByRole('cell')[6].textContent).toBe('0.920');
+    expect(panel.getByLabelText('Diagnosis run by').textContent).toMatch(/^Run by Tomas Reyne, finished /);
+    expect(calls.requests.filter((r) => r.method === 'POST')).toHaveLength(0);
   });
 
   it('engineers get Run diagnosis of the shown spectrum, with the layers and materials of its recipe', async () => {
     // One finding in the shape the worker sends: design layer 2 (ZrO2 in the recipe) 8 % thin.
-    const completed = {
-      id: 77,
-      kind: 'diagnosis',
-      status: 'completed',
-      progress: 1,
-      error: null,
-      designId: 12,
-      versionNumber: 1,
-      request: null,
-      live: null,
-      runId: 40,
-      createdBy: 'Tomas Reyne',
-      createdAt: '2026-12-01T13:00:00.000Z',
-      startedAt: '2026-12-01T13:00:01.000Z',
-      finishedAt: '2026-12-01T13:00:03.000Z',
-      computeMs: 2000,
-      processedBy: 'worker-1',
-      attempts: 1,
-      summary: {
-        residualRmsPercent: 0.0123,
-        layers: [
-          {
-            layer: 2,
-            materialId: 11,
-            designNm: 127.6,
-            fittedNm: 117.392,
-            factor: 0.92,
-            deviationPercent: -8,
-          },
-        ],
-      },
-    };
+    const completed = diagnosisCalculation();
     api('engineer', testRun({ spectra: [SPECTRUM] }), {
       'POST /api/runs/40/spectra/31/diagnosis': { status: 201, body: { ...completed, reused: false } },
       'GET /api/calculations/77': { status: 200, body: completed },
