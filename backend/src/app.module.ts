@@ -4,6 +4,7 @@ import { ThrottlerModule } from '@nestjs/throttler';
 import { TypeOrmModule } from '@nestjs/typeorm';
 import { appConfig, type AppConfig } from './config/configuration.js';
 import { dataSourceOptions } from './database/data-source.js';
+import { AuditModule } from './audit/audit.module.js';
 import { AuthModule } from './auth/auth.module.js';
 import { CalculationsModule } from './calculations/calculations.module.js';
 import { ChambersModule } from './chambers/chambers.module.js';
@@ -44,6 +45,7 @@ import { UsersModule } from './users/users.module.js';
     ReportsModule,
     MailModule,
     QuotesModule,
+    AuditModule,
   ],
 })
 export class AppModule {}

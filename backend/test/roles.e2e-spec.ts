@@ -31,6 +31,7 @@ interface MatrixContext {
   materialVersion: number;
   customerId: number;
   designId: number;
+  designVersion: number;
   maskId: number;
   maskVersion: number;
   doneCalcId: number;
@@ -206,7 +207,10 @@ const RULES: RouteRule[] = [
     allow: DESIGNERS,
     okStatus: 200,
     url: (ctx) => `/api/designs/${ctx.designId}`,
-    body: () => ({ name: 'Matrix design renamed' }),
+    body: (ctx) => ({ name: 'Matrix design renamed', version: ctx.designVersion }),
+    after: (ctx, body) => {
+      ctx.designVersion = body.version ?? ctx.designVersion;
+    },
   },
   {
     method: 'get',
@@ -258,6 +262,7 @@ const RULES: RouteRule[] = [
     url: (ctx) => `/api/designs/${ctx.designId}/history`,
   },
   { method: 'get', path: '/api/audit', allow: ['admin'], okStatus: 200 },
+  { method: 'get', path: '/api/audit/export.csv', allow: ['admin'], okStatus: 200 },
   { method: 'get', path: '/api/recipes', allow: FLOOR, okStatus: 200 },
   {
     method: 'get',
@@ -601,6 +606,7 @@ const ctx: MatrixContext = {
   materialVersion: 0,
   customerId: 0,
   designId: 0,
+  designVersion: 1,
   maskId: 0,
   maskVersion: 1,
   doneCalcId: 0,

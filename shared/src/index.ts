@@ -10,6 +10,7 @@ export * from './chambers.js';
 export * from './recipes.js';
 export * from './outbox.js';
 export * from './calculations.js';
+export * from './audit.js';
 
 // Optics engine (browser-safe; Node-only helpers live under @quietglass/shared/node/parallel).
 export * from './optics/errors.js';
