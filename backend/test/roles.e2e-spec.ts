@@ -32,6 +32,8 @@ interface MatrixContext {
   customerId: number;
   designId: number;
   designVersion: number;
+  customerVersion: number;
+  maskRevision: string;
   maskId: number;
   maskVersion: number;
   doneCalcId: number;
@@ -299,9 +301,13 @@ const RULES: RouteRule[] = [
     allow: OFFICE,
     okStatus: 200,
     url: (ctx) => `/api/spec-masks/${ctx.maskId}`,
-    body: (ctx) => ({ ...maskBody(ctx), version: ctx.maskVersion }),
+    body: (ctx) => ({ ...maskBody(ctx), revision: ctx.maskRevision, version: ctx.maskVersion }),
     after: (ctx, body) => {
-      ctx.maskVersion = body.version ?? ctx.maskVersion;
+      // A mask in use is revised: the edit answers with its next revision, which later edits change.
+      const mask = body as { id?: number; version?: number; revision?: string };
+      ctx.maskId = mask.id ?? ctx.maskId;
+      ctx.maskVersion = mask.version ?? ctx.maskVersion;
+      ctx.maskRevision = mask.revision ?? ctx.maskRevision;
     },
   },
   {
@@ -594,7 +600,10 @@ const RULES: RouteRule[] = [
     allow: OFFICE,
     okStatus: 200,
     url: (ctx) => `/api/customers/${ctx.customerId}`,
-    body: () => ({ name: 'Matrix customer', notes: 'edited by the matrix' }),
+    body: (ctx) => ({ name: 'Matrix customer', notes: 'edited by the matrix', version: ctx.customerVersion }),
+    after: (ctx, body) => {
+      ctx.customerVersion = body.version ?? ctx.customerVersion;
+    },
   },
 ];
 
@@ -607,6 +616,8 @@ const ctx: MatrixContext = {
   customerId: 0,
   designId: 0,
   designVersion: 1,
+  customerVersion: 1,
+  maskRevision: 'A',
   maskId: 0,
   maskVersion: 1,
   doneCalcId: 0,

@@ -3,7 +3,7 @@ import type { MigrationInterface, QueryRunner } from 'typeorm';
 /**
  * The general audit trail (every change to a record that matters, with who and when), version
  * counters for optimistic locking on every editable record, recorded version saves, revisions of
- * spec masks and materials, and remarks on chamber runs.
+ * spec masks, and remarks on chamber runs.
  */
 export class AuditTrailRevisions1764634500000 implements MigrationInterface {
   name = 'AuditTrailRevisions1764634500000';
@@ -37,22 +37,9 @@ export class AuditTrailRevisions1764634500000 implements MigrationInterface {
     await q.query('ALTER TABLE chamber_runs ADD COLUMN version integer NOT NULL DEFAULT 1');
     await q.query(`ALTER TABLE chamber_runs ADD COLUMN remarks jsonb NOT NULL DEFAULT '[]'`);
     await q.query('ALTER TABLE spec_masks ADD COLUMN superseded_by_id integer REFERENCES spec_masks(id)');
-    await q.query('ALTER TABLE materials ADD COLUMN revision integer NOT NULL DEFAULT 1');
-    await q.query('ALTER TABLE materials ADD COLUMN superseded_by_id integer REFERENCES materials(id)');
-    // Several revisions of a material share its name; only the current one must be unique.
-    await q.query('ALTER TABLE materials DROP CONSTRAINT materials_name_key');
-    await q.query(
-      'CREATE UNIQUE INDEX materials_current_name ON materials (name) WHERE superseded_by_id IS NULL',
-    );
-    await q.query('CREATE UNIQUE INDEX materials_name_revision ON materials (name, revision)');
   }
 
   async down(q: QueryRunner): Promise<void> {
-    await q.query('DROP INDEX materials_name_revision');
-    await q.query('DROP INDEX materials_current_name');
-    await q.query('DELETE FROM materials WHERE superseded_by_id IS NOT NULL');
-    await q.query('ALTER TABLE materials ADD CONSTRAINT materials_name_key UNIQUE (name)');
-    await q.query('ALTER TABLE materials DROP COLUMN superseded_by_id, DROP COLUMN revision');
     await q.query('ALTER TABLE spec_masks DROP COLUMN superseded_by_id');
     await q.query('ALTER TABLE chamber_runs DROP COLUMN remarks, DROP COLUMN version');
     await q.query('ALTER TABLE designs DROP COLUMN version');

@@ -1,6 +1,7 @@
 import { ConflictException, Injectable, NotFoundException } from '@nestjs/common';
 import { InjectRepository } from '@nestjs/typeorm';
 import { Repository } from 'typeorm';
+import { AuditService } from '../audit/audit.service.js';
 import { User } from './user.entity.js';
 import type { CreateUserDto } from './dto/create-user.dto.js';
 import type { UpdateUserDto } from './dto/update-user.dto.js';
@@ -9,7 +10,10 @@ import { hashPassword } from './passwords.js';
 
 @Injectable()
 export class UsersService {
-  constructor(@InjectRepository(User) private readonly users: Repository<User>) {}
+  constructor(
+    @InjectRepository(User) private readonly users: Repository<User>,
+    private readonly audit: AuditService,
+  ) {}
 
   list(): Promise<User[]> {
     return this.users.find({ order: { id: 'ASC' } });
@@ -29,7 +33,7 @@ export class UsersService {
     return this.users.findOneBy({ email: email.trim().toLowerCase() });
   }
 
-  async create(dto: CreateUserDto): Promise<User> {
+  async create(dto: CreateUserDto, actor?: User): Promise<User> {
     const user = this.users.create({
       email: dto.email,
       displayName: dto.displayName,
@@ -38,7 +42,18 @@ export class UsersService {
       active: true,
     });
     try {
-      return await this.users.save(user);
+      return await this.users.manager.transaction(async (tx) => {
+        const saved = await tx.getRepository(User).save(user);
+        await this.audit.record(tx, {
+          actor: actor ?? null,
+          entity: 'user',
+          entityId: saved.id,
+          action: 'created',
+          summary: `${saved.displayName} <${saved.email}> created as ${saved.role}`,
+          details: { email: saved.email, role: saved.role },
+        });
+        return saved;
+      });
     } catch (err) {
       if (isUniqueViolation(err)) {
         throw new ConflictException(`A user with e-mail ${dto.email} already exists`);
@@ -48,8 +63,10 @@ export class UsersService {
   }
 
   /** Admin edit. An admin cannot change their own role or deactivate themselves (no lock-out). */
-  async update(id: number, dto: UpdateUserDto, actorId: number): Promise<User> {
+  async update(id: number, dto: UpdateUserDto, actor: User): Promise<User> {
+    const actorId = actor.id;
     const user = await this.get(id);
+    const before = { displayName: user.displayName, role: user.role, active: user.active };
     if (id === actorId && dto.role !== undefined && dto.role !== user.role) {
       throw new ConflictException('You cannot change your own role; ask another admin');
     }
@@ -59,12 +76,41 @@ export class UsersService {
     if (dto.displayName !== undefined) user.displayName = dto.displayName;
     if (dto.role !== undefined) user.role = dto.role;
     if (dto.active !== undefined) user.active = dto.active;
-    return this.users.save(user);
+    return this.users.manager.transaction(async (tx) => {
+      const saved = await tx.getRepository(User).save(user);
+      const changes: [string, string, unknown, unknown][] = [];
+      if (before.role !== saved.role) changes.push(['role changed', 'role', before.role, saved.role]);
+      if (before.active !== saved.active)
+        changes.push([saved.active ? 'activated' : 'deactivated', 'active', before.active, saved.active]);
+      if (before.displayName !== saved.displayName)
+        changes.push(['renamed', 'displayName', before.displayName, saved.displayName]);
+      for (const [action, field, from, to] of changes) {
+        await this.audit.record(tx, {
+          actor,
+          entity: 'user',
+          entityId: id,
+          action,
+          summary: `${saved.email}: ${field} ${String(from)} → ${String(to)}`,
+          details: { field, from, to },
+        });
+      }
+      return saved;
+    });
   }
 
-  async setPassword(id: number, newPassword: string): Promise<void> {
+  /** Sets a password; with `resetBy`, an admin reset of someone's password, on the audit trail. */
+  async setPassword(id: number, newPassword: string, resetBy?: User): Promise<void> {
     const user = await this.get(id);
     user.passwordHash = await hashPassword(newPassword);
-    await this.users.save(user);
+    await this.users.manager.transaction(async (tx) => {
+      await tx.getRepository(User).save(user);
+      await this.audit.record(tx, {
+        actor: resetBy ?? user,
+        entity: 'user',
+        entityId: id,
+        action: resetBy ? 'password reset' : 'password changed',
+        summary: `${user.email}: password ${resetBy ? 'reset by an admin' : 'changed by its owner'}`,
+      });
+    });
   }
 }
