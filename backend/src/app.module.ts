@@ -3,6 +3,7 @@ import { ConfigModule } from '@nestjs/config';
 import { TypeOrmModule } from '@nestjs/typeorm';
 import { appConfig, type AppConfig } from './config/configuration.js';
 import { dataSourceOptions } from './database/data-source.js';
+import { AuditModule } from './audit/audit.module.js';
 import { AuthModule } from './auth/auth.module.js';
 import { BackupsModule } from './backups/backups.module.js';
 import { CalculationsModule } from './calculations/calculations.module.js';
@@ -39,6 +40,7 @@ import { UsersModule } from './users/users.module.js';
     MailModule,
     QuotesModule,
     BackupsModule,
+    AuditModule,
   ],
 })
 export class AppModule {}

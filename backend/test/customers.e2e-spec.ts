@@ -47,8 +47,18 @@ describe('customers', () => {
     const edited = await http()
       .put(`/api/customers/${created.body.id}`)
       .set('Cookie', sales)
-      .send({ name: 'Quillon Optics', notes: 'Prefers PDF by e-mail' });
+      .send({ name: 'Quillon Optics', notes: 'Prefers PDF by e-mail', version: created.body.version });
     expect(edited.body.notes).toBe('Prefers PDF by e-mail');
+    expect(edited.body.version).toBe(created.body.version + 1);
+    // An edit from the old version is refused and changes nothing.
+    const stale = await http()
+      .put(`/api/customers/${created.body.id}`)
+      .set('Cookie', sales)
+      .send({ name: 'Quillon Optics', notes: 'lost', version: created.body.version });
+    expect(stale.status).toBe(409);
+    expect(stale.body.message).toMatch(
+      /^Customer "Quillon Optics" was changed by someone else \(now version \d+\)/,
+    );
     expect((await http().get('/api/customers/424242').set('Cookie', sales)).status).toBe(404);
   });
 

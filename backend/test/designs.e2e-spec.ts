@@ -108,7 +108,9 @@ describe('stack designs', () => {
       .set('Cookie', engineer2)
       .send({ ...base, rowVersion: 1, layers: [base.layers[0]] });
     expect(stale.status).toBe(409);
-    expect(stale.body.message).toMatch(/saved by someone else since you opened it; reload/);
+    expect(stale.body.message).toMatch(
+      /^Version 1 was saved by Mira Castell at \S+ since you opened it \(you saw row version 1, it is now 2\); reload/,
+    );
     const now = await http().get(url).set('Cookie', engineer);
     expect(now.body.layers).toHaveLength(3);
     expect(now.body.rowVersion).toBe(2);

@@ -271,3 +271,46 @@ describe('a failed send', () => {
     }
   });
 });
+
+describe('quotes under concurrency', () => {
+  it('five concurrent sends deliver one e-mail and record one send', async () => {
+    const quote = await http().post('/api/quotes').set('Cookie', sales).send(quoteBody());
+    expect(quote.status).toBe(201);
+    const results = await Promise.all(
+      Array.from({ length: 5 }, () => http().post(`/api/quotes/${quote.body.id}/send`).set('Cookie', sales)),
+    );
+    expect(results.map((r) => r.status).sort()).toEqual([201, 409, 409, 409, 409]);
+    const outbox = await http().get('/api/outbox').set('Cookie', admin);
+    const messages = outbox.body.filter((msg: { subject: string }) =>
+      msg.subject.startsWith(`Quote Q-${quote.body.id}:`),
+    );
+    expect(messages).toHaveLength(1);
+    const now = await http().get(`/api/quotes/${quote.body.id}`).set('Cookie', sales);
+    expect(now.body.history.filter((e: { action: string }) => e.action === 'sent')).toHaveLength(1);
+    const audit = await http().get(`/api/audit?entity=quote&entityId=${quote.body.id}`).set('Cookie', admin);
+    expect(audit.body.map((e: { action: string }) => e.action)).toEqual(['sent', 'created']);
+  });
+
+  it('in 30 rounds of two concurrent edits with one version token exactly one wins, whole', async () => {
+    for (let round = 0; round < 30; round++) {
+      const quote = await http().post('/api/quotes').set('Cookie', sales).send(quoteBody());
+      const version = quote.body.version as number;
+      const [a, b] = await Promise.all([
+        http()
+          .put(`/api/quotes/${quote.body.id}`)
+          .set('Cookie', sales)
+          .send({ ...quoteBody(), leadTimeDays: 10, terms: 'edit A', version }),
+        http()
+          .put(`/api/quotes/${quote.body.id}`)
+          .set('Cookie', sales)
+          .send({ ...quoteBody(), leadTimeDays: 20, terms: 'edit B', version }),
+      ]);
+      expect([a.status, b.status].sort(), `round ${round}`).toEqual([200, 409]);
+      const winner =
+        a.status === 200 ? { leadTimeDays: 10, terms: 'edit A' } : { leadTimeDays: 20, terms: 'edit B' };
+      const now = await http().get(`/api/quotes/${quote.body.id}`).set('Cookie', sales);
+      expect(now.body).toMatchObject({ ...winner, version: version + 1 });
+      expect(now.body.history.filter((e: { action: string }) => e.action === 'edited')).toHaveLength(1);
+    }
+  });
+});

@@ -31,6 +31,9 @@ interface MatrixContext {
   materialVersion: number;
   customerId: number;
   designId: number;
+  designVersion: number;
+  customerVersion: number;
+  maskRevision: string;
   maskId: number;
   maskVersion: number;
   doneCalcId: number;
@@ -208,7 +211,10 @@ const RULES: RouteRule[] = [
     allow: DESIGNERS,
     okStatus: 200,
     url: (ctx) => `/api/designs/${ctx.designId}`,
-    body: () => ({ name: 'Matrix design renamed' }),
+    body: (ctx) => ({ name: 'Matrix design renamed', version: ctx.designVersion }),
+    after: (ctx, body) => {
+      ctx.designVersion = body.version ?? ctx.designVersion;
+    },
   },
   {
     method: 'get',
@@ -260,6 +266,7 @@ const RULES: RouteRule[] = [
     url: (ctx) => `/api/designs/${ctx.designId}/history`,
   },
   { method: 'get', path: '/api/audit', allow: ['admin'], okStatus: 200 },
+  { method: 'get', path: '/api/audit/export.csv', allow: ['admin'], okStatus: 200 },
   { method: 'get', path: '/api/recipes', allow: FLOOR, okStatus: 200 },
   {
     method: 'get',
@@ -296,9 +303,13 @@ const RULES: RouteRule[] = [
     allow: OFFICE,
     okStatus: 200,
     url: (ctx) => `/api/spec-masks/${ctx.maskId}`,
-    body: (ctx) => ({ ...maskBody(ctx), version: ctx.maskVersion }),
+    body: (ctx) => ({ ...maskBody(ctx), revision: ctx.maskRevision, version: ctx.maskVersion }),
     after: (ctx, body) => {
-      ctx.maskVersion = body.version ?? ctx.maskVersion;
+      // A mask in use is revised: the edit answers with its next revision, which later edits change.
+      const mask = body as { id?: number; version?: number; revision?: string };
+      ctx.maskId = mask.id ?? ctx.maskId;
+      ctx.maskVersion = mask.version ?? ctx.maskVersion;
+      ctx.maskRevision = mask.revision ?? ctx.maskRevision;
     },
   },
   {
@@ -613,7 +624,10 @@ const RULES: RouteRule[] = [
     allow: OFFICE,
     okStatus: 200,
     url: (ctx) => `/api/customers/${ctx.customerId}`,
-    body: () => ({ name: 'Matrix customer', notes: 'edited by the matrix' }),
+    body: (ctx) => ({ name: 'Matrix customer', notes: 'edited by the matrix', version: ctx.customerVersion }),
+    after: (ctx, body) => {
+      ctx.customerVersion = body.version ?? ctx.customerVersion;
+    },
   },
   // Last: signing out ends the session every row above used.
   { method: 'post', path: '/api/auth/sign-out', allow: ALL, okStatus: 204 },
@@ -627,6 +641,9 @@ const ctx: MatrixContext = {
   materialVersion: 0,
   customerId: 0,
   designId: 0,
+  designVersion: 1,
+  customerVersion: 1,
+  maskRevision: 'A',
   maskId: 0,
   maskVersion: 1,
   doneCalcId: 0,

@@ -60,6 +60,8 @@ export interface DesignVersionView extends DesignVersionContent {
   /** Optimistic-locking counter: send it back with a save; a stale one gets 409. */
   rowVersion: number;
   createdBy: { id: number; displayName: string };
+  /** Everyone who saved this version, in the order of their first save (none may approve or release it). */
+  editors: { id: number; displayName: string }[];
   createdAt: string;
   updatedAt: string;
   /** The material models used, frozen when the version was submitted (null while a draft). */
@@ -74,6 +76,8 @@ export interface DesignSummaryView {
   latestVersion: { number: number; status: VersionStatus; updatedAt: string };
   createdBy: { id: number; displayName: string };
   createdAt: string;
+  /** Optimistic-locking counter of the name and spec mask: send it back with a change. */
+  version: number;
 }
 
 export interface DesignView extends Omit<DesignSummaryView, 'latestVersion'> {
@@ -142,4 +146,6 @@ export interface VersionEventView {
   actor: { id: number; displayName: string; role: string };
   comment: string;
   at: string;
+  /** A status change, or a save of the version's content by `actor` (then from = to). */
+  kind: 'status' | 'saved';
 }

@@ -10,6 +10,8 @@ export * from './chambers.js';
 export * from './recipes.js';
 export * from './outbox.js';
 export * from './calculations.js';
+export * from './audit.js';
+export * from './revisions.js';
 
 // Optics engine (browser-safe; Node-only helpers live under @quietglass/shared/node/parallel).
 export * from './optics/errors.js';

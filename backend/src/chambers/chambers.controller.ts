@@ -14,7 +14,9 @@ import {
 import type { Response } from 'express';
 import type { ChamberView } from '@quietglass/shared/chambers';
 import type { RunSheetView } from '@quietglass/shared/runsheet';
+import { CurrentUser } from '../auth/current-user.decorator.js';
 import { Roles } from '../auth/roles.decorator.js';
+import type { User } from '../users/user.entity.js';
 import { toChamberView } from './chamber.entity.js';
 import { ChambersService } from './chambers.service.js';
 import { ChamberDto, UpdateChamberDto } from './dto/chamber.dto.js';
@@ -41,14 +43,18 @@ export class ChambersController {
 
   @Post('chambers')
   @Roles('admin', 'engineer')
-  async create(@Body() dto: ChamberDto): Promise<ChamberView> {
-    return toChamberView(await this.chambers.create(dto));
+  async create(@Body() dto: ChamberDto, @CurrentUser() user: User): Promise<ChamberView> {
+    return toChamberView(await this.chambers.create(dto, user));
   }
 
   @Put('chambers/:id')
   @Roles('admin', 'engineer')
-  async update(@Param('id', ParseIntPipe) id: number, @Body() dto: UpdateChamberDto): Promise<ChamberView> {
-    return toChamberView(await this.chambers.update(id, dto));
+  async update(
+    @Param('id', ParseIntPipe) id: number,
+    @Body() dto: UpdateChamberDto,
+    @CurrentUser() user: User,
+  ): Promise<ChamberView> {
+    return toChamberView(await this.chambers.update(id, dto, user));
   }
 
   @Get('recipes/:id/:number/run-sheet')

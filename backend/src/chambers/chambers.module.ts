@@ -1,4 +1,5 @@
 import { Module } from '@nestjs/common';
+import { AuditModule } from '../audit/audit.module.js';
 import { TypeOrmModule } from '@nestjs/typeorm';
 import { DesignsModule } from '../designs/designs.module.js';
 import { Material } from '../materials/material.entity.js';
@@ -8,7 +9,7 @@ import { ChambersService } from './chambers.service.js';
 import { RunSheetService } from './run-sheet.service.js';
 
 @Module({
-  imports: [TypeOrmModule.forFeature([Chamber, Material]), DesignsModule],
+  imports: [TypeOrmModule.forFeature([Chamber, Material]), DesignsModule, AuditModule],
   controllers: [ChambersController],
   providers: [ChambersService, RunSheetService],
   exports: [ChambersService],

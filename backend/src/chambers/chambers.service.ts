@@ -1,7 +1,10 @@
 import { BadRequestException, ConflictException, Injectable, NotFoundException } from '@nestjs/common';
 import { InjectRepository } from '@nestjs/typeorm';
 import { In, Repository } from 'typeorm';
+import { AuditService } from '../audit/audit.service.js';
 import { isUniqueViolation } from '../common/db-errors.js';
+import { updateIfVersion } from '../common/optimistic-lock.js';
+import type { User } from '../users/user.entity.js';
 import { Material } from '../materials/material.entity.js';
 import { Chamber } from './chamber.entity.js';
 import type { ChamberDto, UpdateChamberDto } from './dto/chamber.dto.js';
@@ -11,6 +14,7 @@ export class ChambersService {
   constructor(
     @InjectRepository(Chamber) private readonly chambers: Repository<Chamber>,
     @InjectRepository(Material) private readonly materials: Repository<Material>,
+    private readonly audit: AuditService,
   ) {}
 
   list(): Promise<Chamber[]> {
@@ -23,21 +27,55 @@ export class ChambersService {
     return chamber;
   }
 
-  async create(dto: ChamberDto): Promise<Chamber> {
+  async create(dto: ChamberDto, user: User): Promise<Chamber> {
     await this.check(dto);
-    return this.save(this.chambers.create(fields(dto)));
+    return this.unique(dto.name, () =>
+      this.chambers.manager.transaction(async (tx) => {
+        const saved = await tx.getRepository(Chamber).save(tx.getRepository(Chamber).create(fields(dto)));
+        await this.audit.record(tx, {
+          actor: user,
+          entity: 'chamber',
+          entityId: saved.id,
+          action: 'created',
+          summary: `chamber "${saved.name}" created`,
+          details: { ...fields(dto) },
+        });
+        return saved;
+      }),
+    );
   }
 
-  async update(id: number, dto: UpdateChamberDto): Promise<Chamber> {
-    const chamber = await this.get(id);
-    if (chamber.version !== dto.version) {
-      throw new ConflictException(
-        `Chamber "${chamber.name}" was changed by someone else (now version ${chamber.version}); reload it and apply your edit again`,
-      );
-    }
+  /** Tooling factors and rates change run sheets: one locked UPDATE, with before and after on the record. */
+  async update(id: number, dto: UpdateChamberDto, user: User): Promise<Chamber> {
+    const before = await this.get(id);
     await this.check(dto);
-    Object.assign(chamber, fields(dto));
-    return this.save(chamber);
+    await this.unique(dto.name, () =>
+      this.chambers.manager.transaction(async (tx) => {
+        await updateIfVersion(
+          tx,
+          Chamber,
+          { id, expectedVersion: dto.version, set: fields(dto) },
+          async () => {
+            const now = await this.get(id);
+            return new ConflictException(
+              `Chamber "${now.name}" was changed by someone else (now version ${now.version}); reload it and apply your edit again`,
+            );
+          },
+        );
+        await this.audit.record(tx, {
+          actor: user,
+          entity: 'chamber',
+          entityId: id,
+          action: 'edited',
+          summary: `chamber "${dto.name}" edited (version ${dto.version} → ${dto.version + 1})`,
+          details: {
+            before: { ...fields(before as unknown as ChamberDto) },
+            after: { ...fields(dto) },
+          },
+        });
+      }),
+    );
+    return this.get(id);
   }
 
   /** Materials must exist and appear once each. */
@@ -59,12 +97,11 @@ export class ChambersService {
     if (problems.length > 0) throw new BadRequestException({ message: problems });
   }
 
-  private async save(chamber: Chamber): Promise<Chamber> {
+  private async unique<T>(name: string, write: () => Promise<T>): Promise<T> {
     try {
-      return await this.chambers.save(chamber);
+      return await write();
     } catch (err) {
-      if (isUniqueViolation(err))
-        throw new ConflictException(`A chamber named "${chamber.name}" already exists`);
+      if (isUniqueViolation(err)) throw new ConflictException(`A chamber named "${name}" already exists`);
       throw err;
     }
   }

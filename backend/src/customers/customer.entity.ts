@@ -1,4 +1,11 @@
-import { Column, CreateDateColumn, Entity, PrimaryGeneratedColumn, UpdateDateColumn } from 'typeorm';
+import {
+  Column,
+  CreateDateColumn,
+  Entity,
+  PrimaryGeneratedColumn,
+  UpdateDateColumn,
+  VersionColumn,
+} from 'typeorm';
 
 /** A customer of the shop: owns spec masks and stack designs. */
 @Entity({ name: 'customers' })
@@ -15,6 +22,10 @@ export class Customer {
   @Column({ type: 'text', default: '' })
   notes: string;
 
+  /** Optimistic-locking counter: an edit sends it back; a stale one gets 409. */
+  @VersionColumn()
+  version: number;
+
   @CreateDateColumn({ name: 'created_at', type: 'timestamptz' })
   createdAt: Date;
 
@@ -27,8 +38,9 @@ export interface CustomerView {
   name: string;
   contactEmail: string | null;
   notes: string;
+  version: number;
 }
 
 export function toCustomerView(c: Customer): CustomerView {
-  return { id: c.id, name: c.name, contactEmail: c.contactEmail, notes: c.notes };
+  return { id: c.id, name: c.name, contactEmail: c.contactEmail, notes: c.notes, version: c.version };
 }

@@ -1,6 +1,8 @@
 import { Body, Controller, Get, Param, ParseIntPipe, Post, Put } from '@nestjs/common';
 import { Roles } from '../auth/roles.decorator.js';
-import { CustomerDto } from './dto/customer.dto.js';
+import { CurrentUser } from '../auth/current-user.decorator.js';
+import type { User } from '../users/user.entity.js';
+import { CustomerDto, UpdateCustomerDto } from './dto/customer.dto.js';
 import { toCustomerView, type CustomerView } from './customer.entity.js';
 import { CustomersService } from './customers.service.js';
 
@@ -20,12 +22,16 @@ export class CustomersController {
   }
 
   @Post()
-  async create(@Body() dto: CustomerDto): Promise<CustomerView> {
-    return toCustomerView(await this.customers.create(dto));
+  async create(@Body() dto: CustomerDto, @CurrentUser() user: User): Promise<CustomerView> {
+    return toCustomerView(await this.customers.create(dto, user));
   }
 
   @Put(':id')
-  async update(@Param('id', ParseIntPipe) id: number, @Body() dto: CustomerDto): Promise<CustomerView> {
-    return toCustomerView(await this.customers.update(id, dto));
+  async update(
+    @Param('id', ParseIntPipe) id: number,
+    @Body() dto: UpdateCustomerDto,
+    @CurrentUser() user: User,
+  ): Promise<CustomerView> {
+    return toCustomerView(await this.customers.update(id, dto, user));
   }
 }

@@ -1,5 +1,6 @@
 import 'reflect-metadata';
 import { DataSource, type DataSourceOptions } from 'typeorm';
+import { AuditEvent } from '../audit/audit-event.entity.js';
 import { Calculation } from '../calculations/calculation.entity.js';
 import { Chamber } from '../chambers/chamber.entity.js';
 import { Customer } from '../customers/customer.entity.js';
@@ -24,6 +25,7 @@ import { Chambers1764634100000 } from '../migrations/1764634100000-chambers.js';
 import { ChamberRuns1764634200000 } from '../migrations/1764634200000-chamber-runs.js';
 import { ReportsQuotesOutbox1764634300000 } from '../migrations/1764634300000-reports-quotes-outbox.js';
 import { CalculationLive1764634400000 } from '../migrations/1764634400000-calculation-live.js';
+import { AuditTrailRevisions1764634500000 } from '../migrations/1764634500000-audit-trail-revisions.js';
 import { DemoSeeds1764634600000 } from '../migrations/1764634600000-demo-seeds.js';
 import { Sessions1764634700000 } from '../migrations/1764634700000-sessions.js';
 
@@ -45,6 +47,7 @@ export const ENTITIES = [
   OutboxMessage,
   OutboxAttachment,
   Session,
+  AuditEvent,
 ];
 
 /** Every migration, in order. Listed explicitly so the same list works from src (tests) and dist. */
@@ -58,6 +61,7 @@ export const MIGRATIONS = [
   ChamberRuns1764634200000,
   ReportsQuotesOutbox1764634300000,
   CalculationLive1764634400000,
+  AuditTrailRevisions1764634500000,
   DemoSeeds1764634600000,
   Sessions1764634700000,
 ];

@@ -1,19 +1,22 @@
-import { Body, Controller, Get, Param, ParseIntPipe, Post, Query } from '@nestjs/common';
+import { Body, Controller, Get, Param, ParseIntPipe, Post } from '@nestjs/common';
 import type { DesignVersionView, VersionEventView } from '@quietglass/shared/designs';
 import type { RecipeSummaryView, RecipeView } from '@quietglass/shared/recipes';
 import { CurrentUser } from '../auth/current-user.decorator.js';
 import { Roles } from '../auth/roles.decorator.js';
 import type { User } from '../users/user.entity.js';
 import { ApprovalsService, type Transition } from './approvals.service.js';
-import { toVersionView } from './designs.service.js';
+import { DesignsService, toVersionView } from './designs.service.js';
 import { TransitionDto } from './dto/transition.dto.js';
 import { toEventView } from './version-event.entity.js';
 
-/** Submit, approve, return, release and retire versions; the audit trail; released recipes. */
+/** Submit, approve, return, release and retire versions; the design history; released recipes. */
 @Controller()
 @Roles('admin', 'engineer')
 export class ApprovalsController {
-  constructor(private readonly approvals: ApprovalsService) {}
+  constructor(
+    private readonly approvals: ApprovalsService,
+    private readonly designs: DesignsService,
+  ) {}
 
   @Post('designs/:id/versions/:number/submit')
   submit(
@@ -71,15 +74,6 @@ export class ApprovalsController {
     return (await this.approvals.history(id)).map(toEventView);
   }
 
-  @Get('audit')
-  @Roles('admin')
-  async audit(
-    @Query('designId', new ParseIntPipe({ optional: true })) designId?: number,
-    @Query('actorId', new ParseIntPipe({ optional: true })) actorId?: number,
-  ): Promise<VersionEventView[]> {
-    return (await this.approvals.audit({ designId, actorId })).map(toEventView);
-  }
-
   @Get('recipes')
   @Roles('admin', 'engineer', 'operator')
   async recipes(): Promise<RecipeSummaryView[]> {
@@ -100,7 +94,7 @@ export class ApprovalsController {
     @Param('number', ParseIntPipe) n: number,
   ): Promise<RecipeView> {
     const v = await this.approvals.releasedRecipe(id, n);
-    return { ...toVersionView(v), name: v.design.name };
+    return { ...toVersionView(v, await this.designs.editors(v)), name: v.design.name };
   }
 
   private move(

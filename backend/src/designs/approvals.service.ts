@@ -6,11 +6,13 @@ import {
   NotFoundException,
 } from '@nestjs/common';
 import { InjectDataSource } from '@nestjs/typeorm';
-import { DataSource, In } from 'typeorm';
+import { DataSource, In, type EntityManager } from 'typeorm';
 import type { DesignVersionView, VersionStatus } from '@quietglass/shared/designs';
+import { AuditService } from '../audit/audit.service.js';
+import { updateIfVersion } from '../common/optimistic-lock.js';
 import type { User } from '../users/user.entity.js';
 import { DesignVersion } from './design-version.entity.js';
-import { DesignsService, staleVersion, toVersionView } from './designs.service.js';
+import { DesignsService } from './designs.service.js';
 import { VersionEvent } from './version-event.entity.js';
 
 export const TRANSITIONS = ['submit', 'approve', 'return', 'release', 'retire'] as const;
@@ -27,15 +29,17 @@ const RULES: Record<Transition, { from: readonly VersionStatus[]; to: VersionSta
 
 /**
  * The version lifecycle: draft → submitted → approved (or returned with a comment, then edited and
- * submitted again) → released as a recipe → retired. Approval and return follow the four-eyes rule:
- * never by the version's author or by whoever submitted it. Every step is written to the audit trail
- * in the same transaction as the status change.
+ * submitted again) → released as a recipe → retired. Approval, return and release follow the
+ * four-eyes rule: never by the version's author or anyone who saved it, and approval or return never
+ * by whoever submitted it. Every step is written to the version history and the audit trail in the
+ * same transaction as the status change; refused approvals are recorded as well.
  */
 @Injectable()
 export class ApprovalsService {
   constructor(
     @InjectDataSource() private readonly db: DataSource,
     private readonly designs: DesignsService,
+    private readonly audit: AuditService,
   ) {}
 
   async transition(
@@ -46,70 +50,116 @@ export class ApprovalsService {
     options: { rowVersion?: number; comment?: string },
   ): Promise<DesignVersionView> {
     const rule = RULES[action];
-    const version = await this.designs.findVersion(designId, number);
     const comment = options.comment?.trim() ?? '';
-    if (!rule.from.includes(version.status)) {
-      throw new ConflictException(
-        `Version ${number} is ${version.status}; it can be ${pastTense(action)} only when ${rule.from.join(' or ')}`,
-      );
-    }
-    const patch: Partial<DesignVersion> = { status: rule.to };
-    if (action === 'submit') {
-      if (options.rowVersion === undefined)
-        throw new BadRequestException({ message: ['rowVersion is required to submit'] });
-      if (options.rowVersion !== version.rowVersion) throw staleVersion(version);
-      if (version.layers.length === 0)
-        throw new BadRequestException('A version without layers cannot be submitted');
-      const materials = await this.designs.checkMaterials(version);
-      patch.materialsSnapshot = Object.fromEntries([...materials].map(([k, v]) => [String(k), v]));
-    }
-    if (action === 'approve' || action === 'return') {
-      const submitter = await this.lastActor(designId, number, 'submitted');
-      if (version.createdBy.id === actor.id || submitter === actor.id) {
-        throw new ForbiddenException(
-          `Four-eyes rule: another engineer must ${action === 'approve' ? 'approve' : 'return'} version ${number}; you wrote or submitted it`,
-        );
-      }
-    }
+    if (action === 'submit' && options.rowVersion === undefined)
+      throw new BadRequestException({ message: ['rowVersion is required to submit'] });
     if (action === 'return' && comment === '') {
       throw new BadRequestException({
         message: ['comment is required when returning a version: say what to change'],
       });
     }
-    await this.db.transaction(async (tx) => {
-      const result = await tx
-        .createQueryBuilder()
-        .update(DesignVersion)
-        .set({ ...patch, rowVersion: () => 'row_version + 1' })
-        .where('id = :id AND status = :status', { id: version.id, status: version.status })
-        .execute();
-      if (result.affected !== 1)
-        throw new ConflictException(`Version ${number} changed meanwhile; reload it`);
-      await tx.getRepository(VersionEvent).insert({
-        designId,
-        versionNumber: number,
-        fromStatus: version.status,
-        toStatus: rule.to,
-        actor,
-        comment,
+    try {
+      await this.db.transaction(async (tx) => {
+        // The row lock makes every check below and the status change one step: a save, another
+        // submit or a concurrent approval waits for it and then finds the version changed.
+        await tx.query('SELECT id FROM design_versions WHERE design_id = $1 AND number = $2 FOR UPDATE', [
+          designId,
+          number,
+        ]);
+        const version = await this.designs.findVersion(designId, number, tx);
+        if (!rule.from.includes(version.status)) {
+          throw new ConflictException(
+            `Version ${number} is ${version.status}; it can be ${pastTense(action)} only when ${rule.from.join(' or ')}`,
+          );
+        }
+        if (options.rowVersion !== undefined && options.rowVersion !== version.rowVersion)
+          throw await this.designs.staleVersion(version, options.rowVersion);
+        const patch: Partial<DesignVersion> = { status: rule.to };
+        if (action === 'submit') {
+          if (version.layers.length === 0)
+            throw new BadRequestException('A version without layers cannot be submitted');
+          // Frozen from the very content being submitted, in the same transaction.
+          const materials = await this.designs.checkMaterials(version, tx);
+          patch.materialsSnapshot = Object.fromEntries([...materials].map(([k, v]) => [String(k), v]));
+        }
+        if (action === 'approve' || action === 'return' || action === 'release') {
+          await this.fourEyes(tx, version, action, actor);
+        }
+        await updateIfVersion(
+          tx,
+          DesignVersion,
+          {
+            id: version.id,
+            expectedVersion: version.rowVersion,
+            set: patch,
+            where: 'status = :status',
+            params: { status: version.status },
+          },
+          () => new ConflictException(`Version ${number} changed meanwhile; reload it`),
+        );
+        await tx.getRepository(VersionEvent).insert({
+          designId,
+          versionNumber: number,
+          fromStatus: version.status,
+          toStatus: rule.to,
+          actor,
+          comment,
+          kind: 'status',
+        });
+        await this.audit.record(tx, {
+          actor,
+          entity: 'design',
+          entityId: designId,
+          action: rule.to,
+          summary: `version ${number}: ${version.status} → ${rule.to}${comment ? ` (${comment})` : ''}`,
+          details: { versionNumber: number, from: version.status, to: rule.to, comment },
+        });
       });
-    });
-    return toVersionView(await this.designs.findVersion(designId, number));
+    } catch (err) {
+      if (err instanceof FourEyesRefusal) {
+        // A refused approval is on the record too, written on its own since the step rolled back.
+        await this.db.transaction((tx) =>
+          this.audit.record(tx, {
+            actor,
+            entity: 'design',
+            entityId: designId,
+            action: `${action} refused`,
+            summary: `version ${number}: ${err.message}`,
+            details: { versionNumber: number, action, reason: err.reason },
+          }),
+        );
+      }
+      throw err;
+    }
+    return this.designs.getVersion(designId, number);
+  }
+
+  /**
+   * Four-eyes: nobody who wrote or saved a version may approve, return or release it, and whoever
+   * submitted it may not approve or return it.
+   */
+  private async fourEyes(tx: EntityManager, version: DesignVersion, action: Transition, actor: User) {
+    const verb = action === 'approve' ? 'approve' : action === 'return' ? 'return' : 'release';
+    const submitter = await this.lastActor(tx, version.designId, version.number, 'submitted');
+    const wroteOrSubmitted =
+      version.createdBy.id === actor.id || (action !== 'release' && submitter === actor.id);
+    if (wroteOrSubmitted) {
+      throw new FourEyesRefusal(
+        `Four-eyes rule: another engineer must ${verb} version ${version.number}; you wrote or submitted it`,
+        version.createdBy.id === actor.id ? 'author' : 'submitter',
+      );
+    }
+    const editors = await this.designs.editors(version, tx);
+    if (editors.some((e) => e.id === actor.id)) {
+      throw new FourEyesRefusal(
+        `Four-eyes rule: another engineer must ${verb} version ${version.number}; you edited it`,
+        'editor',
+      );
+    }
   }
 
   history(designId: number): Promise<VersionEvent[]> {
     return this.db.getRepository(VersionEvent).find({ where: { designId }, order: { at: 'ASC', id: 'ASC' } });
-  }
-
-  audit(filter: { designId?: number; actorId?: number }): Promise<VersionEvent[]> {
-    return this.db.getRepository(VersionEvent).find({
-      where: {
-        ...(filter.designId !== undefined ? { designId: filter.designId } : {}),
-        ...(filter.actorId !== undefined ? { actor: { id: filter.actorId } } : {}),
-      },
-      order: { at: 'DESC', id: 'DESC' },
-      take: 500,
-    });
   }
 
   /** Released versions, what operators may build, each with who released it (from the audit trail). */
@@ -141,12 +191,27 @@ export class ApprovalsService {
     return version;
   }
 
-  private async lastActor(designId: number, number: number, to: VersionStatus): Promise<number | null> {
-    const event = await this.db.getRepository(VersionEvent).findOne({
-      where: { designId, versionNumber: number, toStatus: to },
+  private async lastActor(
+    tx: EntityManager,
+    designId: number,
+    number: number,
+    to: VersionStatus,
+  ): Promise<number | null> {
+    const event = await tx.getRepository(VersionEvent).findOne({
+      where: { designId, versionNumber: number, toStatus: to, kind: 'status' },
       order: { at: 'DESC', id: 'DESC' },
     });
     return event?.actor.id ?? null;
+  }
+}
+
+/** A four-eyes refusal: 403, and written to the audit trail. */
+class FourEyesRefusal extends ForbiddenException {
+  constructor(
+    message: string,
+    readonly reason: 'author' | 'submitter' | 'editor',
+  ) {
+    super(message);
   }
 }
 

@@ -33,6 +33,10 @@ export class Design {
   @JoinColumn({ name: 'created_by' })
   createdBy: User;
 
+  /** Optimistic-locking counter of the name and spec mask (not bumped by version saves). */
+  @Column({ type: 'integer', default: 1 })
+  version: number;
+
   @OneToMany(() => DesignVersion, (v) => v.design)
   versions: Relation<DesignVersion>[];
 

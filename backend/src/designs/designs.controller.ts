@@ -30,8 +30,12 @@ export class DesignsController {
 
   @Patch(':id')
   @Roles('admin', 'engineer')
-  update(@Param('id', ParseIntPipe) id: number, @Body() dto: UpdateDesignDto): Promise<DesignView> {
-    return this.designs.update(id, dto);
+  update(
+    @Param('id', ParseIntPipe) id: number,
+    @Body() dto: UpdateDesignDto,
+    @CurrentUser() user: User,
+  ): Promise<DesignView> {
+    return this.designs.update(id, dto, user);
   }
 
   @Get(':id/versions/:number')
@@ -48,8 +52,9 @@ export class DesignsController {
     @Param('id', ParseIntPipe) id: number,
     @Param('number', ParseIntPipe) number: number,
     @Body() dto: SaveVersionDto,
+    @CurrentUser() user: User,
   ): Promise<DesignVersionView> {
-    return this.designs.saveVersion(id, number, dto);
+    return this.designs.saveVersion(id, number, dto, user);
   }
 
   @Post(':id/versions')

@@ -1,5 +1,6 @@
 import { Module } from '@nestjs/common';
 import { TypeOrmModule } from '@nestjs/typeorm';
+import { AuditModule } from '../audit/audit.module.js';
 import { CustomersModule } from '../customers/customers.module.js';
 import { SpecMasksModule } from '../spec-masks/spec-masks.module.js';
 import { Design } from './design.entity.js';
@@ -15,6 +16,7 @@ import { DesignsService } from './designs.service.js';
     TypeOrmModule.forFeature([Design, DesignVersion, VersionEvent]),
     CustomersModule,
     SpecMasksModule,
+    AuditModule,
   ],
   controllers: [DesignsController, ApprovalsController],
   providers: [DesignsService, ApprovalsService],

@@ -8,12 +8,15 @@ import type {
   DesignView,
   NamedModel,
 } from '@quietglass/shared/designs';
+import { AuditService } from '../audit/audit.service.js';
+import { updateIfVersion } from '../common/optimistic-lock.js';
 import { CustomersService } from '../customers/customers.service.js';
 import { Material } from '../materials/material.entity.js';
 import { SpecMasksService } from '../spec-masks/spec-masks.service.js';
 import type { User } from '../users/user.entity.js';
 import { Design } from './design.entity.js';
 import { DesignVersion } from './design-version.entity.js';
+import { VersionEvent } from './version-event.entity.js';
 import type {
   CreateDesignDto,
   SaveVersionDto,
@@ -29,6 +32,7 @@ export class DesignsService {
     @InjectDataSource() private readonly db: DataSource,
     private readonly customers: CustomersService,
     private readonly masks: SpecMasksService,
+    private readonly audit: AuditService,
   ) {}
 
   async list(): Promise<DesignSummaryView[]> {
@@ -66,7 +70,25 @@ export class DesignsService {
   }
 
   async getVersion(id: number, number: number): Promise<DesignVersionView> {
-    return toVersionView(await this.findVersion(id, number));
+    const version = await this.findVersion(id, number);
+    return toVersionView(version, await this.editors(version));
+  }
+
+  /**
+   * Everyone who wrote or saved a version, author first: none of them may approve or release it.
+   * Reads through `manager` so a transaction sees its own writes.
+   */
+  async editors(
+    version: DesignVersion,
+    manager: EntityManager = this.db.manager,
+  ): Promise<{ id: number; displayName: string }[]> {
+    const saves = await manager.getRepository(VersionEvent).find({
+      where: { designId: version.designId, versionNumber: version.number, kind: 'saved' },
+      order: { at: 'ASC', id: 'ASC' },
+    });
+    const people = new Map<number, string>([[version.createdBy.id, version.createdBy.displayName]]);
+    for (const e of saves) if (!people.has(e.actor.id)) people.set(e.actor.id, e.actor.displayName);
+    return [...people].map(([id, displayName]) => ({ id, displayName }));
   }
 
   /** A new design with its first version as a draft. */
@@ -85,47 +107,127 @@ export class DesignsService {
             .create({ name: dto.name, customer, specMaskId: dto.specMaskId ?? null, createdBy: author }),
         );
       await tx.getRepository(DesignVersion).save(newDraft(tx, design, 1, dto, author));
+      await this.audit.record(tx, {
+        actor: author,
+        entity: 'design',
+        entityId: design.id,
+        action: 'created',
+        summary: `created "${design.name}" for ${customer.name} with draft version 1`,
+        details: { name: design.name, customerId: customer.id, specMaskId: design.specMaskId },
+      });
       return design.id;
     });
     return this.get(id);
   }
 
-  async update(id: number, dto: UpdateDesignDto): Promise<DesignView> {
+  /**
+   * Renames a design or points it at another spec mask of its customer. The change carries the
+   * design's version token; both changes are written to the audit trail, a rename of a design with
+   * customer-visible versions saying so.
+   */
+  async update(id: number, dto: UpdateDesignDto, actor: User): Promise<DesignView> {
     const design = await this.findDesign(id);
-    if (dto.name !== undefined) design.name = dto.name;
-    if (dto.specMaskId !== undefined) {
+    const set: Partial<Design> = {};
+    if (dto.name !== undefined && dto.name !== design.name) set.name = dto.name;
+    if (dto.specMaskId !== undefined && dto.specMaskId !== design.specMaskId) {
       await this.checkMask(dto.specMaskId, design.customer.id);
-      design.specMaskId = dto.specMaskId;
+      set.specMaskId = dto.specMaskId;
     }
-    await this.designs.save(design);
+    await this.db.transaction(async (tx) => {
+      await updateIfVersion(tx, Design, { id, expectedVersion: dto.version, set }, async () =>
+        staleDesign(await this.findDesign(id)),
+      );
+      const shown = await tx.getRepository(DesignVersion).find({
+        where: { designId: id, status: In(['submitted', 'approved', 'released', 'retired']) },
+        select: { number: true, status: true },
+      });
+      const released = shown.filter((v) => v.status === 'released').map((v) => v.number);
+      if (set.name !== undefined) {
+        await this.audit.record(tx, {
+          actor,
+          entity: 'design',
+          entityId: id,
+          action: 'renamed',
+          summary: `renamed "${design.name}" to "${set.name}"${released.length > 0 ? ` (released version ${released.join(', ')})` : ''}`,
+          details: { from: design.name, to: set.name, releasedVersions: released },
+        });
+      }
+      if (set.specMaskId !== undefined) {
+        await this.audit.record(tx, {
+          actor,
+          entity: 'design',
+          entityId: id,
+          action: 'spec mask changed',
+          summary: `spec mask ${design.specMaskId ?? 'none'} → ${set.specMaskId ?? 'none'}`,
+          details: { from: design.specMaskId, to: set.specMaskId },
+        });
+      }
+    });
     return this.get(id);
   }
 
   /**
-   * Saves a draft. The save carries the rowVersion it started from; when someone saved in between,
-   * it gets 409 and nothing is written, so no layer is ever silently lost.
+   * Saves a draft. The save carries the rowVersion it started from and applies only if the version
+   * is still at it (one conditional UPDATE); otherwise 409 and nothing is written, so no layer is
+   * ever silently lost. Every save records who made it.
    */
-  async saveVersion(id: number, number: number, dto: SaveVersionDto): Promise<DesignVersionView> {
+  async saveVersion(
+    id: number,
+    number: number,
+    dto: SaveVersionDto,
+    editor: User,
+  ): Promise<DesignVersionView> {
     const version = await this.findVersion(id, number);
     if (!isEditable(version)) throw notEditable(version);
-    if (version.rowVersion !== dto.rowVersion) throw staleVersion(version);
     await this.checkMaterials(dto);
-    const result = await this.versions
-      .createQueryBuilder()
-      .update(DesignVersion)
-      .set({ ...content(dto), rowVersion: () => 'row_version + 1' })
-      .where('id = :id AND row_version = :rowVersion AND status IN (:...editable)', {
-        id: version.id,
-        rowVersion: dto.rowVersion,
-        editable: EDITABLE_STATUSES,
-      })
-      .execute();
-    if (result.affected !== 1) {
-      const now = await this.findVersion(id, number);
-      throw isEditable(now) ? staleVersion(now) : notEditable(now);
-    }
-    await this.designs.update(id, { updatedAt: new Date() });
+    await this.db.transaction(async (tx) => {
+      const saved = await updateIfVersion(
+        tx,
+        DesignVersion,
+        {
+          id: version.id,
+          expectedVersion: dto.rowVersion,
+          set: content(dto),
+          where: 'status IN (:...editable)',
+          params: { editable: EDITABLE_STATUSES },
+        },
+        async () => {
+          const now = await this.findVersion(id, number);
+          return isEditable(now) ? this.staleVersion(now, dto.rowVersion) : notEditable(now);
+        },
+      );
+      await tx.getRepository(VersionEvent).insert({
+        designId: id,
+        versionNumber: number,
+        fromStatus: version.status,
+        toStatus: version.status,
+        actor: editor,
+        comment: `saved as row version ${saved} (${dto.layers.length} layers)`,
+        kind: 'saved',
+      });
+      await this.audit.record(tx, {
+        actor: editor,
+        entity: 'design',
+        entityId: id,
+        action: 'version saved',
+        summary: `version ${number} saved (${dto.layers.length} layers, row version ${saved})`,
+        details: { versionNumber: number, rowVersion: saved },
+      });
+      await tx.getRepository(Design).update(id, { updatedAt: new Date() });
+    });
     return this.getVersion(id, number);
+  }
+
+  /** 409 for a save or submit based on an older row version: says who saved since, and when. */
+  async staleVersion(now: DesignVersion, seen: number): Promise<ConflictException> {
+    const last = await this.db.getRepository(VersionEvent).findOne({
+      where: { designId: now.designId, versionNumber: now.number, kind: 'saved' },
+      order: { at: 'DESC', id: 'DESC' },
+    });
+    const by = last ? ` by ${last.actor.displayName} at ${last.at.toISOString()}` : '';
+    return new ConflictException(
+      `Version ${now.number} was saved${by} since you opened it (you saw row version ${seen}, it is now ${now.rowVersion}); reload to see their changes (nothing of yours was saved)`,
+    );
   }
 
   /** A new draft copied from an existing version (of any status). */
@@ -153,6 +255,14 @@ export class DesignsService {
       await tx
         .getRepository(DesignVersion)
         .save(newDraft(tx, from.design, next, { ...content(from), layers }, author));
+      await this.audit.record(tx, {
+        actor: author,
+        entity: 'design',
+        entityId: id,
+        action: 'version created',
+        summary: `draft version ${next} started from version ${fromNumber}`,
+        details: { versionNumber: next, fromNumber },
+      });
       return next;
     });
     await this.designs.update(id, { updatedAt: new Date() });
@@ -190,13 +300,16 @@ export class DesignsService {
   }
 
   /** Every material the content names must exist; returns them by id. */
-  async checkMaterials(c: DesignVersionContent | VersionContentDto): Promise<Map<number, NamedModel>> {
+  async checkMaterials(
+    c: DesignVersionContent | VersionContentDto,
+    manager: EntityManager = this.db.manager,
+  ): Promise<Map<number, NamedModel>> {
     const wanted = new Set([
       c.incidentMaterialId,
       c.substrateMaterialId,
       ...c.layers.map((l) => l.materialId),
     ]);
-    const found = await this.db.getRepository(Material).findBy({ id: In([...wanted]) });
+    const found = await manager.getRepository(Material).findBy({ id: In([...wanted]) });
     const byId = new Map(
       found.map((m) => [
         m.id,
@@ -222,8 +335,12 @@ export class DesignsService {
     return design;
   }
 
-  async findVersion(id: number, number: number): Promise<DesignVersion> {
-    const version = await this.versions.findOne({
+  async findVersion(
+    id: number,
+    number: number,
+    manager: EntityManager = this.db.manager,
+  ): Promise<DesignVersion> {
+    const version = await manager.getRepository(DesignVersion).findOne({
       where: { designId: id, number },
       relations: { design: true },
     });
@@ -284,9 +401,9 @@ export function notEditable(v: DesignVersion): ConflictException {
   );
 }
 
-export function staleVersion(v: DesignVersion): ConflictException {
+function staleDesign(d: Design): ConflictException {
   return new ConflictException(
-    `Version ${v.number} was saved by someone else since you opened it; reload to see their changes (nothing of yours was saved)`,
+    `Design "${d.name}" was changed by someone else (now version ${d.version}); reload it and apply your change again`,
   );
 }
 
@@ -298,10 +415,14 @@ function designHeader(d: Design): Omit<DesignSummaryView, 'latestVersion'> {
     specMaskId: d.specMaskId,
     createdBy: { id: d.createdBy.id, displayName: d.createdBy.displayName },
     createdAt: d.createdAt.toISOString(),
+    version: d.version,
   };
 }
 
-export function toVersionView(v: DesignVersion): DesignVersionView {
+export function toVersionView(
+  v: DesignVersion,
+  editors: { id: number; displayName: string }[],
+): DesignVersionView {
   return {
     designId: v.designId,
     number: v.number,
@@ -309,6 +430,7 @@ export function toVersionView(v: DesignVersion): DesignVersionView {
     rowVersion: v.rowVersion,
     ...content(v),
     createdBy: { id: v.createdBy.id, displayName: v.createdBy.displayName },
+    editors,
     createdAt: v.createdAt.toISOString(),
     updatedAt: v.updatedAt.toISOString(),
     materialsSnapshot: v.materialsSnapshot,

@@ -27,6 +27,10 @@ export class VersionEvent {
   @Column({ type: 'text', default: '' })
   comment: string;
 
+  /** A status change, or a save of the content (then from = to). */
+  @Column({ type: 'varchar', length: 12, default: 'status' })
+  kind: 'status' | 'saved';
+
   @CreateDateColumn({ name: 'at', type: 'timestamptz' })
   at: Date;
 }
@@ -41,5 +45,6 @@ export function toEventView(e: VersionEvent): VersionEventView {
     actor: { id: e.actor.id, displayName: e.actor.displayName, role: e.actor.role },
     comment: e.comment,
     at: e.at.toISOString(),
+    kind: e.kind,
   };
 }

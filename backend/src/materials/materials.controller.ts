@@ -1,5 +1,7 @@
 import { Body, Controller, Get, Param, ParseIntPipe, Post, Put } from '@nestjs/common';
+import { CurrentUser } from '../auth/current-user.decorator.js';
 import { Roles } from '../auth/roles.decorator.js';
+import type { User } from '../users/user.entity.js';
 import { ImportMaterialCsvDto, MaterialDto, UpdateMaterialDto } from './dto/material.dto.js';
 import { toMaterialView, type MaterialView } from './material.entity.js';
 import { MaterialsService } from './materials.service.js';
@@ -21,19 +23,23 @@ export class MaterialsController {
 
   @Post()
   @Roles('admin', 'engineer')
-  async create(@Body() dto: MaterialDto): Promise<MaterialView> {
-    return toMaterialView(await this.materials.create(dto));
+  async create(@Body() dto: MaterialDto, @CurrentUser() user: User): Promise<MaterialView> {
+    return toMaterialView(await this.materials.create(dto, user));
   }
 
   @Put(':id')
   @Roles('admin', 'engineer')
-  async update(@Param('id', ParseIntPipe) id: number, @Body() dto: UpdateMaterialDto): Promise<MaterialView> {
-    return toMaterialView(await this.materials.update(id, dto));
+  async update(
+    @Param('id', ParseIntPipe) id: number,
+    @Body() dto: UpdateMaterialDto,
+    @CurrentUser() user: User,
+  ): Promise<MaterialView> {
+    return toMaterialView(await this.materials.update(id, dto, user));
   }
 
   @Post('import-csv')
   @Roles('admin', 'engineer')
-  async importCsv(@Body() dto: ImportMaterialCsvDto): Promise<MaterialView> {
-    return toMaterialView(await this.materials.importCsv(dto));
+  async importCsv(@Body() dto: ImportMaterialCsvDto, @CurrentUser() user: User): Promise<MaterialView> {
+    return toMaterialView(await this.materials.importCsv(dto, user));
   }
 }

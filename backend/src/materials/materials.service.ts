@@ -7,7 +7,10 @@ import {
   type MaterialModel,
 } from '@quietglass/shared/optics/dispersion';
 import { OpticsInputError } from '@quietglass/shared/optics/errors';
+import { AuditService } from '../audit/audit.service.js';
 import { isUniqueViolation } from '../common/db-errors.js';
+import { updateIfVersion } from '../common/optimistic-lock.js';
+import type { User } from '../users/user.entity.js';
 import { Material } from './material.entity.js';
 import type {
   ImportMaterialCsvDto,
@@ -22,7 +25,10 @@ const RANGE_CHECK_POINTS = 201;
 
 @Injectable()
 export class MaterialsService {
-  constructor(@InjectRepository(Material) private readonly materials: Repository<Material>) {}
+  constructor(
+    @InjectRepository(Material) private readonly materials: Repository<Material>,
+    private readonly audit: AuditService,
+  ) {}
 
   list(): Promise<Material[]> {
     return this.materials.find({ order: { name: 'ASC' } });
@@ -34,45 +40,50 @@ export class MaterialsService {
     return material;
   }
 
-  async create(dto: MaterialDto): Promise<Material> {
+  async create(dto: MaterialDto, user: User): Promise<Material> {
     const model = checkedModel(dto.model, dto.rangeNm);
-    return this.save(this.materials.create({ ...fields(dto), model }));
+    return this.save(this.materials.create({ ...fields(dto), model }), user, 'created');
   }
 
-  /** Replaces a material; a save based on an older version gets 409 and changes nothing. */
-  async update(id: number, dto: UpdateMaterialDto): Promise<Material> {
-    const material = await this.get(id);
-    if (material.version !== dto.version) throw staleMaterial(material);
+  /**
+   * Replaces a material; a save based on an older version gets 409 and changes nothing. Versions
+   * submitted earlier keep the models frozen in their snapshot; the audit trail keeps before and after.
+   */
+  async update(id: number, dto: UpdateMaterialDto, user: User): Promise<Material> {
+    const before = await this.get(id);
     const model = checkedModel(dto.model, dto.rangeNm);
-    Object.assign(material, fields(dto), { model });
-    // The version check and the write happen in one statement, so two concurrent saves cannot both win.
-    const result = await this.materials
-      .createQueryBuilder()
-      .update(Material)
-      .set({
-        name: material.name,
-        model: material.model,
-        rangeFromNm: material.rangeFromNm,
-        rangeToNm: material.rangeToNm,
-        typical: material.typical,
-        source: material.source,
-        sourceDate: material.sourceDate,
-        processNotes: material.processNotes,
-        version: () => 'version + 1',
+    const set = { ...fields(dto), model };
+    await this.materials.manager
+      .transaction(async (tx) => {
+        await updateIfVersion(tx, Material, { id, expectedVersion: dto.version, set }, async () =>
+          staleMaterial(await this.get(id)),
+        );
+        await this.audit.record(tx, {
+          actor: user,
+          entity: 'material',
+          entityId: id,
+          action: 'edited',
+          summary: `material "${dto.name}" edited (version ${dto.version} → ${dto.version + 1})`,
+          details: {
+            before: {
+              name: before.name,
+              model: before.model,
+              rangeNm: [before.rangeFromNm, before.rangeToNm],
+            },
+            after: { name: dto.name, model, rangeNm: [dto.rangeNm.from, dto.rangeNm.to] },
+          },
+        });
       })
-      .where('id = :id AND version = :version', { id, version: dto.version })
-      .execute()
       .catch((err: unknown) => {
         if (isUniqueViolation(err))
-          throw new ConflictException(`A material named "${material.name}" already exists`);
+          throw new ConflictException(`A material named "${dto.name}" already exists`);
         throw err;
       });
-    if (result.affected !== 1) throw staleMaterial(await this.get(id));
     return this.get(id);
   }
 
   /** Creates a tabulated material from CSV text; any bad row rejects the whole file. */
-  async importCsv(dto: ImportMaterialCsvDto): Promise<Material> {
+  async importCsv(dto: ImportMaterialCsvDto, user: User): Promise<Material> {
     const parsed = parseNkCsv(dto.csv, dto.unit);
     if (!parsed.ok) {
       const details = parsed.problems.map((p) => (p.row > 0 ? `row ${p.row}: ${p.reason}` : p.reason));
@@ -89,12 +100,29 @@ export class MaterialsService {
         ...fields({ name: dto.name, rangeNm, typical: dto.typical, provenance: dto.provenance }),
         model,
       }),
+      user,
+      'imported from CSV',
     );
   }
 
-  private async save(material: Material): Promise<Material> {
+  private async save(material: Material, user: User, action: string): Promise<Material> {
     try {
-      return await this.materials.save(material);
+      return await this.materials.manager.transaction(async (tx) => {
+        const saved = await tx.getRepository(Material).save(material);
+        await this.audit.record(tx, {
+          actor: user,
+          entity: 'material',
+          entityId: saved.id,
+          action,
+          summary: `material "${saved.name}" ${action}`,
+          details: {
+            model: saved.model,
+            rangeNm: [saved.rangeFromNm, saved.rangeToNm],
+            source: saved.source,
+          },
+        });
+        return saved;
+      });
     } catch (err) {
       if (isUniqueViolation(err))
         throw new ConflictException(`A material named "${material.name}" already exists`);

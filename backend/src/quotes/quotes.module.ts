@@ -1,4 +1,5 @@
 import { Module } from '@nestjs/common';
+import { AuditModule } from '../audit/audit.module.js';
 import { TypeOrmModule } from '@nestjs/typeorm';
 import { CustomersModule } from '../customers/customers.module.js';
 import { MailModule } from '../mail/mail.module.js';
@@ -8,7 +9,7 @@ import { QuotesController } from './quotes.controller.js';
 import { QuotesService } from './quotes.service.js';
 
 @Module({
-  imports: [TypeOrmModule.forFeature([Quote]), CustomersModule, ReportsModule, MailModule],
+  imports: [TypeOrmModule.forFeature([Quote]), CustomersModule, ReportsModule, MailModule, AuditModule],
   controllers: [QuotesController],
   providers: [QuotesService],
 })

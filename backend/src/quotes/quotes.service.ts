@@ -3,6 +3,8 @@ import { InjectDataSource } from '@nestjs/typeorm';
 import { DataSource, In } from 'typeorm';
 import { isApprovedForCustomers } from '@quietglass/shared/designs';
 import type { QuoteStatus } from '@quietglass/shared/quotes';
+import { AuditService } from '../audit/audit.service.js';
+import { updateIfVersion } from '../common/optimistic-lock.js';
 import { CustomersService } from '../customers/customers.service.js';
 import { Design } from '../designs/design.entity.js';
 import { DesignVersion } from '../designs/design-version.entity.js';
@@ -29,6 +31,7 @@ export class QuotesService {
     private readonly customers: CustomersService,
     private readonly reports: ReportsService,
     private readonly mail: MailService,
+    private readonly audit: AuditService,
   ) {}
 
   list(): Promise<Quote[]> {
@@ -43,31 +46,56 @@ export class QuotesService {
 
   async create(dto: QuoteDto, user: User): Promise<Quote> {
     const fields = await this.checked(dto);
-    const repo = this.db.getRepository(Quote);
-    const saved = await repo.save(
-      repo.create({
-        ...fields,
-        status: 'draft',
-        reportIds: [],
-        history: [event(user, 'created')],
-        createdBy: user,
-      }),
-    );
-    return this.get(saved.id);
+    const id = await this.db.transaction(async (tx) => {
+      const repo = tx.getRepository(Quote);
+      const saved = await repo.save(
+        repo.create({
+          ...fields,
+          status: 'draft',
+          reportIds: [],
+          history: [event(user, 'created')],
+          createdBy: user,
+        }),
+      );
+      await this.audit.record(tx, {
+        actor: user,
+        entity: 'quote',
+        entityId: saved.id,
+        action: 'created',
+        summary: `quote Q-${saved.id} for ${fields.customer?.name ?? ''}: ${saved.partDescription}`,
+        details: { designId: saved.designId, versionNumber: saved.versionNumber },
+      });
+      return saved.id;
+    });
+    return this.get(id);
   }
 
   async update(id: number, dto: UpdateQuoteDto, user: User): Promise<Quote> {
     const quote = await this.get(id);
     if (quote.status !== 'draft')
       throw new ConflictException(`Quote ${id} is ${quote.status}; only a draft can be edited`);
-    if (quote.version !== dto.version) {
-      throw new ConflictException(
-        `Quote ${id} was changed by someone else (now version ${quote.version}); reload it and apply your edit again`,
+    const fields = await this.checked(dto);
+    await this.db.transaction(async (tx) => {
+      await updateIfVersion(
+        tx,
+        Quote,
+        {
+          id,
+          expectedVersion: dto.version,
+          set: { ...fields, history: [...quote.history, event(user, 'edited')] },
+          where: "status = 'draft'",
+        },
+        async () => staleQuote(await this.get(id)),
       );
-    }
-    Object.assign(quote, await this.checked(dto));
-    quote.history = [...quote.history, event(user, 'edited')];
-    await this.db.getRepository(Quote).save(quote);
+      await this.audit.record(tx, {
+        actor: user,
+        entity: 'quote',
+        entityId: id,
+        action: 'edited',
+        summary: `quote Q-${id} edited`,
+        details: { fromVersion: dto.version },
+      });
+    });
     return this.get(id);
   }
 
@@ -86,12 +114,32 @@ export class QuotesService {
       return [];
     });
     if (problems.length > 0) throw new BadRequestException({ message: problems });
-    quote.reportIds = [...new Set([...quote.reportIds, ...reportIds])];
-    quote.history = [
-      ...quote.history,
-      event(user, 'reports attached', reportIds.map((r) => `#${r}`).join(', ')),
-    ];
-    await this.db.getRepository(Quote).save(quote);
+    const list = reportIds.map((r) => `#${r}`).join(', ');
+    await this.db.transaction(async (tx) => {
+      // Based on the quote as read above: a concurrent change makes this one a 409, never a lost update.
+      await updateIfVersion(
+        tx,
+        Quote,
+        {
+          id,
+          expectedVersion: quote.version,
+          set: {
+            reportIds: [...new Set([...quote.reportIds, ...reportIds])],
+            history: [...quote.history, event(user, 'reports attached', list)],
+          },
+          where: "status = 'draft'",
+        },
+        async () => staleQuote(await this.get(id)),
+      );
+      await this.audit.record(tx, {
+        actor: user,
+        entity: 'quote',
+        entityId: id,
+        action: 'reports attached',
+        summary: `reports ${list} attached to Q-${id}`,
+        details: { reportIds },
+      });
+    });
     return this.get(id);
   }
 
@@ -108,6 +156,19 @@ export class QuotesService {
         message: ['validUntil is in the past: set a new validity date before sending'],
       });
     }
+    // Exactly once: the draft is claimed by one conditional UPDATE before any e-mail leaves, so of
+    // concurrent sends one delivers and the others get 409.
+    await updateIfVersion(
+      this.db.manager,
+      Quote,
+      { id, expectedVersion: quote.version, set: { status: 'sent' }, where: "status = 'draft'" },
+      async () => {
+        const now = await this.get(id);
+        return now.status === 'draft'
+          ? staleQuote(now)
+          : new ConflictException(`Quote ${id} is ${now.status}; it was sent already`);
+      },
+    );
     const design = await this.db.getRepository(Design).findOneByOrFail({ id: quote.designId });
     const pdfs = await this.reports.pdfs(quote.reportIds);
     const lines = [
@@ -136,16 +197,36 @@ export class QuotesService {
       });
     } catch (err) {
       const message = err instanceof Error ? err.message : String(err);
-      await this.db.getRepository(Quote).update(id, {
-        lastSendError: message,
-        history: [...quote.history, event(user, 'send failed', message)],
+      await this.db.transaction(async (tx) => {
+        await tx.getRepository(Quote).update(id, {
+          status: 'draft',
+          lastSendError: message,
+          history: [...quote.history, event(user, 'send failed', message)],
+        });
+        await this.audit.record(tx, {
+          actor: user,
+          entity: 'quote',
+          entityId: id,
+          action: 'send failed',
+          summary: `Q-${id} to ${quote.contactEmail}: ${message}`,
+          details: { to: quote.contactEmail, error: message },
+        });
       });
       throw new BadRequestException(`The e-mail could not be sent; the quote stays a draft: ${message}`);
     }
-    await this.db.getRepository(Quote).update(id, {
-      status: 'sent',
-      lastSendError: null,
-      history: [...quote.history, event(user, 'sent', quote.contactEmail)],
+    await this.db.transaction(async (tx) => {
+      await tx.getRepository(Quote).update(id, {
+        lastSendError: null,
+        history: [...quote.history, event(user, 'sent', quote.contactEmail)],
+      });
+      await this.audit.record(tx, {
+        actor: user,
+        entity: 'quote',
+        entityId: id,
+        action: 'sent',
+        summary: `Q-${id} e-mailed to ${quote.contactEmail} with ${pdfs.length} report(s)`,
+        details: { to: quote.contactEmail, reportIds: quote.reportIds },
+      });
     });
     return this.get(id);
   }
@@ -157,9 +238,30 @@ export class QuotesService {
         `Quote ${id} is ${effectiveStatus(quote)}; only a sent quote can be accepted or declined`,
       );
     }
-    quote.status = dto.status;
-    quote.history = [...quote.history, event(user, dto.status, dto.note)];
-    await this.db.getRepository(Quote).save(quote);
+    await this.db.transaction(async (tx) => {
+      await updateIfVersion(
+        tx,
+        Quote,
+        {
+          id,
+          expectedVersion: quote.version,
+          set: { status: dto.status, history: [...quote.history, event(user, dto.status, dto.note)] },
+          where: "status = 'sent'",
+        },
+        async () => {
+          const now = await this.get(id);
+          return new ConflictException(`Quote ${id} is ${effectiveStatus(now)}; it was decided meanwhile`);
+        },
+      );
+      await this.audit.record(tx, {
+        actor: user,
+        entity: 'quote',
+        entityId: id,
+        action: dto.status,
+        summary: `Q-${id} ${dto.status} by the customer${dto.note ? `: ${dto.note}` : ''}`,
+        details: { status: dto.status, note: dto.note ?? '' },
+      });
+    });
     return this.get(id);
   }
 
@@ -207,6 +309,12 @@ export class QuotesService {
       terms: dto.terms ?? '',
     };
   }
+}
+
+function staleQuote(now: Quote): ConflictException {
+  return new ConflictException(
+    `Quote ${now.id} was changed by someone else (now version ${now.version}); reload it and apply your edit again`,
+  );
 }
 
 function event(user: User, action: string, detail?: string) {

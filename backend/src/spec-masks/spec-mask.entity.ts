@@ -37,6 +37,10 @@ export class SpecMaskRecord {
   @VersionColumn()
   version: number;
 
+  /** The next revision, once this one was revised; a revised mask stays readable but never changes. */
+  @Column({ name: 'superseded_by_id', type: 'integer', nullable: true })
+  supersededById: number | null;
+
   @CreateDateColumn({ name: 'created_at', type: 'timestamptz' })
   createdAt: Date;
 
@@ -52,6 +56,8 @@ export interface SpecMaskView {
   bands: LimitBand[];
   notes: string;
   version: number;
+  /** Set once the mask was revised: the id of its next revision. */
+  supersededById: number | null;
   updatedAt: string;
 }
 
@@ -64,6 +70,7 @@ export function toSpecMaskView(m: SpecMaskRecord): SpecMaskView {
     bands: m.bands,
     notes: m.notes,
     version: m.version,
+    supersededById: m.supersededById,
     updatedAt: m.updatedAt.toISOString(),
   };
 }

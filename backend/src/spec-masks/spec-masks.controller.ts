@@ -1,5 +1,7 @@
 import { Body, Controller, Get, Header, Param, ParseIntPipe, Post, Put, Query } from '@nestjs/common';
+import { CurrentUser } from '../auth/current-user.decorator.js';
 import { Roles } from '../auth/roles.decorator.js';
+import type { User } from '../users/user.entity.js';
 import { ImportSpecMaskCsvDto, SpecMaskDto, UpdateSpecMaskDto } from './dto/spec-mask.dto.js';
 import { maskToCsv } from './mask-csv.js';
 import { toSpecMaskView, type SpecMaskView } from './spec-mask.entity.js';
@@ -30,17 +32,21 @@ export class SpecMasksController {
   }
 
   @Post()
-  async create(@Body() dto: SpecMaskDto): Promise<SpecMaskView> {
-    return toSpecMaskView(await this.masks.create(dto));
+  async create(@Body() dto: SpecMaskDto, @CurrentUser() user: User): Promise<SpecMaskView> {
+    return toSpecMaskView(await this.masks.create(dto, user));
   }
 
   @Put(':id')
-  async update(@Param('id', ParseIntPipe) id: number, @Body() dto: UpdateSpecMaskDto): Promise<SpecMaskView> {
-    return toSpecMaskView(await this.masks.update(id, dto));
+  async update(
+    @Param('id', ParseIntPipe) id: number,
+    @Body() dto: UpdateSpecMaskDto,
+    @CurrentUser() user: User,
+  ): Promise<SpecMaskView> {
+    return toSpecMaskView(await this.masks.update(id, dto, user));
   }
 
   @Post('import-csv')
-  async importCsv(@Body() dto: ImportSpecMaskCsvDto): Promise<SpecMaskView> {
-    return toSpecMaskView(await this.masks.importCsv(dto));
+  async importCsv(@Body() dto: ImportSpecMaskCsvDto, @CurrentUser() user: User): Promise<SpecMaskView> {
+    return toSpecMaskView(await this.masks.importCsv(dto, user));
   }
 }

@@ -3,7 +3,11 @@ import { InjectRepository } from '@nestjs/typeorm';
 import { Repository } from 'typeorm';
 import { validateSpecMask, type LimitBand } from '@quietglass/shared/optics/mask';
 import { OpticsInputError } from '@quietglass/shared/optics/errors';
+import { nextRevision } from '@quietglass/shared/revisions';
+import { AuditService } from '../audit/audit.service.js';
 import { isUniqueViolation } from '../common/db-errors.js';
+import { updateIfVersion } from '../common/optimistic-lock.js';
+import type { User } from '../users/user.entity.js';
 import { CustomersService } from '../customers/customers.service.js';
 import type { ImportSpecMaskCsvDto, SpecMaskDto, UpdateSpecMaskDto } from './dto/spec-mask.dto.js';
 import { parseMaskCsv } from './mask-csv.js';
@@ -14,6 +18,7 @@ export class SpecMasksService {
   constructor(
     @InjectRepository(SpecMaskRecord) private readonly masks: Repository<SpecMaskRecord>,
     private readonly customers: CustomersService,
+    private readonly audit: AuditService,
   ) {}
 
   list(customerId?: number): Promise<SpecMaskRecord[]> {
@@ -29,41 +34,120 @@ export class SpecMasksService {
     return mask;
   }
 
-  async create(dto: SpecMaskDto): Promise<SpecMaskRecord> {
+  async create(dto: SpecMaskDto, user: User): Promise<SpecMaskRecord> {
     const bands = checkedBands(dto.bands);
     const customer = await this.customer(dto.customerId);
-    return this.save(
-      this.masks.create({ name: dto.name, customer, revision: dto.revision, bands, notes: dto.notes ?? '' }),
+    return this.unique(dto, () =>
+      this.masks.manager.transaction(async (tx) => {
+        const repo = tx.getRepository(SpecMaskRecord);
+        const saved = await repo.save(
+          repo.create({ name: dto.name, customer, revision: dto.revision, bands, notes: dto.notes ?? '' }),
+        );
+        await this.audit.record(tx, {
+          actor: user,
+          entity: 'spec-mask',
+          entityId: saved.id,
+          action: 'created',
+          summary: `spec mask "${saved.name}" rev ${saved.revision} created for ${customer.name}`,
+          details: { revision: saved.revision, bands },
+        });
+        return saved;
+      }),
     );
   }
 
-  async update(id: number, dto: UpdateSpecMaskDto): Promise<SpecMaskRecord> {
+  /**
+   * Edits a mask. A mask that a submitted, approved, released or retired version, a compliance
+   * report or a quote refers to is a customer-visible fact: it is never changed in place; the edit
+   * becomes its next revision (A → B, or the revision the editor named) and the old one stays
+   * readable, pointing at its successor. Either way the edit carries the version it started from.
+   */
+  async update(id: number, dto: UpdateSpecMaskDto, user: User): Promise<SpecMaskRecord> {
     const mask = await this.get(id);
-    if (mask.version !== dto.version) throw stale(mask);
+    if (mask.supersededById !== null) {
+      throw new ConflictException(
+        `Spec mask "${mask.name}" rev ${mask.revision} was revised (see spec mask ${mask.supersededById}); edit the newest revision`,
+      );
+    }
     const bands = checkedBands(dto.bands);
     const customer = await this.customer(dto.customerId);
-    const result = await this.masks
-      .createQueryBuilder()
-      .update(SpecMaskRecord)
-      .set({
-        name: dto.name,
-        customer,
-        revision: dto.revision,
-        bands,
-        notes: dto.notes ?? mask.notes,
-        version: () => 'version + 1',
-      })
-      .where('id = :id AND version = :version', { id, version: dto.version })
-      .execute()
-      .catch((err: unknown) => {
-        throw isUniqueViolation(err) ? duplicate(dto) : err;
-      });
-    if (result.affected !== 1) throw stale(await this.get(id));
-    return this.get(id);
+    const staleError = async () => stale(await this.get(id));
+    return this.unique(dto, () =>
+      this.masks.manager.transaction(async (tx) => {
+        const [{ used }] = (await tx.query(
+          `SELECT EXISTS (
+             SELECT 1 FROM designs d JOIN design_versions v ON v.design_id = d.id
+             WHERE d.spec_mask_id = $1 AND v.status IN ('submitted', 'approved', 'released', 'retired'))
+           OR EXISTS (SELECT 1 FROM compliance_reports r WHERE r.spec_mask_id = $1)
+           OR EXISTS (SELECT 1 FROM quotes q WHERE q.spec_mask_id = $1) AS used`,
+          [id],
+        )) as { used: boolean }[];
+        if (!used) {
+          await updateIfVersion(
+            tx,
+            SpecMaskRecord,
+            {
+              id,
+              expectedVersion: dto.version,
+              set: {
+                name: dto.name,
+                customer,
+                revision: dto.revision,
+                bands,
+                notes: dto.notes ?? mask.notes,
+              },
+              where: 'superseded_by_id IS NULL',
+            },
+            staleError,
+          );
+          await this.audit.record(tx, {
+            actor: user,
+            entity: 'spec-mask',
+            entityId: id,
+            action: 'edited',
+            summary: `spec mask "${dto.name}" rev ${dto.revision} edited in place (not yet used by a submitted version, report or quote)`,
+            details: {
+              before: { revision: mask.revision, bands: mask.bands },
+              after: { revision: dto.revision, bands },
+            },
+          });
+          return tx.getRepository(SpecMaskRecord).findOneByOrFail({ id });
+        }
+        const revision = dto.revision.trim() !== mask.revision ? dto.revision : nextRevision(mask.revision);
+        const repo = tx.getRepository(SpecMaskRecord);
+        const next = await repo.save(
+          repo.create({ name: dto.name, customer, revision, bands, notes: dto.notes ?? mask.notes }),
+        );
+        await updateIfVersion(
+          tx,
+          SpecMaskRecord,
+          {
+            id,
+            expectedVersion: dto.version,
+            set: { supersededById: next.id },
+            where: 'superseded_by_id IS NULL',
+          },
+          staleError,
+        );
+        await this.audit.record(tx, {
+          actor: user,
+          entity: 'spec-mask',
+          entityId: id,
+          action: 'revised',
+          summary: `spec mask "${mask.name}" rev ${mask.revision} → rev ${revision} (new spec mask ${next.id}); rev ${mask.revision} stays as it was`,
+          details: {
+            nextId: next.id,
+            from: { revision: mask.revision, bands: mask.bands },
+            to: { revision, bands },
+          },
+        });
+        return next;
+      }),
+    );
   }
 
   /** A new mask from CSV; a bad row or band rejects the whole file. */
-  async importCsv(dto: ImportSpecMaskCsvDto): Promise<SpecMaskRecord> {
+  async importCsv(dto: ImportSpecMaskCsvDto, user: User): Promise<SpecMaskRecord> {
     const parsed = parseMaskCsv(dto.csv);
     if (!parsed.ok) {
       throw new BadRequestException({
@@ -81,7 +165,7 @@ export class SpecMasksService {
       }
       throw err;
     }
-    return this.create({ ...dto, bands: parsed.bands });
+    return this.create({ ...dto, bands: parsed.bands }, user);
   }
 
   private async customer(id: number) {
@@ -90,11 +174,11 @@ export class SpecMasksService {
     });
   }
 
-  private async save(mask: SpecMaskRecord): Promise<SpecMaskRecord> {
+  private async unique<T>(m: { name: string; revision: string }, write: () => Promise<T>): Promise<T> {
     try {
-      return await this.masks.save(mask);
+      return await write();
     } catch (err) {
-      throw isUniqueViolation(err) ? duplicate(mask) : err;
+      throw isUniqueViolation(err) ? duplicate(m) : err;
     }
   }
 }

@@ -19,8 +19,8 @@ export class UsersController {
   }
 
   @Post()
-  async create(@Body() dto: CreateUserDto): Promise<UserView> {
-    return toUserView(await this.users.create(dto));
+  async create(@Body() dto: CreateUserDto, @CurrentUser() actor: User): Promise<UserView> {
+    return toUserView(await this.users.create(dto, actor));
   }
 
   @Patch(':id')
@@ -29,12 +29,16 @@ export class UsersController {
     @Body() dto: UpdateUserDto,
     @CurrentUser() actor: User,
   ): Promise<UserView> {
-    return toUserView(await this.users.update(id, dto, actor.id));
+    return toUserView(await this.users.update(id, dto, actor));
   }
 
   @Post(':id/password')
   @HttpCode(204)
-  async resetPassword(@Param('id', ParseIntPipe) id: number, @Body() dto: SetPasswordDto): Promise<void> {
-    await this.users.setPassword(id, dto.newPassword, { kind: 'admin' });
+  async resetPassword(
+    @Param('id', ParseIntPipe) id: number,
+    @Body() dto: SetPasswordDto,
+    @CurrentUser() actor: User,
+  ): Promise<void> {
+    await this.users.setPassword(id, dto.newPassword, { kind: 'admin', actor });
   }
 }

@@ -1,6 +1,7 @@
 import { ConflictException, Injectable, NotFoundException } from '@nestjs/common';
 import { InjectRepository } from '@nestjs/typeorm';
 import { Repository } from 'typeorm';
+import { AuditService } from '../audit/audit.service.js';
 import { User } from './user.entity.js';
 import type { CreateUserDto } from './dto/create-user.dto.js';
 import type { UpdateUserDto } from './dto/update-user.dto.js';
@@ -13,6 +14,7 @@ export class UsersService {
   constructor(
     @InjectRepository(User) private readonly users: Repository<User>,
     private readonly sessions: SessionsService,
+    private readonly audit: AuditService,
   ) {}
 
   list(): Promise<User[]> {
@@ -33,7 +35,7 @@ export class UsersService {
     return this.users.findOneBy({ email: email.trim().toLowerCase() });
   }
 
-  async create(dto: CreateUserDto): Promise<User> {
+  async create(dto: CreateUserDto, actor?: User): Promise<User> {
     const user = this.users.create({
       email: dto.email,
       displayName: dto.displayName,
@@ -44,7 +46,18 @@ export class UsersService {
       mustChangePassword: true,
     });
     try {
-      return await this.users.save(user);
+      return await this.users.manager.transaction(async (tx) => {
+        const saved = await tx.getRepository(User).save(user);
+        await this.audit.record(tx, {
+          actor: actor ?? null,
+          entity: 'user',
+          entityId: saved.id,
+          action: 'created',
+          summary: `${saved.displayName} <${saved.email}> created as ${saved.role}`,
+          details: { email: saved.email, role: saved.role },
+        });
+        return saved;
+      });
     } catch (err) {
       if (isUniqueViolation(err)) {
         throw new ConflictException(`A user with e-mail ${dto.email} already exists`);
@@ -54,8 +67,10 @@ export class UsersService {
   }
 
   /** Admin edit. An admin cannot change their own role or deactivate themselves (no lock-out). */
-  async update(id: number, dto: UpdateUserDto, actorId: number): Promise<User> {
+  async update(id: number, dto: UpdateUserDto, actor: User): Promise<User> {
+    const actorId = actor.id;
     const user = await this.get(id);
+    const before = { displayName: user.displayName, role: user.role, active: user.active };
     if (id === actorId && dto.role !== undefined && dto.role !== user.role) {
       throw new ConflictException('You cannot change your own role; ask another admin');
     }
@@ -67,27 +82,56 @@ export class UsersService {
     if (dto.displayName !== undefined) user.displayName = dto.displayName;
     if (dto.role !== undefined) user.role = dto.role;
     if (dto.active !== undefined) user.active = dto.active;
-    const saved = await this.users.save(user);
-    // A session carries what its user could do when it began: a new role or a deactivation ends them.
-    if (deactivated) await this.sessions.endAllOf(id, 'deactivated');
-    else if (roleChanged) await this.sessions.endAllOf(id, 'role-changed');
-    return saved;
+    return this.users.manager.transaction(async (tx) => {
+      const saved = await tx.getRepository(User).save(user);
+      const changes: [string, string, unknown, unknown][] = [];
+      if (before.role !== saved.role) changes.push(['role changed', 'role', before.role, saved.role]);
+      if (before.active !== saved.active)
+        changes.push([saved.active ? 'activated' : 'deactivated', 'active', before.active, saved.active]);
+      if (before.displayName !== saved.displayName)
+        changes.push(['renamed', 'displayName', before.displayName, saved.displayName]);
+      for (const [action, field, from, to] of changes) {
+        await this.audit.record(tx, {
+          actor,
+          entity: 'user',
+          entityId: id,
+          action,
+          summary: `${saved.email}: ${field} ${String(from)} → ${String(to)}`,
+          details: { field, from, to },
+        });
+      }
+      // A session carries what its user could do when it began: a new role or a deactivation ends them.
+      if (deactivated) await this.sessions.endAllOf(id, 'deactivated', { tx });
+      else if (roleChanged) await this.sessions.endAllOf(id, 'role-changed', { tx });
+      return saved;
+    });
   }
 
   /**
-   * Sets a new password. By an admin (a reset): every session of the user ends and the user must
-   * choose their own at next sign-in. By the user: their other sessions end, this one stays.
+   * Sets a new password, on the audit trail. By an admin (a reset): every session of the user ends
+   * and the user must choose their own at next sign-in. By the user: their other sessions end, this
+   * one stays.
    */
   async setPassword(
     id: number,
     newPassword: string,
-    by: { kind: 'admin' } | { kind: 'self'; keepSession?: string },
+    by: { kind: 'admin'; actor: User } | { kind: 'self'; keepSession?: string },
   ): Promise<void> {
     const user = await this.get(id);
+    const reset = by.kind === 'admin';
     user.passwordHash = await hashPassword(newPassword);
-    user.mustChangePassword = by.kind === 'admin';
-    await this.users.save(user);
-    if (by.kind === 'admin') await this.sessions.endAllOf(id, 'password-reset');
-    else await this.sessions.endAllOf(id, 'password-changed', { keep: by.keepSession });
+    user.mustChangePassword = reset;
+    await this.users.manager.transaction(async (tx) => {
+      await tx.getRepository(User).save(user);
+      await this.audit.record(tx, {
+        actor: reset ? by.actor : user,
+        entity: 'user',
+        entityId: id,
+        action: reset ? 'password reset' : 'password changed',
+        summary: `${user.email}: password ${reset ? 'reset by an admin' : 'changed by its owner'}`,
+      });
+      if (reset) await this.sessions.endAllOf(id, 'password-reset', { tx });
+      else await this.sessions.endAllOf(id, 'password-changed', { tx, keep: by.keepSession });
+    });
   }
 }

@@ -38,6 +38,7 @@ export const TEST_DESIGN: DesignView = {
   specMaskId: 6,
   createdBy: { id: 2, displayName: 'Tomas Reyne' },
   createdAt: '2026-12-01T08:00:00.000Z',
+  version: 1,
   versions: [{ number: 1, status: 'draft', updatedAt: '2026-12-01T08:00:00.000Z', createdBy: 'Tomas Reyne' }],
 };
 
@@ -55,6 +56,7 @@ export function testVersion(overrides: Partial<DesignVersionView> = {}): DesignV
     notes: '',
     layers: [],
     createdBy: { id: 2, displayName: 'Tomas Reyne' },
+    editors: [{ id: 2, displayName: 'Tomas Reyne' }],
     createdAt: '2026-12-01T08:00:00.000Z',
     updatedAt: '2026-12-01T08:00:00.000Z',
     materialsSnapshot: null,

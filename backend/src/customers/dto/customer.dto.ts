@@ -1,5 +1,5 @@
 import { Transform } from 'class-transformer';
-import { IsEmail, IsOptional, IsString, MaxLength, MinLength, ValidateIf } from 'class-validator';
+import { IsEmail, IsInt, IsOptional, IsString, Min, MaxLength, MinLength, ValidateIf } from 'class-validator';
 import { trim } from '../../common/dto.js';
 
 export class CustomerDto {
@@ -19,4 +19,11 @@ export class CustomerDto {
   @IsString()
   @MaxLength(4000)
   notes?: string;
+}
+
+export class UpdateCustomerDto extends CustomerDto {
+  /** The version the edit started from. */
+  @IsInt({ message: 'version must be the customer version you are changing' })
+  @Min(1)
+  version: number;
 }

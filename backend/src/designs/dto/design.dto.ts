@@ -98,6 +98,11 @@ export class CreateDesignDto extends VersionContentDto {
 }
 
 export class UpdateDesignDto {
+  /** The design's version token the change started from. */
+  @IsInt({ message: 'version must be the design version you are changing' })
+  @Min(1)
+  version: number;
+
   @IsOptional()
   @Transform(trim)
   @IsString()

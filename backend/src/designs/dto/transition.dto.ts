@@ -13,13 +13,3 @@ export class TransitionDto {
   @MaxLength(4000)
   comment?: string;
 }
-
-export class AuditQueryDto {
-  @IsOptional()
-  @IsInt()
-  designId?: number;
-
-  @IsOptional()
-  @IsInt()
-  actorId?: number;
-}

@@ -16,6 +16,7 @@ const SUMMARY: DesignSummaryView = {
   latestVersion: { number: 2, status: 'submitted', updatedAt: '2026-12-01T10:00:00.000Z' },
   createdBy: { id: 2, displayName: 'Tomas Reyne' },
   createdAt: '2026-12-01T08:00:00.000Z',
+  version: 1,
 };
 
 function api(role: 'engineer' | 'sales') {

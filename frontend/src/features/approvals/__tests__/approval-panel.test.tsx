@@ -41,6 +41,7 @@ function event(overrides: Partial<VersionEventView>): VersionEventView {
     actor: { id: 2, displayName: 'Mira Castell', role: 'engineer' },
     comment: '',
     at: '2026-12-01T09:00:00.000Z',
+    kind: 'status',
     ...overrides,
   };
 }
@@ -61,6 +62,7 @@ function view(status: DesignVersionView['status'], createdById = 2): DesignVersi
     notes: '',
     layers: [],
     createdBy: { id: createdById, displayName: createdById === 2 ? 'Mira Castell' : 'Someone' },
+    editors: [],
     createdAt: '2026-12-01T08:00:00.000Z',
     updatedAt: '2026-12-01T09:00:00.000Z',
     materialsSnapshot: null,
@@ -104,7 +106,7 @@ describe('ApprovalPanel four-eyes rule', () => {
       'POST /api/designs/12/versions/1/approve': apiError(403, 'Forbidden', FOUR_EYES_403),
     });
     const { user, onTransitioned } = renderPanel(TOMAS, view('submitted', 5));
-    await screen.findByText('No version of this design has been submitted yet.');
+    await screen.findByText('No version of this design has been saved or submitted yet.');
     expect(button('Approve').disabled).toBe(false);
 
     await user.click(button('Approve'));

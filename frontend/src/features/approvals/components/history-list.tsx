@@ -11,12 +11,12 @@ interface HistoryListProps {
   events: readonly VersionEventView[];
 }
 
-/** The design's audit trail: every lifecycle step of its versions, oldest first. */
+/** The design's history: every save and lifecycle step of its versions, with who, oldest first. */
 export function HistoryList({ events }: HistoryListProps) {
   if (events.length === 0) {
     return (
       <Typography variant="body2" color="text.secondary">
-        No version of this design has been submitted yet.
+        No version of this design has been saved or submitted yet.
       </Typography>
     );
   }
@@ -27,7 +27,7 @@ export function HistoryList({ events }: HistoryListProps) {
           <TableCell>When</TableCell>
           <TableCell>Who</TableCell>
           <TableCell>Version</TableCell>
-          <TableCell>Status change</TableCell>
+          <TableCell>Change</TableCell>
           <TableCell>Comment</TableCell>
         </TableRow>
       </TableHead>
@@ -37,9 +37,7 @@ export function HistoryList({ events }: HistoryListProps) {
             <TableCell>{formatDateTime(e.at)}</TableCell>
             <TableCell>{e.actor.displayName}</TableCell>
             <TableCell>{e.versionNumber}</TableCell>
-            <TableCell>
-              {e.from} → {e.to}
-            </TableCell>
+            <TableCell>{e.kind === 'saved' ? `saved (${e.to})` : `${e.from} → ${e.to}`}</TableCell>
             <TableCell sx={{ whiteSpace: 'pre-wrap' }}>{e.comment || '—'}</TableCell>
           </TableRow>
         ))}

@@ -41,7 +41,7 @@ describe('DesignDetailsDialog', () => {
 
     await waitFor(() => expect(onClose).toHaveBeenCalled());
     expect(api.calls('PATCH', '/api/designs/12').map((r) => r.body)).toEqual([
-      { name: 'Lens AR rev B', specMaskId: 9 },
+      { version: 1, name: 'Lens AR rev B', specMaskId: 9 },
     ]);
   });
 
@@ -65,7 +65,7 @@ describe('DesignDetailsDialog', () => {
       'specMaskId: spec mask 6 belongs to another customer',
     );
     expect(api.calls('PATCH', '/api/designs/12').map((r) => r.body)).toEqual([
-      { name: 'Lens AR', specMaskId: null },
+      { version: 1, name: 'Lens AR', specMaskId: null },
     ]);
   });
 });

@@ -8,6 +8,8 @@ export interface UpdateDesignInput {
   id: number;
   name: string;
   specMaskId: number | null;
+  /** The design's version token the change started from (a stale one gets 409). */
+  version: number;
 }
 
 /** Renames a design or points it at another of its customer's spec masks. */

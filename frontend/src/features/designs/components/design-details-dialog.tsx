@@ -42,6 +42,7 @@ export function DesignDetailsDialog({ open, design, specMasks, onClose }: Design
     update.mutate(
       {
         id: design.id,
+        version: design.version,
         name: values.name.trim(),
         specMaskId: values.specMaskId === '' ? null : Number(values.specMaskId),
       },

@@ -17,6 +17,7 @@ export const DESIGN_SUMMARIES: DesignSummaryView[] = [
     latestVersion: { number: 4, status: 'draft', updatedAt: '2026-12-01T08:00:00.000Z' },
     createdBy: { id: 2, displayName: 'Tomas Reyne' },
     createdAt: '2026-11-20T08:00:00.000Z',
+    version: 1,
   },
   {
     id: 14,
@@ -26,6 +27,7 @@ export const DESIGN_SUMMARIES: DesignSummaryView[] = [
     latestVersion: { number: 1, status: 'approved', updatedAt: '2026-12-01T08:00:00.000Z' },
     createdBy: { id: 2, displayName: 'Tomas Reyne' },
     createdAt: '2026-11-21T08:00:00.000Z',
+    version: 1,
   },
 ];
 

@@ -53,6 +53,7 @@ export const RECIPE: RecipeView = {
     { materialId: 13, thicknessNm: 76.2, locked: false, notes: '' },
   ],
   createdBy: { id: 2, displayName: 'Tomas Reyne' },
+  editors: [{ id: 2, displayName: 'Tomas Reyne' }],
   createdAt: '2026-11-30T08:00:00.000Z',
   updatedAt: '2026-12-01T09:00:00.000Z',
   materialsSnapshot: {
