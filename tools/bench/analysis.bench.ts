@@ -6,33 +6,12 @@
  */
 import fs from 'node:fs';
 import path from 'node:path';
-import { fileURLToPath } from 'node:url';
-import { CSRF_HEADER } from '@quietglass/shared';
+import { apiSession, arg, ROOT } from './api-session.js';
 
-const ROOT = path.resolve(path.dirname(fileURLToPath(import.meta.url)), '..', '..');
-const arg = (name: string, fallback: string) => {
-  const i = process.argv.indexOf(name);
-  return i >= 0 ? process.argv[i + 1] : fallback;
-};
 const base = arg('--url', 'http://127.0.0.1:3000');
 const runs = Number(arg('--runs', '5'));
 
-let cookie = '';
-async function api<T>(method: string, url: string, body?: unknown): Promise<{ status: number; body: T }> {
-  const res = await fetch(`${base}/api${url}`, {
-    method,
-    headers: {
-      'Content-Type': 'application/json',
-      [CSRF_HEADER]: '1',
-      ...(cookie ? { Cookie: cookie } : {}),
-    },
-    body: body === undefined ? undefined : JSON.stringify(body),
-  });
-  const set = res.headers.get('set-cookie');
-  if (set) cookie = set.split(';')[0];
-  const text = await res.text();
-  return { status: res.status, body: (text ? JSON.parse(text) : null) as T };
-}
+const api = apiSession(base);
 
 async function main(): Promise<void> {
   const signIns = JSON.parse(fs.readFileSync(path.join(ROOT, '.data', 'demo-sign-ins.json'), 'utf8')) as {

@@ -7,34 +7,13 @@
  */
 import fs from 'node:fs';
 import path from 'node:path';
-import { fileURLToPath } from 'node:url';
-import { CSRF_HEADER } from '@quietglass/shared';
+import { apiSession, arg, ROOT } from './api-session.js';
 
-const ROOT = path.resolve(path.dirname(fileURLToPath(import.meta.url)), '..', '..');
-const arg = (name: string, fallback: string) => {
-  const i = process.argv.indexOf(name);
-  return i >= 0 ? process.argv[i + 1] : fallback;
-};
 const base = arg('--url', 'http://127.0.0.1:3000');
 const seconds = Number(arg('--seconds', '15'));
 const credentials = arg('--credentials', path.join(ROOT, '.data', 'demo-sign-ins.json'));
 
-let cookie = '';
-async function api<T>(method: string, url: string, body?: unknown): Promise<{ status: number; body: T }> {
-  const res = await fetch(`${base}/api${url}`, {
-    method,
-    headers: {
-      'Content-Type': 'application/json',
-      [CSRF_HEADER]: '1',
-      ...(cookie ? { Cookie: cookie } : {}),
-    },
-    body: body === undefined ? undefined : JSON.stringify(body),
-  });
-  const set = res.headers.get('set-cookie');
-  if (set) cookie = set.split(';')[0];
-  const text = await res.text();
-  return { status: res.status, body: (text ? JSON.parse(text) : null) as T };
-}
+const api = apiSession(base);
 
 const sleep = (ms: number) => new Promise((r) => setTimeout(r, ms));
 const percentile = (sorted: number[], p: number) =>
