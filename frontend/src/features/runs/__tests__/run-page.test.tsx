@@ -125,6 +125,36 @@ describe('Run page', () => {
     });
   });
 
+  it('after saving readings and then durability, shows each section exactly once with the saved values', async () => {
+    let current = testRun();
+    api('operator', current, {
+      'GET /api/runs/40': () => ({ status: 200, body: current }),
+      'PUT /api/runs/40': (req) => {
+        current = { ...current, ...(req.body as object) };
+        return { status: 200, body: current };
+      },
+    });
+    const { user } = renderApp('/runs/40');
+    const readings = await section('Layer readings');
+    await user.type(readings.getByLabelText('Monitor thickness of step 1'), '70.4');
+    await user.click(readings.getByRole('button', { name: 'Save readings' }));
+    await waitFor(() => expect(current.layerReadings).toEqual([{ step: 1, monitorThicknessNm: 70.4 }]));
+
+    const durability = await section('Durability results');
+    await user.selectOptions(durability.getByLabelText('Adhesion'), 'pass');
+    await user.type(durability.getByLabelText('Adhesion method'), 'ISO 9211-4, tape adhesion');
+    await user.click(durability.getByRole('button', { name: 'Save durability results' }));
+    await waitFor(() => expect(current.durability).toHaveLength(1));
+
+    await waitFor(() => expect(screen.getAllByRole('region', { name: 'Layer readings' })).toHaveLength(1));
+    expect(screen.getAllByRole('region', { name: 'Durability results' })).toHaveLength(1);
+    const after = await section('Layer readings');
+    expect((after.getByLabelText('Monitor thickness of step 1') as HTMLInputElement).value).toBe('70.4');
+    expect(
+      ((await section('Durability results')).getByLabelText('Adhesion method') as HTMLInputElement).value,
+    ).toBe('ISO 9211-4, tape adhesion');
+  });
+
   it('refuses a negative monitor thickness before sending', async () => {
     const calls = api('operator', testRun());
     const { user } = renderApp('/runs/40');
