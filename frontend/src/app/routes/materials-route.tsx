@@ -60,9 +60,14 @@ export function MaterialsRoute() {
           open
           material={editing === 'new' ? null : editing}
           onClose={() => setEditing(null)}
+          onSaved={(m) => setSelectedId(m.id)}
         />
       )}
-      <MaterialCsvDialog open={uploading} onClose={() => setUploading(false)} />
+      <MaterialCsvDialog
+        open={uploading}
+        onClose={() => setUploading(false)}
+        onSaved={(m) => setSelectedId(m.id)}
+      />
     </>
   );
 }

@@ -70,7 +70,7 @@ describe('MaterialFormDialog', () => {
 
     await fill(user, dialog, 'Name', ' Test glass ');
     await user.selectOptions(dialog.getByLabelText('Dispersion model'), 'sellmeier');
-    // N-BK7 coefficients, SCHOTT optical glass data sheet (CHECKS.md).
+    // N-BK7 coefficients, SCHOTT optical glass data sheet.
     await fill(user, dialog, 'B1', '1.03961212');
     await fill(user, dialog, 'C1 (µm²)', '0.00600069867');
     await fill(user, dialog, 'B2', '0.231792344');

@@ -9,6 +9,7 @@ import { FormDialog } from '../../../components/form-dialog';
 import { FormSelectField } from '../../../components/form-select-field';
 import { FormTextField } from '../../../components/form-text-field';
 import { notify } from '../../../lib/notifier';
+import type { MaterialView } from '../api/get-materials';
 import { MAX_NK_CSV_BYTES, useImportMaterialCsv } from '../api/import-material-csv';
 import { materialRules } from '../material-form';
 
@@ -30,7 +31,16 @@ function megabytes(bytes: number): string {
  * A tabulated material from an n,k file (wavelength, n and optionally k per row). The file is
  * checked for size here; the API checks every row and saves nothing unless all are good.
  */
-export function MaterialCsvDialog({ open, onClose }: { open: boolean; onClose: () => void }) {
+export function MaterialCsvDialog({
+  open,
+  onClose,
+  onSaved,
+}: {
+  open: boolean;
+  onClose: () => void;
+  /** Told the imported material, e.g. to select it. */
+  onSaved?: (saved: MaterialView) => void;
+}) {
   const importCsv = useImportMaterialCsv();
   const [file, setFile] = useState<File | null>(null);
   const [fileProblem, setFileProblem] = useState<string | null>(null);
@@ -73,6 +83,7 @@ export function MaterialCsvDialog({ open, onClose }: { open: boolean; onClose: (
       {
         onSuccess: (saved) => {
           notify(`${saved.name} imported with its n,k table.`, 'success');
+          onSaved?.(saved);
           close();
         },
       },

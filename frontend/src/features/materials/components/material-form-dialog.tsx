@@ -29,10 +29,12 @@ interface MaterialFormDialogProps {
   /** The material to edit, or null for a new one. */
   material: MaterialView | null;
   onClose: () => void;
+  /** Told the saved material (new or edited), e.g. to select it. */
+  onSaved?: (saved: MaterialView) => void;
 }
 
 /** Create or edit a material: constant, Cauchy or Sellmeier model, valid range and provenance. */
-export function MaterialFormDialog({ open, material, onClose }: MaterialFormDialogProps) {
+export function MaterialFormDialog({ open, material, onClose, onSaved }: MaterialFormDialogProps) {
   const queryClient = useQueryClient();
   const create = useCreateMaterial();
   const update = useUpdateMaterial();
@@ -57,6 +59,7 @@ export function MaterialFormDialog({ open, material, onClose }: MaterialFormDial
     const input = materialInputOf(values, base?.model ?? null);
     const onSuccess = (saved: MaterialView) => {
       notify(`${saved.name} ${material ? 'saved' : 'added to the library'}.`, 'success');
+      onSaved?.(saved);
       close();
     };
     if (base) update.mutate({ id: base.id, version: base.version, material: input }, { onSuccess });
