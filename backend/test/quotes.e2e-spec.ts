@@ -74,7 +74,7 @@ describe('compliance reports', () => {
     const res = await http().post('/api/reports').set('Cookie', sales).send({ designId, versionNumber: 1 });
     expect(res.status, JSON.stringify(res.body)).toBe(201);
     // A single quarter-wave MgF2 layer on N-BK7 reflects about 1.3 % at its design wavelength
-    // (Macleod ch. 2, CHECKS.md: 1.26 % for ns = 1.52), so R ≤ 0.5 % cannot hold.
+    // (Macleod, Thin-Film Optical Filters, ch. 2: 1.26 % for ns = 1.52), so R ≤ 0.5 % cannot hold.
     expect(res.body.summary).toMatchObject({ source: 'designed', pass: false });
     const band = res.body.summary.bands[0];
     expect(band.worstMargin).toBeLessThan(-0.7);

@@ -51,7 +51,7 @@ describe('run sheet numbers (hand calculation)', () => {
     expect(sheet.cautions.join(' ')).toMatch(/X-rays/);
   });
 
-  it('the bare chip transmits the uncoated plate value (1 − R)/(1 + R) = 0.918318 for n = 1.52 (Macleod ch. 2; CHECKS.md)', () => {
+  it('the bare chip transmits the uncoated plate value (1 − R)/(1 + R) = 0.918318 for n = 1.52 (Macleod, Thin-Film Optical Filters, ch. 2)', () => {
     expect(sheet.layers[0].monitor.T[0]).toBeCloseTo(0.918318, 6);
   });
 });

@@ -175,7 +175,7 @@ describe('output', () => {
     const { stdout } = run(['--stack', 'bare.json', '--wavelengths', '550', '--back', 'incoherent'], {
       'bare.json': '{ "substrate": { "n": 1.52 }, "layers": [] }',
     });
-    expect(csvRows(stdout)[0].R).toBeCloseTo(0.081682, 6); // CHECKS.md (Macleod ch. 2)
+    expect(csvRows(stdout)[0].R).toBeCloseTo(0.081682, 6); // Macleod ch. 2: uncoated plate 2R/(1 + R)
   });
 });
 

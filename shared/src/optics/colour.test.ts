@@ -29,7 +29,7 @@ describe('CIE data', () => {
   });
 
   it('gives the D65 white point X = 95.047, Y = 100, Z = 108.883 within 0.01', () => {
-    // CIE 015:2018 / CHECKS.md (from 1 nm data; the 5 nm table over 380–780 nm lands within 0.005).
+    // CIE 015:2018 (from 1 nm data; the 5 nm table over 380–780 nm lands within 0.005).
     const w = whitePoint(new Float64Array(3), 'D65');
     expect(Math.abs(w[0] - 95.047)).toBeLessThan(0.01);
     expect(w[1]).toBeCloseTo(100, 12);
@@ -67,7 +67,7 @@ describe('CIE data', () => {
 
 describe('colour of a spectrum', () => {
   it('a spectrally flat reflector is neutral: a* = b* = 0, Rv = R, L* from the CIE formula', () => {
-    // CHECKS.md; L* = 116·R^(1/3) − 16 above (6/29)³ and (29/3)³·R below (CIE 015:2018).
+    // CIE 015:2018: a flat reflector has the white point's chromaticity; L* = 116·R^(1/3) − 16 above (6/29)³ and (29/3)³·R below (CIE 015:2018).
     for (const R of [0.005, 0.04, 0.3, 1]) {
       const col = spectrumColour(new Float64Array(COLOUR_SAMPLES).fill(R));
       expect(col.a).toBeCloseTo(0, 12);
@@ -105,7 +105,7 @@ describe('colour of a spectrum', () => {
       num += spectrum[i] * w;
       den += w;
     }
-    // Rv = Σ R S ȳ / Σ S ȳ (CHECKS.md).
+    // Rv = Σ R S ȳ / Σ S ȳ (the luminous reflectance of ISO 13666, with CIE 015:2018 tables).
     expect(luminousFraction(spectrum)).toBeCloseTo(num / den, 14);
     const col = spectrumColour(spectrum);
     expect(col.a).toBeLessThan(-10); // green

@@ -20,7 +20,7 @@ function samples(model: MaterialModel, wavelengths: number[]) {
 
 describe('Sellmeier glasses from published coefficients', () => {
   it('N-BK7 (SCHOTT data sheet): nF, nd, nC and Abbe number', () => {
-    // CHECKS.md: n(486.13) = 1.52238, n(587.56) = 1.51680, n(656.27) = 1.51432, νd = 64.17.
+    // SCHOTT N-BK7 data sheet: n(486.13) = 1.52238, n(587.56) = 1.51680, n(656.27) = 1.51432, νd = 64.17.
     const glass = MATERIAL_LIBRARY['N-BK7'];
     const nF = indexAt(glass, 486.13).n;
     const nd = indexAt(glass, 587.56).n;

@@ -18,7 +18,7 @@ function stack(n0: number, layers: [n: number, k: number, d: number][], ns: numb
 
 describe('single interface', () => {
   it('gives the Fresnel reflectance at normal incidence', () => {
-    // Hecht, Optics, ch. 4: R = ((n1 − n2)/(n1 + n2))²; air → 1.52 is 0.042580 (CHECKS.md).
+    // Hecht, Optics, ch. 4: R = ((n1 − n2)/(n1 + n2))²; air → 1.52 is 0.042580.
     const res = responseAt(stack(1, [], 1.52), 550, 0, 's');
     expect(res.R).toBeCloseTo(((1 - 1.52) / (1 + 1.52)) ** 2, 14);
     expect(res.R).toBeCloseTo(0.04258, 6);
@@ -50,7 +50,7 @@ describe('single interface', () => {
   });
 
   it('has Rp = 0 at Brewster’s angle', () => {
-    // Hecht ch. 4: tan θB = n2/n1; air → 1.52 gives 56.659° (CHECKS.md).
+    // Hecht ch. 4: tan θB = n2/n1; air → 1.52 gives 56.659°.
     const brewster = Math.atan(1.52) / deg;
     expect(brewster).toBeCloseTo(56.659, 3);
     expect(responseAt(stack(1, [], 1.52), 550, brewster, 'p').R).toBeLessThan(1e-28);
@@ -64,7 +64,7 @@ describe('single interface', () => {
   });
 
   it('reflects totally beyond the critical angle', () => {
-    // Born & Wolf, total reflection: 1.52 → air, critical angle arcsin(1/1.52) = 41.140° (CHECKS.md).
+    // Born & Wolf, total reflection: 1.52 → air, critical angle arcsin(1/1.52) = 41.140°.
     const critical = Math.asin(1 / 1.52) / deg;
     expect(critical).toBeCloseTo(41.14, 3);
     for (const pol of ['s', 'p'] as const) {
@@ -104,7 +104,7 @@ describe('single and double layers (Macleod, Thin-Film Optical Filters, 5th ed.,
   it('quarter-wave layer: R = ((n0·ns − n1²)/(n0·ns + n1²))²', () => {
     const res = responseAt(stack(1, [[1.38, 0, ref / (4 * 1.38)]], 1.52), ref, 0, 's');
     expect(res.R).toBeCloseTo(((1.52 - 1.38 ** 2) / (1.52 + 1.38 ** 2)) ** 2, 14);
-    expect(res.R).toBeCloseTo(0.012601, 6); // CHECKS.md
+    expect(res.R).toBeCloseTo(0.012601, 6); // Macleod ch. 2: MgF2-like 1.38 on 1.52
   });
 
   it('quarter-wave layer of n1 = √(n0·ns) reflects nothing', () => {
@@ -202,12 +202,12 @@ describe('quarter-wave mirror (Macleod ch. 6)', () => {
     const Y = (nH / nL) ** 8 * (nH ** 2 / 1.52);
     const res = responseAt(mirror(4), ref, 0, 's');
     expect(res.R).toBeCloseTo(((1 - Y) / (1 + Y)) ** 2, 14);
-    expect(res.R).toBeCloseTo(0.975859, 6); // CHECKS.md
+    expect(res.R).toBeCloseTo(0.975859, 6); // Macleod ch. 6, with nH 2.35, nL 1.46, N = 4
   });
 
   it('has the stop band of half-width (2/π)·arcsin((nH − nL)/(nH + nL)) in g = λ0/λ', () => {
     // Macleod ch. 6 gives the half-width Δg = (2/π) arcsin((nH − nL)/(nH + nL)) = 0.15010; the full
-    // width (4/π)·arcsin(…) = 0.30020 is the value CHECKS.md lists.
+    // width is (4/π)·arcsin(…) = 0.30020.
     const half = (2 / Math.PI) * Math.asin((nH - nL) / (nH + nL));
     expect(2 * half).toBeCloseTo(0.3002, 4);
     const gs = [1 - 1.05 * half, 1 - 0.95 * half, 1 + 0.95 * half, 1 + 1.05 * half];
@@ -242,7 +242,7 @@ describe('absorbing media', () => {
 
   it('a weakly absorbing thick layer transmits about exp(−4πkd/λ)', () => {
     // Index-matched absorber (same n as both media) removes interface reflections, so T is the
-    // internal transmittance exp(−4πkd/λ) (Born & Wolf; CHECKS.md) up to terms in k².
+    // internal transmittance exp(−4πkd/λ) (Born & Wolf, Principles of Optics) up to terms in k².
     const k = 1e-3;
     const d = 10000;
     const res = responseAt(stack(1.5, [[1.5, k, d]], 1.5), 500, 0, 's');

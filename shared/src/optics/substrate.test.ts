@@ -19,7 +19,7 @@ describe('thick substrate, incoherent (Macleod ch. 2; standard result)', () => {
     const res = responseAt(plate(1.52, 0), 550, 0, 'avg', { back: 'incoherent' });
     expect(res.R).toBeCloseTo((2 * R1) / (1 + R1), 14);
     expect(res.T).toBeCloseTo((1 - R1) / (1 + R1), 14);
-    expect(res.R).toBeCloseTo(0.081682, 6); // CHECKS.md
+    expect(res.R).toBeCloseTo(0.081682, 6); // Macleod ch. 2: uncoated plate 2R/(1 + R)
     expect(res.T).toBeCloseTo(0.918318, 6);
     expect(res.A).toBeCloseTo(0, 14);
   });

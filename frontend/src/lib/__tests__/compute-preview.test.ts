@@ -3,7 +3,7 @@ import type { StackDescription } from '@quietglass/shared';
 import { createPreviewCalculator, type PreviewRequest } from '../preview/compute-preview';
 
 // Single quarter-wave layer n1 on a substrate ns from air at the reference wavelength
-// (Macleod, Thin-Film Optical Filters, 5th ed., ch. 2; CHECKS.md):
+// (Macleod, Thin-Film Optical Filters, 5th ed., ch. 2):
 // R = ((n0·ns − n1²)/(n0·ns + n1²))²; n1 = 1.38 (MgF2), ns = 1.52, n0 = 1: R = 0.012601.
 // Quarter-wave physical thickness d = λ0/(4·n1) = 550/(4·1.38) = 99.6377 nm.
 const QUARTER_WAVE_NM = 550 / (4 * 1.38);
@@ -68,7 +68,7 @@ describe('preview computation', () => {
     const calculator = createPreviewCalculator();
     calculator.compute(request(QUARTER_WAVE_NM, 1.5));
     // A half-wave layer is absentee (Macleod ch. 2): R at 550 nm equals the bare substrate's,
-    // ((1 − 1.52)/(1 + 1.52))² = 0.042580 (Hecht ch. 4; CHECKS.md).
+    // ((1 − 1.52)/(1 + 1.52))² = 0.042580 (Hecht, Optics, ch. 4).
     const halfWave = calculator.compute(request(2 * QUARTER_WAVE_NM, 1.5));
     expect(halfWave.curves[0].R[150]).toBeCloseTo(0.04258, 5);
     expect(halfWave.mask?.pass).toBe(false);

@@ -138,7 +138,7 @@ describe('RunSheetRoute', () => {
     // Layer 2 starts where layer 1 stopped on the monitor (20 nm) and ends at 20 + 25 = 45 nm.
     expect(traces[1].x[0]).toBeCloseTo(20, 9);
     expect(traces[1].x[traces[1].x.length - 1]).toBeCloseTo(45, 9);
-    // The bare chip transmits (1 − R)/(1 + R) = 91.8318 % for n 1.52 (Macleod ch. 2; CHECKS.md).
+    // The bare chip transmits (1 − R)/(1 + R) = 91.8318 % for n 1.52 (Macleod, Thin-Film Optical Filters, ch. 2).
     expect(traces[0].y[0]).toBeCloseTo(91.8318, 3);
     // Turning points are the API's, shifted by the monitor thickness deposited before their layer.
     const offsets = [0, 20, 45, 125];

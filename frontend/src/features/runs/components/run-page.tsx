@@ -60,7 +60,12 @@ export function RunPage({ runId, role, recipe, chambers, diagnosis }: RunPagePro
           <ErrorAlert error={recipe.error} title="The recipe of this run could not be loaded" />
         )}
         {recipe.data && (
-          <LayerReadingsForm key={`readings-${r.id}`} run={r} steps={depositionSteps(recipe.data)} canEdit={canEdit} />
+          <LayerReadingsForm
+            key={`readings-${r.id}`}
+            run={r}
+            steps={depositionSteps(recipe.data)}
+            canEdit={canEdit}
+          />
         )}
         <DurabilityForm key={`durability-${r.id}`} run={r} canEdit={canEdit} />
         {canEdit && <SpectrumUpload runId={r.id} onUploaded={(s) => setChosenSpectrumId(s.id)} />}
