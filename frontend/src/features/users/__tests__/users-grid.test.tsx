@@ -1,6 +1,7 @@
 import { screen, waitFor, within } from '@testing-library/react';
 import { describe, expect, it } from 'vitest';
 import { STAFF } from '../../../test/fixtures';
+import { currentNotice, dismissNotice } from '../../../lib/notifier';
 import { apiError, mockApi } from '../../../test/mock-api';
 import { renderWithProviders } from '../../../test/render';
 import { UsersGrid } from '../components/users-grid';
@@ -69,15 +70,41 @@ describe('UsersGrid', () => {
       ],
       'PATCH /api/users/2': { status: 200, body: { ...STAFF.engineer, role: 'sales' } },
     });
+    for (let n = currentNotice(); n; n = currentNotice()) dismissNotice(n.id);
     const { user } = renderWithProviders(<UsersGrid currentUserId={STAFF.admin.id} />);
 
     const select = await screen.findByRole('combobox', { name: `Role of ${STAFF.engineer.email}` });
     await user.selectOptions(select, 'sales');
+    // Nothing changes until the admin confirms, and the dialog says what the change does.
+    const ask = await screen.findByRole('dialog', {
+      name: `Change ${STAFF.engineer.displayName}'s role to Sales?`,
+    });
+    expect(ask.textContent).toContain('Their open sessions end');
+    expect(api.calls('PATCH', '/api/users/2')).toHaveLength(0);
+    await user.click(within(ask).getByRole('button', { name: 'Make Sales' }));
 
     await waitFor(() => expect(api.calls('PATCH', '/api/users/2')).toHaveLength(1));
     expect(api.calls('PATCH', '/api/users/2')[0].body).toEqual({ role: 'sales' });
     await waitFor(() => expect(api.calls('GET', '/api/users')).toHaveLength(2));
     expect((select as HTMLSelectElement).value).toBe('sales');
+    expect(currentNotice()?.message).toBe(
+      `${STAFF.engineer.displayName} is now Sales; their sessions have ended.`,
+    );
+  });
+
+  it('asks before deactivating, and a cancel sends nothing', async () => {
+    const api = mockApi({ 'GET /api/users': { status: 200, body: ALL } });
+    const { user } = renderWithProviders(<UsersGrid currentUserId={STAFF.admin.id} />);
+
+    await user.click(await screen.findByRole('switch', { name: `Active: ${STAFF.sales.email}` }));
+    const ask = await screen.findByRole('dialog', { name: `Deactivate ${STAFF.sales.displayName}?` });
+    expect(ask.textContent).toContain('signed out everywhere at once');
+    await user.click(within(ask).getByRole('button', { name: 'Cancel' }));
+    await waitFor(() => expect(screen.queryByRole('dialog')).toBeNull());
+    expect(api.calls('PATCH', '/api/users/3')).toHaveLength(0);
+    expect(
+      (screen.getByRole('switch', { name: `Active: ${STAFF.sales.email}` }) as HTMLInputElement).checked,
+    ).toBe(true);
   });
 
   it('deactivates with PATCH { active: false } and shows a 409 message, keeping the server state', async () => {
@@ -89,6 +116,12 @@ describe('UsersGrid', () => {
 
     const toggle = await screen.findByRole('switch', { name: `Active: ${STAFF.sales.email}` });
     await user.click(toggle);
+    await user.click(
+      within(await screen.findByRole('dialog', { name: `Deactivate ${STAFF.sales.displayName}?` })).getByRole(
+        'button',
+        { name: 'Deactivate' },
+      ),
+    );
 
     expect((await screen.findByRole('alert')).textContent).toBe(
       'At least one active administrator must remain.',

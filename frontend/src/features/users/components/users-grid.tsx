@@ -4,14 +4,48 @@ import Switch from '@mui/material/Switch';
 import { DataGrid, type GridColDef } from '@mui/x-data-grid';
 import { ROLES, isRole, type UserView } from '@quietglass/shared';
 import { useMemo, useState } from 'react';
+import { ConfirmDialog } from '../../../components/confirm-dialog';
 import { ErrorAlert } from '../../../components/error-alert';
 import { formatDateTime } from '../../../lib/format';
+import { notify } from '../../../lib/notifier';
 import { ROLE_LABELS } from '../../../lib/roles';
 import { useUsers } from '../api/get-users';
 import { useUpdateUser } from '../api/update-user';
 import { ResetPasswordDialog } from './reset-password-dialog';
 
 const SELF_HINT = 'Your own role and active flag can only be changed by another administrator.';
+
+/** A role or active-flag change the admin asked for, waiting for their confirmation. */
+type PendingChange =
+  | { user: UserView; kind: 'role'; role: UserView['role'] }
+  | { user: UserView; kind: 'active'; active: boolean };
+
+function confirmText(change: PendingChange): { title: string; body: string; label: string; done: string } {
+  const name = change.user.displayName;
+  if (change.kind === 'role') {
+    const from = ROLE_LABELS[change.user.role];
+    const to = ROLE_LABELS[change.role];
+    return {
+      title: `Change ${name}'s role to ${to}?`,
+      body: `${name} (${change.user.email}) is ${from} now. Their open sessions end; at the next sign-in they have the rights of ${to}.`,
+      label: `Make ${to}`,
+      done: `${name} is now ${to}; their sessions have ended.`,
+    };
+  }
+  return change.active
+    ? {
+        title: `Reactivate ${name}?`,
+        body: `${name} (${change.user.email}) can sign in again with their current password.`,
+        label: 'Reactivate',
+        done: `${name} can sign in again.`,
+      }
+    : {
+        title: `Deactivate ${name}?`,
+        body: `${name} (${change.user.email}) is signed out everywhere at once and cannot sign in until an admin reactivates the account. Their records stay.`,
+        label: 'Deactivate',
+        done: `${name} is deactivated and signed out.`,
+      };
+}
 
 interface UsersGridProps {
   /** The signed-in administrator: their own role and active flag are not editable here. */
@@ -23,6 +57,7 @@ export function UsersGrid({ currentUserId }: UsersGridProps) {
   const users = useUsers();
   const updateUser = useUpdateUser();
   const [resetFor, setResetFor] = useState<UserView | null>(null);
+  const [pending, setPending] = useState<PendingChange | null>(null);
   const { mutate } = updateUser;
   const pendingId = updateUser.isPending ? updateUser.variables.id : null;
 
@@ -41,7 +76,7 @@ export function UsersGrid({ currentUserId }: UsersGridProps) {
             title={row.id === currentUserId ? SELF_HINT : undefined}
             onChange={(event) => {
               const role = event.target.value;
-              if (isRole(role) && role !== row.role) mutate({ id: row.id, changes: { role } });
+              if (isRole(role) && role !== row.role) setPending({ user: row, kind: 'role', role });
             }}
             inputProps={{ 'aria-label': `Role of ${row.email}` }}
             disableUnderline
@@ -62,7 +97,7 @@ export function UsersGrid({ currentUserId }: UsersGridProps) {
           <Switch
             checked={row.active}
             disabled={row.id === currentUserId || row.id === pendingId}
-            onChange={(event) => mutate({ id: row.id, changes: { active: event.target.checked } })}
+            onChange={(event) => setPending({ user: row, kind: 'active', active: event.target.checked })}
             slotProps={{
               input: {
                 'aria-label': `Active: ${row.email}`,
@@ -91,8 +126,17 @@ export function UsersGrid({ currentUserId }: UsersGridProps) {
         ),
       },
     ],
-    [currentUserId, pendingId, mutate],
+    [currentUserId, pendingId],
   );
+
+  const confirm = () => {
+    if (!pending) return;
+    const change = pending;
+    const changes = change.kind === 'role' ? { role: change.role } : { active: change.active };
+    setPending(null);
+    mutate({ id: change.user.id, changes }, { onSuccess: () => notify(confirmText(change).done, 'success') });
+  };
+  const text = pending ? confirmText(pending) : null;
 
   if (users.isError) return <ErrorAlert error={users.error} title="The user list could not be loaded" />;
 
@@ -108,6 +152,15 @@ export function UsersGrid({ currentUserId }: UsersGridProps) {
         initialState={{ sorting: { sortModel: [{ field: 'email', sort: 'asc' }] } }}
       />
       <ResetPasswordDialog user={resetFor} onClose={() => setResetFor(null)} />
+      <ConfirmDialog
+        open={pending !== null}
+        title={text?.title ?? ''}
+        confirmLabel={text?.label ?? ''}
+        onConfirm={confirm}
+        onCancel={() => setPending(null)}
+      >
+        {text?.body}
+      </ConfirmDialog>
     </>
   );
 }
