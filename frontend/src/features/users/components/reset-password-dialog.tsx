@@ -50,7 +50,8 @@ export function ResetPasswordDialog({ user, onClose }: ResetPasswordDialogProps)
       maxWidth="xs"
     >
       <DialogContentText>
-        Set a new password for {user?.displayName} ({user?.email}) and pass it on to them.
+        Set a new password for {user?.displayName} ({user?.email}) and pass it on to them. Their open sessions
+        end at once, and at the next sign-in they must choose a password of their own.
       </DialogContentText>
       {resetPassword.error && <ErrorAlert error={resetPassword.error} />}
       <NewPasswordField control={control} name="newPassword" label="New password" fullWidth autoFocus />
