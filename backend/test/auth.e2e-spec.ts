@@ -98,6 +98,19 @@ describe('sign-in', () => {
 });
 
 describe('session', () => {
+  it('GET /api/auth/session answers 200 with the user, or with null when nobody is signed in', async () => {
+    const anonymous = await http().get('/api/auth/session');
+    expect(anonymous.status).toBe(200);
+    expect(anonymous.body).toEqual({ user: null });
+    const ended = await http().get('/api/auth/session').set('Cookie', 'qg_session=not-a-token');
+    expect(ended.status).toBe(200);
+    expect(ended.body).toEqual({ user: null });
+    const cookie = await demoSession(app, 'operator');
+    const signedIn = await http().get('/api/auth/session').set('Cookie', cookie);
+    expect(signedIn.status).toBe(200);
+    expect(signedIn.body.user).toMatchObject({ role: 'operator', email: demoSignIn('operator').email });
+  });
+
   it('GET /api/auth/me needs a session', async () => {
     expect((await http().get('/api/auth/me')).status).toBe(401);
     const bogus = await http().get('/api/auth/me').set('Cookie', 'qg_session=not-a-token');

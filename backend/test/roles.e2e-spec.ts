@@ -117,6 +117,7 @@ const RULES: RouteRule[] = [
     okStatus: 200,
     body: () => ({ email: demoSignIn('sales').email, password: demoSignIn('sales').password }),
   },
+  { method: 'get', path: '/api/auth/session', allow: 'public', okStatus: 200 },
   { method: 'get', path: '/api/auth/me', allow: ALL, okStatus: 200 },
   {
     method: 'post',

@@ -4,10 +4,10 @@ import type { UserView } from '@quietglass/shared';
 import { appConfig, type AppConfig } from '../config/configuration.js';
 import { toUserView, type User } from '../users/user.entity.js';
 import { AuthService } from './auth.service.js';
-import { CurrentSession, CurrentUser } from './current-user.decorator.js';
+import { CurrentSession, CurrentUser, type AuthedRequest } from './current-user.decorator.js';
 import { ChangePasswordDto } from './dto/change-password.dto.js';
 import { SignInDto } from './dto/sign-in.dto.js';
-import { AllowedBeforePasswordChange, Public } from './public.decorator.js';
+import { AllowedBeforePasswordChange, OptionalSession, Public } from './public.decorator.js';
 import { SESSION_COOKIE } from './session.js';
 
 @Controller('auth')
@@ -47,6 +47,16 @@ export class AuthController {
   ): Promise<void> {
     await this.auth.signOut(sessionId);
     res.clearCookie(SESSION_COOKIE, { path: '/' });
+  }
+
+  /**
+   * Who is signed in, for the client's session check: `{ user: null }` with 200 when nobody is, so
+   * a visit to the sign-in page is not an error.
+   */
+  @Get('session')
+  @OptionalSession()
+  session(@Req() req: AuthedRequest): { user: UserView | null } {
+    return { user: req.user ? toUserView(req.user) : null };
   }
 
   @Get('me')

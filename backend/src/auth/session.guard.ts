@@ -8,9 +8,10 @@ import {
 import { Reflector } from '@nestjs/core';
 import { JwtService } from '@nestjs/jwt';
 import { SessionsService } from '../sessions/sessions.service.js';
+import type { User } from '../users/user.entity.js';
 import { UsersService } from '../users/users.service.js';
 import type { AuthedRequest } from './current-user.decorator.js';
-import { ALLOWED_BEFORE_PASSWORD_CHANGE, IS_PUBLIC } from './public.decorator.js';
+import { ALLOWED_BEFORE_PASSWORD_CHANGE, IS_PUBLIC, OPTIONAL_SESSION } from './public.decorator.js';
 import { SESSION_COOKIE, type SessionClaims } from './session.js';
 
 /**
@@ -30,8 +31,27 @@ export class SessionGuard implements CanActivate {
 
   async canActivate(ctx: ExecutionContext): Promise<boolean> {
     const targets = [ctx.getHandler(), ctx.getClass()];
-    if (this.reflector.getAllAndOverride<boolean>(IS_PUBLIC, targets)) return true;
     const req = ctx.switchToHttp().getRequest<AuthedRequest>();
+    if (this.reflector.getAllAndOverride<boolean>(IS_PUBLIC, targets)) {
+      if (this.reflector.getAllAndOverride<boolean>(OPTIONAL_SESSION, targets)) {
+        await this.authenticate(req).catch((err: unknown) => {
+          if (!(err instanceof UnauthorizedException)) throw err;
+        });
+      }
+      return true;
+    }
+    const user = await this.authenticate(req);
+    if (
+      user.mustChangePassword &&
+      !this.reflector.getAllAndOverride<boolean>(ALLOWED_BEFORE_PASSWORD_CHANGE, targets)
+    ) {
+      throw new ForbiddenException('Choose your own password first (Account → Change password)');
+    }
+    return true;
+  }
+
+  /** Loads the user and session of the request's token onto it; 401 when there is none. */
+  private async authenticate(req: AuthedRequest): Promise<User> {
     const token = tokenOf(req);
     if (!token) throw new UnauthorizedException('Sign in first');
     let claims: SessionClaims;
@@ -46,15 +66,9 @@ export class SessionGuard implements CanActivate {
     if (!session) throw new UnauthorizedException('Your session has ended; sign in again');
     const user = await this.users.findById(claims.sub);
     if (!user || !user.active) throw new UnauthorizedException('Your account is not active; sign in again');
-    if (
-      user.mustChangePassword &&
-      !this.reflector.getAllAndOverride<boolean>(ALLOWED_BEFORE_PASSWORD_CHANGE, targets)
-    ) {
-      throw new ForbiddenException('Choose your own password first (Account → Change password)');
-    }
     req.user = user;
     req.sessionId = session.id;
-    return true;
+    return user;
   }
 }
 

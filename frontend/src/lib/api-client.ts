@@ -7,7 +7,7 @@ export const API_BASE = '/api';
  * Calls that answer 401 as part of their normal work: a wrong password at sign-in, or "nobody is
  * signed in" from the session check. Any other 401 means the session ended.
  */
-const SESSION_CHECK_PATHS: ReadonlySet<string> = new Set(['/auth/sign-in', '/auth/me']);
+const SESSION_CHECK_PATHS: ReadonlySet<string> = new Set(['/auth/sign-in', '/auth/me', '/auth/session']);
 
 /** An API answer outside 2xx, or no answer at all (status 0), with the server's own message. */
 export class ApiError extends Error {

@@ -21,7 +21,7 @@ const SUMMARY: DesignSummaryView = {
 
 function api(role: 'engineer' | 'sales') {
   return mockApi({
-    'GET /api/auth/me': { status: 200, body: { user: STAFF[role] } },
+    'GET /api/auth/session': { status: 200, body: { user: STAFF[role] } },
     'GET /api/designs': { status: 200, body: [SUMMARY] },
     'GET /api/customers': { status: 200, body: [] },
     'GET /api/spec-masks': { status: 200, body: [] },

@@ -11,7 +11,7 @@ describe('first sign-in after an admin set the password', () => {
   it('shows only "Choose your own password" and, once changed, the page that was asked for', async () => {
     const held = { ...STAFF.engineer, mustChangePassword: true };
     const api = mockApi({
-      'GET /api/auth/me': [
+      'GET /api/auth/session': [
         { status: 200, body: { user: held } },
         { status: 200, body: { user: STAFF.engineer } },
       ],

@@ -24,7 +24,7 @@ describe('materials page', () => {
     const glass = material(2, 'Test glass', 1.52);
     const added = material(9, 'Test fluoride', 1.38);
     mockApi({
-      'GET /api/auth/me': { status: 200, body: { user: STAFF.engineer } },
+      'GET /api/auth/session': { status: 200, body: { user: STAFF.engineer } },
       'GET /api/materials': [
         { status: 200, body: [glass] },
         { status: 200, body: [glass, added] },

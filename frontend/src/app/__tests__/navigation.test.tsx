@@ -54,7 +54,7 @@ describe('side navigation', () => {
     'shows exactly the sections of the %s role',
     async (role) => {
       mockApi({
-        'GET /api/auth/me': { status: 200, body: { user: STAFF[role] } },
+        'GET /api/auth/session': { status: 200, body: { user: STAFF[role] } },
         'GET /api/health': { status: 200, body: HEALTH_OK },
       });
       renderApp('/');
@@ -70,7 +70,7 @@ describe('side navigation', () => {
 
   it('shows the signed-in user and role in the top bar, and the role sections as cards on Home', async () => {
     mockApi({
-      'GET /api/auth/me': { status: 200, body: { user: STAFF.sales } },
+      'GET /api/auth/session': { status: 200, body: { user: STAFF.sales } },
       'GET /api/health': { status: 200, body: HEALTH_OK },
     });
     renderApp('/');
@@ -93,7 +93,7 @@ describe('side navigation', () => {
   });
 
   it('marks the current page in the navigation', async () => {
-    mockApi({ 'GET /api/auth/me': { status: 200, body: { user: STAFF.engineer } } });
+    mockApi({ 'GET /api/auth/session': { status: 200, body: { user: STAFF.engineer } } });
     renderApp('/runs');
 
     const nav = await screen.findByRole('navigation', { name: 'Main' });
@@ -116,7 +116,7 @@ describe('side navigation', () => {
     ['/admin/users', 'Users'],
   ])('opens the %s page with its title', async (path, title) => {
     const api = mockApi({
-      'GET /api/auth/me': { status: 200, body: { user: STAFF.admin } },
+      'GET /api/auth/session': { status: 200, body: { user: STAFF.admin } },
       'GET /api/designs': { status: 200, body: [] },
       'GET /api/materials': { status: 200, body: [] },
       'GET /api/customers': { status: 200, body: [] },

@@ -8,7 +8,7 @@ import { renderApp } from '../../test/render';
 // Which role may open which section: NAV_SECTIONS in shared/src/roles.ts.
 
 function signedInAs(role: Role, extra: Parameters<typeof mockApi>[0] = {}) {
-  return mockApi({ 'GET /api/auth/me': { status: 200, body: { user: STAFF[role] } }, ...extra });
+  return mockApi({ 'GET /api/auth/session': { status: 200, body: { user: STAFF[role] } }, ...extra });
 }
 
 describe('role guard', () => {

@@ -12,7 +12,7 @@ const meKey = getMeQueryOptions().queryKey;
 
 describe('session', () => {
   it('sends an unauthenticated visitor to sign-in, with the page as next', async () => {
-    mockApi({ 'GET /api/auth/me': apiError(401, 'Unauthorized', 'Not signed in.') });
+    mockApi({ 'GET /api/auth/session': apiError(401, 'Unauthorized', 'Not signed in.') });
     const { router } = renderApp('/materials');
 
     // The materials page is loaded on first visit, which takes a while in the test runner.
@@ -24,7 +24,7 @@ describe('session', () => {
 
   it('on a 401 from a data call clears the cached user and opens sign-in; signing in returns to the page', async () => {
     const api = mockApi({
-      'GET /api/auth/me': { status: 200, body: { user: STAFF.admin } },
+      'GET /api/auth/session': { status: 200, body: { user: STAFF.admin } },
       'GET /api/users': [
         apiError(401, 'Unauthorized', 'Session expired.'),
         { status: 200, body: [STAFF.admin] },
@@ -52,7 +52,7 @@ describe('session', () => {
 
   it('does not follow a next parameter to another site', async () => {
     mockApi({
-      'GET /api/auth/me': [apiError(401, 'Unauthorized', 'Not signed in.')],
+      'GET /api/auth/session': [apiError(401, 'Unauthorized', 'Not signed in.')],
       'POST /api/auth/sign-in': { status: 200, body: { user: STAFF.sales } },
       'GET /api/health': { status: 200, body: HEALTH_OK },
     });
@@ -68,7 +68,7 @@ describe('session', () => {
 
   it('signs out from the account menu', async () => {
     const api = mockApi({
-      'GET /api/auth/me': { status: 200, body: { user: STAFF.engineer } },
+      'GET /api/auth/session': { status: 200, body: { user: STAFF.engineer } },
       'GET /api/health': { status: 200, body: HEALTH_OK },
       'POST /api/auth/sign-out': { status: 204 },
     });
@@ -86,7 +86,7 @@ describe('session', () => {
 
   it('opens the account page from the account menu', async () => {
     mockApi({
-      'GET /api/auth/me': { status: 200, body: { user: STAFF.engineer } },
+      'GET /api/auth/session': { status: 200, body: { user: STAFF.engineer } },
       'GET /api/health': { status: 200, body: HEALTH_OK },
     });
     const { router, user } = renderApp('/');

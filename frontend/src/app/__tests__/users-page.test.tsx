@@ -20,7 +20,7 @@ const PETRA = {
 describe('users page', () => {
   it('creates a user from the "New user" dialog and shows the new row from the refreshed list', async () => {
     const api = mockApi({
-      'GET /api/auth/me': { status: 200, body: { user: STAFF.admin } },
+      'GET /api/auth/session': { status: 200, body: { user: STAFF.admin } },
       'GET /api/users': [
         { status: 200, body: [STAFF.admin, STAFF.engineer] },
         { status: 200, body: [STAFF.admin, STAFF.engineer, PETRA] },

@@ -99,7 +99,7 @@ describe('apiClient', () => {
   it('leaves a 401 from sign-in and from the session check to the caller', async () => {
     mockApi({
       'POST /api/auth/sign-in': apiError(401, 'Unauthorized', 'Wrong e-mail or password.'),
-      'GET /api/auth/me': apiError(401, 'Unauthorized', 'Not signed in.'),
+      'GET /api/auth/session': apiError(401, 'Unauthorized', 'Not signed in.'),
     });
     const onUnauthorized = vi.fn();
     disconnect = setUnauthorizedHandler(onUnauthorized);
@@ -107,7 +107,7 @@ describe('apiClient', () => {
     expect(
       (await caught(apiClient.post('/auth/sign-in', { email: 'a@b.example', password: 'x' }))).status,
     ).toBe(401);
-    expect((await caught(apiClient.get('/auth/me'))).status).toBe(401);
+    expect((await caught(apiClient.get('/auth/session'))).status).toBe(401);
     expect(onUnauthorized).not.toHaveBeenCalled();
   });
 

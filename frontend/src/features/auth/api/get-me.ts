@@ -3,13 +3,17 @@ import type { UserView } from '@quietglass/shared';
 import { ApiError, apiClient } from '../../../lib/api-client';
 
 export interface SessionResponse {
-  user: UserView;
+  user: UserView | null;
 }
 
-/** The signed-in user, or null when nobody is signed in (the API answers 401). */
+/**
+ * The signed-in user, or null when nobody is signed in. The session check answers 200 with
+ * `{ user: null }` then, so a visit to the sign-in page logs no failed request; a 401 still means
+ * nobody.
+ */
 export async function getMe(signal?: AbortSignal): Promise<UserView | null> {
   try {
-    const { user } = await apiClient.get<SessionResponse>('/auth/me', signal);
+    const { user } = await apiClient.get<SessionResponse>('/auth/session', signal);
     return user;
   } catch (error) {
     if (error instanceof ApiError && error.status === 401) return null;

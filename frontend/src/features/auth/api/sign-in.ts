@@ -1,7 +1,7 @@
 import { useMutation, useQueryClient } from '@tanstack/react-query';
 import type { UserView } from '@quietglass/shared';
 import { apiClient } from '../../../lib/api-client';
-import { setSessionUser, type SessionResponse } from './get-me';
+import { setSessionUser } from './get-me';
 
 export interface SignInInput {
   email: string;
@@ -9,7 +9,7 @@ export interface SignInInput {
 }
 
 export async function signIn(input: SignInInput): Promise<UserView> {
-  const { user } = await apiClient.post<SessionResponse>('/auth/sign-in', {
+  const { user } = await apiClient.post<{ user: UserView }>('/auth/sign-in', {
     email: input.email.trim(),
     password: input.password,
   });

@@ -13,7 +13,7 @@ vi.mock('../../../components/plot', () => import('../../../test/plot-mock'));
 
 function api(role: Role) {
   return mockApi({
-    'GET /api/auth/me': { status: 200, body: { user: STAFF[role] } },
+    'GET /api/auth/session': { status: 200, body: { user: STAFF[role] } },
     'GET /api/designs/12': { status: 200, body: TEST_DESIGN },
     'GET /api/designs/12/versions/1': {
       status: 200,

@@ -31,7 +31,7 @@ const MATERIALS = [
 describe('chambers page', () => {
   it('an engineer opens a chamber for editing with its saved values', async () => {
     mockApi({
-      'GET /api/auth/me': { status: 200, body: { user: STAFF.engineer } },
+      'GET /api/auth/session': { status: 200, body: { user: STAFF.engineer } },
       'GET /api/chambers': { status: 200, body: [CHAMBER] },
       'GET /api/materials': { status: 200, body: MATERIALS },
     });

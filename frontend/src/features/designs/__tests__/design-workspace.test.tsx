@@ -380,7 +380,7 @@ describe('DesignWorkspace', () => {
       'GET /api/designs/12': { status: 200, body: TEST_DESIGN },
       'GET /api/designs': { status: 200, body: [] },
       // The design workspace page composes the approval panel: it needs the session and the page's data.
-      'GET /api/auth/me': { status: 200, body: { user: REVIEWER } },
+      'GET /api/auth/session': { status: 200, body: { user: REVIEWER } },
       'GET /api/materials': { status: 200, body: TEST_MATERIALS },
       'GET /api/spec-masks/6': {
         status: 200,

@@ -33,7 +33,7 @@ const OTHER: OutboxMessageView = {
 describe('outbox', () => {
   it('lists the message with its quote, and shows its body and attachment link', async () => {
     const api = mockApi({
-      'GET /api/auth/me': { status: 200, body: { user: STAFF.admin } },
+      'GET /api/auth/session': { status: 200, body: { user: STAFF.admin } },
       'GET /api/outbox': { status: 200, body: [MESSAGE, OTHER] },
       'GET /api/outbox/8': { status: 200, body: MESSAGE },
     });

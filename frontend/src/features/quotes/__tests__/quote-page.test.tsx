@@ -17,7 +17,7 @@ function quotePage(
   extra: Parameters<typeof mockApi>[0] = {},
 ) {
   const api = mockApi({
-    'GET /api/auth/me': { status: 200, body: { user: STAFF[role] } },
+    'GET /api/auth/session': { status: 200, body: { user: STAFF[role] } },
     'GET /api/quotes/21': quote,
     'GET /api/designs/12': { status: 200, body: DESIGN_12 },
     'GET /api/designs': { status: 200, body: DESIGN_SUMMARIES },

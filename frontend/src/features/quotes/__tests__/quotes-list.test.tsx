@@ -19,7 +19,7 @@ const QUOTES = [
 
 function quotesPage(role: Role) {
   const api = mockApi({
-    'GET /api/auth/me': { status: 200, body: { user: STAFF[role] } },
+    'GET /api/auth/session': { status: 200, body: { user: STAFF[role] } },
     'GET /api/quotes': { status: 200, body: QUOTES },
     'GET /api/designs': { status: 200, body: DESIGN_SUMMARIES },
     'GET /api/spec-masks': { status: 200, body: MASKS },

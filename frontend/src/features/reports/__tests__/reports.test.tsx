@@ -156,7 +156,7 @@ describe('NewReportDialog', () => {
 describe('report page', () => {
   it('previews the PDF, links its download and lists the band margins', async () => {
     mockApi({
-      'GET /api/auth/me': { status: 200, body: { user: STAFF.sales } },
+      'GET /api/auth/session': { status: 200, body: { user: STAFF.sales } },
       'GET /api/reports/4': { status: 200, body: REPORT },
       'GET /api/designs/12': {
         status: 200,

@@ -17,7 +17,7 @@ vi.mock('../../../components/plot', () => import('../../../test/plot-mock'));
 
 function api(role: Role, run: RunDetailView, extra: Parameters<typeof mockApi>[0] = {}) {
   return mockApi({
-    'GET /api/auth/me': { status: 200, body: { user: STAFF[role] } },
+    'GET /api/auth/session': { status: 200, body: { user: STAFF[role] } },
     'GET /api/runs/40': { status: 200, body: run },
     'GET /api/recipes/12/1': { status: 200, body: RECIPE },
     'GET /api/chambers': { status: 200, body: CHAMBERS },

@@ -101,7 +101,7 @@ describe('StartRunDialog', () => {
 describe('Chamber runs page', () => {
   it('opens Start a run with the recipe of ?recipe= chosen, and lists runs with names', async () => {
     mockApi({
-      'GET /api/auth/me': { status: 200, body: { user: STAFF.operator } },
+      'GET /api/auth/session': { status: 200, body: { user: STAFF.operator } },
       'GET /api/recipes': { status: 200, body: RECIPES },
       'GET /api/chambers': { status: 200, body: CHAMBERS },
       'GET /api/runs': {
