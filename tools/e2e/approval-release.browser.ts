@@ -108,8 +108,9 @@ describe('approval and release', () => {
       .click();
     await expect.poll(() => statusChip(page).innerText()).toBe('Version 1: released');
     const history = page.getByRole('table', { name: 'Design history' });
-    await expect.poll(() => history.getByRole('row').count()).toBe(4);
-    expect(await history.getByRole('row').nth(2).innerText()).toMatch(
+    // Header, then released, approved, submitted and the author's save (every save is recorded).
+    await expect.poll(() => history.getByRole('row').count()).toBe(5);
+    expect(await history.getByRole('row').filter({ hasText: 'submitted → approved' }).innerText()).toMatch(
       /Tomas Reyes\s+1\s+submitted → approved\s+Margins fine at 30°/,
     );
     expect(tomas.pageErrors).toEqual([]);
