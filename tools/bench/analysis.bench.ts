@@ -4,9 +4,7 @@
  * (`npm start` in another terminal). Each run uses a fresh design so no stored result is reused.
  *   npx tsx tools/bench/analysis.bench.ts [--runs 5] [--url http://127.0.0.1:3000]
  */
-import fs from 'node:fs';
-import path from 'node:path';
-import { apiSession, arg, ROOT } from './api-session.js';
+import { apiSession, arg, signInDemoEngineer } from './api-session.js';
 
 const base = arg('--url', 'http://127.0.0.1:3000');
 const runs = Number(arg('--runs', '5'));
@@ -14,16 +12,7 @@ const runs = Number(arg('--runs', '5'));
 const api = apiSession(base);
 
 async function main(): Promise<void> {
-  const signIns = JSON.parse(fs.readFileSync(path.join(ROOT, '.data', 'demo-sign-ins.json'), 'utf8')) as {
-    email: string;
-    role: string;
-    password: string;
-  }[];
-  const engineer = signIns.find((s) => s.role === 'engineer');
-  if (!engineer) throw new Error('no demo engineer; run npm start first');
-  const signIn = await api('POST', '/auth/sign-in', { email: engineer.email, password: engineer.password });
-  if (signIn.status !== 200)
-    throw new Error(`sign-in failed (${signIn.status}); is npm start running at ${base}?`);
+  await signInDemoEngineer(api, base);
 
   const materials = (await api<{ id: number; name: string }[]>('GET', '/materials')).body;
   const ensure = async (name: string, n: number, k: number) => {

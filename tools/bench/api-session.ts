@@ -2,6 +2,7 @@
  * What the API benchmarks share: their command-line options, the project root, and a JSON client
  * that keeps the session cookie and sends the header the API wants on every change.
  */
+import fs from 'node:fs';
 import path from 'node:path';
 import { fileURLToPath } from 'node:url';
 import { CSRF_HEADER } from '@quietglass/shared';
@@ -34,4 +35,22 @@ export function apiSession(base: string): Api {
     const text = await res.text();
     return { status: res.status, body: (text ? JSON.parse(text) : null) as T };
   };
+}
+
+/** Signs `api` in as the demo shop's first engineer, read from the sign-ins file `npm start` writes. */
+export async function signInDemoEngineer(
+  api: Api,
+  base: string,
+  credentials = path.join(ROOT, '.data', 'demo-sign-ins.json'),
+): Promise<void> {
+  const signIns = JSON.parse(fs.readFileSync(credentials, 'utf8')) as {
+    email: string;
+    role: string;
+    password: string;
+  }[];
+  const engineer = signIns.find((s) => s.role === 'engineer');
+  if (!engineer) throw new Error('no demo engineer; run npm start first');
+  const signIn = await api('POST', '/auth/sign-in', { email: engineer.email, password: engineer.password });
+  if (signIn.status !== 200)
+    throw new Error(`sign-in failed (${signIn.status}); is npm start running at ${base}?`);
 }

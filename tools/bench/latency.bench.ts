@@ -5,9 +5,8 @@
  * Then the forecast is cancelled and the time until the worker has started the next job is taken.
  *   npx tsx tools/bench/latency.bench.ts [--seconds 15] [--url http://127.0.0.1:3000]
  */
-import fs from 'node:fs';
 import path from 'node:path';
-import { apiSession, arg, ROOT } from './api-session.js';
+import { apiSession, arg, ROOT, signInDemoEngineer } from './api-session.js';
 
 const base = arg('--url', 'http://127.0.0.1:3000');
 const seconds = Number(arg('--seconds', '15'));
@@ -28,16 +27,7 @@ async function waitStatus(id: number, want: string, timeoutMs = 60_000): Promise
 }
 
 async function main(): Promise<void> {
-  const signIns = JSON.parse(fs.readFileSync(credentials, 'utf8')) as {
-    email: string;
-    role: string;
-    password: string;
-  }[];
-  const engineer = signIns.find((s) => s.role === 'engineer');
-  if (!engineer) throw new Error('no demo engineer; run npm start first');
-  const signIn = await api('POST', '/auth/sign-in', { email: engineer.email, password: engineer.password });
-  if (signIn.status !== 200)
-    throw new Error(`sign-in failed (${signIn.status}); is npm start running at ${base}?`);
+  await signInDemoEngineer(api, base, credentials);
   const designs = (await api<{ id: number; name: string; customerId?: number }[]>('GET', '/designs')).body;
   const demo = designs.find((d) => d.name.startsWith('HVS-2210'));
   if (!demo) throw new Error('the demo recipe is missing');
