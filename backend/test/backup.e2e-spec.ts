@@ -1,5 +1,7 @@
 import { spawnSync } from 'node:child_process';
+import { randomBytes } from 'node:crypto';
 import fs from 'node:fs';
+import { get as httpGet } from 'node:http';
 import os from 'node:os';
 import path from 'node:path';
 import { fileURLToPath } from 'node:url';
@@ -40,7 +42,11 @@ async function calculationOf(email: string, hash: string): Promise<number> {
   const [row] = (await db.query(
     `INSERT INTO calculations (kind, input_hash, input, status, values, created_by)
      VALUES ('analysis', $1, '{}', 'completed', $2, (SELECT id FROM users WHERE email = $3)) RETURNING id`,
-    [hash.repeat(64), Buffer.from(new Float64Array([0.01, 0.99, 0]).buffer), email],
+    [
+      hash.length === 64 ? hash : hash.repeat(64),
+      Buffer.from(new Float64Array([0.01, 0.99, 0]).buffer),
+      email,
+    ],
   )) as { id: number }[];
   return row.id;
 }
@@ -74,6 +80,52 @@ describe('backups', () => {
     expect((res.body as Buffer).subarray(0, 5).toString('latin1')).toBe('PGDMP');
     // The whole test database, with the stored results of every suite before this one.
   }, 180_000);
+
+  it('a download the client abandons stops pg_dump, leaving no transaction open', async () => {
+    // 16 MiB of random bytes (incompressible) so the archive is far larger than the socket buffers.
+    const big = await calculationOf('mira.castell@larkspur.example', randomBytes(32).toString('hex'));
+    await db.query(
+      `UPDATE calculations SET values =
+         (SELECT decode(string_agg(md5(random()::text), ''), 'hex') FROM generate_series(1, 1048576))
+       WHERE id = $1`,
+      [big],
+    );
+    const dumps = async () =>
+      Number(
+        (
+          (await db.query(
+            `SELECT count(*) AS n FROM pg_stat_activity WHERE application_name = 'pg_dump'`,
+          )) as { n: string }[]
+        )[0].n,
+      );
+    const server = app.getHttpServer().listen(0, '127.0.0.1');
+    try {
+      await new Promise<void>((resolve) => server.once('listening', () => resolve()));
+      const { port } = server.address() as { port: number };
+      await new Promise<void>((resolve, reject) => {
+        const req = httpGet(
+          { host: '127.0.0.1', port, path: '/api/backup', headers: { Cookie: admin } },
+          (res) => {
+            expect(res.statusCode).toBe(200);
+            res.once('data', () => {
+              req.destroy();
+              resolve();
+            });
+          },
+        );
+        req.once('error', (err) => (req.destroyed ? resolve() : reject(err)));
+      });
+      let left = await dumps();
+      for (let i = 0; i < 50 && left > 0; i++) {
+        await new Promise((r) => setTimeout(r, 100));
+        left = await dumps();
+      }
+      expect(left).toBe(0);
+    } finally {
+      await new Promise((r) => server.close(r));
+      await db.query('DELETE FROM calculations WHERE id = $1', [big]);
+    }
+  }, 60_000);
 
   it('npm run backup, a wiped schema and npm run restore give back every table exactly', async () => {
     const { databaseUrl } = requireE2eEnv();

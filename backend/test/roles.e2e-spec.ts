@@ -3,6 +3,7 @@ import request from 'supertest';
 import { DataSource } from 'typeorm';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { ROLES, type Role } from '@quietglass/shared';
+import { binary } from './support/binary.js';
 import { createTestApp, sessionCookie } from './support/app.js';
 import { demoSignIn } from './support/env.js';
 import { materialIds, twoLayerDesign, versionContent } from './support/fixtures.js';
@@ -21,6 +22,8 @@ interface RouteRule {
   body?: (ctx: MatrixContext, role: Role | 'anonymous') => object;
   /** Concrete path (for :id routes). */
   url?: (ctx: MatrixContext, role: Role | 'anonymous') => string;
+  /** A download streamed in full (e.g. the database archive): the body is read to the end. */
+  download?: true;
   /** Keeps the context in step after a permitted call (e.g. a new row version). */
   after?: (ctx: MatrixContext, body: { version?: number; rowVersion?: number }) => void;
 }
@@ -419,7 +422,7 @@ const RULES: RouteRule[] = [
     okStatus: 204,
     url: (ctx, role) => `/api/calculations/${ctx.deleteCalcIds[role] ?? ctx.doneCalcId}`,
   },
-  { method: 'get', path: '/api/backup', allow: ['admin'], okStatus: 200 },
+  { method: 'get', path: '/api/backup', allow: ['admin'], okStatus: 200, download: true },
   { method: 'get', path: '/api/chambers', allow: FLOOR, okStatus: 200 },
   {
     method: 'get',
@@ -881,6 +884,9 @@ function call(rule: RouteRule, cookie?: string, role: Role | 'anonymous' = 'anon
   const url = rule.url ? rule.url(ctx, role) : rule.path;
   let req = request(app.getHttpServer())[rule.method](url);
   if (cookie) req = req.set('Cookie', cookie);
+  // An unread stream would hold the server's writer back once the socket buffers fill.
+  if (rule.download && role !== 'anonymous' && rule.allow !== 'public' && rule.allow.includes(role))
+    req = binary(req);
   return rule.body ? req.send(rule.body(ctx, role)) : req;
 }
 
