@@ -54,6 +54,8 @@ interface MatrixContext {
   chamberId: number;
   chamberVersion: number;
   runId: number;
+  /** Per permitted role, a run its own matrix user logged (only a run's operator may change it). */
+  ownRunIds: Partial<Record<Role | 'anonymous', number>>;
   spectrumId: number;
   reportId: number;
   quoteId: number;
@@ -489,8 +491,16 @@ const RULES: RouteRule[] = [
     path: '/api/runs/:id',
     allow: FLOOR,
     okStatus: 200,
-    url: (ctx) => `/api/runs/${ctx.runId}`,
-    body: () => ({ notes: 'matrix' }),
+    url: (ctx, role) => `/api/runs/${ctx.ownRunIds[role] ?? ctx.runId}`,
+    body: () => ({ version: 1, notes: 'matrix' }),
+  },
+  {
+    method: 'post',
+    path: '/api/runs/:id/remarks',
+    allow: FLOOR,
+    okStatus: 201,
+    url: (ctx) => `/api/runs/${ctx.runId}/remarks`,
+    body: (_ctx, role) => ({ text: `remark by ${role}` }),
   },
   {
     method: 'post',
@@ -660,6 +670,7 @@ const ctx: MatrixContext = {
   chamberId: 0,
   chamberVersion: 1,
   runId: 0,
+  ownRunIds: {},
   spectrumId: 0,
   reportId: 0,
   quoteId: 0,
@@ -780,6 +791,15 @@ beforeAll(async () => {
   });
   expect(run.status, JSON.stringify(run.body)).toBe(201);
   ctx.runId = run.body.id;
+  // Inserted directly: the matrix users choose their own passwords only in the matrix itself.
+  for (const role of FLOOR) {
+    const [own] = (await app.get(DataSource).query(
+      `INSERT INTO chamber_runs (design_id, version_number, chamber_id, lot_number, run_date, operator_id)
+       VALUES ($1, 1, $2, $3, '2026-12-01', (SELECT id FROM users WHERE email = $4)) RETURNING id`,
+      [ctx.releasedDesignId, ctx.chamberId, `M-${role}`, `matrix-${role}@larkspur.example`],
+    )) as { id: number }[];
+    ctx.ownRunIds[role] = own.id;
+  }
   const spectrum = await request(app.getHttpServer())
     .post(`/api/runs/${ctx.runId}/spectra`)
     .set('Cookie', adminCookie)

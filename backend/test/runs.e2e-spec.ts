@@ -79,25 +79,36 @@ describe('chamber runs', () => {
       .put(`/api/runs/${id}`)
       .set('Cookie', operator)
       .send({
+        version: 1,
         layerReadings: [{ step: 1, monitorThicknessNm: 82.1, rateNmPerS: 0.5, notes: 'stable' }],
         durability: [{ test: 'adhesion', method: 'ISO 9211-4, tape adhesion', result: 'pass' }],
         notes: 'Pump-down 42 min',
       });
     expect(updated.status).toBe(200);
+    expect(updated.body.version).toBe(2);
     expect(updated.body.durability).toEqual([
       { test: 'adhesion', method: 'ISO 9211-4, tape adhesion', result: 'pass' },
     ]);
     const tooFar = await http()
       .put(`/api/runs/${id}`)
       .set('Cookie', operator)
-      .send({ layerReadings: [{ step: 9 }] });
+      .send({ version: 2, layerReadings: [{ step: 9 }] });
     expect(tooFar.status).toBe(400);
     expect(tooFar.body.details).toEqual(['layerReadings[0].step: the recipe has 3 layers']);
     const noMethod = await http()
       .put(`/api/runs/${id}`)
       .set('Cookie', operator)
-      .send({ durability: [{ test: 'humidity', method: ' ', result: 'pass' }] });
+      .send({ version: 2, durability: [{ test: 'humidity', method: ' ', result: 'pass' }] });
     expect(noMethod.status).toBe(400);
+    const noVersion = await http().put(`/api/runs/${id}`).set('Cookie', operator).send({ notes: 'x' });
+    expect(noVersion.status).toBe(400);
+    expect(noVersion.body.details).toContain('version must be the version of the run the change is based on');
+    // The refused changes wrote nothing.
+    const after = await http().get(`/api/runs/${id}`).set('Cookie', operator);
+    expect(after.body).toMatchObject({ version: 2, notes: 'Pump-down 42 min' });
+    expect(after.body.layerReadings).toEqual([
+      { step: 1, monitorThicknessNm: 82.1, rateNmPerS: 0.5, notes: 'stable' },
+    ]);
   });
 
   it('refuses a run of a recipe that is not released', async () => {
@@ -166,6 +177,104 @@ describe('chamber runs', () => {
       'row 4: R must lie between 0 and 100 percent (got -2)',
     ]);
     expect(await count()).toBe(0);
+  });
+
+  it("a run is its operator's: others are refused and add remarks, which never overwrite the record", async () => {
+    const id = await startRun();
+    const byEngineer = await http()
+      .put(`/api/runs/${id}`)
+      .set('Cookie', mira)
+      .send({ version: 1, notes: 'overwritten by an engineer' });
+    expect(byEngineer.status).toBe(403);
+    expect(byEngineer.body.message).toBe(
+      'Run L-2026-118 was logged by Jonah Pike; only they can change its readings, durability results and notes. Add a remark instead.',
+    );
+    const remark = await http()
+      .post(`/api/runs/${id}/remarks`)
+      .set('Cookie', mira)
+      .send({ text: '  Witness looked hazy at the edge.  ' });
+    expect(remark.status).toBe(201);
+    expect(remark.body.remarks).toEqual([
+      {
+        at: expect.any(String),
+        by: { id: expect.any(Number), displayName: 'Mira Castell' },
+        text: 'Witness looked hazy at the edge.',
+      },
+    ]);
+    // A remark does not move the run's version: the operator's edit based on version 1 still saves.
+    expect(remark.body.version).toBe(1);
+    const own = await http()
+      .put(`/api/runs/${id}`)
+      .set('Cookie', operator)
+      .send({ version: 1, notes: 'Hazy edge noted' });
+    expect(own.status).toBe(200);
+    expect(own.body).toMatchObject({ version: 2, notes: 'Hazy edge noted' });
+    expect(own.body.remarks).toHaveLength(1);
+    const empty = await http().post(`/api/runs/${id}/remarks`).set('Cookie', mira).send({ text: '   ' });
+    expect(empty.status).toBe(400);
+    expect(empty.body.details).toEqual(['text must not be empty']);
+
+    // Concurrent remarks are all kept (each is one appending UPDATE).
+    const texts = Array.from({ length: 10 }, (_, i) => `remark ${i}`);
+    const results = await Promise.all(
+      texts.map((text, i) =>
+        http()
+          .post(`/api/runs/${id}/remarks`)
+          .set('Cookie', i % 2 ? mira : tomas)
+          .send({ text }),
+      ),
+    );
+    expect(results.map((r) => r.status)).toEqual(texts.map(() => 201));
+    const stored = await http().get(`/api/runs/${id}`).set('Cookie', operator);
+    expect(stored.body.remarks.map((r: { text: string }) => r.text).sort()).toEqual(
+      ['Witness looked hazy at the edge.', ...texts].sort(),
+    );
+
+    // Every change is on the record, attributed.
+    const admin = await demoSession(app, 'admin');
+    const audit = await http().get(`/api/audit?entity=run&entityId=${id}`).set('Cookie', admin);
+    expect(audit.status).toBe(200);
+    const entries = (audit.body as { action: string; actor: { displayName: string } }[])
+      .map((e) => `${e.action} by ${e.actor.displayName}`)
+      .reverse();
+    expect(entries.slice(0, 3)).toEqual([
+      'logged by Jonah Pike',
+      'remark added by Mira Castell',
+      'edited by Jonah Pike',
+    ]);
+    expect(entries.filter((e) => e.startsWith('remark added'))).toHaveLength(11);
+  });
+
+  it('of 30 rounds of two edits from one version, exactly one wins each time and nothing is mixed', async () => {
+    const id = await startRun();
+    let version = 1;
+    for (let round = 0; round < 30; round++) {
+      const a = {
+        version,
+        notes: `round ${round} A`,
+        durability: [{ test: 'adhesion', method: `A${round}`, result: 'pass' }],
+      };
+      const b = {
+        version,
+        notes: `round ${round} B`,
+        durability: [{ test: 'abrasion', method: `B${round}`, result: 'fail' }],
+      };
+      const [ra, rb] = await Promise.all([
+        http().put(`/api/runs/${id}`).set('Cookie', operator).send(a),
+        http().put(`/api/runs/${id}`).set('Cookie', operator).send(b),
+      ]);
+      expect([ra.status, rb.status].sort()).toEqual([200, 409]);
+      const loser = ra.status === 409 ? ra : rb;
+      expect(loser.body.message).toMatch(
+        /^Run L-2026-118 was changed meanwhile \(now version \d+, you started from version \d+\); reload it/,
+      );
+      const winner = ra.status === 200 ? a : b;
+      const now = await http().get(`/api/runs/${id}`).set('Cookie', operator);
+      expect(now.body.notes).toBe(winner.notes);
+      expect(now.body.durability).toEqual(winner.durability);
+      expect(now.body.version).toBe(version + 1);
+      version = now.body.version;
+    }
   });
 
   it('sales have no access to chamber runs', async () => {

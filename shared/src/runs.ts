@@ -26,6 +26,17 @@ export interface DurabilityResult {
   notes?: string;
 }
 
+/** A remark on a run by anyone who reads it (the run record itself stays its operator's). */
+export interface RunRemark {
+  /** ISO time. */
+  at: string;
+  by: { id: number; displayName: string };
+  text: string;
+}
+
+/** Longest remark, characters. */
+export const RUN_REMARK_MAX_LENGTH = 2000;
+
 /** A chamber run of a released recipe. */
 export interface RunView {
   id: number;
@@ -39,6 +50,10 @@ export interface RunView {
   layerReadings: LayerReading[];
   durability: DurabilityResult[];
   notes: string;
+  /** Remarks by others, oldest first; only ever appended. */
+  remarks: RunRemark[];
+  /** Row version: a change is saved only while the run is still at the version it was based on. */
+  version: number;
   createdAt: string;
   updatedAt: string;
 }

@@ -7,7 +7,7 @@ import {
   PrimaryGeneratedColumn,
   UpdateDateColumn,
 } from 'typeorm';
-import type { DurabilityResult, LayerReading } from '@quietglass/shared/runs';
+import type { DurabilityResult, LayerReading, RunRemark } from '@quietglass/shared/runs';
 import { User } from '../users/user.entity.js';
 
 /** One chamber run of a released recipe: a lot, its readings and witness results. */
@@ -43,6 +43,14 @@ export class ChamberRun {
 
   @Column({ type: 'text', default: '' })
   notes: string;
+
+  /** Remarks by anyone who reads the run, appended in one statement (never edited). */
+  @Column({ type: 'jsonb', default: () => "'[]'" })
+  remarks: RunRemark[];
+
+  /** Row version for optimistic locking (see common/optimistic-lock.ts). */
+  @Column({ type: 'integer', default: 1 })
+  version: number;
 
   @CreateDateColumn({ name: 'created_at', type: 'timestamptz' })
   createdAt: Date;

@@ -9,7 +9,7 @@ import type {
 import { CurrentUser } from '../auth/current-user.decorator.js';
 import { Roles } from '../auth/roles.decorator.js';
 import type { User } from '../users/user.entity.js';
-import { StartRunDto, UpdateRunDto, UploadSpectrumDto } from './dto/run.dto.js';
+import { RunRemarkDto, StartRunDto, UpdateRunDto, UploadSpectrumDto } from './dto/run.dto.js';
 import type { ChamberRun, RunSpectrum } from './run.entity.js';
 import { RunsService } from './runs.service.js';
 
@@ -51,8 +51,22 @@ export class RunsController {
   }
 
   @Put(':id')
-  async update(@Param('id', ParseIntPipe) id: number, @Body() dto: UpdateRunDto): Promise<RunView> {
-    return runView(await this.runs.update(id, dto));
+  async update(
+    @Param('id', ParseIntPipe) id: number,
+    @Body() dto: UpdateRunDto,
+    @CurrentUser() user: User,
+  ): Promise<RunView> {
+    return runView(await this.runs.update(id, dto, user));
+  }
+
+  /** Anyone who reads runs may add a remark; the run's own fields stay its operator's. */
+  @Post(':id/remarks')
+  async remark(
+    @Param('id', ParseIntPipe) id: number,
+    @Body() dto: RunRemarkDto,
+    @CurrentUser() user: User,
+  ): Promise<RunView> {
+    return runView(await this.runs.addRemark(id, dto, user));
   }
 
   @Post(':id/spectra')

@@ -1,5 +1,6 @@
 import { Module } from '@nestjs/common';
 import { TypeOrmModule } from '@nestjs/typeorm';
+import { AuditModule } from '../audit/audit.module.js';
 import { ChambersModule } from '../chambers/chambers.module.js';
 import { DesignsModule } from '../designs/designs.module.js';
 import { ChamberRun, RunSpectrum } from './run.entity.js';
@@ -7,7 +8,7 @@ import { RunsController } from './runs.controller.js';
 import { RunsService } from './runs.service.js';
 
 @Module({
-  imports: [TypeOrmModule.forFeature([ChamberRun, RunSpectrum]), DesignsModule, ChambersModule],
+  imports: [TypeOrmModule.forFeature([ChamberRun, RunSpectrum]), DesignsModule, ChambersModule, AuditModule],
   controllers: [RunsController],
   providers: [RunsService],
 })

@@ -1,4 +1,10 @@
-import { BadRequestException, Injectable, NotFoundException } from '@nestjs/common';
+import {
+  BadRequestException,
+  ConflictException,
+  ForbiddenException,
+  Injectable,
+  NotFoundException,
+} from '@nestjs/common';
 import { InjectDataSource } from '@nestjs/typeorm';
 import { DataSource, In } from 'typeorm';
 import { designStackDescription, engineBackSurface } from '@quietglass/shared/designs';
@@ -6,14 +12,16 @@ import { evaluateMaskOnMeasured } from '@quietglass/shared/measured';
 import { calculateSpectrum } from '@quietglass/shared/optics/batch';
 import { parseStack } from '@quietglass/shared/optics/stack';
 import type { SpectrumComparisonView } from '@quietglass/shared/runs';
+import { AuditService } from '../audit/audit.service.js';
 import { problemDetails } from '../common/csv.js';
+import { updateIfVersion } from '../common/optimistic-lock.js';
 import { ChambersService } from '../chambers/chambers.service.js';
 import { ApprovalsService } from '../designs/approvals.service.js';
 import { Design } from '../designs/design.entity.js';
 import { DesignVersion } from '../designs/design-version.entity.js';
 import { SpecMaskRecord } from '../spec-masks/spec-mask.entity.js';
 import type { User } from '../users/user.entity.js';
-import type { StartRunDto, UpdateRunDto, UploadSpectrumDto } from './dto/run.dto.js';
+import type { RunRemarkDto, StartRunDto, UpdateRunDto, UploadSpectrumDto } from './dto/run.dto.js';
 import { ChamberRun, RunSpectrum } from './run.entity.js';
 import { parseSpectrumCsv } from './spectrum-csv.js';
 
@@ -23,6 +31,7 @@ export class RunsService {
     @InjectDataSource() private readonly db: DataSource,
     private readonly approvals: ApprovalsService,
     private readonly chambers: ChambersService,
+    private readonly audit: AuditService,
   ) {}
 
   /** Starts a run of a released recipe; the signed-in user is its operator. */
@@ -35,10 +44,29 @@ export class RunsService {
     await this.chambers.get(dto.chamberId).catch(() => {
       throw new BadRequestException({ message: [`chamberId: chamber ${dto.chamberId} does not exist`] });
     });
-    const repo = this.db.getRepository(ChamberRun);
-    return repo.save(
-      repo.create({ ...dto, notes: dto.notes ?? '', operator, layerReadings: [], durability: [] }),
-    );
+    const id = await this.db.transaction(async (tx) => {
+      const repo = tx.getRepository(ChamberRun);
+      const saved = await repo.save(
+        repo.create({
+          ...dto,
+          notes: dto.notes ?? '',
+          operator,
+          layerReadings: [],
+          durability: [],
+          remarks: [],
+        }),
+      );
+      await this.audit.record(tx, {
+        actor: operator,
+        entity: 'run',
+        entityId: saved.id,
+        action: 'logged',
+        summary: `run of lot ${saved.lotNumber} logged (design ${dto.designId} v${dto.versionNumber}, chamber ${dto.chamberId})`,
+        details: { ...dto },
+      });
+      return saved.id;
+    });
+    return this.get(id);
   }
 
   list(): Promise<ChamberRun[]> {
@@ -51,19 +79,77 @@ export class RunsService {
     return run;
   }
 
-  async update(id: number, dto: UpdateRunDto): Promise<ChamberRun> {
+  /**
+   * Changes readings, durability results or notes. The run record is its operator's: anybody else
+   * gets 403 and can add a remark. The change applies only while the run is still at `dto.version`
+   * (one conditional UPDATE), and the audit trail keeps before and after of what changed.
+   */
+  async update(id: number, dto: UpdateRunDto, user: User): Promise<ChamberRun> {
     const run = await this.get(id);
+    if (run.operator.id !== user.id) {
+      throw new ForbiddenException(
+        `Run ${run.lotNumber} was logged by ${run.operator.displayName}; only they can change its readings, durability results and notes. Add a remark instead.`,
+      );
+    }
+    const set: Partial<Pick<ChamberRun, 'layerReadings' | 'durability' | 'notes'>> = {};
     if (dto.layerReadings) {
       const layers = (await this.version(run)).layers.length;
       const bad = dto.layerReadings
         .map((r, i) => (r.step > layers ? `layerReadings[${i}].step: the recipe has ${layers} layers` : null))
         .filter((x): x is string => x !== null);
       if (bad.length > 0) throw new BadRequestException({ message: bad });
-      run.layerReadings = dto.layerReadings;
+      set.layerReadings = dto.layerReadings.map((r) => ({ ...r }));
     }
-    if (dto.durability) run.durability = dto.durability;
-    if (dto.notes !== undefined) run.notes = dto.notes;
-    return this.db.getRepository(ChamberRun).save(run);
+    if (dto.durability) set.durability = dto.durability.map((d) => ({ ...d }));
+    if (dto.notes !== undefined) set.notes = dto.notes;
+    const changed = (Object.keys(set) as (keyof typeof set)[]).filter(
+      (k) => JSON.stringify(set[k]) !== JSON.stringify(run[k]),
+    );
+    await this.db.transaction(async (tx) => {
+      await updateIfVersion(tx, ChamberRun, { id, expectedVersion: dto.version, set }, async () => {
+        const now = await this.get(id);
+        return new ConflictException(
+          `Run ${now.lotNumber} was changed meanwhile (now version ${now.version}, you started from version ${dto.version}); reload it and enter your change again`,
+        );
+      });
+      await this.audit.record(tx, {
+        actor: user,
+        entity: 'run',
+        entityId: id,
+        action: 'edited',
+        summary:
+          changed.length === 0
+            ? `run of lot ${run.lotNumber} saved without changes`
+            : `run of lot ${run.lotNumber}: ${changed.map(fieldLabel).join(', ')} changed`,
+        details: Object.fromEntries(changed.map((k) => [k, { before: run[k], after: set[k] }])),
+      });
+    });
+    return this.get(id);
+  }
+
+  /** Appends a remark in one statement, so concurrent remarks and edits never overwrite each other. */
+  async addRemark(id: number, dto: RunRemarkDto, user: User): Promise<ChamberRun> {
+    const run = await this.get(id);
+    const remark = {
+      at: new Date().toISOString(),
+      by: { id: user.id, displayName: user.displayName },
+      text: dto.text,
+    };
+    await this.db.transaction(async (tx) => {
+      await tx.query(`UPDATE chamber_runs SET remarks = remarks || $2::jsonb WHERE id = $1`, [
+        id,
+        JSON.stringify([remark]),
+      ]);
+      await this.audit.record(tx, {
+        actor: user,
+        entity: 'run',
+        entityId: id,
+        action: 'remark added',
+        summary: `remark on run of lot ${run.lotNumber}`,
+        details: { text: dto.text },
+      });
+    });
+    return this.get(id);
   }
 
   spectra(runId: number): Promise<RunSpectrum[]> {
@@ -75,20 +161,31 @@ export class RunsService {
     await this.get(runId);
     const parsed = parseSpectrumCsv(dto.csv);
     if (!parsed.ok) throw new BadRequestException({ message: problemDetails(parsed.problems) });
-    const repo = this.db.getRepository(RunSpectrum);
-    const saved = await repo.save(
-      repo.create({
-        runId,
-        quantity: parsed.spectrum.quantity,
-        angleDeg: dto.angleDeg,
-        sample: dto.sample,
-        filename: dto.filename,
-        originalText: dto.csv,
-        wavelengthsNm: parsed.spectrum.wavelengthsNm,
-        valuesPercent: parsed.spectrum.valuesPercent,
-        uploadedBy: user,
-      }),
-    );
+    const saved = await this.db.transaction(async (tx) => {
+      const repo = tx.getRepository(RunSpectrum);
+      const row = await repo.save(
+        repo.create({
+          runId,
+          quantity: parsed.spectrum.quantity,
+          angleDeg: dto.angleDeg,
+          sample: dto.sample,
+          filename: dto.filename,
+          originalText: dto.csv,
+          wavelengthsNm: parsed.spectrum.wavelengthsNm,
+          valuesPercent: parsed.spectrum.valuesPercent,
+          uploadedBy: user,
+        }),
+      );
+      await this.audit.record(tx, {
+        actor: user,
+        entity: 'run',
+        entityId: runId,
+        action: 'spectrum uploaded',
+        summary: `${dto.sample} ${parsed.spectrum.quantity} spectrum at ${dto.angleDeg}° uploaded (${dto.filename})`,
+        details: { spectrumId: row.id, points: parsed.spectrum.wavelengthsNm.length },
+      });
+      return row;
+    });
     return this.spectrum(runId, saved.id);
   }
 
@@ -174,4 +271,8 @@ export class RunsService {
     if (!v) throw new NotFoundException(`The recipe of run ${run.id} is no longer available`);
     return v;
   }
+}
+
+function fieldLabel(field: 'layerReadings' | 'durability' | 'notes'): string {
+  return { layerReadings: 'layer readings', durability: 'durability results', notes: 'notes' }[field];
 }

@@ -15,6 +15,7 @@ import {
   MinLength,
   ValidateNested,
 } from 'class-validator';
+import { RUN_REMARK_MAX_LENGTH } from '@quietglass/shared/runs';
 import { finite, trim } from '../../common/dto.js';
 
 export class StartRunDto {
@@ -85,6 +86,10 @@ export class DurabilityDto {
 }
 
 export class UpdateRunDto {
+  @IsInt({ message: 'version must be the version of the run the change is based on' })
+  @Min(1)
+  version: number;
+
   @IsOptional()
   @IsArray()
   @ArrayMaxSize(400)
@@ -103,6 +108,14 @@ export class UpdateRunDto {
   @IsString()
   @MaxLength(4000)
   notes?: string;
+}
+
+export class RunRemarkDto {
+  @Transform(trim)
+  @IsString()
+  @MinLength(1, { message: 'text must not be empty' })
+  @MaxLength(RUN_REMARK_MAX_LENGTH, { message: `text must be at most ${RUN_REMARK_MAX_LENGTH} characters` })
+  text: string;
 }
 
 export class UploadSpectrumDto {

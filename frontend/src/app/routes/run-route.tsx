@@ -14,11 +14,11 @@ export function RunRoute() {
   const { id } = useParams();
   const runId = Number(id);
   if (!Number.isInteger(runId) || runId <= 0) return <NotFoundRoute />;
-  return <ComposedRunPage key={runId} runId={runId} role={user.role} />;
+  return <ComposedRunPage key={runId} runId={runId} role={user.role} userId={user.id} />;
 }
 
 /** The run page with the recipe and chambers it names, and Run diagnosis for engineers and admins. */
-function ComposedRunPage({ runId, role }: { runId: number; role: Role }) {
+function ComposedRunPage({ runId, role, userId }: { runId: number; role: Role; userId: number }) {
   // The run page reads the same query: the run is fetched once.
   const run = useRun(runId);
   const recipe = useRecipe(run.data?.designId ?? null, run.data?.versionNumber ?? null);
@@ -30,6 +30,7 @@ function ComposedRunPage({ runId, role }: { runId: number; role: Role }) {
     <RunPage
       runId={runId}
       role={role}
+      userId={userId}
       recipe={recipe}
       chambers={chambers.data}
       diagnosis={(spectrum) => (

@@ -89,6 +89,8 @@ export function testRun(overrides: Partial<RunDetailView> = {}): RunDetailView {
     layerReadings: [],
     durability: [],
     notes: '',
+    remarks: [],
+    version: 3,
     createdAt: '2026-12-01T08:00:00.000Z',
     updatedAt: '2026-12-01T08:00:00.000Z',
     spectra: [],

@@ -116,6 +116,7 @@ describe('Run page', () => {
 
     await waitFor(() => expect(calls.calls('PUT', '/api/runs/40')).toHaveLength(1));
     expect(calls.calls('PUT', '/api/runs/40')[0].body).toEqual({
+      version: 3,
       layerReadings: [
         { step: 1, monitorThicknessNm: 70.4, rateNmPerS: 0.5 },
         { step: 2, monitorThicknessNm: 80 },
@@ -127,10 +128,14 @@ describe('Run page', () => {
 
   it('after saving readings and then durability, shows each section exactly once with the saved values', async () => {
     let current = testRun();
-    api('operator', current, {
+    const calls = api('operator', current, {
       'GET /api/runs/40': () => ({ status: 200, body: current }),
       'PUT /api/runs/40': (req) => {
-        current = { ...current, ...(req.body as object) };
+        // As the API does: the change applies only at the run's version, which then moves on.
+        const { version, ...changes } = req.body as { version: number };
+        if (version !== current.version)
+          return apiError(409, 'Conflict', 'Run L-2026-118 was changed meanwhile');
+        current = { ...current, ...changes, version: current.version + 1 };
         return { status: 200, body: current };
       },
     });
@@ -145,6 +150,10 @@ describe('Run page', () => {
     await user.type(durability.getByLabelText('Adhesion method'), 'ISO 9211-4, tape adhesion');
     await user.click(durability.getByRole('button', { name: 'Save durability results' }));
     await waitFor(() => expect(current.durability).toHaveLength(1));
+    // The second save is based on the version the first one returned.
+    expect(calls.calls('PUT', '/api/runs/40').map((c) => (c.body as { version: number }).version)).toEqual([
+      3, 4,
+    ]);
 
     await waitFor(() => expect(screen.getAllByRole('region', { name: 'Layer readings' })).toHaveLength(1));
     expect(screen.getAllByRole('region', { name: 'Durability results' })).toHaveLength(1);
@@ -153,6 +162,58 @@ describe('Run page', () => {
     expect(
       ((await section('Durability results')).getByLabelText('Adhesion method') as HTMLInputElement).value,
     ).toBe('ISO 9211-4, tape adhesion');
+  });
+
+  it('someone other than the run’s operator reads the record, cannot change it, and adds a remark', async () => {
+    let current = testRun({
+      layerReadings: [{ step: 1, monitorThicknessNm: 70.4 }],
+      remarks: [
+        {
+          at: '2026-12-01T14:00:00.000Z',
+          by: { id: 4, displayName: 'Jonah Pell' },
+          text: 'Door seal replaced',
+        },
+      ],
+    });
+    const calls = api('engineer', current, {
+      'GET /api/runs/40': () => ({ status: 200, body: current }),
+      'POST /api/runs/40/remarks': (req) => {
+        const { text } = req.body as { text: string };
+        current = {
+          ...current,
+          remarks: [
+            ...current.remarks,
+            { at: '2026-12-01T15:00:00.000Z', by: { id: 2, displayName: 'Tomas Reyne' }, text },
+          ],
+        };
+        return { status: 201, body: current };
+      },
+    });
+    const { user } = renderApp('/runs/40');
+    const readings = await section('Layer readings');
+    expect(
+      await screen.findByText(
+        /This run was logged by Jonah Pell; only they can change its readings, durability results and notes/,
+      ),
+    ).toBeTruthy();
+    expect((readings.getByLabelText('Monitor thickness of step 1') as HTMLInputElement).disabled).toBe(true);
+    expect(readings.queryByRole('button', { name: 'Save readings' })).toBeNull();
+
+    const remarks = await section('Remarks');
+    expect(remarks.getByText('Door seal replaced')).toBeTruthy();
+    expect(remarks.getByText(/^Jonah Pell · /)).toBeTruthy();
+    const add = remarks.getByRole('button', { name: 'Add remark' });
+    expect((add as HTMLButtonElement).disabled).toBe(true);
+    await user.type(remarks.getByLabelText('New remark'), '  Witness 2 hazy at the rim ');
+    await user.click(add);
+    await waitFor(() => expect(calls.calls('POST', '/api/runs/40/remarks')).toHaveLength(1));
+    expect(calls.calls('POST', '/api/runs/40/remarks')[0].body).toEqual({
+      text: 'Witness 2 hazy at the rim',
+    });
+    expect(await remarks.findByText('Witness 2 hazy at the rim')).toBeTruthy();
+    expect(remarks.getByText(/^Tomas Reyne · /)).toBeTruthy();
+    expect((remarks.getByLabelText('New remark') as HTMLTextAreaElement).value).toBe('');
+    expect(calls.calls('PUT', '/api/runs/40')).toHaveLength(0);
   });
 
   it('refuses a negative monitor thickness before sending', async () => {
@@ -189,6 +250,7 @@ describe('Run page', () => {
     await user.click(durability.getByRole('button', { name: 'Save durability results' }));
     await waitFor(() => expect(calls.calls('PUT', '/api/runs/40')).toHaveLength(1));
     expect(calls.calls('PUT', '/api/runs/40')[0].body).toEqual({
+      version: 3,
       durability: [
         { test: 'adhesion', method: 'ISO 9211-4, tape adhesion', result: 'pass' },
         { test: 'humidity', method: 'ISO 9022-2, damp heat', result: 'fail', notes: 'haze at the edge' },

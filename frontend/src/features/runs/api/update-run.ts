@@ -3,8 +3,9 @@ import { apiClient } from '../../../lib/api-client';
 import { getRunQueryOptions, type RunDetailView } from './get-run';
 import { getRunsQueryOptions, type DurabilityResult, type LayerReading, type RunView } from './get-runs';
 
-/** UpdateRunDto: each field given replaces what the run had. */
+/** UpdateRunDto: each field given replaces what the run had; `version` is the run's version it is based on. */
 export interface RunChanges {
+  version: number;
   layerReadings?: LayerReading[];
   durability?: DurabilityResult[];
   notes?: string;

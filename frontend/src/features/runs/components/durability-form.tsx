@@ -67,7 +67,7 @@ export function DurabilityForm({ run, canEdit }: { run: RunView; canEdit: boolea
 
   const onSubmit = handleSubmit((values) =>
     update.mutate(
-      { durability: durabilityOf(values, run.durability) },
+      { version: run.version, durability: durabilityOf(values, run.durability) },
       {
         onSuccess: (saved) => {
           reset(valuesOf(saved));

@@ -111,7 +111,7 @@ export function LayerReadingsForm({ run, steps, canEdit }: LayerReadingsFormProp
 
   const onSubmit = handleSubmit((values) =>
     update.mutate(
-      { layerReadings: readingsOf(values, steps), notes: values.notes },
+      { version: run.version, layerReadings: readingsOf(values, steps), notes: values.notes },
       {
         onSuccess: (saved) => {
           reset(valuesOf(saved, steps));

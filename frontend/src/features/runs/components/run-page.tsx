@@ -1,3 +1,4 @@
+import Alert from '@mui/material/Alert';
 import Box from '@mui/material/Box';
 import Link from '@mui/material/Link';
 import TextField from '@mui/material/TextField';
@@ -12,12 +13,15 @@ import { useRun, type RunSpectrumView } from '../api/get-run';
 import type { RecipeView, RunChamberView } from '../run-inputs';
 import { DurabilityForm } from './durability-form';
 import { depositionSteps, LayerReadingsForm } from './layer-readings-form';
+import { RunRemarks } from './run-remarks';
 import { SpectrumComparison } from './spectrum-comparison';
 import { SpectrumUpload } from './spectrum-upload';
 
 interface RunPageProps {
   runId: number;
   role: Role;
+  /** The signed-in user: only the run's operator may change its readings and results. */
+  userId: number;
   /** The recipe the run builds, as the page loads it once the run is known. */
   recipe: { data: RecipeView | undefined; isError: boolean; error: Error | null };
   /** The chambers, to name the run's (undefined while loading). */
@@ -27,14 +31,15 @@ interface RunPageProps {
 }
 
 /** One chamber run: what was built, the readings, durability, measured spectra and (engineers) Run diagnosis. */
-export function RunPage({ runId, role, recipe, chambers, diagnosis }: RunPageProps) {
+export function RunPage({ runId, role, userId, recipe, chambers, diagnosis }: RunPageProps) {
   const run = useRun(runId);
   const [chosenSpectrumId, setChosenSpectrumId] = useState<number | null>(null);
 
   if (run.isError) return <ErrorAlert error={run.error} title={`Run ${runId} could not be loaded`} />;
   if (!run.data) return <LoadingBlock label="Loading the run" />;
   const r = run.data;
-  const canEdit = role !== 'sales';
+  const canEdit = r.operator.id === userId;
+  const canUpload = role !== 'sales';
   const chamber = chambers?.find((c) => c.id === r.chamberId)?.name ?? `Chamber ${r.chamberId}`;
   const recipeName = recipe.data
     ? `${recipe.data.name} v${r.versionNumber}`
@@ -56,6 +61,12 @@ export function RunPage({ runId, role, recipe, chambers, diagnosis }: RunPagePro
         }
       />
       <Box sx={{ display: 'grid', gap: 2 }}>
+        {!canEdit && (
+          <Alert severity="info">
+            This run was logged by {r.operator.displayName}; only they can change its readings, durability
+            results and notes. Add a remark below instead.
+          </Alert>
+        )}
         {recipe.isError && (
           <ErrorAlert error={recipe.error} title="The recipe of this run could not be loaded" />
         )}
@@ -68,7 +79,8 @@ export function RunPage({ runId, role, recipe, chambers, diagnosis }: RunPagePro
           />
         )}
         <DurabilityForm key={`durability-${r.id}`} run={r} canEdit={canEdit} />
-        {canEdit && <SpectrumUpload runId={r.id} onUploaded={(s) => setChosenSpectrumId(s.id)} />}
+        <RunRemarks key={`remarks-${r.id}`} run={r} />
+        {canUpload && <SpectrumUpload runId={r.id} onUploaded={(s) => setChosenSpectrumId(s.id)} />}
         {spectra.length > 1 && spectrum && (
           <TextField
             select

@@ -1,0 +1,81 @@
+import Box from '@mui/material/Box';
+import Button from '@mui/material/Button';
+import List from '@mui/material/List';
+import ListItem from '@mui/material/ListItem';
+import ListItemText from '@mui/material/ListItemText';
+import Paper from '@mui/material/Paper';
+import TextField from '@mui/material/TextField';
+import Typography from '@mui/material/Typography';
+import { RUN_REMARK_MAX_LENGTH } from '@quietglass/shared';
+import { useState } from 'react';
+import { ErrorAlert } from '../../../components/error-alert';
+import { formatDateTime } from '../../../lib/format';
+import { notify } from '../../../lib/notifier';
+import { useAddRunRemark } from '../api/add-run-remark';
+import type { RunView } from '../api/get-runs';
+
+/** Remarks on a run by anyone who reads it, oldest first, and a field to add one. */
+export function RunRemarks({ run }: { run: RunView }) {
+  const add = useAddRunRemark(run.id);
+  const [text, setText] = useState('');
+  const trimmed = text.trim();
+  const tooLong = trimmed.length > RUN_REMARK_MAX_LENGTH;
+
+  const submit = (e: React.FormEvent) => {
+    e.preventDefault();
+    if (!trimmed || tooLong) return;
+    add.mutate(trimmed, {
+      onSuccess: () => {
+        setText('');
+        notify('Remark added.', 'success');
+      },
+    });
+  };
+
+  return (
+    <Paper variant="outlined" sx={{ p: 2 }} component="section" aria-label="Remarks">
+      <Typography variant="h2" component="h2" gutterBottom>
+        Remarks
+      </Typography>
+      {run.remarks.length === 0 ? (
+        <Typography variant="body2" color="text.secondary">
+          No remarks yet.
+        </Typography>
+      ) : (
+        <List dense aria-label="Remarks on this run">
+          {run.remarks.map((r, i) => (
+            <ListItem key={`${r.at}-${i}`} disableGutters>
+              <ListItemText
+                primary={r.text}
+                secondary={`${r.by.displayName} · ${formatDateTime(r.at)}`}
+                slotProps={{ primary: { sx: { whiteSpace: 'pre-wrap' } } }}
+              />
+            </ListItem>
+          ))}
+        </List>
+      )}
+      <Box component="form" noValidate onSubmit={submit} sx={{ display: 'grid', gap: 1, mt: 1 }}>
+        {add.error && <ErrorAlert error={add.error} title="The remark was not added" />}
+        <TextField
+          label="New remark"
+          multiline
+          minRows={2}
+          size="small"
+          value={text}
+          onChange={(e) => setText(e.target.value)}
+          error={tooLong}
+          helperText={
+            tooLong
+              ? `At most ${RUN_REMARK_MAX_LENGTH} characters (now ${trimmed.length})`
+              : 'Remarks are kept with the run and cannot be edited.'
+          }
+        />
+        <Box>
+          <Button type="submit" variant="outlined" disabled={!trimmed || tooLong || add.isPending}>
+            Add remark
+          </Button>
+        </Box>
+      </Box>
+    </Paper>
+  );
+}
