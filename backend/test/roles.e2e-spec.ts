@@ -174,6 +174,13 @@ const RULES: RouteRule[] = [
     url: (ctx) => `/api/materials/${ctx.materialId}`,
   },
   {
+    method: 'get',
+    path: '/api/materials/:id/revisions',
+    allow: ALL,
+    okStatus: 200,
+    url: (ctx) => `/api/materials/${ctx.materialId}/revisions`,
+  },
+  {
     method: 'post',
     path: '/api/materials',
     allow: DESIGNERS,

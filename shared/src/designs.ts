@@ -90,6 +90,8 @@ export interface NamedModel {
   model: MaterialModel;
   /** Wavelength range over which the material's data are valid, nm. */
   rangeNm?: { from: number; to: number };
+  /** The material's revision when a version froze it (1 = as first entered). */
+  revision?: number;
 }
 
 /**

@@ -12,6 +12,7 @@ export * from './outbox.js';
 export * from './calculations.js';
 export * from './audit.js';
 export * from './revisions.js';
+export * from './materials.js';
 
 // Optics engine (browser-safe; Node-only helpers live under @quietglass/shared/node/parallel).
 export * from './optics/errors.js';

@@ -8,7 +8,7 @@ import { Design } from '../designs/design.entity.js';
 import { DesignVersion } from '../designs/design-version.entity.js';
 import { VersionEvent } from '../designs/version-event.entity.js';
 import { OutboxAttachment, OutboxMessage } from '../mail/outbox.entity.js';
-import { Material } from '../materials/material.entity.js';
+import { Material, MaterialRevision } from '../materials/material.entity.js';
 import { Quote } from '../quotes/quote.entity.js';
 import { ComplianceReport } from '../reports/report.entity.js';
 import { ChamberRun, RunSpectrum } from '../runs/run.entity.js';
@@ -28,12 +28,14 @@ import { CalculationLive1764634400000 } from '../migrations/1764634400000-calcul
 import { AuditTrailRevisions1764634500000 } from '../migrations/1764634500000-audit-trail-revisions.js';
 import { DemoSeeds1764634600000 } from '../migrations/1764634600000-demo-seeds.js';
 import { Sessions1764634700000 } from '../migrations/1764634700000-sessions.js';
+import { MaterialRevisions1764634800000 } from '../migrations/1764634800000-material-revisions.js';
 
 /** Every entity of the app; each domain module also registers its own with forFeature. */
 export const ENTITIES = [
   User,
   Customer,
   Material,
+  MaterialRevision,
   SpecMaskRecord,
   Design,
   DesignVersion,
@@ -64,6 +66,7 @@ export const MIGRATIONS = [
   AuditTrailRevisions1764634500000,
   DemoSeeds1764634600000,
   Sessions1764634700000,
+  MaterialRevisions1764634800000,
 ];
 
 /** TypeORM options for PostgreSQL; never `synchronize` — the schema comes from migrations. */

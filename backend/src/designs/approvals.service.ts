@@ -79,7 +79,7 @@ export class ApprovalsService {
           if (version.layers.length === 0)
             throw new BadRequestException('A version without layers cannot be submitted');
           // Frozen from the very content being submitted, in the same transaction.
-          const materials = await this.designs.checkMaterials(version, tx);
+          const materials = await this.designs.checkMaterials(version, tx, true);
           patch.materialsSnapshot = Object.fromEntries([...materials].map(([k, v]) => [String(k), v]));
         }
         if (action === 'approve' || action === 'return' || action === 'release') {

@@ -300,20 +300,34 @@ export class DesignsService {
   }
 
   /** Every material the content names must exist; returns them by id. */
+  /**
+   * The materials a version names, as the engine needs them; 400 naming each missing one. With
+   * `freeze` (inside the submit transaction) the rows are read FOR SHARE, so a concurrent material
+   * edit waits for the submit and then finds the material in use (and makes a new revision).
+   */
   async checkMaterials(
     c: DesignVersionContent | VersionContentDto,
     manager: EntityManager = this.db.manager,
+    freeze = false,
   ): Promise<Map<number, NamedModel>> {
     const wanted = new Set([
       c.incidentMaterialId,
       c.substrateMaterialId,
       ...c.layers.map((l) => l.materialId),
     ]);
-    const found = await manager.getRepository(Material).findBy({ id: In([...wanted]) });
+    const found = await manager.getRepository(Material).find({
+      where: { id: In([...wanted]) },
+      ...(freeze ? { lock: { mode: 'pessimistic_read' as const } } : {}),
+    });
     const byId = new Map(
       found.map((m) => [
         m.id,
-        { name: m.name, model: m.model, rangeNm: { from: m.rangeFromNm, to: m.rangeToNm } },
+        {
+          name: m.name,
+          model: m.model,
+          rangeNm: { from: m.rangeFromNm, to: m.rangeToNm },
+          revision: m.revision,
+        },
       ]),
     );
     const problems: string[] = [];

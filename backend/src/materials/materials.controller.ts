@@ -3,7 +3,12 @@ import { CurrentUser } from '../auth/current-user.decorator.js';
 import { Roles } from '../auth/roles.decorator.js';
 import type { User } from '../users/user.entity.js';
 import { ImportMaterialCsvDto, MaterialDto, UpdateMaterialDto } from './dto/material.dto.js';
-import { toMaterialView, type MaterialView } from './material.entity.js';
+import {
+  toMaterialRevisionView,
+  toMaterialView,
+  type MaterialRevisionView,
+  type MaterialView,
+} from './material.entity.js';
 import { MaterialsService } from './materials.service.js';
 
 /** Everyone reads the materials library; engineers and admins maintain it. */
@@ -19,6 +24,12 @@ export class MaterialsController {
   @Get(':id')
   async get(@Param('id', ParseIntPipe) id: number): Promise<MaterialView> {
     return toMaterialView(await this.materials.get(id));
+  }
+
+  /** Earlier revisions, newest first: what versions frozen before an edit were built from. */
+  @Get(':id/revisions')
+  async revisions(@Param('id', ParseIntPipe) id: number): Promise<MaterialRevisionView[]> {
+    return (await this.materials.revisions(id)).map(toMaterialRevisionView);
   }
 
   @Post()

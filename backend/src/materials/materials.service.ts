@@ -1,6 +1,6 @@
 import { BadRequestException, ConflictException, Injectable, NotFoundException } from '@nestjs/common';
 import { InjectRepository } from '@nestjs/typeorm';
-import { Repository } from 'typeorm';
+import { Repository, type EntityManager } from 'typeorm';
 import {
   evaluateIndex,
   validateMaterialModel,
@@ -9,9 +9,10 @@ import {
 import { OpticsInputError } from '@quietglass/shared/optics/errors';
 import { AuditService } from '../audit/audit.service.js';
 import { isUniqueViolation } from '../common/db-errors.js';
+import { stableStringify } from '../common/stable-json.js';
 import { updateIfVersion } from '../common/optimistic-lock.js';
 import type { User } from '../users/user.entity.js';
-import { Material } from './material.entity.js';
+import { Material, MaterialRevision } from './material.entity.js';
 import type {
   ImportMaterialCsvDto,
   MaterialDto,
@@ -46,15 +47,42 @@ export class MaterialsService {
   }
 
   /**
-   * Replaces a material; a save based on an older version gets 409 and changes nothing. Versions
-   * submitted earlier keep the models frozen in their snapshot; the audit trail keeps before and after.
+   * Replaces a material; a save based on an older version gets 409 and changes nothing. A material
+   * that submitted, approved or released versions use is not changed in place: its content so far
+   * is kept as a numbered revision (readable through `revisions`) and the edit becomes the next
+   * revision; those versions keep the models frozen in their snapshot. The audit trail keeps before
+   * and after.
    */
   async update(id: number, dto: UpdateMaterialDto, user: User): Promise<Material> {
-    const before = await this.get(id);
+    await this.get(id);
     const model = checkedModel(dto.model, dto.rangeNm);
-    const set = { ...fields(dto), model };
+    const set: Partial<Material> = { ...fields(dto), model };
     await this.materials.manager
       .transaction(async (tx) => {
+        // The row lock orders this edit with a submit freezing the material (it reads FOR SHARE).
+        const before = await tx
+          .getRepository(Material)
+          .findOne({ where: { id }, lock: { mode: 'pessimistic_write' } });
+        if (!before) throw new NotFoundException(`Material ${id} does not exist`);
+        if (before.version !== dto.version) throw staleMaterial(before);
+        const frozenIn = await frozenVersions(tx, id);
+        const revised = frozenIn.length > 0 && contentChanged(before, set);
+        if (revised) {
+          await tx.getRepository(MaterialRevision).insert({
+            materialId: id,
+            revision: before.revision,
+            name: before.name,
+            model: before.model,
+            rangeFromNm: before.rangeFromNm,
+            rangeToNm: before.rangeToNm,
+            typical: before.typical,
+            source: before.source,
+            sourceDate: before.sourceDate,
+            processNotes: before.processNotes,
+            supersededBy: { id: user.id } as User,
+          });
+          set.revision = before.revision + 1;
+        }
         await updateIfVersion(tx, Material, { id, expectedVersion: dto.version, set }, async () =>
           staleMaterial(await this.get(id)),
         );
@@ -62,15 +90,24 @@ export class MaterialsService {
           actor: user,
           entity: 'material',
           entityId: id,
-          action: 'edited',
-          summary: `material "${dto.name}" edited (version ${dto.version} → ${dto.version + 1})`,
+          action: revised ? 'revised' : 'edited',
+          summary: revised
+            ? `material "${dto.name}" revised: revision ${before.revision} → ${before.revision + 1}; ${frozenIn.length} submitted, approved or released version(s) keep revision ${before.revision}`
+            : `material "${dto.name}" edited (version ${dto.version} → ${dto.version + 1})`,
           details: {
             before: {
               name: before.name,
               model: before.model,
               rangeNm: [before.rangeFromNm, before.rangeToNm],
+              revision: before.revision,
             },
-            after: { name: dto.name, model, rangeNm: [dto.rangeNm.from, dto.rangeNm.to] },
+            after: {
+              name: dto.name,
+              model,
+              rangeNm: [dto.rangeNm.from, dto.rangeNm.to],
+              revision: set.revision ?? before.revision,
+            },
+            ...(revised ? { frozenIn } : {}),
           },
         });
       })
@@ -80,6 +117,14 @@ export class MaterialsService {
         throw err;
       });
     return this.get(id);
+  }
+
+  /** Earlier revisions of a material, newest first (the current one is the material itself). */
+  async revisions(id: number): Promise<MaterialRevision[]> {
+    await this.get(id);
+    return this.materials.manager
+      .getRepository(MaterialRevision)
+      .find({ where: { materialId: id }, order: { revision: 'DESC' } });
   }
 
   /** Creates a tabulated material from CSV text; any bad row rejects the whole file. */
@@ -129,6 +174,29 @@ export class MaterialsService {
       throw err;
     }
   }
+}
+
+/** Submitted, approved, released or retired versions whose frozen snapshot holds the material. */
+async function frozenVersions(
+  tx: EntityManager,
+  materialId: number,
+): Promise<{ designId: number; number: number; status: string }[]> {
+  const rows = (await tx.query(
+    `SELECT design_id AS "designId", number, status FROM design_versions
+     WHERE status <> 'draft' AND materials_snapshot ? $1 ORDER BY design_id, number`,
+    [String(materialId)],
+  )) as { designId: number; number: number; status: string }[];
+  return rows;
+}
+
+/** Whether an edit changes what a frozen version's snapshot holds (name, model or range). */
+function contentChanged(before: Material, set: Partial<Material>): boolean {
+  return (
+    before.name !== set.name ||
+    before.rangeFromNm !== set.rangeFromNm ||
+    before.rangeToNm !== set.rangeToNm ||
+    stableStringify(before.model) !== stableStringify(set.model)
+  );
 }
 
 function staleMaterial(current: Material): ConflictException {

@@ -11,6 +11,7 @@ import { renderApp } from '../../test/render';
 const material = (id: number, name: string, n: number): MaterialView => ({
   id,
   name,
+  revision: 1,
   model: { model: 'constant', n, k: 0 },
   rangeNm: { from: 300, to: 1100 },
   typical: false,
@@ -51,5 +52,36 @@ describe('materials page', () => {
       await screen.findByRole('region', { name: 'Material Test fluoride' }, { timeout: 10_000 }),
     ).toBeTruthy();
     expect(screen.queryByRole('region', { name: 'Material Test glass' })).toBeNull();
+  });
+
+  it('shows a revised material’s revision and what its earlier revisions held', async () => {
+    const oxide = { ...material(5, 'Test oxide', 2.1), revision: 2 };
+    mockApi({
+      'GET /api/auth/session': { status: 200, body: { user: STAFF.engineer } },
+      'GET /api/materials': { status: 200, body: [oxide] },
+      'GET /api/materials/5/revisions': {
+        status: 200,
+        body: [
+          {
+            revision: 1,
+            name: 'Test oxide',
+            model: { model: 'constant', n: 2.05, k: 0 },
+            rangeNm: { from: 300, to: 1100 },
+            typical: false,
+            provenance: { source: 'Invented for this test', date: null, notes: '' },
+            supersededAt: '2026-12-01T09:30:00.000Z',
+            supersededBy: 'Tomas Reyne',
+          },
+        ],
+      },
+    });
+    const { user } = renderApp('/materials');
+    await user.click(await screen.findByRole('gridcell', { name: 'Test oxide' }, { timeout: 10_000 }));
+    const detail = within(await screen.findByRole('region', { name: 'Material Test oxide' }));
+    expect(detail.getByText(/· revision 2 · version 1,/)).toBeTruthy();
+    const earlier = within(await detail.findByRole('region', { name: 'Earlier revisions' }));
+    const line = await earlier.findByText(/^Revision 1: Test oxide/);
+    expect(line.textContent).toMatch(/n = 2\.05/);
+    expect(line.textContent).toMatch(/valid 300–1100 nm · replaced .+ by Tomas Reyne$/);
   });
 });

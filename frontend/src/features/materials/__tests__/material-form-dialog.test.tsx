@@ -13,6 +13,7 @@ import { MaterialFormDialog } from '../components/material-form-dialog';
 const MGF2: MaterialView = {
   id: 4,
   name: 'MgF2',
+  revision: 1,
   model: { model: 'cauchy', A: 1.37, B: 0.003, C: 0, k: 0 },
   rangeNm: { from: 200, to: 1100 },
   typical: true,

@@ -6,9 +6,11 @@ import Paper from '@mui/material/Paper';
 import Typography from '@mui/material/Typography';
 import { evaluateIndex, type MaterialModel } from '@quietglass/shared';
 import { useMemo } from 'react';
+import { ErrorAlert } from '../../../components/error-alert';
 import { Plot } from '../../../components/plot';
 import { formatDateTime } from '../../../lib/format';
 import type { MaterialView } from '../api/get-materials';
+import { useMaterialRevisions } from '../api/get-material-revisions';
 import { MODEL_KIND_LABELS, describeModel } from '../material-form';
 
 const PLOT_POINTS = 301;
@@ -64,8 +66,8 @@ export function MaterialDetail({ material, canEdit, onEdit }: MaterialDetailProp
       <Typography variant="body2" color="text.secondary">
         Valid {material.rangeNm.from}–{material.rangeNm.to} nm ·{' '}
         {material.provenance.source || 'no source given'}
-        {material.provenance.date ? ` (${material.provenance.date})` : ''} · version {material.version},
-        changed {formatDateTime(material.updatedAt)}
+        {material.provenance.date ? ` (${material.provenance.date})` : ''} · revision {material.revision} ·
+        version {material.version}, changed {formatDateTime(material.updatedAt)}
       </Typography>
       {material.provenance.notes && (
         <Typography variant="body2" color="text.secondary">
@@ -93,6 +95,32 @@ export function MaterialDetail({ material, canEdit, onEdit }: MaterialDetailProp
           pngFileName={`material-${material.name}-nk`}
         />
       )}
+      {material.revision > 1 && <EarlierRevisions material={material} />}
     </Paper>
+  );
+}
+
+/** What versions frozen before an edit were built from: each earlier revision's model and range. */
+function EarlierRevisions({ material }: { material: MaterialView }) {
+  const revisions = useMaterialRevisions(material.id, material.revision);
+  return (
+    <Box component="section" aria-label="Earlier revisions" sx={{ mt: 2 }}>
+      <Typography variant="h3" component="h3" gutterBottom>
+        Earlier revisions
+      </Typography>
+      <Typography variant="body2" color="text.secondary" sx={{ mb: 1 }}>
+        Versions submitted before an edit keep the revision they were built with.
+      </Typography>
+      {revisions.isError && (
+        <ErrorAlert error={revisions.error} title="Earlier revisions could not be loaded" />
+      )}
+      {revisions.data?.map((r) => (
+        <Typography key={r.revision} variant="body2">
+          Revision {r.revision}: {r.name} · {describeModel(r.model)} · valid {r.rangeNm.from}–{r.rangeNm.to}{' '}
+          nm · replaced {formatDateTime(r.supersededAt)}
+          {r.supersededBy ? ` by ${r.supersededBy}` : ''}
+        </Typography>
+      ))}
+    </Box>
   );
 }
