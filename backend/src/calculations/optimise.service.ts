@@ -1,6 +1,4 @@
 import { BadRequestException, ConflictException, Injectable } from '@nestjs/common';
-import { InjectDataSource } from '@nestjs/typeorm';
-import { DataSource, In } from 'typeorm';
 import { grownLayerMaterialId } from '@quietglass/shared/calculations';
 import type { DesignVersionView } from '@quietglass/shared/designs';
 import { designStackDescription, engineBackSurface } from '@quietglass/shared/designs';
@@ -8,12 +6,12 @@ import { validateSpecMask, type LimitBand } from '@quietglass/shared/optics/mask
 import { OpticsInputError } from '@quietglass/shared/optics/errors';
 import type { FitResult } from '@quietglass/shared/optimise/fit';
 import type { GrowResult } from '@quietglass/shared/optimise/needle';
+import { missingAsBadRequest } from '../common/not-found.js';
 import { DesignsService } from '../designs/designs.service.js';
-import { Material } from '../materials/material.entity.js';
-import { ChamberRun, RunSpectrum } from '../runs/run.entity.js';
-import { SpecMaskRecord } from '../spec-masks/spec-mask.entity.js';
+import { MaterialsService } from '../materials/materials.service.js';
+import { RunsService } from '../runs/runs.service.js';
+import { SpecMasksService } from '../spec-masks/spec-masks.service.js';
 import type { User } from '../users/user.entity.js';
-import { Calculation } from './calculation.entity.js';
 import { CalculationsService } from './calculations.service.js';
 import type { DiagnosisDto, FitDto, GrowDto, YieldDto } from './dto/optimise.dto.js';
 import { type DiagnosisInput, type FitInput, type GrowInput, type YieldInput } from './optimise-jobs.js';
@@ -22,9 +20,11 @@ import { type DiagnosisInput, type FitInput, type GrowInput, type YieldInput } f
 @Injectable()
 export class OptimiseService {
   constructor(
-    @InjectDataSource() private readonly db: DataSource,
     private readonly designs: DesignsService,
     private readonly calculations: CalculationsService,
+    private readonly materials: MaterialsService,
+    private readonly runs: RunsService,
+    private readonly masks: SpecMasksService,
   ) {}
 
   async fit(designId: number, number: number, dto: FitDto, user: User) {
@@ -53,7 +53,7 @@ export class OptimiseService {
 
   async grow(designId: number, number: number, dto: GrowDto, user: User) {
     const base = await this.base(designId, number, dto.specMaskId);
-    const found = await this.db.getRepository(Material).findBy({ id: In(dto.allowedMaterialIds) });
+    const found = await this.materials.findByIds(dto.allowedMaterialIds);
     const missing = dto.allowedMaterialIds.filter((id) => !found.some((m) => m.id === id));
     if (missing.length > 0) {
       throw new BadRequestException({
@@ -102,10 +102,11 @@ export class OptimiseService {
 
   /** Which layers of a run most likely deviated: thicknesses fitted to its measured spectrum. */
   async diagnosis(runId: number, spectrumId: number, dto: DiagnosisDto, user: User) {
-    const run = await this.db.getRepository(ChamberRun).findOneBy({ id: runId });
-    if (!run) throw new BadRequestException({ message: [`run ${runId} does not exist`] });
-    const spectrum = await this.db.getRepository(RunSpectrum).findOneBy({ id: spectrumId, runId });
-    if (!spectrum) throw new BadRequestException({ message: [`run ${runId} has no spectrum ${spectrumId}`] });
+    const run = await missingAsBadRequest(this.runs.get(runId), `run ${runId} does not exist`);
+    const spectrum = await missingAsBadRequest(
+      this.runs.spectrum(runId, spectrumId),
+      `run ${runId} has no spectrum ${spectrumId}`,
+    );
     const [lo, hi] = dto.factorRange ?? [0.7, 1.3];
     if (!(lo > 0 && hi > lo))
       throw new BadRequestException({ message: ['factorRange: needs 0 < low < high'] });
@@ -145,8 +146,10 @@ export class OptimiseService {
 
   /** A completed Fit to mask or Grow layers result becomes a new draft version of its design. */
   async accept(calculationId: number, step: number | undefined, user: User): Promise<DesignVersionView> {
-    const calc = await this.db.getRepository(Calculation).findOneBy({ id: calculationId });
-    if (!calc) throw new BadRequestException({ message: [`calculation ${calculationId} does not exist`] });
+    const calc = await missingAsBadRequest(
+      this.calculations.get(calculationId),
+      `calculation ${calculationId} does not exist`,
+    );
     if (calc.kind !== 'fit' && calc.kind !== 'grow') {
       throw new BadRequestException({ message: [`a ${calc.kind} result does not make a new version`] });
     }
@@ -186,7 +189,7 @@ export class OptimiseService {
   }
 
   private async materialNames(ids: number[]): Promise<Map<string, number>> {
-    const rows = await this.db.getRepository(Material).findBy({ id: In(ids) });
+    const rows = await this.materials.findByIds(ids);
     return new Map(rows.map((m) => [m.name, m.id]));
   }
 
@@ -199,8 +202,10 @@ export class OptimiseService {
     const maskId = specMaskId ?? design.specMaskId;
     if (!maskId)
       throw new BadRequestException({ message: ['specMaskId: the design has no spec mask; choose one'] });
-    const mask = await this.db.getRepository(SpecMaskRecord).findOneBy({ id: maskId });
-    if (!mask) throw new BadRequestException({ message: [`specMaskId: spec mask ${maskId} does not exist`] });
+    const mask = await missingAsBadRequest(
+      this.masks.get(maskId),
+      `specMaskId: spec mask ${maskId} does not exist`,
+    );
     let bands: LimitBand[];
     try {
       bands = validateSpecMask({ bands: mask.bands }).bands;

@@ -1,11 +1,11 @@
 import { BadRequestException, ConflictException, Injectable, NotFoundException } from '@nestjs/common';
 import { InjectRepository } from '@nestjs/typeorm';
-import { In, Repository } from 'typeorm';
+import { Repository } from 'typeorm';
 import { AuditService } from '../audit/audit.service.js';
 import { isUniqueViolation } from '../common/db-errors.js';
 import { updateIfVersion } from '../common/optimistic-lock.js';
 import type { User } from '../users/user.entity.js';
-import { Material } from '../materials/material.entity.js';
+import { MaterialsService } from '../materials/materials.service.js';
 import { Chamber } from './chamber.entity.js';
 import type { ChamberDto, UpdateChamberDto } from './dto/chamber.dto.js';
 
@@ -13,7 +13,7 @@ import type { ChamberDto, UpdateChamberDto } from './dto/chamber.dto.js';
 export class ChambersService {
   constructor(
     @InjectRepository(Chamber) private readonly chambers: Repository<Chamber>,
-    @InjectRepository(Material) private readonly materials: Repository<Material>,
+    private readonly materials: MaterialsService,
     private readonly audit: AuditService,
   ) {}
 
@@ -81,7 +81,7 @@ export class ChambersService {
   /** Materials must exist and appear once each. */
   private async check(dto: ChamberDto): Promise<void> {
     const ids = [dto.monitorChipMaterialId, ...dto.materials.map((m) => m.materialId)];
-    const found = new Set((await this.materials.findBy({ id: In(ids) })).map((m) => m.id));
+    const found = new Set((await this.materials.findByIds(ids)).map((m) => m.id));
     const problems: string[] = [];
     if (!found.has(dto.monitorChipMaterialId)) {
       problems.push(`monitorChipMaterialId: material ${dto.monitorChipMaterialId} does not exist`);

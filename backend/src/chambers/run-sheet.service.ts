@@ -1,11 +1,9 @@
 import { BadRequestException, Injectable } from '@nestjs/common';
-import { InjectRepository } from '@nestjs/typeorm';
-import { In, Repository } from 'typeorm';
 import PDFDocument from 'pdfkit';
 import { buildRunSheet, type RunSheetView } from '@quietglass/shared/runsheet';
 import { OpticsInputError } from '@quietglass/shared/optics/errors';
 import { ApprovalsService } from '../designs/approvals.service.js';
-import { Material } from '../materials/material.entity.js';
+import { MaterialsService } from '../materials/materials.service.js';
 import { ChambersService } from './chambers.service.js';
 
 /** Run sheets for released recipes on a chosen chamber: JSON for the page, PDF for the floor. */
@@ -14,7 +12,7 @@ export class RunSheetService {
   constructor(
     private readonly approvals: ApprovalsService,
     private readonly chambers: ChambersService,
-    @InjectRepository(Material) private readonly materials: Repository<Material>,
+    private readonly materials: MaterialsService,
   ) {}
 
   async build(
@@ -29,7 +27,7 @@ export class RunSheetService {
     // A released version computes with the material models frozen at submission.
     const snapshot = version.materialsSnapshot ?? {};
     const ids = [chamber.monitorChipMaterialId, ...chamber.materials.map((m) => m.materialId)];
-    const library = new Map((await this.materials.findBy({ id: In(ids) })).map((m) => [m.id, m]));
+    const library = new Map((await this.materials.findByIds(ids)).map((m) => [m.id, m]));
     const chip = library.get(chamber.monitorChipMaterialId);
     if (!chip)
       throw new BadRequestException(

@@ -2,6 +2,7 @@ import { Module } from '@nestjs/common';
 import { TypeOrmModule } from '@nestjs/typeorm';
 import { AuditModule } from '../audit/audit.module.js';
 import { CustomersModule } from '../customers/customers.module.js';
+import { MaterialsModule } from '../materials/materials.module.js';
 import { SpecMasksModule } from '../spec-masks/spec-masks.module.js';
 import { Design } from './design.entity.js';
 import { DesignVersion } from './design-version.entity.js';
@@ -16,6 +17,7 @@ import { DesignsService } from './designs.service.js';
     TypeOrmModule.forFeature([Design, DesignVersion, VersionEvent]),
     CustomersModule,
     SpecMasksModule,
+    MaterialsModule,
     AuditModule,
   ],
   controllers: [DesignsController, ApprovalsController],

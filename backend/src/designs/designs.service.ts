@@ -11,7 +11,7 @@ import type {
 import { AuditService } from '../audit/audit.service.js';
 import { updateIfVersion } from '../common/optimistic-lock.js';
 import { CustomersService } from '../customers/customers.service.js';
-import { Material } from '../materials/material.entity.js';
+import { MaterialsService } from '../materials/materials.service.js';
 import { SpecMasksService } from '../spec-masks/spec-masks.service.js';
 import type { User } from '../users/user.entity.js';
 import { Design } from './design.entity.js';
@@ -32,6 +32,7 @@ export class DesignsService {
     @InjectDataSource() private readonly db: DataSource,
     private readonly customers: CustomersService,
     private readonly masks: SpecMasksService,
+    private readonly materials: MaterialsService,
     private readonly audit: AuditService,
   ) {}
 
@@ -315,10 +316,7 @@ export class DesignsService {
       c.substrateMaterialId,
       ...c.layers.map((l) => l.materialId),
     ]);
-    const found = await manager.getRepository(Material).find({
-      where: { id: In([...wanted]) },
-      ...(freeze ? { lock: { mode: 'pessimistic_read' as const } } : {}),
-    });
+    const found = await this.materials.findByIds([...wanted], manager, freeze);
     const byId = new Map(
       found.map((m) => [
         m.id,

@@ -1,6 +1,6 @@
 import { BadRequestException, ConflictException, Injectable, NotFoundException } from '@nestjs/common';
 import { InjectRepository } from '@nestjs/typeorm';
-import { Repository, type EntityManager } from 'typeorm';
+import { In, Repository, type EntityManager } from 'typeorm';
 import {
   evaluateIndex,
   validateMaterialModel,
@@ -33,6 +33,17 @@ export class MaterialsService {
 
   list(): Promise<Material[]> {
     return this.materials.find({ order: { name: 'ASC' } });
+  }
+
+  /**
+   * The materials with these ids (those that exist; callers name the missing ones). With
+   * `lockForShare` inside a transaction the rows are read FOR SHARE, so an edit waits for it.
+   */
+  findByIds(ids: readonly number[], manager?: EntityManager, lockForShare = false): Promise<Material[]> {
+    return (manager ?? this.materials.manager).getRepository(Material).find({
+      where: { id: In([...ids]) },
+      ...(lockForShare ? { lock: { mode: 'pessimistic_read' as const } } : {}),
+    });
   }
 
   async get(id: number): Promise<Material> {

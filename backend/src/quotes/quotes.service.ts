@@ -4,14 +4,14 @@ import { DataSource, In } from 'typeorm';
 import { isApprovedForCustomers } from '@quietglass/shared/designs';
 import type { QuoteStatus } from '@quietglass/shared/quotes';
 import { AuditService } from '../audit/audit.service.js';
+import { orNull } from '../common/not-found.js';
 import { updateIfVersion } from '../common/optimistic-lock.js';
 import { CustomersService } from '../customers/customers.service.js';
-import { Design } from '../designs/design.entity.js';
-import { DesignVersion } from '../designs/design-version.entity.js';
+import { DesignsService } from '../designs/designs.service.js';
 import { MailService } from '../mail/mail.service.js';
 import { ComplianceReport } from '../reports/report.entity.js';
 import { ReportsService } from '../reports/reports.service.js';
-import { SpecMaskRecord } from '../spec-masks/spec-mask.entity.js';
+import { SpecMasksService } from '../spec-masks/spec-masks.service.js';
 import type { User } from '../users/user.entity.js';
 import type { QuoteDecisionDto, QuoteDto, UpdateQuoteDto } from './dto/quote.dto.js';
 import { Quote } from './quote.entity.js';
@@ -30,6 +30,8 @@ export class QuotesService {
     @InjectDataSource() private readonly db: DataSource,
     private readonly customers: CustomersService,
     private readonly reports: ReportsService,
+    private readonly designs: DesignsService,
+    private readonly masks: SpecMasksService,
     private readonly mail: MailService,
     private readonly audit: AuditService,
   ) {}
@@ -169,7 +171,7 @@ export class QuotesService {
           : new ConflictException(`Quote ${id} is ${now.status}; it was sent already`);
       },
     );
-    const design = await this.db.getRepository(Design).findOneByOrFail({ id: quote.designId });
+    const design = await this.designs.get(quote.designId);
     const pdfs = await this.reports.pdfs(quote.reportIds);
     const lines = [
       `Dear ${quote.customer.name},`,
@@ -268,11 +270,9 @@ export class QuotesService {
   /** Validates the references and dates of a quote; errors name the field. */
   private async checked(dto: QuoteDto): Promise<Partial<Quote>> {
     const problems: string[] = [];
-    const customer = await this.customers.get(dto.customerId).catch(() => null);
+    const customer = await orNull(this.customers.get(dto.customerId));
     if (!customer) problems.push(`customerId: customer ${dto.customerId} does not exist`);
-    const version = await this.db
-      .getRepository(DesignVersion)
-      .findOne({ where: { designId: dto.designId, number: dto.versionNumber }, relations: { design: true } });
+    const version = await orNull(this.designs.findVersion(dto.designId, dto.versionNumber));
     if (!version) problems.push(`versionNumber: design ${dto.designId} has no version ${dto.versionNumber}`);
     else if (!isApprovedForCustomers(version.status)) {
       problems.push(
@@ -284,7 +284,7 @@ export class QuotesService {
     const maskId = dto.specMaskId ?? version?.design.specMaskId ?? null;
     if (maskId === null) problems.push('specMaskId: choose the spec mask the quote refers to');
     else {
-      const mask = await this.db.getRepository(SpecMaskRecord).findOneBy({ id: maskId });
+      const mask = await orNull(this.masks.get(maskId));
       if (!mask) problems.push(`specMaskId: spec mask ${maskId} does not exist`);
       else if (customer && mask.customer.id !== customer.id)
         problems.push(`specMaskId: spec mask ${maskId} belongs to another customer`);

@@ -6,7 +6,7 @@ import {
   NotFoundException,
 } from '@nestjs/common';
 import { InjectDataSource } from '@nestjs/typeorm';
-import { DataSource, In } from 'typeorm';
+import { DataSource } from 'typeorm';
 import { designStackDescription, engineBackSurface } from '@quietglass/shared/designs';
 import { evaluateMaskOnMeasured } from '@quietglass/shared/measured';
 import { calculateSpectrum } from '@quietglass/shared/optics/batch';
@@ -14,12 +14,13 @@ import { parseStack } from '@quietglass/shared/optics/stack';
 import type { SpectrumComparisonView } from '@quietglass/shared/runs';
 import { AuditService } from '../audit/audit.service.js';
 import { problemDetails } from '../common/csv.js';
+import { missingAsBadRequest, orNull } from '../common/not-found.js';
 import { updateIfVersion } from '../common/optimistic-lock.js';
 import { ChambersService } from '../chambers/chambers.service.js';
 import { ApprovalsService } from '../designs/approvals.service.js';
-import { Design } from '../designs/design.entity.js';
-import { DesignVersion } from '../designs/design-version.entity.js';
-import { SpecMaskRecord } from '../spec-masks/spec-mask.entity.js';
+import type { DesignVersion } from '../designs/design-version.entity.js';
+import { DesignsService } from '../designs/designs.service.js';
+import { SpecMasksService } from '../spec-masks/spec-masks.service.js';
 import type { User } from '../users/user.entity.js';
 import type { RunRemarkDto, StartRunDto, UpdateRunDto, UploadSpectrumDto } from './dto/run.dto.js';
 import { ChamberRun, RunSpectrum } from './run.entity.js';
@@ -31,19 +32,21 @@ export class RunsService {
     @InjectDataSource() private readonly db: DataSource,
     private readonly approvals: ApprovalsService,
     private readonly chambers: ChambersService,
+    private readonly designs: DesignsService,
+    private readonly masks: SpecMasksService,
     private readonly audit: AuditService,
   ) {}
 
   /** Starts a run of a released recipe; the signed-in user is its operator. */
   async start(dto: StartRunDto, operator: User): Promise<ChamberRun> {
-    await this.approvals.releasedRecipe(dto.designId, dto.versionNumber).catch(() => {
-      throw new BadRequestException({
-        message: [`design ${dto.designId} version ${dto.versionNumber} is not a released recipe`],
-      });
-    });
-    await this.chambers.get(dto.chamberId).catch(() => {
-      throw new BadRequestException({ message: [`chamberId: chamber ${dto.chamberId} does not exist`] });
-    });
+    await missingAsBadRequest(
+      this.approvals.releasedRecipe(dto.designId, dto.versionNumber),
+      `design ${dto.designId} version ${dto.versionNumber} is not a released recipe`,
+    );
+    await missingAsBadRequest(
+      this.chambers.get(dto.chamberId),
+      `chamberId: chamber ${dto.chamberId} does not exist`,
+    );
     const id = await this.db.transaction(async (tx) => {
       const repo = tx.getRepository(ChamberRun);
       const saved = await repo.save(
@@ -231,10 +234,7 @@ export class RunsService {
             })(),
             (v) => v * 100,
           );
-    const designRow = await this.db.getRepository(Design).findOneBy({ id: run.designId });
-    const maskRow = designRow?.specMaskId
-      ? await this.db.getRepository(SpecMaskRecord).findOneBy({ id: designRow.specMaskId })
-      : null;
+    const maskRow = version.design.specMaskId ? await this.masks.get(version.design.specMaskId) : null;
     const mask = maskRow
       ? {
           name: maskRow.name,
@@ -263,12 +263,9 @@ export class RunsService {
 
   /** The recipe version a run built (released then, possibly retired since). */
   private async version(run: ChamberRun): Promise<DesignVersion> {
-    const v = await this.db.getRepository(DesignVersion).findOneBy({
-      designId: run.designId,
-      number: run.versionNumber,
-      status: In(['released', 'retired']),
-    });
-    if (!v) throw new NotFoundException(`The recipe of run ${run.id} is no longer available`);
+    const v = await orNull(this.designs.findVersion(run.designId, run.versionNumber));
+    if (!v || (v.status !== 'released' && v.status !== 'retired'))
+      throw new NotFoundException(`The recipe of run ${run.id} is no longer available`);
     return v;
   }
 }
