@@ -216,7 +216,13 @@ describe('compute queue: full analysis', () => {
     const cancelled = await http().post(`/api/calculations/${sub.body.id}/cancel`).set('Cookie', engineer);
     expect(cancelled.status).toBe(201);
     expect(cancelled.body.status).toBe('cancelled');
-    await new Promise((r) => setTimeout(r, 1500));
+    // Once the worker has let go of the job (nothing of the queue is active any more), nothing can
+    // write to it later: check what it left.
+    const queue = app.get<{ getActiveCount: () => Promise<number> }>('BullQueue_compute');
+    await waitFor(
+      'the worker to let go of the cancelled job',
+      async () => (await queue.getActiveCount()) === 0,
+    );
     const [row] = await db().query(
       'SELECT status, completed_count, values IS NULL AS empty FROM calculations WHERE id = $1',
       [sub.body.id],
