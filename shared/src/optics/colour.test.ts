@@ -21,8 +21,10 @@ import type { OpticalStack } from './stack.js';
 
 describe('CIE data', () => {
   it('has the published colour-matching checkpoints', () => {
-    // CIE 1931 2° observer peaks (values from memory, matching the shipped CIE table): ȳ(555) = 1,
-    // x̄(600) = 1.0622, z̄(445) = 1.7826.
+    // CIE 1931 2° observer peaks as published in the CIE table that Debian's colord-data 1.4.6
+    // ships (/usr/share/colord/cmf/CIE1931-2deg-XYZ.cmf): ȳ(555) = 1.0, x̄(600) = 1.0622,
+    // z̄(445) = 1.7826; x̄(600) = 1.0622 also in python3-colormath 3.0.0 (spectral_constants.py,
+    // STDOBSERV_X2, 10 nm table).
     expect(colourMatching(555)[1]).toBe(1);
     expect(colourMatching(600)[0]).toBe(1.0622);
     expect(colourMatching(445)[2]).toBe(1.7826);
@@ -34,7 +36,9 @@ describe('CIE data', () => {
     expect(Math.abs(w[0] - 95.047)).toBeLessThan(0.01);
     expect(w[1]).toBeCloseTo(100, 12);
     expect(Math.abs(w[2] - 108.883)).toBeLessThan(0.01);
-    // D65 chromaticity x = 0.31272, y = 0.32903 (CIE 015:2018; values from memory).
+    // D65 chromaticity from the published 2° white point X, Y, Z = 0.95047, 1, 1.08883
+    // (python3-colormath 3.0.0, color_constants.py, ILLUMINANTS['2']['d65']):
+    // x = 0.95047 / 3.0393 = 0.31272, y = 1 / 3.0393 = 0.32903.
     const xy = chromaticity(new Float64Array(2), w);
     expect(xy[0]).toBeCloseTo(0.31272, 4);
     expect(xy[1]).toBeCloseTo(0.32903, 4);
@@ -53,10 +57,16 @@ describe('CIE data', () => {
       [830, 261.602],
     ];
     for (const [wl, value] of table) expect(Math.abs(illuminantA(wl) / value - 1)).toBeLessThan(1e-5);
-    // White point of A, 2°: x = 0.44757, y = 0.40745 (CIE 015:2018; values from memory).
-    const xy = chromaticity(new Float64Array(2), whitePoint(new Float64Array(3), 'A'));
+    // White point of A, 2°: X, Y, Z = 1.09850, 1, 0.35585 (python3-colormath 3.0.0,
+    // color_constants.py, ILLUMINANTS['2']['a']), so x = 1.0985 / 2.45435 = 0.44757,
+    // y = 1 / 2.45435 = 0.40744.
+    const wA = whitePoint(new Float64Array(3), 'A');
+    expect(Math.abs(wA[0] - 109.85)).toBeLessThan(0.01);
+    expect(wA[1]).toBeCloseTo(100, 12);
+    expect(Math.abs(wA[2] - 35.585)).toBeLessThan(0.01);
+    const xy = chromaticity(new Float64Array(2), wA);
     expect(xy[0]).toBeCloseTo(0.44757, 4);
-    expect(xy[1]).toBeCloseTo(0.40745, 4);
+    expect(xy[1]).toBeCloseTo(0.40744, 4);
   });
 
   it('rejects wavelengths off the tables', () => {

@@ -8,7 +8,7 @@
  * /usr/share/colord/cmf/CIE1931-2deg-XYZ.cmf (the same numbers; the smallest are written here in
  * exponent form). Cross-checked: at every 10 nm they are identical to the table in the Debian
  * package python3-colormath 3.0.0 (colormath/spectral_constants.py), and they give the checkpoints
- * ȳ(555) = 1, x̄(600) = 1.0622, z̄(445) = 1.7826 (checkpoint values from memory).
+ * ȳ(555) = 1, x̄(600) = 1.0622, z̄(445) = 1.7826 (the peaks as both those files print them).
  */
 
 /** First wavelength of the tables, nm. */
