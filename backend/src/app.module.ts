@@ -8,6 +8,7 @@ import { AuthModule } from './auth/auth.module.js';
 import { BackupsModule } from './backups/backups.module.js';
 import { CalculationsModule } from './calculations/calculations.module.js';
 import { ChambersModule } from './chambers/chambers.module.js';
+import { RecipesModule } from './recipes/recipes.module.js';
 import { CustomersModule } from './customers/customers.module.js';
 import { DesignsModule } from './designs/designs.module.js';
 import { HealthModule } from './health/health.module.js';
@@ -35,6 +36,7 @@ import { UsersModule } from './users/users.module.js';
     DesignsModule,
     CalculationsModule,
     ChambersModule,
+    RecipesModule,
     RunsModule,
     ReportsModule,
     MailModule,

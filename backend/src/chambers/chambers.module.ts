@@ -6,12 +6,11 @@ import { MaterialsModule } from '../materials/materials.module.js';
 import { Chamber } from './chamber.entity.js';
 import { ChambersController } from './chambers.controller.js';
 import { ChambersService } from './chambers.service.js';
-import { RunSheetService } from './run-sheet.service.js';
 
 @Module({
   imports: [TypeOrmModule.forFeature([Chamber]), DesignsModule, MaterialsModule, AuditModule],
   controllers: [ChambersController],
-  providers: [ChambersService, RunSheetService],
+  providers: [ChambersService],
   exports: [ChambersService],
 })
 export class ChambersModule {}

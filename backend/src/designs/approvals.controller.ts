@@ -1,22 +1,17 @@
 import { Body, Controller, Get, Param, ParseIntPipe, Post } from '@nestjs/common';
 import type { DesignVersionView, VersionEventView } from '@quietglass/shared/designs';
-import type { RecipeSummaryView, RecipeView } from '@quietglass/shared/recipes';
 import { CurrentUser } from '../auth/current-user.decorator.js';
 import { Roles } from '../auth/roles.decorator.js';
 import type { User } from '../users/user.entity.js';
 import { ApprovalsService, type Transition } from './approvals.service.js';
-import { DesignsService, toVersionView } from './designs.service.js';
 import { TransitionDto } from './dto/transition.dto.js';
 import { toEventView } from './version-event.entity.js';
 
-/** Submit, approve, return, release and retire versions; the design history; released recipes. */
+/** Submit, approve, return, release and retire versions; the design history. */
 @Controller()
 @Roles('admin', 'engineer')
 export class ApprovalsController {
-  constructor(
-    private readonly approvals: ApprovalsService,
-    private readonly designs: DesignsService,
-  ) {}
+  constructor(private readonly approvals: ApprovalsService) {}
 
   @Post('designs/:id/versions/:number/submit')
   submit(
@@ -72,29 +67,6 @@ export class ApprovalsController {
   @Roles('admin', 'engineer', 'sales')
   async history(@Param('id', ParseIntPipe) id: number): Promise<VersionEventView[]> {
     return (await this.approvals.history(id)).map(toEventView);
-  }
-
-  @Get('recipes')
-  @Roles('admin', 'engineer', 'operator')
-  async recipes(): Promise<RecipeSummaryView[]> {
-    return (await this.approvals.releasedRecipes()).map(({ version: v, releasedBy }) => ({
-      designId: v.designId,
-      number: v.number,
-      name: v.design.name,
-      customer: v.design.customer.name,
-      releasedAt: v.updatedAt.toISOString(),
-      releasedBy,
-    }));
-  }
-
-  @Get('recipes/:id/:number')
-  @Roles('admin', 'engineer', 'operator')
-  async recipe(
-    @Param('id', ParseIntPipe) id: number,
-    @Param('number', ParseIntPipe) n: number,
-  ): Promise<RecipeView> {
-    const v = await this.approvals.releasedRecipe(id, n);
-    return { ...toVersionView(v, await this.designs.editors(v)), name: v.design.name };
   }
 
   private move(

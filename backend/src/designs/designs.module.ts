@@ -11,6 +11,7 @@ import { ApprovalsController } from './approvals.controller.js';
 import { ApprovalsService } from './approvals.service.js';
 import { DesignsController } from './designs.controller.js';
 import { DesignsService } from './designs.service.js';
+import { RecipesService } from './recipes.service.js';
 
 @Module({
   imports: [
@@ -21,7 +22,7 @@ import { DesignsService } from './designs.service.js';
     AuditModule,
   ],
   controllers: [DesignsController, ApprovalsController],
-  providers: [DesignsService, ApprovalsService],
-  exports: [DesignsService, ApprovalsService],
+  providers: [DesignsService, ApprovalsService, RecipesService],
+  exports: [DesignsService, ApprovalsService, RecipesService],
 })
 export class DesignsModule {}

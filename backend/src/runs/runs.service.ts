@@ -17,7 +17,7 @@ import { problemDetails } from '../common/csv.js';
 import { missingAsBadRequest, orNull } from '../common/not-found.js';
 import { updateIfVersion } from '../common/optimistic-lock.js';
 import { ChambersService } from '../chambers/chambers.service.js';
-import { ApprovalsService } from '../designs/approvals.service.js';
+import { RecipesService } from '../designs/recipes.service.js';
 import type { DesignVersion } from '../designs/design-version.entity.js';
 import { DesignsService } from '../designs/designs.service.js';
 import { SpecMasksService } from '../spec-masks/spec-masks.service.js';
@@ -30,7 +30,7 @@ import { parseSpectrumCsv } from './spectrum-csv.js';
 export class RunsService {
   constructor(
     @InjectDataSource() private readonly db: DataSource,
-    private readonly approvals: ApprovalsService,
+    private readonly recipes: RecipesService,
     private readonly chambers: ChambersService,
     private readonly designs: DesignsService,
     private readonly masks: SpecMasksService,
@@ -40,7 +40,7 @@ export class RunsService {
   /** Starts a run of a released recipe; the signed-in user is its operator. */
   async start(dto: StartRunDto, operator: User): Promise<ChamberRun> {
     await missingAsBadRequest(
-      this.approvals.releasedRecipe(dto.designId, dto.versionNumber),
+      this.recipes.releasedRecipe(dto.designId, dto.versionNumber),
       `design ${dto.designId} version ${dto.versionNumber} is not a released recipe`,
     );
     await missingAsBadRequest(

@@ -2,15 +2,15 @@ import { BadRequestException, Injectable } from '@nestjs/common';
 import PDFDocument from 'pdfkit';
 import { buildRunSheet, type RunSheetView } from '@quietglass/shared/runsheet';
 import { OpticsInputError } from '@quietglass/shared/optics/errors';
-import { ApprovalsService } from '../designs/approvals.service.js';
+import { ChambersService } from '../chambers/chambers.service.js';
+import { RecipesService } from '../designs/recipes.service.js';
 import { MaterialsService } from '../materials/materials.service.js';
-import { ChambersService } from './chambers.service.js';
 
 /** Run sheets for released recipes on a chosen chamber: JSON for the page, PDF for the floor. */
 @Injectable()
 export class RunSheetService {
   constructor(
-    private readonly approvals: ApprovalsService,
+    private readonly recipes: RecipesService,
     private readonly chambers: ChambersService,
     private readonly materials: MaterialsService,
   ) {}
@@ -21,7 +21,7 @@ export class RunSheetService {
     chamberId: number,
     monitorWavelengthNm?: number,
   ): Promise<RunSheetView> {
-    const version = await this.approvals.releasedRecipe(designId, number);
+    const version = await this.recipes.releasedRecipe(designId, number);
     const chamber = await this.chambers.get(chamberId);
     const lambda = monitorWavelengthNm ?? chamber.monitorWavelengthsNm[0];
     // A released version computes with the material models frozen at submission.
