@@ -71,6 +71,23 @@ function region(page: Page, name: string) {
   return page.getByRole('region', { name });
 }
 
+/** How many sections, and headings, the run page shows for the readings and the durability results. */
+async function sectionCounts(page: Page): Promise<Record<string, number>> {
+  const counts: Record<string, number> = {};
+  for (const name of ['Layer readings', 'Durability results']) {
+    counts[`${name} sections`] = await page.getByRole('region', { name, exact: true }).count();
+    counts[`${name} headings`] = await page.getByRole('heading', { name, exact: true }).count();
+  }
+  return counts;
+}
+
+const ONE_OF_EACH = {
+  'Layer readings sections': 1,
+  'Layer readings headings': 1,
+  'Durability results sections': 1,
+  'Durability results headings': 1,
+};
+
 describe('chamber run', () => {
   it('an operator logs a run and its spectrum; an engineer finds the deviated layer', async () => {
     const { context, page, pageErrors } = await browserSession(browser, demoUser('jonah.pike'));
@@ -98,14 +115,19 @@ describe('chamber run', () => {
     await durability.getByLabel('Adhesion method').fill('ISO 9211-4, tape adhesion');
     await durability.getByRole('button', { name: 'Save durability results' }).click();
     await page.getByText('Durability results saved.').waitFor();
+    // Saving refreshes the run: each section is still there once, not added again.
+    expect(await sectionCounts(page)).toEqual(ONE_OF_EACH);
 
-    // Both were stored: a fresh load of the page shows them.
+    // Both were stored: a fresh load of the page shows them, each section once.
     await page.reload();
-    await region(page, 'Layer readings').getByLabel('Monitor thickness of step 1').waitFor();
-    expect(await region(page, 'Layer readings').getByLabel('Monitor thickness of step 1').inputValue()).toBe(
-      '75.9',
-    );
-    expect(await region(page, 'Durability results').getByLabel('Adhesion method').inputValue()).toBe(
+    const savedReadings = region(page, 'Layer readings');
+    await savedReadings.getByLabel('Monitor thickness of step 1').waitFor();
+    expect(await sectionCounts(page)).toEqual(ONE_OF_EACH);
+    expect(await savedReadings.getByLabel('Monitor thickness of step 1').inputValue()).toBe('75.9');
+    expect(await savedReadings.getByLabel('Remarks on step 1').inputValue()).toBe('rate steady');
+    const savedDurability = region(page, 'Durability results');
+    expect(await savedDurability.getByLabel('Adhesion', { exact: true }).inputValue()).toBe('pass');
+    expect(await savedDurability.getByLabel('Adhesion method').inputValue()).toBe(
       'ISO 9211-4, tape adhesion',
     );
 
@@ -190,7 +212,12 @@ describe('chamber run', () => {
     const stored = region(page, 'Run diagnosis');
     const storedRows = stored.getByRole('table', { name: 'Fitted thickness factors' }).getByRole('row');
     await expect.poll(() => storedRows.count(), { timeout: 20_000 }).toBe(5);
-    expect((await storedRows.nth(1).getByRole('cell').allInnerTexts()).map((t) => t.trim())[3]).toBe('ZrO2');
+    // The run and its diagnosis can arrive before the recipe that names the materials: wait for the name.
+    await expect
+      .poll(async () => (await storedRows.nth(1).getByRole('cell').nth(3).innerText()).trim(), {
+        timeout: 10_000,
+      })
+      .toBe('ZrO2');
     expect(await stored.getByLabel('Diagnosis run by').innerText()).toMatch(
       /^Run by Mira Castell, finished /,
     );

@@ -1,10 +1,17 @@
 /** A small store of short messages, shown one at a time by the app's snackbar. */
 export type NoticeSeverity = 'success' | 'info' | 'warning' | 'error';
 
+/** A button on the message, e.g. "Undo": pressing it closes the message and runs `onAction`. */
+export interface NoticeAction {
+  label: string;
+  onAction: () => void;
+}
+
 export interface Notice {
   id: number;
   message: string;
   severity: NoticeSeverity;
+  action?: NoticeAction;
 }
 
 type Listener = () => void;
@@ -17,9 +24,9 @@ function emit(): void {
   for (const listener of listeners) listener();
 }
 
-/** Queues a message for the snackbar. */
-export function notify(message: string, severity: NoticeSeverity = 'info'): void {
-  queue = [...queue, { id: nextId++, message, severity }];
+/** Queues a message for the snackbar, optionally with one action button. */
+export function notify(message: string, severity: NoticeSeverity = 'info', action?: NoticeAction): void {
+  queue = [...queue, { id: nextId++, message, severity, ...(action && { action }) }];
   emit();
 }
 

@@ -1,7 +1,8 @@
 import { screen, waitFor, within } from '@testing-library/react';
+import type { UserView } from '@quietglass/shared';
+import type { UserEvent } from '@testing-library/user-event';
 import { describe, expect, it } from 'vitest';
 import { STAFF } from '../../../test/fixtures';
-import { currentNotice, dismissNotice } from '../../../lib/notifier';
 import { apiError, mockApi } from '../../../test/mock-api';
 import { renderWithProviders } from '../../../test/render';
 import { UsersGrid } from '../components/users-grid';
@@ -16,6 +17,25 @@ function rowOf(email: string): HTMLElement {
   const row = screen.getByRole('gridcell', { name: email }).closest('[role="row"]');
   if (!(row instanceof HTMLElement)) throw new Error(`no row for ${email}`);
   return row;
+}
+
+/** The API as a tiny store: PATCH /api/users/:id applies its body, later GETs list the result. */
+function mockAccounts(id: number) {
+  let rows = ALL;
+  return mockApi({
+    'GET /api/users': () => ({ status: 200, body: rows }),
+    [`PATCH /api/users/${id}`]: (request) => {
+      rows = rows.map((u) => (u.id === id ? { ...u, ...(request.body as Partial<UserView>) } : u));
+      return { status: 200, body: rows.find((u) => u.id === id) };
+    },
+  });
+}
+
+/** Presses `button` in the confirm dialog titled `title`. */
+async function confirmIn(user: UserEvent, title: string, button: string): Promise<void> {
+  await user.click(
+    within(await screen.findByRole('dialog', { name: title })).getByRole('button', { name: button }),
+  );
 }
 
 describe('UsersGrid', () => {
@@ -62,7 +82,7 @@ describe('UsersGrid', () => {
     ).toBe(false);
   });
 
-  it('changes a role inline with PATCH { role }', async () => {
+  it('changes a role inline with PATCH { role } after confirmation and reports it by name and role', async () => {
     const api = mockApi({
       'GET /api/users': [
         { status: 200, body: ALL },
@@ -70,7 +90,6 @@ describe('UsersGrid', () => {
       ],
       'PATCH /api/users/2': { status: 200, body: { ...STAFF.engineer, role: 'sales' } },
     });
-    for (let n = currentNotice(); n; n = currentNotice()) dismissNotice(n.id);
     const { user } = renderWithProviders(<UsersGrid currentUserId={STAFF.admin.id} />);
 
     const select = await screen.findByRole('combobox', { name: `Role of ${STAFF.engineer.email}` });
@@ -83,13 +102,105 @@ describe('UsersGrid', () => {
     expect(api.calls('PATCH', '/api/users/2')).toHaveLength(0);
     await user.click(within(ask).getByRole('button', { name: 'Make Sales' }));
 
-    await waitFor(() => expect(api.calls('PATCH', '/api/users/2')).toHaveLength(1));
-    expect(api.calls('PATCH', '/api/users/2')[0].body).toEqual({ role: 'sales' });
+    const notice = await screen.findByRole('alert');
+    expect(
+      within(notice).getByText(`${STAFF.engineer.displayName} is now Sales; their sessions have ended.`),
+    ).toBeTruthy();
+    expect(within(notice).getByRole('button', { name: 'Undo' })).toBeTruthy();
+    expect(api.calls('PATCH', '/api/users/2').map((r) => r.body)).toEqual([{ role: 'sales' }]);
     await waitFor(() => expect(api.calls('GET', '/api/users')).toHaveLength(2));
     expect((select as HTMLSelectElement).value).toBe('sales');
-    expect(currentNotice()?.message).toBe(
-      `${STAFF.engineer.displayName} is now Sales; their sessions have ended.`,
+    expect(api.unexpected).toEqual([]);
+  });
+
+  it('a cancelled role change sends nothing and leaves the role as it was', async () => {
+    const api = mockApi({ 'GET /api/users': { status: 200, body: ALL } });
+    const { user } = renderWithProviders(<UsersGrid currentUserId={STAFF.admin.id} />);
+
+    const select = await screen.findByRole('combobox', { name: `Role of ${STAFF.engineer.email}` });
+    await user.selectOptions(select, 'operator');
+    const ask = await screen.findByRole('dialog', {
+      name: `Change ${STAFF.engineer.displayName}'s role to Operator?`,
+    });
+    await user.click(within(ask).getByRole('button', { name: 'Cancel' }));
+    await waitFor(() => expect(screen.queryByRole('dialog')).toBeNull());
+
+    expect(api.requests.filter((r) => r.method !== 'GET')).toEqual([]);
+    expect((select as HTMLSelectElement).value).toBe('engineer');
+    expect(screen.queryByRole('alert')).toBeNull();
+  });
+
+  it('Undo after a role change sends the reverse PATCH and the grid shows the old role again', async () => {
+    const api = mockAccounts(2);
+    const { user } = renderWithProviders(<UsersGrid currentUserId={STAFF.admin.id} />);
+
+    const select = await screen.findByRole('combobox', { name: `Role of ${STAFF.engineer.email}` });
+    await user.selectOptions(select, 'operator');
+    await confirmIn(user, `Change ${STAFF.engineer.displayName}'s role to Operator?`, 'Make Operator');
+    await user.click(within(await screen.findByRole('alert')).getByRole('button', { name: 'Undo' }));
+
+    // The undo is a change of its own: no second confirmation, and it is reported without another Undo.
+    const undone = await screen.findByText(
+      `${STAFF.engineer.displayName} is now Engineer; their sessions have ended.`,
     );
+    expect(
+      within(undone.closest('[role="alert"]') as HTMLElement).queryByRole('button', { name: 'Undo' }),
+    ).toBeNull();
+    expect(api.calls('PATCH', '/api/users/2').map((r) => r.body)).toEqual([
+      { role: 'operator' },
+      { role: 'engineer' },
+    ]);
+    await waitFor(() => expect((select as HTMLSelectElement).value).toBe('engineer'));
+    expect(screen.queryByRole('dialog')).toBeNull();
+    expect(api.unexpected).toEqual([]);
+  });
+
+  it('Undo after a deactivation reactivates the account with PATCH { active: true }', async () => {
+    const api = mockAccounts(3);
+    const { user } = renderWithProviders(<UsersGrid currentUserId={STAFF.admin.id} />);
+
+    const toggle = await screen.findByRole('switch', { name: `Active: ${STAFF.sales.email}` });
+    await user.click(toggle);
+    await confirmIn(user, `Deactivate ${STAFF.sales.displayName}?`, 'Deactivate');
+    const notice = await screen.findByRole('alert');
+    expect(
+      within(notice).getByText(`${STAFF.sales.displayName} is deactivated and signed out.`),
+    ).toBeTruthy();
+    await waitFor(() => expect((toggle as HTMLInputElement).checked).toBe(false));
+    await user.click(within(notice).getByRole('button', { name: 'Undo' }));
+
+    expect(await screen.findByText(`${STAFF.sales.displayName} can sign in again.`)).toBeTruthy();
+    expect(api.calls('PATCH', '/api/users/3').map((r) => r.body)).toEqual([
+      { active: false },
+      { active: true },
+    ]);
+    await waitFor(() => expect((toggle as HTMLInputElement).checked).toBe(true));
+  });
+
+  it('a refused Undo shows the API message and keeps the server state', async () => {
+    const api = mockApi({
+      'GET /api/users': [
+        { status: 200, body: ALL },
+        { status: 200, body: ALL.map((u) => (u.id === 2 ? { ...u, role: 'sales' } : u)) },
+      ],
+      'PATCH /api/users/2': [
+        { status: 200, body: { ...STAFF.engineer, role: 'sales' } },
+        apiError(404, 'Not Found', 'User 2 does not exist'),
+      ],
+    });
+    const { user } = renderWithProviders(<UsersGrid currentUserId={STAFF.admin.id} />);
+
+    const select = await screen.findByRole('combobox', { name: `Role of ${STAFF.engineer.email}` });
+    await user.selectOptions(select, 'sales');
+    await confirmIn(user, `Change ${STAFF.engineer.displayName}'s role to Sales?`, 'Make Sales');
+    await user.click(within(await screen.findByRole('alert')).getByRole('button', { name: 'Undo' }));
+
+    expect(await screen.findByText('User 2 does not exist')).toBeTruthy();
+    expect(api.calls('PATCH', '/api/users/2').map((r) => r.body)).toEqual([
+      { role: 'sales' },
+      { role: 'engineer' },
+    ]);
+    await waitFor(() => expect((select as HTMLSelectElement).value).toBe('sales'));
   });
 
   it('asks before deactivating, and a cancel sends nothing', async () => {
@@ -116,12 +227,7 @@ describe('UsersGrid', () => {
 
     const toggle = await screen.findByRole('switch', { name: `Active: ${STAFF.sales.email}` });
     await user.click(toggle);
-    await user.click(
-      within(await screen.findByRole('dialog', { name: `Deactivate ${STAFF.sales.displayName}?` })).getByRole(
-        'button',
-        { name: 'Deactivate' },
-      ),
-    );
+    await confirmIn(user, `Deactivate ${STAFF.sales.displayName}?`, 'Deactivate');
 
     expect((await screen.findByRole('alert')).textContent).toBe(
       'At least one active administrator must remain.',
@@ -153,9 +259,10 @@ describe('UsersGrid', () => {
     await user.type(dialog.getByLabelText('New password'), '-and-longer');
     await user.click(dialog.getByRole('button', { name: 'Set password' }));
 
-    expect((await screen.findByRole('alert')).textContent).toBe(
-      `New password set for ${STAFF.operator.email}.`,
-    );
+    // No Undo: the user's sessions have already ended, so a reset cannot be taken back.
+    const notice = await screen.findByRole('alert');
+    expect(notice.textContent).toBe(`New password set for ${STAFF.operator.email}.`);
+    expect(within(notice).queryByRole('button', { name: 'Undo' })).toBeNull();
     expect(api.calls('POST', '/api/users/4/password').map((r) => r.body)).toEqual([
       { newPassword: 'short-and-longer' },
     ]);

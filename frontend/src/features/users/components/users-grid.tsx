@@ -10,7 +10,7 @@ import { formatDateTime } from '../../../lib/format';
 import { notify } from '../../../lib/notifier';
 import { ROLE_LABELS } from '../../../lib/roles';
 import { useUsers } from '../api/get-users';
-import { useUpdateUser } from '../api/update-user';
+import { useUpdateUser, type UserChanges } from '../api/update-user';
 import { ResetPasswordDialog } from './reset-password-dialog';
 
 const SELF_HINT = 'Your own role and active flag can only be changed by another administrator.';
@@ -47,6 +47,18 @@ function confirmText(change: PendingChange): { title: string; body: string; labe
       };
 }
 
+/** The request body that applies a change. */
+function changesOf(change: PendingChange): UserChanges {
+  return change.kind === 'role' ? { role: change.role } : { active: change.active };
+}
+
+/** The change that puts the account back as it was before `change`. */
+function reverseOf(change: PendingChange): PendingChange {
+  return change.kind === 'role'
+    ? { user: { ...change.user, role: change.role }, kind: 'role', role: change.user.role }
+    : { user: { ...change.user, active: change.active }, kind: 'active', active: !change.active };
+}
+
 interface UsersGridProps {
   /** The signed-in administrator: their own role and active flag are not editable here. */
   currentUserId: number;
@@ -58,7 +70,7 @@ export function UsersGrid({ currentUserId }: UsersGridProps) {
   const updateUser = useUpdateUser();
   const [resetFor, setResetFor] = useState<UserView | null>(null);
   const [pending, setPending] = useState<PendingChange | null>(null);
-  const { mutate } = updateUser;
+  const { mutate, mutateAsync } = updateUser;
   const pendingId = updateUser.isPending ? updateUser.variables.id : null;
 
   const columns = useMemo<GridColDef<UserView>[]>(
@@ -132,9 +144,25 @@ export function UsersGrid({ currentUserId }: UsersGridProps) {
   const confirm = () => {
     if (!pending) return;
     const change = pending;
-    const changes = change.kind === 'role' ? { role: change.role } : { active: change.active };
     setPending(null);
-    mutate({ id: change.user.id, changes }, { onSuccess: () => notify(confirmText(change).done, 'success') });
+    mutate(
+      { id: change.user.id, changes: changesOf(change) },
+      {
+        onSuccess: () =>
+          notify(confirmText(change).done, 'success', {
+            label: 'Undo',
+            // The reverse goes through the same PATCH, so it is checked and audited like any change;
+            // mutateAsync reports it even if the admin has left the page meanwhile.
+            onAction: () => {
+              const undo = reverseOf(change);
+              mutateAsync({ id: undo.user.id, changes: changesOf(undo) }).then(
+                () => notify(confirmText(undo).done, 'success'),
+                () => undefined, // the refusal is already on the snackbar
+              );
+            },
+          }),
+      },
+    );
   };
   const text = pending ? confirmText(pending) : null;
 
