@@ -2,7 +2,7 @@ import type { NestExpressApplication } from '@nestjs/platform-express';
 import request from 'supertest';
 import { DataSource } from 'typeorm';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { createTestApp, demoSession, sessionCookie } from './support/app.js';
+import { createTestApp, demoSession, sessionCookie, sessionWithOwnPassword } from './support/app.js';
 import { demoSignIn } from './support/env.js';
 
 let app: NestExpressApplication;
@@ -132,6 +132,41 @@ describe('users (admin)', () => {
     expect(off.status).toBe(409);
     const still = await http().get('/api/auth/me').set('Cookie', admin);
     expect(still.body.user).toMatchObject({ role: 'admin', active: true });
+  });
+
+  it('two admins demoting each other at once: one wins, the other is refused, an active admin remains', async () => {
+    const db = app.get(DataSource);
+    const activeAdmins = async () =>
+      Number((await db.query(`SELECT count(*) AS n FROM users WHERE role = 'admin' AND active`))[0].n);
+    for (let round = 0; round < 5; round++) {
+      const made = [];
+      for (const who of ['a', 'b']) {
+        const email = `rival-${who}-${round}@larkspur.example`;
+        const res = await http()
+          .post('/api/users')
+          .set('Cookie', admin)
+          .send({ email, displayName: `Rival ${who} ${round}`, role: 'admin', password: 'rival-password' });
+        expect(res.status).toBe(201);
+        made.push({
+          id: res.body.id as number,
+          cookie: await sessionWithOwnPassword(app, email, 'rival-password'),
+        });
+      }
+      const [a, b] = made;
+      const [byA, byB] = await Promise.all([
+        http().patch(`/api/users/${b.id}`).set('Cookie', a.cookie).send({ role: 'engineer' }),
+        http().patch(`/api/users/${a.id}`).set('Cookie', b.cookie).send({ role: 'engineer' }),
+      ]);
+      // The loser's session ended with its role change (401) or its actor had just lost the role (403).
+      expect([byA.status, byB.status].filter((s) => s === 200)).toHaveLength(1);
+      const roles = (await db.query('SELECT id, role FROM users WHERE id = ANY($1) ORDER BY id', [
+        [a.id, b.id],
+      ])) as {
+        role: string;
+      }[];
+      expect(roles.map((r) => r.role).sort()).toEqual(['admin', 'engineer']);
+    }
+    expect(await activeAdmins()).toBeGreaterThanOrEqual(1);
   });
 
   it('resets a password; 404 for an unknown user; 400 for a non-numeric id', async () => {

@@ -1,4 +1,4 @@
-import { ConflictException, Injectable, NotFoundException } from '@nestjs/common';
+import { ConflictException, ForbiddenException, Injectable, NotFoundException } from '@nestjs/common';
 import { InjectRepository } from '@nestjs/typeorm';
 import { Repository } from 'typeorm';
 import { AuditService } from '../audit/audit.service.js';
@@ -66,23 +66,42 @@ export class UsersService {
     }
   }
 
-  /** Admin edit. An admin cannot change their own role or deactivate themselves (no lock-out). */
+  /**
+   * Admin edit. An admin cannot change their own role or deactivate themselves (no lock-out). The
+   * rows of the active admins are locked first, so concurrent edits that could take admins away
+   * (two admins demoting each other) run one after the other: the second finds its actor no longer
+   * an active admin and is refused, and the shop always keeps one.
+   */
   async update(id: number, dto: UpdateUserDto, actor: User): Promise<User> {
     const actorId = actor.id;
-    const user = await this.get(id);
-    const before = { displayName: user.displayName, role: user.role, active: user.active };
-    if (id === actorId && dto.role !== undefined && dto.role !== user.role) {
-      throw new ConflictException('You cannot change your own role; ask another admin');
-    }
-    if (id === actorId && dto.active === false) {
-      throw new ConflictException('You cannot deactivate yourself; ask another admin');
-    }
-    const roleChanged = dto.role !== undefined && dto.role !== user.role;
-    const deactivated = dto.active === false && user.active;
-    if (dto.displayName !== undefined) user.displayName = dto.displayName;
-    if (dto.role !== undefined) user.role = dto.role;
-    if (dto.active !== undefined) user.active = dto.active;
+    await this.get(id);
     return this.users.manager.transaction(async (tx) => {
+      const admins = (await tx.query(
+        `SELECT id FROM users WHERE role = 'admin' AND active ORDER BY id FOR UPDATE`,
+      )) as { id: number }[];
+      if (!admins.some((a) => a.id === actorId))
+        throw new ForbiddenException('You are no longer an active admin; reload the page');
+      const user = await tx
+        .getRepository(User)
+        .findOneOrFail({ where: { id }, lock: { mode: 'pessimistic_write' } });
+      const before = { displayName: user.displayName, role: user.role, active: user.active };
+      if (id === actorId && dto.role !== undefined && dto.role !== user.role) {
+        throw new ConflictException('You cannot change your own role; ask another admin');
+      }
+      if (id === actorId && dto.active === false) {
+        throw new ConflictException('You cannot deactivate yourself; ask another admin');
+      }
+      const roleChanged = dto.role !== undefined && dto.role !== user.role;
+      const deactivated = dto.active === false && user.active;
+      const losesAdmin =
+        user.role === 'admin' && user.active && ((roleChanged && dto.role !== 'admin') || deactivated);
+      if (losesAdmin && admins.length <= 1)
+        throw new ConflictException(
+          `${user.displayName} is the last active admin; make another user admin first`,
+        );
+      if (dto.displayName !== undefined) user.displayName = dto.displayName;
+      if (dto.role !== undefined) user.role = dto.role;
+      if (dto.active !== undefined) user.active = dto.active;
       const saved = await tx.getRepository(User).save(user);
       const changes: [string, string, unknown, unknown][] = [];
       if (before.role !== saved.role) changes.push(['role changed', 'role', before.role, saved.role]);
