@@ -8,6 +8,7 @@ import type { NextFunction, Request, Response } from 'express';
 import helmet from 'helmet';
 import { AllExceptionsFilter } from './common/http-exception.filter.js';
 import { checkJsonDepth, csrfGuard, RequestHygienePipe } from './common/request-hygiene.js';
+import { requestId } from './common/request-id.js';
 import { appConfig, type AppConfig } from './config/configuration.js';
 
 /**
@@ -42,6 +43,7 @@ export function configureApp(app: NestExpressApplication, clientDist: string | n
   const config = app.get<AppConfig>(appConfig.KEY);
   app.setGlobalPrefix('api');
   app.disable('x-powered-by');
+  app.use(requestId);
   app.use(SECURITY_HEADERS);
   app.use(cookieParser());
   // Nest's option type leaves out body-parser's `verify`, which Express passes through unchanged.

@@ -52,6 +52,20 @@ async function readyUser(role: 'engineer' | 'sales' = 'engineer') {
 
 const me = (cookie: string) => http().get('/api/auth/me').set('Cookie', cookie);
 
+describe('request ids', () => {
+  it('every answer names its request: a well-formed X-Request-Id is kept, anything else replaced', async () => {
+    const fresh = await http().get('/api/health');
+    expect(fresh.headers['x-request-id']).toMatch(
+      /^[0-9a-f]{8}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{12}$/,
+    );
+    const kept = await http().get('/api/health').set('X-Request-Id', 'proxy-0042-abcd');
+    expect(kept.headers['x-request-id']).toBe('proxy-0042-abcd');
+    const replaced = await http().get('/api/health').set('X-Request-Id', 'id with spaces <script>');
+    expect(replaced.headers['x-request-id']).toMatch(/^[0-9a-f]{8}-/);
+    expect(replaced.headers['x-request-id']).not.toBe(fresh.headers['x-request-id']);
+  });
+});
+
 describe('sessions end on the server', () => {
   it('sign-out ends the session: replaying its token gives 401, by cookie and as a bearer token', async () => {
     const user = await readyUser();

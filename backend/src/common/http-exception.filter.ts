@@ -1,7 +1,8 @@
 import { ArgumentsHost, Catch, ExceptionFilter, HttpException, HttpStatus, Logger } from '@nestjs/common';
-import type { Response } from 'express';
+import type { Request, Response } from 'express';
 import { OUTAGE_MESSAGES, isDatabaseOutage, isRedisOutage } from './outage.js';
 import { JsonTooDeepError } from './request-hygiene.js';
+import { requestIdOf } from './request-id.js';
 
 /** The one error shape of the API. */
 export interface ErrorBody {
@@ -11,6 +12,8 @@ export interface ErrorBody {
   details?: string[];
   /** With 429: how long to wait (also sent as Retry-After). */
   retryAfterSeconds?: number;
+  /** With 5xx: the request's id, as the server log names it (also the X-Request-Id header). */
+  requestId?: string;
 }
 
 const REASONS: Record<number, string> = {
@@ -31,15 +34,22 @@ export class AllExceptionsFilter implements ExceptionFilter {
   private readonly logger = new Logger('Errors');
 
   catch(exception: unknown, host: ArgumentsHost): void {
-    const res = host.switchToHttp().getResponse<Response>();
+    const http = host.switchToHttp();
+    const res = http.getResponse<Response>();
+    const req = http.getRequest<Request | undefined>();
     const body = toErrorBody(exception);
     if (body.retryAfterSeconds !== undefined) res.setHeader('Retry-After', String(body.retryAfterSeconds));
-    if (body.statusCode === 503) {
-      this.logger.warn(exception instanceof Error ? exception.message : String(exception));
-    } else if (body.statusCode >= 500) {
-      this.logger.error(
-        exception instanceof Error ? (exception.stack ?? exception.message) : String(exception),
-      );
+    if (body.statusCode >= 500) {
+      const id = req ? requestIdOf(req) : undefined;
+      const where = `${req?.method ?? '?'} ${req?.originalUrl?.split('?')[0] ?? '?'} [request ${id ?? '-'}]`;
+      if (body.statusCode === 503) {
+        this.logger.warn(`${where}: ${exception instanceof Error ? exception.message : String(exception)}`);
+      } else {
+        this.logger.error(
+          `${where}: ${exception instanceof Error ? (exception.stack ?? exception.message) : String(exception)}`,
+        );
+      }
+      if (id) body.requestId = id;
     }
     res.status(body.statusCode).json(body);
   }

@@ -9,11 +9,14 @@ interface ErrorAlertProps {
   sx?: SxProps<Theme>;
 }
 
-/** Shows an error's message, and the API's per-field details when it sent some. */
+/** Shows an error's message, the API's per-field details when it sent some, and a server error's reference. */
 export function ErrorAlert({ error, title, sx }: ErrorAlertProps) {
   if (error === null || error === undefined) return null;
   const message = error instanceof Error ? error.message : String(error);
   const details = error instanceof ApiError ? error.details.filter((d) => d !== message) : [];
+  // A server error names its request, so whoever reports it can point at the log entry.
+  const body = error instanceof ApiError ? (error.body as { requestId?: unknown } | undefined) : undefined;
+  const reference = typeof body?.requestId === 'string' ? body.requestId : null;
   return (
     <Alert severity="error" role="alert" sx={sx}>
       {title && <AlertTitle>{title}</AlertTitle>}
@@ -24,6 +27,11 @@ export function ErrorAlert({ error, title, sx }: ErrorAlertProps) {
             <li key={d}>{d}</li>
           ))}
         </ul>
+      )}
+      {reference && (
+        <div style={{ marginTop: 4, fontSize: '0.85em', opacity: 0.8 }}>
+          Reference for the shop's admin: {reference}
+        </div>
       )}
     </Alert>
   );
