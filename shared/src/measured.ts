@@ -5,7 +5,7 @@
  * passing.
  */
 import { OpticsInputError } from './optics/errors.js';
-import { bandWavelengthsNm, validateSpecMask, type LimitBand, type SpecMask } from './optics/mask.js';
+import { bandMargin, bandWavelengthsNm, validateSpecMask, type SpecMask } from './optics/mask.js';
 
 export interface MeasuredSpectrum {
   quantity: 'R' | 'T';
@@ -58,12 +58,6 @@ export function interpolate(xs: readonly number[], ys: readonly number[], x: num
   return ys[lo] + t * (ys[hi] - ys[lo]);
 }
 
-function margin(band: LimitBand, value: number): number {
-  if (band.max_percent !== undefined) return band.max_percent - value;
-  if (band.min_percent !== undefined) return value - band.min_percent;
-  return (band.tolerance_percent ?? 0) - Math.abs(value - (band.target_percent ?? 0));
-}
-
 /** Evaluates a measured spectrum against a mask, band by band (margins in percentage points). */
 export function evaluateMaskOnMeasured(mask: SpecMask, measured: MeasuredSpectrum): MeasuredMaskResult {
   const checked = validateSpecMask(mask);
@@ -99,7 +93,7 @@ export function evaluateMaskOnMeasured(mask: SpecMask, measured: MeasuredSpectru
     let at = { wavelengthNm: band.from_nm, valuePercent: NaN };
     for (const wl of bandWavelengthsNm(band)) {
       const value = interpolate(xs, ys, wl) as number;
-      const m = margin(band, value);
+      const m = bandMargin(band, value);
       if (m < worst) {
         worst = m;
         at = { wavelengthNm: wl, valuePercent: value };

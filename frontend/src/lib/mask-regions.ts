@@ -1,4 +1,4 @@
-import type { LimitBand } from '@quietglass/shared';
+import { bandAllowedRange, type LimitBand } from '@quietglass/shared';
 
 /** A forbidden rectangle of a spec mask on a plot of R or T (percent) against wavelength (nm). */
 export interface ForbiddenRegion {
@@ -45,13 +45,10 @@ export function forbiddenRegions(bands: readonly LimitBand[], topPercent = 100):
       if (highPercent > lowPercent)
         regions.push({ quantity: band.quantity, fromNm, toNm, lowPercent, highPercent, label });
     };
-    if (band.max_percent !== undefined) region(band.max_percent, topPercent);
-    else if (band.min_percent !== undefined) region(0, band.min_percent);
-    else if (band.target_percent !== undefined) {
-      const tolerance = band.tolerance_percent ?? 0;
-      region(0, band.target_percent - tolerance);
-      region(band.target_percent + tolerance, topPercent);
-    }
+    // Forbidden: below and above what the band allows (the engine's rule), up to the plot's top.
+    const [low, high] = bandAllowedRange(band);
+    region(0, low);
+    region(high, topPercent);
   }
   return regions;
 }

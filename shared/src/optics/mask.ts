@@ -229,6 +229,27 @@ function boundOf(band: LimitBand): Bound {
   return { kind: 'target', value: band.target_percent ?? 0, tolerance: band.tolerance_percent ?? 0 };
 }
 
+/**
+ * The margin of one value against a band's limit, percentage points: how far it is inside the
+ * allowed values (≥ 0 passes, < 0 is the violation). A maximum: limit − value; a minimum: value −
+ * limit; a target ± tolerance: tolerance − |value − target|. Every margin in the product (design,
+ * measured spectrum, report, optimisers' verdicts) is this one rule.
+ */
+export function bandMargin(band: LimitBand, valuePercent: number): number {
+  return marginOf(boundOf(band), valuePercent);
+}
+
+/** The values (percent) a band allows, [low, high]. */
+export function bandAllowedRange(band: LimitBand): [number, number] {
+  return allowed(boundOf(band));
+}
+
+function marginOf(bound: Bound, value: number): number {
+  if (bound.kind === 'max') return bound.value - value;
+  if (bound.kind === 'min') return value - bound.value;
+  return bound.tolerance - Math.abs(value - bound.value);
+}
+
 /** Interval of values (percent) a band allows. */
 function allowed(bound: Bound): [number, number] {
   if (bound.kind === 'max') return [0, bound.value];
@@ -434,18 +455,9 @@ export function evaluateMaskOnSpectrum(
           );
         }
         const value = 100 * values[(ip * nA + ia) * nW + iw];
-        let margin: number;
-        let deviation: number;
-        if (bound.kind === 'max') {
-          margin = bound.value - value;
-          deviation = Math.max(0, -margin);
-        } else if (bound.kind === 'min') {
-          margin = value - bound.value;
-          deviation = Math.max(0, -margin);
-        } else {
-          deviation = value - bound.value;
-          margin = bound.tolerance - Math.abs(deviation);
-        }
+        const margin = marginOf(bound, value);
+        // The merit's deviation: how far outside a one-sided limit, or off a target's centre.
+        const deviation = bound.kind === 'target' ? value - bound.value : Math.max(0, -margin);
         weightedSquares += weight * deviation * deviation;
         weightSum += weight;
         samples++;
