@@ -159,11 +159,25 @@ describe('compliance report PDF, read back with poppler-utils', () => {
     const long = sampleReport();
     long.summary.bands[0].label = 'visible range for the front surface of the customer’s lens';
     long.summary.bands[1].rule = `${long.summary.bands[1].rule} and more words that must wrap inside the column`;
-    for (const r of [sampleReport(), long, sampleReport({ layers: null })]) {
+    const measured = sampleReport();
+    measured.summary = { ...measured.summary, source: 'measured', pass: null };
+    Object.assign(measured.summary.bands[3], {
+      evaluated: false,
+      pass: null,
+      worstMargin: null,
+      worstAtNm: null,
+      worstAtDeg: null,
+      valuePercent: null,
+      reason: 'the measurement is R at 0°; this band is T',
+    });
+    for (const r of [sampleReport(), long, sampleReport({ layers: null }), measured]) {
       const words = wordBoxes(await renderReportPdf(r));
       expect(words.length).toBeGreaterThan(100);
       expect(overlappingWords(words).map(([a, b]) => `${a.text} × ${b.text}`)).toEqual([]);
     }
+    // The reason sits under the rule, in whole words: "measurement" is not broken in a narrow column.
+    const text = pageTexts(await renderReportPdf(measured)).join('\n');
+    expect(text).toMatch(/Not evaluated: the measurement/);
   });
 
   it('labels both axes of every plot with round, evenly spaced ticks (Heckbert 1990)', async () => {

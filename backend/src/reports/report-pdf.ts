@@ -453,14 +453,16 @@ export function renderReportPdf(r: ReportDocument): Promise<Buffer> {
     cols,
     r.summary.bands.map((b) => [
       String(b.band + 1),
-      b.label ? `${b.rule}\n${b.label}` : b.rule,
+      [b.rule, b.label, !b.evaluated && b.reason ? `Not evaluated: ${b.reason}` : '']
+        .filter(Boolean)
+        .join('\n'),
       b.angles,
       b.polarisation,
       fmt(b.valuePercent),
       fmt(b.worstAtNm, 1),
       b.worstAtDeg === undefined || b.worstAtDeg === null ? '—' : `${b.worstAtDeg}°`,
       fmt(b.worstMargin),
-      !b.evaluated ? `not evaluated${b.reason ? `: ${b.reason}` : ''}` : b.pass ? 'PASS' : 'FAIL',
+      !b.evaluated ? 'not evaluated' : b.pass ? 'PASS' : 'FAIL',
     ]),
     MARGIN,
     doc.y + 4,
