@@ -71,6 +71,7 @@ async function main() {
   ensureSystemPackages([
     ...(needsServices ? ['postgres', 'redis'] : []),
     ...(only.includes('browser') ? ['chromium'] : []),
+    ...(only.includes('backend') ? ['poppler'] : []),
   ]);
   const dataDir = path.resolve(process.env.QG_TEST_DATA_DIR ?? path.join(ROOT, '.data', 'test'));
   fs.mkdirSync(dataDir, { recursive: true });

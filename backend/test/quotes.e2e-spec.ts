@@ -6,6 +6,7 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { approvedDesign } from './support/approved.js';
 import { binary } from './support/binary.js';
 import { createTestApp, demoSession } from './support/app.js';
+import { overlappingWords, pagePngs, pageTexts, wordBoxes } from './support/pdf-pages.js';
 import { customerId, maskId, materialIds } from './support/fixtures.js';
 
 let app: NestExpressApplication;
@@ -82,11 +83,33 @@ describe('compliance reports', () => {
     expect(pdf.headers['content-type']).toBe('application/pdf');
     const text = await pdfText(pdf.body as Buffer);
     expect(text).toContain('Spec compliance report');
-    expect(text).toContain('HVS-2210 lens AR rev A');
-    expect(text).toContain(band.worstMargin.toFixed(3));
+    // Negative margins print with a true minus sign (U+2212).
+    expect(text).toContain(band.worstMargin.toFixed(3).replace('-', '−'));
     expect(text).toMatch(/FAIL/);
     expect(text).toContain('Designed values');
     expect(text).toContain('MgF2');
+
+    // Read back as a person would (poppler-utils): the header, the symbols, page numbers, no overlaps.
+    const pages = pageTexts(pdf.body as Buffer);
+    const first = pages[0];
+    const today = new Date().toISOString().slice(0, 10);
+    expect(first).toContain('Larkspur Thin Film Works');
+    expect(first).toMatch(/Customer\s+Halden Vision Systems/);
+    expect(first).toMatch(new RegExp(`Document no\\.\\s+CR-${String(res.body.id).padStart(6, '0')}`));
+    expect(first).toMatch(/Part \/ design\s+HVS lens AR/);
+    expect(first).toMatch(/Design version\s+1/);
+    expect(first).toMatch(/Spec mask\s+HVS-2210 lens AR/);
+    expect(first).toMatch(/Mask revision\s+A/);
+    // Approved by the reviewer of approvedDesign(), today.
+    expect(first).toMatch(/Approved by\s+Tomas Reyes/);
+    expect(first).toMatch(new RegExp(`Approved on\\s+${today}`));
+    expect(first).toMatch(/Values\s+Designed values/);
+    expect(pages.join('\n')).toContain(band.rule);
+    expect(band.rule).toMatch(/^R ≤ 0\.5 % over \d+–\d+ nm$/);
+    pages.forEach((p, i) => expect(p).toContain(`Page ${i + 1} of ${pages.length}`));
+    expect(overlappingWords(wordBoxes(pdf.body as Buffer))).toEqual([]);
+    const png = pagePngs(pdf.body as Buffer)[0];
+    expect(png.subarray(1, 4).toString('latin1')).toBe('PNG');
   });
 
   it('hides the layer table when asked', async () => {

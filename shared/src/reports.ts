@@ -14,6 +14,8 @@ export interface ReportBandRow {
   /** Percentage points inside (+) or outside (−) the limit at the worst point. */
   worstMargin: number | null;
   worstAtNm: number | null;
+  /** Angle of incidence of the worst point, degrees (absent in reports made before it was kept). */
+  worstAtDeg?: number | null;
   valuePercent: number | null;
   /** Why a band was not evaluated (measured spectra cover one angle and quantity). */
   reason?: string;

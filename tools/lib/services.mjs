@@ -56,13 +56,15 @@ export function findPostgresBin() {
 /**
  * Make sure the Debian packages behind the given needs are installed. As root with apt, installs
  * what is missing; otherwise stops with a message naming the packages to install.
- * @param {Array<'postgres'|'redis'|'chromium'>} needs
+ * @param {Array<'postgres'|'redis'|'chromium'|'poppler'>} needs
  */
 export function ensureSystemPackages(needs) {
   const missing = [];
   if (needs.includes('postgres') && !findPostgresBin()) missing.push('postgresql');
   if (needs.includes('redis') && !which('redis-server')) missing.push('redis-server');
   if (needs.includes('chromium') && !fs.existsSync('/usr/bin/chromium')) missing.push('chromium');
+  // pdftotext and pdftoppm: the backend tests read compliance-report PDFs back as text and images.
+  if (needs.includes('poppler') && !(which('pdftotext') && which('pdftoppm'))) missing.push('poppler-utils');
   if (missing.length === 0) return;
   if (!isRoot || !which('apt-get')) {
     throw new StartupError(

@@ -65,6 +65,7 @@ function designedSummary(
     pass: b.pass,
     worstMargin: b.worstMargin,
     worstAtNm: b.worstAt.wavelengthNm,
+    worstAtDeg: b.worstAt.angleDeg,
     valuePercent: b.worstAt.valuePercent,
   }));
   return {

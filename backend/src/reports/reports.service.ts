@@ -13,11 +13,12 @@ import type { ReportBandRow, ReportSummary } from '@quietglass/shared/reports';
 import { appConfig, type AppConfig } from '../config/configuration.js';
 import { Design } from '../designs/design.entity.js';
 import { DesignVersion } from '../designs/design-version.entity.js';
+import { VersionEvent } from '../designs/version-event.entity.js';
 import { ChamberRun, RunSpectrum } from '../runs/run.entity.js';
 import { SpecMaskRecord } from '../spec-masks/spec-mask.entity.js';
 import type { User } from '../users/user.entity.js';
 import type { CreateReportDto } from './dto/report.dto.js';
-import { renderReportPdf, type PlotSeries } from './report-pdf.js';
+import { documentNumber, renderReportPdf, type PlotSeries } from './report-pdf.js';
 import { ComplianceReport } from './report.entity.js';
 import { colourOf, computeDesignedOffThread, rule } from './report-compute.js';
 
@@ -78,38 +79,59 @@ export class ReportsService {
     const statement = measured
       ? `Measured values: ${measured.sample} of run ${dto.runId}, lot ${measured.lot}, ${measured.quantity} at ${measured.angleDeg}° (file ${measured.filename}). Bands at other angles or quantities are not evaluated from this measurement.`
       : 'Designed values: computed from the approved design (characteristic-matrix method, unpolarised light unless a band says otherwise, thick substrate as the design specifies). They are not measurements of a coated part.';
-    const pdf = await renderReportPdf({
-      shop: this.config.shopName,
-      customer: design.customer.name,
-      part: design.name,
-      version: version.number,
-      mask: `${mask.name} rev ${mask.revision}`,
-      date,
-      statement,
-      plots,
-      summary,
-      layers: dto.hideLayers
-        ? null
-        : version.layers.map((l) => ({
-            material: snapshot[String(l.materialId)]?.name ?? `#${l.materialId}`,
-            thicknessNm: l.thicknessNm,
-          })),
-    });
-    const repo = this.db.getRepository(ComplianceReport);
-    const saved = await repo.save(
-      repo.create({
+    const approval = await this.db.getRepository(VersionEvent).findOne({
+      where: {
         designId: dto.designId,
         versionNumber: dto.versionNumber,
-        specMaskId: maskId,
-        hideLayers: dto.hideLayers ?? false,
-        runId: dto.runId ?? null,
-        spectrumId: dto.spectrumId ?? null,
+        toStatus: 'approved',
+        kind: 'status',
+      },
+      order: { at: 'DESC', id: 'DESC' },
+    });
+    const layers = dto.hideLayers
+      ? null
+      : version.layers.map((l) => ({
+          material: snapshot[String(l.materialId)]?.name ?? `#${l.materialId}`,
+          thicknessNm: l.thicknessNm,
+        }));
+    // The document number comes from the report's id: the row is written first and its PDF added
+    // in the same transaction, so no report is ever seen without one.
+    const id = await this.db.transaction(async (tx) => {
+      const repo = tx.getRepository(ComplianceReport);
+      const saved = await repo.save(
+        repo.create({
+          designId: dto.designId,
+          versionNumber: dto.versionNumber,
+          specMaskId: maskId,
+          hideLayers: dto.hideLayers ?? false,
+          runId: dto.runId ?? null,
+          spectrumId: dto.spectrumId ?? null,
+          summary,
+          pdf: Buffer.alloc(0),
+          createdBy: user,
+        }),
+      );
+      const pdf = await renderReportPdf({
+        shop: this.config.shopName,
+        documentNumber: documentNumber(saved.id),
+        customer: design.customer.name,
+        part: design.name,
+        version: version.number,
+        approval: approval
+          ? { by: approval.actor.displayName, on: approval.at.toISOString().slice(0, 10) }
+          : null,
+        mask: mask.name,
+        maskRevision: mask.revision,
+        date,
+        statement,
+        plots,
         summary,
-        pdf,
-        createdBy: user,
-      }),
-    );
-    return this.get(saved.id);
+        layers,
+      });
+      await repo.update(saved.id, { pdf });
+      return saved.id;
+    });
+    return this.get(id);
   }
 
   list(designId?: number): Promise<ComplianceReport[]> {
@@ -179,6 +201,7 @@ export class ReportsService {
       pass: b.pass ?? null,
       worstMargin: b.worstMargin ?? null,
       worstAtNm: b.worstAt?.wavelengthNm ?? null,
+      worstAtDeg: b.worstAt ? m.angleDeg : null,
       valuePercent: b.worstAt?.valuePercent ?? null,
       ...(b.reason ? { reason: b.reason } : {}),
     }));
