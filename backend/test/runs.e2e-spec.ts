@@ -109,6 +109,19 @@ describe('chamber runs', () => {
     expect(after.body.layerReadings).toEqual([
       { step: 1, monitorThicknessNm: 82.1, rateNmPerS: 0.5, notes: 'stable' },
     ]);
+    // Saving the same readings again is recorded as a save without changes (whatever key order
+    // the database hands the stored readings back in).
+    const same = await http()
+      .put(`/api/runs/${id}`)
+      .set('Cookie', operator)
+      .send({
+        version: 2,
+        layerReadings: [{ step: 1, monitorThicknessNm: 82.1, rateNmPerS: 0.5, notes: 'stable' }],
+      });
+    expect(same.status).toBe(200);
+    const admin = await demoSession(app, 'admin');
+    const audit = await http().get(`/api/audit?entity=run&entityId=${id}`).set('Cookie', admin);
+    expect(audit.body[0].summary).toBe('run of lot L-2026-118 saved without changes');
   });
 
   it('refuses a run of a recipe that is not released', async () => {

@@ -16,6 +16,7 @@ import { AuditService } from '../audit/audit.service.js';
 import { problemDetails } from '../common/csv.js';
 import { missingAsBadRequest, orNull } from '../common/not-found.js';
 import { updateIfVersion } from '../common/optimistic-lock.js';
+import { stableStringify } from '../common/stable-json.js';
 import { ChambersService } from '../chambers/chambers.service.js';
 import { RecipesService } from '../designs/recipes.service.js';
 import type { DesignVersion } from '../designs/design-version.entity.js';
@@ -106,7 +107,8 @@ export class RunsService {
     if (dto.durability) set.durability = dto.durability.map((d) => ({ ...d }));
     if (dto.notes !== undefined) set.notes = dto.notes;
     const changed = (Object.keys(set) as (keyof typeof set)[]).filter(
-      (k) => JSON.stringify(set[k]) !== JSON.stringify(run[k]),
+      // jsonb hands keys back in its own order: compare key-order-independent.
+      (k) => stableStringify(set[k]) !== stableStringify(run[k]),
     );
     await this.db.transaction(async (tx) => {
       await updateIfVersion(tx, ChamberRun, { id, expectedVersion: dto.version, set }, async () => {
