@@ -9,6 +9,7 @@ import type {
   NamedModel,
 } from '@quietglass/shared/designs';
 import { AuditService } from '../audit/audit.service.js';
+import { missingAsBadRequest } from '../common/not-found.js';
 import { updateIfVersion } from '../common/optimistic-lock.js';
 import { CustomersService } from '../customers/customers.service.js';
 import { MaterialsService } from '../materials/materials.service.js';
@@ -94,9 +95,10 @@ export class DesignsService {
 
   /** A new design with its first version as a draft. */
   async create(dto: CreateDesignDto, author: User): Promise<DesignView> {
-    const customer = await this.customers.get(dto.customerId).catch(() => {
-      throw new BadRequestException({ message: [`customerId: customer ${dto.customerId} does not exist`] });
-    });
+    const customer = await missingAsBadRequest(
+      this.customers.get(dto.customerId),
+      `customerId: customer ${dto.customerId} does not exist`,
+    );
     await this.checkMaterials(dto);
     await this.checkMask(dto.specMaskId ?? null, customer.id);
     const id = await this.db.transaction(async (tx) => {
@@ -288,9 +290,10 @@ export class DesignsService {
   /** A design's spec mask must exist and belong to the design's customer. */
   private async checkMask(specMaskId: number | null, customerId: number): Promise<void> {
     if (specMaskId === null) return;
-    const mask = await this.masks.get(specMaskId).catch(() => {
-      throw new BadRequestException({ message: [`specMaskId: spec mask ${specMaskId} does not exist`] });
-    });
+    const mask = await missingAsBadRequest(
+      this.masks.get(specMaskId),
+      `specMaskId: spec mask ${specMaskId} does not exist`,
+    );
     if (mask.customer.id !== customerId) {
       throw new BadRequestException({
         message: [

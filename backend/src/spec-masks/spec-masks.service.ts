@@ -6,6 +6,7 @@ import { OpticsInputError } from '@quietglass/shared/optics/errors';
 import { nextRevision } from '@quietglass/shared/revisions';
 import { AuditService } from '../audit/audit.service.js';
 import { isUniqueViolation } from '../common/db-errors.js';
+import { missingAsBadRequest } from '../common/not-found.js';
 import { updateIfVersion } from '../common/optimistic-lock.js';
 import type { User } from '../users/user.entity.js';
 import { CustomersService } from '../customers/customers.service.js';
@@ -169,9 +170,7 @@ export class SpecMasksService {
   }
 
   private async customer(id: number) {
-    return this.customers.get(id).catch(() => {
-      throw new BadRequestException({ message: [`customerId: customer ${id} does not exist`] });
-    });
+    return missingAsBadRequest(this.customers.get(id), `customerId: customer ${id} does not exist`);
   }
 
   private async unique<T>(m: { name: string; revision: string }, write: () => Promise<T>): Promise<T> {
