@@ -3,6 +3,7 @@ import { NestFactory } from '@nestjs/core';
 import type { NestExpressApplication } from '@nestjs/platform-express';
 import { AppModule } from './app.module.js';
 import { configureApp } from './app.setup.js';
+import { ContextLogger, logFormatFromEnv } from './common/log-context.js';
 import { installProcessGuards } from './common/process-guards.js';
 import { loadConfig } from './config/configuration.js';
 
@@ -12,7 +13,11 @@ async function main(): Promise<void> {
   const quiet = process.env.NODE_ENV === 'production' || process.env.NODE_ENV === 'test';
   const app = await NestFactory.create<NestExpressApplication>(AppModule, {
     bodyParser: false,
-    logger: quiet ? ['error', 'warn'] : ['error', 'warn', 'log'],
+    logger: new ContextLogger(
+      'Api',
+      logFormatFromEnv(),
+      quiet ? ['error', 'warn'] : ['error', 'warn', 'log'],
+    ),
   });
   configureApp(app, config.clientDist);
   installProcessGuards('Api', () => app.close());

@@ -1,5 +1,6 @@
 import { randomUUID } from 'node:crypto';
 import type { NextFunction, Request, Response } from 'express';
+import { withLogFields } from './log-context.js';
 
 /** The response header (and accepted request header) that names one request in the logs. */
 export const REQUEST_ID_HEADER = 'x-request-id';
@@ -14,13 +15,14 @@ export function requestIdOf(req: Request): string | undefined {
 
 /**
  * Gives every request an id (the caller's `X-Request-Id` when it is well formed, else a new
- * UUID), answers it in the same header, and makes it available to the error filter, so an error a
- * user reports can be found in the server log.
+ * UUID), answers it in the same header, and makes it available to the error filter and to every
+ * log line written while the request is handled, so an error a user reports can be found in the
+ * server log.
  */
 export function requestId(req: Request, res: Response, next: NextFunction): void {
   const given = req.header(REQUEST_ID_HEADER);
   const id = given && ACCEPTED.test(given) ? given : randomUUID();
   (req as Request & { requestId?: string }).requestId = id;
   res.setHeader(REQUEST_ID_HEADER, id);
-  next();
+  withLogFields({ requestId: id }, next);
 }

@@ -152,6 +152,14 @@ export class ApprovalsService {
     }
   }
 
+  /** The latest approval of a version, or null when it was never approved. */
+  lastApproval(designId: number, versionNumber: number): Promise<VersionEvent | null> {
+    return this.db.getRepository(VersionEvent).findOne({
+      where: { designId, versionNumber, toStatus: 'approved', kind: 'status' },
+      order: { at: 'DESC', id: 'DESC' },
+    });
+  }
+
   history(designId: number): Promise<VersionEvent[]> {
     return this.db.getRepository(VersionEvent).find({ where: { designId }, order: { at: 'ASC', id: 'ASC' } });
   }

@@ -1,6 +1,6 @@
 import { BadRequestException, ConflictException, Injectable, NotFoundException } from '@nestjs/common';
 import { InjectDataSource } from '@nestjs/typeorm';
-import { DataSource, In } from 'typeorm';
+import { DataSource } from 'typeorm';
 import { isApprovedForCustomers } from '@quietglass/shared/designs';
 import type { QuoteStatus } from '@quietglass/shared/quotes';
 import { AuditService } from '../audit/audit.service.js';
@@ -9,7 +9,6 @@ import { updateIfVersion } from '../common/optimistic-lock.js';
 import { CustomersService } from '../customers/customers.service.js';
 import { DesignsService } from '../designs/designs.service.js';
 import { MailService } from '../mail/mail.service.js';
-import { ComplianceReport } from '../reports/report.entity.js';
 import { ReportsService } from '../reports/reports.service.js';
 import { SpecMasksService } from '../spec-masks/spec-masks.service.js';
 import type { User } from '../users/user.entity.js';
@@ -106,7 +105,7 @@ export class QuotesService {
     const quote = await this.get(id);
     if (quote.status !== 'draft')
       throw new ConflictException(`Quote ${id} is ${quote.status}; attach reports to a draft`);
-    const found = await this.db.getRepository(ComplianceReport).findBy({ id: In(reportIds) });
+    const found = await this.reports.summaries(reportIds);
     const problems = reportIds.flatMap((rid) => {
       const r = found.find((x) => x.id === rid);
       if (!r) return [`report ${rid} does not exist`];

@@ -11,11 +11,13 @@ import { validateSpecMask, type LimitBand } from '@quietglass/shared/optics/mask
 import { parseStack } from '@quietglass/shared/optics/stack';
 import type { ReportBandRow, ReportSummary } from '@quietglass/shared/reports';
 import { appConfig, type AppConfig } from '../config/configuration.js';
-import { Design } from '../designs/design.entity.js';
-import { DesignVersion } from '../designs/design-version.entity.js';
-import { VersionEvent } from '../designs/version-event.entity.js';
-import { ChamberRun, RunSpectrum } from '../runs/run.entity.js';
-import { SpecMaskRecord } from '../spec-masks/spec-mask.entity.js';
+import { missingAsBadRequest, orNull } from '../common/not-found.js';
+import type { Design } from '../designs/design.entity.js';
+import { ApprovalsService } from '../designs/approvals.service.js';
+import { DesignsService } from '../designs/designs.service.js';
+import type { RunSpectrum } from '../runs/run.entity.js';
+import { RunsService } from '../runs/runs.service.js';
+import { SpecMasksService } from '../spec-masks/spec-masks.service.js';
 import type { User } from '../users/user.entity.js';
 import type { CreateReportDto } from './dto/report.dto.js';
 import { documentNumber, renderReportPdf, type PlotSeries } from './report-pdf.js';
@@ -27,15 +29,15 @@ export class ReportsService {
   constructor(
     @InjectDataSource() private readonly db: DataSource,
     @Inject(appConfig.KEY) private readonly config: AppConfig,
+    private readonly designs: DesignsService,
+    private readonly approvals: ApprovalsService,
+    private readonly masks: SpecMasksService,
+    private readonly runs: RunsService,
   ) {}
 
   /** Computes the compliance of a version against a mask, renders the PDF and stores both. */
   async create(dto: CreateReportDto, user: User): Promise<ComplianceReport> {
-    const version = await this.db.getRepository(DesignVersion).findOne({
-      where: { designId: dto.designId, number: dto.versionNumber },
-      relations: { design: true },
-    });
-    if (!version) throw new NotFoundException(`Design ${dto.designId} has no version ${dto.versionNumber}`);
+    const version = await this.designs.findVersion(dto.designId, dto.versionNumber);
     if (!isApprovedForCustomers(version.status)) {
       throw new BadRequestException({
         message: [
@@ -47,8 +49,10 @@ export class ReportsService {
     const maskId = dto.specMaskId ?? design.specMaskId;
     if (!maskId)
       throw new BadRequestException({ message: ['specMaskId: the design has no spec mask; choose one'] });
-    const mask = await this.db.getRepository(SpecMaskRecord).findOneBy({ id: maskId });
-    if (!mask) throw new BadRequestException({ message: [`specMaskId: spec mask ${maskId} does not exist`] });
+    const mask = await missingAsBadRequest(
+      this.masks.get(maskId),
+      `specMaskId: spec mask ${maskId} does not exist`,
+    );
     if (mask.customer.id !== design.customer.id) {
       throw new BadRequestException({
         message: [`specMaskId: spec mask ${maskId} belongs to another customer`],
@@ -79,15 +83,7 @@ export class ReportsService {
     const statement = measured
       ? `Measured values: ${measured.sample} of run ${dto.runId}, lot ${measured.lot}, ${measured.quantity} at ${measured.angleDeg}° (file ${measured.filename}). Bands at other angles or quantities are not evaluated from this measurement.`
       : 'Designed values: computed from the approved design (characteristic-matrix method, unpolarised light unless a band says otherwise, thick substrate as the design specifies). They are not measurements of a coated part.';
-    const approval = await this.db.getRepository(VersionEvent).findOne({
-      where: {
-        designId: dto.designId,
-        versionNumber: dto.versionNumber,
-        toStatus: 'approved',
-        kind: 'status',
-      },
-      order: { at: 'DESC', id: 'DESC' },
-    });
+    const approval = await this.approvals.lastApproval(dto.designId, dto.versionNumber);
     const layers = dto.hideLayers
       ? null
       : version.layers.map((l) => ({
@@ -157,6 +153,17 @@ export class ReportsService {
   }
 
   /** PDFs of several reports (for e-mail), all of which must exist. */
+  /** The reports with these ids that exist, without their PDFs. */
+  summaries(ids: number[]): Promise<ComplianceReport[]> {
+    if (ids.length === 0) return Promise.resolve([]);
+    return this.db
+      .getRepository(ComplianceReport)
+      .find({
+        where: { id: In(ids) },
+        select: { id: true, designId: true, versionNumber: true, specMaskId: true },
+      });
+  }
+
   async pdfs(ids: number[]): Promise<{ id: number; pdf: Buffer }[]> {
     if (ids.length === 0) return [];
     const rows = await this.db
@@ -171,7 +178,7 @@ export class ReportsService {
         message: ['runId and spectrumId go together: name the run and its spectrum'],
       });
     }
-    const run = await this.db.getRepository(ChamberRun).findOneBy({ id: dto.runId });
+    const run = await orNull(this.runs.get(dto.runId));
     if (!run || run.designId !== dto.designId || run.versionNumber !== dto.versionNumber) {
       throw new BadRequestException({
         message: [
@@ -179,13 +186,10 @@ export class ReportsService {
         ],
       });
     }
-    const spectrum = await this.db
-      .getRepository(RunSpectrum)
-      .findOneBy({ id: dto.spectrumId, runId: dto.runId });
-    if (!spectrum)
-      throw new BadRequestException({
-        message: [`spectrumId: run ${dto.runId} has no spectrum ${dto.spectrumId}`],
-      });
+    const spectrum = await missingAsBadRequest(
+      this.runs.spectrum(dto.runId, dto.spectrumId),
+      `spectrumId: run ${dto.runId} has no spectrum ${dto.spectrumId}`,
+    );
     return { ...spectrum, lot: run.lotNumber };
   }
 

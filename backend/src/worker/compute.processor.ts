@@ -1,14 +1,14 @@
 import os from 'node:os';
 import { Logger, type OnModuleDestroy, type OnModuleInit } from '@nestjs/common';
 import { OnWorkerEvent, Processor, WorkerHost } from '@nestjs/bullmq';
-import { InjectDataSource } from '@nestjs/typeorm';
 import { UnrecoverableError, type Job } from 'bullmq';
-import { DataSource } from 'typeorm';
 import { SpectrumWorkerPool } from '@quietglass/shared/node/parallel';
 import type { AnalysisInput, AnalysisSummary } from '@quietglass/shared/analysis';
 import { YieldWorkerPool } from '@quietglass/shared/node/yield-parallel';
 import { parseStack } from '@quietglass/shared/optics/stack';
 import { AnalysisCancelled, runAnalysis } from '../calculations/analysis-runner.js';
+import { CalculationStore } from '../calculations/calculation-store.js';
+import { withLogFields } from '../common/log-context.js';
 import type { OptimiseInput, ProgressMessage, YieldInput } from '../calculations/optimise-jobs.js';
 import { runInThread } from './optimise-runner.js';
 import { isOutage } from '../common/outage.js';
@@ -42,7 +42,7 @@ export class ComputeProcessor extends WorkerHost implements OnModuleInit, OnModu
   private pool: Promise<SpectrumWorkerPool> | null = null;
   private readonly me = `${os.hostname()}:${process.pid}`;
 
-  constructor(@InjectDataSource() private readonly db: DataSource) {
+  constructor(private readonly store: CalculationStore) {
     super();
   }
 
@@ -68,7 +68,12 @@ export class ComputeProcessor extends WorkerHost implements OnModuleInit, OnModu
 
   private yieldPool: Promise<YieldWorkerPool> | null = null;
 
-  async process(job: Job<ComputeJobData>): Promise<{ calculationId: number; outcome: string }> {
+  /** Every log line written while a job runs names the job and its calculation. */
+  process(job: Job<ComputeJobData>): Promise<{ calculationId: number; outcome: string }> {
+    return withLogFields({ jobId: job.id, calculationId: job.data.calculationId }, () => this.run(job));
+  }
+
+  private async run(job: Job<ComputeJobData>): Promise<{ calculationId: number; outcome: string }> {
     const id = job.data.calculationId;
     try {
       if (job.name === ANALYSIS_JOB) return await this.analysis(job);
@@ -109,15 +114,6 @@ export class ComputeProcessor extends WorkerHost implements OnModuleInit, OnModu
     }
   }
 
-  /** A progress write that may be lost in an outage: the job goes on without it. */
-  private async note(sql: string, params: unknown[]): Promise<void> {
-    try {
-      await this.db.query(sql, params);
-    } catch (err) {
-      if (!isOutage(err)) throw err;
-    }
-  }
-
   /**
    * Polls the calculation's status; the signal aborts once it is no longer running (cancelled).
    * An outage is not a cancellation: the poll just tries again.
@@ -129,10 +125,10 @@ export class ComputeProcessor extends WorkerHost implements OnModuleInit, OnModu
       () => {
         if (busy || controller.signal.aborted) return;
         busy = true;
-        this.db
-          .query('SELECT status FROM calculations WHERE id = $1', [id])
-          .then((rows: { status: string }[]) => {
-            if (rows[0]?.status !== 'running') controller.abort();
+        this.store
+          .isRunning(id)
+          .then((running) => {
+            if (!running) controller.abort();
           })
           .catch(() => undefined)
           .finally(() => (busy = false));
@@ -168,11 +164,7 @@ export class ComputeProcessor extends WorkerHost implements OnModuleInit, OnModu
               ...(p.iteration !== undefined ? { iteration: p.iteration } : {}),
               ...(p.layerCount !== undefined ? { layerCount: p.layerCount } : {}),
             };
-            await this.note(
-              `UPDATE calculations SET progress = $2, live = jsonb_set(coalesce(live, '{"history": []}'), '{history}', coalesce(live->'history', '[]') || $3::jsonb)
-               WHERE id = $1 AND status = 'running'`,
-              [id, p.fraction, JSON.stringify([point])],
-            );
+            await this.store.progressWithPoint(id, p.fraction, point);
             return !watch.signal.aborted;
           },
           watch.signal,
@@ -186,13 +178,9 @@ export class ComputeProcessor extends WorkerHost implements OnModuleInit, OnModu
       watch.stop();
     }
     if (result === null) return { calculationId: id, outcome: 'cancelled' };
+    const computeMs = performance.now() - started;
     await this.persist(`storing calculation ${id}`, () =>
-      this.db.query(
-        `UPDATE calculations SET status = 'completed', progress = 1, summary = $2, finished_at = now(), compute_ms = $3,
-           processed_by = $4, completed_count = completed_count + 1
-         WHERE id = $1 AND status = 'running' AND completed_count = 0`,
-        [id, JSON.stringify(result), performance.now() - started, this.me],
-      ),
+      this.store.complete(id, result, computeMs, this.me),
     );
     return { calculationId: id, outcome: 'completed' };
   }
@@ -227,10 +215,9 @@ export class ComputeProcessor extends WorkerHost implements OnModuleInit, OnModu
           onProgress: (fraction) => {
             // Fire and forget, but never a rejection left unhandled.
             job.updateProgress(Math.round(fraction * 100)).catch(() => undefined);
-            this.note(`UPDATE calculations SET progress = $2 WHERE id = $1 AND status = 'running'`, [
-              id,
-              fraction,
-            ]).catch((err: unknown) => this.logger.warn(`calculation ${id} progress: ${String(err)}`));
+            this.store
+              .progress(id, fraction)
+              .catch((err: unknown) => this.logger.warn(`calculation ${id} progress: ${String(err)}`));
             return !signal.aborted;
           },
         },
@@ -257,22 +244,12 @@ export class ComputeProcessor extends WorkerHost implements OnModuleInit, OnModu
       .catch((err: unknown) => this.logger.warn(`calculation ${id}: stopping threads: ${String(err)}`));
   }
 
-  private async claim(id: number): Promise<{ input: unknown } | null> {
-    const claimed = (await this.db.query(
-      `UPDATE calculations SET status = 'running', started_at = now(), attempts = attempts + 1, processed_by = $2
-       WHERE id = $1 AND status IN ('queued', 'running') RETURNING input`,
-      [id, this.me],
-    )) as [{ input: unknown }[], number];
-    return claimed[0][0] ?? null;
+  private claim(id: number): Promise<{ input: unknown } | null> {
+    return this.store.claim(id, this.me);
   }
 
   private async fail(id: number, message: string): Promise<void> {
-    await this.persist(`marking calculation ${id} failed`, () =>
-      this.db.query(
-        `UPDATE calculations SET status = 'failed', error = $2, finished_at = now() WHERE id = $1 AND status = 'running'`,
-        [id, message],
-      ),
-    );
+    await this.persist(`marking calculation ${id} failed`, () => this.store.fail(id, message));
     this.logger.warn(`calculation ${id} failed: ${message}`);
   }
 
@@ -301,10 +278,7 @@ export class ComputeProcessor extends WorkerHost implements OnModuleInit, OnModu
       outcome = await runAnalysis(input, threads, {
         onProgress: async (fraction) => {
           await job.updateProgress(Math.round(fraction * 100)).catch(() => undefined);
-          await this.note(`UPDATE calculations SET progress = $2 WHERE id = $1 AND status = 'running'`, [
-            id,
-            fraction,
-          ]);
+          await this.store.progress(id, fraction);
         },
         isCancelled: () => Promise.resolve(watch.signal.aborted),
       });
@@ -319,18 +293,7 @@ export class ComputeProcessor extends WorkerHost implements OnModuleInit, OnModu
     const { summary, values } = outcome;
     const computeMs = performance.now() - started;
     await this.persist(`storing calculation ${id}`, () =>
-      this.db.query(
-        `UPDATE calculations SET status = 'completed', progress = 1, summary = $2, values = $3, finished_at = now(),
-           compute_ms = $4, processed_by = $5, completed_count = completed_count + 1
-         WHERE id = $1 AND status = 'running' AND completed_count = 0`,
-        [
-          id,
-          JSON.stringify(summary),
-          Buffer.from(values.buffer, values.byteOffset, values.byteLength),
-          computeMs,
-          this.me,
-        ],
-      ),
+      this.store.completeAnalysis(id, summary, values, computeMs, this.me),
     );
     return { calculationId: id, outcome: 'completed' };
   }

@@ -4,6 +4,7 @@ import { TypeOrmModule } from '@nestjs/typeorm';
 import { appConfig, type AppConfig } from '../config/configuration.js';
 import { dataSourceOptions } from '../database/data-source.js';
 import { QueueModule } from '../queue/queue.module.js';
+import { CalculationStore } from '../calculations/calculation-store.js';
 import { ComputeProcessor } from './compute.processor.js';
 import { SystemProcessor } from './system.processor.js';
 
@@ -17,6 +18,6 @@ import { SystemProcessor } from './system.processor.js';
     }),
     QueueModule,
   ],
-  providers: [SystemProcessor, ComputeProcessor],
+  providers: [SystemProcessor, ComputeProcessor, CalculationStore],
 })
 export class WorkerModule {}
