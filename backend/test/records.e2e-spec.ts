@@ -242,6 +242,68 @@ describe('customer-visible facts are revisioned', () => {
     expect(audit[0].summary).toMatch(/rev A → rev B/);
   });
 
+  it('a mask stays in use once a version was submitted against it, also after the design moves to another mask or the version is returned', async () => {
+    const first = created(
+      await http()
+        .post('/api/spec-masks')
+        .set('Cookie', sales)
+        .send(maskBody(unique('First mask'))),
+    );
+    const second = created(
+      await http()
+        .post('/api/spec-masks')
+        .set('Cookie', sales)
+        .send(maskBody(unique('Second mask'))),
+    );
+    const design = await http()
+      .post('/api/designs')
+      .set('Cookie', mira)
+      .send({ ...twoLayerDesign(m, orrin, unique('Moving mask AR')), specMaskId: first.id });
+    expect(design.status, JSON.stringify(design.body)).toBe(201);
+    const id = design.body.id as number;
+    const submit = await http()
+      .post(`/api/designs/${id}/versions/1/submit`)
+      .set('Cookie', mira)
+      .send({ rowVersion: 1 });
+    expect(submit.status, JSON.stringify(submit.body)).toBe(201);
+    const returned = await http()
+      .post(`/api/designs/${id}/versions/1/return`)
+      .set('Cookie', tomas)
+      .send({ comment: 'thicker outer layer, please' });
+    expect(returned.status, JSON.stringify(returned.body)).toBe(201);
+    const moved = await http()
+      .patch(`/api/designs/${id}`)
+      .set('Cookie', mira)
+      .send({ specMaskId: second.id, version: design.body.version });
+    expect(moved.status, JSON.stringify(moved.body)).toBe(200);
+
+    const edit = async (mask: { id: number }, maxPercent: number) => {
+      const now = (await http().get(`/api/spec-masks/${mask.id}`).set('Cookie', sales)).body;
+      const res = await http()
+        .put(`/api/spec-masks/${mask.id}`)
+        .set('Cookie', sales)
+        .send({ ...maskBody(now.name as string, maxPercent), version: now.version });
+      expect(res.status, JSON.stringify(res.body)).toBe(200);
+      return res.body as { id: number; revision: string };
+    };
+    // The returned version was submitted against the first mask: that stays a fact.
+    const firstB = await edit(first, 3);
+    expect(firstB.revision).toBe('B');
+    expect(firstB.id).not.toBe(first.id);
+    // Nothing was submitted against the second mask yet: still edited in place …
+    expect(await edit(second, 3)).toMatchObject({ id: second.id, revision: 'A' });
+    // … until the version is submitted again.
+    const version = (await http().get(`/api/designs/${id}/versions/1`).set('Cookie', mira)).body;
+    const again = await http()
+      .post(`/api/designs/${id}/versions/1/submit`)
+      .set('Cookie', mira)
+      .send({ rowVersion: version.rowVersion });
+    expect(again.status, JSON.stringify(again.body)).toBe(201);
+    const revised = await edit(second, 2);
+    expect(revised.id).not.toBe(second.id);
+    expect(revised.revision).toBe('B');
+  });
+
   it('a mask nobody used yet is edited in place', async () => {
     const mask = created(
       await http()

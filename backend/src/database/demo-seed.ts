@@ -210,5 +210,12 @@ async function seedReleasedDesign(db: DataSource, demo: (typeof DEMO_DESIGNS)[nu
         .getRepository(VersionEvent)
         .insert({ designId: design.id, versionNumber: 1, fromStatus, toStatus, actor, comment: '' });
     }
+    // What a submit records through the materials and spec-mask services.
+    await tx.query(
+      `INSERT INTO material_uses (material_id, design_id, version_number)
+       SELECT DISTINCT unnest($1::int[]), $2::int, 1 ON CONFLICT DO NOTHING`,
+      [[incident, substrate, ...layerMaterials].map((m) => m.id), design.id],
+    );
+    await tx.query('UPDATE spec_masks SET in_use_since = now() WHERE id = $1', [mask.id]);
   });
 }

@@ -4,6 +4,8 @@ import { DataSource, type EntityManager } from 'typeorm';
 import type { DesignVersionView, VersionStatus } from '@quietglass/shared/designs';
 import { AuditService } from '../audit/audit.service.js';
 import { updateIfVersion } from '../common/optimistic-lock.js';
+import { MaterialsService } from '../materials/materials.service.js';
+import { SpecMasksService } from '../spec-masks/spec-masks.service.js';
 import type { User } from '../users/user.entity.js';
 import { DesignVersion } from './design-version.entity.js';
 import { DesignsService } from './designs.service.js';
@@ -34,6 +36,8 @@ export class ApprovalsService {
     @InjectDataSource() private readonly db: DataSource,
     private readonly designs: DesignsService,
     private readonly audit: AuditService,
+    private readonly materials: MaterialsService,
+    private readonly masks: SpecMasksService,
   ) {}
 
   async transition(
@@ -75,6 +79,9 @@ export class ApprovalsService {
           // Frozen from the very content being submitted, in the same transaction.
           const materials = await this.designs.checkMaterials(version, tx, true);
           patch.materialsSnapshot = Object.fromEntries([...materials].map(([k, v]) => [String(k), v]));
+          await this.materials.recordUses([...materials.keys()], { designId, number }, tx);
+          const maskId = version.design?.specMaskId;
+          if (maskId) await this.masks.markInUse(maskId, tx);
         }
         if (action === 'approve' || action === 'return' || action === 'release') {
           await this.fourEyes(tx, version, action, actor);

@@ -145,6 +145,8 @@ export class DesignsService {
         select: { number: true, status: true },
       });
       const released = shown.filter((v) => v.status === 'released').map((v) => v.number);
+      // Submitted versions now stand against the new mask: it is in use from here on.
+      if (set.specMaskId && shown.length > 0) await this.masks.markInUse(set.specMaskId, tx);
       if (set.name !== undefined) {
         await this.audit.record(tx, {
           actor,

@@ -130,6 +130,24 @@ export class MaterialsService {
     return this.get(id);
   }
 
+  /**
+   * Records that a design version froze these materials in its snapshot (inside the submit's
+   * transaction, after `findByIds` read them FOR SHARE): from then on an edit of any of them makes
+   * its next revision instead of changing it in place.
+   */
+  async recordUses(
+    ids: readonly number[],
+    version: { designId: number; number: number },
+    tx: EntityManager,
+  ): Promise<void> {
+    if (ids.length === 0) return;
+    await tx.query(
+      `INSERT INTO material_uses (material_id, design_id, version_number)
+       SELECT unnest($1::int[]), $2::int, $3::int ON CONFLICT DO NOTHING`,
+      [[...new Set(ids)], version.designId, version.number],
+    );
+  }
+
   /** Earlier revisions of a material, newest first (the current one is the material itself). */
   async revisions(id: number): Promise<MaterialRevision[]> {
     await this.get(id);
@@ -187,17 +205,16 @@ export class MaterialsService {
   }
 }
 
-/** Submitted, approved, released or retired versions whose frozen snapshot holds the material. */
+/** The design versions recorded as holding the material in their frozen snapshot. */
 async function frozenVersions(
   tx: EntityManager,
   materialId: number,
-): Promise<{ designId: number; number: number; status: string }[]> {
-  const rows = (await tx.query(
-    `SELECT design_id AS "designId", number, status FROM design_versions
-     WHERE status <> 'draft' AND materials_snapshot ? $1 ORDER BY design_id, number`,
-    [String(materialId)],
-  )) as { designId: number; number: number; status: string }[];
-  return rows;
+): Promise<{ designId: number; number: number }[]> {
+  return (await tx.query(
+    `SELECT design_id AS "designId", version_number AS number FROM material_uses
+     WHERE material_id = $1 ORDER BY design_id, version_number`,
+    [materialId],
+  )) as { designId: number; number: number }[];
 }
 
 /** Whether an edit changes what a frozen version's snapshot holds (name, model or range). */

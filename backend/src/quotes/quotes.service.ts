@@ -58,6 +58,7 @@ export class QuotesService {
           createdBy: user,
         }),
       );
+      await this.masks.markInUse(saved.specMaskId, tx);
       await this.audit.record(tx, {
         actor: user,
         entity: 'quote',
@@ -88,6 +89,7 @@ export class QuotesService {
         },
         async () => staleQuote(await this.get(id)),
       );
+      if (fields.specMaskId !== undefined) await this.masks.markInUse(fields.specMaskId, tx);
       await this.audit.record(tx, {
         actor: user,
         entity: 'quote',

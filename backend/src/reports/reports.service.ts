@@ -107,6 +107,7 @@ export class ReportsService {
           createdBy: user,
         }),
       );
+      await this.masks.markInUse(maskId, tx);
       const pdf = await renderReportPdf({
         shop: this.config.shopName,
         documentNumber: documentNumber(saved.id),
@@ -156,12 +157,10 @@ export class ReportsService {
   /** The reports with these ids that exist, without their PDFs. */
   summaries(ids: number[]): Promise<ComplianceReport[]> {
     if (ids.length === 0) return Promise.resolve([]);
-    return this.db
-      .getRepository(ComplianceReport)
-      .find({
-        where: { id: In(ids) },
-        select: { id: true, designId: true, versionNumber: true, specMaskId: true },
-      });
+    return this.db.getRepository(ComplianceReport).find({
+      where: { id: In(ids) },
+      select: { id: true, designId: true, versionNumber: true, specMaskId: true },
+    });
   }
 
   async pdfs(ids: number[]): Promise<{ id: number; pdf: Buffer }[]> {

@@ -38,6 +38,10 @@ export class SpecMaskRecord {
   version: number;
 
   /** The next revision, once this one was revised; a revised mask stays readable but never changes. */
+  /** Since when a submitted version, a compliance report or a quote refers to the mask (then it is never edited in place). */
+  @Column({ name: 'in_use_since', type: 'timestamptz', nullable: true, select: false })
+  inUseSince: Date | null;
+
   @Column({ name: 'superseded_by_id', type: 'integer', nullable: true })
   supersededById: number | null;
 

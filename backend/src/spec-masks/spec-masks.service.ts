@@ -1,6 +1,6 @@
 import { BadRequestException, ConflictException, Injectable, NotFoundException } from '@nestjs/common';
 import { InjectRepository } from '@nestjs/typeorm';
-import { Repository } from 'typeorm';
+import { Repository, type EntityManager } from 'typeorm';
 import { validateSpecMask, type LimitBand } from '@quietglass/shared/optics/mask';
 import { OpticsInputError } from '@quietglass/shared/optics/errors';
 import { nextRevision } from '@quietglass/shared/revisions';
@@ -58,8 +58,9 @@ export class SpecMasksService {
   }
 
   /**
-   * Edits a mask. A mask that a submitted, approved, released or retired version, a compliance
-   * report or a quote refers to is a customer-visible fact: it is never changed in place; the edit
+   * Edits a mask. A mask that a submitted version (whatever became of it since), a compliance
+   * report or a quote has referred to is a customer-visible fact (`markInUse` recorded it): it is
+   * never changed in place; the edit
    * becomes its next revision (A → B, or the revision the editor named) and the old one stays
    * readable, pointing at its successor. Either way the edit carries the version it started from.
    */
@@ -75,14 +76,13 @@ export class SpecMasksService {
     const staleError = async () => stale(await this.get(id));
     return this.unique(dto, () =>
       this.masks.manager.transaction(async (tx) => {
-        const [{ used }] = (await tx.query(
-          `SELECT EXISTS (
-             SELECT 1 FROM designs d JOIN design_versions v ON v.design_id = d.id
-             WHERE d.spec_mask_id = $1 AND v.status IN ('submitted', 'approved', 'released', 'retired'))
-           OR EXISTS (SELECT 1 FROM compliance_reports r WHERE r.spec_mask_id = $1)
-           OR EXISTS (SELECT 1 FROM quotes q WHERE q.spec_mask_id = $1) AS used`,
-          [id],
-        )) as { used: boolean }[];
+        // The row lock orders this edit with a record starting to use the mask (markInUse).
+        const row = await tx.getRepository(SpecMaskRecord).findOne({
+          where: { id },
+          select: { id: true, inUseSince: true },
+          lock: { mode: 'pessimistic_write' },
+        });
+        const used = row?.inUseSince !== null && row?.inUseSince !== undefined;
         if (!used) {
           await updateIfVersion(
             tx,
@@ -145,6 +145,15 @@ export class SpecMasksService {
         return next;
       }),
     );
+  }
+
+  /**
+   * Records that a customer-visible record (a submitted version of a design with this mask, a
+   * compliance report, a quote) refers to the mask, inside that record's transaction: from then on
+   * an edit makes the mask's next revision instead of changing it in place.
+   */
+  async markInUse(id: number, tx: EntityManager): Promise<void> {
+    await tx.query('UPDATE spec_masks SET in_use_since = coalesce(in_use_since, now()) WHERE id = $1', [id]);
   }
 
   /** A new mask from CSV; a bad row or band rejects the whole file. */
