@@ -1,12 +1,29 @@
 import { ConflictException, Injectable, NotFoundException } from '@nestjs/common';
 import { InjectRepository } from '@nestjs/typeorm';
-import { Repository } from 'typeorm';
+import { IsNull, Repository, type EntityManager } from 'typeorm';
+import type { CustomerContact } from '@quietglass/shared/customers';
 import { AuditService } from '../audit/audit.service.js';
 import { isUniqueViolation } from '../common/db-errors.js';
 import { updateIfVersion } from '../common/optimistic-lock.js';
+import { stableStringify } from '../common/stable-json.js';
 import type { User } from '../users/user.entity.js';
 import { Customer } from './customer.entity.js';
-import type { CustomerDto, UpdateCustomerDto } from './dto/customer.dto.js';
+import type { CustomerContactDto, CustomerDto, UpdateCustomerDto } from './dto/customer.dto.js';
+
+/** One record of a customer, as its page lists it. */
+export interface CustomerRecordLink {
+  id: number;
+  title: string;
+  status: string;
+  at: string;
+}
+
+export interface CustomerRecords {
+  masks: CustomerRecordLink[];
+  designs: CustomerRecordLink[];
+  reports: CustomerRecordLink[];
+  quotes: CustomerRecordLink[];
+}
 
 @Injectable()
 export class CustomersService {
@@ -15,8 +32,12 @@ export class CustomersService {
     private readonly audit: AuditService,
   ) {}
 
-  list(): Promise<Customer[]> {
-    return this.customers.find({ order: { name: 'ASC' } });
+  /** Customers by name; archived ones only when asked for (pickers never show them). */
+  list(includeArchived = false): Promise<Customer[]> {
+    return this.customers.find({
+      where: includeArchived ? {} : { archivedAt: IsNull() },
+      order: { name: 'ASC' },
+    });
   }
 
   async get(id: number): Promise<Customer> {
@@ -25,12 +46,32 @@ export class CustomersService {
     return customer;
   }
 
+  /**
+   * A customer that may get a new record (mask, quote): it exists and is not archived. An archived
+   * customer is a 409: the request is well formed, the customer's state forbids it.
+   */
+  async active(id: number): Promise<Customer> {
+    const customer = await this.get(id);
+    if (customer.archivedAt) {
+      throw new ConflictException(
+        `Customer "${customer.name}" is archived; restore it before adding new spec masks or quotes`,
+      );
+    }
+    return customer;
+  }
+
   async create(dto: CustomerDto, user: User): Promise<Customer> {
+    const contacts = cleanContacts(dto.contacts ?? []);
     return this.unique(dto.name, () =>
       this.customers.manager.transaction(async (tx) => {
         const repo = tx.getRepository(Customer);
         const saved = await repo.save(
-          repo.create({ name: dto.name, contactEmail: dto.contactEmail ?? null, notes: dto.notes ?? '' }),
+          repo.create({
+            name: dto.name,
+            contactEmail: dto.contactEmail ?? null,
+            notes: dto.notes ?? '',
+            contacts,
+          }),
         );
         await this.audit.record(tx, {
           actor: user,
@@ -38,7 +79,7 @@ export class CustomersService {
           entityId: saved.id,
           action: 'created',
           summary: `customer "${saved.name}" created`,
-          details: { name: saved.name, contactEmail: saved.contactEmail },
+          details: { name: saved.name, contactEmail: saved.contactEmail, contacts },
         });
         return saved;
       }),
@@ -50,15 +91,13 @@ export class CustomersService {
     const set: Partial<Customer> = { name: dto.name };
     if (dto.contactEmail !== undefined) set.contactEmail = dto.contactEmail;
     if (dto.notes !== undefined) set.notes = dto.notes;
+    if (dto.contacts !== undefined) set.contacts = cleanContacts(dto.contacts);
     await this.unique(dto.name, () =>
       this.customers.manager.transaction(async (tx) => {
-        await updateIfVersion(tx, Customer, { id, expectedVersion: dto.version, set }, async () => {
-          const now = await this.get(id);
-          return new ConflictException(
-            `Customer "${now.name}" was changed by someone else (now version ${now.version}); reload it and apply your edit again`,
-          );
-        });
-        const changed = (Object.keys(set) as (keyof typeof set)[]).filter((k) => set[k] !== before[k]);
+        await this.locked(tx, id, dto.version, set);
+        const changed = (Object.keys(set) as (keyof typeof set)[]).filter(
+          (k) => stableStringify(set[k]) !== stableStringify(before[k]),
+        );
         await this.audit.record(tx, {
           actor: user,
           entity: 'customer',
@@ -72,6 +111,67 @@ export class CustomersService {
     return this.get(id);
   }
 
+  /**
+   * Archives (or restores) a customer: hidden from pickers, its masks, designs, reports and quotes
+   * kept as they are. Archiving an archived customer (or restoring an active one) is a 409.
+   */
+  async setArchived(id: number, archived: boolean, version: number, user: User): Promise<Customer> {
+    const before = await this.get(id);
+    if (Boolean(before.archivedAt) === archived) {
+      throw new ConflictException(
+        `Customer "${before.name}" is ${archived ? 'already archived' : 'not archived'}`,
+      );
+    }
+    await this.customers.manager.transaction(async (tx) => {
+      await this.locked(tx, id, version, { archivedAt: archived ? new Date() : null });
+      await this.audit.record(tx, {
+        actor: user,
+        entity: 'customer',
+        entityId: id,
+        action: archived ? 'archived' : 'restored',
+        summary: `customer "${before.name}" ${archived ? 'archived: hidden from pickers, records kept' : 'restored'}`,
+        details: {},
+      });
+    });
+    return this.get(id);
+  }
+
+  /** The customer's spec masks, designs, compliance reports and quotes, newest first. */
+  async records(id: number): Promise<CustomerRecords> {
+    await this.get(id);
+    const q = (sql: string) =>
+      this.customers.manager.query(sql, [id]) as Promise<
+        { id: number; title: string; status: string; at: Date }[]
+      >;
+    const [masks, designs, reports, quotes] = await Promise.all([
+      q(`SELECT id, name || ' rev ' || revision AS title, kind AS status, updated_at AS at
+           FROM spec_masks WHERE customer_id = $1 ORDER BY updated_at DESC, id DESC`),
+      q(`SELECT d.id, d.name AS title,
+                COALESCE((SELECT v.status FROM design_versions v WHERE v.design_id = d.id
+                          ORDER BY v.number DESC LIMIT 1), 'draft') AS status,
+                d.updated_at AS at
+           FROM designs d WHERE d.customer_id = $1 ORDER BY d.updated_at DESC, d.id DESC`),
+      q(`SELECT r.id, d.name || ' v' || r.version_number || ' against ' || m.name || ' rev ' || m.revision AS title,
+                CASE WHEN r.run_id IS NULL THEN 'design' ELSE 'run' END AS status, r.created_at AS at
+           FROM compliance_reports r JOIN designs d ON d.id = r.design_id JOIN spec_masks m ON m.id = r.spec_mask_id
+           WHERE d.customer_id = $1 ORDER BY r.created_at DESC, r.id DESC`),
+      q(`SELECT id, 'Q-' || id || ': ' || part_description AS title, status, updated_at AS at
+           FROM quotes WHERE customer_id = $1 ORDER BY updated_at DESC, id DESC`),
+    ]);
+    const links = (rows: Awaited<ReturnType<typeof q>>) =>
+      rows.map((r) => ({ id: r.id, title: r.title, status: r.status, at: new Date(r.at).toISOString() }));
+    return { masks: links(masks), designs: links(designs), reports: links(reports), quotes: links(quotes) };
+  }
+
+  private async locked(tx: EntityManager, id: number, version: number, set: Partial<Customer>) {
+    await updateIfVersion(tx, Customer, { id, expectedVersion: version, set }, async () => {
+      const now = await this.get(id);
+      return new ConflictException(
+        `Customer "${now.name}" was changed by someone else (now version ${now.version}); reload it and apply your edit again`,
+      );
+    });
+  }
+
   private async unique<T>(name: string, write: () => Promise<T>): Promise<T> {
     try {
       return await write();
@@ -80,4 +180,14 @@ export class CustomersService {
       throw err;
     }
   }
+}
+
+/** Contacts as stored: empty optional fields left out. */
+function cleanContacts(list: readonly CustomerContactDto[]): CustomerContact[] {
+  return list.map((c) => ({
+    name: c.name,
+    email: c.email,
+    ...(c.role ? { role: c.role } : {}),
+    ...(c.phone ? { phone: c.phone } : {}),
+  }));
 }

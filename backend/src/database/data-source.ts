@@ -29,6 +29,7 @@ import { AuditTrailRevisions1764634500000 } from '../migrations/1764634500000-au
 import { DemoSeeds1764634600000 } from '../migrations/1764634600000-demo-seeds.js';
 import { Sessions1764634700000 } from '../migrations/1764634700000-sessions.js';
 import { MaterialRevisions1764634800000 } from '../migrations/1764634800000-material-revisions.js';
+import { CustomerRecordsMaskKinds1764810000000 } from '../migrations/1764810000000-customer-records-mask-kinds.js';
 
 /** Every entity of the app; each domain module also registers its own with forFeature. */
 export const ENTITIES = [
@@ -67,6 +68,7 @@ export const MIGRATIONS = [
   DemoSeeds1764634600000,
   Sessions1764634700000,
   MaterialRevisions1764634800000,
+  CustomerRecordsMaskKinds1764810000000,
 ];
 
 /** TypeORM options for PostgreSQL; never `synchronize` — the schema comes from migrations. */

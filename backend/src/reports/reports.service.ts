@@ -16,6 +16,8 @@ import { DesignVersion } from '../designs/design-version.entity.js';
 import { VersionEvent } from '../designs/version-event.entity.js';
 import { ChamberRun, RunSpectrum } from '../runs/run.entity.js';
 import { SpecMaskRecord } from '../spec-masks/spec-mask.entity.js';
+import { internalMaskProblem } from '../spec-masks/spec-masks.service.js';
+import { isCustomerSpecification } from '@quietglass/shared/customers';
 import type { User } from '../users/user.entity.js';
 import type { CreateReportDto } from './dto/report.dto.js';
 import { documentNumber, renderReportPdf, type PlotSeries } from './report-pdf.js';
@@ -53,6 +55,9 @@ export class ReportsService {
       throw new BadRequestException({
         message: [`specMaskId: spec mask ${maskId} belongs to another customer`],
       });
+    }
+    if (!isCustomerSpecification(mask)) {
+      throw new BadRequestException({ message: [internalMaskProblem(mask, dto.specMaskId === undefined)] });
     }
     const snapshot = version.materialsSnapshot ?? {};
     const materials = new Map(Object.entries(snapshot).map(([k, v]) => [Number(k), v]));
