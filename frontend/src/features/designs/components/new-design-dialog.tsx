@@ -4,7 +4,7 @@ import { useEffect } from 'react';
 import { useForm, useWatch } from 'react-hook-form';
 import { ErrorAlert } from '../../../components/error-alert';
 import { FormDialog } from '../../../components/form-dialog';
-import { FormSelectField, namedOptions } from '../../../components/form-select-field';
+import { FormSelectField, NEW_CUSTOMER_OPTION, namedOptions } from '../../../components/form-select-field';
 import { FormTextField } from '../../../components/form-text-field';
 import { useCreateDesign } from '../api/create-design';
 import { contentOf, type HeaderValues } from '../header';
@@ -24,6 +24,8 @@ interface NewDesignDialogProps {
   customers: readonly { id: number; name: string }[];
   specMasks: readonly { id: number; name: string; revision: string; customer: { id: number } }[];
   materials: readonly LibraryMaterial[];
+  /** "New customer…" in the customer picker: shows the form, then `choose` selects the new one. */
+  onNewCustomer?: (choose: (customer: { id: number; name: string }) => void) => void;
 }
 
 // CreateDesignDto: name 1–160 characters.
@@ -53,6 +55,7 @@ export function NewDesignDialog({
   customers,
   specMasks,
   materials,
+  onNewCustomer,
 }: NewDesignDialogProps) {
   const createDesign = useCreateDesign();
   const { control, handleSubmit, reset, setValue } = useForm<NewDesignValues>({
@@ -121,6 +124,13 @@ export function NewDesignDialog({
           label="Customer"
           placeholder="Choose…"
           options={namedOptions(customers)}
+          createOption={
+            onNewCustomer && {
+              label: NEW_CUSTOMER_OPTION,
+              onCreate: () =>
+                onNewCustomer((c) => setValue('customerId', String(c.id), { shouldValidate: true })),
+            }
+          }
         />
         <FormSelectField
           control={control}
