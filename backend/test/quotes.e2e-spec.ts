@@ -38,18 +38,23 @@ beforeAll(async () => {
   const m = await materialIds(app, mira);
   halden = await customerId(app, mira, 'Halden Vision Systems');
   haldenMask = await maskId(app, mira, halden, 'HVS-2210 lens AR');
-  designId = await approvedDesign(app, mira, tomas, {
-    name: 'HVS lens AR',
+  designId = await approvedDesign(app, mira, tomas, lensDesign(m, 'HVS lens AR', haldenMask));
+});
+
+/** Halden's single-layer MgF2 lens design aimed at `specMaskId`. */
+function lensDesign(m: Record<string, number>, name: string, specMaskId: number) {
+  return {
+    name,
     customerId: halden,
-    specMaskId: haldenMask,
+    specMaskId,
     incidentMaterialId: m['Air'],
     substrateMaterialId: m['N-BK7'],
     substrateThicknessMm: 3,
     backSurface: 'front-only',
     referenceWavelengthNm: 550,
     layers: [{ materialId: m['MgF2'], thicknessNm: 99.6 }],
-  });
-});
+  };
+}
 afterAll(async () => {
   await app.close();
 });
@@ -384,17 +389,7 @@ describe('internal design targets and archived customers', () => {
   it('a design aimed at an internal target does not lend it to the report by default', async () => {
     const target = await internalTarget('T2');
     const m = await materialIds(app, mira);
-    const aimed = await approvedDesign(app, mira, tomas, {
-      name: 'HVS lens AR tight',
-      customerId: halden,
-      specMaskId: target,
-      incidentMaterialId: m['Air'],
-      substrateMaterialId: m['N-BK7'],
-      substrateThicknessMm: 3,
-      backSurface: 'front-only',
-      referenceWavelengthNm: 550,
-      layers: [{ materialId: m['MgF2'], thicknessNm: 99.6 }],
-    });
+    const aimed = await approvedDesign(app, mira, tomas, lensDesign(m, 'HVS lens AR tight', target));
     const before = await counts();
     const res = await http()
       .post('/api/reports')

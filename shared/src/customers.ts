@@ -38,3 +38,26 @@ export const CUSTOMER_LIMITS = {
   contactRole: 80,
   contactPhone: 40,
 } as const;
+
+/** How a mask is named in pickers and headings: internal design targets always say so. */
+export function specMaskLabel(mask: { name: string; revision: string; kind: SpecMaskKind }): string {
+  const base = `${mask.name} rev ${mask.revision}`;
+  return mask.kind === 'internal' ? `${base} (${SPEC_MASK_KIND_LABELS.internal.toLowerCase()})` : base;
+}
+
+/** One record of a customer as its page lists it: a mask, design, report or quote. */
+export interface CustomerRecordLink {
+  id: number;
+  title: string;
+  /** A mask's kind, a design's newest version status, a report's source (design or run), a quote's status. */
+  status: string;
+  at: string;
+}
+
+/** Everything on record for one customer, newest first. */
+export interface CustomerRecords {
+  masks: CustomerRecordLink[];
+  designs: CustomerRecordLink[];
+  reports: CustomerRecordLink[];
+  quotes: CustomerRecordLink[];
+}

@@ -11,7 +11,8 @@ import {
   UpdateCustomerDto,
 } from './dto/customer.dto.js';
 import { toCustomerView, type CustomerView } from './customer.entity.js';
-import { CustomersService, type CustomerRecords } from './customers.service.js';
+import type { CustomerRecords } from '@quietglass/shared/customers';
+import { CustomersService } from './customers.service.js';
 
 /** Office roles keep the customer list; operators work from released recipes. */
 @ApiTags('customers')

@@ -1,7 +1,7 @@
 import { ConflictException, Injectable, NotFoundException } from '@nestjs/common';
 import { InjectRepository } from '@nestjs/typeorm';
 import { IsNull, Repository, type EntityManager } from 'typeorm';
-import type { CustomerContact } from '@quietglass/shared/customers';
+import type { CustomerContact, CustomerRecords } from '@quietglass/shared/customers';
 import { AuditService } from '../audit/audit.service.js';
 import { isUniqueViolation } from '../common/db-errors.js';
 import { updateIfVersion } from '../common/optimistic-lock.js';
@@ -9,21 +9,6 @@ import { stableStringify } from '../common/stable-json.js';
 import type { User } from '../users/user.entity.js';
 import { Customer } from './customer.entity.js';
 import type { CustomerContactDto, CustomerDto, UpdateCustomerDto } from './dto/customer.dto.js';
-
-/** One record of a customer, as its page lists it. */
-export interface CustomerRecordLink {
-  id: number;
-  title: string;
-  status: string;
-  at: string;
-}
-
-export interface CustomerRecords {
-  masks: CustomerRecordLink[];
-  designs: CustomerRecordLink[];
-  reports: CustomerRecordLink[];
-  quotes: CustomerRecordLink[];
-}
 
 @Injectable()
 export class CustomersService {

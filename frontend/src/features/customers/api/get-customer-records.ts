@@ -1,20 +1,6 @@
 import { queryOptions, useQuery } from '@tanstack/react-query';
+import type { CustomerRecords } from '@quietglass/shared';
 import { apiClient } from '../../../lib/api-client';
-
-/** One record of a customer, as the customer's page lists it. */
-export interface CustomerRecordLink {
-  id: number;
-  title: string;
-  status: string;
-  at: string;
-}
-
-export interface CustomerRecords {
-  masks: CustomerRecordLink[];
-  designs: CustomerRecordLink[];
-  reports: CustomerRecordLink[];
-  quotes: CustomerRecordLink[];
-}
 
 export function getCustomerRecords(id: number, signal?: AbortSignal): Promise<CustomerRecords> {
   return apiClient.get<CustomerRecords>(`/customers/${id}/records`, signal);

@@ -4,12 +4,17 @@ import ListItem from '@mui/material/ListItem';
 import Paper from '@mui/material/Paper';
 import Typography from '@mui/material/Typography';
 import Box from '@mui/material/Box';
-import { SPEC_MASK_KINDS, SPEC_MASK_KIND_LABELS, type SpecMaskKind } from '@quietglass/shared';
+import {
+  SPEC_MASK_KINDS,
+  SPEC_MASK_KIND_LABELS,
+  type CustomerRecordLink,
+  type SpecMaskKind,
+} from '@quietglass/shared';
 import { Link as RouterLink } from 'react-router-dom';
 import { ErrorAlert } from '../../../components/error-alert';
 import { LoadingBlock } from '../../../components/loading-block';
 import { formatDateTime } from '../../../lib/format';
-import { useCustomerRecords, type CustomerRecordLink } from '../api/get-customer-records';
+import { useCustomerRecords } from '../api/get-customer-records';
 
 const isKind = (s: string): s is SpecMaskKind => (SPEC_MASK_KINDS as readonly string[]).includes(s);
 

@@ -1,5 +1,5 @@
 import Box from '@mui/material/Box';
-import type { DesignView } from '@quietglass/shared';
+import { specMaskLabel, type DesignView, type SpecMaskKind } from '@quietglass/shared';
 import { useEffect } from 'react';
 import { useForm, useWatch } from 'react-hook-form';
 import { ErrorAlert } from '../../../components/error-alert';
@@ -22,7 +22,13 @@ interface NewDesignDialogProps {
   onClose: () => void;
   onCreated: (design: DesignView) => void;
   customers: readonly { id: number; name: string }[];
-  specMasks: readonly { id: number; name: string; revision: string; customer: { id: number } }[];
+  specMasks: readonly {
+    id: number;
+    name: string;
+    revision: string;
+    customer: { id: number };
+    kind: SpecMaskKind;
+  }[];
   materials: readonly LibraryMaterial[];
   /** "New customer…" in the customer picker: shows the form, then `choose` selects the new one. */
   onNewCustomer?: (choose: (customer: { id: number; name: string }) => void) => void;
@@ -143,7 +149,7 @@ export function NewDesignDialog({
           }
           options={masksOfCustomer.map((m) => ({
             value: String(m.id),
-            label: `${m.name} rev ${m.revision}`,
+            label: specMaskLabel(m),
           }))}
         />
       </Box>

@@ -67,18 +67,18 @@ describe('SpecMaskFormDialog', () => {
     await fill(user, band(1), 'From (nm)', '420');
     await fill(user, band(1), 'To (nm)', '680');
     await fill(user, band(1), 'Angles (°)', '0, 15, 30');
-    await fill(user, band(1), 'Customer limit (%)', '0.5');
+    await fill(user, band(1), 'Limit (%)', '0.5');
 
     await user.click(dialog.getByRole('button', { name: 'Add band' }));
     await user.click(dialog.getByRole('button', { name: 'Add band' }));
     expect(dialog.getAllByRole('group', { name: /^Limit band/ })).toHaveLength(3);
     await fill(user, band(2), 'From (nm)', '1');
     await fill(user, band(2), 'To (nm)', '2');
-    await fill(user, band(2), 'Customer limit (%)', '9');
+    await fill(user, band(2), 'Limit (%)', '9');
     await fill(user, band(3), 'From (nm)', '532');
     await fill(user, band(3), 'To (nm)', '532');
     await user.selectOptions(band(3).getByLabelText('Bound'), 'target');
-    await fill(user, band(3), 'Customer limit (%)', '0.2');
+    await fill(user, band(3), 'Limit (%)', '0.2');
     await fill(user, band(3), 'Tolerance (%)', '0.1');
     await fill(user, band(3), 'Label', 'laser line');
 
@@ -130,12 +130,12 @@ describe('SpecMaskFormDialog', () => {
     await fill(user, band(1), 'From (nm)', '700');
     await fill(user, band(1), 'To (nm)', '680');
     await fill(user, band(1), 'Angles (°)', '0, 95');
-    await fill(user, band(1), 'Customer limit (%)', '120');
+    await fill(user, band(1), 'Limit (%)', '120');
     await user.click(dialog.getByRole('button', { name: 'Save mask' }));
 
     expect(describedBy(band(1).getByLabelText('To (nm)'))).toBe('Must not be below From (700 nm)');
     expect(describedBy(band(1).getByLabelText('Angles (°)'))).toBe('Each angle from 0 to below 90°');
-    expect(describedBy(band(1).getByLabelText('Customer limit (%)'))).toBe('A percentage from 0 to 100');
+    expect(describedBy(band(1).getByLabelText('Limit (%)'))).toBe('A percentage from 0 to 100');
     expect(api.requests).toHaveLength(0);
   });
 
@@ -145,11 +145,11 @@ describe('SpecMaskFormDialog', () => {
     const { user, dialog } = await openForm();
     await fill(user, band(1), 'From (nm)', '420');
     await fill(user, band(1), 'To (nm)', '680');
-    await fill(user, band(1), 'Customer limit (%)', '0.5');
+    await fill(user, band(1), 'Limit (%)', '0.5');
     await user.click(dialog.getByRole('button', { name: 'Add band' }));
     await fill(user, band(2), 'From (nm)', '690');
     await fill(user, band(2), 'To (nm)', '700');
-    await fill(user, band(2), 'Customer limit (%)', '1');
+    await fill(user, band(2), 'Limit (%)', '1');
     await user.click(dialog.getByRole('button', { name: 'Save mask' }));
 
     const to = band(2).getByLabelText('To (nm)');
@@ -167,12 +167,12 @@ describe('SpecMaskFormDialog', () => {
     const { user, dialog } = await openForm();
     await fill(user, band(1), 'From (nm)', '400');
     await fill(user, band(1), 'To (nm)', '700');
-    await fill(user, band(1), 'Customer limit (%)', '1');
+    await fill(user, band(1), 'Limit (%)', '1');
     await user.click(dialog.getByRole('button', { name: 'Add band' }));
     await fill(user, band(2), 'From (nm)', '450');
     await fill(user, band(2), 'To (nm)', '650');
     await user.selectOptions(band(2).getByLabelText('Bound'), 'min');
-    await fill(user, band(2), 'Customer limit (%)', '2');
+    await fill(user, band(2), 'Limit (%)', '2');
     await user.click(dialog.getByRole('button', { name: 'Save mask' }));
 
     expect(
@@ -199,17 +199,17 @@ describe('SpecMaskFormDialog', () => {
     await fill(user, band(1), 'Angle from (°)', '0');
     await fill(user, band(1), 'Angle to (°)', '20');
     await fill(user, band(1), 'Every (°)', '5');
-    await fill(user, band(1), 'Customer limit (%)', '0.5');
-    await fill(user, band(1), 'Design margin (% points)', '0.6');
+    await fill(user, band(1), 'Limit (%)', '0.5');
+    await fill(user, band(1), 'Design margin', '0.6');
     await user.selectOptions(dialog.getByLabelText('What this mask is'), 'internal');
     await user.click(dialog.getByRole('button', { name: 'Save mask' }));
     // R ≤ 0.5 % with a 0.6-point margin would aim below 0 %: refused before sending.
-    expect(describedBy(band(1).getByLabelText('Design margin (% points)'))).toBe(
+    expect(describedBy(band(1).getByLabelText('Design margin'))).toBe(
       'Leaves no design target inside 0–100 %',
     );
     expect(api.requests).toHaveLength(0);
 
-    await fill(user, band(1), 'Design margin (% points)', '0.1');
+    await fill(user, band(1), 'Design margin', '0.1');
     await user.click(dialog.getByRole('button', { name: 'Save mask' }));
     await waitFor(() => expect(api.calls('POST', '/api/spec-masks')).toHaveLength(1));
     expect(api.calls('POST', '/api/spec-masks')[0].body).toEqual({
@@ -243,7 +243,7 @@ describe('SpecMaskFormDialog', () => {
     await fill(user, band(1), 'Angle from (°)', '0');
     await fill(user, band(1), 'Angle to (°)', '89');
     await fill(user, band(1), 'Every (°)', '0.5');
-    await fill(user, band(1), 'Customer limit (%)', '1');
+    await fill(user, band(1), 'Limit (%)', '1');
     await user.click(dialog.getByRole('button', { name: 'Save mask' }));
     expect(describedBy(band(1).getByLabelText('Every (°)'))).toMatch(/^Too fine: gives more than 91 angles/);
     expect(api.requests).toHaveLength(0);
@@ -256,9 +256,9 @@ describe('SpecMaskFormDialog', () => {
     const { user, dialog } = await openForm();
     await fill(user, band(1), 'From (nm)', '420');
     await fill(user, band(1), 'To (nm)', '680');
-    await fill(user, band(1), 'Customer limit (%)', '1');
+    await fill(user, band(1), 'Limit (%)', '1');
     await user.click(dialog.getByRole('button', { name: 'Save mask' }));
-    const margin = band(1).getByLabelText('Design margin (% points)');
+    const margin = band(1).getByLabelText('Design margin');
     await waitFor(() => expect(margin.getAttribute('aria-invalid')).toBe('true'));
     expect(describedBy(margin)).toBe(
       'must be less than tolerance_percent (0.1 %), or no design target is left',

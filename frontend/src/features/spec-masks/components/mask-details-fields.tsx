@@ -1,5 +1,5 @@
 import Box from '@mui/material/Box';
-import type { Control } from 'react-hook-form';
+import type { Control, UseFormSetValue } from 'react-hook-form';
 import { FormSelectField, NEW_CUSTOMER_OPTION, namedOptions } from '../../../components/form-select-field';
 import { FormTextField } from '../../../components/form-text-field';
 import { SPEC_MASK_KINDS, SPEC_MASK_KIND_LABELS } from '@quietglass/shared';
@@ -16,12 +16,17 @@ const MAX_NOTES = 4000;
 interface MaskDetailsFieldsProps {
   control: Control<MaskFormValues>;
   customers: readonly { id: number; name: string }[];
-  /** Shown as "New customer…" in the customer picker when given. */
-  onNewCustomer?: () => void;
+  setValue: UseFormSetValue<MaskFormValues>;
+  /** "New customer…" in the customer picker: shows the form, then `choose` selects the new one. */
+  onNewCustomer?: (choose: (customer: { id: number; name: string }) => void) => void;
 }
 
 /** Name, customer, revision and notes of a spec mask (its bands are edited apart). */
-export function MaskDetailsFields({ control, customers, onNewCustomer }: MaskDetailsFieldsProps) {
+export function MaskDetailsFields({ control, customers, setValue, onNewCustomer }: MaskDetailsFieldsProps) {
+  const newCustomer = onNewCustomer && {
+    label: NEW_CUSTOMER_OPTION,
+    onCreate: () => onNewCustomer((c) => setValue('customerId', String(c.id), { shouldValidate: true })),
+  };
   return (
     <>
       <Box sx={{ display: 'grid', gap: 2, gridTemplateColumns: { xs: '1fr', sm: '2fr 2fr 1fr' }, mt: 1 }}>
@@ -43,7 +48,7 @@ export function MaskDetailsFields({ control, customers, onNewCustomer }: MaskDet
           size="small"
           placeholder="Choose…"
           options={namedOptions(customers)}
-          createOption={onNewCustomer && { label: NEW_CUSTOMER_OPTION, onCreate: onNewCustomer }}
+          createOption={newCustomer}
         />
         <FormTextField
           control={control}

@@ -110,10 +110,8 @@ export function SpecMaskCsvDialog({
       <MaskDetailsFields
         control={control}
         customers={customers}
-        onNewCustomer={
-          onNewCustomer &&
-          (() => onNewCustomer((c) => setValue('customerId', String(c.id), { shouldValidate: true })))
-        }
+        setValue={setValue}
+        onNewCustomer={onNewCustomer}
       />
     </FormDialog>
   );

@@ -46,7 +46,7 @@ const QUANTITY_OPTIONS = [
 ];
 const ANGLE_MODE_OPTIONS = [
   { value: 'list', label: 'List' },
-  { value: 'range', label: 'Range with step' },
+  { value: 'range', label: 'Range' },
 ];
 const BOUND_OPTIONS = (Object.keys(BOUND_LABELS) as BoundType[]).map((b) => ({
   value: b,
@@ -204,9 +204,9 @@ function BandFields({
           control={control}
           name={`bands.${index}.value`}
           rules={{ validate: (v) => bandRules.value(String(v)) }}
-          label="Customer limit (%)"
+          label="Limit (%)"
           size="small"
-          helperText="Reports judge this"
+          helperText="The customer's limit; reports judge this"
         />
         {boundType === 'target' && (
           <FormTextField
@@ -231,9 +231,9 @@ function BandFields({
               return bandRules.margin(b.v, b.band);
             },
           }}
-          label="Design margin (% points)"
+          label="Design margin"
           size="small"
-          helperText="Design aims this far inside the limit (optional)"
+          helperText="% points inside the limit the design aims for (optional)"
         />
         <FormTextField
           control={control}
@@ -377,10 +377,8 @@ export function SpecMaskFormDialog({
       <MaskDetailsFields
         control={control}
         customers={customers}
-        onNewCustomer={
-          onNewCustomer &&
-          (() => onNewCustomer((c) => setValue('customerId', String(c.id), { shouldValidate: true })))
-        }
+        setValue={setValue}
+        onNewCustomer={onNewCustomer}
       />
       <Box sx={{ display: 'grid', gap: 1.5 }}>
         {fields.map((f, index) => (
