@@ -1,7 +1,16 @@
 import type { Browser } from 'playwright-core';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { baseUrl, demoSignIns, launchBrowser, signIn } from './browser.js';
-import { browserSession, demoUser } from './demo-shop.js';
+import {
+  FOUR_LAYER_AR,
+  HALDEN,
+  HALDEN_MASK,
+  apiJson,
+  apiSession,
+  browserSession,
+  demoUser,
+  prepareDesign,
+} from './demo-shop.js';
 
 /*
  * Sales keep the customer list: a new customer with a contact on the Customers page, another one
@@ -104,6 +113,59 @@ describe('customers', () => {
     expect(options).toContain(pickedName);
     expect(options).not.toContain(firstName);
     expect(options.at(-1)).toBe('New customer…');
+    expect(pageErrors).toEqual([]);
+    await context.close();
+  });
+
+  it("the report and quote forms offer the customer's specification, never the internal design target", async () => {
+    const designName = `HVS-2210 target check ${stamp}`;
+    const targetName = `HVS-2210 shop target ${stamp}`;
+    const engineer = await apiSession(demoUser('mira.castell'));
+    try {
+      const customers = await apiJson<{ id: number; name: string }[]>(engineer, 'get', '/api/customers');
+      const halden = customers.find((c) => c.name === HALDEN);
+      await apiJson(engineer, 'post', '/api/spec-masks', {
+        name: targetName,
+        customerId: halden?.id,
+        revision: 'T',
+        kind: 'internal',
+        bands: [
+          { from_nm: 420, to_nm: 680, quantity: 'R', max_percent: 0.5, margin_percent: 0.1, step_nm: 10 },
+        ],
+      });
+    } finally {
+      await engineer.dispose();
+    }
+    await prepareDesign(designName, FOUR_LAYER_AR, 'approved');
+    const { context, page, pageErrors } = await browserSession(browser, demoUser('priya.nand'));
+    const customerMask = `${HALDEN_MASK.name} rev ${HALDEN_MASK.revision}`;
+
+    await page.goto(`${baseUrl()}/reports`);
+    await page.getByRole('button', { name: 'New compliance report' }).click();
+    const report = page.getByRole('dialog', { name: 'New compliance report' });
+    await report.getByLabel('Design', { exact: true }).selectOption({ label: `${designName} — ${HALDEN}` });
+    const reportMasks = await report.getByLabel('Spec mask').locator('option').allInnerTexts();
+    expect(reportMasks).toContain(customerMask);
+    expect(reportMasks.some((o) => o.includes(targetName))).toBe(false);
+    await report.getByRole('button', { name: 'Cancel' }).click();
+
+    await page.goto(`${baseUrl()}/quotes`);
+    await page.getByRole('button', { name: 'New quote' }).click();
+    const quote = page.getByRole('dialog', { name: 'New quote' });
+    await quote.getByLabel('Customer').selectOption({ label: HALDEN });
+    const quoteMasks = await quote.getByLabel('Spec mask').locator('option').allInnerTexts();
+    expect(quoteMasks).toContain(customerMask);
+    expect(quoteMasks.some((o) => o.includes(targetName))).toBe(false);
+    expect(await quote.getByLabel('Customer').locator('option').last().innerText()).toBe('New customer…');
+
+    // The Spec masks page says which is which.
+    await page.goto(`${baseUrl()}/spec-masks`);
+    await expect
+      .poll(() => page.getByRole('row').filter({ hasText: targetName }).innerText())
+      .toContain('Internal design target');
+    expect(await page.getByRole('row').filter({ hasText: HALDEN_MASK.name }).first().innerText()).toContain(
+      'Customer specification',
+    );
     expect(pageErrors).toEqual([]);
     await context.close();
   });
