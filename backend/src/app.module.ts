@@ -15,6 +15,7 @@ import { HealthModule } from './health/health.module.js';
 import { MailModule } from './mail/mail.module.js';
 import { MaterialsModule } from './materials/materials.module.js';
 import { QuotesModule } from './quotes/quotes.module.js';
+import { CustomerRecordsModule } from './customer-records/customer-records.module.js';
 import { ReportsModule } from './reports/reports.module.js';
 import { RunsModule } from './runs/runs.module.js';
 import { SpecMasksModule } from './spec-masks/spec-masks.module.js';
@@ -41,6 +42,7 @@ import { UsersModule } from './users/users.module.js';
     ReportsModule,
     MailModule,
     QuotesModule,
+    CustomerRecordsModule,
     BackupsModule,
     AuditModule,
   ],

@@ -38,18 +38,23 @@ beforeAll(async () => {
   const m = await materialIds(app, mira);
   halden = await customerId(app, mira, 'Halden Vision Systems');
   haldenMask = await maskId(app, mira, halden, 'HVS-2210 lens AR');
-  designId = await approvedDesign(app, mira, tomas, {
-    name: 'HVS lens AR',
+  designId = await approvedDesign(app, mira, tomas, lensDesign(m, 'HVS lens AR', haldenMask));
+});
+
+/** Halden's single-layer MgF2 lens design aimed at `specMaskId`. */
+function lensDesign(m: Record<string, number>, name: string, specMaskId: number) {
+  return {
+    name,
     customerId: halden,
-    specMaskId: haldenMask,
+    specMaskId,
     incidentMaterialId: m['Air'],
     substrateMaterialId: m['N-BK7'],
     substrateThicknessMm: 3,
     backSurface: 'front-only',
     referenceWavelengthNm: 550,
     layers: [{ materialId: m['MgF2'], thicknessNm: 99.6 }],
-  });
-});
+  };
+}
 afterAll(async () => {
   await app.close();
 });
@@ -334,6 +339,107 @@ describe('quotes under concurrency', () => {
       const now = await http().get(`/api/quotes/${quote.body.id}`).set('Cookie', sales);
       expect(now.body).toMatchObject({ ...winner, version: version + 1 });
       expect(now.body.history.filter((e: { action: string }) => e.action === 'edited')).toHaveLength(1);
+    }
+  });
+});
+
+describe('internal design targets and archived customers', () => {
+  const counts = async () => {
+    const [row] = await app
+      .get(DataSource)
+      .query('SELECT (SELECT count(*) FROM quotes) AS q, (SELECT count(*) FROM compliance_reports) AS r');
+    return { quotes: Number(row.q), reports: Number(row.r) };
+  };
+  const internalTarget = async (revision: string) => {
+    const res = await http()
+      .post('/api/spec-masks')
+      .set('Cookie', mira)
+      .send({
+        name: 'HVS lens AR design target',
+        customerId: halden,
+        revision,
+        kind: 'internal',
+        bands: [{ from_nm: 450, to_nm: 650, quantity: 'R', max_percent: 0.4, step_nm: 10 }],
+      });
+    expect(res.status, JSON.stringify(res.body)).toBe(201);
+    expect(res.body.kind).toBe('internal');
+    return res.body.id as number;
+  };
+
+  it('a report or quote against an internal design target is refused with 400 and writes nothing', async () => {
+    const target = await internalTarget('T1');
+    const before = await counts();
+    const report = await http()
+      .post('/api/reports')
+      .set('Cookie', sales)
+      .send({ designId, versionNumber: 1, specMaskId: target });
+    expect(report.status).toBe(400);
+    expect(report.body.details[0]).toBe(
+      `specMaskId: spec mask "HVS lens AR design target" rev T1 is an internal design target; reports and quotes use the customer's specification, choose a customer mask`,
+    );
+    const quote = await http()
+      .post('/api/quotes')
+      .set('Cookie', sales)
+      .send({ ...quoteBody(), specMaskId: target });
+    expect(quote.status).toBe(400);
+    expect(quote.body.details).toContainEqual(expect.stringMatching(/is an internal design target/));
+    expect(await counts()).toEqual(before);
+  });
+
+  it('a design aimed at an internal target does not lend it to the report by default', async () => {
+    const target = await internalTarget('T2');
+    const m = await materialIds(app, mira);
+    const aimed = await approvedDesign(app, mira, tomas, lensDesign(m, 'HVS lens AR tight', target));
+    const before = await counts();
+    const res = await http()
+      .post('/api/reports')
+      .set('Cookie', sales)
+      .send({ designId: aimed, versionNumber: 1 });
+    expect(res.status).toBe(400);
+    expect(res.body.details[0]).toMatch(/\(the design's mask\) is an internal design target/);
+    expect(await counts()).toEqual(before);
+    // Naming the customer's own mask works.
+    const ok = await http()
+      .post('/api/reports')
+      .set('Cookie', sales)
+      .send({ designId: aimed, versionNumber: 1, specMaskId: haldenMask });
+    expect(ok.status, JSON.stringify(ok.body)).toBe(201);
+  });
+
+  it('an archived customer gets no new quote or mask (409) and keeps its quotes', async () => {
+    const existing = await http().post('/api/quotes').set('Cookie', sales).send(quoteBody());
+    expect(existing.status).toBe(201);
+    const customer = (await http().get(`/api/customers/${halden}`).set('Cookie', sales)).body;
+    const archived = await http()
+      .post(`/api/customers/${halden}/archive`)
+      .set('Cookie', sales)
+      .send({ version: customer.version });
+    expect(archived.status).toBe(201);
+    try {
+      const before = await counts();
+      const quote = await http().post('/api/quotes').set('Cookie', sales).send(quoteBody());
+      expect(quote.status).toBe(409);
+      expect(quote.body.message).toBe(
+        'Customer "Halden Vision Systems" is archived; restore it before adding new spec masks or quotes',
+      );
+      const mask = await http()
+        .post('/api/spec-masks')
+        .set('Cookie', mira)
+        .send({
+          name: 'After archive',
+          customerId: halden,
+          revision: 'A',
+          bands: [{ from_nm: 450, to_nm: 650, quantity: 'R', max_percent: 1 }],
+        });
+      expect(mask.status).toBe(409);
+      expect(await counts()).toEqual(before);
+      expect((await http().get(`/api/quotes/${existing.body.id}`).set('Cookie', sales)).status).toBe(200);
+    } finally {
+      const restored = await http()
+        .post(`/api/customers/${halden}/restore`)
+        .set('Cookie', sales)
+        .send({ version: archived.body.version });
+      expect(restored.status).toBe(201);
     }
   });
 });

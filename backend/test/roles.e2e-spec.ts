@@ -61,6 +61,8 @@ interface MatrixContext {
   quoteId: number;
   quoteVersion: number;
   sendQuoteIds: Partial<Record<Role | 'anonymous', number>>;
+  /** Per permitted role, a customer of its own to archive and then restore, and its version. */
+  archiveCustomers: Partial<Record<Role | 'anonymous', { id: number; version: number }>>;
   sentQuoteIds: Partial<Record<Role | 'anonymous', number>>;
   outboxId: number;
   attachmentId: number;
@@ -650,6 +652,26 @@ const RULES: RouteRule[] = [
       ctx.customerVersion = body.version ?? ctx.customerVersion;
     },
   },
+  {
+    method: 'get',
+    path: '/api/customers/:id/records',
+    allow: OFFICE,
+    okStatus: 200,
+    url: (ctx) => `/api/customers/${ctx.customerId}/records`,
+  },
+  ...(['archive', 'restore'] as const).map((action): RouteRule => ({
+    method: 'post',
+    path: `/api/customers/:id/${action}`,
+    allow: OFFICE,
+    okStatus: 201,
+    url: (ctx, role) => `/api/customers/${ctx.archiveCustomers[role]?.id ?? ctx.customerId}/${action}`,
+    body: (ctx, role) => ({ version: ctx.archiveCustomers[role]?.version ?? 1 }),
+    after: (ctx, body) => {
+      const saved = body as { id?: number; version?: number };
+      for (const own of Object.values(ctx.archiveCustomers))
+        if (own && own.id === saved.id) own.version = saved.version ?? own.version;
+    },
+  })),
   // Last: signing out ends the session every row above used.
   { method: 'post', path: '/api/auth/sign-out', allow: ALL, okStatus: 204 },
 ];
@@ -683,6 +705,7 @@ const ctx: MatrixContext = {
   quoteId: 0,
   quoteVersion: 1,
   sendQuoteIds: {},
+  archiveCustomers: {},
   sentQuoteIds: {},
   outboxId: 0,
   attachmentId: 0,
@@ -728,6 +751,14 @@ beforeAll(async () => {
     .send({ name: 'Matrix customer' });
   expect(customer.status).toBe(201);
   ctx.customerId = customer.body.id;
+  for (const role of OFFICE) {
+    const own = await request(app.getHttpServer())
+      .post('/api/customers')
+      .set('Cookie', adminCookie)
+      .send({ name: `Matrix archive customer ${role}` });
+    expect(own.status).toBe(201);
+    ctx.archiveCustomers[role] = { id: own.body.id, version: own.body.version };
+  }
   const mask = await request(app.getHttpServer())
     .post('/api/spec-masks')
     .set('Cookie', adminCookie)

@@ -31,14 +31,20 @@ describe('spec masks', () => {
   it('lists the demo masks, filtered by customer', async () => {
     const res = await http().get(`/api/spec-masks?customerId=${halden}`).set('Cookie', sales);
     expect(res.status).toBe(200);
-    expect(res.body).toEqual([
+    // Other spec files may add masks for Halden; every listed one is Halden's.
+    const masks = res.body as { customer: { id: number }; name: string; bands: object[] }[];
+    expect(masks.every((m) => m.customer.id === halden)).toBe(true);
+    const demo = masks.filter((m) => m.name === 'HVS-2210 lens AR');
+    expect(demo).toEqual([
       expect.objectContaining({
         name: 'HVS-2210 lens AR',
         revision: 'A',
+        // Masks from before mask kinds existed are the customer's specifications.
+        kind: 'customer',
         customer: { id: halden, name: 'Halden Vision Systems' },
       }),
     ]);
-    expect(res.body[0].bands[0]).toMatchObject({
+    expect(demo[0].bands[0]).toMatchObject({
       from_nm: 420,
       to_nm: 680,
       max_percent: 0.5,
@@ -86,7 +92,7 @@ describe('spec masks', () => {
     expect(csv.status).toBe(200);
     expect(csv.headers['content-type']).toMatch(/text\/csv/);
     expect(csv.text.split('\n')[0]).toBe(
-      'from_nm,to_nm,angles_deg,polarisation,quantity,max_percent,min_percent,target_percent,tolerance_percent,weight,step_nm,label',
+      'from_nm,to_nm,angles_deg,angle_from_deg,angle_to_deg,angle_step_deg,polarisation,quantity,max_percent,min_percent,target_percent,tolerance_percent,margin_percent,weight,step_nm,label',
     );
     const imported = await http()
       .post('/api/spec-masks/import-csv')
@@ -142,6 +148,47 @@ describe('spec masks', () => {
       .send({ ...twoLayerDesign(m, orrin), specMaskId: haldenMask });
     expect(wrong.status).toBe(400);
     expect(wrong.body.details[0]).toMatch(/belongs to Halden Vision Systems, not to this design's customer/);
+  });
+
+  it('takes an angle range with a step, a band margin and the mask kind; bad ones get 400 and write nothing', async () => {
+    const ranged = {
+      from_nm: 420,
+      to_nm: 680,
+      angle_from_deg: 0,
+      angle_to_deg: 20,
+      angle_step_deg: 5,
+      quantity: 'R',
+      max_percent: 0.5,
+      margin_percent: 0.1,
+    };
+    const res = await http()
+      .post('/api/spec-masks')
+      .set('Cookie', engineer)
+      .send({ name: 'HVS-4000 target', customerId: orrin, revision: 'A', kind: 'internal', bands: [ranged] });
+    expect(res.status, JSON.stringify(res.body)).toBe(201);
+    expect(res.body.kind).toBe('internal');
+    expect(res.body.bands[0]).toMatchObject({ ...ranged, angles_deg: [0, 5, 10, 15, 20] });
+    const before = await maskCount();
+    const cases: [object, string | RegExp][] = [
+      [{ kind: 'secret', bands: [ranged] }, 'kind must be one of customer, internal'],
+      [{ bands: [{ ...ranged, angle_step_deg: 0 }] }, /bands\[0\]\.angle_step_deg.*greater than 0/],
+      [{ bands: [{ ...ranged, margin_percent: 0.6 }] }, /bands\[0\]\.margin_percent.*outside 0–100 %/],
+      [
+        { bands: [{ ...ranged, angle_to_deg: undefined }] },
+        /needs angle_from_deg, angle_to_deg and angle_step_deg/,
+      ],
+    ];
+    for (const [patch, message] of cases) {
+      const bad = await http()
+        .post('/api/spec-masks')
+        .set('Cookie', engineer)
+        .send({ name: 'HVS-4000 bad', customerId: orrin, revision: 'B', bands: [ranged], ...patch });
+      expect(bad.status, JSON.stringify(patch)).toBe(400);
+      expect(bad.body.details).toContainEqual(
+        typeof message === 'string' ? message : expect.stringMatching(message),
+      );
+    }
+    expect(await maskCount()).toBe(before);
   });
 
   it('operators cannot see spec masks', async () => {

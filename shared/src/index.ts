@@ -13,6 +13,7 @@ export * from './calculations.js';
 export * from './audit.js';
 export * from './revisions.js';
 export * from './materials.js';
+export * from './customers.js';
 
 // Optics engine (browser-safe; Node-only helpers live under @quietglass/shared/node/parallel).
 export * from './optics/errors.js';

@@ -23,6 +23,7 @@ export interface UserView {
 export const NAV_SECTIONS = [
   { key: 'designs', label: 'Stack designs', path: '/designs', roles: ['admin', 'engineer', 'sales'] },
   { key: 'materials', label: 'Materials', path: '/materials', roles: ['admin', 'engineer'] },
+  { key: 'customers', label: 'Customers', path: '/customers', roles: ['admin', 'engineer', 'sales'] },
   { key: 'masks', label: 'Spec masks', path: '/spec-masks', roles: ['admin', 'engineer', 'sales'] },
   { key: 'queue', label: 'Compute queue', path: '/compute-queue', roles: ['admin', 'engineer'] },
   { key: 'recipes', label: 'Released recipes', path: '/recipes', roles: ['admin', 'engineer', 'operator'] },

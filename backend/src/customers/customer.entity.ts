@@ -6,6 +6,7 @@ import {
   UpdateDateColumn,
   VersionColumn,
 } from 'typeorm';
+import type { CustomerContact } from '@quietglass/shared/customers';
 
 /** A customer of the shop: owns spec masks and stack designs. */
 @Entity({ name: 'customers' })
@@ -21,6 +22,14 @@ export class Customer {
 
   @Column({ type: 'text', default: '' })
   notes: string;
+
+  /** Contact people, each with a checked e-mail address. */
+  @Column({ type: 'jsonb', default: () => "'[]'" })
+  contacts: CustomerContact[];
+
+  /** Set while archived: hidden from pickers, kept for its records, takes no new masks or quotes. */
+  @Column({ name: 'archived_at', type: 'timestamptz', nullable: true })
+  archivedAt: Date | null;
 
   /** Optimistic-locking counter: an edit sends it back; a stale one gets 409. */
   @VersionColumn()
@@ -38,9 +47,19 @@ export interface CustomerView {
   name: string;
   contactEmail: string | null;
   notes: string;
+  contacts: CustomerContact[];
+  archivedAt: string | null;
   version: number;
 }
 
 export function toCustomerView(c: Customer): CustomerView {
-  return { id: c.id, name: c.name, contactEmail: c.contactEmail, notes: c.notes, version: c.version };
+  return {
+    id: c.id,
+    name: c.name,
+    contactEmail: c.contactEmail,
+    notes: c.notes,
+    contacts: c.contacts ?? [],
+    archivedAt: c.archivedAt ? c.archivedAt.toISOString() : null,
+    version: c.version,
+  };
 }

@@ -30,6 +30,7 @@ import { DemoSeeds1764634600000 } from '../migrations/1764634600000-demo-seeds.j
 import { Sessions1764634700000 } from '../migrations/1764634700000-sessions.js';
 import { MaterialRevisions1764634800000 } from '../migrations/1764634800000-material-revisions.js';
 import { RecordUses1764700000000 } from '../migrations/1764700000000-record-uses.js';
+import { CustomerRecordsMaskKinds1764810000000 } from '../migrations/1764810000000-customer-records-mask-kinds.js';
 
 /** Every entity of the app; each domain module also registers its own with forFeature. */
 export const ENTITIES = [
@@ -69,6 +70,7 @@ export const MIGRATIONS = [
   Sessions1764634700000,
   MaterialRevisions1764634800000,
   RecordUses1764700000000,
+  CustomerRecordsMaskKinds1764810000000,
 ];
 
 /** TypeORM options for PostgreSQL; never `synchronize` — the schema comes from migrations. */

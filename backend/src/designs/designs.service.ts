@@ -37,8 +37,12 @@ export class DesignsService {
     private readonly audit: AuditService,
   ) {}
 
-  async list(): Promise<DesignSummaryView[]> {
-    const designs = await this.designs.find({ order: { updatedAt: 'DESC' } });
+  /** Every design (or one customer's), newest first, with its latest version. */
+  async list(customerId?: number): Promise<DesignSummaryView[]> {
+    const designs = await this.designs.find({
+      ...(customerId !== undefined ? { where: { customer: { id: customerId } } } : {}),
+      order: { updatedAt: 'DESC', id: 'DESC' },
+    });
     if (designs.length === 0) return [];
     const latest = await this.versions
       .createQueryBuilder('v')

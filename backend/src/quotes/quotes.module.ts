@@ -22,5 +22,6 @@ import { QuotesService } from './quotes.service.js';
   ],
   controllers: [QuotesController],
   providers: [QuotesService],
+  exports: [QuotesService],
 })
 export class QuotesModule {}

@@ -7,6 +7,8 @@ import { AuditService } from '../audit/audit.service.js';
 import { orNull } from '../common/not-found.js';
 import { updateIfVersion } from '../common/optimistic-lock.js';
 import { CustomersService } from '../customers/customers.service.js';
+import { internalMaskProblem } from '../spec-masks/spec-masks.service.js';
+import { isCustomerSpecification } from '@quietglass/shared/customers';
 import { DesignsService } from '../designs/designs.service.js';
 import { MailService } from '../mail/mail.service.js';
 import { ReportsService } from '../reports/reports.service.js';
@@ -39,6 +41,13 @@ export class QuotesService {
     return this.db.getRepository(Quote).find({ order: { id: 'DESC' }, take: 500 });
   }
 
+  /** One customer's quotes, newest change first. */
+  forCustomer(customerId: number): Promise<Quote[]> {
+    return this.db
+      .getRepository(Quote)
+      .find({ where: { customer: { id: customerId } }, order: { updatedAt: 'DESC', id: 'DESC' } });
+  }
+
   async get(id: number): Promise<Quote> {
     const q = await this.db.getRepository(Quote).findOneBy({ id });
     if (!q) throw new NotFoundException(`Quote ${id} does not exist`);
@@ -47,6 +56,8 @@ export class QuotesService {
 
   async create(dto: QuoteDto, user: User): Promise<Quote> {
     const fields = await this.checked(dto);
+    // Archived customers keep their quotes but get no new ones.
+    if (fields.customer?.archivedAt) await this.customers.active(fields.customer.id);
     const id = await this.db.transaction(async (tx) => {
       const repo = tx.getRepository(Quote);
       const saved = await repo.save(
@@ -289,6 +300,8 @@ export class QuotesService {
       if (!mask) problems.push(`specMaskId: spec mask ${maskId} does not exist`);
       else if (customer && mask.customer.id !== customer.id)
         problems.push(`specMaskId: spec mask ${maskId} belongs to another customer`);
+      else if (!isCustomerSpecification(mask))
+        problems.push(internalMaskProblem(mask, dto.specMaskId === undefined));
     }
     if (dto.validUntil <= today()) problems.push(`validUntil: must be in the future (after ${today()})`);
     const quantities = dto.quantityBreaks.map((b) => b.minQuantity);

@@ -17,7 +17,8 @@ import { ApprovalsService } from '../designs/approvals.service.js';
 import { DesignsService } from '../designs/designs.service.js';
 import type { RunSpectrum } from '../runs/run.entity.js';
 import { RunsService } from '../runs/runs.service.js';
-import { SpecMasksService } from '../spec-masks/spec-masks.service.js';
+import { internalMaskProblem, SpecMasksService } from '../spec-masks/spec-masks.service.js';
+import { isCustomerSpecification } from '@quietglass/shared/customers';
 import type { User } from '../users/user.entity.js';
 import type { CreateReportDto } from './dto/report.dto.js';
 import { documentNumber, renderReportPdf, type PlotSeries } from './report-pdf.js';
@@ -57,6 +58,9 @@ export class ReportsService {
       throw new BadRequestException({
         message: [`specMaskId: spec mask ${maskId} belongs to another customer`],
       });
+    }
+    if (!isCustomerSpecification(mask)) {
+      throw new BadRequestException({ message: [internalMaskProblem(mask, dto.specMaskId === undefined)] });
     }
     const snapshot = version.materialsSnapshot ?? {};
     const materials = new Map(Object.entries(snapshot).map(([k, v]) => [Number(k), v]));
@@ -153,7 +157,6 @@ export class ReportsService {
     return r.pdf;
   }
 
-  /** PDFs of several reports (for e-mail), all of which must exist. */
   /** The reports with these ids that exist, without their PDFs. */
   summaries(ids: number[]): Promise<ComplianceReport[]> {
     if (ids.length === 0) return Promise.resolve([]);
@@ -163,6 +166,16 @@ export class ReportsService {
     });
   }
 
+  /** The reports of these designs, newest first, without their PDFs. */
+  forDesigns(designIds: number[]): Promise<ComplianceReport[]> {
+    if (designIds.length === 0) return Promise.resolve([]);
+    return this.db.getRepository(ComplianceReport).find({
+      where: { designId: In(designIds) },
+      order: { createdAt: 'DESC', id: 'DESC' },
+    });
+  }
+
+  /** PDFs of several reports (for e-mail), all of which must exist. */
   async pdfs(ids: number[]): Promise<{ id: number; pdf: Buffer }[]> {
     if (ids.length === 0) return [];
     const rows = await this.db

@@ -34,6 +34,23 @@ describe('spec-mask CSV', () => {
     expect(again.ok && validateSpecMask({ bands: again.bands }).bands).toEqual(bands);
   });
 
+  it('reads an angle range with a step and a band margin, and writes them back as a range', () => {
+    const csv =
+      'from_nm,to_nm,angle_from_deg,angle_to_deg,angle_step_deg,quantity,max_percent,margin_percent\n420,680,0,20,5,R,0.5,0.1\n';
+    const parsed = parseMaskCsv(csv);
+    if (!parsed.ok) throw new Error('expected the file to be read');
+    const bands = validateSpecMask({ bands: parsed.bands }).bands;
+    expect(bands[0]).toMatchObject({
+      angles_deg: [0, 5, 10, 15, 20],
+      angle_step_deg: 5,
+      margin_percent: 0.1,
+    });
+    const written = maskToCsv(bands);
+    expect(written.split('\n')[1]).toContain('0;5;10;15;20');
+    const again = parseMaskCsv(written);
+    expect(again.ok && validateSpecMask({ bands: again.bands }).bands).toEqual(bands);
+  });
+
   it('rejects unknown or missing columns in the header', () => {
     expect(bad('from_nm,to_nm,colour\n400,500,red\n')[0].reason).toMatch(
       /unknown column\(s\) colour; missing column\(s\) quantity/,

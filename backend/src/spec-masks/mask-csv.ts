@@ -5,7 +5,7 @@ import type { CsvProblem } from '../common/csv.js';
 /** Largest mask file accepted (bytes of text). */
 export const MAX_MASK_CSV_BYTES = 200_000;
 
-/** Columns of the spec-mask CSV, in export order: the limit band's own fields. `angles_deg` lists angles separated by `;`. */
+/** Columns of the spec-mask CSV, in export order: the limit band's own fields. `angles_deg` lists angles separated by `;`; an angle range fills angle_from_deg, angle_to_deg and angle_step_deg instead. */
 export const MASK_CSV_COLUMNS = LIMIT_BAND_FIELDS;
 
 const NUMBER_COLUMNS = new Set([
@@ -15,6 +15,10 @@ const NUMBER_COLUMNS = new Set([
   'min_percent',
   'target_percent',
   'tolerance_percent',
+  'margin_percent',
+  'angle_from_deg',
+  'angle_to_deg',
+  'angle_step_deg',
   'weight',
   'step_nm',
 ]);

@@ -8,6 +8,7 @@ import {
   UpdateDateColumn,
   VersionColumn,
 } from 'typeorm';
+import type { SpecMaskKind } from '@quietglass/shared/customers';
 import type { LimitBand } from '@quietglass/shared/optics/mask';
 import { Customer } from '../customers/customer.entity.js';
 
@@ -26,6 +27,10 @@ export class SpecMaskRecord {
 
   @Column({ type: 'varchar', length: 20 })
   revision: string;
+
+  /** The customer's own specification, or a target the shop set for design work (never sent out). */
+  @Column({ type: 'varchar', length: 10, default: 'customer' })
+  kind: SpecMaskKind;
 
   /** Limit bands as the engine normalised them. */
   @Column({ type: 'jsonb' })
@@ -57,6 +62,7 @@ export interface SpecMaskView {
   name: string;
   customer: { id: number; name: string };
   revision: string;
+  kind: SpecMaskKind;
   bands: LimitBand[];
   notes: string;
   version: number;
@@ -71,6 +77,7 @@ export function toSpecMaskView(m: SpecMaskRecord): SpecMaskView {
     name: m.name,
     customer: { id: m.customer.id, name: m.customer.name },
     revision: m.revision,
+    kind: m.kind,
     bands: m.bands,
     notes: m.notes,
     version: m.version,

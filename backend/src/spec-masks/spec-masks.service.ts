@@ -38,19 +38,27 @@ export class SpecMasksService {
   async create(dto: SpecMaskDto, user: User): Promise<SpecMaskRecord> {
     const bands = checkedBands(dto.bands);
     const customer = await this.customer(dto.customerId);
+    const kind = dto.kind ?? 'customer';
     return this.unique(dto, () =>
       this.masks.manager.transaction(async (tx) => {
         const repo = tx.getRepository(SpecMaskRecord);
         const saved = await repo.save(
-          repo.create({ name: dto.name, customer, revision: dto.revision, bands, notes: dto.notes ?? '' }),
+          repo.create({
+            name: dto.name,
+            customer,
+            revision: dto.revision,
+            kind,
+            bands,
+            notes: dto.notes ?? '',
+          }),
         );
         await this.audit.record(tx, {
           actor: user,
           entity: 'spec-mask',
           entityId: saved.id,
           action: 'created',
-          summary: `spec mask "${saved.name}" rev ${saved.revision} created for ${customer.name}`,
-          details: { revision: saved.revision, bands },
+          summary: `${kind === 'internal' ? 'internal design target' : 'spec mask'} "${saved.name}" rev ${saved.revision} created for ${customer.name}`,
+          details: { revision: saved.revision, kind, bands },
         });
         return saved;
       }),
@@ -73,6 +81,7 @@ export class SpecMasksService {
     }
     const bands = checkedBands(dto.bands);
     const customer = await this.customer(dto.customerId);
+    const kind = dto.kind ?? mask.kind;
     const staleError = async () => stale(await this.get(id));
     return this.unique(dto, () =>
       this.masks.manager.transaction(async (tx) => {
@@ -94,6 +103,7 @@ export class SpecMasksService {
                 name: dto.name,
                 customer,
                 revision: dto.revision,
+                kind,
                 bands,
                 notes: dto.notes ?? mask.notes,
               },
@@ -108,8 +118,8 @@ export class SpecMasksService {
             action: 'edited',
             summary: `spec mask "${dto.name}" rev ${dto.revision} edited in place (not yet used by a submitted version, report or quote)`,
             details: {
-              before: { revision: mask.revision, bands: mask.bands },
-              after: { revision: dto.revision, bands },
+              before: { revision: mask.revision, kind: mask.kind, bands: mask.bands },
+              after: { revision: dto.revision, kind, bands },
             },
           });
           return tx.getRepository(SpecMaskRecord).findOneByOrFail({ id });
@@ -117,7 +127,7 @@ export class SpecMasksService {
         const revision = dto.revision.trim() !== mask.revision ? dto.revision : nextRevision(mask.revision);
         const repo = tx.getRepository(SpecMaskRecord);
         const next = await repo.save(
-          repo.create({ name: dto.name, customer, revision, bands, notes: dto.notes ?? mask.notes }),
+          repo.create({ name: dto.name, customer, revision, kind, bands, notes: dto.notes ?? mask.notes }),
         );
         await updateIfVersion(
           tx,
@@ -138,8 +148,8 @@ export class SpecMasksService {
           summary: `spec mask "${mask.name}" rev ${mask.revision} → rev ${revision} (new spec mask ${next.id}); rev ${mask.revision} stays as it was`,
           details: {
             nextId: next.id,
-            from: { revision: mask.revision, bands: mask.bands },
-            to: { revision, bands },
+            from: { revision: mask.revision, kind: mask.kind, bands: mask.bands },
+            to: { revision, kind, bands },
           },
         });
         return next;
@@ -178,8 +188,9 @@ export class SpecMasksService {
     return this.create({ ...dto, bands: parsed.bands }, user);
   }
 
+  /** The customer a mask is written for: it must exist (400) and not be archived (409). */
   private async customer(id: number) {
-    return missingAsBadRequest(this.customers.get(id), `customerId: customer ${id} does not exist`);
+    return missingAsBadRequest(this.customers.active(id), `customerId: customer ${id} does not exist`);
   }
 
   private async unique<T>(m: { name: string; revision: string }, write: () => Promise<T>): Promise<T> {
@@ -199,6 +210,14 @@ export function checkedBands(bands: unknown[]): LimitBand[] {
     if (err instanceof OpticsInputError) throw new BadRequestException({ message: [err.message] });
     throw err;
   }
+}
+
+/**
+ * Why an internal design target cannot stand in a report or quote: these judge against, and go
+ * to, the customer. `byDefault`: the mask came from the design, not from the request.
+ */
+export function internalMaskProblem(mask: SpecMaskRecord, byDefault: boolean): string {
+  return `specMaskId: spec mask "${mask.name}" rev ${mask.revision} ${byDefault ? "(the design's mask) " : ''}is an internal design target; reports and quotes use the customer's specification, choose a customer mask`;
 }
 
 function stale(mask: SpecMaskRecord): ConflictException {

@@ -24,6 +24,7 @@ function page(load: PageLoader): Pick<RouteObject, 'lazy'> {
 const SECTION_PAGES: Record<NavSection['key'], { path?: string; load: PageLoader }[]> = {
   users: [{ load: async () => (await import('./routes/users-route')).UsersRoute }],
   materials: [{ load: async () => (await import('./routes/materials-route')).MaterialsRoute }],
+  customers: [{ load: async () => (await import('./routes/customers-route')).CustomersRoute }],
   masks: [{ load: async () => (await import('./routes/spec-masks-route')).SpecMasksRoute }],
   queue: [{ load: async () => (await import('./routes/compute-queue-route')).ComputeQueueRoute }],
   designs: [

@@ -4,6 +4,7 @@ import type { NavSection } from '@quietglass/shared';
 export const SECTION_SUMMARIES: Readonly<Record<NavSection['key'], string>> = {
   designs: 'Layer stacks and their versions.',
   materials: 'Refractive-index data of the coating materials in use.',
+  customers: 'Customers, their contacts and everything on record for them.',
   masks: "Customers' reflectance and transmittance limits.",
   queue: 'Calculations that are running or waiting.',
   recipes: 'Designs released for the chamber.',

@@ -15,22 +15,42 @@ type FormSelectFieldProps<T extends FieldValues> = {
   /** First entry with an empty value, e.g. "Choose…"; none when omitted. */
   placeholder?: string;
   rules?: RegisterOptions<T, FieldPath<T>>;
+  /** A last entry that creates a record instead of choosing one (e.g. "New customer…"). */
+  createOption?: { label: string; onCreate: () => void };
 } & Pick<TextFieldProps, 'disabled' | 'fullWidth' | 'size' | 'helperText' | 'sx'>;
+
+/** Label of the create entry of every customer picker. */
+export const NEW_CUSTOMER_OPTION = 'New customer…';
+
+/** Value of the create entry; never a record's id. */
+const CREATE_VALUE = '__create__';
 
 /** A native select bound to a react-hook-form field (keyboard-friendly and plain to test). */
 export function FormSelectField<T extends FieldValues>({
   options,
   placeholder,
+  createOption,
   ...props
 }: FormSelectFieldProps<T>) {
+  const intercept = (value: string) => {
+    if (!createOption || value !== CREATE_VALUE) return false;
+    createOption.onCreate();
+    return true;
+  };
   return (
-    <FormTextField {...props} select slotProps={{ select: { native: true }, inputLabel: { shrink: true } }}>
+    <FormTextField
+      {...props}
+      select
+      interceptChange={intercept}
+      slotProps={{ select: { native: true }, inputLabel: { shrink: true } }}
+    >
       {placeholder !== undefined && <option value="">{placeholder}</option>}
       {options.map((o) => (
         <option key={o.value} value={o.value}>
           {o.label}
         </option>
       ))}
+      {createOption && <option value={CREATE_VALUE}>{createOption.label}</option>}
     </FormTextField>
   );
 }

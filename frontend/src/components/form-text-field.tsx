@@ -14,6 +14,8 @@ type FormTextFieldProps<T extends FieldValues> = Omit<
   control: Control<T>;
   name: FieldPath<T>;
   rules?: RegisterOptions<T, FieldPath<T>>;
+  /** Sees each typed or chosen value first; returning true keeps it out of the form. */
+  interceptChange?: (value: string) => boolean;
 };
 
 /** A MUI text field bound to a react-hook-form field; the rule's message shows as helper text. */
@@ -22,6 +24,7 @@ export function FormTextField<T extends FieldValues>({
   name,
   rules,
   helperText,
+  interceptChange,
   ...textFieldProps
 }: FormTextFieldProps<T>) {
   const { field, fieldState } = useController({ control, name, rules });
@@ -30,7 +33,9 @@ export function FormTextField<T extends FieldValues>({
       {...textFieldProps}
       name={field.name}
       value={field.value ?? ''}
-      onChange={field.onChange}
+      onChange={(e) => {
+        if (!interceptChange?.(e.target.value)) field.onChange(e);
+      }}
       onBlur={field.onBlur}
       inputRef={field.ref}
       disabled={field.disabled || textFieldProps.disabled}

@@ -16,7 +16,10 @@ export interface ForbiddenRegion {
 const SINGLE_WAVELENGTH_WIDTH_NM = 1;
 
 export function describeBand(band: LimitBand): string {
-  const angles = (band.angles_deg ?? [0]).join(', ');
+  const angles =
+    band.angle_step_deg !== undefined
+      ? `${band.angle_from_deg}–${band.angle_to_deg} every ${band.angle_step_deg}`
+      : (band.angles_deg ?? [0]).join(', ');
   const where = `${band.from_nm}–${band.to_nm} nm, ${angles}°, ${band.polarisation ?? 'avg'}`;
   const q = band.quantity;
   let bound = '';
@@ -24,7 +27,9 @@ export function describeBand(band: LimitBand): string {
   else if (band.min_percent !== undefined) bound = `${q} ≥ ${band.min_percent} %`;
   else if (band.target_percent !== undefined)
     bound = `${q} = ${band.target_percent} ± ${band.tolerance_percent ?? 0} %`;
-  return `${band.label ? `${band.label}: ` : ''}${bound} (${where})`;
+  // The margin is the shop's design aim, never part of the customer's limit.
+  const margin = band.margin_percent ? `; design margin ${band.margin_percent} % points` : '';
+  return `${band.label ? `${band.label}: ` : ''}${bound} (${where})${margin}`;
 }
 
 /**

@@ -36,8 +36,15 @@ export interface LimitBand {
   /** Wavelength range in nm, from_nm ≤ to_nm (equal: a single wavelength). */
   from_nm: number;
   to_nm: number;
-  /** Angles of incidence in degrees (default [0]). */
+  /**
+   * Angles of incidence in degrees (default [0]). A band given as a range (angle_from_deg,
+   * angle_to_deg, angle_step_deg) gets the range's angles here once validated.
+   */
   angles_deg?: number[];
+  /** Angle range, degrees: from, from + step, … and to itself (both ends included). */
+  angle_from_deg?: number;
+  angle_to_deg?: number;
+  angle_step_deg?: number;
   /** Polarisation (default `avg`, unpolarised). */
   polarisation?: Polarisation;
   quantity: MaskQuantity;
@@ -48,6 +55,12 @@ export interface LimitBand {
   /** Target, percent, with `tolerance_percent` (> 0) either side. */
   target_percent?: number;
   tolerance_percent?: number;
+  /**
+   * Design margin, percentage points ≥ 0: how far inside the customer's limit the design aims
+   * (a maximum of 1 % with margin 0.2 is designed to 0.8 %). Compliance is judged against the
+   * customer's limit alone; the margin only tightens design-time targets.
+   */
+  margin_percent?: number;
   /** Weight in the merit value (default 1). */
   weight?: number;
   /** Sampling step in nm inside the band (default: the mask's step_nm, else 1 nm). */
@@ -101,12 +114,16 @@ export const LIMIT_BAND_FIELDS = [
   'from_nm',
   'to_nm',
   'angles_deg',
+  'angle_from_deg',
+  'angle_to_deg',
+  'angle_step_deg',
   'polarisation',
   'quantity',
   'max_percent',
   'min_percent',
   'target_percent',
   'tolerance_percent',
+  'margin_percent',
   'weight',
   'step_nm',
   'label',
@@ -166,13 +183,22 @@ function validateBand(item: unknown, field: string, defaultStep: number): LimitB
   if (from > to) {
     throw new OpticsInputError(at('from_nm'), `must not exceed to_nm (${from} nm > ${to} nm)`);
   }
-  const angles =
-    obj.angles_deg === undefined ? [0] : numberList(obj.angles_deg, at('angles_deg'), incidenceAngle);
+  const range = bandAngleRange(obj, at);
+  const listed =
+    obj.angles_deg === undefined ? null : numberList(obj.angles_deg, at('angles_deg'), incidenceAngle);
+  const angles = range ? expandAngleRange(range, at('angle_step_deg')) : (listed ?? [0]);
+  // A validated range band carries its expansion in angles_deg; anything else is two answers.
+  if (range && listed && !sameNumbers([...new Set(listed)], angles)) {
+    throw new OpticsInputError(
+      at('angles_deg'),
+      `give either an angle list or an angle range, not both (the range gives ${angles.join(', ')}°)`,
+    );
+  }
   if (angles.length === 0) throw new OpticsInputError(at('angles_deg'), 'must list at least one angle');
   if (angles.length > MAX_BAND_ANGLES)
     throw new OpticsInputError(
-      at('angles_deg'),
-      `lists ${angles.length} angles; a band has at most ${MAX_BAND_ANGLES}`,
+      at(range ? 'angle_step_deg' : 'angles_deg'),
+      `gives ${angles.length} angles; a band has at most ${MAX_BAND_ANGLES}`,
     );
   const polarisation =
     obj.polarisation === undefined ? 'avg' : oneOf(obj.polarisation, POLARISATIONS, at('polarisation'));
@@ -198,6 +224,7 @@ function validateBand(item: unknown, field: string, defaultStep: number): LimitB
     from_nm: from,
     to_nm: to,
     angles_deg: [...new Set(angles)],
+    ...(range && { angle_from_deg: range.from, angle_to_deg: range.to, angle_step_deg: range.step }),
     polarisation,
     quantity,
     weight: obj.weight === undefined ? 1 : positiveNumber(obj.weight, at('weight')),
@@ -212,6 +239,9 @@ function validateBand(item: unknown, field: string, defaultStep: number): LimitB
     band.tolerance_percent = positiveNumber(obj.tolerance_percent, at('tolerance_percent'));
   } else if (obj.tolerance_percent !== undefined) {
     throw new OpticsInputError(at('tolerance_percent'), 'applies only to target_percent');
+  }
+  if (obj.margin_percent !== undefined) {
+    band.margin_percent = checkedMargin(band, obj.margin_percent, at('margin_percent'));
   }
   if ((to - from) / (band.step_nm ?? 1) > MAX_RANGE_POINTS) {
     throw new OpticsInputError(at('step_nm'), `gives more than ${MAX_RANGE_POINTS} samples in this band`);
@@ -242,6 +272,99 @@ export function bandMargin(band: LimitBand, valuePercent: number): number {
 /** The values (percent) a band allows, [low, high]. */
 export function bandAllowedRange(band: LimitBand): [number, number] {
   return allowed(boundOf(band));
+}
+
+/**
+ * The design margin of a value against a band, percentage points: {@link bandMargin} less the
+ * band's margin_percent, i.e. the margin against the design target (limit tightened by the
+ * margin). ≥ 0 means the design has the spare the band asks for. Compliance uses bandMargin.
+ */
+export function bandDesignMargin(band: LimitBand, valuePercent: number): number {
+  return bandMargin(band, valuePercent) - (band.margin_percent ?? 0);
+}
+
+/** The values (percent) a band's design target allows: its allowed range shrunk by the margin. */
+export function bandDesignRange(band: LimitBand): [number, number] {
+  const b = boundOf(band);
+  const m = band.margin_percent ?? 0;
+  if (b.kind === 'max') return [0, b.value - m];
+  if (b.kind === 'min') return [b.value + m, 100];
+  return [b.value - b.tolerance + m, b.value + b.tolerance - m];
+}
+
+/** A band's angle range as given, or null for a band with an angle list (or no angles). */
+function bandAngleRange(
+  obj: Record<string, unknown>,
+  at: (key: string) => string,
+): { from: number; to: number; step: number } | null {
+  const keys = ['angle_from_deg', 'angle_to_deg', 'angle_step_deg'] as const;
+  const given = keys.filter((k) => obj[k] !== undefined);
+  if (given.length === 0) return null;
+  if (given.length < keys.length) {
+    const missing = keys.filter((k) => obj[k] === undefined);
+    throw new OpticsInputError(
+      at(missing[0]),
+      `an angle range needs angle_from_deg, angle_to_deg and angle_step_deg (missing ${missing.join(', ')})`,
+    );
+  }
+  const from = incidenceAngle(obj.angle_from_deg, at('angle_from_deg'));
+  const to = incidenceAngle(obj.angle_to_deg, at('angle_to_deg'));
+  const step = positiveNumber(obj.angle_step_deg, at('angle_step_deg'));
+  if (from > to)
+    throw new OpticsInputError(at('angle_from_deg'), `must not exceed angle_to_deg (${from}° > ${to}°)`);
+  return { from, to, step };
+}
+
+/**
+ * The angles of an angle range, degrees: from, from + step, … while below to, then to itself, so
+ * both ends are always included (0–20° every 5° gives 0, 5, 10, 15, 20; every 6° gives 0, 6, 12,
+ * 18, 20). Values are rounded to 1e-6° so 0.1° steps do not drift. Throws when the range gives
+ * more than {@link MAX_BAND_ANGLES} angles.
+ */
+export function expandAngleRange(
+  range: { from: number; to: number; step: number },
+  field = 'angle_step_deg',
+): number[] {
+  const { from, to, step } = range;
+  if (!(step > 0) || !Number.isFinite(step)) throw new OpticsInputError(field, 'must be greater than 0');
+  if ((to - from) / step > MAX_BAND_ANGLES) {
+    throw new OpticsInputError(
+      field,
+      `gives more than ${MAX_BAND_ANGLES} angles from ${from}° to ${to}°; a band has at most ${MAX_BAND_ANGLES}`,
+    );
+  }
+  const out: number[] = [];
+  for (let i = 0; ; i++) {
+    const a = Math.round((from + i * step) * 1e6) / 1e6;
+    if (a >= to - 1e-9) break;
+    out.push(a);
+  }
+  out.push(to);
+  return out;
+}
+
+function sameNumbers(a: readonly number[], b: readonly number[]): boolean {
+  return a.length === b.length && a.every((x, i) => Math.abs(x - b[i]) < 1e-9);
+}
+
+/** A band's margin: ≥ 0 and leaving a design target inside 0–100 % (and a tolerance > 0). */
+function checkedMargin(band: LimitBand, value: unknown, field: string): number {
+  const m = finiteNumber(value, field);
+  if (m < 0) throw new OpticsInputError(field, `must be 0 or more percentage points (got ${m})`);
+  const [low, high] = bandDesignRange({ ...band, margin_percent: m });
+  if (band.target_percent !== undefined && !(low < high)) {
+    throw new OpticsInputError(
+      field,
+      `must be less than tolerance_percent (${band.tolerance_percent} %), or no design target is left`,
+    );
+  }
+  if (low > 100 || high < 0) {
+    throw new OpticsInputError(
+      field,
+      `puts the design target outside 0–100 % (${band.quantity} ${low > 100 ? `≥ ${low}` : `≤ ${high}`} %)`,
+    );
+  }
+  return m;
 }
 
 function marginOf(bound: Bound, value: number): number {

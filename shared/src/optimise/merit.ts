@@ -350,6 +350,7 @@ function sampleTable(
     tol: number;
     w: number;
     inMask: number;
+    margin: number;
   }[] = [];
   const at = (pol: Polarisation, angle: number, wl: number) =>
     ((layout.polIndex.get(pol) ?? 0) * nA + (angleIndex.get(angle) ?? 0)) * nW + (wlIndex.get(wl) ?? 0);
@@ -371,6 +372,8 @@ function sampleTable(
           tol,
           w: band.weight ?? 1,
           inMask: 1,
+          // The band's own design margin, when larger than the run's: both aim inside the limit.
+          margin: Math.max(margin, band.margin_percent ?? 0),
         });
       }
     }
@@ -385,6 +388,7 @@ function sampleTable(
         tol: 0,
         w: t.weight ?? 1,
         inMask: 0,
+        margin: 0,
       });
     });
   }
@@ -410,7 +414,11 @@ function sampleTable(
     table.bound[i] = row.bound;
     table.tolerance[i] = row.tol;
     table.limit[i] =
-      row.kind === KIND_MAX ? row.bound - margin : row.kind === KIND_MIN ? row.bound + margin : row.bound;
+      row.kind === KIND_MAX
+        ? row.bound - row.margin
+        : row.kind === KIND_MIN
+          ? row.bound + row.margin
+          : row.bound;
     table.scale[i] = Math.sqrt((row.w * count) / weightSum);
     table.inMask[i] = row.inMask;
   });

@@ -1,5 +1,6 @@
 import { Transform } from 'class-transformer';
-import { IsArray, IsInt, IsOptional, IsString, MaxLength, Min, MinLength } from 'class-validator';
+import { IsArray, IsIn, IsInt, IsOptional, IsString, MaxLength, Min, MinLength } from 'class-validator';
+import { SPEC_MASK_KINDS, type SpecMaskKind } from '@quietglass/shared/customers';
 import { trim } from '../../common/dto.js';
 
 class SpecMaskMeta {
@@ -22,6 +23,11 @@ class SpecMaskMeta {
   @IsString()
   @MaxLength(4000)
   notes?: string;
+
+  /** 'customer' (default): the customer's specification; 'internal': the shop's own design target. */
+  @IsOptional()
+  @IsIn(SPEC_MASK_KINDS, { message: `kind must be one of ${SPEC_MASK_KINDS.join(', ')}` })
+  kind?: SpecMaskKind;
 }
 
 /** Limit bands are checked by the optics engine's mask validation (field paths like bands[2].to_nm). */

@@ -12,6 +12,7 @@ const EXPECTED_LINKS: Record<Role, [name: string, href: string][]> = {
     ['Home', '/'],
     ['Stack designs', '/designs'],
     ['Materials', '/materials'],
+    ['Customers', '/customers'],
     ['Spec masks', '/spec-masks'],
     ['Compute queue', '/compute-queue'],
     ['Released recipes', '/recipes'],
@@ -27,6 +28,7 @@ const EXPECTED_LINKS: Record<Role, [name: string, href: string][]> = {
     ['Home', '/'],
     ['Stack designs', '/designs'],
     ['Materials', '/materials'],
+    ['Customers', '/customers'],
     ['Spec masks', '/spec-masks'],
     ['Compute queue', '/compute-queue'],
     ['Released recipes', '/recipes'],
@@ -38,6 +40,7 @@ const EXPECTED_LINKS: Record<Role, [name: string, href: string][]> = {
   sales: [
     ['Home', '/'],
     ['Stack designs', '/designs'],
+    ['Customers', '/customers'],
     ['Spec masks', '/spec-masks'],
     ['Compliance reports', '/reports'],
     ['Quotes', '/quotes'],
@@ -83,6 +86,7 @@ describe('side navigation', () => {
     const cards = within(screen.getByRole('list', { name: 'Your sections' })).getAllByRole('heading');
     expect(cards.map((h) => h.textContent)).toEqual([
       'Stack designs',
+      'Customers',
       'Spec masks',
       'Compliance reports',
       'Quotes',
@@ -104,6 +108,7 @@ describe('side navigation', () => {
   it.each([
     ['/designs', 'Stack designs'],
     ['/materials', 'Materials'],
+    ['/customers', 'Customers'],
     ['/spec-masks', 'Spec masks'],
     ['/compute-queue', 'Compute queue'],
     ['/recipes', 'Released recipes'],

@@ -1,4 +1,5 @@
 import AssignmentTurnedInOutlined from '@mui/icons-material/AssignmentTurnedInOutlined';
+import BusinessOutlined from '@mui/icons-material/BusinessOutlined';
 import DescriptionOutlined from '@mui/icons-material/DescriptionOutlined';
 import FactoryOutlined from '@mui/icons-material/FactoryOutlined';
 import HistoryOutlined from '@mui/icons-material/HistoryOutlined';
@@ -19,6 +20,7 @@ export const HOME_ICON: SvgIconComponent = HomeOutlined;
 export const SECTION_ICONS: Readonly<Record<NavSection['key'], SvgIconComponent>> = {
   designs: LayersOutlined,
   materials: ScienceOutlined,
+  customers: BusinessOutlined,
   masks: RuleOutlined,
   queue: QueueOutlined,
   recipes: AssignmentTurnedInOutlined,

@@ -1,3 +1,4 @@
+import { specMaskLabel } from '@quietglass/shared';
 import Button from '@mui/material/Button';
 import { useQueryClient } from '@tanstack/react-query';
 import { useState } from 'react';
@@ -57,11 +58,7 @@ export function DesignWorkspaceRoute() {
   // A compute-queue link names the tab and the calculation to open.
   const openCalculationId = Number(search.get('calculation')) || null;
   const maskName =
-    design.data.specMaskId === null
-      ? null
-      : mask.data
-        ? `${mask.data.name} rev ${mask.data.revision}`
-        : 'Spec mask';
+    design.data.specMaskId === null ? null : mask.data ? specMaskLabel(mask.data) : 'Spec mask';
 
   return (
     <>

@@ -5,6 +5,7 @@ import { useNavigate } from 'react-router-dom';
 import { PageHeader } from '../../components/page-header';
 import { useSignedInUser } from '../../features/auth/signed-in-user';
 import { useCustomers } from '../../features/customers/api/get-customers';
+import { useNewCustomerPicker } from '../../features/customers/components/use-new-customer-picker';
 import { DesignsGrid } from '../../features/designs/components/designs-grid';
 import { NewDesignDialog } from '../../features/designs/components/new-design-dialog';
 import { useMaterials } from '../../features/materials/api/get-materials';
@@ -18,6 +19,7 @@ export function DesignsRoute() {
   const [creating, setCreating] = useState(false);
   // What the "New design" dialog offers; fetched only for those who may create designs.
   const customers = useCustomers();
+  const newCustomer = useNewCustomerPicker();
   const masks = useSpecMasks({}, { enabled: canEdit });
   const materials = useMaterials();
   const ready = Boolean(customers.data && masks.data && materials.data);
@@ -49,8 +51,10 @@ export function DesignsRoute() {
           customers={customers.data}
           specMasks={masks.data}
           materials={materials.data}
+          onNewCustomer={newCustomer.open}
         />
       )}
+      {newCustomer.dialog}
     </>
   );
 }

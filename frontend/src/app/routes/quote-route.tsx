@@ -8,6 +8,7 @@ import { LoadingBlock } from '../../components/loading-block';
 import { PageHeader } from '../../components/page-header';
 import { useSignedInUser } from '../../features/auth/signed-in-user';
 import { getCustomersQueryOptions } from '../../features/customers/api/get-customers';
+import { useNewCustomerPicker } from '../../features/customers/components/use-new-customer-picker';
 import { getDesignQueryOptions } from '../../features/designs/api/get-design';
 import { getDesignsQueryOptions } from '../../features/designs/api/get-designs';
 import { useAttachReports } from '../../features/quotes/api/attach-reports';
@@ -40,6 +41,7 @@ export function QuoteRoute() {
   const reports = useReports({ designId: designId ?? undefined }, { enabled: designId !== null && canWrite });
   // What the edit form offers; fetched only for those who may write quotes.
   const customers = useQuery({ ...getCustomersQueryOptions(), enabled: canWrite });
+  const newCustomer = useNewCustomerPicker();
   const designs = useQuery({ ...getDesignsQueryOptions(), enabled: canWrite });
   const chosenDesign = useQuery({
     ...getDesignQueryOptions(chosenDesignId ?? 0),
@@ -100,8 +102,10 @@ export function QuoteRoute() {
           masks={masks.data}
           versions={chosenDesign.data?.id === chosenDesignId ? chosenDesign.data?.versions : undefined}
           onDesignChange={setChosenDesignId}
+          onNewCustomer={newCustomer.open}
         />
       )}
+      {newCustomer.dialog}
       {dialog === 'attach' && (
         <AttachReportsDialog
           open

@@ -7,6 +7,7 @@ import { ErrorAlert } from '../../components/error-alert';
 import { PageHeader } from '../../components/page-header';
 import { useSignedInUser } from '../../features/auth/signed-in-user';
 import { getCustomersQueryOptions } from '../../features/customers/api/get-customers';
+import { useNewCustomerPicker } from '../../features/customers/components/use-new-customer-picker';
 import { getDesignQueryOptions } from '../../features/designs/api/get-design';
 import { getDesignsQueryOptions } from '../../features/designs/api/get-designs';
 import { canWriteQuotes } from '../../features/quotes/quote-form';
@@ -21,6 +22,7 @@ export function QuotesRoute() {
   const [creating, setCreating] = useState(false);
   // What the "New quote" form offers; fetched only for those who may write quotes.
   const customers = useQuery({ ...getCustomersQueryOptions(), enabled: canWrite });
+  const newCustomer = useNewCustomerPicker();
   const designs = useQuery({ ...getDesignsQueryOptions(), enabled: canWrite });
   const masks = useSpecMasks({}, { enabled: canWrite });
   const [chosenDesignId, setChosenDesignId] = useState<number | null>(null);
@@ -64,8 +66,10 @@ export function QuotesRoute() {
           masks={masks.data}
           versions={chosenDesign.data?.id === chosenDesignId ? chosenDesign.data?.versions : undefined}
           onDesignChange={setChosenDesignId}
+          onNewCustomer={newCustomer.open}
         />
       )}
+      {newCustomer.dialog}
     </>
   );
 }

@@ -6,6 +6,7 @@ import { useState } from 'react';
 import { ErrorAlert } from '../../components/error-alert';
 import { PageHeader } from '../../components/page-header';
 import { useCustomers } from '../../features/customers/api/get-customers';
+import { useNewCustomerPicker } from '../../features/customers/components/use-new-customer-picker';
 import type { SpecMaskView } from '../../features/spec-masks/api/get-spec-masks';
 import { SpecMaskCsvDialog } from '../../features/spec-masks/components/spec-mask-csv-dialog';
 import { SpecMaskFormDialog } from '../../features/spec-masks/components/spec-mask-form-dialog';
@@ -18,6 +19,7 @@ export function SpecMasksRoute() {
   const [editing, setEditing] = useState<SpecMaskView | 'new' | null>(null);
   const [importing, setImporting] = useState(false);
   const customerList = customers.data ?? [];
+  const newCustomer = useNewCustomerPicker();
 
   return (
     <>
@@ -72,6 +74,7 @@ export function SpecMasksRoute() {
           customers={customerList}
           defaultCustomerId={customerId}
           onClose={() => setEditing(null)}
+          onNewCustomer={newCustomer.open}
         />
       )}
       {importing && (
@@ -80,8 +83,10 @@ export function SpecMasksRoute() {
           customers={customerList}
           defaultCustomerId={customerId}
           onClose={() => setImporting(false)}
+          onNewCustomer={newCustomer.open}
         />
       )}
+      {newCustomer.dialog}
     </>
   );
 }

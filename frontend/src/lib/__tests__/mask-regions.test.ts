@@ -42,4 +42,20 @@ describe('forbidden regions of a spec mask', () => {
       }),
     ).toBe('laser line: R = 0.2 ± 0.1 % (532–532 nm, 0°, avg)');
   });
+
+  it('describes an angle range as a range and names the design margin apart from the limit', () => {
+    expect(
+      describeBand({
+        from_nm: 450,
+        to_nm: 650,
+        angles_deg: [0, 5, 10, 15, 20],
+        angle_from_deg: 0,
+        angle_to_deg: 20,
+        angle_step_deg: 5,
+        quantity: 'R',
+        max_percent: 0.5,
+        margin_percent: 0.1,
+      }),
+    ).toBe('R ≤ 0.5 % (450–650 nm, 0–20 every 5°, avg); design margin 0.1 % points');
+  });
 });

@@ -1,4 +1,5 @@
 import { queryOptions, useQuery } from '@tanstack/react-query';
+import type { CustomerContact } from '@quietglass/shared';
 import { apiClient } from '../../../lib/api-client';
 
 /** A customer of the shop, as the API returns it. */
@@ -7,20 +8,35 @@ export interface CustomerView {
   name: string;
   contactEmail: string | null;
   notes: string;
+  contacts: CustomerContact[];
+  /** Set while archived (hidden from pickers, records kept). */
+  archivedAt: string | null;
+  version: number;
 }
 
-/** Every customer (office roles). */
-export function getCustomers(signal?: AbortSignal): Promise<CustomerView[]> {
-  return apiClient.get<CustomerView[]>('/customers', signal);
+export interface CustomerFilter {
+  /** Archived customers too (the Customers page); pickers leave them out. */
+  includeArchived?: boolean;
 }
 
-export function getCustomersQueryOptions() {
+/** Customers (office roles); without archived ones unless asked. */
+export function getCustomers(filter: CustomerFilter = {}, signal?: AbortSignal): Promise<CustomerView[]> {
+  return apiClient.get<CustomerView[]>(
+    `/customers${filter.includeArchived ? '?includeArchived=true' : ''}`,
+    signal,
+  );
+}
+
+/** Prefix of every customer list's key, for invalidation. */
+export const CUSTOMER_LISTS_KEY = ['customers', 'list'] as const;
+
+export function getCustomersQueryOptions(filter: CustomerFilter = {}) {
   return queryOptions({
-    queryKey: ['customers', 'list'] as const,
-    queryFn: ({ signal }) => getCustomers(signal),
+    queryKey: [...CUSTOMER_LISTS_KEY, { includeArchived: filter.includeArchived ?? false }] as const,
+    queryFn: ({ signal }) => getCustomers(filter, signal),
   });
 }
 
-export function useCustomers() {
-  return useQuery(getCustomersQueryOptions());
+export function useCustomers(filter: CustomerFilter = {}) {
+  return useQuery(getCustomersQueryOptions(filter));
 }

@@ -9,8 +9,8 @@ import { DesignDetailsDialog } from '../components/design-details-dialog';
 // customer or null; 400 naming the mask otherwise).
 
 const MASKS = [
-  { id: 6, name: 'Fenwick lens AR', revision: 'A' },
-  { id: 9, name: 'Fenwick lens AR', revision: 'B' },
+  { id: 6, name: 'Fenwick lens AR', revision: 'A', kind: 'customer' as const },
+  { id: 9, name: 'Fenwick lens AR', revision: 'B', kind: 'customer' as const },
 ];
 
 function renderDialog(onClose = vi.fn()) {

@@ -13,8 +13,10 @@ const CUSTOMERS = [
   { id: 5, name: 'Marlow Scopes' },
 ];
 const MASKS = [
-  { id: 6, name: 'Fenwick lens AR', revision: 'A', customer: { id: 3 } },
-  { id: 7, name: 'Marlow window', revision: 'B', customer: { id: 5 } },
+  { id: 6, name: 'Fenwick lens AR', revision: 'A', customer: { id: 3 }, kind: 'customer' as const },
+  { id: 7, name: 'Marlow window', revision: 'B', customer: { id: 5 }, kind: 'customer' as const },
+  // A design may aim at the shop's own target; the picker says which mask is which.
+  { id: 8, name: 'Fenwick lens AR tight', revision: 'T', customer: { id: 3 }, kind: 'internal' as const },
 ];
 
 function renderDialog(onCreated = vi.fn()) {
@@ -51,6 +53,7 @@ describe('NewDesignDialog', () => {
     expect([...maskSelect.options].map((o) => o.textContent)).toEqual([
       'No spec mask',
       'Fenwick lens AR rev A',
+      'Fenwick lens AR tight rev T (internal design target)',
     ]);
     await user.selectOptions(maskSelect, '6');
     expect((dialog.getByLabelText('Incident medium') as HTMLSelectElement).value).toBe('1');

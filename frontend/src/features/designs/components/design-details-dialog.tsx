@@ -1,5 +1,5 @@
 import Box from '@mui/material/Box';
-import type { DesignView } from '@quietglass/shared';
+import { specMaskLabel, type DesignView, type SpecMaskKind } from '@quietglass/shared';
 import { useForm } from 'react-hook-form';
 import { ErrorAlert } from '../../../components/error-alert';
 import { FormDialog } from '../../../components/form-dialog';
@@ -16,7 +16,7 @@ interface DesignDetailsDialogProps {
   open: boolean;
   design: DesignView;
   /** The spec masks of the design's customer (a design cannot use another customer's mask). */
-  specMasks: readonly { id: number; name: string; revision: string }[];
+  specMasks: readonly { id: number; name: string; revision: string; kind: SpecMaskKind }[];
   onClose: () => void;
 }
 
@@ -76,7 +76,7 @@ export function DesignDetailsDialog({ open, design, specMasks, onClose }: Design
           label="Spec mask"
           placeholder="No spec mask"
           helperText={`Masks of ${design.customer.name}; the change applies to every version's checks`}
-          options={specMasks.map((m) => ({ value: String(m.id), label: `${m.name} rev ${m.revision}` }))}
+          options={specMasks.map((m) => ({ value: String(m.id), label: specMaskLabel(m) }))}
         />
       </Box>
     </FormDialog>

@@ -1,10 +1,10 @@
 import Box from '@mui/material/Box';
-import type { DesignView } from '@quietglass/shared';
+import { specMaskLabel, type DesignView, type SpecMaskKind } from '@quietglass/shared';
 import { useEffect } from 'react';
 import { useForm, useWatch } from 'react-hook-form';
 import { ErrorAlert } from '../../../components/error-alert';
 import { FormDialog } from '../../../components/form-dialog';
-import { FormSelectField, namedOptions } from '../../../components/form-select-field';
+import { FormSelectField, NEW_CUSTOMER_OPTION, namedOptions } from '../../../components/form-select-field';
 import { FormTextField } from '../../../components/form-text-field';
 import { useCreateDesign } from '../api/create-design';
 import { contentOf, type HeaderValues } from '../header';
@@ -22,8 +22,16 @@ interface NewDesignDialogProps {
   onClose: () => void;
   onCreated: (design: DesignView) => void;
   customers: readonly { id: number; name: string }[];
-  specMasks: readonly { id: number; name: string; revision: string; customer: { id: number } }[];
+  specMasks: readonly {
+    id: number;
+    name: string;
+    revision: string;
+    customer: { id: number };
+    kind: SpecMaskKind;
+  }[];
   materials: readonly LibraryMaterial[];
+  /** "New customer…" in the customer picker: shows the form, then `choose` selects the new one. */
+  onNewCustomer?: (choose: (customer: { id: number; name: string }) => void) => void;
 }
 
 // CreateDesignDto: name 1–160 characters.
@@ -53,6 +61,7 @@ export function NewDesignDialog({
   customers,
   specMasks,
   materials,
+  onNewCustomer,
 }: NewDesignDialogProps) {
   const createDesign = useCreateDesign();
   const { control, handleSubmit, reset, setValue } = useForm<NewDesignValues>({
@@ -121,6 +130,13 @@ export function NewDesignDialog({
           label="Customer"
           placeholder="Choose…"
           options={namedOptions(customers)}
+          createOption={
+            onNewCustomer && {
+              label: NEW_CUSTOMER_OPTION,
+              onCreate: () =>
+                onNewCustomer((c) => setValue('customerId', String(c.id), { shouldValidate: true })),
+            }
+          }
         />
         <FormSelectField
           control={control}
@@ -133,7 +149,7 @@ export function NewDesignDialog({
           }
           options={masksOfCustomer.map((m) => ({
             value: String(m.id),
-            label: `${m.name} rev ${m.revision}`,
+            label: specMaskLabel(m),
           }))}
         />
       </Box>

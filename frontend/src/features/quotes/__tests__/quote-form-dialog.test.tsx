@@ -1,4 +1,4 @@
-import { screen, waitFor, within } from '@testing-library/react';
+import { act, screen, waitFor, within } from '@testing-library/react';
 import { useState } from 'react';
 import { describe, expect, it, vi } from 'vitest';
 import { apiError, mockApi } from '../../../test/mock-api';
@@ -168,5 +168,34 @@ describe('QuoteFormDialog', () => {
     // The edit carries the version it started from (optimistic locking).
     expect(api.calls('PUT', '/api/quotes/21')[0].body).toMatchObject({ version: 1, versionNumber: 3 });
     expect(onSaved).not.toHaveBeenCalled();
+  });
+
+  it('offers the customer\'s specifications only, and "New customer…" that chooses the customer it made', async () => {
+    const onNewCustomer = vi.fn();
+    const { user } = renderWithProviders(
+      <QuoteFormDialog
+        open
+        quote={null}
+        onClose={() => {}}
+        onSaved={() => {}}
+        customers={CUSTOMERS}
+        designs={DESIGN_SUMMARIES}
+        masks={MASKS}
+        versions={undefined}
+        onDesignChange={() => {}}
+        onNewCustomer={onNewCustomer}
+      />,
+    );
+    const dialog = within(await screen.findByRole('dialog', { name: 'New quote' }));
+    await user.selectOptions(dialog.getByLabelText('Customer'), '3');
+    // Fenwick's internal design target (mask 8) is not offered.
+    expect(optionTexts(dialog.getByLabelText('Spec mask'))).toEqual(['Choose…', 'Fenwick lens AR rev A']);
+    await user.selectOptions(dialog.getByLabelText('Customer'), 'New customer…');
+    expect(onNewCustomer).toHaveBeenCalledTimes(1);
+    // Choosing "New customer…" leaves the picker as it was until a customer is made.
+    expect((dialog.getByLabelText('Customer') as HTMLSelectElement).value).toBe('3');
+    const choose = onNewCustomer.mock.calls[0][0] as (c: { id: number; name: string }) => void;
+    act(() => choose({ id: 5, name: 'Marlow Scopes' }));
+    expect((dialog.getByLabelText('Customer') as HTMLSelectElement).value).toBe('5');
   });
 });

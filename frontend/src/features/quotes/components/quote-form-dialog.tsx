@@ -5,12 +5,17 @@ import Button from '@mui/material/Button';
 import FormHelperText from '@mui/material/FormHelperText';
 import IconButton from '@mui/material/IconButton';
 import Typography from '@mui/material/Typography';
-import { isApprovedForCustomers, type VersionStatus } from '@quietglass/shared';
+import {
+  isApprovedForCustomers,
+  isCustomerSpecification,
+  type SpecMaskKind,
+  type VersionStatus,
+} from '@quietglass/shared';
 import { useEffect } from 'react';
 import { useFieldArray, useForm, useWatch } from 'react-hook-form';
 import { ErrorAlert } from '../../../components/error-alert';
 import { FormDialog } from '../../../components/form-dialog';
-import { FormSelectField, namedOptions } from '../../../components/form-select-field';
+import { FormSelectField, NEW_CUSTOMER_OPTION, namedOptions } from '../../../components/form-select-field';
 import { FormTextField } from '../../../components/form-text-field';
 import { emailRules } from '../../../lib/validation';
 import { useCreateQuote } from '../api/create-quote';
@@ -49,6 +54,7 @@ export interface QuoteMaskChoice {
   name: string;
   revision: string;
   customer: { id: number };
+  kind: SpecMaskKind;
 }
 
 interface QuoteFormDialogProps {
@@ -64,6 +70,8 @@ interface QuoteFormDialogProps {
   versions: readonly { number: number; status: VersionStatus }[] | undefined;
   /** Told which design is chosen, so its versions can be fetched. */
   onDesignChange: (designId: number | null) => void;
+  /** "New customer…" in the customer picker: shows the form, then `choose` selects the new one. */
+  onNewCustomer?: (choose: (customer: { id: number; name: string }) => void) => void;
 }
 
 const twoColumns = { display: 'grid', gap: 2, gridTemplateColumns: { xs: '1fr', sm: '1fr 1fr' } } as const;
@@ -79,6 +87,7 @@ export function QuoteFormDialog({
   masks,
   versions,
   onDesignChange,
+  onNewCustomer,
 }: QuoteFormDialogProps) {
   const createQuote = useCreateQuote();
   const updateQuote = useUpdateQuote();
@@ -97,7 +106,10 @@ export function QuoteFormDialog({
   const customerId = useWatch({ control, name: 'customerId' });
   const designId = useWatch({ control, name: 'designId' });
   const designsOfCustomer = designs.filter((d) => String(d.customer.id) === customerId);
-  const masksOfCustomer = masks.filter((m) => String(m.customer.id) === customerId);
+  // A quote refers to the customer's own specification: internal design targets are not offered.
+  const masksOfCustomer = masks.filter(
+    (m) => String(m.customer.id) === customerId && isCustomerSpecification(m),
+  );
   const quotable = (versions ?? []).filter((v) => isApprovedForCustomers(v.status));
 
   useEffect(() => onDesignChange(designId === '' ? null : Number(designId)), [designId, onDesignChange]);
@@ -114,11 +126,12 @@ export function QuoteFormDialog({
       } else if (name === 'designId') {
         const design = designs.find((d) => String(d.id) === values.designId);
         setValue('versionNumber', '');
-        setValue('specMaskId', design?.specMaskId ? String(design.specMaskId) : '');
+        const own = masks.find((m) => m.id === design?.specMaskId);
+        setValue('specMaskId', own && isCustomerSpecification(own) ? String(own.id) : '');
       }
     });
     return () => subscription.unsubscribe();
-  }, [customers, designs, setValue, watch]);
+  }, [customers, designs, masks, setValue, watch]);
 
   const close = () => {
     mutation.reset();
@@ -158,6 +171,13 @@ export function QuoteFormDialog({
           placeholder="Choose…"
           rules={{ validate: (v) => v !== '' || 'Choose the customer' }}
           options={namedOptions(customers)}
+          createOption={
+            onNewCustomer && {
+              label: NEW_CUSTOMER_OPTION,
+              onCreate: () =>
+                onNewCustomer((c) => setValue('customerId', String(c.id), { shouldValidate: true })),
+            }
+          }
         />
         <FormTextField
           control={control}

@@ -15,11 +15,14 @@ import { NewReportDialog } from '../components/new-report-dialog';
 const DESIGNS = [
   { id: 12, name: 'Fenwick lens AR', customer: { id: 3, name: 'Fenwick Optics Lab' }, specMaskId: 6 },
   { id: 14, name: 'Marlow window AR', customer: { id: 5, name: 'Marlow Scopes' }, specMaskId: null },
+  // Designed against the shop's own tighter target, which a report never judges against.
+  { id: 15, name: 'Fenwick lens AR tight', customer: { id: 3, name: 'Fenwick Optics Lab' }, specMaskId: 8 },
 ];
 const MASKS = [
-  { id: 6, name: 'Fenwick lens AR', revision: 'A', customer: { id: 3 } },
-  { id: 9, name: 'Fenwick lens AR', revision: 'B', customer: { id: 3 } },
-  { id: 7, name: 'Marlow window', revision: 'B', customer: { id: 5 } },
+  { id: 6, name: 'Fenwick lens AR', revision: 'A', customer: { id: 3 }, kind: 'customer' as const },
+  { id: 9, name: 'Fenwick lens AR', revision: 'B', customer: { id: 3 }, kind: 'customer' as const },
+  { id: 7, name: 'Marlow window', revision: 'B', customer: { id: 5 }, kind: 'customer' as const },
+  { id: 8, name: 'Fenwick design target', revision: 'T', customer: { id: 3 }, kind: 'internal' as const },
 ];
 const VERSIONS: { number: number; status: VersionStatus }[] = [
   { number: 1, status: 'retired' },
@@ -116,6 +119,16 @@ describe('NewReportDialog', () => {
     expect(api.calls('POST', '/api/reports').map((r) => r.body)).toEqual([
       { designId: 12, versionNumber: 4, specMaskId: 9, hideLayers: true },
     ]);
+  });
+
+  it("never offers an internal design target, not even as the design's own mask", async () => {
+    mockApi({});
+    const { user } = renderWithProviders(<Harness onCreated={vi.fn()} />);
+    const dialog = within(await screen.findByRole('dialog', { name: 'New compliance report' }));
+    await user.selectOptions(dialog.getByLabelText('Design'), '15');
+    const masks = dialog.getByLabelText('Spec mask') as HTMLSelectElement;
+    expect(optionTexts(masks)).toEqual(['Choose…', 'Fenwick lens AR rev A', 'Fenwick lens AR rev B']);
+    expect(masks.value).toBe('');
   });
 
   it('asks for a run and its spectrum together, and shows the API refusal', async () => {

@@ -1,6 +1,11 @@
 import Box from '@mui/material/Box';
 import Typography from '@mui/material/Typography';
-import { isApprovedForCustomers, type VersionStatus } from '@quietglass/shared';
+import {
+  isApprovedForCustomers,
+  isCustomerSpecification,
+  type SpecMaskKind,
+  type VersionStatus,
+} from '@quietglass/shared';
 import { useEffect } from 'react';
 import { useForm, useWatch } from 'react-hook-form';
 import { ErrorAlert } from '../../../components/error-alert';
@@ -23,6 +28,7 @@ export interface ReportMaskChoice {
   name: string;
   revision: string;
   customer: { id: number };
+  kind: SpecMaskKind;
 }
 
 interface NewReportValues {
@@ -88,7 +94,10 @@ export function NewReportDialog({
   });
   const designId = useWatch({ control, name: 'designId' });
   const design = designs.find((d) => String(d.id) === designId);
-  const masksOfCustomer = design ? masks.filter((m) => m.customer.id === design.customer.id) : [];
+  // A report judges against the customer's own specification: internal design targets are not offered.
+  const masksOfCustomer = design
+    ? masks.filter((m) => m.customer.id === design.customer.id && isCustomerSpecification(m))
+    : [];
   const reportable = (versions ?? []).filter((v) => isApprovedForCustomers(v.status));
 
   useEffect(() => onDesignChange(designId === '' ? null : Number(designId)), [designId, onDesignChange]);
@@ -98,10 +107,11 @@ export function NewReportDialog({
       if (name !== 'designId') return;
       const chosen = designs.find((d) => String(d.id) === values.designId);
       setValue('versionNumber', '');
-      setValue('specMaskId', chosen?.specMaskId ? String(chosen.specMaskId) : '');
+      const own = masks.find((m) => m.id === chosen?.specMaskId);
+      setValue('specMaskId', own && isCustomerSpecification(own) ? String(own.id) : '');
     });
     return () => subscription.unsubscribe();
-  }, [designs, setValue, watch]);
+  }, [designs, masks, setValue, watch]);
 
   const close = () => {
     createReport.reset();
@@ -175,7 +185,7 @@ export function NewReportDialog({
           label="Spec mask"
           placeholder="Choose…"
           disabled={Boolean(preset) || designId === ''}
-          helperText={design ? `Masks of ${design.customer.name}` : undefined}
+          helperText={design ? `Customer specifications of ${design.customer.name}` : undefined}
           rules={{ validate: (v) => v !== '' || "Choose one of the customer's spec masks" }}
           options={(preset ? masks.filter((m) => m.id === preset.specMaskId) : masksOfCustomer).map((m) => ({
             value: String(m.id),

@@ -1,5 +1,5 @@
 import { useMutation, useQueryClient } from '@tanstack/react-query';
-import type { LimitBand } from '@quietglass/shared';
+import type { LimitBand, SpecMaskKind } from '@quietglass/shared';
 import { apiClient } from '../../../lib/api-client';
 import { SPEC_MASK_LISTS_KEY, type SpecMaskView } from './get-spec-masks';
 
@@ -7,6 +7,7 @@ export interface SpecMaskInput {
   name: string;
   customerId: number;
   revision: string;
+  kind: SpecMaskKind;
   bands: LimitBand[];
   notes: string;
 }

@@ -1,5 +1,5 @@
 import { queryOptions, useQuery } from '@tanstack/react-query';
-import type { LimitBand } from '@quietglass/shared';
+import type { LimitBand, SpecMaskKind } from '@quietglass/shared';
 import { apiClient } from '../../../lib/api-client';
 
 /** A customer's spec mask: one revision of their drawing's limit bands. */
@@ -8,6 +8,8 @@ export interface SpecMaskView {
   name: string;
   customer: { id: number; name: string };
   revision: string;
+  /** The customer's own specification, or the shop's internal design target. */
+  kind: SpecMaskKind;
   bands: LimitBand[];
   notes: string;
   version: number;

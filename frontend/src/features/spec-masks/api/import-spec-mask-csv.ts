@@ -1,4 +1,5 @@
 import { useMutation, useQueryClient } from '@tanstack/react-query';
+import type { SpecMaskKind } from '@quietglass/shared';
 import { apiClient } from '../../../lib/api-client';
 import { SPEC_MASK_LISTS_KEY, type SpecMaskView } from './get-spec-masks';
 
@@ -9,6 +10,7 @@ export interface ImportSpecMaskCsvInput {
   name: string;
   customerId: number;
   revision: string;
+  kind: SpecMaskKind;
   csv: string;
   notes: string;
 }

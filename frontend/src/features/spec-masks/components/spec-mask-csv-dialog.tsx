@@ -15,10 +15,18 @@ interface SpecMaskCsvDialogProps {
   customers: readonly { id: number; name: string }[];
   defaultCustomerId: number | null;
   onClose: () => void;
+  /** "New customer…" in the customer picker: shows the form, then `choose` selects the new one. */
+  onNewCustomer?: (choose: (customer: { id: number; name: string }) => void) => void;
 }
 
 /** A new spec mask from a CSV file with a header naming the limit-band columns. */
-export function SpecMaskCsvDialog({ open, customers, defaultCustomerId, onClose }: SpecMaskCsvDialogProps) {
+export function SpecMaskCsvDialog({
+  open,
+  customers,
+  defaultCustomerId,
+  onClose,
+  onNewCustomer,
+}: SpecMaskCsvDialogProps) {
   const importCsv = useImportSpecMaskCsv();
   const [file, setFile] = useState<File | null>(null);
   const [fileProblem, setFileProblem] = useState<string | null>(null);
@@ -27,10 +35,11 @@ export function SpecMaskCsvDialog({ open, customers, defaultCustomerId, onClose 
     name: '',
     customerId: defaultCustomerId === null ? '' : String(defaultCustomerId),
     revision: 'A',
+    kind: 'customer',
     notes: '',
     bands: [],
   };
-  const { control, handleSubmit, reset } = useForm<MaskFormValues>({
+  const { control, handleSubmit, reset, setValue } = useForm<MaskFormValues>({
     defaultValues: empty,
     mode: 'onTouched',
   });
@@ -57,6 +66,7 @@ export function SpecMaskCsvDialog({ open, customers, defaultCustomerId, onClose 
         name: values.name.trim(),
         customerId: Number(values.customerId),
         revision: values.revision.trim(),
+        kind: values.kind,
         notes: values.notes,
         csv: await file.text(),
       },
@@ -97,7 +107,12 @@ export function SpecMaskCsvDialog({ open, customers, defaultCustomerId, onClose 
           importCsv.reset();
         }}
       />
-      <MaskDetailsFields control={control} customers={customers} />
+      <MaskDetailsFields
+        control={control}
+        customers={customers}
+        setValue={setValue}
+        onNewCustomer={onNewCustomer}
+      />
     </FormDialog>
   );
 }

@@ -44,6 +44,10 @@ const QUANTITY_OPTIONS = [
   { value: 'R', label: 'R' },
   { value: 'T', label: 'T' },
 ];
+const ANGLE_MODE_OPTIONS = [
+  { value: 'list', label: 'List' },
+  { value: 'range', label: 'Range' },
+];
 const BOUND_OPTIONS = (Object.keys(BOUND_LABELS) as BoundType[]).map((b) => ({
   value: b,
   label: BOUND_LABELS[b],
@@ -55,6 +59,7 @@ function valuesOf(mask: SpecMaskView | null, customerId: number | null): MaskFor
       name: '',
       customerId: customerId === null ? '' : String(customerId),
       revision: 'A',
+      kind: 'customer',
       notes: '',
       bands: [{ ...EMPTY_BAND }],
     };
@@ -63,6 +68,7 @@ function valuesOf(mask: SpecMaskView | null, customerId: number | null): MaskFor
     name: mask.name,
     customerId: String(mask.customer.id),
     revision: mask.revision,
+    kind: mask.kind,
     notes: mask.notes,
     bands: mask.bands.map(valuesOfBand),
   };
@@ -82,6 +88,7 @@ function BandFields({
   bandError: string | undefined;
 }) {
   const boundType = useWatch({ control, name: `bands.${index}.boundType` });
+  const angleMode = useWatch({ control, name: `bands.${index}.angleMode` });
   const band = (v: string, all: MaskFormValues) => ({ v, band: all.bands[index] });
   const n = index + 1;
   return (
@@ -130,14 +137,48 @@ function BandFields({
           label="To (nm)"
           size="small"
         />
-        <FormTextField
+        <FormSelectField
           control={control}
-          name={`bands.${index}.angles`}
-          rules={{ validate: (v) => bandRules.angles(String(v)) }}
-          label="Angles (°)"
+          name={`bands.${index}.angleMode`}
+          label="Angles given as"
           size="small"
-          helperText="e.g. 0, 15, 30"
+          options={ANGLE_MODE_OPTIONS}
         />
+        {angleMode === 'range' ? (
+          <>
+            {(['angleFrom', 'angleTo', 'angleStep'] as const).map((key) => (
+              <FormTextField
+                key={key}
+                control={control}
+                name={`bands.${index}.${key}`}
+                rules={{
+                  deps: key === 'angleStep' ? [] : [`bands.${index}.angleStep`],
+                  validate: (v, all) => {
+                    const b = band(String(v), all);
+                    return bandRules[key](b.v, b.band);
+                  },
+                }}
+                label={{ angleFrom: 'Angle from (°)', angleTo: 'Angle to (°)', angleStep: 'Every (°)' }[key]}
+                size="small"
+                helperText={key === 'angleStep' ? 'Both ends included' : undefined}
+              />
+            ))}
+          </>
+        ) : (
+          <FormTextField
+            control={control}
+            name={`bands.${index}.angles`}
+            rules={{
+              validate: (v, all) => {
+                const b = band(String(v), all);
+                return bandRules.angles(b.v, b.band);
+              },
+            }}
+            label="Angles (°)"
+            size="small"
+            helperText="e.g. 0, 15, 30"
+          />
+        )}
         <FormSelectField
           control={control}
           name={`bands.${index}.polarisation`}
@@ -163,8 +204,9 @@ function BandFields({
           control={control}
           name={`bands.${index}.value`}
           rules={{ validate: (v) => bandRules.value(String(v)) }}
-          label="Value (%)"
+          label="Limit (%)"
           size="small"
+          helperText="The customer's limit; reports judge this"
         />
         {boundType === 'target' && (
           <FormTextField
@@ -180,6 +222,19 @@ function BandFields({
             size="small"
           />
         )}
+        <FormTextField
+          control={control}
+          name={`bands.${index}.margin`}
+          rules={{
+            validate: (v, all) => {
+              const b = band(String(v), all);
+              return bandRules.margin(b.v, b.band);
+            },
+          }}
+          label="Design margin"
+          size="small"
+          helperText="% points inside the limit the design aims for (optional)"
+        />
         <FormTextField
           control={control}
           name={`bands.${index}.stepNm`}
@@ -210,6 +265,8 @@ interface SpecMaskFormDialogProps {
   /** Customer preselected for a new mask. */
   defaultCustomerId: number | null;
   onClose: () => void;
+  /** "New customer…" in the customer picker: shows the form, then `choose` selects the new one. */
+  onNewCustomer?: (choose: (customer: { id: number; name: string }) => void) => void;
 }
 
 /** A customer's spec mask: its limit bands, each a wavelength range, angles, polarisation and one bound. */
@@ -219,6 +276,7 @@ export function SpecMaskFormDialog({
   customers,
   defaultCustomerId,
   onClose,
+  onNewCustomer,
 }: SpecMaskFormDialogProps) {
   const queryClient = useQueryClient();
   const create = useCreateSpecMask();
@@ -226,7 +284,7 @@ export function SpecMaskFormDialog({
   const [base, setBase] = useState<SpecMaskView | null>(mask);
   const [bandErrors, setBandErrors] = useState<Record<number, string>>({});
   const [formError, setFormError] = useState<string | null>(null);
-  const { control, handleSubmit, reset, setError } = useForm<MaskFormValues>({
+  const { control, handleSubmit, reset, setError, setValue } = useForm<MaskFormValues>({
     defaultValues: valuesOf(mask, defaultCustomerId),
     mode: 'onTouched',
   });
@@ -264,6 +322,7 @@ export function SpecMaskFormDialog({
       name: values.name.trim(),
       customerId: Number(values.customerId),
       revision: values.revision.trim(),
+      kind: values.kind,
       notes: values.notes,
       bands: values.bands.map(bandOf),
     };
@@ -315,7 +374,12 @@ export function SpecMaskFormDialog({
           Not saved: the marked fields have problems.
         </Alert>
       )}
-      <MaskDetailsFields control={control} customers={customers} />
+      <MaskDetailsFields
+        control={control}
+        customers={customers}
+        setValue={setValue}
+        onNewCustomer={onNewCustomer}
+      />
       <Box sx={{ display: 'grid', gap: 1.5 }}>
         {fields.map((f, index) => (
           <BandFields

@@ -4,6 +4,7 @@ import Paper from '@mui/material/Paper';
 import Typography from '@mui/material/Typography';
 import { DataGrid, type GridColDef, type GridRowSelectionModel } from '@mui/x-data-grid';
 import { useMemo } from 'react';
+import { SPEC_MASK_KIND_LABELS } from '@quietglass/shared';
 import { ErrorAlert } from '../../../components/error-alert';
 import { apiUrl } from '../../../lib/api-client';
 import { formatDateTime } from '../../../lib/format';
@@ -14,6 +15,12 @@ import { MaskPreviewPlot } from './mask-preview-plot';
 const columns: GridColDef<SpecMaskView>[] = [
   { field: 'name', headerName: 'Name', flex: 1, minWidth: 180 },
   { field: 'revision', headerName: 'Rev', width: 80 },
+  {
+    field: 'kind',
+    headerName: 'Kind',
+    width: 190,
+    valueGetter: (_v, row) => SPEC_MASK_KIND_LABELS[row.kind],
+  },
   {
     field: 'customer',
     headerName: 'Customer',
