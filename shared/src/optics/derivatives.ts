@@ -1,0 +1,415 @@
+/*
+ * Analytic derivatives of the coherent front surface (back `none`) from the characteristic-matrix
+ * products from the front and from the back: one forward and one backward sweep per wavelength,
+ * angle and polarisation give ∂R/∂d and ∂T/∂d for every layer at once, and the needle function
+ * (the first-order change when an infinitely thin layer is inserted at depth z).
+ *
+ * Conventions as matrix.ts (exp(−iωt), N = n + ik, q = √(ε − β²) with Im q ≥ 0). With the layer
+ * matrix M(d) = [[cos δ, −i sin δ/η], [−i η sin δ, cos δ]], δ = k0·q·d (Macleod, Thin-Film Optical
+ * Filters, ch. 2), dM/dd = G·M = M·G with
+ *
+ *   G = −i k0 [[0, a], [b, 0]],   s: a = 1, b = ε − β²;   p: a = (ε − β²)/ε, b = ε,
+ *
+ * so with P_j = M_1⋯M_{j−1} and v_j = M_j⋯M_L [1; η_exit], ∂[B; C]/∂d_j = P_j·G_j·v_j. A needle of
+ * material m at depth z changes [B; C] by Δ·P(z)·G_m·v(z) to first order in its thickness Δ
+ * (A. V. Tikhonravov, M. K. Trubetskov, G. W. DeBell, Appl. Opt. 35, 5493 (1996)). From
+ * r = (η₀B − C)/(η₀B + C) and t = 2η₀/(η₀B + C):
+ *
+ *   dr = 2η₀(C dB − B dC)/D²,  dt = −2η₀(η₀ dB + dC)/D²,  D = η₀B + C,
+ *   dR = 2 Re(r̄ dr),  dT = 2 Re(η_exit)/Re(η₀) · Re(t̄ dt).
+ *
+ * The products are not rescaled: stacks whose total decay Σ k0·d·Im q exceeds about 300 (opaque
+ * metal, a long tunnelling gap) overflow here and must use differences of computeSpectrum instead.
+ */
+import { OpticsInputError } from './errors.js';
+import type { SpectrumPlan } from './batch.js';
+
+/** ∂R/∂d and ∂T/∂d per front layer, nm⁻¹: [l·plan.size + spectrumIndex]. */
+export interface ThicknessDerivatives {
+  dR: Float64Array;
+  dT: Float64Array;
+}
+
+/** Materials a needle may be made of, on the plan's wavelengths: ε = N², [m·nWavelengths + iWl]. */
+export interface NeedleMaterials {
+  count: number;
+  epsRe: Float64Array;
+  epsIm: Float64Array;
+}
+
+/** Depth grid of a needle scan: per point its layer and offset below that layer's front, nm. */
+export interface NeedleGrid {
+  count: number;
+  layer: Int32Array;
+  offsetNm: Float64Array;
+}
+
+/** Per-layer scratch of one (wavelength, angle): cos δ, sin δ, q², ε, and the sweeps' vectors. */
+interface Scratch {
+  cr: Float64Array;
+  ci: Float64Array;
+  sr: Float64Array;
+  si: Float64Array;
+  q2r: Float64Array;
+  q2i: Float64Array;
+  /** η per layer for the polarisation being swept. */
+  er: Float64Array;
+  ei: Float64Array;
+  /** v_j = [B_j; C_j], j = 0…L (v_L = [1; η_exit]). */
+  vBr: Float64Array;
+  vBi: Float64Array;
+  vCr: Float64Array;
+  vCi: Float64Array;
+  /** Per-point v(z) inside one layer. */
+  pBr: Float64Array;
+  pBi: Float64Array;
+  pCr: Float64Array;
+  pCi: Float64Array;
+}
+
+const scratchOf = new WeakMap<SpectrumPlan, Scratch>();
+
+function scratch(plan: SpectrumPlan, points: number): Scratch {
+  const L = plan.work.layerCount;
+  let s = scratchOf.get(plan);
+  if (!s || s.pBr.length < points) {
+    const f = (n: number) => new Float64Array(n);
+    s = {
+      cr: f(L),
+      ci: f(L),
+      sr: f(L),
+      si: f(L),
+      q2r: f(L),
+      q2i: f(L),
+      er: f(L),
+      ei: f(L),
+      vBr: f(L + 1),
+      vBi: f(L + 1),
+      vCr: f(L + 1),
+      vCi: f(L + 1),
+      pBr: f(Math.max(points, 1)),
+      pBi: f(Math.max(points, 1)),
+      pCr: f(Math.max(points, 1)),
+      pCi: f(Math.max(points, 1)),
+    };
+    scratchOf.set(plan, s);
+  }
+  return s;
+}
+
+function checkPlan(plan: SpectrumPlan): void {
+  if (plan.back !== 'none') {
+    throw new OpticsInputError('back', 'analytic derivatives exist for the coherent front surface (back "none") only');
+  }
+}
+
+/** Allocates derivative arrays for `plan`. */
+export function createThicknessDerivatives(plan: SpectrumPlan): ThicknessDerivatives {
+  checkPlan(plan);
+  const n = plan.size * plan.work.layerCount;
+  return { dR: new Float64Array(n), dT: new Float64Array(n) };
+}
+
+/**
+ * cos δ, sin δ and q² of every front layer at wavelength `iw` and Snell invariant β (β² given).
+ * q² = ε − β² exactly; q on the forward branch as in matrix.ts.
+ */
+function layerTrig(plan: SpectrumPlan, s: Scratch, iw: number, k0: number, beta2: number): void {
+  const w = plan.work;
+  const L = w.layerCount;
+  for (let l = 0; l < L; l++) {
+    const er = w.frontEpsRe[iw * L + l];
+    const ei = w.frontEpsIm[iw * L + l];
+    const x = er - beta2;
+    let qr: number;
+    let qi: number;
+    if (ei === 0) {
+      qr = x > 0 ? Math.sqrt(x) : 0;
+      qi = x < 0 ? Math.sqrt(-x) : 0;
+    } else {
+      const m = Math.sqrt(0.5 * (Math.sqrt(x * x + ei * ei) + Math.abs(x)));
+      const h = ei / (2 * m);
+      qr = x >= 0 ? m : h;
+      qi = x >= 0 ? h : m;
+    }
+    const kd = k0 * w.frontThicknessNm[l];
+    const a = kd * qr;
+    const b = kd * qi;
+    const ca = Math.cos(a);
+    const sa = Math.sin(a);
+    const ch = Math.cosh(b);
+    const sh = Math.sinh(b);
+    s.cr[l] = ca * ch;
+    s.ci[l] = -sa * sh;
+    s.sr[l] = sa * ch;
+    s.si[l] = ca * sh;
+    s.q2r[l] = x;
+    s.q2i[l] = ei;
+  }
+}
+
+/**
+ * Tilted admittance η of every layer for s (η = q) or p (η = ε/q) into s.er/s.ei; returns the
+ * exit admittance's real and imaginary part through `ETA`.
+ */
+const ETA = new Float64Array(4);
+
+function admittances(plan: SpectrumPlan, s: Scratch, iw: number, beta2: number, p: boolean): void {
+  const w = plan.work;
+  const L = w.layerCount;
+  for (let l = 0; l < L; l++) {
+    admittance(w.frontEpsRe[iw * L + l], w.frontEpsIm[iw * L + l], beta2, p, 0);
+    s.er[l] = ETA[0];
+    s.ei[l] = ETA[1];
+  }
+}
+
+/** η of a medium into ETA[o], ETA[o + 1]. */
+function admittance(er: number, ei: number, beta2: number, p: boolean, o: number): void {
+  const x = er - beta2;
+  let qr: number;
+  let qi: number;
+  if (ei === 0) {
+    qr = x > 0 ? Math.sqrt(x) : x === 0 ? 1e-150 : 0;
+    qi = x < 0 ? Math.sqrt(-x) : 0;
+  } else {
+    const m = Math.sqrt(0.5 * (Math.sqrt(x * x + ei * ei) + Math.abs(x)));
+    const h = ei / (2 * m);
+    qr = x >= 0 ? m : h;
+    qi = x >= 0 ? h : m;
+  }
+  if (!p) {
+    ETA[o] = qr;
+    ETA[o + 1] = qi;
+    return;
+  }
+  const q2 = qr * qr + qi * qi;
+  ETA[o] = (er * qr + ei * qi) / q2;
+  ETA[o + 1] = (ei * qr - er * qi) / q2;
+}
+
+/** Backward sweep: v_j = M_j v_{j+1} from v_L = [1; η_exit]. */
+function backwardSweep(s: Scratch, L: number, etaExitRe: number, etaExitIm: number): void {
+  s.vBr[L] = 1;
+  s.vBi[L] = 0;
+  s.vCr[L] = etaExitRe;
+  s.vCi[L] = etaExitIm;
+  for (let l = L - 1; l >= 0; l--) {
+    const Br = s.vBr[l + 1];
+    const Bi = s.vBi[l + 1];
+    const Cr = s.vCr[l + 1];
+    const Ci = s.vCi[l + 1];
+    offDiagonal(s, l);
+    const ur = MAT[0];
+    const ui = MAT[1];
+    const gr = MAT[2];
+    const gi = MAT[3];
+    const cr = s.cr[l];
+    const ci = s.ci[l];
+    s.vBr[l] = cr * Br - ci * Bi + ur * Cr - ui * Ci;
+    s.vBi[l] = cr * Bi + ci * Br + ur * Ci + ui * Cr;
+    s.vCr[l] = gr * Br - gi * Bi + cr * Cr - ci * Ci;
+    s.vCi[l] = gr * Bi + gi * Br + cr * Ci + ci * Cr;
+  }
+}
+
+/** Output of {@link surfaceCoefficients}: the complex factors turning [dB; dC] into dR and dT. */
+const COEF = new Float64Array(8);
+
+/**
+ * From η₀ and v_0 = [B; C]: COEF[0..1] = (C·κ), COEF[2..3] = (−B·κ) with κ = 2η₀ r̄/D², so that
+ * dR = 2 Re(COEF_0 dB + COEF_1 dC); COEF[4..7] likewise for dT (κ_t = −2η₀ t̄/D² · Re η_m/Re η₀,
+ * rows η₀ and 1). All derivatives of R and T are then real parts of these rows times [dB; dC].
+ */
+function surfaceCoefficients(s: Scratch, e0r: number, e0i: number, etaExitRe: number): void {
+  const Br = s.vBr[0];
+  const Bi = s.vBi[0];
+  const Cr = s.vCr[0];
+  const Ci = s.vCi[0];
+  const Dr = e0r * Br - e0i * Bi + Cr;
+  const Di = e0r * Bi + e0i * Br + Ci;
+  const Nr = e0r * Br - e0i * Bi - Cr;
+  const Ni = e0r * Bi + e0i * Br - Ci;
+  const d2 = Dr * Dr + Di * Di;
+  // r = N/D, t = 2η₀/D
+  const rr = (Nr * Dr + Ni * Di) / d2;
+  const ri = (Ni * Dr - Nr * Di) / d2;
+  const tr = (2 * (e0r * Dr + e0i * Di)) / d2;
+  const ti = (2 * (e0i * Dr - e0r * Di)) / d2;
+  // 1/D² = conj(D)²/|D|⁴
+  const iDr = (Dr * Dr - Di * Di) / (d2 * d2);
+  const iDi = (-2 * Dr * Di) / (d2 * d2);
+  // w = 2η₀/D²
+  const wr = 2 * (e0r * iDr - e0i * iDi);
+  const wi = 2 * (e0r * iDi + e0i * iDr);
+  // κ_r = r̄ w
+  const kr = rr * wr + ri * wi;
+  const ki = rr * wi - ri * wr;
+  COEF[0] = kr * Cr - ki * Ci;
+  COEF[1] = kr * Ci + ki * Cr;
+  COEF[2] = -(kr * Br - ki * Bi);
+  COEF[3] = -(kr * Bi + ki * Br);
+  // κ_t = −t̄ w · Re η_m/Re η₀
+  const f = e0r > 0 ? -etaExitRe / e0r : 0;
+  const tkr = f * (tr * wr + ti * wi);
+  const tki = f * (tr * wi - ti * wr);
+  COEF[4] = tkr * e0r - tki * e0i;
+  COEF[5] = tkr * e0i + tki * e0r;
+  COEF[6] = tkr;
+  COEF[7] = tki;
+}
+
+/**
+ * ∂R/∂d and ∂T/∂d of every front layer (nm⁻¹) on the plan's grid into `out` (from
+ * {@link createThicknessDerivatives}), laid out [l·plan.size + spectrumIndex]; `avg` gets the mean
+ * of s and p. See the file comment for the method. Allocates nothing after the first call on a plan.
+ */
+export function computeThicknessDerivatives(out: ThicknessDerivatives, plan: SpectrumPlan): ThicknessDerivatives {
+  checkPlan(plan);
+  const w = plan.work;
+  const L = w.layerCount;
+  const size = plan.size;
+  if (out.dR.length < L * size || out.dT.length < L * size) {
+    throw new OpticsInputError('out', `derivative arrays must hold ${L * size} values`);
+  }
+  const s = scratch(plan, 1);
+  const nW = plan.wavelengthsNm.length;
+  const nA = plan.anglesDeg.length;
+  const pols = plan.polarisations;
+  for (let iw = 0; iw < nW; iw++) {
+    const k0 = w.k0[iw];
+    const n0 = w.incN[iw];
+    for (let ia = 0; ia < nA; ia++) {
+      const beta = n0 * w.sinAngles[ia];
+      const beta2 = beta * beta;
+      layerTrig(plan, s, iw, k0, beta2);
+      for (let ip = 0; ip < pols.length; ip++) {
+        const idx = (ip * nA + ia) * nW + iw;
+        for (let l = 0; l < L; l++) {
+          out.dR[l * size + idx] = 0;
+          out.dT[l * size + idx] = 0;
+        }
+        const pol = pols[ip];
+        if (pol !== 'p') sweepLayers(out, plan, s, iw, k0, beta2, false, idx, pol === 'avg' ? 0.5 : 1);
+        if (pol !== 's') sweepLayers(out, plan, s, iw, k0, beta2, true, idx, pol === 'avg' ? 0.5 : 1);
+      }
+    }
+  }
+  return out;
+}
+
+/** One polarisation's sweeps; adds weight·∂R/∂d_l and weight·∂T/∂d_l at idx. */
+function sweepLayers(
+  out: ThicknessDerivatives,
+  plan: SpectrumPlan,
+  s: Scratch,
+  iw: number,
+  k0: number,
+  beta2: number,
+  p: boolean,
+  idx: number,
+  weight: number,
+): void {
+  const w = plan.work;
+  const L = w.layerCount;
+  const size = plan.size;
+  admittances(plan, s, iw, beta2, p);
+  admittance(w.subEpsRe[iw], w.subEpsIm[iw], beta2, p, 0);
+  const exitRe = ETA[0];
+  backwardSweep(s, L, ETA[0], ETA[1]);
+  const n0 = w.incN[iw];
+  admittance(n0 * n0, 0, beta2, p, 2);
+  surfaceCoefficients(s, ETA[2], ETA[3], exitRe);
+  // Rows ℓ_R = (COEF_0, COEF_1)·P_j and ℓ_T = (COEF_2, COEF_3)·P_j, carried forward layer by layer.
+  let r1r = COEF[0];
+  let r1i = COEF[1];
+  let r2r = COEF[2];
+  let r2i = COEF[3];
+  let t1r = COEF[4];
+  let t1i = COEF[5];
+  let t2r = COEF[6];
+  let t2i = COEF[7];
+  for (let l = 0; l < L; l++) {
+    const er = w.frontEpsRe[iw * L + l];
+    const ei = w.frontEpsIm[iw * L + l];
+    // G v = −i k0 [a C; b B]
+    let ar: number;
+    let ai: number;
+    let br: number;
+    let bi: number;
+    if (p) {
+      const e2 = er * er + ei * ei;
+      const xr = s.q2r[l];
+      const xi = s.q2i[l];
+      ar = (xr * er + xi * ei) / e2;
+      ai = (xi * er - xr * ei) / e2;
+      br = er;
+      bi = ei;
+    } else {
+      ar = 1;
+      ai = 0;
+      br = s.q2r[l];
+      bi = s.q2i[l];
+    }
+    const Br = s.vBr[l];
+    const Bi = s.vBi[l];
+    const Cr = s.vCr[l];
+    const Ci = s.vCi[l];
+    // g1 = a C, g2 = b B, then times −i k0: (x + iy)(−i k0) = (k0 y, −k0 x)
+    const a1r = ar * Cr - ai * Ci;
+    const a1i = ar * Ci + ai * Cr;
+    const b1r = br * Br - bi * Bi;
+    const b1i = br * Bi + bi * Br;
+    const g1r = k0 * a1i;
+    const g1i = -k0 * a1r;
+    const g2r = k0 * b1i;
+    const g2i = -k0 * b1r;
+    const dR = 2 * (r1r * g1r - r1i * g1i + r2r * g2r - r2i * g2i);
+    const dT = 2 * (t1r * g1r - t1i * g1i + t2r * g2r - t2i * g2i);
+    out.dR[l * size + idx] += weight * dR;
+    out.dT[l * size + idx] += weight * dT;
+    // ℓ ← ℓ·M_l: (x1, x2)·[[c, u], [g, c]] = (x1 c + x2 g, x1 u + x2 c)
+    offDiagonal(s, l);
+    const ur = MAT[0];
+    const ui = MAT[1];
+    const gr = MAT[2];
+    const gi = MAT[3];
+    const cr = s.cr[l];
+    const ci = s.ci[l];
+    let x1r = r1r * cr - r1i * ci + r2r * gr - r2i * gi;
+    let x1i = r1r * ci + r1i * cr + r2r * gi + r2i * gr;
+    let x2r = r1r * ur - r1i * ui + r2r * cr - r2i * ci;
+    let x2i = r1r * ui + r1i * ur + r2r * ci + r2i * cr;
+    r1r = x1r;
+    r1i = x1i;
+    r2r = x2r;
+    r2i = x2i;
+    x1r = t1r * cr - t1i * ci + t2r * gr - t2i * gi;
+    x1i = t1r * ci + t1i * cr + t2r * gi + t2i * gr;
+    x2r = t1r * ur - t1i * ui + t2r * cr - t2i * ci;
+    x2i = t1r * ui + t1i * ur + t2r * ci + t2i * cr;
+    t1r = x1r;
+    t1i = x1i;
+    t2r = x2r;
+    t2i = x2i;
+  }
+}
+
+/** Off-diagonal elements of layer l's matrix: MAT[0..1] = −i sin δ/η, MAT[2..3] = −i η sin δ. */
+const MAT = new Float64Array(4);
+
+function offDiagonal(s: Scratch, l: number): void {
+  const sr = s.sr[l];
+  const si = s.si[l];
+  const er = s.er[l];
+  const ei = s.ei[l];
+  const e2 = er * er + ei * ei;
+  const qr = (sr * er + si * ei) / e2;
+  const qi = (si * er - sr * ei) / e2;
+  MAT[0] = qi;
+  MAT[1] = -qr;
+  const hr = er * sr - ei * si;
+  const hi = er * si + ei * sr;
+  MAT[2] = hi;
+  MAT[3] = -hr;
+}
