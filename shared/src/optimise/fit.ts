@@ -13,14 +13,16 @@
  * way the Jacobian comes straight from the engine's batch API into buffers allocated once.
  *
  * Method, per iteration:
- * - Jacobian by forward differences, one extra spectrum per free layer (step FD_STEP_NM).
+ * - Jacobian from the analytic thickness derivatives of optics/derivatives.ts (one forward and one
+ *   backward matrix sweep for all layers), or, for back `incoherent` or on request, by forward
+ *   differences, one extra spectrum per free layer (step FD_STEP_NM).
  * - Bounds by projection: a layer on a bound whose gradient points outwards is frozen for the
  *   iteration; the step of the others is solved from (JᵀJ + λ·diag JᵀJ)·δ = −Jᵀr and clipped.
  * - No thickness moves more than MAX_STEP_NM in one step (the step is shortened along its
  *   direction). λ falls by 3 after a step that lowers Σr², rises by 4 after one that does not
  *   (Marquardt's scaled damping). Everything is deterministic: the same input gives the same iterates.
  */
-import { onlyKeys, plainObject } from '../optics/checks.js';
+import { oneOf, onlyKeys, plainObject } from '../optics/checks.js';
 import { OpticsInputError, fieldPath } from '../optics/errors.js';
 import type { SpecMask } from '../optics/mask.js';
 import type { OpticalStack } from '../optics/stack.js';
@@ -59,6 +61,7 @@ const FIT_OPTION_KEYS = [
   'targets',
   'marginPercent',
   'onIteration',
+  'derivatives',
 ];
 
 /** Streamed after every accepted iteration. */
@@ -87,7 +90,17 @@ export interface FitOptions {
   marginPercent?: number;
   /** Called after each iteration; return false to stop (cancel). */
   onIteration?: (info: FitIteration) => boolean | void;
+  /**
+   * How the Jacobian is taken: `analytic` (default; from the characteristic-matrix sweeps, for
+   * back `none`) or `differences` (forward differences, one spectrum per free layer; always used
+   * for back `incoherent`).
+   */
+  derivatives?: DerivativeMethod;
 }
+
+/** Jacobian from the analytic sweeps or from forward differences of the spectrum. */
+export type DerivativeMethod = 'analytic' | 'differences';
+export const DERIVATIVE_METHODS: readonly DerivativeMethod[] = ['analytic', 'differences'];
 
 export type FitStop = 'converged' | 'maxIterations' | 'cancelled';
 
@@ -120,6 +133,8 @@ export interface LayerBounds {
 /** Settings of {@link refineThicknesses}. */
 export interface RefineSettings {
   maxIterations: number;
+  /** Default `analytic` where the merit supports it. */
+  derivatives?: DerivativeMethod;
   onIteration?: (info: FitIteration) => boolean | void;
 }
 
@@ -139,13 +154,19 @@ export function fitToMask(stack: OpticalStack, mask: SpecMask, options: FitOptio
   if (opts.onIteration !== undefined && typeof opts.onIteration !== 'function') {
     throw new OpticsInputError('onIteration', 'must be a function');
   }
+  const derivatives =
+    opts.derivatives === undefined ? undefined : oneOf(opts.derivatives, DERIVATIVE_METHODS, 'derivatives');
   const merit = createMaskMerit(stack, mask, {
     back: options.back,
     targets: options.targets,
     marginPercent: options.marginPercent ?? DEFAULT_MARGIN_PERCENT,
   });
   const start = merit.plan.stack.layers.map((l) => l.thicknessNm);
-  return refineThicknesses(merit, start, bounds, { maxIterations, onIteration: options.onIteration });
+  return refineThicknesses(merit, start, bounds, {
+    maxIterations,
+    onIteration: options.onIteration,
+    derivatives,
+  });
 }
 
 /**
@@ -244,6 +265,7 @@ export function refineThicknesses(
   const ySharp = new Float64Array(p);
   const work = new Float64Array(p);
   let haveStep = false;
+  const analytic = (settings.derivatives ?? 'analytic') === 'analytic' && merit.analyticDerivatives;
 
   let evaluations = 0;
   const evaluate = (thicknesses: Float64Array, out: Float64Array): number => {
@@ -267,14 +289,11 @@ export function refineThicknesses(
       stoppedBy = 'converged';
       break;
     }
-    // Jacobian J[s, j] = ∂r_s/∂d_j by forward differences.
-    trial.set(x);
-    for (let j = 0; j < p; j++) {
-      const l = free[j];
-      trial[l] = x[l] + FD_STEP_NM;
-      evaluate(trial, rTrial);
-      trial[l] = x[l];
-      for (let s = 0; s < m; s++) jac[s * p + j] = (rTrial[s] - r[s]) / FD_STEP_NM;
+    if (analytic) {
+      merit.jacobian(jac, x, free);
+      evaluations++;
+    } else {
+      evaluations += jacobianByDifferences(merit, jac, x, r, free, trial, rTrial);
     }
     // A = JᵀJ, g = Jᵀr.
     a.fill(0);
@@ -415,6 +434,32 @@ export function refineThicknesses(
     converged: stoppedBy === 'converged',
     stoppedBy,
   };
+}
+
+/**
+ * Jacobian J[s, j] = ∂r_s/∂d_free[j] by forward differences (step FD_STEP_NM) around x, whose
+ * residuals are r; returns the spectra computed (one per free layer).
+ */
+function jacobianByDifferences(
+  merit: MaskMerit,
+  jac: Float64Array,
+  x: Float64Array,
+  r: Float64Array,
+  free: readonly number[],
+  trial: Float64Array,
+  rTrial: Float64Array,
+): number {
+  const p = free.length;
+  const m = merit.sampleCount;
+  trial.set(x);
+  for (let j = 0; j < p; j++) {
+    const l = free[j];
+    trial[l] = x[l] + FD_STEP_NM;
+    merit.residuals(rTrial, trial);
+    trial[l] = x[l];
+    for (let s = 0; s < m; s++) jac[s * p + j] = (rTrial[s] - r[s]) / FD_STEP_NM;
+  }
+  return p;
 }
 
 /**
