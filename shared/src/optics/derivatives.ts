@@ -37,11 +37,16 @@ export interface NeedleMaterials {
   epsIm: Float64Array;
 }
 
-/** Depth grid of a needle scan: per point its layer and offset below that layer's front, nm. */
+/**
+ * Depth grid of a needle scan: per point its layer and offset below that layer's front, nm. Layer
+ * j is cut into `steps[j]` equal parts; its points are k = 1…steps[j] (k = 0 too for the front
+ * layer), so an interface appears once, as the far end of the layer above it.
+ */
 export interface NeedleGrid {
   count: number;
   layer: Int32Array;
   offsetNm: Float64Array;
+  steps: Int32Array;
 }
 
 /** Per-layer scratch of one (wavelength, angle): cos δ, sin δ, q², ε, and the sweeps' vectors. */
@@ -52,6 +57,8 @@ interface Scratch {
   si: Float64Array;
   q2r: Float64Array;
   q2i: Float64Array;
+  qr: Float64Array;
+  qi: Float64Array;
   /** η per layer for the polarisation being swept. */
   er: Float64Array;
   ei: Float64Array;
@@ -81,6 +88,8 @@ function scratch(plan: SpectrumPlan, points: number): Scratch {
       si: f(L),
       q2r: f(L),
       q2i: f(L),
+      qr: f(L),
+      qi: f(L),
       er: f(L),
       ei: f(L),
       vBr: f(L + 1),
@@ -145,6 +154,8 @@ function layerTrig(plan: SpectrumPlan, s: Scratch, iw: number, k0: number, beta2
     s.si[l] = ca * sh;
     s.q2r[l] = x;
     s.q2i[l] = ei;
+    s.qr[l] = qr;
+    s.qi[l] = qi;
   }
 }
 
@@ -412,4 +423,258 @@ function offDiagonal(s: Scratch, l: number): void {
   const hi = er * si + ei * sr;
   MAT[2] = hi;
   MAT[3] = -hr;
+}
+
+/**
+ * The needle scan's depth grid for front layers of the given thicknesses (nm): points at most
+ * `stepNm` apart through every layer, the front surface and every interface included. With no
+ * layers, the one point is the substrate's surface.
+ */
+export function createNeedleGrid(thicknessesNm: ArrayLike<number>, stepNm: number): NeedleGrid {
+  if (!(stepNm > 0) || !Number.isFinite(stepNm)) {
+    throw new OpticsInputError('positionStepNm', `must be a positive number (got ${stepNm})`);
+  }
+  const L = thicknessesNm.length;
+  const steps = new Int32Array(L);
+  let count = L === 0 ? 1 : 1;
+  for (let j = 0; j < L; j++) {
+    steps[j] = Math.max(1, Math.ceil(thicknessesNm[j] / stepNm));
+    count += steps[j];
+  }
+  const layer = new Int32Array(count);
+  const offsetNm = new Float64Array(count);
+  let i = 1;
+  for (let j = 0; j < L; j++) {
+    for (let k = 1; k <= steps[j]; k++) {
+      layer[i] = j;
+      offsetNm[i] = Math.min(thicknessesNm[j], (thicknessesNm[j] * k) / steps[j]);
+      i++;
+    }
+  }
+  return { count, layer, offsetNm, steps };
+}
+
+/** Scratch of the needle scan: a and b of G per material. */
+const needleScratch = { ar: new Float64Array(8), ai: new Float64Array(8), br: new Float64Array(8), bi: new Float64Array(8) };
+
+/**
+ * The needle function: ∂F/∂Δ for a needle of thickness Δ of each material at each point of
+ * `grid`, with F = Σ_i gR[i]·R_i + gT[i]·T_i over the plan's spectrum (weights per spectrum
+ * index, e.g. MaskMerit.gradientWeights, so ∂F/∂Δ is the merit's first-order change), into
+ * out[m·grid.count + point] (nm⁻¹ times F's unit). Negative values mark where a needle lowers F.
+ * The grid must come from {@link createNeedleGrid} for the plan's current thicknesses. One forward
+ * and one backward sweep per wavelength, angle and polarisation serve every point and material.
+ */
+export function needleFunction(
+  out: Float64Array,
+  plan: SpectrumPlan,
+  materials: NeedleMaterials,
+  grid: NeedleGrid,
+  gR: Float64Array,
+  gT: Float64Array,
+): Float64Array {
+  checkPlan(plan);
+  const w = plan.work;
+  const L = w.layerCount;
+  const nM = materials.count;
+  const nW = plan.wavelengthsNm.length;
+  const nA = plan.anglesDeg.length;
+  if (grid.steps.length !== L) throw new OpticsInputError('grid', `needs ${L} layers (got ${grid.steps.length})`);
+  if (out.length < nM * grid.count) throw new OpticsInputError('out', `must hold ${nM * grid.count} values`);
+  if (materials.epsRe.length < nM * nW || materials.epsIm.length < nM * nW) {
+    throw new OpticsInputError('materials', `need ${nM * nW} permittivities`);
+  }
+  if (needleScratch.ar.length < nM) {
+    needleScratch.ar = new Float64Array(nM);
+    needleScratch.ai = new Float64Array(nM);
+    needleScratch.br = new Float64Array(nM);
+    needleScratch.bi = new Float64Array(nM);
+  }
+  let most = 1;
+  for (let j = 0; j < L; j++) most = Math.max(most, grid.steps[j] + 1);
+  const s = scratch(plan, most);
+  out.fill(0, 0, nM * grid.count);
+  const pols = plan.polarisations;
+  for (let iw = 0; iw < nW; iw++) {
+    const k0 = w.k0[iw];
+    const n0 = w.incN[iw];
+    for (let ia = 0; ia < nA; ia++) {
+      const beta2 = (n0 * w.sinAngles[ia]) ** 2;
+      // Weights of s and p at this (wavelength, angle); avg counts half for each.
+      let wRs = 0;
+      let wTs = 0;
+      let wRp = 0;
+      let wTp = 0;
+      for (let ip = 0; ip < pols.length; ip++) {
+        const idx = (ip * nA + ia) * nW + iw;
+        const f = pols[ip] === 'avg' ? 0.5 : 1;
+        if (pols[ip] !== 'p') {
+          wRs += f * gR[idx];
+          wTs += f * gT[idx];
+        }
+        if (pols[ip] !== 's') {
+          wRp += f * gR[idx];
+          wTp += f * gT[idx];
+        }
+      }
+      if (wRs === 0 && wTs === 0 && wRp === 0 && wTp === 0) continue;
+      layerTrig(plan, s, iw, k0, beta2);
+      if (wRs !== 0 || wTs !== 0) needleSweep(out, plan, materials, grid, s, iw, k0, beta2, false, wRs, wTs);
+      if (wRp !== 0 || wTp !== 0) needleSweep(out, plan, materials, grid, s, iw, k0, beta2, true, wRp, wTp);
+    }
+  }
+  return out;
+}
+
+/** One polarisation of {@link needleFunction}: adds its contribution at every point and material. */
+function needleSweep(
+  out: Float64Array,
+  plan: SpectrumPlan,
+  materials: NeedleMaterials,
+  grid: NeedleGrid,
+  s: Scratch,
+  iw: number,
+  k0: number,
+  beta2: number,
+  p: boolean,
+  wR: number,
+  wT: number,
+): void {
+  const w = plan.work;
+  const L = w.layerCount;
+  const nM = materials.count;
+  const nW = plan.wavelengthsNm.length;
+  const G = grid.count;
+  const { ar, ai, br, bi } = needleScratch;
+  for (let m = 0; m < nM; m++) {
+    const er = materials.epsRe[m * nW + iw];
+    const ei = materials.epsIm[m * nW + iw];
+    if (p) {
+      const e2 = er * er + ei * ei;
+      const xr = er - beta2;
+      ar[m] = (xr * er + ei * ei) / e2;
+      ai[m] = (ei * er - xr * ei) / e2;
+      br[m] = er;
+      bi[m] = ei;
+    } else {
+      ar[m] = 1;
+      ai[m] = 0;
+      br[m] = er - beta2;
+      bi[m] = ei;
+    }
+  }
+  admittances(plan, s, iw, beta2, p);
+  admittance(w.subEpsRe[iw], w.subEpsIm[iw], beta2, p, 0);
+  const exitRe = ETA[0];
+  backwardSweep(s, L, ETA[0], ETA[1]);
+  const n0 = w.incN[iw];
+  admittance(n0 * n0, 0, beta2, p, 2);
+  surfaceCoefficients(s, ETA[2], ETA[3], exitRe);
+  // One row ℓ = wR·ℓ_R + wT·ℓ_T: the merit is linear in R and T, so one row carries both.
+  let l1r = wR * COEF[0] + wT * COEF[4];
+  let l1i = wR * COEF[1] + wT * COEF[5];
+  let l2r = wR * COEF[2] + wT * COEF[6];
+  let l2i = wR * COEF[3] + wT * COEF[7];
+  addNeedlePoint(out, G, nM, 0, k0, s.vBr[0], s.vBi[0], s.vCr[0], s.vCi[0], l1r, l1i, l2r, l2i);
+  let point = 1;
+  for (let j = 0; j < L; j++) {
+    const n = grid.steps[j];
+    // Step matrix M_j(h), h = d/n: cos, and the off-diagonal elements u = −i sin/η, g = −i η sin.
+    const kh = (k0 * w.frontThicknessNm[j]) / n;
+    const a = kh * s.qr[j];
+    const b = kh * s.qi[j];
+    const ca = Math.cos(a);
+    const sa = Math.sin(a);
+    const ch = Math.cosh(b);
+    const sh = Math.sinh(b);
+    const cr = ca * ch;
+    const ci = -sa * sh;
+    const sr = sa * ch;
+    const si = ca * sh;
+    const er = s.er[j];
+    const ei = s.ei[j];
+    const e2 = er * er + ei * ei;
+    const ur = (si * er - sr * ei) / e2;
+    const ui = -(sr * er + si * ei) / e2;
+    const gr = er * si + ei * sr;
+    const gi = -(er * sr - ei * si);
+    // v at the layer's points k = n…0 (k = n is the layer's back, v_{j+1}).
+    s.pBr[n] = s.vBr[j + 1];
+    s.pBi[n] = s.vBi[j + 1];
+    s.pCr[n] = s.vCr[j + 1];
+    s.pCi[n] = s.vCi[j + 1];
+    for (let k = n - 1; k >= 1; k--) {
+      const Br = s.pBr[k + 1];
+      const Bi = s.pBi[k + 1];
+      const Cr = s.pCr[k + 1];
+      const Ci = s.pCi[k + 1];
+      s.pBr[k] = cr * Br - ci * Bi + ur * Cr - ui * Ci;
+      s.pBi[k] = cr * Bi + ci * Br + ur * Ci + ui * Cr;
+      s.pCr[k] = gr * Br - gi * Bi + cr * Cr - ci * Ci;
+      s.pCi[k] = gr * Bi + gi * Br + cr * Ci + ci * Cr;
+    }
+    // ℓ through the layer by the same steps.
+    let x1r = l1r;
+    let x1i = l1i;
+    let x2r = l2r;
+    let x2i = l2i;
+    for (let k = 1; k <= n; k++) {
+      const y1r = x1r * cr - x1i * ci + x2r * gr - x2i * gi;
+      const y1i = x1r * ci + x1i * cr + x2r * gi + x2i * gr;
+      const y2r = x1r * ur - x1i * ui + x2r * cr - x2i * ci;
+      const y2i = x1r * ui + x1i * ur + x2r * ci + x2i * cr;
+      x1r = y1r;
+      x1i = y1i;
+      x2r = y2r;
+      x2i = y2i;
+      if (k < n) addNeedlePoint(out, G, nM, point, k0, s.pBr[k], s.pBi[k], s.pCr[k], s.pCi[k], x1r, x1i, x2r, x2i);
+      point++;
+    }
+    // ℓ_{j+1} = ℓ_j·M_j with the layer's whole matrix (no accumulated stepping error at interfaces).
+    offDiagonal(s, j);
+    const Ur = MAT[0];
+    const Ui = MAT[1];
+    const Gr = MAT[2];
+    const Gi = MAT[3];
+    const Cr = s.cr[j];
+    const Ci = s.ci[j];
+    const y1r = l1r * Cr - l1i * Ci + l2r * Gr - l2i * Gi;
+    const y1i = l1r * Ci + l1i * Cr + l2r * Gi + l2i * Gr;
+    const y2r = l1r * Ur - l1i * Ui + l2r * Cr - l2i * Ci;
+    const y2i = l1r * Ui + l1i * Ur + l2r * Ci + l2i * Cr;
+    l1r = y1r;
+    l1i = y1i;
+    l2r = y2r;
+    l2i = y2i;
+    addNeedlePoint(out, G, nM, point - 1, k0, s.vBr[j + 1], s.vBi[j + 1], s.vCr[j + 1], s.vCi[j + 1], l1r, l1i, l2r, l2i);
+  }
+}
+
+/**
+ * Adds one point's needle derivative for every material: with X = ℓ1·C and Y = ℓ2·B,
+ * ∂F/∂Δ = 2 Re(−i k0 (a X + b Y)) = 2 k0 Im(a X + b Y).
+ */
+function addNeedlePoint(
+  out: Float64Array,
+  G: number,
+  nM: number,
+  point: number,
+  k0: number,
+  Br: number,
+  Bi: number,
+  Cr: number,
+  Ci: number,
+  x1r: number,
+  x1i: number,
+  x2r: number,
+  x2i: number,
+): void {
+  const { ar, ai, br, bi } = needleScratch;
+  const Xr = x1r * Cr - x1i * Ci;
+  const Xi = x1r * Ci + x1i * Cr;
+  const Yr = x2r * Br - x2i * Bi;
+  const Yi = x2r * Bi + x2i * Br;
+  for (let m = 0; m < nM; m++) {
+    out[m * G + point] += 2 * k0 * (ar[m] * Xi + ai[m] * Xr + br[m] * Yi + bi[m] * Yr);
+  }
 }
