@@ -287,9 +287,11 @@ function finish(
   const scale = log === 0 ? 1 : Math.exp(-log);
   const tr = ((2 * (e0r * dr + e0i * di)) / d2) * scale;
   const ti = ((2 * (e0i * dr - e0r * di)) / d2) * scale;
-  const R = rr * rr + ri * ri;
+  // Rounding can put R a few ulps above 1 (total internal reflection) or R + T above 1: clamp so
+  // 0 ≤ R, T, A ≤ 1 and A = (1 − R) − T ≥ 0.
+  const R = Math.min(1, rr * rr + ri * ri);
   // T = Re(η_exit)|t|²/Re(η₀); zero when no power flows in the incident medium's normal direction.
-  const T = e0r > 0 ? (exitAdmRe * (tr * tr + ti * ti)) / e0r : 0;
+  const T = e0r > 0 ? Math.min(1 - R, (exitAdmRe * (tr * tr + ti * ti)) / e0r) : 0;
   out[o + RESP_R] = R;
   out[o + RESP_T] = T;
   out[o + RESP_A] = 1 - R - T;
