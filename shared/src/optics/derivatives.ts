@@ -23,6 +23,9 @@
  */
 import { OpticsInputError } from './errors.js';
 import type { SpectrumPlan } from './batch.js';
+import { sinCos } from './fastmath.js';
+
+const TRIG = new Float64Array(2);
 
 /** ∂R/∂d and ∂T/∂d per front layer, nm⁻¹: [l·plan.size + spectrumIndex]. */
 export interface ThicknessDerivatives {
@@ -62,6 +65,16 @@ interface Scratch {
   /** η per layer for the polarisation being swept. */
   er: Float64Array;
   ei: Float64Array;
+  /** Off-diagonal matrix elements u = −i sin δ/η and g = −i η sin δ, same polarisation. */
+  ur: Float64Array;
+  ui: Float64Array;
+  gr: Float64Array;
+  gi: Float64Array;
+  /** a and b of G = −i k0 [[0, a], [b, 0]], same polarisation. */
+  ar: Float64Array;
+  ai: Float64Array;
+  br: Float64Array;
+  bi: Float64Array;
   /** v_j = [B_j; C_j], j = 0…L (v_L = [1; η_exit]). */
   vBr: Float64Array;
   vBi: Float64Array;
@@ -92,6 +105,14 @@ function scratch(plan: SpectrumPlan, points: number): Scratch {
       qi: f(L),
       er: f(L),
       ei: f(L),
+      ur: f(L),
+      ui: f(L),
+      gr: f(L),
+      gi: f(L),
+      ar: f(L),
+      ai: f(L),
+      br: f(L),
+      bi: f(L),
       vBr: f(L + 1),
       vBi: f(L + 1),
       vCr: f(L + 1),
@@ -108,7 +129,10 @@ function scratch(plan: SpectrumPlan, points: number): Scratch {
 
 function checkPlan(plan: SpectrumPlan): void {
   if (plan.back !== 'none') {
-    throw new OpticsInputError('back', 'analytic derivatives exist for the coherent front surface (back "none") only');
+    throw new OpticsInputError(
+      'back',
+      'analytic derivatives exist for the coherent front surface (back "none") only',
+    );
   }
 }
 
@@ -144,10 +168,11 @@ function layerTrig(plan: SpectrumPlan, s: Scratch, iw: number, k0: number, beta2
     const kd = k0 * w.frontThicknessNm[l];
     const a = kd * qr;
     const b = kd * qi;
-    const ca = Math.cos(a);
-    const sa = Math.sin(a);
-    const ch = Math.cosh(b);
-    const sh = Math.sinh(b);
+    sinCos(TRIG, 0, a);
+    const sa = TRIG[0];
+    const ca = TRIG[1];
+    const ch = b === 0 ? 1 : Math.cosh(b);
+    const sh = b === 0 ? 0 : Math.sinh(b);
     s.cr[l] = ca * ch;
     s.ci[l] = -sa * sh;
     s.sr[l] = sa * ch;
@@ -169,9 +194,35 @@ function admittances(plan: SpectrumPlan, s: Scratch, iw: number, beta2: number, 
   const w = plan.work;
   const L = w.layerCount;
   for (let l = 0; l < L; l++) {
-    admittance(w.frontEpsRe[iw * L + l], w.frontEpsIm[iw * L + l], beta2, p, 0);
-    s.er[l] = ETA[0];
-    s.ei[l] = ETA[1];
+    const epr = w.frontEpsRe[iw * L + l];
+    const epi = w.frontEpsIm[iw * L + l];
+    admittance(epr, epi, beta2, p, 0);
+    const er = ETA[0];
+    const ei = ETA[1];
+    s.er[l] = er;
+    s.ei[l] = ei;
+    const sr = s.sr[l];
+    const si = s.si[l];
+    // u = −i sin δ/η, g = −i η sin δ
+    const e2 = er * er + ei * ei;
+    s.ur[l] = (si * er - sr * ei) / e2;
+    s.ui[l] = -(sr * er + si * ei) / e2;
+    s.gr[l] = er * si + ei * sr;
+    s.gi[l] = -(er * sr - ei * si);
+    if (p) {
+      const xr = s.q2r[l];
+      const xi = s.q2i[l];
+      const m2 = epr * epr + epi * epi;
+      s.ar[l] = (xr * epr + xi * epi) / m2;
+      s.ai[l] = (xi * epr - xr * epi) / m2;
+      s.br[l] = epr;
+      s.bi[l] = epi;
+    } else {
+      s.ar[l] = 1;
+      s.ai[l] = 0;
+      s.br[l] = s.q2r[l];
+      s.bi[l] = s.q2i[l];
+    }
   }
 }
 
@@ -210,11 +261,10 @@ function backwardSweep(s: Scratch, L: number, etaExitRe: number, etaExitIm: numb
     const Bi = s.vBi[l + 1];
     const Cr = s.vCr[l + 1];
     const Ci = s.vCi[l + 1];
-    offDiagonal(s, l);
-    const ur = MAT[0];
-    const ui = MAT[1];
-    const gr = MAT[2];
-    const gi = MAT[3];
+    const ur = s.ur[l];
+    const ui = s.ui[l];
+    const gr = s.gr[l];
+    const gi = s.gi[l];
     const cr = s.cr[l];
     const ci = s.ci[l];
     s.vBr[l] = cr * Br - ci * Bi + ur * Cr - ui * Ci;
@@ -275,7 +325,10 @@ function surfaceCoefficients(s: Scratch, e0r: number, e0i: number, etaExitRe: nu
  * {@link createThicknessDerivatives}), laid out [l·plan.size + spectrumIndex]; `avg` gets the mean
  * of s and p. See the file comment for the method. Allocates nothing after the first call on a plan.
  */
-export function computeThicknessDerivatives(out: ThicknessDerivatives, plan: SpectrumPlan): ThicknessDerivatives {
+export function computeThicknessDerivatives(
+  out: ThicknessDerivatives,
+  plan: SpectrumPlan,
+): ThicknessDerivatives {
   checkPlan(plan);
   const w = plan.work;
   const L = w.layerCount;
@@ -341,27 +394,11 @@ function sweepLayers(
   let t2r = COEF[6];
   let t2i = COEF[7];
   for (let l = 0; l < L; l++) {
-    const er = w.frontEpsRe[iw * L + l];
-    const ei = w.frontEpsIm[iw * L + l];
     // G v = −i k0 [a C; b B]
-    let ar: number;
-    let ai: number;
-    let br: number;
-    let bi: number;
-    if (p) {
-      const e2 = er * er + ei * ei;
-      const xr = s.q2r[l];
-      const xi = s.q2i[l];
-      ar = (xr * er + xi * ei) / e2;
-      ai = (xi * er - xr * ei) / e2;
-      br = er;
-      bi = ei;
-    } else {
-      ar = 1;
-      ai = 0;
-      br = s.q2r[l];
-      bi = s.q2i[l];
-    }
+    const ar = s.ar[l];
+    const ai = s.ai[l];
+    const br = s.br[l];
+    const bi = s.bi[l];
     const Br = s.vBr[l];
     const Bi = s.vBi[l];
     const Cr = s.vCr[l];
@@ -380,11 +417,10 @@ function sweepLayers(
     out.dR[l * size + idx] += weight * dR;
     out.dT[l * size + idx] += weight * dT;
     // ℓ ← ℓ·M_l: (x1, x2)·[[c, u], [g, c]] = (x1 c + x2 g, x1 u + x2 c)
-    offDiagonal(s, l);
-    const ur = MAT[0];
-    const ui = MAT[1];
-    const gr = MAT[2];
-    const gi = MAT[3];
+    const ur = s.ur[l];
+    const ui = s.ui[l];
+    const gr = s.gr[l];
+    const gi = s.gi[l];
     const cr = s.cr[l];
     const ci = s.ci[l];
     let x1r = r1r * cr - r1i * ci + r2r * gr - r2i * gi;
@@ -404,25 +440,6 @@ function sweepLayers(
     t2r = x2r;
     t2i = x2i;
   }
-}
-
-/** Off-diagonal elements of layer l's matrix: MAT[0..1] = −i sin δ/η, MAT[2..3] = −i η sin δ. */
-const MAT = new Float64Array(4);
-
-function offDiagonal(s: Scratch, l: number): void {
-  const sr = s.sr[l];
-  const si = s.si[l];
-  const er = s.er[l];
-  const ei = s.ei[l];
-  const e2 = er * er + ei * ei;
-  const qr = (sr * er + si * ei) / e2;
-  const qi = (si * er - sr * ei) / e2;
-  MAT[0] = qi;
-  MAT[1] = -qr;
-  const hr = er * sr - ei * si;
-  const hi = er * si + ei * sr;
-  MAT[2] = hi;
-  MAT[3] = -hr;
 }
 
 /**
@@ -455,7 +472,12 @@ export function createNeedleGrid(thicknessesNm: ArrayLike<number>, stepNm: numbe
 }
 
 /** Scratch of the needle scan: a and b of G per material. */
-const needleScratch = { ar: new Float64Array(8), ai: new Float64Array(8), br: new Float64Array(8), bi: new Float64Array(8) };
+const needleScratch = {
+  ar: new Float64Array(8),
+  ai: new Float64Array(8),
+  br: new Float64Array(8),
+  bi: new Float64Array(8),
+};
 
 /**
  * The needle function: ∂F/∂Δ for a needle of thickness Δ of each material at each point of
@@ -479,7 +501,8 @@ export function needleFunction(
   const nM = materials.count;
   const nW = plan.wavelengthsNm.length;
   const nA = plan.anglesDeg.length;
-  if (grid.steps.length !== L) throw new OpticsInputError('grid', `needs ${L} layers (got ${grid.steps.length})`);
+  if (grid.steps.length !== L)
+    throw new OpticsInputError('grid', `needs ${L} layers (got ${grid.steps.length})`);
   if (out.length < nM * grid.count) throw new OpticsInputError('out', `must hold ${nM * grid.count} values`);
   if (materials.epsRe.length < nM * nW || materials.epsIm.length < nM * nW) {
     throw new OpticsInputError('materials', `need ${nM * nW} permittivities`);
@@ -627,15 +650,15 @@ function needleSweep(
       x1i = y1i;
       x2r = y2r;
       x2i = y2i;
-      if (k < n) addNeedlePoint(out, G, nM, point, k0, s.pBr[k], s.pBi[k], s.pCr[k], s.pCi[k], x1r, x1i, x2r, x2i);
+      if (k < n)
+        addNeedlePoint(out, G, nM, point, k0, s.pBr[k], s.pBi[k], s.pCr[k], s.pCi[k], x1r, x1i, x2r, x2i);
       point++;
     }
     // ℓ_{j+1} = ℓ_j·M_j with the layer's whole matrix (no accumulated stepping error at interfaces).
-    offDiagonal(s, j);
-    const Ur = MAT[0];
-    const Ui = MAT[1];
-    const Gr = MAT[2];
-    const Gi = MAT[3];
+    const Ur = s.ur[j];
+    const Ui = s.ui[j];
+    const Gr = s.gr[j];
+    const Gi = s.gi[j];
     const Cr = s.cr[j];
     const Ci = s.ci[j];
     const y1r = l1r * Cr - l1i * Ci + l2r * Gr - l2i * Gi;
@@ -646,7 +669,21 @@ function needleSweep(
     l1i = y1i;
     l2r = y2r;
     l2i = y2i;
-    addNeedlePoint(out, G, nM, point - 1, k0, s.vBr[j + 1], s.vBi[j + 1], s.vCr[j + 1], s.vCi[j + 1], l1r, l1i, l2r, l2i);
+    addNeedlePoint(
+      out,
+      G,
+      nM,
+      point - 1,
+      k0,
+      s.vBr[j + 1],
+      s.vBi[j + 1],
+      s.vCr[j + 1],
+      s.vCi[j + 1],
+      l1r,
+      l1i,
+      l2r,
+      l2i,
+    );
   }
 }
 

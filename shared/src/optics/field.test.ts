@@ -103,7 +103,8 @@ describe('field profile |E|² relative to the incident wave', () => {
     // Checks: the front of the stack sees the same field as a thinner stack whose back no longer
     // matters (the wave dies out within ~λ/(4πk) = 8 nm of the front), and the absorbed power
     // (Born & Wolf, as above) integrated over the first 200 nm (the rest is below e^-25) equals A.
-    const metal = (d: number): OpticalStack => constantStack(1, [{ n: 0.2, k: 5, thicknessNm: d }], { n: 1.52, k: 0 });
+    const metal = (d: number): OpticalStack =>
+      constantStack(1, [{ n: 0.2, k: 5, thicknessNm: d }], { n: 1.52, k: 0 });
     const depths = Array.from({ length: 2001 }, (_, i) => 200 * (i / 2000));
     for (const pol of ['s', 'p'] as const) {
       const thick = profile(metal(6000), 500, 30, pol, depths);
@@ -115,11 +116,15 @@ describe('field profile |E|² relative to the incident wave', () => {
       expect(thick[0]).toBeGreaterThan(1e-3);
       let sum = 0;
       for (let i = 0; i <= 2000; i++) sum += thick[i] * (i === 0 || i === 2000 ? 1 : i % 2 === 1 ? 4 : 2);
-      const absorbed = ((2 * 0.2 * 5 * sum * (200 / 2000)) / 3) * ((2 * Math.PI) / 500) / Math.cos(30 * deg);
+      const absorbed =
+        (((2 * 0.2 * 5 * sum * (200 / 2000)) / 3) * ((2 * Math.PI) / 500)) / Math.cos(30 * deg);
       expect(absorbed).toBeCloseTo(responseAt(metal(6000), 500, 30, pol).A, 7);
       // Deep inside, only the forward wave is left: |E|² falls by exp(−2 k0 Im q Δz) over Δz, with
       // q = √(N² − sin²θ0) (Born & Wolf, waves in absorbing media); finite there, not NaN.
-      const q = new Complex(0.2, 5).pow(2).sub(Math.sin(30 * deg) ** 2).sqrt();
+      const q = new Complex(0.2, 5)
+        .pow(2)
+        .sub(Math.sin(30 * deg) ** 2)
+        .sqrt();
       const [deep, deeper] = profile(metal(6000), 500, 30, pol, [3000, 3010]);
       expect(deep).toBeGreaterThan(0);
       expect(Math.log(deeper / deep)).toBeCloseTo(-2 * ((2 * Math.PI) / 500) * Math.abs(q.im) * 10, 9);

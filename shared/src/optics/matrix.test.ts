@@ -89,8 +89,20 @@ describe('single interface', () => {
     // everything, R = 1, T = 0, A = 0; rounding alone used to give R = 1 + 6.7e-16 or A = −2e-13.
     const angles = Array.from({ length: 200 }, (_, i) => 41.2 + (48.7 * i) / 199);
     const wavelengths = Array.from({ length: 50 }, (_, i) => 400 + 12 * i);
-    const lossless = stack(1.52, [[2.35, 0, 97], [1.46, 0, 143], [2.05, 0, 61]], 1);
-    const res = calculateSpectrum(lossless, { wavelengthsNm: wavelengths, anglesDeg: angles, polarisations: ['s', 'p'] });
+    const lossless = stack(
+      1.52,
+      [
+        [2.35, 0, 97],
+        [1.46, 0, 143],
+        [2.05, 0, 61],
+      ],
+      1,
+    );
+    const res = calculateSpectrum(lossless, {
+      wavelengthsNm: wavelengths,
+      anglesDeg: angles,
+      polarisations: ['s', 'p'],
+    });
     for (let i = 0; i < res.R.length; i++) {
       expect(res.R[i]).toBeLessThanOrEqual(1);
       expect(res.R[i]).toBeGreaterThan(1 - 1e-12);

@@ -17,13 +17,17 @@
  * the best that lowers the merit is kept (the gradual-evolution variant of the method).
  */
 import { onlyKeys, plainObject } from '../optics/checks.js';
-import { indexAt, validateMaterialModel, type MaterialModel } from '../optics/dispersion.js';
+import { evaluateIndex, indexAt, validateMaterialModel, type MaterialModel } from '../optics/dispersion.js';
+import { createNeedleGrid, needleFunction, type NeedleMaterials } from '../optics/derivatives.js';
+import { oneOf } from '../optics/checks.js';
 import { OpticsInputError, fieldPath } from '../optics/errors.js';
 import { maskGrid, type SpecMask } from '../optics/mask.js';
 import { validateOpticalStack, type OpticalStack } from '../optics/stack.js';
 import type { BackSurface } from '../optics/batch.js';
 import {
+  DERIVATIVE_METHODS,
   DEFAULT_MARGIN_PERCENT,
+  type DerivativeMethod,
   DEFAULT_MAX_THICKNESS_NM,
   DEFAULT_MIN_THICKNESS_NM,
   layerBounds,
@@ -52,6 +56,8 @@ const GROW_OPTION_KEYS = [
   'marginPercent',
   'targets',
   'onStep',
+  'derivatives',
+  'outermostFixed',
 ];
 
 /** A coating material the engineer allows Grow layers to use. */
@@ -116,6 +122,14 @@ export interface GrowOptions {
   targets?: TargetCurve[];
   /** Called with each kept step (step 0 included); return false to stop (cancel). */
   onStep?: (step: GrowStep) => boolean | void;
+  /**
+   * `analytic` (default, back `none`): the needle function and the refinement's Jacobian from the
+   * characteristic-matrix sweeps; `differences`: probing each position with a thin needle and
+   * forward-difference Jacobians (always used for back `incoherent`).
+   */
+  derivatives?: DerivativeMethod;
+  /** Keep the start's front layer outermost: no needle or new layer goes in front of it. */
+  outermostFixed?: boolean;
 }
 
 export interface GrowResult {
@@ -166,6 +180,12 @@ export function growLayers(stack: OpticalStack, mask: SpecMask, options: GrowOpt
   const positionStep = positiveOption(opts.positionStepNm, 'positionStepNm', 2);
   const maxSteps = wholeNumber(opts.maxSteps, 'maxSteps', 0, 1000, 30);
   const maxIterations = wholeNumber(opts.maxIterations, 'maxIterations', 1, 100_000, 100);
+  const derivatives =
+    opts.derivatives === undefined ? 'analytic' : oneOf(opts.derivatives, DERIVATIVE_METHODS, 'derivatives');
+  if (opts.outermostFixed !== undefined && typeof opts.outermostFixed !== 'boolean') {
+    throw new OpticsInputError('outermostFixed', 'must be true or false');
+  }
+  const outermostFixed = opts.outermostFixed === true && start.layers.length > 0;
   if (opts.onStep !== undefined && typeof opts.onStep !== 'function') {
     throw new OpticsInputError('onStep', 'must be a function');
   }
@@ -211,6 +231,8 @@ export function growLayers(stack: OpticalStack, mask: SpecMask, options: GrowOpt
     marginPercent: options.marginPercent ?? DEFAULT_MARGIN_PERCENT,
   });
   const residual = new Float64Array(base.sampleCount);
+  const analytic = derivatives === 'analytic' && base.analyticDerivatives;
+  const needleMaterials = analytic ? needleMaterialTable(base, materials) : null;
 
   /** Refines `list` within [lower, maxNm] on a merit for its structure; returns it refined. */
   const refine = (list: WorkLayer[], lower: number): Refined => {
@@ -220,7 +242,7 @@ export function growLayers(stack: OpticalStack, mask: SpecMask, options: GrowOpt
       merit,
       list.map((l) => l.thicknessNm),
       bounds,
-      { maxIterations },
+      { maxIterations, derivatives },
     );
     const out = list.map((l, i) => ({ material: l.material, thicknessNm: fit.thicknessesNm[i] }));
     const sum = merit.residuals(residual, fit.thicknessesNm);
@@ -257,6 +279,8 @@ export function growLayers(stack: OpticalStack, mask: SpecMask, options: GrowOpt
         break;
       }
       const reasons = new Set<GrowStop>();
+      const better = (result: Refined | null): result is Refined =>
+        result !== null && result.sum < current.sum * (1 - 1e-9);
       /**
        * Refines a grown structure within [min, max], for a needle first with ≥ 0 bounds and its
        * thin layers removed; null when the result is over a limit.
@@ -266,9 +290,22 @@ export function growLayers(stack: OpticalStack, mask: SpecMask, options: GrowOpt
           reasons.add('maxLayers');
           return null;
         }
-        const kept = needle ? dropThinLayers(refine(grown, 0).layers, minNm) : grown;
-        if (kept.length === 0) return null;
-        const result = refine(kept, minNm);
+        let result: Refined;
+        if (needle) {
+          // Thin layers are dropped; when that undoes the needle, they are raised to the minimum
+          // thickness instead and refined within bounds.
+          const free = refine(grown, 0).layers;
+          const kept = dropThinLayers(free, minNm);
+          result = kept.length > 0 ? refine(kept, minNm) : current;
+          if (!better(result)) {
+            result = refine(
+              free.map((l) => ({ material: l.material, thicknessNm: Math.max(minNm, l.thicknessNm) })),
+              minNm,
+            );
+          }
+        } else {
+          result = refine(grown, minNm);
+        }
         if (result.layers.length > maxLayers) {
           reasons.add('maxLayers');
           return null;
@@ -279,12 +316,12 @@ export function growLayers(stack: OpticalStack, mask: SpecMask, options: GrowOpt
         }
         return result;
       };
-      const better = (result: Refined | null): result is Refined =>
-        result !== null && result.sum < current.sum * (1 - 1e-9);
 
       let accepted: Refined | null = null;
       let inserted: GrowStep['inserted'];
-      const candidates = scanNeedles(current.merit, layers, allowedCount, stackOf, positionStep, residual);
+      const candidates = needleMaterials
+        ? scanNeedlesAnalytic(current.merit, layers, needleMaterials, positionStep, outermostFixed)
+        : scanNeedles(current.merit, layers, allowedCount, stackOf, positionStep, residual, outermostFixed);
       const tried = new Set<string>();
       for (const cand of candidates) {
         const key = `${cand.layer}:${cand.material}`;
@@ -304,7 +341,7 @@ export function growLayers(stack: OpticalStack, mask: SpecMask, options: GrowOpt
         // No needle helps on its own: add a whole layer at the front or next to the substrate
         // (gradual evolution) and keep the best refined result.
         const total = layers.reduce((t, l) => t + l.thicknessNm, 0);
-        for (const side of ['front', 'substrate'] as const) {
+        for (const side of outermostFixed ? (['substrate'] as const) : (['front', 'substrate'] as const)) {
           for (let m = 0; m < allowedCount; m++) {
             const neighbour = side === 'front' ? layers[0] : layers[layers.length - 1];
             if (neighbour && neighbour.material === m) continue;
@@ -354,6 +391,7 @@ function scanNeedles(
   stackOf: (list: readonly WorkLayer[]) => OpticalStack,
   positionStep: number,
   residual: Float64Array,
+  outermostFixed: boolean,
 ): Candidate[] {
   const L = layers.length;
   const f0 = merit.residuals(
@@ -384,7 +422,7 @@ function scanNeedles(
       const probe = merit.withStack(stackOf(split));
       const thicknesses = split.map((l) => l.thicknessNm);
       // The interface above layer j is scanned with layer j − 1 (its far end), except the front one.
-      for (let k = j === 0 ? 0 : 1; k <= count; k++) {
+      for (let k = j === 0 && !outermostFixed ? 0 : 1; k <= count; k++) {
         if (k === count && j < L - 1 && layers[j + 1].material === m) continue;
         if (k === 0 && j > 0 && layers[j - 1].material === m) continue;
         const a = (d * k) / count;
@@ -398,6 +436,72 @@ function scanNeedles(
     }
   }
   return out.filter((c) => c.derivative < 0).sort((x, y) => x.derivative - y.derivative);
+}
+
+/** ε = N² of each allowed material on the merit's wavelengths, for the needle function. */
+function needleMaterialTable(merit: MaskMerit, materials: readonly AllowedMaterial[]): NeedleMaterials {
+  const wavelengths = merit.plan.wavelengthsNm;
+  const nW = wavelengths.length;
+  const table = {
+    count: materials.length,
+    epsRe: new Float64Array(materials.length * nW),
+    epsIm: new Float64Array(materials.length * nW),
+  };
+  const samples = { n: new Float64Array(nW), k: new Float64Array(nW) };
+  materials.forEach((m, i) => {
+    evaluateIndex(samples, m.model, wavelengths, fieldPath(fieldPath('allowedMaterials', i), 'model'));
+    for (let w = 0; w < nW; w++) {
+      const n = samples.n[w];
+      const k = samples.k[w];
+      table.epsRe[i * nW + w] = n * n - k * k;
+      table.epsIm[i * nW + w] = 2 * n * k;
+    }
+  });
+  return table;
+}
+
+/**
+ * The needle scan from the analytic needle function (optics/derivatives.ts): ∂Σr²/∂Δ of a needle
+ * of each allowed material at every grid point, in one pass; the candidates that lower the merit,
+ * most negative first. Same positions and exclusions as {@link scanNeedles}.
+ */
+function scanNeedlesAnalytic(
+  merit: MaskMerit,
+  layers: readonly WorkLayer[],
+  materials: NeedleMaterials,
+  positionStep: number,
+  outermostFixed: boolean,
+): Candidate[] {
+  const L = layers.length;
+  const thicknesses = layers.map((l) => l.thicknessNm);
+  merit.compute(thicknesses);
+  const size = merit.plan.size;
+  const gR = new Float64Array(size);
+  const gT = new Float64Array(size);
+  merit.gradientWeights(gR, gT);
+  const grid = createNeedleGrid(thicknesses, positionStep);
+  const values = needleFunction(
+    new Float64Array(materials.count * grid.count),
+    merit.plan,
+    materials,
+    grid,
+    gR,
+    gT,
+  );
+  const out: Candidate[] = [];
+  for (let k = 0; k < grid.count; k++) {
+    if (k === 0 && outermostFixed) continue;
+    const j = grid.layer[k];
+    const offsetNm = grid.offsetNm[k];
+    const atBack = k > 0 && k < grid.count && offsetNm >= thicknesses[j];
+    for (let m = 0; m < materials.count; m++) {
+      if (L > 0 && layers[j].material === m) continue;
+      if (atBack && j < L - 1 && layers[j + 1].material === m) continue;
+      const derivative = values[m * grid.count + k];
+      if (derivative < 0) out.push({ layer: j, material: m, offsetNm, derivative });
+    }
+  }
+  return out.sort((x, y) => x.derivative - y.derivative);
 }
 
 /** The layers with a needle of `cand.material` inserted (zero-thickness parts left out). */
