@@ -24,6 +24,7 @@ import {
   type SpecMask,
   createMaskMerit,
 } from '@quietglass/shared';
+import { Mulberry32, fillDeviates } from '@quietglass/shared/optimise/random';
 
 function typicalCauchy(n550: number, B: number): MaterialModel {
   return { model: 'cauchy', A: n550 - B / 0.55 ** 2, B, C: 0, k: 0 };
@@ -57,22 +58,6 @@ const start: OpticalStack = {
   exit: constantIndex(1),
 };
 
-/** mulberry32, seeded, for the thickness error. */
-function seeded(seed: number): () => number {
-  let a = seed >>> 0;
-  return () => {
-    a = (a + 0x6d2b79f5) >>> 0;
-    let t = a;
-    t = Math.imul(t ^ (t >>> 15), t | 1);
-    t ^= t + Math.imul(t ^ (t >>> 7), t | 61);
-    return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
-  };
-}
-
-function gaussian(rand: () => number): number {
-  return Math.sqrt(-2 * Math.log(1 - rand())) * Math.cos(2 * Math.PI * rand());
-}
-
 function run(method: DerivativeMethod): void {
   let t0 = performance.now();
   const grown = growLayers(start, mask, {
@@ -93,12 +78,17 @@ function run(method: DerivativeMethod): void {
       `worst margin ${grown.final.worstMargin.toFixed(4)} %-points, outermost ${grown.final.layers[0].material}, ` +
       `mask ${evaluateMask(mask, grown.stack).pass ? 'passes' : 'FAILS'}`,
   );
-  const rand = seeded(20261202);
+  const errors = fillDeviates(
+    new Float64Array(grown.stack.layers.length),
+    grown.stack.layers.length,
+    new Mulberry32(20261202),
+    'normal',
+  );
   const perturbed: OpticalStack = {
     ...grown.stack,
-    layers: grown.stack.layers.map((l) => ({
+    layers: grown.stack.layers.map((l, i) => ({
       ...l,
-      thicknessNm: l.thicknessNm * (1 + 0.02 * gaussian(rand)),
+      thicknessNm: l.thicknessNm * (1 + 0.02 * errors[i]),
     })),
   };
   t0 = performance.now();

@@ -24,8 +24,10 @@
 import { OpticsInputError } from './errors.js';
 import type { SpectrumPlan } from './batch.js';
 import { sinCos } from './fastmath.js';
+import { forwardRoot } from './matrix.js';
 
 const TRIG = new Float64Array(2);
+const ROOT = new Float64Array(2);
 
 /** ∂R/∂d and ∂T/∂d per front layer, nm⁻¹: [l·plan.size + spectrumIndex]. */
 export interface ThicknessDerivatives {
@@ -154,17 +156,9 @@ function layerTrig(plan: SpectrumPlan, s: Scratch, iw: number, k0: number, beta2
     const er = w.frontEpsRe[iw * L + l];
     const ei = w.frontEpsIm[iw * L + l];
     const x = er - beta2;
-    let qr: number;
-    let qi: number;
-    if (ei === 0) {
-      qr = x > 0 ? Math.sqrt(x) : 0;
-      qi = x < 0 ? Math.sqrt(-x) : 0;
-    } else {
-      const m = Math.sqrt(0.5 * (Math.sqrt(x * x + ei * ei) + Math.abs(x)));
-      const h = ei / (2 * m);
-      qr = x >= 0 ? m : h;
-      qi = x >= 0 ? h : m;
-    }
+    forwardRoot(ROOT, x, ei);
+    const qr = ROOT[0];
+    const qi = ROOT[1];
     const kd = k0 * w.frontThicknessNm[l];
     const a = kd * qr;
     const b = kd * qi;
@@ -228,18 +222,9 @@ function admittances(plan: SpectrumPlan, s: Scratch, iw: number, beta2: number, 
 
 /** η of a medium into ETA[o], ETA[o + 1]. */
 function admittance(er: number, ei: number, beta2: number, p: boolean, o: number): void {
-  const x = er - beta2;
-  let qr: number;
-  let qi: number;
-  if (ei === 0) {
-    qr = x > 0 ? Math.sqrt(x) : x === 0 ? 1e-150 : 0;
-    qi = x < 0 ? Math.sqrt(-x) : 0;
-  } else {
-    const m = Math.sqrt(0.5 * (Math.sqrt(x * x + ei * ei) + Math.abs(x)));
-    const h = ei / (2 * m);
-    qr = x >= 0 ? m : h;
-    qi = x >= 0 ? h : m;
-  }
+  forwardRoot(ROOT, er - beta2, ei);
+  const qr = ROOT[0];
+  const qi = ROOT[1];
   if (!p) {
     ETA[o] = qr;
     ETA[o + 1] = qi;
@@ -257,20 +242,20 @@ function backwardSweep(s: Scratch, L: number, etaExitRe: number, etaExitIm: numb
   s.vCr[L] = etaExitRe;
   s.vCi[L] = etaExitIm;
   for (let l = L - 1; l >= 0; l--) {
-    const Br = s.vBr[l + 1];
-    const Bi = s.vBi[l + 1];
-    const Cr = s.vCr[l + 1];
-    const Ci = s.vCi[l + 1];
-    const ur = s.ur[l];
-    const ui = s.ui[l];
-    const gr = s.gr[l];
-    const gi = s.gi[l];
-    const cr = s.cr[l];
-    const ci = s.ci[l];
-    s.vBr[l] = cr * Br - ci * Bi + ur * Cr - ui * Ci;
-    s.vBi[l] = cr * Bi + ci * Br + ur * Ci + ui * Cr;
-    s.vCr[l] = gr * Br - gi * Bi + cr * Cr - ci * Ci;
-    s.vCi[l] = gr * Bi + gi * Br + cr * Ci + ci * Cr;
+    matrixTimesVector(
+      s.vBr,
+      s.vBi,
+      s.vCr,
+      s.vCi,
+      l,
+      l + 1,
+      s.cr[l],
+      s.ci[l],
+      s.ur[l],
+      s.ui[l],
+      s.gr[l],
+      s.gi[l],
+    );
   }
 }
 
@@ -385,14 +370,7 @@ function sweepLayers(
   admittance(n0 * n0, 0, beta2, p, 2);
   surfaceCoefficients(s, ETA[2], ETA[3], exitRe);
   // Rows ℓ_R = (COEF_0, COEF_1)·P_j and ℓ_T = (COEF_2, COEF_3)·P_j, carried forward layer by layer.
-  let r1r = COEF[0];
-  let r1i = COEF[1];
-  let r2r = COEF[2];
-  let r2i = COEF[3];
-  let t1r = COEF[4];
-  let t1i = COEF[5];
-  let t2r = COEF[6];
-  let t2i = COEF[7];
+  ROW.set(COEF);
   for (let l = 0; l < L; l++) {
     // G v = −i k0 [a C; b B]
     const ar = s.ar[l];
@@ -412,34 +390,68 @@ function sweepLayers(
     const g1i = -k0 * a1r;
     const g2r = k0 * b1i;
     const g2i = -k0 * b1r;
-    const dR = 2 * (r1r * g1r - r1i * g1i + r2r * g2r - r2i * g2i);
-    const dT = 2 * (t1r * g1r - t1i * g1i + t2r * g2r - t2i * g2i);
+    const dR = 2 * (ROW[0] * g1r - ROW[1] * g1i + ROW[2] * g2r - ROW[3] * g2i);
+    const dT = 2 * (ROW[4] * g1r - ROW[5] * g1i + ROW[6] * g2r - ROW[7] * g2i);
     out.dR[l * size + idx] += weight * dR;
     out.dT[l * size + idx] += weight * dT;
-    // ℓ ← ℓ·M_l: (x1, x2)·[[c, u], [g, c]] = (x1 c + x2 g, x1 u + x2 c)
-    const ur = s.ur[l];
-    const ui = s.ui[l];
-    const gr = s.gr[l];
-    const gi = s.gi[l];
-    const cr = s.cr[l];
-    const ci = s.ci[l];
-    let x1r = r1r * cr - r1i * ci + r2r * gr - r2i * gi;
-    let x1i = r1r * ci + r1i * cr + r2r * gi + r2i * gr;
-    let x2r = r1r * ur - r1i * ui + r2r * cr - r2i * ci;
-    let x2i = r1r * ui + r1i * ur + r2r * ci + r2i * cr;
-    r1r = x1r;
-    r1i = x1i;
-    r2r = x2r;
-    r2i = x2i;
-    x1r = t1r * cr - t1i * ci + t2r * gr - t2i * gi;
-    x1i = t1r * ci + t1i * cr + t2r * gi + t2i * gr;
-    x2r = t1r * ur - t1i * ui + t2r * cr - t2i * ci;
-    x2i = t1r * ui + t1i * ur + t2r * ci + t2i * cr;
-    t1r = x1r;
-    t1i = x1i;
-    t2r = x2r;
-    t2i = x2i;
+    rowTimesLayer(ROW, 0, s, l);
+    rowTimesLayer(ROW, 4, s, l);
   }
+}
+
+/** Rows of the forward sweep: ℓ_R at 0…3 and ℓ_T at 4…7 (re, im of each element). */
+const ROW = new Float64Array(8);
+
+/** row[o…o+3] ← row·M_l: (x1, x2)·[[c, u], [g, c]] = (x1 c + x2 g, x1 u + x2 c). */
+function rowTimesLayer(row: Float64Array, o: number, s: Scratch, l: number): void {
+  rowTimesMatrix(row, o, s.cr[l], s.ci[l], s.ur[l], s.ui[l], s.gr[l], s.gi[l]);
+}
+
+function rowTimesMatrix(
+  row: Float64Array,
+  o: number,
+  cr: number,
+  ci: number,
+  ur: number,
+  ui: number,
+  gr: number,
+  gi: number,
+): void {
+  const x1r = row[o];
+  const x1i = row[o + 1];
+  const x2r = row[o + 2];
+  const x2i = row[o + 3];
+  row[o] = x1r * cr - x1i * ci + x2r * gr - x2i * gi;
+  row[o + 1] = x1r * ci + x1i * cr + x2r * gi + x2i * gr;
+  row[o + 2] = x1r * ur - x1i * ui + x2r * cr - x2i * ci;
+  row[o + 3] = x1r * ui + x1i * ur + x2r * ci + x2i * cr;
+}
+
+/**
+ * [B; C] at index `to` ← M·[B; C] at index `from`, M = [[c, u], [g, c]], in four parallel arrays.
+ */
+function matrixTimesVector(
+  Br: Float64Array,
+  Bi: Float64Array,
+  Cr: Float64Array,
+  Ci: Float64Array,
+  to: number,
+  from: number,
+  cr: number,
+  ci: number,
+  ur: number,
+  ui: number,
+  gr: number,
+  gi: number,
+): void {
+  const br = Br[from];
+  const bi = Bi[from];
+  const cR = Cr[from];
+  const cI = Ci[from];
+  Br[to] = cr * br - ci * bi + ur * cR - ui * cI;
+  Bi[to] = cr * bi + ci * br + ur * cI + ui * cR;
+  Cr[to] = gr * br - gi * bi + cr * cR - ci * cI;
+  Ci[to] = gr * bi + gi * br + cr * cI + ci * cR;
 }
 
 /**
@@ -594,11 +606,9 @@ function needleSweep(
   admittance(n0 * n0, 0, beta2, p, 2);
   surfaceCoefficients(s, ETA[2], ETA[3], exitRe);
   // One row ℓ = wR·ℓ_R + wT·ℓ_T: the merit is linear in R and T, so one row carries both.
-  let l1r = wR * COEF[0] + wT * COEF[4];
-  let l1i = wR * COEF[1] + wT * COEF[5];
-  let l2r = wR * COEF[2] + wT * COEF[6];
-  let l2i = wR * COEF[3] + wT * COEF[7];
-  addNeedlePoint(out, G, nM, 0, k0, s.vBr[0], s.vBi[0], s.vCr[0], s.vCi[0], l1r, l1i, l2r, l2i);
+  // ROW[0…3] holds ℓ at the layer's front, ROW[4…7] ℓ stepped through the layer.
+  for (let i = 0; i < 4; i++) ROW[i] = wR * COEF[i] + wT * COEF[i + 4];
+  addNeedlePoint(out, G, nM, 0, k0, s.vBr[0], s.vBi[0], s.vCr[0], s.vCi[0]);
   let point = 1;
   for (let j = 0; j < L; j++) {
     const n = grid.steps[j];
@@ -627,68 +637,25 @@ function needleSweep(
     s.pCr[n] = s.vCr[j + 1];
     s.pCi[n] = s.vCi[j + 1];
     for (let k = n - 1; k >= 1; k--) {
-      const Br = s.pBr[k + 1];
-      const Bi = s.pBi[k + 1];
-      const Cr = s.pCr[k + 1];
-      const Ci = s.pCi[k + 1];
-      s.pBr[k] = cr * Br - ci * Bi + ur * Cr - ui * Ci;
-      s.pBi[k] = cr * Bi + ci * Br + ur * Ci + ui * Cr;
-      s.pCr[k] = gr * Br - gi * Bi + cr * Cr - ci * Ci;
-      s.pCi[k] = gr * Bi + gi * Br + cr * Ci + ci * Cr;
+      matrixTimesVector(s.pBr, s.pBi, s.pCr, s.pCi, k, k + 1, cr, ci, ur, ui, gr, gi);
     }
     // ℓ through the layer by the same steps.
-    let x1r = l1r;
-    let x1i = l1i;
-    let x2r = l2r;
-    let x2i = l2i;
-    for (let k = 1; k <= n; k++) {
-      const y1r = x1r * cr - x1i * ci + x2r * gr - x2i * gi;
-      const y1i = x1r * ci + x1i * cr + x2r * gi + x2i * gr;
-      const y2r = x1r * ur - x1i * ui + x2r * cr - x2i * ci;
-      const y2i = x1r * ui + x1i * ur + x2r * ci + x2i * cr;
-      x1r = y1r;
-      x1i = y1i;
-      x2r = y2r;
-      x2i = y2i;
-      if (k < n)
-        addNeedlePoint(out, G, nM, point, k0, s.pBr[k], s.pBi[k], s.pCr[k], s.pCi[k], x1r, x1i, x2r, x2i);
+    for (let i = 0; i < 4; i++) ROW[4 + i] = ROW[i];
+    for (let k = 1; k < n; k++) {
+      rowTimesMatrix(ROW, 4, cr, ci, ur, ui, gr, gi);
+      addNeedlePoint(out, G, nM, point, k0, s.pBr[k], s.pBi[k], s.pCr[k], s.pCi[k], 4);
       point++;
     }
     // ℓ_{j+1} = ℓ_j·M_j with the layer's whole matrix (no accumulated stepping error at interfaces).
-    const Ur = s.ur[j];
-    const Ui = s.ui[j];
-    const Gr = s.gr[j];
-    const Gi = s.gi[j];
-    const Cr = s.cr[j];
-    const Ci = s.ci[j];
-    const y1r = l1r * Cr - l1i * Ci + l2r * Gr - l2i * Gi;
-    const y1i = l1r * Ci + l1i * Cr + l2r * Gi + l2i * Gr;
-    const y2r = l1r * Ur - l1i * Ui + l2r * Cr - l2i * Ci;
-    const y2i = l1r * Ui + l1i * Ur + l2r * Ci + l2i * Cr;
-    l1r = y1r;
-    l1i = y1i;
-    l2r = y2r;
-    l2i = y2i;
-    addNeedlePoint(
-      out,
-      G,
-      nM,
-      point - 1,
-      k0,
-      s.vBr[j + 1],
-      s.vBi[j + 1],
-      s.vCr[j + 1],
-      s.vCi[j + 1],
-      l1r,
-      l1i,
-      l2r,
-      l2i,
-    );
+    rowTimesLayer(ROW, 0, s, j);
+    addNeedlePoint(out, G, nM, point, k0, s.vBr[j + 1], s.vBi[j + 1], s.vCr[j + 1], s.vCi[j + 1]);
+    point++;
   }
 }
 
 /**
- * Adds one point's needle derivative for every material: with X = ℓ1·C and Y = ℓ2·B,
+ * Adds one point's needle derivative for every material, with ℓ = ROW[row…row+3] and v = [B; C]:
+ * with X = ℓ1·C and Y = ℓ2·B,
  * ∂F/∂Δ = 2 Re(−i k0 (a X + b Y)) = 2 k0 Im(a X + b Y).
  */
 function addNeedlePoint(
@@ -701,11 +668,12 @@ function addNeedlePoint(
   Bi: number,
   Cr: number,
   Ci: number,
-  x1r: number,
-  x1i: number,
-  x2r: number,
-  x2i: number,
+  row = 0,
 ): void {
+  const x1r = ROW[row];
+  const x1i = ROW[row + 1];
+  const x2r = ROW[row + 2];
+  const x2i = ROW[row + 3];
   const { ar, ai, br, bi } = needleScratch;
   const Xr = x1r * Cr - x1i * Ci;
   const Xi = x1r * Ci + x1i * Cr;

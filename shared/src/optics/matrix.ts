@@ -47,7 +47,7 @@ const TRIG = new Float64Array(2);
 const ROOT = new Float64Array(2);
 
 /** Writes √(x + iy) with Im ≥ 0 (and Re ≥ 0 when the root is real) into out[0..1]; y ≥ 0. */
-function forwardRoot(out: Float64Array, x: number, y: number): void {
+export function forwardRoot(out: Float64Array, x: number, y: number): void {
   if (y === 0) {
     out[0] = x > 0 ? Math.sqrt(x) : x === 0 ? TINY_Q : 0;
     out[1] = x < 0 ? Math.sqrt(-x) : 0;
