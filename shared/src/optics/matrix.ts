@@ -61,40 +61,53 @@ export function forwardRoot(out: Float64Array, x: number, y: number): void {
 }
 
 /**
+ * The layers one call of {@link coherentResponse} runs through, as a struct of arrays: layer l has
+ * relative permittivity ε = N² = epsRe[epsOffset + l] + i·epsIm[epsOffset + l] (epsIm = 2nk ≥ 0)
+ * and physical thickness thicknessNm[thicknessOffset + l] in nm. With `reversed` the layers are met
+ * in the opposite order (light arriving from the exit side), which the incoherent substrate model
+ * needs. Callers keep one span per layer list and move `epsOffset` from wavelength to wavelength.
+ */
+export interface LayerSpan {
+  epsRe: Float64Array;
+  epsIm: Float64Array;
+  epsOffset: number;
+  thicknessNm: Float64Array;
+  thicknessOffset: number;
+  layerCount: number;
+  reversed: boolean;
+}
+
+/** The light and the two bounding media of one call of {@link coherentResponse}. */
+export interface CoherentMedia {
+  /** Free-space wavenumber 2π/λ in nm⁻¹. */
+  k0: number;
+  /** Snell invariant N₀ sin θ₀ (real). */
+  beta: number;
+  /**
+   * ε of the incident medium, real and imaginary part (imaginary > 0 only for light arriving from
+   * inside an absorbing substrate).
+   */
+  incRe: number;
+  incIm: number;
+  /** ε of the exit medium. */
+  exitRe: number;
+  exitIm: number;
+  /** {@link POL_S}, {@link POL_P} or {@link POL_BOTH}. */
+  polMask: number;
+}
+
+/**
  * Coherent response of a layer stack at one wavelength and one angle of incidence.
- *
- * Layer l has relative permittivity ε = N² = epsRe[epsOffset + l] + i·epsIm[epsOffset + l]
- * (epsIm = 2nk ≥ 0) and physical thickness thicknessNm[thicknessOffset + l] in nm. With `reversed`
- * the layers are met in the opposite order (light arriving from the exit side), which the
- * incoherent substrate model needs.
  *
  * @param out receives, for s at 0…6 and for p at 7…13 (only the requested ones are written):
  *   R, T, A (fractions), then Re r, Im r, Re t, Im t. r and t are ratios of the tangential electric
  *   field (so r_s = r_p and t_s = t_p at normal incidence).
- * @param k0 free-space wavenumber 2π/λ in nm⁻¹.
- * @param beta Snell invariant N₀ sin θ₀ (real).
- * @param incRe ε of the incident medium, real part; incIm its imaginary part (> 0 only for light
- *   arriving from inside an absorbing substrate). exitRe, exitIm likewise for the exit medium.
- * @param polMask {@link POL_S}, {@link POL_P} or {@link POL_BOTH}.
+ * @param layers the layers, see {@link LayerSpan}; @param media the light and the media around them.
  * @returns out. Allocates nothing and never throws; callers validate inputs.
  */
-export function coherentResponse(
-  out: Float64Array,
-  epsRe: Float64Array,
-  epsIm: Float64Array,
-  epsOffset: number,
-  thicknessNm: Float64Array,
-  thicknessOffset: number,
-  layerCount: number,
-  reversed: boolean,
-  k0: number,
-  beta: number,
-  incRe: number,
-  incIm: number,
-  exitRe: number,
-  exitIm: number,
-  polMask: number,
-): Float64Array {
+export function coherentResponse(out: Float64Array, layers: LayerSpan, media: CoherentMedia): Float64Array {
+  const { epsRe, epsIm, epsOffset, thicknessNm, thicknessOffset, layerCount, reversed } = layers;
+  const { k0, beta, incRe, incIm, exitRe, exitIm, polMask } = media;
   const wantS = (polMask & POL_S) !== 0;
   const wantP = (polMask & POL_P) !== 0;
   const beta2 = beta * beta;
