@@ -178,21 +178,29 @@ function layerTrig(plan: SpectrumPlan, s: Scratch, iw: number, k0: number, beta2
   }
 }
 
-/**
- * Tilted admittance η of every layer for s (η = q) or p (η = ε/q) into s.er/s.ei; returns the
- * exit admittance's real and imaginary part through `ETA`.
- */
+/** Output of {@link admittance}: η of a medium at [o], [o + 1]. */
 const ETA = new Float64Array(4);
 
-function admittances(plan: SpectrumPlan, s: Scratch, iw: number, beta2: number, p: boolean): void {
+/**
+ * Per layer, for s or p: the tilted admittance η (η_s = q, η_p = ε/q), the matrix's off-diagonal
+ * elements and a, b of G. Needs {@link layerTrig} of the same wavelength and angle first.
+ */
+function admittances(plan: SpectrumPlan, s: Scratch, iw: number, p: boolean): void {
   const w = plan.work;
   const L = w.layerCount;
   for (let l = 0; l < L; l++) {
     const epr = w.frontEpsRe[iw * L + l];
     const epi = w.frontEpsIm[iw * L + l];
-    admittance(epr, epi, beta2, p, 0);
-    const er = ETA[0];
-    const ei = ETA[1];
+    // η_s = q, η_p = ε/q, with q from layerTrig.
+    const qr = s.qr[l];
+    const qi = s.qi[l];
+    let er = qr;
+    let ei = qi;
+    if (p) {
+      const q2 = qr * qr + qi * qi;
+      er = (epr * qr + epi * qi) / q2;
+      ei = (epi * qr - epr * qi) / q2;
+    }
     s.er[l] = er;
     s.ei[l] = ei;
     const sr = s.sr[l];
@@ -362,7 +370,7 @@ function sweepLayers(
   const w = plan.work;
   const L = w.layerCount;
   const size = plan.size;
-  admittances(plan, s, iw, beta2, p);
+  admittances(plan, s, iw, p);
   admittance(w.subEpsRe[iw], w.subEpsIm[iw], beta2, p, 0);
   const exitRe = ETA[0];
   backwardSweep(s, L, ETA[0], ETA[1]);
@@ -598,7 +606,7 @@ function needleSweep(
       bi[m] = ei;
     }
   }
-  admittances(plan, s, iw, beta2, p);
+  admittances(plan, s, iw, p);
   admittance(w.subEpsRe[iw], w.subEpsIm[iw], beta2, p, 0);
   const exitRe = ETA[0];
   backwardSweep(s, L, ETA[0], ETA[1]);
