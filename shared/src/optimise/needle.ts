@@ -198,7 +198,7 @@ export function growLayers(stack: OpticalStack, mask: SpecMask, options: GrowOpt
   const models = materials.map((m) => m.model);
   const keys = models.map((m) => JSON.stringify(m));
   const startNames = startLayerNames(start, opts.layerMaterials, names, keys);
-  let layers: WorkLayer[] = start.layers.map((layer, i) => {
+  const layers: WorkLayer[] = start.layers.map((layer, i) => {
     const key = JSON.stringify(layer.material);
     let index = names.indexOf(startNames[i]);
     if (index >= 0 && keys[index] !== key) {
@@ -232,131 +232,45 @@ export function growLayers(stack: OpticalStack, mask: SpecMask, options: GrowOpt
   });
   const residual = new Float64Array(base.sampleCount);
   const analytic = derivatives === 'analytic' && base.analyticDerivatives;
-  const needleMaterials = analytic ? needleMaterialTable(base, materials) : null;
 
-  /** Refines `list` within [lower, maxNm] on a merit for its structure; returns it refined. */
-  const refine = (list: WorkLayer[], lower: number): Refined => {
-    const merit = base.withStack(stackOf(list));
-    const bounds = layerBounds(list.length, lower, maxNm, undefined);
-    const fit = refineThicknesses(
-      merit,
-      list.map((l) => l.thicknessNm),
-      bounds,
-      { maxIterations, derivatives },
-    );
-    const out = list.map((l, i) => ({ material: l.material, thicknessNm: fit.thicknessesNm[i] }));
-    const sum = merit.residuals(residual, fit.thicknessesNm);
-    return { layers: out, sum, merit };
+  const ctx: GrowContext = {
+    base,
+    residual,
+    stackOf,
+    names,
+    allowedCount,
+    quarterWaveNm,
+    needleMaterials: analytic ? needleMaterialTable(base, materials) : null,
+    minNm,
+    maxNm,
+    maxLayers,
+    maxTotal,
+    needleNm,
+    positionStep,
+    maxIterations,
+    derivatives,
+    outermostFixed,
   };
-
   const steps: GrowStep[] = [];
-  const record = (list: WorkLayer[], merit: MaskMerit, inserted?: GrowStep['inserted']): boolean => {
-    merit.compute(list.map((l) => l.thicknessNm));
-    const worstMargin = merit.worstMarginOf();
-    const step: GrowStep = {
-      step: steps.length,
-      layerCount: list.length,
-      totalThicknessNm: list.reduce((t, l) => t + l.thicknessNm, 0),
-      merit: merit.meritOf(),
-      pass: worstMargin >= 0,
-      worstMargin,
-      layers: list.map((l) => ({ material: names[l.material], thicknessNm: l.thicknessNm })),
-    };
-    if (inserted) step.inserted = inserted;
+  const record = (refined: Refined, inserted?: GrowStep['inserted']): boolean => {
+    const step = growStep(ctx, steps.length, refined, inserted);
     steps.push(step);
     return options.onStep?.(step) !== false;
   };
 
-  let current = refine(layers, minNm);
-  layers = current.layers;
+  let current = refine(ctx, layers, minNm);
   let stoppedBy: GrowStop = 'maxSteps';
-  if (!record(layers, current.merit)) stoppedBy = 'cancelled';
+  if (!record(current)) stoppedBy = 'cancelled';
   else if (steps[0].pass) stoppedBy = 'maskMet';
   else {
     for (let stepNo = 1; stepNo <= maxSteps; stepNo++) {
-      if (layers.length + 1 > maxLayers) {
+      if (current.layers.length + 1 > maxLayers) {
         stoppedBy = 'maxLayers';
         break;
       }
       const reasons = new Set<GrowStop>();
-      const better = (result: Refined | null): result is Refined =>
-        result !== null && result.sum < current.sum * (1 - 1e-9);
-      /**
-       * Refines a grown structure within [min, max], for a needle first with ≥ 0 bounds and its
-       * thin layers removed; null when the result is over a limit.
-       */
-      const settle = (grown: WorkLayer[], needle: boolean): Refined | null => {
-        if (grown.length > maxLayers) {
-          reasons.add('maxLayers');
-          return null;
-        }
-        let result: Refined;
-        if (needle) {
-          // Thin layers are dropped; when that undoes the needle, they are raised to the minimum
-          // thickness instead and refined within bounds.
-          const free = refine(grown, 0).layers;
-          const kept = dropThinLayers(free, minNm);
-          result = kept.length > 0 ? refine(kept, minNm) : current;
-          if (!better(result)) {
-            result = refine(
-              free.map((l) => ({ material: l.material, thicknessNm: Math.max(minNm, l.thicknessNm) })),
-              minNm,
-            );
-          }
-        } else {
-          result = refine(grown, minNm);
-        }
-        if (result.layers.length > maxLayers) {
-          reasons.add('maxLayers');
-          return null;
-        }
-        if (result.layers.reduce((t, l) => t + l.thicknessNm, 0) > maxTotal) {
-          reasons.add('maxTotalThickness');
-          return null;
-        }
-        return result;
-      };
-
-      let accepted: Refined | null = null;
-      let inserted: GrowStep['inserted'];
-      const candidates = needleMaterials
-        ? scanNeedlesAnalytic(current.merit, layers, needleMaterials, positionStep, outermostFixed)
-        : scanNeedles(current.merit, layers, allowedCount, stackOf, positionStep, residual, outermostFixed);
-      const tried = new Set<string>();
-      for (const cand of candidates) {
-        const key = `${cand.layer}:${cand.material}`;
-        if (tried.has(key)) continue;
-        if (tried.size >= CANDIDATES_PER_STEP) break;
-        tried.add(key);
-        const result = settle(insertNeedle(layers, cand, needleNm), true);
-        if (better(result)) {
-          accepted = result;
-          let depth = cand.offsetNm;
-          for (let j = 0; j < cand.layer; j++) depth += layers[j].thicknessNm;
-          inserted = { material: names[cand.material], depthNm: depth };
-          break;
-        }
-      }
-      if (!accepted) {
-        // No needle helps on its own: add a whole layer at the front or next to the substrate
-        // (gradual evolution) and keep the best refined result.
-        const total = layers.reduce((t, l) => t + l.thicknessNm, 0);
-        for (const side of outermostFixed ? (['substrate'] as const) : (['front', 'substrate'] as const)) {
-          for (let m = 0; m < allowedCount; m++) {
-            const neighbour = side === 'front' ? layers[0] : layers[layers.length - 1];
-            if (neighbour && neighbour.material === m) continue;
-            for (const startNm of [minNm, quarterWaveNm[m], 2 * quarterWaveNm[m]]) {
-              const layer = { material: m, thicknessNm: startNm };
-              const result = settle(side === 'front' ? [layer, ...layers] : [...layers, layer], false);
-              if (better(result) && (!accepted || result.sum < accepted.sum)) {
-                accepted = result;
-                inserted = { material: names[m], depthNm: side === 'front' ? 0 : total };
-              }
-            }
-          }
-        }
-      }
-      if (!accepted) {
+      const next = tryNeedles(ctx, current, reasons) ?? tryWholeLayers(ctx, current, reasons);
+      if (!next) {
         stoppedBy = reasons.has('maxLayers')
           ? 'maxLayers'
           : reasons.has('maxTotalThickness')
@@ -364,9 +278,8 @@ export function growLayers(stack: OpticalStack, mask: SpecMask, options: GrowOpt
             : 'noImprovement';
         break;
       }
-      current = accepted;
-      layers = accepted.layers;
-      if (!record(layers, current.merit, inserted)) {
+      current = next.refined;
+      if (!record(current, next.inserted)) {
         stoppedBy = 'cancelled';
         break;
       }
@@ -377,7 +290,184 @@ export function growLayers(stack: OpticalStack, mask: SpecMask, options: GrowOpt
     }
   }
   const final = steps[steps.length - 1];
-  return { steps, final, stack: stackOf(layers), stoppedBy };
+  return { steps, final, stack: stackOf(current.layers), stoppedBy };
+}
+
+/** Settings and shared buffers of one Grow layers run. */
+interface GrowContext {
+  /** The merit of the start; {@link MaskMerit.withStack} gives one per structure. */
+  base: MaskMerit;
+  residual: Float64Array;
+  stackOf: (list: readonly WorkLayer[]) => OpticalStack;
+  /** Names of the materials (allowed ones first, then start materials not among them). */
+  names: readonly string[];
+  allowedCount: number;
+  /** Quarter-wave thickness of each allowed material at the mask's centre wavelength, nm. */
+  quarterWaveNm: readonly number[];
+  /** ε of the allowed materials for the analytic needle function, or null to probe. */
+  needleMaterials: NeedleMaterials | null;
+  minNm: number;
+  maxNm: number;
+  maxLayers: number;
+  maxTotal: number;
+  needleNm: number;
+  positionStep: number;
+  maxIterations: number;
+  derivatives: DerivativeMethod;
+  outermostFixed: boolean;
+}
+
+/** A kept structure and where its new layer went. */
+interface Grown {
+  refined: Refined;
+  inserted: { material: string; depthNm: number };
+}
+
+/** Refines `list` within [lower, maxNm] on a merit for its structure; returns it refined. */
+function refine(ctx: GrowContext, list: readonly WorkLayer[], lower: number): Refined {
+  const merit = ctx.base.withStack(ctx.stackOf(list));
+  const bounds = layerBounds(list.length, lower, ctx.maxNm, undefined);
+  const fit = refineThicknesses(
+    merit,
+    list.map((l) => l.thicknessNm),
+    bounds,
+    { maxIterations: ctx.maxIterations, derivatives: ctx.derivatives },
+  );
+  const out = list.map((l, i) => ({ material: l.material, thicknessNm: fit.thicknessesNm[i] }));
+  const sum = merit.residuals(ctx.residual, fit.thicknessesNm);
+  return { layers: out, sum, merit };
+}
+
+/** The step record of a refined structure. */
+function growStep(
+  ctx: GrowContext,
+  index: number,
+  refined: Refined,
+  inserted?: GrowStep['inserted'],
+): GrowStep {
+  const { layers: list, merit } = refined;
+  merit.compute(list.map((l) => l.thicknessNm));
+  const worstMargin = merit.worstMarginOf();
+  const step: GrowStep = {
+    step: index,
+    layerCount: list.length,
+    totalThicknessNm: list.reduce((t, l) => t + l.thicknessNm, 0),
+    merit: merit.meritOf(),
+    pass: worstMargin >= 0,
+    worstMargin,
+    layers: list.map((l) => ({ material: ctx.names[l.material], thicknessNm: l.thicknessNm })),
+  };
+  if (inserted) step.inserted = inserted;
+  return step;
+}
+
+/** Whether `result` lowers Σr² of `current` (by more than rounding). */
+function better(result: Refined | null, current: Refined): result is Refined {
+  return result !== null && result.sum < current.sum * (1 - 1e-9);
+}
+
+/**
+ * Refines a grown structure within [min, max]; for a needle first with ≥ 0 bounds and its thin
+ * layers dropped, or, when dropping undoes the needle, raised to the minimum thickness. Null (and
+ * the reason added) when the result is over a limit.
+ */
+function settle(
+  ctx: GrowContext,
+  current: Refined,
+  grown: WorkLayer[],
+  needle: boolean,
+  reasons: Set<GrowStop>,
+): Refined | null {
+  if (grown.length > ctx.maxLayers) {
+    reasons.add('maxLayers');
+    return null;
+  }
+  let result: Refined;
+  if (needle) {
+    const free = refine(ctx, grown, 0).layers;
+    const kept = dropThinLayers(free, ctx.minNm);
+    result = kept.length > 0 ? refine(ctx, kept, ctx.minNm) : current;
+    if (!better(result, current)) {
+      const raised = free.map((l) => ({
+        material: l.material,
+        thicknessNm: Math.max(ctx.minNm, l.thicknessNm),
+      }));
+      result = refine(ctx, raised, ctx.minNm);
+    }
+  } else {
+    result = refine(ctx, grown, ctx.minNm);
+  }
+  if (result.layers.length > ctx.maxLayers) {
+    reasons.add('maxLayers');
+    return null;
+  }
+  if (result.layers.reduce((t, l) => t + l.thicknessNm, 0) > ctx.maxTotal) {
+    reasons.add('maxTotalThickness');
+    return null;
+  }
+  return result;
+}
+
+/**
+ * Scans the needle function and tries the CANDIDATES_PER_STEP best distinct (layer, material)
+ * positions; the first whose settled structure lowers the merit, or null.
+ */
+function tryNeedles(ctx: GrowContext, current: Refined, reasons: Set<GrowStop>): Grown | null {
+  const layers = current.layers;
+  const candidates = ctx.needleMaterials
+    ? scanNeedlesAnalytic(current.merit, layers, ctx.needleMaterials, ctx.positionStep, ctx.outermostFixed)
+    : scanNeedles(
+        current.merit,
+        layers,
+        ctx.allowedCount,
+        ctx.stackOf,
+        ctx.positionStep,
+        ctx.residual,
+        ctx.outermostFixed,
+      );
+  const tried = new Set<string>();
+  for (const cand of candidates) {
+    const key = `${cand.layer}:${cand.material}`;
+    if (tried.has(key)) continue;
+    if (tried.size >= CANDIDATES_PER_STEP) break;
+    tried.add(key);
+    const result = settle(ctx, current, insertNeedle(layers, cand, ctx.needleNm), true, reasons);
+    if (better(result, current)) {
+      let depth = cand.offsetNm;
+      for (let j = 0; j < cand.layer; j++) depth += layers[j].thicknessNm;
+      return { refined: result, inserted: { material: ctx.names[cand.material], depthNm: depth } };
+    }
+  }
+  return null;
+}
+
+/**
+ * When no needle helps on its own: a whole layer of each allowed material at the front or next to
+ * the substrate (gradual evolution), from the minimum, a quarter and a half wave; the best refined
+ * result that lowers the merit, or null.
+ */
+function tryWholeLayers(ctx: GrowContext, current: Refined, reasons: Set<GrowStop>): Grown | null {
+  const layers = current.layers;
+  const total = layers.reduce((t, l) => t + l.thicknessNm, 0);
+  let best: Grown | null = null;
+  for (const side of ctx.outermostFixed ? (['substrate'] as const) : (['front', 'substrate'] as const)) {
+    for (let m = 0; m < ctx.allowedCount; m++) {
+      const neighbour = side === 'front' ? layers[0] : layers[layers.length - 1];
+      if (neighbour && neighbour.material === m) continue;
+      for (const startNm of [ctx.minNm, ctx.quarterWaveNm[m], 2 * ctx.quarterWaveNm[m]]) {
+        const layer = { material: m, thicknessNm: startNm };
+        const grown = side === 'front' ? [layer, ...layers] : [...layers, layer];
+        const result = settle(ctx, current, grown, false, reasons);
+        if (better(result, current) && (!best || result.sum < best.refined.sum)) {
+          best = {
+            refined: result,
+            inserted: { material: ctx.names[m], depthNm: side === 'front' ? 0 : total },
+          };
+        }
+      }
+    }
+  }
+  return best;
 }
 
 /**
