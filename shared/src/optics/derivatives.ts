@@ -267,6 +267,21 @@ function backwardSweep(s: Scratch, L: number, etaExitRe: number, etaExitIm: numb
   }
 }
 
+/**
+ * Everything before a forward sweep, for one polarisation: the layers' admittances and matrices,
+ * the backward sweep v_j and the surface coefficients COEF.
+ */
+function backwardPass(plan: SpectrumPlan, s: Scratch, iw: number, beta2: number, p: boolean): void {
+  const w = plan.work;
+  admittances(plan, s, iw, p);
+  admittance(w.subEpsRe[iw], w.subEpsIm[iw], beta2, p, 0);
+  const exitRe = ETA[0];
+  backwardSweep(s, w.layerCount, ETA[0], ETA[1]);
+  const n0 = w.incN[iw];
+  admittance(n0 * n0, 0, beta2, p, 2);
+  surfaceCoefficients(s, ETA[2], ETA[3], exitRe);
+}
+
 /** Output of {@link surfaceCoefficients}: the complex factors turning [dB; dC] into dR and dT. */
 const COEF = new Float64Array(8);
 
@@ -370,14 +385,8 @@ function sweepLayers(
   const w = plan.work;
   const L = w.layerCount;
   const size = plan.size;
-  admittances(plan, s, iw, p);
-  admittance(w.subEpsRe[iw], w.subEpsIm[iw], beta2, p, 0);
-  const exitRe = ETA[0];
-  backwardSweep(s, L, ETA[0], ETA[1]);
-  const n0 = w.incN[iw];
-  admittance(n0 * n0, 0, beta2, p, 2);
-  surfaceCoefficients(s, ETA[2], ETA[3], exitRe);
-  // Rows ℓ_R = (COEF_0, COEF_1)·P_j and ℓ_T = (COEF_2, COEF_3)·P_j, carried forward layer by layer.
+  backwardPass(plan, s, iw, beta2, p);
+  // Rows ℓ_R = (COEF[0…1], COEF[2…3])·P_j and ℓ_T = (COEF[4…5], COEF[6…7])·P_j, carried forward.
   ROW.set(COEF);
   for (let l = 0; l < L; l++) {
     // G v = −i k0 [a C; b B]
@@ -606,13 +615,7 @@ function needleSweep(
       bi[m] = ei;
     }
   }
-  admittances(plan, s, iw, p);
-  admittance(w.subEpsRe[iw], w.subEpsIm[iw], beta2, p, 0);
-  const exitRe = ETA[0];
-  backwardSweep(s, L, ETA[0], ETA[1]);
-  const n0 = w.incN[iw];
-  admittance(n0 * n0, 0, beta2, p, 2);
-  surfaceCoefficients(s, ETA[2], ETA[3], exitRe);
+  backwardPass(plan, s, iw, beta2, p);
   // One row ℓ = wR·ℓ_R + wT·ℓ_T: the merit is linear in R and T, so one row carries both.
   // ROW[0…3] holds ℓ at the layer's front, ROW[4…7] ℓ stepped through the layer.
   for (let i = 0; i < 4; i++) ROW[i] = wR * COEF[i] + wT * COEF[i + 4];
