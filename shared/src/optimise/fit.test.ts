@@ -172,6 +172,7 @@ describe('Fit to mask', () => {
     ]);
     const cases: [() => unknown, RegExp][] = [
       [() => fitToMask(onGlass([]), zeroAt550), /^layers: the stack has no layers to fit/],
+      [() => fitToMask(one, zeroAt550, { derivatives: 'numeric' as never }), /^derivatives: /],
       [() => fitToMask(two, zeroAt550, { locked: [true, true] }), /^locked: every layer is locked/],
       [() => fitToMask(two, zeroAt550, { locked: [true] }), /^locked: must be a list of 2/],
       [
