@@ -27,6 +27,7 @@ export * from './optics/batch.js';
 export * from './optics/mask.js';
 export * from './optics/colour.js';
 export * from './optics/field.js';
+export * from './optics/derivatives.js';
 
 // Optimisation: Fit to mask, Grow layers, Yield forecast (browser-safe; the worker-thread splitter
 // lives under @quietglass/shared/node/yield-parallel).

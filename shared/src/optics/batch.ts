@@ -20,6 +20,8 @@ import {
   RESP_T_IM,
   RESP_T_RE,
   coherentResponse,
+  type CoherentMedia,
+  type LayerSpan,
 } from './matrix.js';
 import { validateOpticalStack, type Layer, type OpticalStack } from './stack.js';
 import { combineIncoherent, substratePassTransmittance } from './substrate.js';
@@ -109,6 +111,12 @@ export interface PlanWork {
   front: Float64Array;
   frontBack: Float64Array;
   backSurface: Float64Array;
+  /** Layer spans of the front coating (both ways) and the back coating; offsets move per wavelength. */
+  frontSpan: LayerSpan;
+  frontReversedSpan: LayerSpan;
+  backSpan: LayerSpan;
+  /** Light and media of the kernel call being made. */
+  media: CoherentMedia;
 }
 
 /**
@@ -252,7 +260,26 @@ export function createSpectrumPlan(
       front: new Float64Array(2 * RESPONSE_STRIDE),
       frontBack: new Float64Array(2 * RESPONSE_STRIDE),
       backSurface: new Float64Array(2 * RESPONSE_STRIDE),
+      frontSpan: span(front, false),
+      frontReversedSpan: span(front, true),
+      backSpan: span(backLayers, false),
+      media: { k0: 0, beta: 0, incRe: 0, incIm: 0, exitRe: 0, exitIm: 0, polMask },
     },
+  };
+}
+
+function span(
+  layers: { count: number; re: Float64Array; im: Float64Array; thickness: Float64Array },
+  reversed: boolean,
+): LayerSpan {
+  return {
+    epsRe: layers.re,
+    epsIm: layers.im,
+    epsOffset: 0,
+    thicknessNm: layers.thickness,
+    thicknessOffset: 0,
+    layerCount: layers.count,
+    reversed,
   };
 }
 
@@ -320,66 +347,34 @@ export function computeSpectrum(out: SpectrumOutput, plan: SpectrumPlan): Spectr
   const BK = w.backSurface;
   const { R, T, A, r, t } = out;
 
+  const { frontSpan, frontReversedSpan, backSpan, media } = w;
   for (let iw = 0; iw < nW; iw++) {
     const k0 = w.k0[iw];
     const n0 = w.incN[iw];
     const eps0 = n0 * n0;
     const sRe = w.subEpsRe[iw];
     const sIm = w.subEpsIm[iw];
+    frontSpan.epsOffset = iw * L;
+    frontReversedSpan.epsOffset = iw * L;
+    backSpan.epsOffset = iw * Lb;
     for (let ia = 0; ia < nA; ia++) {
       const beta = n0 * w.sinAngles[ia];
-      coherentResponse(
-        F,
-        w.frontEpsRe,
-        w.frontEpsIm,
-        iw * L,
-        w.frontThicknessNm,
-        0,
-        L,
-        false,
-        k0,
-        beta,
-        eps0,
-        0,
-        sRe,
-        sIm,
-        w.polMask,
-      );
+      media.k0 = k0;
+      media.beta = beta;
+      media.incRe = eps0;
+      media.incIm = 0;
+      media.exitRe = sRe;
+      media.exitIm = sIm;
+      coherentResponse(F, frontSpan, media);
       if (incoherent) {
-        coherentResponse(
-          FB,
-          w.frontEpsRe,
-          w.frontEpsIm,
-          iw * L,
-          w.frontThicknessNm,
-          0,
-          L,
-          true,
-          k0,
-          beta,
-          sRe,
-          sIm,
-          eps0,
-          0,
-          w.polMask,
-        );
-        coherentResponse(
-          BK,
-          w.backEpsRe,
-          w.backEpsIm,
-          iw * Lb,
-          w.backThicknessNm,
-          0,
-          Lb,
-          false,
-          k0,
-          beta,
-          sRe,
-          sIm,
-          w.exitEpsRe[iw],
-          w.exitEpsIm[iw],
-          w.polMask,
-        );
+        media.incRe = sRe;
+        media.incIm = sIm;
+        media.exitRe = eps0;
+        media.exitIm = 0;
+        coherentResponse(FB, frontReversedSpan, media);
+        media.exitRe = w.exitEpsRe[iw];
+        media.exitIm = w.exitEpsIm[iw];
+        coherentResponse(BK, backSpan, media);
         const tau = substratePassTransmittance(k0, beta, sRe, sIm, w.substrateThicknessNm);
         // The part's R, T, A replace the front surface's in F (same positions), per polarisation.
         for (let o = 0; o <= RESPONSE_STRIDE; o += RESPONSE_STRIDE) {

@@ -1,3 +1,4 @@
+import { Complex } from 'complex.js';
 import { describe, expect, it } from 'vitest';
 import { constantStack, randomLayers, seededRandom } from './__tests__/random.js';
 import { responseAt } from './batch.js';
@@ -94,6 +95,60 @@ describe('field profile |E|² relative to the incident wave', () => {
         const A = responseAt(stack, wl, angle, pol).A;
         expect(absorbed).toBeCloseTo(A, 7);
       }
+    }
+  });
+
+  it('stays finite and correct for very opaque stacks (a 6 µm absorber, a 40 µm tunnelling gap)', () => {
+    // The field is computed from the substrate backwards; without rescaling it overflowed to NaN.
+    // Checks: the front of the stack sees the same field as a thinner stack whose back no longer
+    // matters (the wave dies out within ~λ/(4πk) = 8 nm of the front), and the absorbed power
+    // (Born & Wolf, as above) integrated over the first 200 nm (the rest is below e^-25) equals A.
+    const metal = (d: number): OpticalStack =>
+      constantStack(1, [{ n: 0.2, k: 5, thicknessNm: d }], { n: 1.52, k: 0 });
+    const depths = Array.from({ length: 2001 }, (_, i) => 200 * (i / 2000));
+    for (const pol of ['s', 'p'] as const) {
+      const thick = profile(metal(6000), 500, 30, pol, depths);
+      const thin = profile(metal(400), 500, 30, pol, depths);
+      for (let i = 0; i < depths.length; i++) {
+        expect(Number.isFinite(thick[i])).toBe(true);
+        expect(thick[i]).toBeCloseTo(thin[i], 12);
+      }
+      expect(thick[0]).toBeGreaterThan(1e-3);
+      let sum = 0;
+      for (let i = 0; i <= 2000; i++) sum += thick[i] * (i === 0 || i === 2000 ? 1 : i % 2 === 1 ? 4 : 2);
+      const absorbed =
+        (((2 * 0.2 * 5 * sum * (200 / 2000)) / 3) * ((2 * Math.PI) / 500)) / Math.cos(30 * deg);
+      expect(absorbed).toBeCloseTo(responseAt(metal(6000), 500, 30, pol).A, 7);
+      // Deep inside, only the forward wave is left: |E|² falls by exp(−2 k0 Im q Δz) over Δz, with
+      // q = √(N² − sin²θ0) (Born & Wolf, waves in absorbing media); finite there, not NaN.
+      const q = new Complex(0.2, 5)
+        .pow(2)
+        .sub(Math.sin(30 * deg) ** 2)
+        .sqrt();
+      const [deep, deeper] = profile(metal(6000), 500, 30, pol, [3000, 3010]);
+      expect(deep).toBeGreaterThan(0);
+      expect(Math.log(deeper / deep)).toBeCloseTo(-2 * ((2 * Math.PI) / 500) * Math.abs(q.im) * 10, 9);
+    }
+    // 40 µm air gap at 60° between two n = 1.52 prisms: the gap's front matches a 4 µm gap's
+    // (the evanescent wave decays within ~100 nm), the far prism sees no field.
+    const gap = (d: number): OpticalStack => ({
+      incident: c(1.52),
+      layers: [{ material: c(1), thicknessNm: d }],
+      substrate: c(1.52),
+      backLayers: [],
+      exit: c(1.52),
+    });
+    const front = Array.from({ length: 101 }, (_, i) => -200 + 5 * i);
+    for (const pol of ['s', 'p'] as const) {
+      const far = profile(gap(40000), 633, 60, pol, front);
+      const near = profile(gap(4000), 633, 60, pol, front);
+      for (let i = 0; i < front.length; i++) {
+        expect(Number.isFinite(far[i])).toBe(true);
+        expect(far[i]).toBeCloseTo(near[i], 10);
+      }
+      const [beyond] = profile(gap(40000), 633, 60, pol, [40100]);
+      expect(Number.isFinite(beyond)).toBe(true);
+      expect(beyond).toBeLessThan(1e-200);
     }
   });
 

@@ -64,46 +64,60 @@ export function fieldProfile(
   const substrate = medium(checked.substrate, 'substrate');
 
   // Interface positions z[0] = 0 … z[L] = D and the tangential fields there, from the substrate side
-  // with E = 1 just inside the substrate.
+  // with E = 1 just inside the substrate. The fields grow without bound towards the front of an
+  // opaque stack (a thick absorber, a long tunnelling gap), so each interface's pair is divided by
+  // its larger magnitude and the natural log of the divisor kept: true (E, H) = scaled · e^logScale.
   const L = layers.length;
   const z = new Float64Array(L + 1);
   for (let i = 0; i < L; i++) z[i + 1] = z[i] + checked.layers[i].thicknessNm;
   const E: Complex[] = new Array<Complex>(L + 1);
   const H: Complex[] = new Array<Complex>(L + 1);
+  const logScale = new Float64Array(L + 1);
   E[L] = new Complex(1, 0);
   H[L] = substrate.eta;
   for (let i = L - 1; i >= 0; i--) {
-    [E[i], H[i]] = acrossMedium(layers[i], k0 * checked.layers[i].thicknessNm, E[i + 1], H[i + 1]);
+    const [e, h] = acrossMedium(layers[i], k0 * checked.layers[i].thicknessNm, E[i + 1], H[i + 1]);
+    const m = Math.max(e.abs(), h.abs());
+    const f = m > 0 && Number.isFinite(m) ? m : 1;
+    E[i] = e.div(f);
+    H[i] = h.div(f);
+    logScale[i] = logScale[i + 1] + Math.log(f);
   }
-  // Incident tangential amplitude: E = E⁺ + E⁻, H = η₀(E⁺ − E⁻) at z = 0.
+  // Incident tangential amplitude (scaled by e^logScale[0]): E = E⁺ + E⁻, H = η₀(E⁺ − E⁻) at z = 0.
   const incidentE = incident.eta.mul(E[0]).add(H[0]).div(incident.eta.mul(2));
-  // |E_incident|² of the whole wave: for p the tangential part is E cos θ₀.
+  // |E_incident| of the whole wave: for p the tangential part is E cos θ₀.
   const cos0 = Math.cos(theta);
-  const incidentPower = incidentE.abs() ** 2 / (pol === 'p' ? cos0 * cos0 : 1);
+  const incidentAmplitude = incidentE.abs() / (pol === 'p' ? cos0 : 1);
 
   for (let s = 0; s < depthsNm.length; s++) {
     const depth = depthsNm[s];
     let Ez: Complex;
     let Hz: Complex;
     let N: Complex;
+    let at: number;
     if (depth < 0) {
       [Ez, Hz] = acrossMedium(incident, -k0 * depth, E[0], H[0]);
       N = incident.N;
+      at = 0;
     } else if (depth >= z[L]) {
       // Only the forward wave in the substrate: E(z) = E(D) exp(i k0 q (z − D)).
       const phase = substrate.q.mul(new Complex(0, k0 * (depth - z[L]))).exp();
       Ez = E[L].mul(phase);
       Hz = substrate.eta.mul(Ez);
       N = substrate.N;
+      at = L;
     } else {
       let j = 0;
       while (depth >= z[j + 1]) j++;
       [Ez, Hz] = acrossMedium(layers[j], k0 * (z[j + 1] - depth), E[j + 1], H[j + 1]);
       N = layers[j].N;
+      at = j + 1;
     }
-    let e2 = Ez.abs() ** 2;
-    if (pol === 'p') e2 += (beta * Hz.abs()) ** 2 / N.abs() ** 4;
-    out[s] = e2 / incidentPower;
+    // Ratios before squaring, so neither the scaled fields nor e^(2·log) overflow.
+    const factor = Math.exp(logScale[at] - logScale[0]) / incidentAmplitude;
+    let e2 = (Ez.abs() * factor) ** 2;
+    if (pol === 'p') e2 += ((beta * Hz.abs() * factor) / N.abs() ** 2) ** 2;
+    out[s] = e2;
   }
   return out;
 }

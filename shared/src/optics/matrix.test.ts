@@ -84,6 +84,34 @@ describe('single interface', () => {
     expect(Math.atan2(r[1], r[0])).toBeCloseTo(-2 * Math.atan(kappa / q1), 13);
   });
 
+  it('keeps 0 ≤ R, T, A ≤ 1 and R + T + A = 1 under total internal reflection despite rounding', () => {
+    // Energy conservation (Born & Wolf §1.5): a lossless stack beyond the critical angle reflects
+    // everything, R = 1, T = 0, A = 0; rounding alone used to give R = 1 + 6.7e-16 or A = −2e-13.
+    const angles = Array.from({ length: 200 }, (_, i) => 41.2 + (48.7 * i) / 199);
+    const wavelengths = Array.from({ length: 50 }, (_, i) => 400 + 12 * i);
+    const lossless = stack(
+      1.52,
+      [
+        [2.35, 0, 97],
+        [1.46, 0, 143],
+        [2.05, 0, 61],
+      ],
+      1,
+    );
+    const res = calculateSpectrum(lossless, {
+      wavelengthsNm: wavelengths,
+      anglesDeg: angles,
+      polarisations: ['s', 'p'],
+    });
+    for (let i = 0; i < res.R.length; i++) {
+      expect(res.R[i]).toBeLessThanOrEqual(1);
+      expect(res.R[i]).toBeGreaterThan(1 - 1e-12);
+      expect(res.T[i]).toBe(0);
+      expect(res.A[i]).toBeGreaterThanOrEqual(0);
+      expect(res.R[i] + res.T[i] + res.A[i]).toBe(1);
+    }
+  });
+
   it('transmits evanescently through a thin gap (frustrated total reflection)', () => {
     // Glass–air gap–glass above the critical angle: T decays with gap thickness but is not zero,
     // and R + T = 1 (no loss). A thicker gap transmits less.

@@ -47,7 +47,7 @@ const TRIG = new Float64Array(2);
 const ROOT = new Float64Array(2);
 
 /** Writes √(x + iy) with Im ≥ 0 (and Re ≥ 0 when the root is real) into out[0..1]; y ≥ 0. */
-function forwardRoot(out: Float64Array, x: number, y: number): void {
+export function forwardRoot(out: Float64Array, x: number, y: number): void {
   if (y === 0) {
     out[0] = x > 0 ? Math.sqrt(x) : x === 0 ? TINY_Q : 0;
     out[1] = x < 0 ? Math.sqrt(-x) : 0;
@@ -61,40 +61,53 @@ function forwardRoot(out: Float64Array, x: number, y: number): void {
 }
 
 /**
+ * The layers one call of {@link coherentResponse} runs through, as a struct of arrays: layer l has
+ * relative permittivity ε = N² = epsRe[epsOffset + l] + i·epsIm[epsOffset + l] (epsIm = 2nk ≥ 0)
+ * and physical thickness thicknessNm[thicknessOffset + l] in nm. With `reversed` the layers are met
+ * in the opposite order (light arriving from the exit side), which the incoherent substrate model
+ * needs. Callers keep one span per layer list and move `epsOffset` from wavelength to wavelength.
+ */
+export interface LayerSpan {
+  epsRe: Float64Array;
+  epsIm: Float64Array;
+  epsOffset: number;
+  thicknessNm: Float64Array;
+  thicknessOffset: number;
+  layerCount: number;
+  reversed: boolean;
+}
+
+/** The light and the two bounding media of one call of {@link coherentResponse}. */
+export interface CoherentMedia {
+  /** Free-space wavenumber 2π/λ in nm⁻¹. */
+  k0: number;
+  /** Snell invariant N₀ sin θ₀ (real). */
+  beta: number;
+  /**
+   * ε of the incident medium, real and imaginary part (imaginary > 0 only for light arriving from
+   * inside an absorbing substrate).
+   */
+  incRe: number;
+  incIm: number;
+  /** ε of the exit medium. */
+  exitRe: number;
+  exitIm: number;
+  /** {@link POL_S}, {@link POL_P} or {@link POL_BOTH}. */
+  polMask: number;
+}
+
+/**
  * Coherent response of a layer stack at one wavelength and one angle of incidence.
- *
- * Layer l has relative permittivity ε = N² = epsRe[epsOffset + l] + i·epsIm[epsOffset + l]
- * (epsIm = 2nk ≥ 0) and physical thickness thicknessNm[thicknessOffset + l] in nm. With `reversed`
- * the layers are met in the opposite order (light arriving from the exit side), which the
- * incoherent substrate model needs.
  *
  * @param out receives, for s at 0…6 and for p at 7…13 (only the requested ones are written):
  *   R, T, A (fractions), then Re r, Im r, Re t, Im t. r and t are ratios of the tangential electric
  *   field (so r_s = r_p and t_s = t_p at normal incidence).
- * @param k0 free-space wavenumber 2π/λ in nm⁻¹.
- * @param beta Snell invariant N₀ sin θ₀ (real).
- * @param incRe ε of the incident medium, real part; incIm its imaginary part (> 0 only for light
- *   arriving from inside an absorbing substrate). exitRe, exitIm likewise for the exit medium.
- * @param polMask {@link POL_S}, {@link POL_P} or {@link POL_BOTH}.
+ * @param layers the layers, see {@link LayerSpan}; @param media the light and the media around them.
  * @returns out. Allocates nothing and never throws; callers validate inputs.
  */
-export function coherentResponse(
-  out: Float64Array,
-  epsRe: Float64Array,
-  epsIm: Float64Array,
-  epsOffset: number,
-  thicknessNm: Float64Array,
-  thicknessOffset: number,
-  layerCount: number,
-  reversed: boolean,
-  k0: number,
-  beta: number,
-  incRe: number,
-  incIm: number,
-  exitRe: number,
-  exitIm: number,
-  polMask: number,
-): Float64Array {
+export function coherentResponse(out: Float64Array, layers: LayerSpan, media: CoherentMedia): Float64Array {
+  const { epsRe, epsIm, epsOffset, thicknessNm, thicknessOffset, layerCount, reversed } = layers;
+  const { k0, beta, incRe, incIm, exitRe, exitIm, polMask } = media;
   const wantS = (polMask & POL_S) !== 0;
   const wantP = (polMask & POL_P) !== 0;
   const beta2 = beta * beta;
@@ -287,9 +300,11 @@ function finish(
   const scale = log === 0 ? 1 : Math.exp(-log);
   const tr = ((2 * (e0r * dr + e0i * di)) / d2) * scale;
   const ti = ((2 * (e0i * dr - e0r * di)) / d2) * scale;
-  const R = rr * rr + ri * ri;
+  // Rounding can put R a few ulps above 1 (total internal reflection) or R + T above 1: clamp so
+  // 0 ≤ R, T, A ≤ 1 and A = (1 − R) − T ≥ 0.
+  const R = Math.min(1, rr * rr + ri * ri);
   // T = Re(η_exit)|t|²/Re(η₀); zero when no power flows in the incident medium's normal direction.
-  const T = e0r > 0 ? (exitAdmRe * (tr * tr + ti * ti)) / e0r : 0;
+  const T = e0r > 0 ? Math.min(1 - R, (exitAdmRe * (tr * tr + ti * ti)) / e0r) : 0;
   out[o + RESP_R] = R;
   out[o + RESP_T] = T;
   out[o + RESP_A] = 1 - R - T;

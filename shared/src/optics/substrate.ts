@@ -60,6 +60,8 @@ export function combineIncoherent(
     R = frontR + (frontT * frontBackT * backR * tau2) / denom;
     T = (frontT * backT * tau) / denom;
   }
+  R = Math.min(1, R);
+  T = Math.min(1 - R, T);
   out[offset] = R;
   out[offset + 1] = T;
   out[offset + 2] = 1 - R - T;

@@ -115,6 +115,33 @@ describe('Fit to mask', () => {
     for (const d of result.thicknessesNm) expect(d).toBeGreaterThanOrEqual(10);
   });
 
+  it('gives the same fit with the analytic Jacobian as with forward differences, oblique s and p', () => {
+    // Both Jacobians describe the same residuals (the analytic one is checked against central
+    // differences in optics/derivatives.test.ts), so Levenberg–Marquardt must reach the same minimum.
+    const mask: SpecMask = {
+      bands: [
+        {
+          from_nm: 420,
+          to_nm: 680,
+          quantity: 'R',
+          max_percent: 0.2,
+          step_nm: 5,
+          angles_deg: [0, 30],
+          polarisation: 'avg',
+        },
+      ],
+    };
+    const start = onGlass(
+      [90, 100, 30, 40, 20, 30].map((d, i) => ({ n: i % 2 === 0 ? 1.38 : 2.35, thicknessNm: d })),
+    );
+    const analytic = fitToMask(start, mask, { maxIterations: 300 });
+    const differences = fitToMask(start, mask, { maxIterations: 300, derivatives: 'differences' });
+    expect(analytic.merit.after).toBeCloseTo(differences.merit.after, 5);
+    analytic.thicknessesNm.forEach((d, i) => expect(d).toBeCloseTo(differences.thicknessesNm[i], 3));
+    // The analytic Jacobian costs one evaluation, differences one spectrum per free layer.
+    expect(analytic.evaluations).toBeLessThan(differences.evaluations);
+  });
+
   it('is deterministic, streams every iteration, and stops when told to', () => {
     const start = onGlass([
       { n: n1, thicknessNm: quarterWaves[0] * 1.15 },
@@ -145,6 +172,7 @@ describe('Fit to mask', () => {
     ]);
     const cases: [() => unknown, RegExp][] = [
       [() => fitToMask(onGlass([]), zeroAt550), /^layers: the stack has no layers to fit/],
+      [() => fitToMask(one, zeroAt550, { derivatives: 'numeric' as never }), /^derivatives: /],
       [() => fitToMask(two, zeroAt550, { locked: [true, true] }), /^locked: every layer is locked/],
       [() => fitToMask(two, zeroAt550, { locked: [true] }), /^locked: must be a list of 2/],
       [

@@ -13,14 +13,16 @@
  * way the Jacobian comes straight from the engine's batch API into buffers allocated once.
  *
  * Method, per iteration:
- * - Jacobian by forward differences, one extra spectrum per free layer (step FD_STEP_NM).
+ * - Jacobian from the analytic thickness derivatives of optics/derivatives.ts (one forward and one
+ *   backward matrix sweep for all layers), or, for back `incoherent` or on request, by forward
+ *   differences, one extra spectrum per free layer (step FD_STEP_NM).
  * - Bounds by projection: a layer on a bound whose gradient points outwards is frozen for the
  *   iteration; the step of the others is solved from (JᵀJ + λ·diag JᵀJ)·δ = −Jᵀr and clipped.
  * - No thickness moves more than MAX_STEP_NM in one step (the step is shortened along its
  *   direction). λ falls by 3 after a step that lowers Σr², rises by 4 after one that does not
  *   (Marquardt's scaled damping). Everything is deterministic: the same input gives the same iterates.
  */
-import { onlyKeys, plainObject } from '../optics/checks.js';
+import { oneOf, onlyKeys, plainObject } from '../optics/checks.js';
 import { OpticsInputError, fieldPath } from '../optics/errors.js';
 import type { SpecMask } from '../optics/mask.js';
 import type { OpticalStack } from '../optics/stack.js';
@@ -59,6 +61,7 @@ const FIT_OPTION_KEYS = [
   'targets',
   'marginPercent',
   'onIteration',
+  'derivatives',
 ];
 
 /** Streamed after every accepted iteration. */
@@ -87,7 +90,17 @@ export interface FitOptions {
   marginPercent?: number;
   /** Called after each iteration; return false to stop (cancel). */
   onIteration?: (info: FitIteration) => boolean | void;
+  /**
+   * How the Jacobian is taken: `analytic` (default; from the characteristic-matrix sweeps, for
+   * back `none`) or `differences` (forward differences, one spectrum per free layer; always used
+   * for back `incoherent`).
+   */
+  derivatives?: DerivativeMethod;
 }
+
+/** Jacobian from the analytic sweeps or from forward differences of the spectrum. */
+export type DerivativeMethod = 'analytic' | 'differences';
+export const DERIVATIVE_METHODS: readonly DerivativeMethod[] = ['analytic', 'differences'];
 
 export type FitStop = 'converged' | 'maxIterations' | 'cancelled';
 
@@ -120,6 +133,8 @@ export interface LayerBounds {
 /** Settings of {@link refineThicknesses}. */
 export interface RefineSettings {
   maxIterations: number;
+  /** Default `analytic` where the merit supports it. */
+  derivatives?: DerivativeMethod;
   onIteration?: (info: FitIteration) => boolean | void;
 }
 
@@ -139,13 +154,19 @@ export function fitToMask(stack: OpticalStack, mask: SpecMask, options: FitOptio
   if (opts.onIteration !== undefined && typeof opts.onIteration !== 'function') {
     throw new OpticsInputError('onIteration', 'must be a function');
   }
+  const derivatives =
+    opts.derivatives === undefined ? undefined : oneOf(opts.derivatives, DERIVATIVE_METHODS, 'derivatives');
   const merit = createMaskMerit(stack, mask, {
     back: options.back,
     targets: options.targets,
     marginPercent: options.marginPercent ?? DEFAULT_MARGIN_PERCENT,
   });
   const start = merit.plan.stack.layers.map((l) => l.thicknessNm);
-  return refineThicknesses(merit, start, bounds, { maxIterations, onIteration: options.onIteration });
+  return refineThicknesses(merit, start, bounds, {
+    maxIterations,
+    onIteration: options.onIteration,
+    derivatives,
+  });
 }
 
 /**
@@ -201,6 +222,75 @@ export function layerBounds(
 }
 
 /**
+ * Buffers of one refinement, allocated once: the free layers and their bounds, the iterate and a
+ * trial, residuals, the Jacobian, the normal equations and the secant term.
+ */
+interface LmWork {
+  free: number[];
+  lo: Float64Array;
+  hi: Float64Array;
+  x: Float64Array;
+  trial: Float64Array;
+  r: Float64Array;
+  rTrial: Float64Array;
+  jac: Float64Array;
+  /** JᵀJ and Jᵀr. */
+  a: Float64Array;
+  g: Float64Array;
+  /** 1 for a layer that moves this iteration, 0 for one frozen on its bound. */
+  active: Uint8Array;
+  sub: Float64Array;
+  rhs: Float64Array;
+  step: Float64Array;
+  /** Secant term S ≈ Σ r_s ∇²r_s (second-order part of the Hessian of Σr²/2) and its update's inputs. */
+  sec: Float64Array;
+  gPrev: Float64Array;
+  jtrNew: Float64Array;
+  sStep: Float64Array;
+  y: Float64Array;
+  ySharp: Float64Array;
+  scratch: Float64Array;
+  haveStep: boolean;
+}
+
+function createLmWork(merit: MaskMerit, bounds: LayerBounds, startNm: ArrayLike<number>): LmWork {
+  const L = merit.layerCount;
+  const m = merit.sampleCount;
+  const free: number[] = [];
+  for (let i = 0; i < L; i++) if (bounds.locked[i] === 0) free.push(i);
+  const p = free.length;
+  const lo = Float64Array.from(free, (l) => bounds.minNm[l]);
+  const hi = Float64Array.from(free, (l) => bounds.maxNm[l]);
+  const x = Float64Array.from(startNm);
+  for (let j = 0; j < p; j++) x[free[j]] = Math.min(hi[j], Math.max(lo[j], x[free[j]]));
+  const f = (n: number) => new Float64Array(n);
+  return {
+    free,
+    lo,
+    hi,
+    x,
+    trial: f(L),
+    r: f(m),
+    rTrial: f(m),
+    jac: f(m * p),
+    a: f(p * p),
+    g: f(p),
+    active: new Uint8Array(p),
+    sub: f(p * p),
+    rhs: f(p),
+    step: f(p),
+    sec: f(p * p),
+    gPrev: f(p),
+    jtrNew: f(p),
+    sStep: f(p),
+    y: f(p),
+    ySharp: f(p),
+    scratch: f(p),
+    haveStep: false,
+  };
+}
+
+/**
  * The refinement itself, on a prepared merit (used by Fit to mask and Grow layers). `startNm`
  * holds every front layer of the merit's plan; the result's thicknesses too.
  */
@@ -210,52 +300,15 @@ export function refineThicknesses(
   bounds: LayerBounds,
   settings: RefineSettings,
 ): FitResult {
-  const L = merit.layerCount;
-  const m = merit.sampleCount;
-  const free: number[] = [];
-  for (let i = 0; i < L; i++) if (bounds.locked[i] === 0) free.push(i);
-  const p = free.length;
-  const lo = new Float64Array(p);
-  const hi = new Float64Array(p);
-  free.forEach((l, j) => {
-    lo[j] = bounds.minNm[l];
-    hi[j] = bounds.maxNm[l];
-  });
-
   const initial = Array.from(startNm);
-  const x = Float64Array.from(initial);
-  for (let j = 0; j < p; j++) x[free[j]] = Math.min(hi[j], Math.max(lo[j], x[free[j]]));
-  const trial = new Float64Array(L);
-  const r = new Float64Array(m);
-  const rTrial = new Float64Array(m);
-  const jac = new Float64Array(m * p);
-  const a = new Float64Array(p * p);
-  const g = new Float64Array(p);
-  const active = new Uint8Array(p);
-  const sub = new Float64Array(p * p);
-  const rhs = new Float64Array(p);
-  const step = new Float64Array(p);
-  // Secant term S ≈ Σ r_s ∇²r_s (second-order part of the Hessian of Σr²/2) and what its update needs.
-  const sec = new Float64Array(p * p);
-  const gPrev = new Float64Array(p);
-  const jtrNew = new Float64Array(p);
-  const sStep = new Float64Array(p);
-  const y = new Float64Array(p);
-  const ySharp = new Float64Array(p);
-  const work = new Float64Array(p);
-  let haveStep = false;
+  const w = createLmWork(merit, bounds, initial);
+  const { x, r, trial, rTrial } = w;
+  const analytic = (settings.derivatives ?? 'analytic') === 'analytic' && merit.analyticDerivatives;
 
-  let evaluations = 0;
-  const evaluate = (thicknesses: Float64Array, out: Float64Array): number => {
-    evaluations++;
-    return merit.residuals(out, thicknesses);
-  };
-  const meritBefore = (() => {
-    merit.compute(initial);
-    evaluations++;
-    return merit.meritOf();
-  })();
-  let sum = evaluate(x, r);
+  merit.compute(initial);
+  const meritBefore = merit.meritOf();
+  let evaluations = 2;
+  let sum = merit.residuals(r, x);
   let current = merit.meritOf();
   const history = [{ iteration: 0, merit: current }];
   let lambda = LAMBDA_START;
@@ -267,100 +320,27 @@ export function refineThicknesses(
       stoppedBy = 'converged';
       break;
     }
-    // Jacobian J[s, j] = ∂r_s/∂d_j by forward differences.
-    trial.set(x);
-    for (let j = 0; j < p; j++) {
-      const l = free[j];
-      trial[l] = x[l] + FD_STEP_NM;
-      evaluate(trial, rTrial);
-      trial[l] = x[l];
-      for (let s = 0; s < m; s++) jac[s * p + j] = (rTrial[s] - r[s]) / FD_STEP_NM;
+    if (analytic) {
+      merit.jacobian(w.jac, x, w.free);
+      evaluations++;
+    } else {
+      evaluations += jacobianByDifferences(merit, w.jac, x, r, w.free, trial, rTrial);
     }
-    // A = JᵀJ, g = Jᵀr.
-    a.fill(0);
-    g.fill(0);
-    for (let s = 0; s < m; s++) {
-      const rs = r[s];
-      for (let j = 0; j < p; j++) {
-        const jj = jac[s * p + j];
-        if (jj === 0) continue;
-        g[j] += jj * rs;
-        for (let k = 0; k <= j; k++) a[j * p + k] += jj * jac[s * p + k];
-      }
-    }
-    for (let j = 0; j < p; j++) for (let k = 0; k < j; k++) a[k * p + j] = a[j * p + k];
-    if (haveStep) {
-      // y = g₊ − g, y♯ = (J₊ − J)ᵀ r₊ = g₊ − Jᵀ r₊ (J from the previous point).
-      for (let j = 0; j < p; j++) {
-        y[j] = g[j] - gPrev[j];
-        ySharp[j] = g[j] - jtrNew[j];
-      }
-      secantUpdate(sec, sStep, y, ySharp, work, p);
-    }
-    // Layers on a bound whose descent direction (−g) points outwards stay there this iteration.
-    let nActive = 0;
-    let maxDiag = 0;
-    for (let j = 0; j < p; j++) {
-      const v = x[free[j]];
-      const out = (v <= lo[j] && g[j] > 0) || (v >= hi[j] && g[j] < 0) || g[j] === 0;
-      active[j] = out ? 0 : 1;
-      if (!out) {
-        nActive++;
-        maxDiag = Math.max(maxDiag, a[j * p + j]);
-      }
-    }
+    normalEquations(w, merit.sampleCount);
+    if (w.haveStep) updateSecant(w);
+    const nActive = freezeOnBounds(w);
     if (nActive === 0) {
       stoppedBy = 'converged';
       break;
     }
-    const diagFloor = maxDiag > 0 ? maxDiag * 1e-12 : 1e-12;
-
     for (;;) {
-      // Solve the damped system on the active layers.
-      let q = 0;
-      for (let j = 0; j < p; j++) {
-        if (active[j] === 0) continue;
-        let c = 0;
-        for (let k = 0; k < p; k++) {
-          if (active[k] === 0) continue;
-          sub[q * nActive + c] = a[j * p + k] + sec[j * p + k];
-          c++;
-        }
-        const d = Math.max(a[j * p + j], diagFloor);
-        sub[q * nActive + q] += lambda * d;
-        rhs[q] = -g[j];
-        q++;
-      }
-      const solved = choleskySolve(sub, rhs, nActive);
-      if (solved) {
-        step.fill(0);
-        q = 0;
-        let longest = 0;
-        for (let j = 0; j < p; j++) {
-          if (active[j] === 1) step[j] = rhs[q++];
-          longest = Math.max(longest, Math.abs(step[j]));
-        }
-        if (longest > MAX_STEP_NM) for (let j = 0; j < p; j++) step[j] *= MAX_STEP_NM / longest;
-        trial.set(x);
-        let moved = 0;
-        for (let j = 0; j < p; j++) {
-          const l = free[j];
-          const v = Math.min(hi[j], Math.max(lo[j], x[l] + step[j]));
-          moved = Math.max(moved, Math.abs(v - x[l]));
-          trial[l] = v;
-        }
-        const sumTrial = evaluate(trial, rTrial);
+      if (solveDampedStep(w, nActive, lambda)) {
+        const moved = trialPoint(w);
+        const sumTrial = merit.residuals(rTrial, trial);
+        evaluations++;
         if (sumTrial < sum) {
           const reduction = (sum - sumTrial) / sum;
-          // Keep what the secant update needs once the Jacobian at the new point is known.
-          for (let j = 0; j < p; j++) {
-            sStep[j] = trial[free[j]] - x[free[j]];
-            gPrev[j] = g[j];
-            let v = 0;
-            for (let s = 0; s < m; s++) v += jac[s * p + j] * rTrial[s];
-            jtrNew[j] = v;
-          }
-          haveStep = true;
+          rememberStep(w, merit.sampleCount);
           x.set(trial);
           r.set(rTrial);
           sum = sumTrial;
@@ -368,16 +348,14 @@ export function refineThicknesses(
           lambda = Math.max(LAMBDA_MIN, lambda / 3);
           iterations++;
           history.push({ iteration: iterations, merit: current });
-          if (settings.onIteration) {
-            const go = settings.onIteration({
-              iteration: iterations,
-              merit: current,
-              thicknessesNm: Array.from(x),
-            });
-            if (go === false) {
-              stoppedBy = 'cancelled';
-              break outer;
-            }
+          const go = settings.onIteration?.({
+            iteration: iterations,
+            merit: current,
+            thicknessesNm: Array.from(x),
+          });
+          if (go === false) {
+            stoppedBy = 'cancelled';
+            break outer;
           }
           if (sum === 0 || moved < STEP_TOLERANCE_NM || reduction < REDUCTION_TOLERANCE) {
             stoppedBy = 'converged';
@@ -415,6 +393,140 @@ export function refineThicknesses(
     converged: stoppedBy === 'converged',
     stoppedBy,
   };
+}
+
+/** A = JᵀJ (symmetric, both halves) and g = Jᵀr over the m samples. */
+function normalEquations(w: LmWork, m: number): void {
+  const { a, g, jac, r } = w;
+  const p = w.free.length;
+  a.fill(0);
+  g.fill(0);
+  for (let s = 0; s < m; s++) {
+    const rs = r[s];
+    for (let j = 0; j < p; j++) {
+      const jj = jac[s * p + j];
+      if (jj === 0) continue;
+      g[j] += jj * rs;
+      for (let k = 0; k <= j; k++) a[j * p + k] += jj * jac[s * p + k];
+    }
+  }
+  for (let j = 0; j < p; j++) for (let k = 0; k < j; k++) a[k * p + j] = a[j * p + k];
+}
+
+/** y = g₊ − g, y♯ = (J₊ − J)ᵀ r₊ = g₊ − Jᵀ r₊ (J from the previous point), then the update. */
+function updateSecant(w: LmWork): void {
+  const p = w.free.length;
+  for (let j = 0; j < p; j++) {
+    w.y[j] = w.g[j] - w.gPrev[j];
+    w.ySharp[j] = w.g[j] - w.jtrNew[j];
+  }
+  secantUpdate(w.sec, w.sStep, w.y, w.ySharp, w.scratch, p);
+}
+
+/**
+ * Marks the layers that move this iteration: one on a bound whose descent direction (−g) points
+ * outwards stays there. Returns how many move.
+ */
+function freezeOnBounds(w: LmWork): number {
+  const { x, g, lo, hi, free, active } = w;
+  let nActive = 0;
+  for (let j = 0; j < free.length; j++) {
+    const v = x[free[j]];
+    const out = (v <= lo[j] && g[j] > 0) || (v >= hi[j] && g[j] < 0) || g[j] === 0;
+    active[j] = out ? 0 : 1;
+    if (!out) nActive++;
+  }
+  return nActive;
+}
+
+/**
+ * Solves (A + S + λ·diag A)·δ = −g on the moving layers into w.step (zero for frozen ones), the
+ * diagonal floored at 1e-12 of its largest entry, and shortens δ to MAX_STEP_NM along its
+ * direction. Returns false when the system is not positive definite.
+ */
+function solveDampedStep(w: LmWork, nActive: number, lambda: number): boolean {
+  const { a, sec, g, active, sub, rhs, step } = w;
+  const p = w.free.length;
+  let maxDiag = 0;
+  for (let j = 0; j < p; j++) if (active[j] === 1) maxDiag = Math.max(maxDiag, a[j * p + j]);
+  const diagFloor = maxDiag > 0 ? maxDiag * 1e-12 : 1e-12;
+  let q = 0;
+  for (let j = 0; j < p; j++) {
+    if (active[j] === 0) continue;
+    let c = 0;
+    for (let k = 0; k < p; k++) {
+      if (active[k] === 0) continue;
+      sub[q * nActive + c] = a[j * p + k] + sec[j * p + k];
+      c++;
+    }
+    sub[q * nActive + q] += lambda * Math.max(a[j * p + j], diagFloor);
+    rhs[q] = -g[j];
+    q++;
+  }
+  if (!choleskySolve(sub, rhs, nActive)) return false;
+  step.fill(0);
+  q = 0;
+  let longest = 0;
+  for (let j = 0; j < p; j++) {
+    if (active[j] === 1) step[j] = rhs[q++];
+    longest = Math.max(longest, Math.abs(step[j]));
+  }
+  if (longest > MAX_STEP_NM) for (let j = 0; j < p; j++) step[j] *= MAX_STEP_NM / longest;
+  return true;
+}
+
+/** trial = x + step clipped to the bounds; returns the largest thickness change, nm. */
+function trialPoint(w: LmWork): number {
+  const { x, trial, step, lo, hi, free } = w;
+  trial.set(x);
+  let moved = 0;
+  for (let j = 0; j < free.length; j++) {
+    const l = free[j];
+    const v = Math.min(hi[j], Math.max(lo[j], x[l] + step[j]));
+    moved = Math.max(moved, Math.abs(v - x[l]));
+    trial[l] = v;
+  }
+  return moved;
+}
+
+/** Keeps what the secant update needs once the Jacobian at the accepted trial is known. */
+function rememberStep(w: LmWork, m: number): void {
+  const { x, trial, free, g, jac, rTrial } = w;
+  const p = free.length;
+  for (let j = 0; j < p; j++) {
+    w.sStep[j] = trial[free[j]] - x[free[j]];
+    w.gPrev[j] = g[j];
+    let v = 0;
+    for (let s = 0; s < m; s++) v += jac[s * p + j] * rTrial[s];
+    w.jtrNew[j] = v;
+  }
+  w.haveStep = true;
+}
+
+/**
+ * Jacobian J[s, j] = ∂r_s/∂d_free[j] by forward differences (step FD_STEP_NM) around x, whose
+ * residuals are r; returns the spectra computed (one per free layer).
+ */
+function jacobianByDifferences(
+  merit: MaskMerit,
+  jac: Float64Array,
+  x: Float64Array,
+  r: Float64Array,
+  free: readonly number[],
+  trial: Float64Array,
+  rTrial: Float64Array,
+): number {
+  const p = free.length;
+  const m = merit.sampleCount;
+  trial.set(x);
+  for (let j = 0; j < p; j++) {
+    const l = free[j];
+    trial[l] = x[l] + FD_STEP_NM;
+    merit.residuals(rTrial, trial);
+    trial[l] = x[l];
+    for (let s = 0; s < m; s++) jac[s * p + j] = (rTrial[s] - r[s]) / FD_STEP_NM;
+  }
+  return p;
 }
 
 /**

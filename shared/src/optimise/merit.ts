@@ -24,6 +24,11 @@ import {
   type SpectrumPlan,
 } from '../optics/batch.js';
 import {
+  computeThicknessDerivatives,
+  createThicknessDerivatives,
+  type ThicknessDerivatives,
+} from '../optics/derivatives.js';
+import {
   arrayValue,
   finiteNumber,
   incidenceAngle,
@@ -117,6 +122,7 @@ export class MaskMerit {
   readonly sampleCount: number;
   /** The validated mask. */
   readonly mask: SpecMask;
+  private derivatives: ThicknessDerivatives | null = null;
 
   private constructor(
     stack: OpticalStack,
@@ -232,6 +238,63 @@ export class MaskMerit {
       if (m < worst || m !== m) worst = m;
     }
     return worst;
+  }
+
+  /** Whether {@link jacobian} is available: analytic derivatives need the coherent front surface. */
+  get analyticDerivatives(): boolean {
+    return this.plan.back === 'none';
+  }
+
+  /**
+   * Jacobian of the residuals (with margin) at `thicknessesNm`, whose spectrum the last
+   * {@link compute} gave: jac[s·free.length + j] = ∂r_s/∂d_free[j] (nm⁻¹), from the analytic
+   * derivatives of optics/derivatives.ts. A limit sample counts where it is violated (its
+   * residual ≠ 0), as the residual's one-sided derivative on the violated side.
+   */
+  jacobian(jac: Float64Array, thicknessesNm: ArrayLike<number>, free: ArrayLike<number>): void {
+    setLayerThicknesses(this.plan, thicknessesNm);
+    const d = (this.derivatives ??= createThicknessDerivatives(this.plan));
+    computeThicknessDerivatives(d, this.plan);
+    const s = this.samples;
+    const size = this.plan.size;
+    const p = free.length;
+    for (let i = 0; i < s.count; i++) {
+      const factor = 100 * s.scale[i] * this.activity(i);
+      const src = s.isT[i] === 1 ? d.dT : d.dR;
+      const at = s.index[i];
+      for (let j = 0; j < p; j++) jac[i * p + j] = factor * src[free[j] * size + at];
+    }
+  }
+
+  /**
+   * Weights of ∂R and ∂T per spectrum point in the gradient of Σr² (with margin) of the current
+   * spectrum: ∂Σr²/∂x = Σ_i gR[i]·∂R_i/∂x + gT[i]·∂T_i/∂x. gR, gT have length plan.size.
+   */
+  gradientWeights(gR: Float64Array, gT: Float64Array): void {
+    gR.fill(0);
+    gT.fill(0);
+    const s = this.samples;
+    const R = this.spectrum.R;
+    const T = this.spectrum.T;
+    for (let i = 0; i < s.count; i++) {
+      const isT = s.isT[i] === 1;
+      const v = 100 * (isT ? T[s.index[i]] : R[s.index[i]]);
+      const d = v - s.limit[i];
+      const kind = s.kind[i];
+      const dev = kind === KIND_MAX ? (d > 0 ? d : 0) : kind === KIND_MIN ? (d < 0 ? d : 0) : d;
+      const w = 2 * s.scale[i] * s.scale[i] * dev * 100;
+      if (isT) gT[s.index[i]] += w;
+      else gR[s.index[i]] += w;
+    }
+  }
+
+  /** 1 where sample i's residual (with margin) depends on the spectrum, else 0. */
+  private activity(i: number): number {
+    const s = this.samples;
+    const v = 100 * (s.isT[i] === 1 ? this.spectrum.T[s.index[i]] : this.spectrum.R[s.index[i]]);
+    const d = v - s.limit[i];
+    const kind = s.kind[i];
+    return kind === KIND_MAX ? (d > 0 ? 1 : 0) : kind === KIND_MIN ? (d < 0 ? 1 : 0) : 1;
   }
 
   /**

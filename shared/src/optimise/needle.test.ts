@@ -65,6 +65,36 @@ describe('Grow layers', () => {
     expect(evaluateMask(broadbandAr, rebuilt).merit).toBeCloseTo(step1.merit, 10);
   });
 
+  it('grows the same design from the analytic needle function as from probing with thin needles', () => {
+    const analytic = growLayers(quarterWaveOnBk7, broadbandAr, { allowedMaterials: allowed, maxLayers: 10 });
+    const probed = growLayers(quarterWaveOnBk7, broadbandAr, {
+      allowedMaterials: allowed,
+      maxLayers: 10,
+      derivatives: 'differences',
+    });
+    expect(analytic.final.layers.map((l) => l.material)).toEqual(probed.final.layers.map((l) => l.material));
+    analytic.final.layers.forEach((l, i) =>
+      expect(l.thicknessNm).toBeCloseTo(probed.final.layers[i].thicknessNm, 2),
+    );
+  });
+
+  it("keeps the start's front layer outermost when asked", () => {
+    const result = growLayers(quarterWaveOnBk7, broadbandAr, {
+      allowedMaterials: allowed.filter((m) => m.name !== 'MgF2'),
+      layerMaterials: ['MgF2'],
+      outermostFixed: true,
+      maxLayers: 10,
+    });
+    for (const step of result.steps) expect(step.layers[0].material).toBe('MgF2');
+    expect(result.steps.length).toBeGreaterThan(1);
+    expect(() =>
+      growLayers(quarterWaveOnBk7, broadbandAr, {
+        allowedMaterials: allowed,
+        outermostFixed: 'yes' as never,
+      }),
+    ).toThrow(/outermostFixed/);
+  });
+
   it('is deterministic and reports each step; returning false stops it', () => {
     const seen: number[] = [];
     const first = growLayers(quarterWaveOnBk7, broadbandAr, {

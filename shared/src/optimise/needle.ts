@@ -17,13 +17,17 @@
  * the best that lowers the merit is kept (the gradual-evolution variant of the method).
  */
 import { onlyKeys, plainObject } from '../optics/checks.js';
-import { indexAt, validateMaterialModel, type MaterialModel } from '../optics/dispersion.js';
+import { evaluateIndex, indexAt, validateMaterialModel, type MaterialModel } from '../optics/dispersion.js';
+import { createNeedleGrid, needleFunction, type NeedleMaterials } from '../optics/derivatives.js';
+import { oneOf } from '../optics/checks.js';
 import { OpticsInputError, fieldPath } from '../optics/errors.js';
 import { maskGrid, type SpecMask } from '../optics/mask.js';
 import { validateOpticalStack, type OpticalStack } from '../optics/stack.js';
 import type { BackSurface } from '../optics/batch.js';
 import {
+  DERIVATIVE_METHODS,
   DEFAULT_MARGIN_PERCENT,
+  type DerivativeMethod,
   DEFAULT_MAX_THICKNESS_NM,
   DEFAULT_MIN_THICKNESS_NM,
   layerBounds,
@@ -52,6 +56,8 @@ const GROW_OPTION_KEYS = [
   'marginPercent',
   'targets',
   'onStep',
+  'derivatives',
+  'outermostFixed',
 ];
 
 /** A coating material the engineer allows Grow layers to use. */
@@ -116,6 +122,14 @@ export interface GrowOptions {
   targets?: TargetCurve[];
   /** Called with each kept step (step 0 included); return false to stop (cancel). */
   onStep?: (step: GrowStep) => boolean | void;
+  /**
+   * `analytic` (default, back `none`): the needle function and the refinement's Jacobian from the
+   * characteristic-matrix sweeps; `differences`: probing each position with a thin needle and
+   * forward-difference Jacobians (always used for back `incoherent`).
+   */
+  derivatives?: DerivativeMethod;
+  /** Keep the start's front layer outermost: no needle or new layer goes in front of it. */
+  outermostFixed?: boolean;
 }
 
 export interface GrowResult {
@@ -166,6 +180,12 @@ export function growLayers(stack: OpticalStack, mask: SpecMask, options: GrowOpt
   const positionStep = positiveOption(opts.positionStepNm, 'positionStepNm', 2);
   const maxSteps = wholeNumber(opts.maxSteps, 'maxSteps', 0, 1000, 30);
   const maxIterations = wholeNumber(opts.maxIterations, 'maxIterations', 1, 100_000, 100);
+  const derivatives =
+    opts.derivatives === undefined ? 'analytic' : oneOf(opts.derivatives, DERIVATIVE_METHODS, 'derivatives');
+  if (opts.outermostFixed !== undefined && typeof opts.outermostFixed !== 'boolean') {
+    throw new OpticsInputError('outermostFixed', 'must be true or false');
+  }
+  const outermostFixed = opts.outermostFixed === true && start.layers.length > 0;
   if (opts.onStep !== undefined && typeof opts.onStep !== 'function') {
     throw new OpticsInputError('onStep', 'must be a function');
   }
@@ -178,7 +198,7 @@ export function growLayers(stack: OpticalStack, mask: SpecMask, options: GrowOpt
   const models = materials.map((m) => m.model);
   const keys = models.map((m) => JSON.stringify(m));
   const startNames = startLayerNames(start, opts.layerMaterials, names, keys);
-  let layers: WorkLayer[] = start.layers.map((layer, i) => {
+  const layers: WorkLayer[] = start.layers.map((layer, i) => {
     const key = JSON.stringify(layer.material);
     let index = names.indexOf(startNames[i]);
     if (index >= 0 && keys[index] !== key) {
@@ -211,115 +231,46 @@ export function growLayers(stack: OpticalStack, mask: SpecMask, options: GrowOpt
     marginPercent: options.marginPercent ?? DEFAULT_MARGIN_PERCENT,
   });
   const residual = new Float64Array(base.sampleCount);
+  const analytic = derivatives === 'analytic' && base.analyticDerivatives;
 
-  /** Refines `list` within [lower, maxNm] on a merit for its structure; returns it refined. */
-  const refine = (list: WorkLayer[], lower: number): Refined => {
-    const merit = base.withStack(stackOf(list));
-    const bounds = layerBounds(list.length, lower, maxNm, undefined);
-    const fit = refineThicknesses(
-      merit,
-      list.map((l) => l.thicknessNm),
-      bounds,
-      { maxIterations },
-    );
-    const out = list.map((l, i) => ({ material: l.material, thicknessNm: fit.thicknessesNm[i] }));
-    const sum = merit.residuals(residual, fit.thicknessesNm);
-    return { layers: out, sum, merit };
+  const ctx: GrowContext = {
+    base,
+    residual,
+    stackOf,
+    names,
+    allowedCount,
+    quarterWaveNm,
+    needleMaterials: analytic ? needleMaterialTable(base, materials) : null,
+    minNm,
+    maxNm,
+    maxLayers,
+    maxTotal,
+    needleNm,
+    positionStep,
+    maxIterations,
+    derivatives,
+    outermostFixed,
   };
-
   const steps: GrowStep[] = [];
-  const record = (list: WorkLayer[], merit: MaskMerit, inserted?: GrowStep['inserted']): boolean => {
-    merit.compute(list.map((l) => l.thicknessNm));
-    const worstMargin = merit.worstMarginOf();
-    const step: GrowStep = {
-      step: steps.length,
-      layerCount: list.length,
-      totalThicknessNm: list.reduce((t, l) => t + l.thicknessNm, 0),
-      merit: merit.meritOf(),
-      pass: worstMargin >= 0,
-      worstMargin,
-      layers: list.map((l) => ({ material: names[l.material], thicknessNm: l.thicknessNm })),
-    };
-    if (inserted) step.inserted = inserted;
+  const record = (refined: Refined, inserted?: GrowStep['inserted']): boolean => {
+    const step = growStep(ctx, steps.length, refined, inserted);
     steps.push(step);
     return options.onStep?.(step) !== false;
   };
 
-  let current = refine(layers, minNm);
-  layers = current.layers;
+  let current = refine(ctx, layers, minNm);
   let stoppedBy: GrowStop = 'maxSteps';
-  if (!record(layers, current.merit)) stoppedBy = 'cancelled';
+  if (!record(current)) stoppedBy = 'cancelled';
   else if (steps[0].pass) stoppedBy = 'maskMet';
   else {
     for (let stepNo = 1; stepNo <= maxSteps; stepNo++) {
-      if (layers.length + 1 > maxLayers) {
+      if (current.layers.length + 1 > maxLayers) {
         stoppedBy = 'maxLayers';
         break;
       }
       const reasons = new Set<GrowStop>();
-      /**
-       * Refines a grown structure within [min, max], for a needle first with ≥ 0 bounds and its
-       * thin layers removed; null when the result is over a limit.
-       */
-      const settle = (grown: WorkLayer[], needle: boolean): Refined | null => {
-        if (grown.length > maxLayers) {
-          reasons.add('maxLayers');
-          return null;
-        }
-        const kept = needle ? dropThinLayers(refine(grown, 0).layers, minNm) : grown;
-        if (kept.length === 0) return null;
-        const result = refine(kept, minNm);
-        if (result.layers.length > maxLayers) {
-          reasons.add('maxLayers');
-          return null;
-        }
-        if (result.layers.reduce((t, l) => t + l.thicknessNm, 0) > maxTotal) {
-          reasons.add('maxTotalThickness');
-          return null;
-        }
-        return result;
-      };
-      const better = (result: Refined | null): result is Refined =>
-        result !== null && result.sum < current.sum * (1 - 1e-9);
-
-      let accepted: Refined | null = null;
-      let inserted: GrowStep['inserted'];
-      const candidates = scanNeedles(current.merit, layers, allowedCount, stackOf, positionStep, residual);
-      const tried = new Set<string>();
-      for (const cand of candidates) {
-        const key = `${cand.layer}:${cand.material}`;
-        if (tried.has(key)) continue;
-        if (tried.size >= CANDIDATES_PER_STEP) break;
-        tried.add(key);
-        const result = settle(insertNeedle(layers, cand, needleNm), true);
-        if (better(result)) {
-          accepted = result;
-          let depth = cand.offsetNm;
-          for (let j = 0; j < cand.layer; j++) depth += layers[j].thicknessNm;
-          inserted = { material: names[cand.material], depthNm: depth };
-          break;
-        }
-      }
-      if (!accepted) {
-        // No needle helps on its own: add a whole layer at the front or next to the substrate
-        // (gradual evolution) and keep the best refined result.
-        const total = layers.reduce((t, l) => t + l.thicknessNm, 0);
-        for (const side of ['front', 'substrate'] as const) {
-          for (let m = 0; m < allowedCount; m++) {
-            const neighbour = side === 'front' ? layers[0] : layers[layers.length - 1];
-            if (neighbour && neighbour.material === m) continue;
-            for (const startNm of [minNm, quarterWaveNm[m], 2 * quarterWaveNm[m]]) {
-              const layer = { material: m, thicknessNm: startNm };
-              const result = settle(side === 'front' ? [layer, ...layers] : [...layers, layer], false);
-              if (better(result) && (!accepted || result.sum < accepted.sum)) {
-                accepted = result;
-                inserted = { material: names[m], depthNm: side === 'front' ? 0 : total };
-              }
-            }
-          }
-        }
-      }
-      if (!accepted) {
+      const next = tryNeedles(ctx, current, reasons) ?? tryWholeLayers(ctx, current, reasons);
+      if (!next) {
         stoppedBy = reasons.has('maxLayers')
           ? 'maxLayers'
           : reasons.has('maxTotalThickness')
@@ -327,9 +278,8 @@ export function growLayers(stack: OpticalStack, mask: SpecMask, options: GrowOpt
             : 'noImprovement';
         break;
       }
-      current = accepted;
-      layers = accepted.layers;
-      if (!record(layers, current.merit, inserted)) {
+      current = next.refined;
+      if (!record(current, next.inserted)) {
         stoppedBy = 'cancelled';
         break;
       }
@@ -340,7 +290,184 @@ export function growLayers(stack: OpticalStack, mask: SpecMask, options: GrowOpt
     }
   }
   const final = steps[steps.length - 1];
-  return { steps, final, stack: stackOf(layers), stoppedBy };
+  return { steps, final, stack: stackOf(current.layers), stoppedBy };
+}
+
+/** Settings and shared buffers of one Grow layers run. */
+interface GrowContext {
+  /** The merit of the start; {@link MaskMerit.withStack} gives one per structure. */
+  base: MaskMerit;
+  residual: Float64Array;
+  stackOf: (list: readonly WorkLayer[]) => OpticalStack;
+  /** Names of the materials (allowed ones first, then start materials not among them). */
+  names: readonly string[];
+  allowedCount: number;
+  /** Quarter-wave thickness of each allowed material at the mask's centre wavelength, nm. */
+  quarterWaveNm: readonly number[];
+  /** ε of the allowed materials for the analytic needle function, or null to probe. */
+  needleMaterials: NeedleMaterials | null;
+  minNm: number;
+  maxNm: number;
+  maxLayers: number;
+  maxTotal: number;
+  needleNm: number;
+  positionStep: number;
+  maxIterations: number;
+  derivatives: DerivativeMethod;
+  outermostFixed: boolean;
+}
+
+/** A kept structure and where its new layer went. */
+interface Grown {
+  refined: Refined;
+  inserted: { material: string; depthNm: number };
+}
+
+/** Refines `list` within [lower, maxNm] on a merit for its structure; returns it refined. */
+function refine(ctx: GrowContext, list: readonly WorkLayer[], lower: number): Refined {
+  const merit = ctx.base.withStack(ctx.stackOf(list));
+  const bounds = layerBounds(list.length, lower, ctx.maxNm, undefined);
+  const fit = refineThicknesses(
+    merit,
+    list.map((l) => l.thicknessNm),
+    bounds,
+    { maxIterations: ctx.maxIterations, derivatives: ctx.derivatives },
+  );
+  const out = list.map((l, i) => ({ material: l.material, thicknessNm: fit.thicknessesNm[i] }));
+  const sum = merit.residuals(ctx.residual, fit.thicknessesNm);
+  return { layers: out, sum, merit };
+}
+
+/** The step record of a refined structure. */
+function growStep(
+  ctx: GrowContext,
+  index: number,
+  refined: Refined,
+  inserted?: GrowStep['inserted'],
+): GrowStep {
+  const { layers: list, merit } = refined;
+  merit.compute(list.map((l) => l.thicknessNm));
+  const worstMargin = merit.worstMarginOf();
+  const step: GrowStep = {
+    step: index,
+    layerCount: list.length,
+    totalThicknessNm: list.reduce((t, l) => t + l.thicknessNm, 0),
+    merit: merit.meritOf(),
+    pass: worstMargin >= 0,
+    worstMargin,
+    layers: list.map((l) => ({ material: ctx.names[l.material], thicknessNm: l.thicknessNm })),
+  };
+  if (inserted) step.inserted = inserted;
+  return step;
+}
+
+/** Whether `result` lowers Σr² of `current` (by more than rounding). */
+function better(result: Refined | null, current: Refined): result is Refined {
+  return result !== null && result.sum < current.sum * (1 - 1e-9);
+}
+
+/**
+ * Refines a grown structure within [min, max]; for a needle first with ≥ 0 bounds and its thin
+ * layers dropped, or, when dropping undoes the needle, raised to the minimum thickness. Null (and
+ * the reason added) when the result is over a limit.
+ */
+function settle(
+  ctx: GrowContext,
+  current: Refined,
+  grown: WorkLayer[],
+  needle: boolean,
+  reasons: Set<GrowStop>,
+): Refined | null {
+  if (grown.length > ctx.maxLayers) {
+    reasons.add('maxLayers');
+    return null;
+  }
+  let result: Refined;
+  if (needle) {
+    const free = refine(ctx, grown, 0).layers;
+    const kept = dropThinLayers(free, ctx.minNm);
+    result = kept.length > 0 ? refine(ctx, kept, ctx.minNm) : current;
+    if (!better(result, current)) {
+      const raised = free.map((l) => ({
+        material: l.material,
+        thicknessNm: Math.max(ctx.minNm, l.thicknessNm),
+      }));
+      result = refine(ctx, raised, ctx.minNm);
+    }
+  } else {
+    result = refine(ctx, grown, ctx.minNm);
+  }
+  if (result.layers.length > ctx.maxLayers) {
+    reasons.add('maxLayers');
+    return null;
+  }
+  if (result.layers.reduce((t, l) => t + l.thicknessNm, 0) > ctx.maxTotal) {
+    reasons.add('maxTotalThickness');
+    return null;
+  }
+  return result;
+}
+
+/**
+ * Scans the needle function and tries the CANDIDATES_PER_STEP best distinct (layer, material)
+ * positions; the first whose settled structure lowers the merit, or null.
+ */
+function tryNeedles(ctx: GrowContext, current: Refined, reasons: Set<GrowStop>): Grown | null {
+  const layers = current.layers;
+  const candidates = ctx.needleMaterials
+    ? scanNeedlesAnalytic(current.merit, layers, ctx.needleMaterials, ctx.positionStep, ctx.outermostFixed)
+    : scanNeedles(
+        current.merit,
+        layers,
+        ctx.allowedCount,
+        ctx.stackOf,
+        ctx.positionStep,
+        ctx.residual,
+        ctx.outermostFixed,
+      );
+  const tried = new Set<string>();
+  for (const cand of candidates) {
+    const key = `${cand.layer}:${cand.material}`;
+    if (tried.has(key)) continue;
+    if (tried.size >= CANDIDATES_PER_STEP) break;
+    tried.add(key);
+    const result = settle(ctx, current, insertNeedle(layers, cand, ctx.needleNm), true, reasons);
+    if (better(result, current)) {
+      let depth = cand.offsetNm;
+      for (let j = 0; j < cand.layer; j++) depth += layers[j].thicknessNm;
+      return { refined: result, inserted: { material: ctx.names[cand.material], depthNm: depth } };
+    }
+  }
+  return null;
+}
+
+/**
+ * When no needle helps on its own: a whole layer of each allowed material at the front or next to
+ * the substrate (gradual evolution), from the minimum, a quarter and a half wave; the best refined
+ * result that lowers the merit, or null.
+ */
+function tryWholeLayers(ctx: GrowContext, current: Refined, reasons: Set<GrowStop>): Grown | null {
+  const layers = current.layers;
+  const total = layers.reduce((t, l) => t + l.thicknessNm, 0);
+  let best: Grown | null = null;
+  for (const side of ctx.outermostFixed ? (['substrate'] as const) : (['front', 'substrate'] as const)) {
+    for (let m = 0; m < ctx.allowedCount; m++) {
+      const neighbour = side === 'front' ? layers[0] : layers[layers.length - 1];
+      if (neighbour && neighbour.material === m) continue;
+      for (const startNm of [ctx.minNm, ctx.quarterWaveNm[m], 2 * ctx.quarterWaveNm[m]]) {
+        const layer = { material: m, thicknessNm: startNm };
+        const grown = side === 'front' ? [layer, ...layers] : [...layers, layer];
+        const result = settle(ctx, current, grown, false, reasons);
+        if (better(result, current) && (!best || result.sum < best.refined.sum)) {
+          best = {
+            refined: result,
+            inserted: { material: ctx.names[m], depthNm: side === 'front' ? 0 : total },
+          };
+        }
+      }
+    }
+  }
+  return best;
 }
 
 /**
@@ -354,6 +481,7 @@ function scanNeedles(
   stackOf: (list: readonly WorkLayer[]) => OpticalStack,
   positionStep: number,
   residual: Float64Array,
+  outermostFixed: boolean,
 ): Candidate[] {
   const L = layers.length;
   const f0 = merit.residuals(
@@ -384,7 +512,7 @@ function scanNeedles(
       const probe = merit.withStack(stackOf(split));
       const thicknesses = split.map((l) => l.thicknessNm);
       // The interface above layer j is scanned with layer j − 1 (its far end), except the front one.
-      for (let k = j === 0 ? 0 : 1; k <= count; k++) {
+      for (let k = j === 0 && !outermostFixed ? 0 : 1; k <= count; k++) {
         if (k === count && j < L - 1 && layers[j + 1].material === m) continue;
         if (k === 0 && j > 0 && layers[j - 1].material === m) continue;
         const a = (d * k) / count;
@@ -398,6 +526,72 @@ function scanNeedles(
     }
   }
   return out.filter((c) => c.derivative < 0).sort((x, y) => x.derivative - y.derivative);
+}
+
+/** ε = N² of each allowed material on the merit's wavelengths, for the needle function. */
+function needleMaterialTable(merit: MaskMerit, materials: readonly AllowedMaterial[]): NeedleMaterials {
+  const wavelengths = merit.plan.wavelengthsNm;
+  const nW = wavelengths.length;
+  const table = {
+    count: materials.length,
+    epsRe: new Float64Array(materials.length * nW),
+    epsIm: new Float64Array(materials.length * nW),
+  };
+  const samples = { n: new Float64Array(nW), k: new Float64Array(nW) };
+  materials.forEach((m, i) => {
+    evaluateIndex(samples, m.model, wavelengths, fieldPath(fieldPath('allowedMaterials', i), 'model'));
+    for (let w = 0; w < nW; w++) {
+      const n = samples.n[w];
+      const k = samples.k[w];
+      table.epsRe[i * nW + w] = n * n - k * k;
+      table.epsIm[i * nW + w] = 2 * n * k;
+    }
+  });
+  return table;
+}
+
+/**
+ * The needle scan from the analytic needle function (optics/derivatives.ts): ∂Σr²/∂Δ of a needle
+ * of each allowed material at every grid point, in one pass; the candidates that lower the merit,
+ * most negative first. Same positions and exclusions as {@link scanNeedles}.
+ */
+function scanNeedlesAnalytic(
+  merit: MaskMerit,
+  layers: readonly WorkLayer[],
+  materials: NeedleMaterials,
+  positionStep: number,
+  outermostFixed: boolean,
+): Candidate[] {
+  const L = layers.length;
+  const thicknesses = layers.map((l) => l.thicknessNm);
+  merit.compute(thicknesses);
+  const size = merit.plan.size;
+  const gR = new Float64Array(size);
+  const gT = new Float64Array(size);
+  merit.gradientWeights(gR, gT);
+  const grid = createNeedleGrid(thicknesses, positionStep);
+  const values = needleFunction(
+    new Float64Array(materials.count * grid.count),
+    merit.plan,
+    materials,
+    grid,
+    gR,
+    gT,
+  );
+  const out: Candidate[] = [];
+  for (let k = 0; k < grid.count; k++) {
+    if (k === 0 && outermostFixed) continue;
+    const j = grid.layer[k];
+    const offsetNm = grid.offsetNm[k];
+    const atBack = k > 0 && k < grid.count && offsetNm >= thicknesses[j];
+    for (let m = 0; m < materials.count; m++) {
+      if (L > 0 && layers[j].material === m) continue;
+      if (atBack && j < L - 1 && layers[j + 1].material === m) continue;
+      const derivative = values[m * grid.count + k];
+      if (derivative < 0) out.push({ layer: j, material: m, offsetNm, derivative });
+    }
+  }
+  return out.sort((x, y) => x.derivative - y.derivative);
 }
 
 /** The layers with a needle of `cand.material` inserted (zero-thickness parts left out). */

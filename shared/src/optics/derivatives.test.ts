@@ -1,0 +1,160 @@
+/*
+ * Checks of the analytic thickness derivatives and needle function against central differences of
+ * computeSpectrum (the characteristic-matrix method, Macleod, Thin-Film Optical Filters, ch. 2; the
+ * needle function of A. V. Tikhonravov, M. K. Trubetskov, G. W. DeBell, Appl. Opt. 35, 5493 (1996)).
+ */
+import { describe, expect, it } from 'vitest';
+import {
+  calculateSpectrum,
+  computeSpectrum,
+  createSpectrumOutput,
+  createSpectrumPlan,
+  setLayerThicknesses,
+  type Polarisation,
+} from './batch.js';
+import {
+  computeThicknessDerivatives,
+  createNeedleGrid,
+  createThicknessDerivatives,
+  needleFunction,
+} from './derivatives.js';
+import { constantIndex } from './dispersion.js';
+import type { OpticalStack } from './stack.js';
+import { randomLayers, seededRandom } from './__tests__/random.js';
+
+function randomStack(seed: number): OpticalStack {
+  const rand = seededRandom(seed);
+  const layers = randomLayers(rand, { absorbing: 0.5, maxK: 0.5, maxLayers: 8, substrateK: 0 });
+  return {
+    incident: constantIndex(1 + 0.6 * rand()),
+    layers: layers.map((l) => ({ material: constantIndex(l.n, l.k), thicknessNm: 5 + l.thicknessNm })),
+    substrate: constantIndex(1.3 + rand(), rand() < 0.5 ? 0.2 * rand() : 0),
+    backLayers: [],
+    exit: constantIndex(1),
+  };
+}
+
+/** Central difference (f(d + h) − f(d − h))/2h, h = 1e-4 nm: truncation error ~h², far below 1e-7. */
+function centralDifferences(stack: OpticalStack, grid: Parameters<typeof createSpectrumPlan>[1]) {
+  const plan = createSpectrumPlan(stack, grid);
+  const out = createSpectrumOutput(plan);
+  const L = stack.layers.length;
+  const base = stack.layers.map((l) => l.thicknessNm);
+  const dR = new Float64Array(L * plan.size);
+  const dT = new Float64Array(L * plan.size);
+  const h = 1e-4;
+  for (let l = 0; l < L; l++) {
+    const d = [...base];
+    d[l] = base[l] + h;
+    setLayerThicknesses(plan, d);
+    computeSpectrum(out, plan);
+    const Rp = Float64Array.from(out.R);
+    const Tp = Float64Array.from(out.T);
+    d[l] = base[l] - h;
+    setLayerThicknesses(plan, d);
+    computeSpectrum(out, plan);
+    for (let i = 0; i < plan.size; i++) {
+      dR[l * plan.size + i] = (Rp[i] - out.R[i]) / (2 * h);
+      dT[l * plan.size + i] = (Tp[i] - out.T[i]) / (2 * h);
+    }
+  }
+  return { dR, dT };
+}
+
+const polarisations: Polarisation[] = ['s', 'p', 'avg'];
+
+describe('analytic thickness derivatives', () => {
+  it.each([1, 2, 3, 4, 5, 6, 7, 8])(
+    'match central differences on random absorbing stack %i, oblique s, p',
+    (seed) => {
+      const stack = randomStack(seed);
+      const grid = { wavelengthsNm: [420, 555.5, 910], anglesDeg: [0, 37, 71], polarisations };
+      const plan = createSpectrumPlan(stack, grid);
+      const analytic = computeThicknessDerivatives(createThicknessDerivatives(plan), plan);
+      const numeric = centralDifferences(stack, grid);
+      let scale = 0;
+      for (const v of numeric.dR) scale = Math.max(scale, Math.abs(v));
+      for (const v of numeric.dT) scale = Math.max(scale, Math.abs(v));
+      for (let i = 0; i < numeric.dR.length; i++) {
+        // Relative to the largest derivative of the case: a central difference's rounding noise
+        // (~1e-16/h) swamps single tiny entries.
+        expect(Math.abs(analytic.dR[i] - numeric.dR[i])).toBeLessThan(1e-7 * scale);
+        expect(Math.abs(analytic.dT[i] - numeric.dT[i])).toBeLessThan(1e-7 * scale);
+      }
+      expect(scale).toBeGreaterThan(1e-5);
+    },
+  );
+});
+
+describe('analytic needle function', () => {
+  it.each([11, 12, 13, 14])('matches probing with a 0.01 nm layer on random absorbing stack %i', (seed) => {
+    const stack = randomStack(seed);
+    const rand = seededRandom(seed + 100);
+    const grid = { wavelengthsNm: [450, 640], anglesDeg: [0, 45], polarisations };
+    const plan = createSpectrumPlan(stack, grid);
+    const gR = Float64Array.from({ length: plan.size }, () => rand() - 0.5);
+    const gT = Float64Array.from({ length: plan.size }, () => rand() - 0.5);
+    const needles = [constantIndex(2.3, 0.01), constantIndex(1.38)];
+    const nW = grid.wavelengthsNm.length;
+    const materials = {
+      count: needles.length,
+      epsRe: new Float64Array(needles.length * nW),
+      epsIm: new Float64Array(needles.length * nW),
+    };
+    needles.forEach((m, i) => {
+      const k = m.k ?? 0;
+      for (let w = 0; w < nW; w++) {
+        materials.epsRe[i * nW + w] = m.n * m.n - k * k;
+        materials.epsIm[i * nW + w] = 2 * m.n * k;
+      }
+    });
+    const depths = createNeedleGrid(
+      stack.layers.map((l) => l.thicknessNm),
+      25,
+    );
+    const analytic = needleFunction(
+      new Float64Array(needles.length * depths.count),
+      plan,
+      materials,
+      depths,
+      gR,
+      gT,
+    );
+    const merit = (s: OpticalStack) => {
+      const res = calculateSpectrum(s, grid);
+      let f = 0;
+      for (let i = 0; i < plan.size; i++) f += gR[i] * res.R[i] + gT[i] * res.T[i];
+      return f;
+    };
+    const f0 = merit(stack);
+    const probe = (point: number, m: number, thicknessNm: number) => {
+      const j = depths.layer[point];
+      const host = stack.layers[j];
+      const layers = [
+        ...stack.layers.slice(0, j),
+        { material: host.material, thicknessNm: depths.offsetNm[point] },
+        { material: needles[m], thicknessNm },
+        { material: host.material, thicknessNm: host.thicknessNm - depths.offsetNm[point] },
+        ...stack.layers.slice(j + 1),
+      ];
+      return (merit({ ...stack, layers }) - f0) / thicknessNm;
+    };
+    let scale = 0;
+    const probed: number[] = [];
+    for (let m = 0; m < needles.length; m++) {
+      for (let k = 0; k < depths.count; k++) {
+        const coarse = probe(k, m, 0.01);
+        const fine = probe(k, m, 0.005);
+        // Probing with 0.01 nm is first-order accurate; Richardson's 2·fine − coarse removes the
+        // O(Δ) term so the check can be tight.
+        probed.push(coarse, 2 * fine - coarse);
+        scale = Math.max(scale, Math.abs(coarse));
+      }
+    }
+    for (let i = 0; i < needles.length * depths.count; i++) {
+      expect(Math.abs(analytic[i] - probed[2 * i])).toBeLessThan(1e-3 * scale);
+      expect(Math.abs(analytic[i] - probed[2 * i + 1])).toBeLessThan(1e-6 * scale);
+    }
+    expect(scale).toBeGreaterThan(1e-4);
+  });
+});
