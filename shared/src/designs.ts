@@ -104,7 +104,9 @@ export function designStackDescription(
 ): StackDescription {
   const lookup = (id: number, where: string): NamedModel => {
     const found =
-      materials instanceof Map ? materials.get(id) : (materials as Record<string, NamedModel>)[String(id)];
+      materials instanceof Map
+        ? (materials as ReadonlyMap<number, NamedModel>).get(id)
+        : (materials as Record<string, NamedModel>)[String(id)];
     if (!found) throw new Error(`${where}: material ${id} is not in the materials library`);
     return found;
   };

@@ -35,7 +35,7 @@ export class AuditService {
     const repo = tx.getRepository(AuditEvent);
     await repo.save(
       repo.create({
-        actor: entry.actor ? ({ id: entry.actor.id } as User) : null,
+        actor: entry.actor ? { id: entry.actor.id } : null,
         entity: entry.entity,
         entityId: entry.entityId,
         action: entry.action,

@@ -2,7 +2,8 @@ import { Body, Controller, Get, HttpCode, Inject, Post, Req, Res } from '@nestjs
 import type { Request, Response } from 'express';
 import type { UserView } from '@quietglass/shared';
 import { appConfig, type AppConfig } from '../config/configuration.js';
-import { toUserView, type User } from '../users/user.entity.js';
+import type { User } from '../users/user.entity.js';
+import { toUserView } from '../users/user-view.js';
 import { AuthService } from './auth.service.js';
 import { CurrentSession, CurrentUser, type AuthedRequest } from './current-user.decorator.js';
 import { ChangePasswordDto } from './dto/change-password.dto.js';

@@ -54,7 +54,7 @@ export class SignInLimiter implements OnModuleDestroy {
     this.shopFailures = make('shop-fails', config.signInGlobalFailures, windowSeconds);
   }
 
-  async onModuleDestroy(): Promise<void> {
+  onModuleDestroy(): void {
     this.redis.disconnect();
   }
 

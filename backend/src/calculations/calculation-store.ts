@@ -21,19 +21,19 @@ export class CalculationStore {
 
   /** Marks the calculation running by `worker` and returns its input; null when it is no longer queued or running. */
   async claim(id: number, worker: string): Promise<{ input: unknown } | null> {
-    const claimed = (await this.db.query(
+    const claimed = await this.db.query<[{ input: unknown }[], number]>(
       `UPDATE calculations SET status = 'running', started_at = now(), attempts = attempts + 1, processed_by = $2
        WHERE id = $1 AND status IN ('queued', 'running') RETURNING input`,
       [id, worker],
-    )) as [{ input: unknown }[], number];
+    );
     return claimed[0][0] ?? null;
   }
 
   /** Whether the calculation is still running (false once it is cancelled). */
   async isRunning(id: number): Promise<boolean> {
-    const rows = (await this.db.query('SELECT status FROM calculations WHERE id = $1', [id])) as {
-      status: string;
-    }[];
+    const rows = await this.db.query<{ status: string }[]>('SELECT status FROM calculations WHERE id = $1', [
+      id,
+    ]);
     return rows[0]?.status === 'running';
   }
 

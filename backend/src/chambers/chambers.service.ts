@@ -69,7 +69,7 @@ export class ChambersService {
           action: 'edited',
           summary: `chamber "${dto.name}" edited (version ${dto.version} → ${dto.version + 1})`,
           details: {
-            before: { ...fields(before as unknown as ChamberDto) },
+            before: { ...fields(before) },
             after: { ...fields(dto) },
           },
         });

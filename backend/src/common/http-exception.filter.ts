@@ -61,11 +61,11 @@ export function toErrorBody(exception: unknown): ErrorBody {
     return {
       statusCode: 400,
       error: REASONS[400],
-      message: (cause ?? (exception as Error)).toString().replace(/^Error: /, ''),
+      message: String((cause instanceof JsonTooDeepError ? cause : (exception as JsonTooDeepError)).message),
     };
   }
   if (exception instanceof HttpException) {
-    const statusCode = exception.getStatus();
+    const statusCode: HttpStatus = exception.getStatus();
     const response = exception.getResponse();
     const error = REASONS[statusCode] ?? 'Error';
     if (statusCode === HttpStatus.TOO_MANY_REQUESTS) {

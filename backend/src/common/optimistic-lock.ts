@@ -37,7 +37,7 @@ export async function updateIfVersion<T extends ObjectLiteral>(
     .set({
       ...change.set,
       [versionColumn.propertyName]: () => `"${column}" + 1`,
-    } as QueryDeepPartialEntity<T>)
+    })
     .where(
       `id = :lockedId AND "${column}" = :expectedVersion${change.where ? ` AND (${change.where})` : ''}`,
       {

@@ -71,7 +71,7 @@ const DEMO_SEED = 'larkspur-demo-shop';
  * it created.
  */
 export async function seedDemo(db: DataSource, signIns: DemoSignIn[]): Promise<number> {
-  const [done] = (await db.query('SELECT 1 FROM demo_seeds WHERE name = $1', [DEMO_SEED])) as unknown[];
+  const [done] = await db.query<unknown[]>('SELECT 1 FROM demo_seeds WHERE name = $1', [DEMO_SEED]);
   if (done) return 0;
   const earlier = await db.getRepository(User).existsBy({ email: DEMO_USERS[0].email });
   const created = earlier ? 0 : await createDemo(db, signIns);

@@ -256,10 +256,10 @@ export class DesignsService {
     await this.checkMaterials({ ...content(from), layers });
     const number = await this.db.transaction(async (tx) => {
       await tx.query('SELECT id FROM designs WHERE id = $1 FOR UPDATE', [id]);
-      const [{ max }] = (await tx.query(
+      const [{ max }] = await tx.query<{ max: number }[]>(
         'SELECT max(number) AS max FROM design_versions WHERE design_id = $1',
         [id],
-      )) as { max: number }[];
+      );
       const next = Number(max) + 1;
       await tx
         .getRepository(DesignVersion)

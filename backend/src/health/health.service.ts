@@ -135,7 +135,9 @@ export class HealthService implements OnModuleInit, OnModuleDestroy {
     const started = Date.now();
     try {
       const { value, latencyMs } = await timed(() => withTimeout(this.redis.ping(), 2000, 'redis ping'));
-      return value === 'PONG' ? { ok: true, latencyMs } : { ok: false, error: `unexpected reply ${value}` };
+      return value === 'PONG'
+        ? { ok: true, latencyMs }
+        : { ok: false, error: `unexpected reply ${String(value)}` };
     } catch (err) {
       return failure(err, started);
     }

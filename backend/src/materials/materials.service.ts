@@ -210,11 +210,11 @@ async function frozenVersions(
   tx: EntityManager,
   materialId: number,
 ): Promise<{ designId: number; number: number }[]> {
-  return (await tx.query(
+  return tx.query<{ designId: number; number: number }[]>(
     `SELECT design_id AS "designId", version_number AS number FROM material_uses
      WHERE material_id = $1 ORDER BY design_id, version_number`,
     [materialId],
-  )) as { designId: number; number: number }[];
+  );
 }
 
 /** Whether an edit changes what a frozen version's snapshot holds (name, model or range). */

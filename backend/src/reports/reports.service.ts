@@ -12,7 +12,6 @@ import { parseStack } from '@quietglass/shared/optics/stack';
 import type { ReportBandRow, ReportSummary } from '@quietglass/shared/reports';
 import { appConfig, type AppConfig } from '../config/configuration.js';
 import { missingAsBadRequest, orNull } from '../common/not-found.js';
-import type { Design } from '../designs/design.entity.js';
 import { ApprovalsService } from '../designs/approvals.service.js';
 import { DesignsService } from '../designs/designs.service.js';
 import type { RunSpectrum } from '../runs/run.entity.js';
@@ -46,7 +45,7 @@ export class ReportsService {
         ],
       });
     }
-    const design = version.design as Design;
+    const design = version.design;
     const maskId = dto.specMaskId ?? design.specMaskId;
     if (!maskId)
       throw new BadRequestException({ message: ['specMaskId: the design has no spec mask; choose one'] });

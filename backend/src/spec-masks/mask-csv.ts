@@ -94,7 +94,7 @@ export function maskToCsv(bands: readonly LimitBand[]): string {
       const v = (b as unknown as Record<string, unknown>)[c];
       if (v === undefined || v === null) return '';
       if (Array.isArray(v)) return v.join(';');
-      return typeof v === 'number' ? v : String(v);
+      return typeof v === 'number' ? v : typeof v === 'string' ? v : JSON.stringify(v);
     }),
   );
   return writeCsv(MASK_CSV_COLUMNS, rows);

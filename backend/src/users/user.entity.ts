@@ -1,5 +1,5 @@
 import { Column, CreateDateColumn, Entity, PrimaryGeneratedColumn, UpdateDateColumn } from 'typeorm';
-import type { Role, UserView } from '@quietglass/shared';
+import type { Role } from '@quietglass/shared';
 
 @Entity({ name: 'users' })
 export class User {
@@ -31,17 +31,4 @@ export class User {
 
   @UpdateDateColumn({ name: 'updated_at', type: 'timestamptz' })
   updatedAt: Date;
-}
-
-/** The user as the API shows it: never the password hash. */
-export function toUserView(user: User): UserView {
-  return {
-    id: user.id,
-    email: user.email,
-    displayName: user.displayName,
-    role: user.role,
-    active: user.active,
-    mustChangePassword: user.mustChangePassword,
-    createdAt: user.createdAt.toISOString(),
-  };
 }

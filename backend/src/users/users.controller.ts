@@ -5,7 +5,8 @@ import { CurrentUser } from '../auth/current-user.decorator.js';
 import { CreateUserDto } from './dto/create-user.dto.js';
 import { UpdateUserDto } from './dto/update-user.dto.js';
 import { SetPasswordDto } from './dto/set-password.dto.js';
-import { toUserView, type User } from './user.entity.js';
+import type { User } from './user.entity.js';
+import { toUserView } from './user-view.js';
 import { UsersService } from './users.service.js';
 
 @Controller('users')

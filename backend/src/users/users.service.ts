@@ -76,9 +76,9 @@ export class UsersService {
     const actorId = actor.id;
     await this.get(id);
     return this.users.manager.transaction(async (tx) => {
-      const admins = (await tx.query(
+      const admins = await tx.query<{ id: number }[]>(
         `SELECT id FROM users WHERE role = 'admin' AND active ORDER BY id FOR UPDATE`,
-      )) as { id: number }[];
+      );
       if (!admins.some((a) => a.id === actorId))
         throw new ForbiddenException('You are no longer an active admin; reload the page');
       const user = await tx

@@ -147,7 +147,7 @@ export class ComputeProcessor extends WorkerHost implements OnModuleInit, OnModu
     const id = job.data.calculationId;
     const rows = await this.claim(id);
     if (!rows) return { calculationId: id, outcome: 'skipped' };
-    const input = rows.input as unknown as OptimiseInput;
+    const input = rows.input as OptimiseInput;
     const started = performance.now();
     const watch = this.watchCancel(id);
     let result: unknown;

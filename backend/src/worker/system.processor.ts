@@ -9,9 +9,13 @@ import { PING_JOB, SYSTEM_QUEUE, type PingResult } from '../queue/queue.constant
 export class SystemProcessor extends WorkerHost {
   private readonly logger = new Logger('System');
 
-  async process(job: Job): Promise<PingResult> {
-    if (job.name !== PING_JOB) throw new Error(`Unknown system job "${job.name}"`);
-    return { workerPid: process.pid, host: os.hostname(), answeredAt: new Date().toISOString() };
+  process(job: Job): Promise<PingResult> {
+    if (job.name !== PING_JOB) return Promise.reject(new Error(`Unknown system job "${job.name}"`));
+    return Promise.resolve({
+      workerPid: process.pid,
+      host: os.hostname(),
+      answeredAt: new Date().toISOString(),
+    });
   }
 
   /** Redis connection trouble: BullMQ reconnects by itself; the process carries on. */

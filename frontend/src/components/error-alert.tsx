@@ -12,7 +12,8 @@ interface ErrorAlertProps {
 /** Shows an error's message, the API's per-field details when it sent some, and a server error's reference. */
 export function ErrorAlert({ error, title, sx }: ErrorAlertProps) {
   if (error === null || error === undefined) return null;
-  const message = error instanceof Error ? error.message : String(error);
+  const message =
+    error instanceof Error ? error.message : typeof error === 'string' ? error : 'Something went wrong';
   const details = error instanceof ApiError ? error.details.filter((d) => d !== message) : [];
   // A server error names its request, so whoever reports it can point at the log entry.
   const body = error instanceof ApiError ? (error.body as { requestId?: unknown } | undefined) : undefined;

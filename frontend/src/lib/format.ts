@@ -37,3 +37,11 @@ export function parseNumberList(text: string): number[] | null {
   const values = parts.map(parseNumberInput);
   return values.every((v): v is number => v !== null) ? values : null;
 }
+
+/** A form field's value as the text typed: strings as they are, numbers in their usual form, anything else empty. */
+export function fieldText(value: unknown): string {
+  if (typeof value === 'string') return value;
+  if (typeof value === 'number' || typeof value === 'bigint' || typeof value === 'boolean')
+    return String(value);
+  return '';
+}

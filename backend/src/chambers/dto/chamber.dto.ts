@@ -14,7 +14,7 @@ import {
   MinLength,
   ValidateNested,
 } from 'class-validator';
-import { finite } from '../../common/dto.js';
+import { finite, trim } from '../../common/dto.js';
 
 export class ChamberMaterialDto {
   @IsInt({ message: 'materialId must be a material id' })
@@ -32,7 +32,7 @@ export class ChamberMaterialDto {
 }
 
 export class ChamberDto {
-  @Transform(({ value }) => (typeof value === 'string' ? value.trim() : value))
+  @Transform(trim)
   @IsString()
   @MinLength(1, { message: 'name must not be empty' })
   @MaxLength(120)

@@ -15,7 +15,7 @@ import {
   ValidateNested,
 } from 'class-validator';
 import { CUSTOMER_LIMITS as L } from '@quietglass/shared/customers';
-import { trim } from '../../common/dto.js';
+import { trim, trimLower } from '../../common/dto.js';
 
 /** E-mail addresses are kept trimmed and in lower case; an empty one means none. */
 const emailValue = ({ value }: { value: unknown }): unknown =>
@@ -34,7 +34,7 @@ export class CustomerContactDto {
     format: 'email',
     example: 'ines@quillon.example',
   })
-  @Transform(({ value }) => (typeof value === 'string' ? value.trim().toLowerCase() : value))
+  @Transform(trimLower)
   @IsEmail({}, { message: 'email must be a valid e-mail address' })
   @MaxLength(L.contactEmail)
   email: string;

@@ -17,7 +17,7 @@ import {
   MinLength,
   ValidateNested,
 } from 'class-validator';
-import { finite } from '../../common/dto.js';
+import { finite, trim, trimLower } from '../../common/dto.js';
 
 /** Prices: finite, at most 4 decimals. */
 const money = { ...finite, maxDecimalPlaces: 4 } as const;
@@ -37,7 +37,7 @@ export class QuoteDto {
   @IsInt({ message: 'customerId must be a customer id' })
   customerId: number;
 
-  @Transform(({ value }) => (typeof value === 'string' ? value.trim().toLowerCase() : value))
+  @Transform(trimLower)
   @IsEmail({}, { message: 'contactEmail must be a valid e-mail address' })
   contactEmail: string;
 
@@ -51,7 +51,7 @@ export class QuoteDto {
   @IsInt({ message: 'specMaskId must be a spec mask id' })
   specMaskId?: number;
 
-  @Transform(({ value }) => (typeof value === 'string' ? value.trim() : value))
+  @Transform(trim)
   @IsString()
   @MinLength(1, { message: 'partDescription must not be empty' })
   @MaxLength(2000)

@@ -2,14 +2,15 @@ import { Transform } from 'class-transformer';
 import { IsEmail, IsIn, IsString, MaxLength, MinLength } from 'class-validator';
 import { ROLES, type Role } from '@quietglass/shared';
 import { MIN_PASSWORD_LENGTH } from '../passwords.js';
+import { trim, trimLower } from '../../common/dto.js';
 
 export class CreateUserDto {
-  @Transform(({ value }) => (typeof value === 'string' ? value.trim().toLowerCase() : value))
+  @Transform(trimLower)
   @IsEmail({}, { message: 'email must be a valid e-mail address' })
   @MaxLength(254)
   email: string;
 
-  @Transform(({ value }) => (typeof value === 'string' ? value.trim() : value))
+  @Transform(trim)
   @IsString()
   @MinLength(1, { message: 'displayName must not be empty' })
   @MaxLength(120)

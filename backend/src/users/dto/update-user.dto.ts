@@ -1,10 +1,11 @@
 import { Transform } from 'class-transformer';
 import { IsBoolean, IsIn, IsOptional, IsString, MaxLength, MinLength } from 'class-validator';
 import { ROLES, type Role } from '@quietglass/shared';
+import { trim } from '../../common/dto.js';
 
 export class UpdateUserDto {
   @IsOptional()
-  @Transform(({ value }) => (typeof value === 'string' ? value.trim() : value))
+  @Transform(trim)
   @IsString()
   @MinLength(1, { message: 'displayName must not be empty' })
   @MaxLength(120)

@@ -5,7 +5,7 @@
  * validity date after today (UTC, the shop's calendar); terms at most 8000 characters.
  */
 import type { Role } from '@quietglass/shared';
-import { parseNumberInput } from '../../lib/format';
+import { parseNumberInput, fieldText } from '../../lib/format';
 import type { QuoteInput } from './api/create-quote';
 import type { QuoteView } from './api/get-quotes';
 
@@ -110,7 +110,7 @@ export const partDescriptionRule: Rule = (value) => {
 };
 
 export const termsRule: Rule = (value) =>
-  String(value ?? '').length <= MAX_TERMS || `At most ${MAX_TERMS} characters`;
+  fieldText(value).length <= MAX_TERMS || `At most ${MAX_TERMS} characters`;
 
 export function emptyQuoteValues(): QuoteFormValues {
   return {

@@ -94,10 +94,10 @@ export function ApprovalPanel({ version, userId, canAct, onTransitioned }: Appro
     transition.mutate(
       { designId: version.designId, number: version.number, action, comment },
       {
-        onSuccess: async (view) => {
+        onSuccess: (view) => {
           notify(`Version ${view.number} ${DONE[action]}.`, 'success');
           setAction(null);
-          await onTransitioned(view);
+          void onTransitioned(view);
         },
       },
     );

@@ -60,7 +60,7 @@ const FIT: FitResult = {
 };
 
 function calc(overrides: Partial<CalculationView>): CalculationView {
-  return { ...testCalculation(), kind: 'fit', request: {}, ...overrides } as CalculationView;
+  return { ...testCalculation(), kind: 'fit', request: {}, ...overrides };
 }
 
 /** A poll answer the test can change while the panel polls. */

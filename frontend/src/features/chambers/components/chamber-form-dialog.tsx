@@ -25,6 +25,7 @@ import {
   valuesOfChamber,
   type ChamberFormValues,
 } from '../chamber-form';
+import { fieldText } from '../../../lib/format';
 
 interface ChamberFormDialogProps {
   open: boolean;
@@ -92,14 +93,14 @@ export function ChamberFormDialog({ open, chamber, materials, onClose }: Chamber
           control={control}
           name="name"
           label="Name"
-          rules={{ validate: (v) => chamberRules.name(String(v)) }}
+          rules={{ validate: (v) => chamberRules.name(fieldText(v)) }}
         />
         <FormTextField
           control={control}
           name="monitorWavelengths"
           label="Monitor wavelengths (nm)"
           helperText="e.g. 550, 632.8"
-          rules={{ validate: (v) => chamberRules.monitorWavelengths(String(v)) }}
+          rules={{ validate: (v) => chamberRules.monitorWavelengths(fieldText(v)) }}
         />
         <FormSelectField
           control={control}
@@ -107,7 +108,7 @@ export function ChamberFormDialog({ open, chamber, materials, onClose }: Chamber
           label="Monitor chip material"
           placeholder="Choose…"
           options={options}
-          rules={{ validate: (v) => chamberRules.monitorChip(String(v)) }}
+          rules={{ validate: (v) => chamberRules.monitorChip(fieldText(v)) }}
         />
       </Box>
       <Box component="fieldset" aria-label="Tooling factors and rates" sx={{ border: 0, p: 0, m: 0 }}>
@@ -139,7 +140,7 @@ export function ChamberFormDialog({ open, chamber, materials, onClose }: Chamber
                 placeholder="Choose…"
                 options={options}
                 rules={{
-                  validate: (v, all) => chamberRules.material(String(v), all.materials, index, nameOf),
+                  validate: (v, all) => chamberRules.material(fieldText(v), all.materials, index, nameOf),
                 }}
               />
               <FormTextField
@@ -147,14 +148,14 @@ export function ChamberFormDialog({ open, chamber, materials, onClose }: Chamber
                 name={`materials.${index}.toolingFactor`}
                 label="Tooling factor"
                 size="small"
-                rules={{ validate: (v) => chamberRules.toolingFactor(String(v)) }}
+                rules={{ validate: (v) => chamberRules.toolingFactor(fieldText(v)) }}
               />
               <FormTextField
                 control={control}
                 name={`materials.${index}.rateNmPerS`}
                 label="Rate (nm/s)"
                 size="small"
-                rules={{ validate: (v) => chamberRules.rate(String(v)) }}
+                rules={{ validate: (v) => chamberRules.rate(fieldText(v)) }}
               />
               <IconButton aria-label={`Remove material row ${index + 1}`} onClick={() => remove(index)}>
                 <DeleteOutlined fontSize="small" />
@@ -172,7 +173,7 @@ export function ChamberFormDialog({ open, chamber, materials, onClose }: Chamber
         label="Notes"
         multiline
         minRows={2}
-        rules={{ validate: (v) => chamberRules.notes(String(v)) }}
+        rules={{ validate: (v) => chamberRules.notes(fieldText(v)) }}
       />
     </FormDialog>
   );

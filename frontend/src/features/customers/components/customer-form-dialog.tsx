@@ -17,6 +17,7 @@ import { ApiError } from '../../../lib/api-client';
 import { notify } from '../../../lib/notifier';
 import { getCustomersQueryOptions, type CustomerView } from '../api/get-customers';
 import { useSaveCustomer, type CustomerInput } from '../api/save-customer';
+import { fieldText } from '../../../lib/format';
 
 interface ContactValues {
   name: string;
@@ -147,7 +148,7 @@ export function CustomerFormDialog({ open, customer, onClose, onSaved }: Custome
         <FormTextField
           control={control}
           name="name"
-          rules={{ validate: (v) => String(v).trim() !== '' || 'Enter a name', maxLength: max(L.name) }}
+          rules={{ validate: (v) => fieldText(v).trim() !== '' || 'Enter a name', maxLength: max(L.name) }}
           label="Name"
           size="small"
           autoFocus
@@ -157,7 +158,7 @@ export function CustomerFormDialog({ open, customer, onClose, onSaved }: Custome
           name="contactEmail"
           rules={{
             validate: (v) =>
-              String(v).trim() === '' || EMAIL.test(String(v).trim()) || 'An e-mail address, or empty',
+              fieldText(v).trim() === '' || EMAIL.test(fieldText(v).trim()) || 'An e-mail address, or empty',
           }}
           label="Quote e-mail"
           size="small"
@@ -196,7 +197,7 @@ export function CustomerFormDialog({ open, customer, onClose, onSaved }: Custome
             control={control}
             name={`contacts.${i}.name`}
             rules={{
-              validate: (v) => String(v).trim() !== '' || 'Enter a name',
+              validate: (v) => fieldText(v).trim() !== '' || 'Enter a name',
               maxLength: max(L.contactName),
             }}
             label="Contact name"
@@ -206,7 +207,7 @@ export function CustomerFormDialog({ open, customer, onClose, onSaved }: Custome
             control={control}
             name={`contacts.${i}.email`}
             rules={{
-              validate: (v) => EMAIL.test(String(v).trim()) || 'A valid e-mail address',
+              validate: (v) => EMAIL.test(fieldText(v).trim()) || 'A valid e-mail address',
               maxLength: max(L.contactEmail),
             }}
             label="E-mail"

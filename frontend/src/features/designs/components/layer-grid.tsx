@@ -17,6 +17,7 @@ import ToggleButtonGroup from '@mui/material/ToggleButtonGroup';
 import Typography from '@mui/material/Typography';
 import {
   DataGrid,
+  GridCellEditStartReasons,
   GridEditSingleSelectCell,
   useGridApiContext,
   useGridApiRef,
@@ -25,7 +26,7 @@ import {
   type GridRowSelectionModel,
 } from '@mui/x-data-grid';
 import { useMemo, useState, type ClipboardEvent, type ReactNode } from 'react';
-import { parseNumberInput } from '../../../lib/format';
+import { parseNumberInput, fieldText } from '../../../lib/format';
 import {
   emptyRow,
   formatQwot,
@@ -87,10 +88,10 @@ function MaterialEditCell(props: GridRenderEditCellParams<GridRow>) {
   return (
     <GridEditSingleSelectCell
       {...props}
-      onValueChange={async (event) => {
+      onValueChange={(event) => {
         if ('key' in event && event.key) return;
         if (apiRef.current.getCellMode(props.id, props.field) !== 'edit') return;
-        await apiRef.current.stopCellEditMode({ id: props.id, field: props.field });
+        apiRef.current.stopCellEditMode({ id: props.id, field: props.field });
       }}
     />
   );
@@ -178,7 +179,7 @@ export function LayerGrid({
         sortable: false,
         valueSetter: (value: unknown, row) => ({
           ...row,
-          thicknessNm: String(value ?? '').trim(),
+          thicknessNm: fieldText(value).trim(),
           qwotInput: null,
         }),
         renderCell: ({ row }) => {
@@ -204,7 +205,7 @@ export function LayerGrid({
           return qwot === null ? '' : formatQwot(qwot);
         },
         valueSetter: (value: unknown, row) => {
-          const text = String(value ?? '').trim();
+          const text = fieldText(value).trim();
           // An empty QWOT cell (left without typing) keeps the thickness.
           if (text === '') return row;
           // An unchanged cell (edit opened and left) keeps the exact thickness behind the rounded QWOT.
@@ -443,7 +444,7 @@ export function LayerGrid({
           }
           onCellEditStart={(params, event) => {
             // Ctrl+V on a cell is a paste into the grid (rows or one value), handled by onPaste.
-            if (params.reason === 'pasteKeyDown') event.defaultMuiPrevented = true;
+            if (params.reason === GridCellEditStartReasons.pasteKeyDown) event.defaultMuiPrevented = true;
           }}
           onCellKeyDown={(params, event) => {
             if (event.key !== 'Tab' || readOnly) return;

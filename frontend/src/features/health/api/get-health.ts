@@ -12,7 +12,7 @@ export interface HealthReport {
 function isHealthReport(value: unknown): value is HealthReport {
   if (typeof value !== 'object' || value === null) return false;
   const v = value as Record<string, unknown>;
-  const part = (key: string) => typeof v[key] === 'object' && v[key] !== null && 'ok' in (v[key] as object);
+  const part = (key: string) => typeof v[key] === 'object' && v[key] !== null && 'ok' in v[key];
   return (
     (v.status === 'ok' || v.status === 'degraded') && ['database', 'redis', 'queue', 'worker'].every(part)
   );

@@ -60,7 +60,7 @@ export function OutboxGrid({ selectedId, onSelect }: OutboxGridProps) {
       loading={outbox.isPending}
       autoHeight
       rowSelectionModel={{ type: 'include', ids: new Set(selectedId === null ? [] : [selectedId]) }}
-      onRowClick={({ row }) => onSelect(row.id)}
+      onRowClick={({ row }: { row: { id: number } }) => onSelect(row.id)}
       initialState={{ sorting: { sortModel: [{ field: 'receivedAt', sort: 'desc' }] } }}
       localeText={{ noRowsLabel: 'No messages sent yet' }}
     />

@@ -35,6 +35,7 @@ import {
   validUntilRule,
   type QuoteFormValues,
 } from '../quote-form';
+import { fieldText } from '../../../lib/format';
 
 export interface QuoteCustomerChoice {
   id: number;
@@ -184,7 +185,7 @@ export function QuoteFormDialog({
           name="contactEmail"
           label="Contact e-mail"
           type="email"
-          rules={{ ...emailRules, validate: (v) => emailRules.validate(String(v)) }}
+          rules={{ ...emailRules, validate: (v) => emailRules.validate(fieldText(v)) }}
         />
         <FormSelectField
           control={control}

@@ -9,6 +9,7 @@ import { FormTextField } from '../../../components/form-text-field';
 import { notify } from '../../../lib/notifier';
 import type { DurabilityResult, RunView } from '../api/get-runs';
 import { useUpdateRun } from '../api/update-run';
+import { fieldText } from '../../../lib/format';
 
 /**
  * The tests this form records; results of other tests the run holds are kept as they are. The
@@ -111,7 +112,7 @@ export function DurabilityForm({ run, canEdit }: { run: RunView; canEdit: boolea
               rules={{
                 validate: (v, all) =>
                   all[test].result === '' ||
-                  String(v).trim() !== '' ||
+                  fieldText(v).trim() !== '' ||
                   'Name the test procedure followed (e.g. ISO 9211-4, tape adhesion)',
                 maxLength: { value: MAX_METHOD, message: `At most ${MAX_METHOD} characters` },
               }}

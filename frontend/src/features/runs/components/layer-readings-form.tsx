@@ -10,7 +10,7 @@ import Typography from '@mui/material/Typography';
 import { useForm } from 'react-hook-form';
 import { ErrorAlert } from '../../../components/error-alert';
 import { FormTextField } from '../../../components/form-text-field';
-import { parseNumberInput } from '../../../lib/format';
+import { parseNumberInput, fieldText } from '../../../lib/format';
 import { notify } from '../../../lib/notifier';
 import type { RecipeView } from '../run-inputs';
 import type { LayerReading, RunView } from '../api/get-runs';
@@ -57,7 +57,7 @@ const MAX_RUN_NOTES = 4000;
 
 function positiveOrEmpty(what: string) {
   return (v: unknown) => {
-    const text = String(v ?? '');
+    const text = fieldText(v);
     return text.trim() === '' || (parseNumberInput(text) ?? 0) > 0 || `${what} must be a number > 0`;
   };
 }

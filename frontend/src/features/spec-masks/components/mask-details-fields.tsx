@@ -4,6 +4,7 @@ import { FormSelectField, NEW_CUSTOMER_OPTION, namedOptions } from '../../../com
 import { FormTextField } from '../../../components/form-text-field';
 import { SPEC_MASK_KINDS, SPEC_MASK_KIND_LABELS } from '@quietglass/shared';
 import type { MaskFormValues } from '../band-form';
+import { fieldText } from '../../../lib/format';
 
 const KIND_HELP =
   "Reports and quotes use customer specifications only; an internal design target is the shop's own, never sent out.";
@@ -34,7 +35,7 @@ export function MaskDetailsFields({ control, customers, setValue, onNewCustomer 
           control={control}
           name="name"
           rules={{
-            validate: (v) => String(v).trim() !== '' || 'Enter a name',
+            validate: (v) => fieldText(v).trim() !== '' || 'Enter a name',
             maxLength: { value: MAX_NAME, message: `At most ${MAX_NAME} characters` },
           }}
           label="Name"
@@ -54,7 +55,7 @@ export function MaskDetailsFields({ control, customers, setValue, onNewCustomer 
           control={control}
           name="revision"
           rules={{
-            validate: (v) => String(v).trim() !== '' || 'Enter a revision',
+            validate: (v) => fieldText(v).trim() !== '' || 'Enter a revision',
             maxLength: { value: MAX_REVISION, message: `At most ${MAX_REVISION} characters` },
           }}
           label="Revision"

@@ -34,6 +34,7 @@ import {
 } from '../band-form';
 import { MaskDetailsFields } from './mask-details-fields';
 import { MaskPreviewPlot } from './mask-preview-plot';
+import { fieldText } from '../../../lib/format';
 
 const POLARISATION_OPTIONS = [
   { value: 'avg', label: 'Average' },
@@ -121,7 +122,7 @@ function BandFields({
         <FormTextField
           control={control}
           name={`bands.${index}.fromNm`}
-          rules={{ validate: (v) => bandRules.fromNm(String(v)) }}
+          rules={{ validate: (v) => bandRules.fromNm(fieldText(v)) }}
           label="From (nm)"
           size="small"
         />
@@ -130,7 +131,7 @@ function BandFields({
           name={`bands.${index}.toNm`}
           rules={{
             validate: (v, all) => {
-              const b = band(String(v), all);
+              const b = band(fieldText(v), all);
               return bandRules.toNm(b.v, b.band);
             },
           }}
@@ -154,7 +155,7 @@ function BandFields({
                 rules={{
                   deps: key === 'angleStep' ? [] : [`bands.${index}.angleStep`],
                   validate: (v, all) => {
-                    const b = band(String(v), all);
+                    const b = band(fieldText(v), all);
                     return bandRules[key](b.v, b.band);
                   },
                 }}
@@ -170,7 +171,7 @@ function BandFields({
             name={`bands.${index}.angles`}
             rules={{
               validate: (v, all) => {
-                const b = band(String(v), all);
+                const b = band(fieldText(v), all);
                 return bandRules.angles(b.v, b.band);
               },
             }}
@@ -203,7 +204,7 @@ function BandFields({
         <FormTextField
           control={control}
           name={`bands.${index}.value`}
-          rules={{ validate: (v) => bandRules.value(String(v)) }}
+          rules={{ validate: (v) => bandRules.value(fieldText(v)) }}
           label="Limit (%)"
           size="small"
           helperText="The customer's limit; reports judge this"
@@ -214,7 +215,7 @@ function BandFields({
             name={`bands.${index}.tolerance`}
             rules={{
               validate: (v, all) => {
-                const b = band(String(v), all);
+                const b = band(fieldText(v), all);
                 return bandRules.tolerance(b.v, b.band);
               },
             }}
@@ -227,7 +228,7 @@ function BandFields({
           name={`bands.${index}.margin`}
           rules={{
             validate: (v, all) => {
-              const b = band(String(v), all);
+              const b = band(fieldText(v), all);
               return bandRules.margin(b.v, b.band);
             },
           }}
@@ -238,7 +239,7 @@ function BandFields({
         <FormTextField
           control={control}
           name={`bands.${index}.stepNm`}
-          rules={{ validate: (v) => bandRules.stepNm(String(v)) }}
+          rules={{ validate: (v) => bandRules.stepNm(fieldText(v)) }}
           label="Step (nm)"
           size="small"
           helperText="Optional"
@@ -289,7 +290,7 @@ export function SpecMaskFormDialog({
     mode: 'onTouched',
   });
   const { fields, append, remove } = useFieldArray({ control, name: 'bands' });
-  const bands = useWatch({ control, name: 'bands' }) as BandValues[];
+  const bands: BandValues[] = useWatch({ control, name: 'bands' });
   const mutation = mask ? update : create;
   const conflict = update.error instanceof ApiError && update.error.status === 409 ? update.error : null;
 
