@@ -37,6 +37,12 @@ export interface RunRemark {
 /** Longest remark, characters. */
 export const RUN_REMARK_MAX_LENGTH = 2000;
 
+/** Largest measured-spectrum file the API takes, bytes (the client checks it before sending). */
+export const MAX_SPECTRUM_CSV_BYTES = 2_000_000;
+
+/** Which quantity of a measured-spectrum file to read when it holds both R and T. */
+export type SpectrumQuantity = 'R' | 'T';
+
 /** A chamber run of a released recipe. */
 export interface RunView {
   id: number;

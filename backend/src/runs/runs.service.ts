@@ -164,7 +164,7 @@ export class RunsService {
   /** Stores a measured spectrum with the file as uploaded; a bad row rejects the whole file. */
   async uploadSpectrum(runId: number, dto: UploadSpectrumDto, user: User): Promise<RunSpectrum> {
     await this.get(runId);
-    const parsed = parseSpectrumCsv(dto.csv);
+    const parsed = parseSpectrumCsv(dto.csv, { angleDeg: dto.angleDeg, quantity: dto.quantity });
     if (!parsed.ok) throw new BadRequestException({ message: problemDetails(parsed.problems) });
     const saved = await this.db.transaction(async (tx) => {
       const repo = tx.getRepository(RunSpectrum);

@@ -33,7 +33,7 @@ describe('measured spectrum CSV', () => {
     [
       '4 both R and T',
       'wavelength_nm,R_percent,T_percent\n400,1,98\n500,1,98\n',
-      [{ row: 1, reason: expect.stringMatching(/both R_percent and T_percent/) }],
+      [{ row: 1, reason: expect.stringMatching(/both R and T columns: choose the quantity/) }],
     ],
     ['5 header only', 'wavelength_nm,R_percent\n', [{ row: 0, reason: 'at least 2 data rows are needed' }]],
     [
@@ -79,6 +79,60 @@ describe('measured spectrum CSV', () => {
     ],
   ])('rejects %s with a row-level reason', (_name, text, problems) => {
     expect(bad(text)).toEqual(problems);
+  });
+
+  // Rows as `npm run calc -- --angles 0,20 --pol s,p,avg` writes them: fractions 0–1. The 0° values
+  // are the Fresnel normal-incidence reflectance of an uncoated n = 1.52 surface,
+  // R = ((n − 1)/(n + 1))² = 0.0425784… (Hecht, Optics, 5th ed., eq. 4.47); the 20° rows differ.
+  const cli = [
+    'wavelength_nm,angle_deg,pol,R,T,A',
+    '500,0,s,0.04257844,0.95742156,0',
+    '500,0,p,0.04257844,0.95742156,0',
+    '500,0,avg,0.04257844,0.95742156,0',
+    '600,0,s,0.04257844,0.95742156,0',
+    '600,0,p,0.04257844,0.95742156,0',
+    '600,0,avg,0.04257844,0.95742156,0',
+    '500,20,avg,0.0432,0.9568,0',
+    '600,20,avg,0.0432,0.9568,0',
+    '',
+  ].join('\n');
+
+  it("reads the calculation CLI's output: the rows at the measured angle, avg polarisation, fraction to percent", () => {
+    const r = parseSpectrumCsv(cli, { angleDeg: 0, quantity: 'R' });
+    if (!r.ok) throw new Error(JSON.stringify(r.problems));
+    expect(r.spectrum.quantity).toBe('R');
+    expect(r.spectrum.wavelengthsNm).toEqual([500, 600]);
+    expect(r.spectrum.valuesPercent[0]).toBeCloseTo(4.257844, 9);
+    const t = parseSpectrumCsv(cli, { angleDeg: 20, quantity: 'T' });
+    expect(t.ok && t.spectrum.valuesPercent).toEqual([95.68, 95.68]);
+    const plain = parseSpectrumCsv('wavelength_nm,R\n400,0.005\n500,0.004\n');
+    expect(plain.ok && plain.spectrum.valuesPercent).toEqual([0.5, 0.4]);
+  });
+
+  it('says what to choose when the CLI output is ambiguous, and rejects fractions above 1', () => {
+    expect(bad(cli)).toEqual([
+      { row: 1, reason: expect.stringMatching(/both R and T columns: choose the quantity/) },
+    ]);
+    const r = parseSpectrumCsv(cli, { quantity: 'R' });
+    expect(!r.ok && r.problems).toEqual([
+      { row: 0, reason: 'the file holds angles 0, 20°: say which one was measured' },
+    ]);
+    const at8 = parseSpectrumCsv(cli, { quantity: 'R', angleDeg: 8 });
+    expect(!at8.ok && at8.problems).toEqual([
+      { row: 0, reason: 'no rows at 8°; the file holds angles 0, 20°' },
+    ]);
+    const noAvg = parseSpectrumCsv(
+      'wavelength_nm,angle_deg,pol,R\n500,45,s,0.1\n500,45,p,0.02\n600,45,s,0.1\n',
+      { angleDeg: 45 },
+    );
+    expect(!noAvg.ok && noAvg.problems).toEqual([
+      { row: 0, reason: 'the file holds polarisations s, p: upload one, or avg' },
+    ]);
+    expect(bad('wavelength_nm,R\n400,1.2\n500,0.5\n')).toEqual([
+      { row: 2, reason: 'R must lie between 0 and 1 (the column is a fraction) (got 1.2)' },
+    ]);
+    const missing = parseSpectrumCsv('wavelength_nm,R_percent\n400,1\n500,1\n', { quantity: 'T' });
+    expect(!missing.ok && missing.problems[0].reason).toMatch(/no T column/);
   });
 
   it('rejects a file over 2 MB', () => {

@@ -1,9 +1,10 @@
+import { MAX_SPECTRUM_CSV_BYTES, type SpectrumQuantity } from '@quietglass/shared/runs';
 import { numericCell, readCsvRows, type CsvProblem } from '../common/csv.js';
 
-export const MAX_SPECTRUM_CSV_BYTES = 2_000_000;
+export { MAX_SPECTRUM_CSV_BYTES };
 
 export interface ParsedSpectrum {
-  quantity: 'R' | 'T';
+  quantity: SpectrumQuantity;
   wavelengthsNm: number[];
   valuesPercent: number[];
 }
@@ -11,45 +12,91 @@ export interface ParsedSpectrum {
 export type SpectrumCsvResult =
   { ok: true; spectrum: ParsedSpectrum } | { ok: false; problems: CsvProblem[] };
 
+export interface SpectrumCsvOptions {
+  /** The measurement's angle of incidence: picks the rows of a file with an `angle_deg` column. */
+  angleDeg?: number;
+  /** The quantity to read from a file that holds both R and T (e.g. `npm run calc` output). */
+  quantity?: SpectrumQuantity;
+}
+
 const WAVELENGTH = /^wavelength_?\(?nm\)?$/i;
-const VALUE = /^(R|T)_?\(?(percent|%)\)?$/i;
+/** `R_percent`, `R (%)`, `T%` …: values in percent. */
+const PERCENT = /^(R|T)[ _]?\(?(percent|%)\)?$/i;
+/** `R`, `T`, `R_fraction` …: values as fractions 0–1, as the calculation CLI writes them. */
+const FRACTION = /^(R|T)([ _]?\(?fraction\)?)?$/i;
+const ANGLE = /^angle(_deg|[ _]?\((deg|°)\))?$/i;
+const POLARISATION = /^pol(ari[sz]ation)?$/i;
+
+interface ValueColumn {
+  index: number;
+  quantity: SpectrumQuantity;
+  /** Factor to percent: 1 for percent columns, 100 for fractions. */
+  scale: 1 | 100;
+}
+
+function valueColumns(names: string[]): ValueColumn[] {
+  const found: ValueColumn[] = [];
+  names.forEach((n, index) => {
+    const percent = PERCENT.exec(n);
+    const fraction = percent ? null : FRACTION.exec(n);
+    const m = percent ?? fraction;
+    if (m) found.push({ index, quantity: m[1].toUpperCase() as SpectrumQuantity, scale: percent ? 1 : 100 });
+  });
+  return found;
+}
+
+const headerProblem = (line: number, names: string[], why: string): SpectrumCsvResult => ({
+  ok: false,
+  problems: [
+    { row: line, reason: `header "${names.join(',')}": ${why} (expected e.g. wavelength_nm,R_percent)` },
+  ],
+});
 
 /**
  * A measured spectrum as spectrophotometers export it: a header naming `wavelength_nm` and one of
  * `R_percent` or `T_percent` (other columns are ignored), then one row per wavelength in increasing
- * order. Every bad row is reported; nothing is accepted unless the whole file is valid.
+ * order. The calculation CLI's output (`wavelength_nm,angle_deg,pol,R,T,A`, fractions 0–1) is read
+ * too: the rows at the measurement's angle, the average polarisation where the file holds several,
+ * and the quantity asked for where it holds both R and T. Every bad row is reported; nothing is
+ * accepted unless the whole file is valid.
  */
-export function parseSpectrumCsv(text: string): SpectrumCsvResult {
+export function parseSpectrumCsv(text: string, options: SpectrumCsvOptions = {}): SpectrumCsvResult {
   const read = readCsvRows(text, MAX_SPECTRUM_CSV_BYTES);
   if (!read.ok) return read;
   const [header, ...rows] = read.rows;
   const names = header.map((h) => h.trim());
   const wl = names.findIndex((n) => WAVELENGTH.test(n));
-  const valueColumns = names.map((n, i) => ({ i, m: VALUE.exec(n) })).filter((c) => c.m);
-  if (wl < 0 || valueColumns.length !== 1) {
-    const why =
-      wl < 0
-        ? 'no wavelength_nm column'
-        : valueColumns.length === 0
-          ? 'no R_percent or T_percent column'
-          : 'both R_percent and T_percent: upload one quantity per file';
-    return {
-      ok: false,
-      problems: [
-        {
-          row: read.lines[0],
-          reason: `header "${names.join(',')}": ${why} (expected e.g. wavelength_nm,R_percent)`,
-        },
-      ],
-    };
-  }
-  const vc = valueColumns[0].i;
-  const quantity = (valueColumns[0].m as RegExpExecArray)[1].toUpperCase() as 'R' | 'T';
-  if (rows.length < 2)
-    return { ok: false, problems: [{ row: 0, reason: 'at least 2 data rows are needed' }] };
+  if (wl < 0) return headerProblem(read.lines[0], names, 'no wavelength_nm column');
+  const columns = valueColumns(names);
+  const quantities = [...new Set(columns.map((c) => c.quantity))];
+  if (quantities.length === 0) return headerProblem(read.lines[0], names, 'no R_percent or T_percent column');
+  let quantity: SpectrumQuantity;
+  if (options.quantity !== undefined) {
+    if (!quantities.includes(options.quantity))
+      return headerProblem(read.lines[0], names, `no ${options.quantity} column`);
+    quantity = options.quantity;
+  } else if (quantities.length > 1) {
+    return headerProblem(
+      read.lines[0],
+      names,
+      'both R and T columns: choose the quantity to upload, or upload one quantity per file',
+    );
+  } else quantity = quantities[0];
+  const chosen = columns.filter((c) => c.quantity === quantity);
+  if (chosen.length > 1) return headerProblem(read.lines[0], names, `more than one ${quantity} column`);
+  const { index: vc, scale } = chosen[0];
+  const angleColumn = names.findIndex((n) => ANGLE.test(n));
+  const polColumn = names.findIndex((n) => POLARISATION.test(n));
+
   const problems: CsvProblem[] = [];
-  const spectrum: ParsedSpectrum = { quantity, wavelengthsNm: [], valuesPercent: [] };
-  let previous = -Infinity;
+  interface Row {
+    line: number;
+    x: number;
+    y: number;
+    angle: number | null;
+    pol: string | null;
+  }
+  const parsed: Row[] = [];
   rows.forEach((row, i) => {
     const line = read.lines[i + 1];
     if (row.length !== header.length) {
@@ -58,31 +105,71 @@ export function parseSpectrumCsv(text: string): SpectrumCsvResult {
     }
     const x = numericCell(row[wl]);
     const y = numericCell(row[vc]);
-    if (x === null || y === null) {
+    const angle = angleColumn < 0 ? null : numericCell(row[angleColumn]);
+    if (x === null || y === null || (angleColumn >= 0 && angle === null)) {
       const bad = [
         x === null ? `wavelength "${row[wl].trim()}"` : '',
         y === null ? `${quantity} "${row[vc].trim()}"` : '',
+        angleColumn >= 0 && angle === null ? `angle "${row[angleColumn].trim()}"` : '',
       ]
         .filter(Boolean)
         .join(', ');
       problems.push({ row: line, reason: `not a number: ${bad}` });
       return;
     }
+    parsed.push({ line, x, y, angle, pol: polColumn < 0 ? null : row[polColumn].trim().toLowerCase() });
+  });
+  // A file-level problem with the rows' selection comes after the row problems found so far.
+  const fail = (reason: string): SpectrumCsvResult => ({
+    ok: false,
+    problems: [...problems, { row: 0, reason }],
+  });
+  let selected = parsed;
+  if (angleColumn >= 0) {
+    const angles = [...new Set(parsed.map((r) => r.angle as number))];
+    const at = options.angleDeg ?? (angles.length === 1 ? angles[0] : undefined);
+    if (at === undefined)
+      return {
+        ok: false,
+        problems: [
+          { row: 0, reason: `the file holds angles ${angles.join(', ')}°: say which one was measured` },
+        ],
+      };
+    selected = parsed.filter((r) => Math.abs((r.angle as number) - at) < 1e-9);
+    if (selected.length === 0 && parsed.length > 0)
+      return fail(`no rows at ${at}°; the file holds angles ${angles.join(', ')}°`);
+  }
+  if (polColumn >= 0) {
+    const pols = [...new Set(selected.map((r) => r.pol as string))];
+    if (pols.length > 1) {
+      if (!pols.includes('avg'))
+        return fail(`the file holds polarisations ${pols.join(', ')}: upload one, or avg`);
+      selected = selected.filter((r) => r.pol === 'avg');
+    }
+  }
+  if (selected.length < 2 && problems.length === 0) return fail('at least 2 data rows are needed');
+
+  const spectrum: ParsedSpectrum = { quantity, wavelengthsNm: [], valuesPercent: [] };
+  const top = scale === 1 ? '100 percent' : '1 (the column is a fraction)';
+  let previous = -Infinity;
+  for (const { line, x, y } of selected) {
     const reasons: string[] = [];
     if (!(x > 0)) reasons.push('wavelength must be > 0');
-    if (y < 0 || y > 100) reasons.push(`${quantity} must lie between 0 and 100 percent (got ${y})`);
+    if (y < 0 || y * scale > 100) reasons.push(`${quantity} must lie between 0 and ${top} (got ${y})`);
     if (x > 0 && x <= previous)
       reasons.push(`wavelength ${x} nm does not increase (previous row ${previous} nm)`);
     if (x > previous) previous = x;
     if (reasons.length > 0) {
       problems.push({ row: line, reason: reasons.join('; ') });
-      return;
+      continue;
     }
     spectrum.wavelengthsNm.push(x);
-    spectrum.valuesPercent.push(y);
-  });
+    // 15 significant digits drop the binary rounding of ×100 (0.9568 × 100 = 95.67999…).
+    spectrum.valuesPercent.push(scale === 1 ? y : Number((y * 100).toPrecision(15)));
+  }
   if (problems.length === 0 && spectrum.wavelengthsNm[spectrum.wavelengthsNm.length - 1] < 100) {
     problems.push({ row: 0, reason: 'the wavelengths look like µm (all below 100); the file must give nm' });
   }
+  problems.sort((a, b) => a.row - b.row);
   return problems.length > 0 ? { ok: false, problems } : { ok: true, spectrum };
 }

@@ -15,7 +15,7 @@ import {
   MinLength,
   ValidateNested,
 } from 'class-validator';
-import { RUN_REMARK_MAX_LENGTH } from '@quietglass/shared/runs';
+import { RUN_REMARK_MAX_LENGTH, type SpectrumQuantity } from '@quietglass/shared/runs';
 import { finite, trim } from '../../common/dto.js';
 
 export class StartRunDto {
@@ -135,4 +135,9 @@ export class UploadSpectrumDto {
 
   @IsIn(['witness', 'part'], { message: 'sample must be witness or part' })
   sample: 'witness' | 'part';
+
+  /** Which quantity to read from a file that holds both R and T (e.g. the calculation CLI's output). */
+  @IsOptional()
+  @IsIn(['R', 'T'], { message: 'quantity must be R or T' })
+  quantity?: SpectrumQuantity;
 }

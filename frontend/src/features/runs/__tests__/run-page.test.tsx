@@ -287,6 +287,27 @@ describe('Run page', () => {
     expect(screen.getByText('No spectrum has been uploaded for this run yet.')).toBeTruthy();
   });
 
+  it('sends the chosen quantity for a file with both R and T, and no quantity by default', async () => {
+    const calls = api('operator', testRun(), {
+      'POST /api/runs/40/spectra': apiError(400, 'Bad Request', 'no rows at 8°', ['no rows at 8°']),
+    });
+    const { user } = renderApp('/runs/40');
+    const upload = await section('Spectrum upload');
+    const text = 'wavelength_nm,angle_deg,pol,R,T,A\n500,0,avg,0.01,0.99,0\n600,0,avg,0.02,0.98,0\n';
+    await user.upload(upload.getByLabelText('Spectrum file'), new File([text], 'calc.csv'));
+    await user.click(upload.getByRole('button', { name: 'Upload spectrum' }));
+    await upload.findByRole('list', { name: 'Problems in the file' });
+    await user.selectOptions(upload.getByLabelText('Quantity'), 'T');
+    await user.clear(upload.getByLabelText('Angle of incidence (°)'));
+    await user.type(upload.getByLabelText('Angle of incidence (°)'), '0');
+    await user.click(upload.getByRole('button', { name: 'Upload spectrum' }));
+    await waitFor(() => expect(calls.calls('POST', '/api/runs/40/spectra')).toHaveLength(2));
+    expect(calls.calls('POST', '/api/runs/40/spectra').map((r) => r.body)).toEqual([
+      { filename: 'calc.csv', csv: text, angleDeg: 8, sample: 'witness' },
+      { filename: 'calc.csv', csv: text, angleDeg: 0, sample: 'witness', quantity: 'T' },
+    ]);
+  });
+
   it('after an upload shows Fail, the worst margin and where, the plot and the original file link', async () => {
     let uploaded = false;
     api('operator', testRun(), {

@@ -1,9 +1,7 @@
 import { useMutation, useQueryClient } from '@tanstack/react-query';
+import type { SpectrumQuantity } from '@quietglass/shared';
 import { apiClient } from '../../../lib/api-client';
 import { getRunQueryOptions, type RunSpectrumView } from './get-run';
-
-/** Largest spectrum file the API takes (bytes), checked here before sending too. */
-export const MAX_SPECTRUM_CSV_BYTES = 2_000_000;
 
 /** UploadSpectrumDto: the file's text with `wavelength_nm` and `R_percent` or `T_percent` columns. */
 export interface UploadSpectrumInput {
@@ -11,6 +9,7 @@ export interface UploadSpectrumInput {
   csv: string;
   angleDeg: number;
   sample: 'witness' | 'part';
+  quantity?: SpectrumQuantity;
 }
 
 export function uploadSpectrum(runId: number, input: UploadSpectrumInput): Promise<RunSpectrumView> {

@@ -11,16 +11,19 @@ import { FormTextField } from '../../../components/form-text-field';
 import { parseNumberInput } from '../../../lib/format';
 import { notify } from '../../../lib/notifier';
 import type { RunSpectrumView } from '../api/get-run';
-import { MAX_SPECTRUM_CSV_BYTES, useUploadSpectrum } from '../api/upload-spectrum';
+import { MAX_SPECTRUM_CSV_BYTES } from '@quietglass/shared';
+import { useUploadSpectrum } from '../api/upload-spectrum';
 
 interface UploadValues {
   angleDeg: string;
   sample: 'witness' | 'part';
+  /** '' reads the one quantity the file has; R or T picks one from a file with both. */
+  quantity: '' | 'R' | 'T';
 }
 
 // Spectrophotometer reflectance accessories usually measure near normal at about 8° (common
 // practice, no source); the mask counts up to 8° as normal incidence.
-const DEFAULTS: UploadValues = { angleDeg: '8', sample: 'witness' };
+const DEFAULTS: UploadValues = { angleDeg: '8', sample: 'witness', quantity: '' };
 
 interface SpectrumUploadProps {
   runId: number;
@@ -50,7 +53,13 @@ export function SpectrumUpload({ runId, onUploaded }: SpectrumUploadProps) {
     if (fileProblem) return;
     const csv = await file.text();
     upload.mutate(
-      { filename: file.name, csv, angleDeg: parseNumberInput(values.angleDeg) ?? 0, sample: values.sample },
+      {
+        filename: file.name,
+        csv,
+        angleDeg: parseNumberInput(values.angleDeg) ?? 0,
+        sample: values.sample,
+        ...(values.quantity === '' ? {} : { quantity: values.quantity }),
+      },
       {
         onSuccess: (spectrum) => {
           notify(`${spectrum.filename} uploaded.`, 'success');
@@ -67,7 +76,10 @@ export function SpectrumUpload({ runId, onUploaded }: SpectrumUploadProps) {
       </Typography>
       <Typography variant="body2" color="text.secondary" sx={{ mb: 1.5 }}>
         A CSV file with a header naming <code>wavelength_nm</code> and one of <code>R_percent</code> or{' '}
-        <code>T_percent</code>, one row per wavelength in increasing order. At most 2 MB.
+        <code>T_percent</code>, one row per wavelength in increasing order. The calculation CLI&apos;s output
+        (<code>R</code> and <code>T</code> as fractions, with <code>angle_deg</code> and <code>pol</code>) is
+        read too: the rows at the angle below, the average polarisation, the quantity you choose. At most 2
+        MB.
       </Typography>
       <Box component="form" noValidate onSubmit={onSubmit} sx={{ display: 'grid', gap: 2 }}>
         <FileProblemsAlert error={upload.error} />
@@ -102,6 +114,18 @@ export function SpectrumUpload({ runId, onUploaded }: SpectrumUploadProps) {
             options={[
               { value: 'witness', label: 'Witness sample' },
               { value: 'part', label: 'Part' },
+            ]}
+          />
+          <FormSelectField
+            control={control}
+            name="quantity"
+            label="Quantity"
+            size="small"
+            sx={{ width: 230 }}
+            options={[
+              { value: '', label: 'The one in the file' },
+              { value: 'R', label: 'Reflectance R' },
+              { value: 'T', label: 'Transmittance T' },
             ]}
           />
         </Box>
