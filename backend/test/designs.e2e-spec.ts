@@ -146,6 +146,42 @@ describe('stack designs', () => {
     expect(v2.body.createdBy.displayName).toBe('Tomas Reyes');
   });
 
+  it('a new version can take imported content: saved as a draft with an audit line naming the file; a bad one writes nothing', async () => {
+    const design = await createDesign('Imported AR');
+    const imported = {
+      ...versionContent(twoLayerDesign(m, customer)),
+      layers: [{ materialId: m['MgF2'], thicknessNm: 94.2, locked: false, notes: 'outer' }],
+    };
+    const before = await versionRows();
+    const bad = await http()
+      .post(`/api/designs/${design.id}/versions`)
+      .set('Cookie', engineer)
+      .send({
+        fromNumber: 1,
+        content: { ...imported, layers: [{ ...imported.layers[0], thicknessNm: -5 }] },
+      });
+    expect(bad.status).toBe(400);
+    expect(bad.body.details.join(' ')).toMatch(/thicknessNm/);
+    const unknown = await http()
+      .post(`/api/designs/${design.id}/versions`)
+      .set('Cookie', engineer)
+      .send({ fromNumber: 1, content: { ...imported, substrateMaterialId: 987654 } });
+    expect(unknown.status).toBe(400);
+    expect(await versionRows()).toBe(before);
+
+    const v2 = await http()
+      .post(`/api/designs/${design.id}/versions`)
+      .set('Cookie', engineer)
+      .send({ fromNumber: 1, content: imported, sourceFile: 'trial.stack.json' });
+    expect(v2.status).toBe(201);
+    expect(v2.body).toMatchObject({ number: 2, status: 'draft', layers: imported.layers });
+    const admin = await demoSession(app, 'admin');
+    const audit = await http().get(`/api/audit?entity=design&entityId=${design.id}`).set('Cookie', admin);
+    expect(audit.body.map((e: { summary: string }) => e.summary)).toContain(
+      'draft version 2 imported from stack file trial.stack.json',
+    );
+  });
+
   it('404 for a missing design or version', async () => {
     expect((await http().get('/api/designs/999999').set('Cookie', engineer)).status).toBe(404);
     const design = await createDesign('Lonely');

@@ -14,6 +14,7 @@ export * from './audit.js';
 export * from './revisions.js';
 export * from './materials.js';
 export * from './customers.js';
+export * from './stack-file.js';
 
 // Optics engine (browser-safe; Node-only helpers live under @quietglass/shared/node/parallel).
 export * from './optics/errors.js';

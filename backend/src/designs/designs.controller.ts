@@ -64,6 +64,6 @@ export class DesignsController {
     @Body() dto: NewVersionDto,
     @CurrentUser() user: User,
   ): Promise<DesignVersionView> {
-    return this.designs.newVersion(id, dto.fromNumber, user);
+    return this.designs.newVersion(id, dto, user);
   }
 }

@@ -240,9 +240,20 @@ export class DesignsService {
   }
 
   /** A new draft copied from an existing version (of any status). */
-  async newVersion(id: number, fromNumber: number, author: User): Promise<DesignVersionView> {
-    const from = await this.findVersion(id, fromNumber);
-    return this.draftFrom(id, fromNumber, from.layers, author);
+  async newVersion(
+    id: number,
+    request: { fromNumber: number; content?: VersionContentDto; sourceFile?: string },
+    author: User,
+  ): Promise<DesignVersionView> {
+    const from = await this.findVersion(id, request.fromNumber);
+    if (!request.content) return this.draftFrom(id, request.fromNumber, from.layers, author);
+    return this.createDraft(
+      id,
+      request.fromNumber,
+      content(request.content),
+      author,
+      `imported from ${request.sourceFile ? `stack file ${request.sourceFile}` : 'a stack file'}`,
+    );
   }
 
   /** A new draft copied from a version with other layers (an accepted optimisation result). */
@@ -253,7 +264,24 @@ export class DesignsService {
     author: User,
   ): Promise<DesignVersionView> {
     const from = await this.findVersion(id, fromNumber);
-    await this.checkMaterials({ ...content(from), layers });
+    return this.createDraft(
+      id,
+      fromNumber,
+      { ...content(from), layers },
+      author,
+      `started from version ${fromNumber}`,
+    );
+  }
+
+  private async createDraft(
+    id: number,
+    fromNumber: number,
+    draft: DesignVersionContent,
+    author: User,
+    source: string,
+  ): Promise<DesignVersionView> {
+    const from = await this.findVersion(id, fromNumber);
+    await this.checkMaterials(draft);
     const number = await this.db.transaction(async (tx) => {
       await tx.query('SELECT id FROM designs WHERE id = $1 FOR UPDATE', [id]);
       const [{ max }] = await tx.query<{ max: number }[]>(
@@ -261,15 +289,13 @@ export class DesignsService {
         [id],
       );
       const next = Number(max) + 1;
-      await tx
-        .getRepository(DesignVersion)
-        .save(newDraft(tx, from.design, next, { ...content(from), layers }, author));
+      await tx.getRepository(DesignVersion).save(newDraft(tx, from.design, next, draft, author));
       await this.audit.record(tx, {
         actor: author,
         entity: 'design',
         entityId: id,
         action: 'version created',
-        summary: `draft version ${next} started from version ${fromNumber}`,
+        summary: `draft version ${next} ${source}`,
         details: { versionNumber: next, fromNumber },
       });
       return next;

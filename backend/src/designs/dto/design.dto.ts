@@ -120,4 +120,18 @@ export class NewVersionDto {
   @IsInt()
   @Min(1)
   fromNumber: number;
+
+  /** Content for the new draft instead of the copy (an imported stack file). */
+  @IsOptional()
+  @ValidateNested()
+  @Type(() => VersionContentDto)
+  content?: VersionContentDto;
+
+  /** Name of the stack file the content came from, for the audit trail. */
+  @IsOptional()
+  @Transform(trim)
+  @IsString()
+  @MinLength(1, { message: 'sourceFile must not be empty' })
+  @MaxLength(255)
+  sourceFile?: string;
 }

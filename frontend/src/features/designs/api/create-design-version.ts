@@ -1,5 +1,5 @@
 import { useMutation, useQueryClient } from '@tanstack/react-query';
-import type { DesignVersionView } from '@quietglass/shared';
+import type { DesignVersionContent, DesignVersionView } from '@quietglass/shared';
 import { apiClient } from '../../../lib/api-client';
 import { storeDesignVersion } from './get-design-version';
 
@@ -7,13 +7,16 @@ export interface CreateDesignVersionInput {
   designId: number;
   /** The version copied into the new draft. */
   fromNumber: number;
+  /** Content for the draft instead of the copy (an imported stack file), and the file's name. */
+  content?: DesignVersionContent;
+  sourceFile?: string;
 }
 
 export function createDesignVersion({
   designId,
-  fromNumber,
+  ...body
 }: CreateDesignVersionInput): Promise<DesignVersionView> {
-  return apiClient.post<DesignVersionView>(`/designs/${designId}/versions`, { fromNumber });
+  return apiClient.post<DesignVersionView>(`/designs/${designId}/versions`, body);
 }
 
 /** Starts a new draft from a version (of any status). */

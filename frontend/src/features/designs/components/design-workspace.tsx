@@ -106,6 +106,7 @@ export function DesignWorkspace({
       {version.isError && <ErrorAlert error={version.error} title="The version could not be loaded" />}
       {version.data && (
         <VersionEditor
+          designName={design.name}
           versionPicker={versionPicker}
           tab={tab}
           onTabChange={setTab}

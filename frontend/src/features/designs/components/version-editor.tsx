@@ -33,6 +33,7 @@ import { CompareVersionsPanel } from './compare-versions-panel';
 import { IndexProfileStrip } from './index-profile-strip';
 import { LayerGrid } from './layer-grid';
 import { PreviewPanel } from './preview-panel';
+import { StackFileActions } from './stack-file-actions';
 import { VersionHeaderFields } from './version-header-fields';
 
 /** A tab of the workspace below the grid and the plot (Full analysis, Optimise, Approval …). */
@@ -49,6 +50,8 @@ const OWN_TABS = [
 ] as const;
 
 interface VersionEditorProps {
+  /** The design's name, for exported files. */
+  designName: string;
   /** The workspace's version picker, shown at the start of the status line. */
   versionPicker?: ReactNode;
   /** Further tabs (analysis, optimisation, approval and history), shown after Stack setup and Compare. */
@@ -95,6 +98,7 @@ function contentKey(version: DesignVersionView): string {
  * and a Reload that replaces the grid only after the user confirms.
  */
 export function VersionEditor({
+  designName,
   versionPicker,
   tabs = [],
   tab,
@@ -398,6 +402,15 @@ export function VersionEditor({
               Incident side first; the last row sits on the substrate.
             </Typography>
           </Box>
+          <StackFileActions
+            designName={designName}
+            version={baseline}
+            content={content}
+            models={models}
+            library={library}
+            canImport={canEdit}
+            onVersionCreated={onVersionCreated}
+          />
           <LayerGrid
             rows={rows}
             onRowsChange={setRows}
