@@ -151,8 +151,12 @@ describe('compute queue: full analysis', () => {
 
     const csv = await http().get(`/api/calculations/${first.body.id}/result.csv`).set('Cookie', engineer);
     const lines = csv.text.trim().split('\n');
-    expect(lines[0]).toBe('wavelength_nm,angle_deg,pol,R,T,A');
+    expect(lines[0]).toBe('wavelength_nm,angle_deg,pol,R_percent,T_percent,A_percent');
     expect(lines).toHaveLength(1 + 3 * 4 * 31);
+    // Percent with 4 decimals, the same values the result route gives as fractions.
+    const [, , , r] = lines[1].split(',');
+    expect(r).toMatch(/^\d+\.\d{4}$/);
+    expect(Number(r)).toBeCloseTo(100 * s0[0], 4);
 
     const later = await http()
       .post(`/api/designs/${id}/versions/1/analysis`)

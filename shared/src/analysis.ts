@@ -57,6 +57,8 @@ export interface AnalysisField {
   p: number[];
   /** Depths of the layer interfaces, nm from the front of the first layer. */
   interfacesNm: number[];
+  /** Each layer's name ("1 MgF2"), incident side first; absent in results stored before they were kept. */
+  layerLabels?: string[];
 }
 
 /** The JSON part of a result; the R, T, A arrays are stored as binary beside it. */

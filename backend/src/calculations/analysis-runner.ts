@@ -138,5 +138,6 @@ function fieldAt(stack: OpticalStack, wavelengthNm: number, angleDeg: number): A
     s: Array.from(s),
     p: Array.from(p),
     interfacesNm,
+    layerLabels: stack.layers.map((layer, i) => layer.label ?? `${i + 1}`),
   };
 }

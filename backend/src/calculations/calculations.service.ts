@@ -61,6 +61,12 @@ const CSV_LINES_PER_PIECE = 4000;
 
 export const jobIdOf = (c: Pick<Calculation, 'id' | 'createdAt'>) => `calc-${c.id}-${c.createdAt.getTime()}`;
 
+/** A fraction as percent with 4 decimals; −0.0000 from rounding is written 0.0000. */
+function percent4(fraction: number): string {
+  const text = (100 * fraction).toFixed(4);
+  return text === '-0.0000' ? '0.0000' : text;
+}
+
 @Injectable()
 export class CalculationsService {
   private readonly logger = new Logger('Calculations');
@@ -331,20 +337,21 @@ export class CalculationsService {
   }
 
   /**
-   * The whole result as CSV: `wavelength_nm,angle_deg,pol,R,T,A` (fractions, full precision),
+   * The whole result as CSV: `wavelength_nm,angle_deg,pol,R_percent,T_percent,A_percent`, values in
+   * percent with 4 decimals (the spectrum upload reads it back, a quantity chosen),
    * produced in pieces of a few thousand lines as the client reads them, so a large result never
    * sits in memory as one string and the event loop is given back between pieces.
    */
   async resultCsv(id: number): Promise<Readable> {
     const { summary, values } = await this.completed(id);
     function* lines(): Generator<string> {
-      yield 'wavelength_nm,angle_deg,pol,R,T,A\n';
+      yield 'wavelength_nm,angle_deg,pol,R_percent,T_percent,A_percent\n';
       let chunk: string[] = [];
       for (const pol of ANALYSIS_POLARISATIONS) {
         for (let ia = 0; ia < summary.anglesDeg.length; ia++) {
           const angle = summary.anglesDeg[ia];
           for (let iw = 0; iw < summary.wavelengthsNm.length; iw++) {
-            const at = (q: AnalysisQuantity) => values[analysisIndex(summary, q, pol, ia, iw)];
+            const at = (q: AnalysisQuantity) => percent4(values[analysisIndex(summary, q, pol, ia, iw)]);
             chunk.push(`${summary.wavelengthsNm[iw]},${angle},${pol},${at('R')},${at('T')},${at('A')}\n`);
             if (chunk.length === CSV_LINES_PER_PIECE) {
               yield chunk.join('');

@@ -2,9 +2,10 @@ import Box from '@mui/material/Box';
 import Typography from '@mui/material/Typography';
 import type { Data, Layout } from 'plotly.js-dist-min';
 import { lazy, Suspense } from 'react';
+import { SERIES_COLOURS } from '../lib/plot-style';
 
-/** Quietglass plot colours: teal, copper, slate blue, plum, ochre, moss, in that order. */
-export const PLOT_COLOURS = ['#1f6b70', '#b8622d', '#2f6690', '#7a4f8c', '#a86a12', '#4f7a3a'] as const;
+/** Series colours, colour-blind safe (see lib/plot-style); series also differ by dash style. */
+export const PLOT_COLOURS = SERIES_COLOURS;
 
 /** Heat-map colour scale from pale glass to deep ink through teal and copper. */
 export const HEAT_COLOUR_SCALE: [number, string][] = [
@@ -24,7 +25,10 @@ export interface PlotProps {
   data: PlotData[];
   layout?: PlotLayout;
   height?: number;
-  /** When set, a "Download PNG" button saves the plot under this name (the modebar offers it too). */
+  /**
+   * When set, "Download PNG" and "Download CSV" save the plot and its named series under this name
+   * (the modebar offers the PNG too).
+   */
   pngFileName?: string;
 }
 

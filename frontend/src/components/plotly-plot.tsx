@@ -2,8 +2,20 @@ import Box from '@mui/material/Box';
 import Button from '@mui/material/Button';
 import Plotly, { type Config } from 'plotly.js-dist-min';
 import createPlotlyComponent from 'react-plotly.js/factory';
-import { useRef } from 'react';
-import { PLOT_COLOURS, type PlotProps } from './plot';
+import { useMemo, useRef } from 'react';
+import { plotCsv, styleSeries, withAxisDefaults } from '../lib/plot-style';
+import { PLOT_COLOURS, type PlotLayout, type PlotProps } from './plot';
+
+function download(text: string, fileName: string) {
+  const url = URL.createObjectURL(new Blob([text], { type: 'text/csv;charset=utf-8' }));
+  const a = document.createElement('a');
+  a.href = url;
+  a.download = fileName;
+  document.body.appendChild(a);
+  a.click();
+  a.remove();
+  URL.revokeObjectURL(url);
+}
 
 const PlotlyChart = createPlotlyComponent(Plotly);
 
@@ -15,21 +27,28 @@ export default function PlotlyPlot({ title, data, layout, height = 320, pngFileN
     responsive: true,
     toImageButtonOptions: { format: 'png', filename: pngFileName ?? 'quietglass-plot' },
   };
+  const styled = useMemo(() => styleSeries(data), [data]);
+  const fullLayout = useMemo(
+    (): PlotLayout =>
+      withAxisDefaults({
+        autosize: true,
+        height,
+        margin: { l: 56, r: 56, t: 36, b: 48 },
+        font: { family: '"IBM Plex Sans", system-ui, sans-serif', size: 12, color: '#152a2f' },
+        paper_bgcolor: '#ffffff',
+        plot_bgcolor: '#ffffff',
+        colorway: [...PLOT_COLOURS],
+        // Above the plot area, so it never covers the x axis title.
+        legend: { orientation: 'h', x: 0, xanchor: 'left', y: 1, yanchor: 'bottom' },
+        ...layout,
+      }),
+    [height, layout],
+  );
   return (
     <Box role="figure" aria-label={title} sx={{ width: '100%' }}>
       <PlotlyChart
-        data={data}
-        layout={{
-          autosize: true,
-          height,
-          margin: { l: 56, r: 56, t: 16, b: 48 },
-          font: { family: '"IBM Plex Sans", system-ui, sans-serif', size: 12, color: '#152a2f' },
-          paper_bgcolor: '#ffffff',
-          plot_bgcolor: '#ffffff',
-          colorway: [...PLOT_COLOURS],
-          legend: { orientation: 'h', y: -0.2 },
-          ...layout,
-        }}
+        data={styled}
+        layout={fullLayout}
         config={config}
         useResizeHandler
         style={{ width: '100%', height }}
@@ -41,15 +60,20 @@ export default function PlotlyPlot({ title, data, layout, height = 320, pngFileN
         }}
       />
       {pngFileName && (
-        <Button
-          size="small"
-          onClick={() => {
-            if (graph.current)
-              void Plotly.downloadImage(graph.current, { format: 'png', filename: pngFileName });
-          }}
-        >
-          Download PNG
-        </Button>
+        <Box sx={{ display: 'flex', gap: 1 }}>
+          <Button
+            size="small"
+            onClick={() => {
+              if (graph.current)
+                void Plotly.downloadImage(graph.current, { format: 'png', filename: pngFileName });
+            }}
+          >
+            Download PNG
+          </Button>
+          <Button size="small" onClick={() => download(plotCsv(data, fullLayout), `${pngFileName}.csv`)}>
+            Download CSV
+          </Button>
+        </Box>
       )}
     </Box>
   );

@@ -5,7 +5,7 @@ import type { PlotData, PlotLayout } from '../components/plot';
  * traces, so tests can read what would be drawn. Use with
  * `vi.mock('…/components/plot', () => import('…/test/plot-mock'))`.
  */
-export const PLOT_COLOURS = ['#1f6b70', '#b8622d', '#2f6690', '#7a4f8c', '#a86a12', '#4f7a3a'];
+export { SERIES_COLOURS as PLOT_COLOURS } from '../lib/plot-style';
 export const HEAT_COLOUR_SCALE: [number, string][] = [
   [0, '#ffffff'],
   [1, '#000000'],

@@ -1,11 +1,12 @@
 import { screen, waitFor, within } from '@testing-library/react';
 import { describe, expect, it, vi } from 'vitest';
-import { tracesOf } from '../../../test/plot-mock';
+import { layoutOf, tracesOf } from '../../../test/plot-mock';
 import { mockApi, type MockResponse } from '../../../test/mock-api';
 import { renderWithProviders } from '../../../test/render';
 import { TEST_ANALYSIS_REQUEST, testCalculation } from '../../../test/calculation-fixtures';
-import type { CalculationView } from '../api/get-calculation';
+import type { AnalysisCalculationView, CalculationView } from '../api/get-calculation';
 import { AnalysisPanel } from '../components/analysis-panel';
+import { AnalysisResults } from '../components/analysis-results';
 
 vi.mock('../../../components/plot', () => import('../../../test/plot-mock'));
 
@@ -148,6 +149,42 @@ describe('AnalysisPanel', () => {
     expect(screen.getByRole('link', { name: 'Download CSV' }).getAttribute('href')).toBe(
       '/api/calculations/7/result.csv',
     );
+  });
+
+  it('shades the mask on the line slices and names the layers on the field profile', async () => {
+    mockApi({ [RESULT]: { status: 200, body: RESULT_BODY } });
+    const withLabels = calculation({
+      status: 'completed',
+      progress: 1,
+      summary: {
+        ...SUMMARY,
+        field: { ...SUMMARY.field, interfacesNm: [0, 40, 100], layerLabels: ['1 SiO2', '2 TiO2'] },
+      },
+    });
+    renderWithProviders(
+      <AnalysisResults
+        calculation={withLabels as AnalysisCalculationView}
+        maskBands={[
+          { from_nm: 520, to_nm: 580, quantity: 'R', max_percent: 0.25, angles_deg: [0] },
+          { from_nm: 500, to_nm: 600, quantity: 'T', min_percent: 90 },
+        ]}
+      />,
+    );
+    const slices = await screen.findByRole('figure', { name: 'Line slices' });
+    const layout = layoutOf(slices) as {
+      yaxis: { range: number[]; dtick: number };
+      shapes: { x0: number; x1: number; y0: number; y1: number }[];
+    };
+    // Slices 0.2–0.5 %: round ticks 0, 0.1, …, 0.5; only the R band is shaded, above its limit.
+    expect(layout.yaxis).toMatchObject({ range: [0, 0.5], dtick: 0.1 });
+    expect(layout.shapes).toEqual([expect.objectContaining({ x0: 520, x1: 580, y0: 0.25, y1: 0.5 })]);
+    const field = layoutOf(screen.getByRole('figure', { name: 'Field profile' })) as {
+      annotations: { text: string; x: number }[];
+    };
+    expect(field.annotations.map((a) => [a.text, a.x])).toEqual([
+      ['1 SiO2', 20],
+      ['2 TiO2', 70],
+    ]);
   });
 
   it('cancels a running analysis', async () => {

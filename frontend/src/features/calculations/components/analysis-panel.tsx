@@ -259,7 +259,7 @@ export function AnalysisPanel({
             cancelling={cancel.isPending}
           />
           {calc.status === 'completed' && isAnalysis(calc) && (
-            <AnalysisResults key={calc.id} calculation={calc} />
+            <AnalysisResults key={calc.id} calculation={calc} maskBands={maskBands} />
           )}
         </Box>
       )}

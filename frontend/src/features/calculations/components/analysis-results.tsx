@@ -5,12 +5,14 @@ import MenuItem from '@mui/material/MenuItem';
 import TextField from '@mui/material/TextField';
 import Tooltip from '@mui/material/Tooltip';
 import Typography from '@mui/material/Typography';
-import type { AnalysisQuantity } from '@quietglass/shared';
+import type { AnalysisQuantity, LimitBand } from '@quietglass/shared';
 import { useState } from 'react';
 import { ErrorAlert } from '../../../components/error-alert';
+import { maskShapes } from '../../../components/mask-plot-layout';
 import { HEAT_COLOUR_SCALE, Plot, type PlotData } from '../../../components/plot';
 import { apiUrl } from '../../../lib/api-client';
 import { parseNumberList } from '../../../lib/format';
+import { roundAxis } from '../../../lib/plot-style';
 import { labToXyz, swatchHex } from '../../../lib/srgb';
 import type { AnalysisCalculationView } from '../api/get-calculation';
 import { useCalculationResult, type ResultPolarisation } from '../api/get-calculation-result';
@@ -38,7 +40,14 @@ function defaultSlices(angles: readonly number[]): string {
 }
 
 /** A completed analysis: heat map, line slices, colour and Rv against angle, field profile, exports. */
-export function AnalysisResults({ calculation }: { calculation: AnalysisCalculationView }) {
+export function AnalysisResults({
+  calculation,
+  maskBands = null,
+}: {
+  calculation: AnalysisCalculationView;
+  /** The design's spec mask: its forbidden regions are shaded on the line slices. */
+  maskBands?: readonly LimitBand[] | null;
+}) {
   const summary = calculation.summary;
   const [quantity, setQuantity] = useState<AnalysisQuantity>('R');
   const [polarisation, setPolarisation] = useState<ResultPolarisation>('avg');
@@ -75,6 +84,10 @@ export function AnalysisResults({ calculation }: { calculation: AnalysisCalculat
     }));
   }
 
+  const sliceValues = result.data
+    ? sliceIndices.flatMap((ia) => result.data.values[ia].map((v) => 100 * v))
+    : [];
+  const sliceTop = (roundAxis(sliceValues, { fromZero: true }).range as [number, number])[1];
   const colour = summary.colour;
   const field = summary.field;
 
@@ -155,7 +168,14 @@ export function AnalysisResults({ calculation }: { calculation: AnalysisCalculat
             data={lines}
             layout={{
               xaxis: { title: { text: 'Wavelength (nm)' } },
-              yaxis: { title: { text: unit }, rangemode: 'tozero' },
+              yaxis: { title: { text: unit }, ...roundAxis(sliceValues, { fromZero: true }) },
+              shapes:
+                quantity === 'A'
+                  ? []
+                  : maskShapes(
+                      (maskBands ?? []).filter((b) => b.quantity === quantity),
+                      { topR: sliceTop, topT: sliceTop },
+                    ),
             }}
             pngFileName={`${base}-slices`}
           />
@@ -223,8 +243,22 @@ export function AnalysisResults({ calculation }: { calculation: AnalysisCalculat
             ]}
             layout={{
               xaxis: { title: { text: 'Angle of incidence (°)' } },
-              yaxis: { title: { text: 'Rv (%)' }, rangemode: 'tozero' },
-              yaxis2: { title: { text: 'a*, b*' }, overlaying: 'y', side: 'right' },
+              yaxis: {
+                title: { text: 'Rv (%)' },
+                ...roundAxis(
+                  colour.map((c) => 100 * c.Rv),
+                  { fromZero: true },
+                ),
+              },
+              // Its own round ticks, without a second grid over the Rv grid.
+              yaxis2: {
+                title: { text: 'a*, b*' },
+                overlaying: 'y',
+                side: 'right',
+                showgrid: false,
+                zeroline: true,
+                ...roundAxis(colour.flatMap((c) => [c.a, c.b, 0])),
+              },
             }}
             pngFileName={`analysis-${calculation.id}-colour`}
           />
@@ -248,6 +282,7 @@ export function AnalysisResults({ calculation }: { calculation: AnalysisCalculat
             layout={{
               xaxis: { title: { text: 'Depth from the first layer’s front (nm)' } },
               yaxis: { title: { text: '|E|² / |E incident|²' }, rangemode: 'tozero' },
+              margin: { t: 56 },
               shapes: field.interfacesNm.map((x) => ({
                 type: 'line',
                 xref: 'x',
@@ -257,6 +292,18 @@ export function AnalysisResults({ calculation }: { calculation: AnalysisCalculat
                 y0: 0,
                 y1: 1,
                 line: { color: 'rgba(18, 52, 59, 0.35)', width: 1, dash: 'dot' },
+              })),
+              // Each layer's name over its middle, above the plot area (under the legend).
+              annotations: (field.layerLabels ?? []).map((text, i) => ({
+                text,
+                x: (field.interfacesNm[i] + field.interfacesNm[i + 1]) / 2,
+                xref: 'x',
+                y: 1,
+                yref: 'paper',
+                yanchor: 'bottom',
+                showarrow: false,
+                textangle: (field.layerLabels?.length ?? 0) > 8 ? -60 : 0,
+                font: { size: 10 },
               })),
             }}
             pngFileName={`analysis-${calculation.id}-field-profile`}
