@@ -109,6 +109,8 @@ describe('Fit to mask', () => {
     expect(done.summary.merit.after).toBeLessThan(done.summary.merit.before);
     expect(done.live.history.length).toBeGreaterThan(1);
     expect(done.live.history.at(-1).merit).toBeCloseTo(done.summary.merit.after, 6);
+    // No target margin asked: the engine's own small one, reported with the result.
+    expect(done.summary.targetMarginPercent).toBe(0.001);
     for (const d of done.summary.thicknessesNm) expect(d).toBeGreaterThanOrEqual(10 - 1e-9);
     const again = await http()
       .post(`/api/designs/${id}/versions/1/fit`)
@@ -137,6 +139,12 @@ describe('Fit to mask', () => {
       .set('Cookie', mira)
       .send({ minThicknessNm: 50, maxThicknessNm: 20 });
     expect(crossed.body.details).toEqual(['minThicknessNm (50) must not exceed maxThicknessNm (20)']);
+    const margin = await http()
+      .post(`/api/designs/${id}/versions/1/fit`)
+      .set('Cookie', mira)
+      .send({ targetMarginPercent: 9 });
+    expect(margin.status).toBe(400);
+    expect(margin.body.details).toEqual(['targetMarginPercent must be at most 5 percentage points']);
     expect(
       (await http().post(`/api/designs/${id}/versions/1/fit`).set('Cookie', operator).send({})).status,
     ).toBe(403);

@@ -26,13 +26,26 @@ interface Base {
 
 export interface FitInput extends Base {
   kind: 'fit';
-  options: { locked: boolean[]; minThicknessNm: number; maxThicknessNm: number; maxIterations: number };
+  options: {
+    locked: boolean[];
+    minThicknessNm: number;
+    maxThicknessNm: number;
+    maxIterations: number;
+    /** Target margin, percentage points (the engine's small default when absent). */
+    marginPercent?: number;
+  };
 }
 
 export interface GrowInput extends Base {
   kind: 'grow';
   allowed: (AllowedMaterial & { materialId: number })[];
-  options: { maxLayers: number; maxTotalThicknessNm: number; minThicknessNm: number; maxSteps: number };
+  options: {
+    maxLayers: number;
+    maxTotalThicknessNm: number;
+    minThicknessNm: number;
+    maxSteps: number;
+    marginPercent?: number;
+  };
 }
 
 export interface YieldInput extends Base {
@@ -73,6 +86,7 @@ export function runOptimiseJob(
       minThicknessNm: input.options.minThicknessNm,
       maxThicknessNm: input.options.maxThicknessNm,
       maxIterations: max,
+      marginPercent: input.options.marginPercent,
       onIteration: (it) =>
         report({
           type: 'progress',
@@ -91,6 +105,7 @@ export function runOptimiseJob(
       maxTotalThicknessNm: input.options.maxTotalThicknessNm,
       minThicknessNm: input.options.minThicknessNm,
       maxSteps: max,
+      marginPercent: input.options.marginPercent,
       onStep: (step) =>
         report({
           type: 'progress',

@@ -46,6 +46,7 @@ export class OptimiseService {
         minThicknessNm: min,
         maxThicknessNm: max,
         maxIterations: dto.maxIterations ?? 100,
+        ...(dto.targetMarginPercent === undefined ? {} : { marginPercent: dto.targetMarginPercent }),
       },
     };
     return this.calculations.submitOptimisation('fit', input, user, { designId, versionNumber: number });
@@ -75,6 +76,7 @@ export class OptimiseService {
         maxTotalThicknessNm: dto.maxTotalThicknessNm ?? 5000,
         minThicknessNm: min,
         maxSteps: dto.maxSteps ?? 30,
+        ...(dto.targetMarginPercent === undefined ? {} : { marginPercent: dto.targetMarginPercent }),
       },
     };
     return this.calculations.submitOptimisation('grow', input, user, { designId, versionNumber: number });

@@ -115,6 +115,28 @@ describe('Fit to mask', () => {
     for (const d of result.thicknessesNm) expect(d).toBeGreaterThanOrEqual(10);
   });
 
+  it('designs in a target margin: every sample clears the limit by it, checked on the mask itself', () => {
+    // The same broadband AR as above, now asked to clear R ≤ 0.5 % by 0.1 percentage points.
+    const mask: SpecMask = {
+      bands: [{ from_nm: 420, to_nm: 680, quantity: 'R', max_percent: 0.5, step_nm: 2 }],
+    };
+    const start = onGlass(
+      [90, 100, 30, 40, 20, 30, 15, 15].map((d, i) => ({ n: i % 2 === 0 ? 1.38 : 2.35, thicknessNm: d })),
+    );
+    const bare = fitToMask(start, mask);
+    const result = fitToMask(start, mask, { marginPercent: 0.1 });
+    expect(result.targetMarginPercent).toBe(0.1);
+    expect(bare.targetMarginPercent).toBe(0.001);
+    const fitted = {
+      ...start,
+      layers: start.layers.map((l, i) => ({ ...l, thicknessNm: result.thicknessesNm[i] })),
+    };
+    const check = evaluateMask(mask, fitted);
+    expect(check.worstMargin).toBeGreaterThanOrEqual(0.1 - 1e-6);
+    expect(result.worstMargin).toBeCloseTo(check.worstMargin, 10);
+    expect(result.worstMargin).toBeGreaterThan(bare.worstMargin);
+  });
+
   it('gives the same fit with the analytic Jacobian as with forward differences, oblique s and p', () => {
     // Both Jacobians describe the same residuals (the analytic one is checked against central
     // differences in optics/derivatives.test.ts), so Levenberg–Marquardt must reach the same minimum.

@@ -36,6 +36,14 @@ export const DEFAULT_MIN_THICKNESS_NM = 10;
 export const DEFAULT_MAX_THICKNESS_NM = 1000;
 /** Default tightening of max/min limits while fitting, percentage points. */
 export const DEFAULT_MARGIN_PERCENT = 0.001;
+/**
+ * Target margin the optimisation forms start from, percentage points: the design is refined until
+ * every mask sample clears its limit by this much, not merely until it passes (common practice,
+ * no source: a tenth of a point absorbs run-to-run scatter on visible AR).
+ */
+export const DEFAULT_TARGET_MARGIN_PERCENT = 0.1;
+/** Largest target margin the API takes, percentage points. */
+export const MAX_TARGET_MARGIN_PERCENT = 5;
 /** Forward-difference step of the Jacobian, nm. */
 const FD_STEP_NM = 1e-6;
 const LAMBDA_START = 1e-3;
@@ -121,6 +129,8 @@ export interface FitResult {
   history: { iteration: number; merit: number }[];
   converged: boolean;
   stoppedBy: FitStop;
+  /** The margin the fit aimed for (limits tightened by it), percentage points; absent in older results. */
+  targetMarginPercent?: number;
 }
 
 /** Bounds and lock per front layer, as the refinement uses them. */
@@ -156,17 +166,19 @@ export function fitToMask(stack: OpticalStack, mask: SpecMask, options: FitOptio
   }
   const derivatives =
     opts.derivatives === undefined ? undefined : oneOf(opts.derivatives, DERIVATIVE_METHODS, 'derivatives');
+  const targetMarginPercent = options.marginPercent ?? DEFAULT_MARGIN_PERCENT;
   const merit = createMaskMerit(stack, mask, {
     back: options.back,
     targets: options.targets,
-    marginPercent: options.marginPercent ?? DEFAULT_MARGIN_PERCENT,
+    marginPercent: targetMarginPercent,
   });
   const start = merit.plan.stack.layers.map((l) => l.thicknessNm);
-  return refineThicknesses(merit, start, bounds, {
+  const result = refineThicknesses(merit, start, bounds, {
     maxIterations,
     onIteration: options.onIteration,
     derivatives,
   });
+  return { ...result, targetMarginPercent };
 }
 
 /**

@@ -65,6 +65,21 @@ describe('Grow layers', () => {
     expect(evaluateMask(broadbandAr, rebuilt).merit).toBeCloseTo(step1.merit, 10);
   });
 
+  it('keeps growing until the mask is met with the target margin, not at the first pass', () => {
+    const bare = growLayers(quarterWaveOnBk7, broadbandAr, { allowedMaterials: allowed, maxLayers: 14 });
+    const margin = Math.max(0.05, bare.final.worstMargin + 0.05);
+    const result = growLayers(quarterWaveOnBk7, broadbandAr, {
+      allowedMaterials: allowed,
+      maxLayers: 14,
+      marginPercent: margin,
+    });
+    expect(result.targetMarginPercent).toBe(margin);
+    expect(result.stoppedBy).toBe('maskMet');
+    // Checked on the mask's own evaluation, not the optimiser's merit.
+    expect(evaluateMask(broadbandAr, result.stack).worstMargin).toBeGreaterThanOrEqual(margin - 1e-6);
+    expect(result.final.worstMargin).toBeGreaterThan(bare.final.worstMargin);
+  });
+
   it('grows the same design from the analytic needle function as from probing with thin needles', () => {
     const analytic = growLayers(quarterWaveOnBk7, broadbandAr, { allowedMaterials: allowed, maxLayers: 10 });
     const probed = growLayers(quarterWaveOnBk7, broadbandAr, {

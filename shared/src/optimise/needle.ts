@@ -140,6 +140,8 @@ export interface GrowResult {
   /** The last step as a stack (same media as the start). */
   stack: OpticalStack;
   stoppedBy: GrowStop;
+  /** The margin growing aimed for, percentage points; absent in older results. */
+  targetMarginPercent?: number;
 }
 
 interface WorkLayer {
@@ -225,10 +227,11 @@ export function growLayers(stack: OpticalStack, mask: SpecMask, options: GrowOpt
     ...start,
     layers: list.map((l) => ({ material: models[l.material], thicknessNm: l.thicknessNm })),
   });
+  const targetMarginPercent = options.marginPercent ?? DEFAULT_MARGIN_PERCENT;
   const base = createMaskMerit(stackOf(layers), mask, {
     back: options.back,
     targets: options.targets,
-    marginPercent: options.marginPercent ?? DEFAULT_MARGIN_PERCENT,
+    marginPercent: targetMarginPercent,
   });
   const residual = new Float64Array(base.sampleCount);
   const analytic = derivatives === 'analytic' && base.analyticDerivatives;
@@ -252,6 +255,8 @@ export function growLayers(stack: OpticalStack, mask: SpecMask, options: GrowOpt
     outermostFixed,
   };
   const steps: GrowStep[] = [];
+  // Growing stops once the mask is met with the target margin, not at the first bare pass.
+  const reached = (step: GrowStep) => step.worstMargin >= targetMarginPercent - 1e-9;
   const record = (refined: Refined, inserted?: GrowStep['inserted']): boolean => {
     const step = growStep(ctx, steps.length, refined, inserted);
     steps.push(step);
@@ -261,7 +266,7 @@ export function growLayers(stack: OpticalStack, mask: SpecMask, options: GrowOpt
   let current = refine(ctx, layers, minNm);
   let stoppedBy: GrowStop = 'maxSteps';
   if (!record(current)) stoppedBy = 'cancelled';
-  else if (steps[0].pass) stoppedBy = 'maskMet';
+  else if (reached(steps[0])) stoppedBy = 'maskMet';
   else {
     for (let stepNo = 1; stepNo <= maxSteps; stepNo++) {
       if (current.layers.length + 1 > maxLayers) {
@@ -283,14 +288,14 @@ export function growLayers(stack: OpticalStack, mask: SpecMask, options: GrowOpt
         stoppedBy = 'cancelled';
         break;
       }
-      if (steps[steps.length - 1].pass) {
+      if (reached(steps[steps.length - 1])) {
         stoppedBy = 'maskMet';
         break;
       }
     }
   }
   const final = steps[steps.length - 1];
-  return { steps, final, stack: stackOf(current.layers), stoppedBy };
+  return { steps, final, stack: stackOf(current.layers), stoppedBy, targetMarginPercent };
 }
 
 /** Settings and shared buffers of one Grow layers run. */

@@ -13,6 +13,7 @@ import {
   ValidateNested,
 } from 'class-validator';
 import { finite } from '../../common/dto.js';
+import { MAX_TARGET_MARGIN_PERCENT } from '@quietglass/shared/optimise/fit';
 
 class MaskChoice {
   /** Defaults to the design's own spec mask. */
@@ -37,6 +38,15 @@ export class FitDto extends MaskChoice {
   @Min(1)
   @Max(1000, { message: 'maxIterations must be at most 1000' })
   maxIterations?: number;
+
+  /** Margin to design in beyond every limit, percentage points (0 to MAX_TARGET_MARGIN_PERCENT). */
+  @IsOptional()
+  @IsNumber(finite, { message: 'targetMarginPercent must be a number' })
+  @Min(0, { message: 'targetMarginPercent must be ≥ 0' })
+  @Max(MAX_TARGET_MARGIN_PERCENT, {
+    message: `targetMarginPercent must be at most ${MAX_TARGET_MARGIN_PERCENT} percentage points`,
+  })
+  targetMarginPercent?: number;
 }
 
 export class GrowDto extends FitDto {

@@ -49,6 +49,7 @@ const FIT: FitResult = {
   merit: { before: 2.7581, after: 0.1234 },
   pass: true,
   worstMargin: 0.084,
+  targetMarginPercent: 0.1,
   iterations: 6,
   evaluations: 14,
   history: [
@@ -167,7 +168,7 @@ describe('OptimisePanel — Fit to mask', () => {
     const bar = await region().findByRole('progressbar', { name: 'Fit to mask progress' });
     await waitFor(() => expect(bar.getAttribute('aria-valuenow')).toBe('30'));
     expect(api.calls('POST', '/api/designs/12/versions/1/fit').map((r) => r.body)).toEqual([
-      { minThicknessNm: 10, maxThicknessNm: 1000, maxIterations: 100 },
+      { minThicknessNm: 10, maxThicknessNm: 1000, maxIterations: 100, targetMarginPercent: 0.1 },
     ]);
     await waitFor(() =>
       expect(region().getByLabelText('Latest merit').textContent).toBe(
@@ -183,7 +184,7 @@ describe('OptimisePanel — Fit to mask', () => {
     const cells = within(table).getAllByRole('row')[1].querySelectorAll('td');
     expect([...cells].map((c) => c.textContent)).toEqual(['1', 'MgF2', '199.28', '99.64', '−99.64']);
     expect(region().getByRole('group', { name: 'Fit to mask result' }).textContent).toBe(
-      'PassMerit 2.7581 → 0.1234 percentage points · worst margin +0.084 percentage points · 6 iterations (converged)',
+      'PassMerit 2.7581 → 0.1234 percentage points · worst margin +0.084 percentage points, target +0.100 not reached · 6 iterations (converged)',
     );
     expect(region().queryByRole('progressbar', { name: 'Fit to mask progress' })).toBeNull();
     const [history] = tracesOf(region().getByRole('figure', { name: 'Merit per iteration' }));
@@ -332,6 +333,7 @@ describe('OptimisePanel — Grow layers', () => {
         minThicknessNm: 10,
         maxThicknessNm: 1000,
         maxSteps: 30,
+        targetMarginPercent: 0.1,
       },
     ]);
 

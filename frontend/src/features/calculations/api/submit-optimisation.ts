@@ -9,6 +9,8 @@ export interface FitRequest {
   minThicknessNm?: number;
   maxThicknessNm?: number;
   maxIterations?: number;
+  /** Margin to design in beyond every limit, percentage points. */
+  targetMarginPercent?: number;
 }
 
 /** Body of POST …/grow (GrowDto of the API). */

@@ -4,22 +4,29 @@ import { useForm } from 'react-hook-form';
 import { FormTextField } from '../../../components/form-text-field';
 import type { FitRequest } from '../api/submit-optimisation';
 import { wholeIn } from '../form-rules';
+import { DEFAULT_TARGET_MARGIN_TEXT, TargetMarginField } from './target-margin-field';
 import { ThicknessBoundsFields } from './thickness-bounds-fields';
 
 interface FitValues {
   minThicknessNm: string;
   maxThicknessNm: string;
   maxIterations: string;
+  targetMarginPercent: string;
 }
 
-const DEFAULTS: FitValues = { minThicknessNm: '10', maxThicknessNm: '1000', maxIterations: '100' };
+const DEFAULTS: FitValues = {
+  minThicknessNm: '10',
+  maxThicknessNm: '1000',
+  maxIterations: '100',
+  targetMarginPercent: DEFAULT_TARGET_MARGIN_TEXT,
+};
 
 interface FitFormProps {
   pending: boolean;
   onRun: (body: FitRequest) => void;
 }
 
-/** Bounds and iterations of Fit to mask (Levenberg–Marquardt over the unlocked layers). */
+/** Bounds, target margin and iterations of Fit to mask (Levenberg–Marquardt over the unlocked layers). */
 export function FitForm({ pending, onRun }: FitFormProps) {
   const { control, handleSubmit } = useForm<FitValues>({ defaultValues: DEFAULTS, mode: 'onTouched' });
   const onSubmit = handleSubmit((v) =>
@@ -27,6 +34,7 @@ export function FitForm({ pending, onRun }: FitFormProps) {
       minThicknessNm: Number(v.minThicknessNm),
       maxThicknessNm: Number(v.maxThicknessNm),
       maxIterations: Number(v.maxIterations),
+      targetMarginPercent: Number(v.targetMarginPercent),
     }),
   );
   return (
@@ -38,6 +46,7 @@ export function FitForm({ pending, onRun }: FitFormProps) {
       sx={{ display: 'flex', gap: 1.5, flexWrap: 'wrap', alignItems: 'flex-start' }}
     >
       <ThicknessBoundsFields control={control} />
+      <TargetMarginField control={control} />
       <FormTextField
         control={control}
         name="maxIterations"

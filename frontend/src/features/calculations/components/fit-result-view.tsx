@@ -7,9 +7,9 @@ import { Plot } from '../../../components/plot';
 import { fittedLayers, STOP_REASONS } from '../results';
 import { AcceptButton } from './accept-button';
 import { SpectrumOverlay } from './spectrum-overlay';
+import { marginSummary } from './target-margin-field';
 import { ThicknessTable } from './thickness-table';
 import { tableLayers, type VersionContext } from './version-context';
-import { formatSigned } from '../../../lib/format';
 
 interface FitResultViewProps {
   calculationId: number;
@@ -52,8 +52,8 @@ export function FitResultView({
           sx={{ fontWeight: 600, minWidth: 56 }}
         />
         <Typography variant="body2">
-          Merit {result.merit.before.toFixed(4)} → {result.merit.after.toFixed(4)} percentage points · worst
-          margin {formatSigned(result.worstMargin)} percentage points · {result.iterations} iterations (
+          Merit {result.merit.before.toFixed(4)} → {result.merit.after.toFixed(4)} percentage points ·{' '}
+          {marginSummary(result.worstMargin, result.targetMarginPercent)} · {result.iterations} iterations (
           {STOP_REASONS[result.stoppedBy] ?? result.stoppedBy})
         </Typography>
       </Box>

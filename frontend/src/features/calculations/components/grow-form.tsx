@@ -10,6 +10,7 @@ import { Controller, useForm } from 'react-hook-form';
 import { FormTextField } from '../../../components/form-text-field';
 import type { GrowRequest } from '../api/submit-optimisation';
 import { numberIn, wholeIn } from '../form-rules';
+import { DEFAULT_TARGET_MARGIN_TEXT, TargetMarginField } from './target-margin-field';
 import { ThicknessBoundsFields } from './thickness-bounds-fields';
 
 /** Most materials Grow layers may use (GrowDto). */
@@ -22,6 +23,7 @@ interface GrowValues {
   minThicknessNm: string;
   maxThicknessNm: string;
   maxSteps: string;
+  targetMarginPercent: string;
 }
 
 interface GrowFormProps {
@@ -44,6 +46,7 @@ export function GrowForm({ materials, initialMaterialIds, layerCount, pending, o
       minThicknessNm: '10',
       maxThicknessNm: '1000',
       maxSteps: '30',
+      targetMarginPercent: DEFAULT_TARGET_MARGIN_TEXT,
     },
     mode: 'onTouched',
   });
@@ -55,6 +58,7 @@ export function GrowForm({ materials, initialMaterialIds, layerCount, pending, o
       minThicknessNm: Number(v.minThicknessNm),
       maxThicknessNm: Number(v.maxThicknessNm),
       maxSteps: Number(v.maxSteps),
+      targetMarginPercent: Number(v.targetMarginPercent),
     }),
   );
   return (
@@ -120,6 +124,7 @@ export function GrowForm({ materials, initialMaterialIds, layerCount, pending, o
           rules={{ validate: numberIn('Max total thickness', 0, 1_000_000, ' nm', true) }}
         />
         <ThicknessBoundsFields control={control} />
+        <TargetMarginField control={control} />
         <FormTextField
           control={control}
           name="maxSteps"

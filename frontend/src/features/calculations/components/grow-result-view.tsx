@@ -13,6 +13,7 @@ import { Plot } from '../../../components/plot';
 import { grownLayers, STOP_REASONS } from '../results';
 import { AcceptButton } from './accept-button';
 import { SpectrumOverlay } from './spectrum-overlay';
+import { marginSummary } from './target-margin-field';
 import { ThicknessTable } from './thickness-table';
 import { tableLayers, type VersionContext } from './version-context';
 import { formatSigned } from '../../../lib/format';
@@ -57,7 +58,8 @@ export function GrowResultView({
       <Typography variant="body2" role="group" aria-label="Grow layers result">
         {result.steps.length} kept steps, stopped: {STOP_REASONS[result.stoppedBy] ?? result.stoppedBy}.
         Final: {result.final.layerCount} layers, merit {result.final.merit.toFixed(4)} percentage points,{' '}
-        {result.final.pass ? 'Pass' : 'Fail'}.
+        {result.final.pass ? 'Pass' : 'Fail'},{' '}
+        {marginSummary(result.final.worstMargin, result.targetMarginPercent)}.
       </Typography>
       <Plot
         title="Merit against layer count"
