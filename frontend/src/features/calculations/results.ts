@@ -62,27 +62,99 @@ export interface TableLayer {
 }
 
 export interface ThicknessRow {
-  /** 1 = incident side. */
-  layer: number;
+  /** Position after the change (1 = incident side); null for a layer that was removed. */
+  layer: number | null;
+  /** Position before the change; null for a new layer. */
+  beforeLayer: number | null;
   before: TableLayer | null;
   after: TableLayer | null;
-  /** after − before, nm, when the layer exists on both sides in the same material. */
+  /** after − before, nm, for a layer kept (same material on both sides). */
   changeNm: number | null;
+  status: 'kept' | 'new' | 'removed';
 }
 
-/** Row by row: the version's layers against the result's (Grow may add or remove layers). */
+/**
+ * Pairs the version's layers with the result's by identity, not position: an alignment of the two
+ * sequences (incident side first) that keeps as many layers as possible in their material and,
+ * among those, changes the kept thicknesses least. A result layer left unpaired is new (Grow
+ * layers inserted it), a version layer left unpaired was removed. For Fit to mask every layer is
+ * kept in place.
+ */
 export function thicknessRows(before: readonly TableLayer[], after: readonly TableLayer[]): ThicknessRow[] {
-  const count = Math.max(before.length, after.length);
+  const n = before.length;
+  const m = after.length;
+  // best[i][j]: [kept count, −Σ|Δd|] of the best alignment of before[i..] with after[j..].
+  const kept: number[][] = Array.from({ length: n + 1 }, () => new Array<number>(m + 1).fill(0));
+  const cost: number[][] = Array.from({ length: n + 1 }, () => new Array<number>(m + 1).fill(0));
+  const better = (k1: number, c1: number, k2: number, c2: number) =>
+    k1 > k2 || (k1 === k2 && c1 < c2 - 1e-12);
+  for (let i = n; i >= 0; i--) {
+    for (let j = m; j >= 0; j--) {
+      if (i === n || j === m) continue;
+      let k = kept[i + 1][j];
+      let c = cost[i + 1][j];
+      if (better(kept[i][j + 1], cost[i][j + 1], k, c)) {
+        k = kept[i][j + 1];
+        c = cost[i][j + 1];
+      }
+      if (before[i].material === after[j].material) {
+        const km = kept[i + 1][j + 1] + 1;
+        const cm = cost[i + 1][j + 1] + Math.abs(after[j].thicknessNm - before[i].thicknessNm);
+        if (better(km, cm, k, c) || (km === k && Math.abs(cm - c) <= 1e-12)) {
+          k = km;
+          c = cm;
+        }
+      }
+      kept[i][j] = k;
+      cost[i][j] = c;
+    }
+  }
   const rows: ThicknessRow[] = [];
-  for (let i = 0; i < count; i++) {
-    const b = before[i] ?? null;
-    const a = after[i] ?? null;
-    rows.push({
-      layer: i + 1,
-      before: b,
-      after: a,
-      changeNm: a && b && a.material === b.material ? a.thicknessNm - b.thicknessNm : null,
-    });
+  let i = 0;
+  let j = 0;
+  while (i < n || j < m) {
+    const match =
+      i < n &&
+      j < m &&
+      before[i].material === after[j].material &&
+      kept[i][j] === kept[i + 1][j + 1] + 1 &&
+      Math.abs(cost[i][j] - (cost[i + 1][j + 1] + Math.abs(after[j].thicknessNm - before[i].thicknessNm))) <=
+        1e-9;
+    if (match) {
+      rows.push({
+        layer: j + 1,
+        beforeLayer: i + 1,
+        before: before[i],
+        after: after[j],
+        changeNm: after[j].thicknessNm - before[i].thicknessNm,
+        status: 'kept',
+      });
+      i++;
+      j++;
+    } else if (
+      j < m &&
+      (i === n || (kept[i][j] === kept[i][j + 1] && Math.abs(cost[i][j] - cost[i][j + 1]) <= 1e-9))
+    ) {
+      rows.push({
+        layer: j + 1,
+        beforeLayer: null,
+        before: null,
+        after: after[j],
+        changeNm: null,
+        status: 'new',
+      });
+      j++;
+    } else {
+      rows.push({
+        layer: null,
+        beforeLayer: i + 1,
+        before: before[i],
+        after: null,
+        changeNm: null,
+        status: 'removed',
+      });
+      i++;
+    }
   }
   return rows;
 }

@@ -337,17 +337,18 @@ describe('OptimisePanel — Grow layers', () => {
       },
     ]);
 
-    // The final step at first: four layers against the version's two.
+    // The final step at first: four layers against the version's two, paired by identity (the
+    // pairing that keeps both layers and changes them least); the two inserted ones are new.
     const rows = () =>
       within(region().getByRole('table', { name: 'Thicknesses before and after' }))
         .getAllByRole('row')
         .slice(1)
         .map((r) => [...r.querySelectorAll('td')].map((c) => c.textContent));
     expect(rows()).toEqual([
-      ['1', 'MgF2', 'MgF2', '90.00', '96.00', '+6.00'],
-      ['2', 'TiO2', 'TiO2', '30.00', '110.00', '+80.00'],
-      ['3', '—', 'MgF2', '—', '24.50', '—'],
-      ['4', '—', 'TiO2', '—', '30.00', '—'],
+      ['1', 'MgF2', '90.00', '96.00', '+6.00'],
+      ['2new', 'TiO2', '—', '110.00', '—'],
+      ['3new', 'MgF2', '—', '24.50', '—'],
+      ['4', 'TiO2', '30.00', '30.00', '+0.00'],
     ]);
     await user.click(region().getByRole('radio', { name: 'Step 0' }));
     expect(rows()).toEqual([

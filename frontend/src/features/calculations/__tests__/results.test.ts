@@ -32,20 +32,61 @@ describe('optimisation results', () => {
     ).toThrow('material ZrO2 is not in the library');
   });
 
-  it('lines up layers before and after, with a change only where the material is the same', () => {
-    expect(
-      thicknessRows(
-        [
-          { material: 'MgF2', thicknessNm: 90 },
-          { material: 'TiO2', thicknessNm: 30 },
-        ],
-        [
-          { material: 'MgF2', thicknessNm: 96.5 },
-          { material: 'SiO2', thicknessNm: 20 },
-          { material: 'TiO2', thicknessNm: 11 },
-        ],
-      ).map((r) => r.changeNm),
-    ).toEqual([6.5, null, null]);
+  it('pairs layers by identity: an inserted layer is new, the others keep their change', () => {
+    const rows = thicknessRows(
+      [
+        { material: 'MgF2', thicknessNm: 90 },
+        { material: 'TiO2', thicknessNm: 30 },
+      ],
+      [
+        { material: 'MgF2', thicknessNm: 96.5 },
+        { material: 'SiO2', thicknessNm: 20 },
+        { material: 'TiO2', thicknessNm: 11 },
+      ],
+    );
+    expect(rows.map((r) => [r.layer, r.beforeLayer, r.status, r.changeNm])).toEqual([
+      [1, 1, 'kept', 6.5],
+      [2, null, 'new', null],
+      [3, 2, 'kept', -19],
+    ]);
+  });
+
+  it('pairs a needle split of one layer with the part closest in thickness, and marks removals', () => {
+    // SiO2 145 nm split by a MgF2 needle into 20 + 120 nm: the 120 nm part is the original layer.
+    const split = thicknessRows(
+      [
+        { material: 'TiO2', thicknessNm: 50 },
+        { material: 'SiO2', thicknessNm: 145 },
+      ],
+      [
+        { material: 'TiO2', thicknessNm: 52 },
+        { material: 'SiO2', thicknessNm: 20 },
+        { material: 'MgF2', thicknessNm: 4 },
+        { material: 'SiO2', thicknessNm: 120 },
+      ],
+    );
+    expect(split.map((r) => [r.layer, r.beforeLayer, r.status])).toEqual([
+      [1, 1, 'kept'],
+      [2, null, 'new'],
+      [3, null, 'new'],
+      [4, 2, 'kept'],
+    ]);
+    const removed = thicknessRows(
+      [
+        { material: 'MgF2', thicknessNm: 90 },
+        { material: 'ZrO2', thicknessNm: 8 },
+        { material: 'SiO2', thicknessNm: 60 },
+      ],
+      [
+        { material: 'MgF2', thicknessNm: 92 },
+        { material: 'SiO2', thicknessNm: 61 },
+      ],
+    );
+    expect(removed.map((r) => [r.layer, r.beforeLayer, r.status])).toEqual([
+      [1, 1, 'kept'],
+      [null, 2, 'removed'],
+      [2, 3, 'kept'],
+    ]);
   });
 
   it('reads the live history against iteration or layer count, and the histogram bin centres', () => {
