@@ -184,6 +184,14 @@ describe('Grow layers', () => {
       .set('Cookie', mira)
       .send({ allowedMaterialIds: [987654] });
     expect(ghost.body.details).toEqual(['allowedMaterialIds: material 987654 does not exist']);
+    const stray = await http()
+      .post(`/api/designs/${id}/versions/1/grow`)
+      .set('Cookie', mira)
+      .send({ allowedMaterialIds: [m['MgF2']], outermostOnlyMaterialIds: [m['ZrO2']] });
+    expect(stray.status).toBe(400);
+    expect(stray.body.details).toEqual([
+      `outermostOnlyMaterialIds: material ${m['ZrO2']} is not among allowedMaterialIds`,
+    ]);
   });
 });
 

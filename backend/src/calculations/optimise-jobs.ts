@@ -45,6 +45,9 @@ export interface GrowInput extends Base {
     minThicknessNm: number;
     maxSteps: number;
     marginPercent?: number;
+    /** Material names (of `allowed`) that may only be outermost / the only ones next to the substrate. */
+    outermostOnly?: string[];
+    nextToSubstrate?: string[];
   };
 }
 
@@ -106,6 +109,8 @@ export function runOptimiseJob(
       minThicknessNm: input.options.minThicknessNm,
       maxSteps: max,
       marginPercent: input.options.marginPercent,
+      outermostOnly: input.options.outermostOnly,
+      nextToSubstrate: input.options.nextToSubstrate,
       onStep: (step) =>
         report({
           type: 'progress',

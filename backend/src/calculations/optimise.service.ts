@@ -67,6 +67,17 @@ export class OptimiseService {
       throw new BadRequestException({
         message: [`minThicknessNm (${min}) must not exceed maxThicknessNm (${max})`],
       });
+    const nameOf = (field: string, ids: number[] | undefined): string[] | undefined => {
+      if (ids === undefined) return undefined;
+      const stray = ids.filter((id) => !dto.allowedMaterialIds.includes(id));
+      if (stray.length > 0)
+        throw new BadRequestException({
+          message: stray.map((id) => `${field}: material ${id} is not among allowedMaterialIds`),
+        });
+      return ids.map((id) => found.find((m) => m.id === id)?.name ?? String(id));
+    };
+    const outermostOnly = nameOf('outermostOnlyMaterialIds', dto.outermostOnlyMaterialIds);
+    const nextToSubstrate = nameOf('nextToSubstrateMaterialIds', dto.nextToSubstrateMaterialIds);
     const input: GrowInput = {
       kind: 'grow',
       ...base.common,
@@ -77,6 +88,8 @@ export class OptimiseService {
         minThicknessNm: min,
         maxSteps: dto.maxSteps ?? 30,
         ...(dto.targetMarginPercent === undefined ? {} : { marginPercent: dto.targetMarginPercent }),
+        ...(outermostOnly ? { outermostOnly } : {}),
+        ...(nextToSubstrate ? { nextToSubstrate } : {}),
       },
     };
     return this.calculations.submitOptimisation('grow', input, user, { designId, versionNumber: number });

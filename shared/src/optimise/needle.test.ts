@@ -80,6 +80,26 @@ describe('Grow layers', () => {
     expect(result.final.worstMargin).toBeGreaterThan(bare.final.worstMargin);
   });
 
+  it('keeps an outermost-only material on top and the substrate neighbour from its list', () => {
+    const free = growLayers(quarterWaveOnBk7, broadbandAr, { allowedMaterials: allowed, maxLayers: 12 });
+    const ruled = growLayers(quarterWaveOnBk7, broadbandAr, {
+      allowedMaterials: allowed,
+      maxLayers: 12,
+      outermostOnly: ['MgF2'],
+      nextToSubstrate: ['SiO2', 'TiO2'],
+    });
+    const inner = (r: typeof free) => r.final.layers.slice(1).map((l) => l.material);
+    // Without the rule the needle method puts MgF2 inside the stack too.
+    expect(inner(free)).toContain('MgF2');
+    expect(inner(ruled)).not.toContain('MgF2');
+    expect(ruled.final.layers[0].material).toBe('MgF2');
+    expect(['SiO2', 'TiO2', 'MgF2']).toContain(ruled.final.layers.at(-1)?.material);
+    expect(evaluateMask(broadbandAr, ruled.stack).worstMargin).toBeCloseTo(ruled.final.worstMargin, 10);
+    expect(() =>
+      growLayers(quarterWaveOnBk7, broadbandAr, { allowedMaterials: allowed, outermostOnly: ['ZnS'] }),
+    ).toThrow('outermostOnly[0]: "ZnS" is not an allowed material');
+  });
+
   it('grows the same design from the analytic needle function as from probing with thin needles', () => {
     const analytic = growLayers(quarterWaveOnBk7, broadbandAr, { allowedMaterials: allowed, maxLayers: 10 });
     const probed = growLayers(quarterWaveOnBk7, broadbandAr, {

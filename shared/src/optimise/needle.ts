@@ -58,6 +58,8 @@ const GROW_OPTION_KEYS = [
   'onStep',
   'derivatives',
   'outermostFixed',
+  'outermostOnly',
+  'nextToSubstrate',
 ];
 
 /** A coating material the engineer allows Grow layers to use. */
@@ -130,6 +132,13 @@ export interface GrowOptions {
   derivatives?: DerivativeMethod;
   /** Keep the start's front layer outermost: no needle or new layer goes in front of it. */
   outermostFixed?: boolean;
+  /**
+   * Allowed materials (by name) that may only be the outermost layer, e.g. a soft fluoride on
+   * top: no needle or new layer of them goes inside the stack.
+   */
+  outermostOnly?: string[];
+  /** The only allowed materials (by name) a new layer next to the substrate may be; any when omitted. */
+  nextToSubstrate?: string[];
 }
 
 export interface GrowResult {
@@ -188,6 +197,17 @@ export function growLayers(stack: OpticalStack, mask: SpecMask, options: GrowOpt
     throw new OpticsInputError('outermostFixed', 'must be true or false');
   }
   const outermostFixed = opts.outermostFixed === true && start.layers.length > 0;
+  const materialNames = (value: unknown, field: string): string[] | undefined => {
+    if (value === undefined) return undefined;
+    if (!Array.isArray(value)) throw new OpticsInputError(field, 'must be a list of allowed material names');
+    return value.map((name, i) => {
+      if (typeof name !== 'string' || !materials.some((m) => m.name === name))
+        throw new OpticsInputError(fieldPath(field, i), `"${String(name)}" is not an allowed material`);
+      return name;
+    });
+  };
+  const outermostOnly = materialNames(opts.outermostOnly, 'outermostOnly') ?? [];
+  const nextToSubstrate = materialNames(opts.nextToSubstrate, 'nextToSubstrate');
   if (opts.onStep !== undefined && typeof opts.onStep !== 'function') {
     throw new OpticsInputError('onStep', 'must be a function');
   }
@@ -253,6 +273,7 @@ export function growLayers(stack: OpticalStack, mask: SpecMask, options: GrowOpt
     maxIterations,
     derivatives,
     outermostFixed,
+    placementOk: placementRule(names, outermostOnly, nextToSubstrate, layers),
   };
   const steps: GrowStep[] = [];
   // Growing stops once the mask is met with the target margin, not at the first bare pass.
@@ -320,6 +341,32 @@ interface GrowContext {
   maxIterations: number;
   derivatives: DerivativeMethod;
   outermostFixed: boolean;
+  /** Whether a structure keeps the placement rules (outermost-only and next-to-substrate materials). */
+  placementOk: (layers: readonly WorkLayer[]) => boolean;
+}
+
+/**
+ * The placement rules as a check of a structure: an outermost-only material appears only as the
+ * front layer, and the layer on the substrate is one of `nextToSubstrate` (when given). A rule the
+ * start already breaks is not held against it (the engineer chose that start), only new breaches.
+ */
+function placementRule(
+  names: readonly string[],
+  outermostOnly: readonly string[],
+  nextToSubstrate: readonly string[] | undefined,
+  start: readonly WorkLayer[],
+): (layers: readonly WorkLayer[]) => boolean {
+  const inner = new Set(outermostOnly.map((n) => names.indexOf(n)));
+  const last = nextToSubstrate && new Set(nextToSubstrate.map((n) => names.indexOf(n)));
+  const startInner = start.slice(1).filter((l) => inner.has(l.material)).length;
+  const startLast = start[start.length - 1]?.material;
+  return (layers) => {
+    if (inner.size > 0 && layers.slice(1).filter((l) => inner.has(l.material)).length > startInner)
+      return false;
+    const bottom = layers[layers.length - 1]?.material;
+    if (last && bottom !== undefined && bottom !== startLast && !last.has(bottom)) return false;
+    return true;
+  };
 }
 
 /** A kept structure and where its new layer went. */
@@ -436,8 +483,10 @@ function tryNeedles(ctx: GrowContext, current: Refined, reasons: Set<GrowStop>):
     if (tried.has(key)) continue;
     if (tried.size >= CANDIDATES_PER_STEP) break;
     tried.add(key);
-    const result = settle(ctx, current, insertNeedle(layers, cand, ctx.needleNm), true, reasons);
-    if (better(result, current)) {
+    const grown = insertNeedle(layers, cand, ctx.needleNm);
+    if (!ctx.placementOk(grown)) continue;
+    const result = settle(ctx, current, grown, true, reasons);
+    if (better(result, current) && ctx.placementOk(result.layers)) {
       let depth = cand.offsetNm;
       for (let j = 0; j < cand.layer; j++) depth += layers[j].thicknessNm;
       return { refined: result, inserted: { material: ctx.names[cand.material], depthNm: depth } };
@@ -462,8 +511,13 @@ function tryWholeLayers(ctx: GrowContext, current: Refined, reasons: Set<GrowSto
       for (const startNm of [ctx.minNm, ctx.quarterWaveNm[m], 2 * ctx.quarterWaveNm[m]]) {
         const layer = { material: m, thicknessNm: startNm };
         const grown = side === 'front' ? [layer, ...layers] : [...layers, layer];
+        if (!ctx.placementOk(grown)) continue;
         const result = settle(ctx, current, grown, false, reasons);
-        if (better(result, current) && (!best || result.sum < best.refined.sum)) {
+        if (
+          better(result, current) &&
+          ctx.placementOk(result.layers) &&
+          (!best || result.sum < best.refined.sum)
+        ) {
           best = {
             refined: result,
             inserted: { material: ctx.names[m], depthNm: side === 'front' ? 0 : total },

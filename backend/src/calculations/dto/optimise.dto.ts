@@ -56,6 +56,20 @@ export class GrowDto extends FitDto {
   @IsInt({ each: true, message: 'allowedMaterialIds must hold material ids' })
   allowedMaterialIds: number[];
 
+  /** Allowed materials that may only be the outermost layer (e.g. a fluoride on top). */
+  @IsOptional()
+  @IsArray()
+  @ArrayMaxSize(8)
+  @IsInt({ each: true, message: 'outermostOnlyMaterialIds must hold material ids' })
+  outermostOnlyMaterialIds?: number[];
+
+  /** The only allowed materials a new layer next to the substrate may be. */
+  @IsOptional()
+  @IsArray()
+  @ArrayMaxSize(8)
+  @IsInt({ each: true, message: 'nextToSubstrateMaterialIds must hold material ids' })
+  nextToSubstrateMaterialIds?: number[];
+
   @IsOptional()
   @IsInt()
   @Min(1)

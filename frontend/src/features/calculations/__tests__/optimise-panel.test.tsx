@@ -282,13 +282,13 @@ describe('OptimisePanel — Grow layers', () => {
     const { user } = renderPanel(TWO_LAYERS);
     await user.click(await screen.findByRole('tab', { name: 'Grow layers' }));
     // The version's materials are ticked at first; its incident medium and substrate are not offered.
-    const mgf2 = await region().findByRole('checkbox', { name: 'MgF2' });
-    expect(
-      region()
-        .getAllByRole('checkbox')
-        .map((c) => c.closest('label')?.textContent),
-    ).toEqual(['MgF2', 'TiO2']);
-    const tio2 = region().getByRole('checkbox', { name: 'TiO2' });
+    const group = within(await region().findByRole('group', { name: 'Allowed materials' }));
+    const mgf2 = group.getByRole('checkbox', { name: 'MgF2' });
+    expect(group.getAllByRole('checkbox').map((c) => c.closest('label')?.textContent)).toEqual([
+      'MgF2',
+      'TiO2',
+    ]);
+    const tio2 = group.getByRole('checkbox', { name: 'TiO2' });
     expect([(mgf2 as HTMLInputElement).checked, (tio2 as HTMLInputElement).checked]).toEqual([true, true]);
     await user.click(mgf2);
     await user.click(tio2);
@@ -319,6 +319,8 @@ describe('OptimisePanel — Grow layers', () => {
     });
     const { user, onVersionChange, storeVersion } = renderPanel(TWO_LAYERS);
     await user.click(await screen.findByRole('tab', { name: 'Grow layers' }));
+    const outermost = within(await region().findByRole('group', { name: 'Only as the outermost layer' }));
+    await user.click(outermost.getByRole('checkbox', { name: 'MgF2' }));
     await user.click(await region().findByRole('button', { name: 'Run Grow layers' }));
 
     const progression = await region().findByRole('figure', { name: 'Merit against layer count' });
@@ -328,6 +330,7 @@ describe('OptimisePanel — Grow layers', () => {
     expect(api.calls('POST', '/api/designs/12/versions/1/grow').map((r) => r.body)).toEqual([
       {
         allowedMaterialIds: [4, 5],
+        outermostOnlyMaterialIds: [4],
         maxLayers: 30,
         maxTotalThicknessNm: 5000,
         minThicknessNm: 10,

@@ -16,6 +16,10 @@ export interface FitRequest {
 /** Body of POST …/grow (GrowDto of the API). */
 export interface GrowRequest extends FitRequest {
   allowedMaterialIds: number[];
+  /** Allowed materials that may only be the outermost layer. */
+  outermostOnlyMaterialIds?: number[];
+  /** The only allowed materials a new layer next to the substrate may be. */
+  nextToSubstrateMaterialIds?: number[];
   maxLayers?: number;
   maxTotalThicknessNm?: number;
   maxSteps?: number;

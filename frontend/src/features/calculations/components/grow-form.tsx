@@ -6,7 +6,7 @@ import FormControlLabel from '@mui/material/FormControlLabel';
 import FormGroup from '@mui/material/FormGroup';
 import FormHelperText from '@mui/material/FormHelperText';
 import FormLabel from '@mui/material/FormLabel';
-import { Controller, useForm } from 'react-hook-form';
+import { Controller, useForm, useWatch } from 'react-hook-form';
 import { FormTextField } from '../../../components/form-text-field';
 import type { GrowRequest } from '../api/submit-optimisation';
 import { numberIn, wholeIn } from '../form-rules';
@@ -18,6 +18,8 @@ export const MAX_ALLOWED_MATERIALS = 8;
 
 interface GrowValues {
   allowedMaterialIds: number[];
+  outermostOnlyMaterialIds: number[];
+  nextToSubstrateMaterialIds: number[];
   maxLayers: string;
   maxTotalThicknessNm: string;
   minThicknessNm: string;
@@ -36,11 +38,62 @@ interface GrowFormProps {
   onRun: (body: GrowRequest) => void;
 }
 
+/** The placement rules of the form, only for materials still allowed; omitted when none is ticked. */
+function placement(
+  v: GrowValues,
+): Pick<GrowRequest, 'outermostOnlyMaterialIds' | 'nextToSubstrateMaterialIds'> {
+  const keep = (ids: number[]) => ids.filter((id) => v.allowedMaterialIds.includes(id));
+  const outer = keep(v.outermostOnlyMaterialIds);
+  const bottom = keep(v.nextToSubstrateMaterialIds);
+  return {
+    ...(outer.length > 0 ? { outermostOnlyMaterialIds: outer } : {}),
+    ...(bottom.length > 0 ? { nextToSubstrateMaterialIds: bottom } : {}),
+  };
+}
+
+interface MaterialChecksProps {
+  legend: string;
+  materials: readonly { id: number; name: string }[];
+  value: number[];
+  onChange: (ids: number[]) => void;
+  error?: string;
+  help?: string;
+}
+
+/** A row of material checkboxes bound to a list of ids. */
+function MaterialChecks({ legend, materials, value, onChange, error, help }: MaterialChecksProps) {
+  return (
+    <FormControl component="fieldset" error={Boolean(error)}>
+      <FormLabel component="legend">{legend}</FormLabel>
+      <FormGroup row>
+        {materials.map((m) => (
+          <FormControlLabel
+            key={m.id}
+            label={m.name}
+            control={
+              <Checkbox
+                size="small"
+                checked={value.includes(m.id)}
+                onChange={(e) =>
+                  onChange(e.target.checked ? [...value, m.id] : value.filter((id) => id !== m.id))
+                }
+              />
+            }
+          />
+        ))}
+      </FormGroup>
+      {(error ?? help) && <FormHelperText>{error ?? help}</FormHelperText>}
+    </FormControl>
+  );
+}
+
 /** Allowed materials and limits of Grow layers (needle synthesis from the version's stack). */
 export function GrowForm({ materials, initialMaterialIds, layerCount, pending, onRun }: GrowFormProps) {
   const { control, handleSubmit } = useForm<GrowValues>({
     defaultValues: {
       allowedMaterialIds: initialMaterialIds.slice(0, MAX_ALLOWED_MATERIALS),
+      outermostOnlyMaterialIds: [],
+      nextToSubstrateMaterialIds: [],
       maxLayers: String(Math.max(30, layerCount)),
       maxTotalThicknessNm: '5000',
       minThicknessNm: '10',
@@ -50,9 +103,11 @@ export function GrowForm({ materials, initialMaterialIds, layerCount, pending, o
     },
     mode: 'onTouched',
   });
+  const allowed = useWatch({ control, name: 'allowedMaterialIds' });
   const onSubmit = handleSubmit((v) =>
     onRun({
       allowedMaterialIds: v.allowedMaterialIds,
+      ...placement(v),
       maxLayers: Number(v.maxLayers),
       maxTotalThicknessNm: Number(v.maxTotalThicknessNm),
       minThicknessNm: Number(v.minThicknessNm),
@@ -81,29 +136,39 @@ export function GrowForm({ materials, initialMaterialIds, layerCount, pending, o
                 : true,
         }}
         render={({ field, fieldState }) => (
-          <FormControl component="fieldset" error={Boolean(fieldState.error)}>
-            <FormLabel component="legend">Allowed materials</FormLabel>
-            <FormGroup row>
-              {materials.map((m) => (
-                <FormControlLabel
-                  key={m.id}
-                  label={m.name}
-                  control={
-                    <Checkbox
-                      size="small"
-                      checked={field.value.includes(m.id)}
-                      onChange={(e) =>
-                        field.onChange(
-                          e.target.checked ? [...field.value, m.id] : field.value.filter((id) => id !== m.id),
-                        )
-                      }
-                    />
-                  }
-                />
-              ))}
-            </FormGroup>
-            {fieldState.error && <FormHelperText>{fieldState.error.message}</FormHelperText>}
-          </FormControl>
+          <MaterialChecks
+            legend="Allowed materials"
+            materials={materials}
+            value={field.value}
+            onChange={field.onChange}
+            error={fieldState.error?.message}
+          />
+        )}
+      />
+      <Controller
+        control={control}
+        name="outermostOnlyMaterialIds"
+        render={({ field }) => (
+          <MaterialChecks
+            legend="Only as the outermost layer"
+            materials={materials.filter((m) => allowed.includes(m.id))}
+            value={field.value.filter((id) => allowed.includes(id))}
+            onChange={field.onChange}
+            help="e.g. a soft fluoride on top: never placed inside the stack"
+          />
+        )}
+      />
+      <Controller
+        control={control}
+        name="nextToSubstrateMaterialIds"
+        render={({ field }) => (
+          <MaterialChecks
+            legend="Allowed next to the substrate"
+            materials={materials.filter((m) => allowed.includes(m.id))}
+            value={field.value.filter((id) => allowed.includes(id))}
+            onChange={field.onChange}
+            help="None ticked: any allowed material"
+          />
         )}
       />
       <Box sx={{ display: 'flex', gap: 1.5, flexWrap: 'wrap', alignItems: 'flex-start' }}>
