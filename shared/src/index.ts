@@ -19,6 +19,7 @@ export * from './customers.js';
 export * from './optics/errors.js';
 export * from './optics/dispersion.js';
 export * from './optics/library.js';
+export * from './optics/constants-file.js';
 export * from './optics/thickness.js';
 export * from './optics/stack.js';
 export * from './optics/matrix.js';

@@ -92,3 +92,16 @@ export interface MaterialRevisionView {
   supersededAt: string;
   supersededBy: string | null;
 }
+
+/**
+ * The materials a picker offers: those not retired, plus any retired ones already chosen (`keep`),
+ * so a version that uses a retired material still shows and keeps it. Library order is kept.
+ */
+export function pickableMaterials<T extends { id: number; retiredAt?: string | null }>(
+  library: readonly T[],
+  keep: Iterable<number | null | undefined> = [],
+): T[] {
+  const kept = new Set<number>();
+  for (const id of keep) if (typeof id === 'number') kept.add(id);
+  return library.filter((m) => !m.retiredAt || kept.has(m.id));
+}

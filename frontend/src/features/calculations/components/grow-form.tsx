@@ -1,3 +1,4 @@
+import { pickableMaterials } from '@quietglass/shared';
 import Box from '@mui/material/Box';
 import Button from '@mui/material/Button';
 import Checkbox from '@mui/material/Checkbox';
@@ -80,7 +81,7 @@ export function GrowForm({ materials, initialMaterialIds, layerCount, pending, o
           <FormControl component="fieldset" error={Boolean(fieldState.error)}>
             <FormLabel component="legend">Allowed materials</FormLabel>
             <FormGroup row>
-              {materials.map((m) => (
+              {pickableMaterials(materials, initialMaterialIds).map((m) => (
                 <FormControlLabel
                   key={m.id}
                   label={m.name}
