@@ -6,6 +6,7 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { MaterialView } from '@quietglass/shared/materials';
 import { indexAt } from '@quietglass/shared/optics/dispersion';
 import { createTestApp, demoSession } from './support/app.js';
+import { customerId, materialIds, twoLayerDesign, versionContent } from './support/fixtures.js';
 
 let app: NestExpressApplication;
 let engineer: string;
@@ -430,5 +431,39 @@ describe('formula valid range and retiring', () => {
         id,
       ]);
     expect(audit.map((a: { action: string }) => a.action)).toEqual(['created', 'retired', 'restored']);
+  });
+});
+
+describe('a retired material in designs', () => {
+  it('cannot be chosen for new work, but a draft that already uses it keeps it and saves', async () => {
+    const ids = await materialIds(app, engineer);
+    const customer = await customerId(app, engineer, 'Halden Vision Systems');
+    const made = await http()
+      .post('/api/materials')
+      .set('Cookie', engineer)
+      .send({
+        name: 'Soon retired oxide',
+        model: { model: 'constant', n: 1.9 },
+        rangeNm: { from: 300, to: 1200 },
+        typical: true,
+      });
+    const design = twoLayerDesign({ ...ids, ZrO2: made.body.id }, customer, 'Uses soon retired oxide');
+    const draft = await http().post('/api/designs').set('Cookie', engineer).send(design);
+    expect(draft.status, JSON.stringify(draft.body)).toBe(201);
+    await http().post(`/api/materials/${made.body.id}/retire`).set('Cookie', engineer).send({ version: 1 });
+
+    const fresh = await http()
+      .post('/api/designs')
+      .set('Cookie', engineer)
+      .send({ ...design, name: 'New with retired' });
+    expect(fresh.status).toBe(400);
+    expect(fresh.body.message).toMatch(/material "Soon retired oxide" is retired/);
+
+    const version = await http().get(`/api/designs/${draft.body.id}/versions/1`).set('Cookie', engineer);
+    const saved = await http()
+      .put(`/api/designs/${draft.body.id}/versions/1`)
+      .set('Cookie', engineer)
+      .send({ ...versionContent(design), rowVersion: version.body.rowVersion });
+    expect(saved.status, JSON.stringify(saved.body)).toBe(200);
   });
 });

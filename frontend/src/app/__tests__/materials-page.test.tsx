@@ -53,7 +53,8 @@ describe('materials page', () => {
       await screen.findByRole('region', { name: 'Material Test fluoride' }, { timeout: 10_000 }),
     ).toBeTruthy();
     expect(screen.queryByRole('region', { name: 'Material Test glass' })).toBeNull();
-  });
+    // The whole page and the material form with its live readout: slow in jsdom on a busy machine.
+  }, 60_000);
 
   it('shows a revised material’s revision and what its earlier revisions held', async () => {
     const oxide = { ...material(5, 'Test oxide', 2.1), revision: 2 };
