@@ -196,14 +196,16 @@ describe('compute queue: full analysis', () => {
       .set('Cookie', engineer)
       .send({ ...small, angleCount: 500 });
     expect(tooMany.body.message).toMatch(/angleCount: must be a whole number from 1 to 181/);
-    // The demo TiO2 is valid from 400 nm.
+    // The demo TiO2 (the published film table of Sarkar et al.) covers 300–1690 nm, and N-BK7's
+    // Sellmeier coefficients hold for 300–2500 nm (SCHOTT data sheet): both are named.
     const outside = await http()
       .post(`/api/designs/${id}/versions/1/analysis`)
       .set('Cookie', engineer)
-      .send({ ...small, fromNm: 300 });
+      .send({ ...small, fromNm: 250 });
     expect(outside.status).toBe(400);
     expect(outside.body.details).toEqual([
-      'TiO2 is valid over 400–1100 nm; the analysis asks for 300–700 nm',
+      'N-BK7 is valid over 300–2500 nm; the analysis asks for 250–700 nm',
+      'TiO2 is valid over 300–1690 nm; the analysis asks for 250–700 nm',
     ]);
   });
 

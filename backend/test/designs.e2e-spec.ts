@@ -126,7 +126,8 @@ describe('stack designs', () => {
     expect(submit.body.status).toBe('submitted');
     expect(submit.body.materialsSnapshot[String(m['MgF2'])]).toMatchObject({
       name: 'MgF2',
-      model: { model: 'cauchy' },
+      // The demo library's MgF2 is the tabulated film of Rodríguez-de Marcos et al.
+      model: { model: 'table' },
     });
     const edit = await http()
       .put(`/api/designs/${design.id}/versions/1`)

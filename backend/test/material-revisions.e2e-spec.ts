@@ -29,7 +29,7 @@ const materialBody = (name: string, n: number, version?: number) => ({
   name,
   model: { model: 'constant', n, k: 0 },
   rangeNm: { from: 300, to: 1200 },
-  provenance: { source: 'invented for this test', notes: '' },
+  provenance: { kind: 'published', source: 'invented for this test', notes: '' },
   ...(version === undefined ? {} : { version }),
 });
 
@@ -103,7 +103,7 @@ describe('material revisions', () => {
         model: { model: 'constant', n: 2.05, k: 0 },
         rangeNm: { from: 300, to: 1200 },
         typical: false,
-        provenance: { source: 'invented for this test', date: null, notes: '' },
+        provenance: { kind: 'published', source: 'invented for this test', date: null, run: '', notes: '' },
         supersededAt: expect.any(String),
         supersededBy: 'Mira Castell',
       },
@@ -116,7 +116,7 @@ describe('material revisions', () => {
       .set('Cookie', mira)
       .send({
         ...materialBody('Revision test oxide', 2.1, revised.body.version),
-        provenance: { source: 'invented for this test', notes: 'checked on a witness' },
+        provenance: { kind: 'published', source: 'invented for this test', notes: 'checked on a witness' },
       });
     expect(notesOnly.body).toMatchObject({ revision: 2, provenance: { notes: 'checked on a witness' } });
 

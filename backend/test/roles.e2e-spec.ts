@@ -63,6 +63,8 @@ interface MatrixContext {
   sendQuoteIds: Partial<Record<Role | 'anonymous', number>>;
   /** Per permitted role, a customer of its own to archive and then restore, and its version. */
   archiveCustomers: Partial<Record<Role | 'anonymous', { id: number; version: number }>>;
+  /** Per permitted role, a material of its own to retire and then restore, and its version. */
+  retireMaterials: Partial<Record<Role | 'anonymous', { id: number; version: number }>>;
   sentQuoteIds: Partial<Record<Role | 'anonymous', number>>;
   outboxId: number;
   attachmentId: number;
@@ -106,6 +108,15 @@ const maskBody = (ctx: MatrixContext) => ({
   revision: 'A',
   bands: [{ from_nm: 400, to_nm: 700, quantity: 'R', max_percent: 1 }],
 });
+/** A published optical-constants file in its own format (excerpt; values invented for the matrix). */
+const CONSTANTS_FILE = `REFERENCES: |
+    Matrix test reference (invented).
+DATA:
+  - type: tabulated n
+    data: |
+        0.40 1.50
+        0.80 1.45
+`;
 const materialBody = (name: string) => ({
   name,
   model: { model: 'constant', n: 1.9, k: 0 },
@@ -209,8 +220,48 @@ const RULES: RouteRule[] = [
       name: `Matrix table ${(ctx.counter += 1)}`,
       unit: 'nm',
       csv: 'wavelength_nm,n,k\n400,1.5,0\n800,1.45,0\n',
+      typical: true,
     }),
   },
+  {
+    method: 'post',
+    path: '/api/materials/import-csv/preview',
+    allow: DESIGNERS,
+    okStatus: 200,
+    body: () => ({ csv: 'Wavelength (nm);n;k\n400;1,5;0\n800;1,45;0\n' }),
+  },
+  {
+    method: 'post',
+    path: '/api/materials/import-constants',
+    allow: DESIGNERS,
+    okStatus: 201,
+    body: (ctx) => ({
+      name: `Matrix constants ${(ctx.counter += 1)}`,
+      text: CONSTANTS_FILE,
+      fileName: 'matrix.yml',
+    }),
+  },
+  {
+    method: 'get',
+    path: '/api/materials/:id/source-file',
+    allow: ALL,
+    okStatus: 200,
+    download: true,
+    url: (ctx) => `/api/materials/${ctx.materialIdsByName.SiO2}/source-file`,
+  },
+  ...(['retire', 'restore'] as const).map((action): RouteRule => ({
+    method: 'post',
+    path: `/api/materials/:id/${action}`,
+    allow: DESIGNERS,
+    okStatus: 201,
+    url: (ctx, role) => `/api/materials/${ctx.retireMaterials[role]?.id ?? ctx.materialId}/${action}`,
+    body: (ctx, role) => ({ version: ctx.retireMaterials[role]?.version ?? 1 }),
+    after: (ctx, body) => {
+      const saved = body as { id?: number; version?: number };
+      for (const own of Object.values(ctx.retireMaterials))
+        if (own && own.id === saved.id) own.version = saved.version ?? own.version;
+    },
+  })),
   { method: 'get', path: '/api/designs', allow: OFFICE, okStatus: 200 },
   { method: 'post', path: '/api/designs', allow: DESIGNERS, okStatus: 201, body: (ctx) => ctx.design },
   {
@@ -706,6 +757,7 @@ const ctx: MatrixContext = {
   quoteVersion: 1,
   sendQuoteIds: {},
   archiveCustomers: {},
+  retireMaterials: {},
   sentQuoteIds: {},
   outboxId: 0,
   attachmentId: 0,
@@ -745,6 +797,14 @@ beforeAll(async () => {
   expect(material.status).toBe(201);
   ctx.materialId = material.body.id;
   ctx.materialVersion = material.body.version;
+  for (const role of DESIGNERS) {
+    const own = await request(app.getHttpServer())
+      .post('/api/materials')
+      .set('Cookie', adminCookie)
+      .send(materialBody(`Matrix retire material ${role}`));
+    expect(own.status).toBe(201);
+    ctx.retireMaterials[role] = { id: own.body.id, version: own.body.version };
+  }
   const customer = await request(app.getHttpServer())
     .post('/api/customers')
     .set('Cookie', adminCookie)

@@ -20,6 +20,7 @@ export * from './stack-file.js';
 export * from './optics/errors.js';
 export * from './optics/dispersion.js';
 export * from './optics/library.js';
+export * from './optics/constants-file.js';
 export * from './optics/thickness.js';
 export * from './optics/stack.js';
 export * from './optics/matrix.js';

@@ -3,6 +3,60 @@
  */
 import type { MaterialModel } from './optics/dispersion.js';
 
+/**
+ * Where a material's data came from: a published reference, a measurement on the shop's own
+ * process (with its date and run), or a typical value (not measured, not for release decisions).
+ */
+export const PROVENANCE_KINDS = ['published', 'measured', 'typical'] as const;
+export type ProvenanceKind = (typeof PROVENANCE_KINDS)[number];
+
+export const PROVENANCE_KIND_LABELS: Readonly<Record<ProvenanceKind, string>> = {
+  published: 'Published reference',
+  measured: 'Measured on our process',
+  typical: 'Typical value',
+};
+
+/** Longest reference text a material keeps (characters). */
+export const MAX_SOURCE_LENGTH = 2000;
+/** Longest run identifier (characters). */
+export const MAX_RUN_LENGTH = 120;
+
+export interface MaterialProvenance {
+  kind: ProvenanceKind;
+  /** The reference (published), or what was measured and how (measured); may be empty for typical. */
+  source: string;
+  /** Measurement date, YYYY-MM-DD (required for measured). */
+  date: string | null;
+  /** The run the measurement came from (required for measured), e.g. "B2-2026-118". */
+  run: string;
+  notes: string;
+}
+
+/**
+ * What is missing from a provenance, or null when it is complete: a published reference names it,
+ * a measurement names its date and run. The API and the material form both use this rule.
+ */
+export function provenanceProblem(p: {
+  kind: ProvenanceKind;
+  source?: string | null;
+  date?: string | null;
+  run?: string | null;
+}): string | null {
+  const filled = (v: string | null | undefined) => typeof v === 'string' && v.trim() !== '';
+  if (p.kind === 'published' && !filled(p.source)) return 'a published material needs its reference';
+  if (p.kind === 'measured' && (!filled(p.date) || !filled(p.run))) {
+    return 'a measured material needs the measurement date and the run';
+  }
+  return null;
+}
+
+/** The original file a material was imported from, kept for download. */
+export interface MaterialSourceFile {
+  fileName: string;
+  mediaType: string;
+  sizeBytes: number;
+}
+
 /** A material of the library: its dispersion model, valid range and where the data came from. */
 export interface MaterialView {
   id: number;
@@ -14,9 +68,13 @@ export interface MaterialView {
   revision: number;
   model: MaterialModel;
   rangeNm: { from: number; to: number };
-  /** A typical value, not measured on this shop's process. */
+  /** A typical value, not measured on this shop's process (provenance kind `typical`). */
   typical: boolean;
-  provenance: { source: string; date: string | null; notes: string };
+  provenance: MaterialProvenance;
+  /** When it was retired (hidden from pickers, kept for the versions that use it), or null. */
+  retiredAt: string | null;
+  /** The file it was imported from, or null. */
+  sourceFile: MaterialSourceFile | null;
   /** Optimistic-locking counter: send it back with an edit. */
   version: number;
   updatedAt: string;
@@ -29,8 +87,21 @@ export interface MaterialRevisionView {
   model: MaterialModel;
   rangeNm: { from: number; to: number };
   typical: boolean;
-  provenance: { source: string; date: string | null; notes: string };
+  provenance: MaterialProvenance;
   /** When the next revision replaced it (ISO time), and by whom. */
   supersededAt: string;
   supersededBy: string | null;
+}
+
+/**
+ * The materials a picker offers: those not retired, plus any retired ones already chosen (`keep`),
+ * so a version that uses a retired material still shows and keeps it. Library order is kept.
+ */
+export function pickableMaterials<T extends { id: number; retiredAt?: string | null }>(
+  library: readonly T[],
+  keep: Iterable<number | null | undefined> = [],
+): T[] {
+  const kept = new Set<number>();
+  for (const id of keep) if (typeof id === 'number') kept.add(id);
+  return library.filter((m) => !m.retiredAt || kept.has(m.id));
 }

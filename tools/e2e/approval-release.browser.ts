@@ -129,18 +129,18 @@ describe('approval and release', () => {
     const firstStep = (await layers.getByRole('row').nth(1).getByRole('cell').allInnerTexts()).map((t) =>
       t.trim(),
     );
-    // Step 1 is SiO2, next to the glass. By hand: monitor = 76.2 ÷ 1.04 = 73.27 nm; time = 73.269 ÷ 0.8
-    // = 91.6 s (tooling factor = part ÷ monitor, rates at the monitor).
+    // Step 1 is SiO2, next to the glass. By hand: monitor = 89.3 ÷ 1.04 = 85.87 nm; time = 85.865 ÷ 0.8
+    // = 107.3 s (tooling factor = part ÷ monitor, rates at the monitor).
     expect(firstStep.slice(0, 9)).toEqual([
       '1',
       '4',
       'SiO2',
-      '76.20',
+      '89.30',
       '1.040',
-      '73.27',
+      '85.87',
       expect.any(String),
       '0.80',
-      '91.6',
+      '107.3',
     ]);
     const chamberId = new URL(page.url()).searchParams.get('chamberId');
     const json = await apiCall(
@@ -153,7 +153,7 @@ describe('approval and release', () => {
       layers: { qwotAtMonitor: number; monitorThicknessNm: number }[];
       cautions: string[];
     };
-    expect(sheet.layers[0].monitorThicknessNm).toBeCloseTo(76.2 / 1.04, 9);
+    expect(sheet.layers[0].monitorThicknessNm).toBeCloseTo(89.3 / 1.04, 9);
     expect(firstStep[6]).toBe(sheet.layers[0].qwotAtMonitor.toFixed(3));
 
     const cautions = page.getByRole('region', { name: 'Safety cautions' });

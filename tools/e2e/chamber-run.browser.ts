@@ -16,8 +16,8 @@ import { FOUR_LAYER_AR, browserSession, demoUser, prepareDesign, startRunInDialo
 /*
  * A chamber run of a released recipe, end to end. The engineer Mira Castell designs a four-layer AR
  * coating for Halden Vision Systems' mask "HVS-2210 lens AR" rev A (R ≤ 0.5 % over 420–680 nm at
- * 0, 15 and 30°, unpolarised), incident side first MgF2 96.8 / ZrO2 127.6 / Al2O3 84.2 / SiO2
- * 76.2 nm on N-BK7, front surface only (the stack of the design-workspace test), and submits it;
+ * 0, 15 and 30°, unpolarised), incident side first MgF2 94.2 / ZrO2 119.1 / Al2O3 79.6 / SiO2
+ * 89.3 nm on N-BK7, front surface only (the stack of the design-workspace test), and submits it;
  * Tomas Reyes approves and releases it. The operator Jonah Pike starts a run in "Box coater B2",
  * logs a reading and a durability result, uploads a malformed file (refused row by row) and then a
  * witness measurement made up for the test: the recipe's own reflectance at 8° computed with the
@@ -104,7 +104,7 @@ describe('chamber run', () => {
 
     // Step 1 is the SiO2 layer next to the glass; the monitor read 75.9 nm.
     const readings = region(page, 'Layer readings');
-    expect(await readings.getByRole('row').nth(1).innerText()).toMatch(/^1\s+SiO2\s+76\.2/);
+    expect(await readings.getByRole('row').nth(1).innerText()).toMatch(/^1\s+SiO2\s+89\.3/);
     await readings.getByLabel('Monitor thickness of step 1').fill('75.9');
     await readings.getByLabel('Remarks on step 1').fill('rate steady');
     await readings.getByRole('button', { name: 'Save readings' }).click();

@@ -12,7 +12,8 @@ export function numericCell(value: string): number | null {
   return /^[+-]?(\d+\.?\d*|\.\d+)([eE][+-]?\d+)?$/.test(t) ? Number(t) : null;
 }
 
-export type CsvRows = { ok: true; rows: string[][]; lines: number[] } | { ok: false; problems: CsvProblem[] };
+export type CsvRows =
+  { ok: true; rows: string[][]; lines: number[]; delimiter: string } | { ok: false; problems: CsvProblem[] };
 
 /**
  * Splits CSV text into rows (empty lines skipped, BOM removed), with each row's line number in the
@@ -37,7 +38,7 @@ export function readCsvRows(
       problems: [{ row: (quote.row ?? 0) + 1, reason: `unbalanced quotes: ${quote.message}` }],
     };
   const lines = body.split(/\r\n|\n|\r/).flatMap((line, i) => (line.trim() === '' ? [] : [i + 1]));
-  return { ok: true, rows: parsed.data, lines };
+  return { ok: true, rows: parsed.data, lines, delimiter: parsed.meta.delimiter };
 }
 
 /** Problems as API details: `row N: reason`, or the reason alone for the whole file. */

@@ -31,6 +31,7 @@ import { Sessions1764634700000 } from '../migrations/1764634700000-sessions.js';
 import { MaterialRevisions1764634800000 } from '../migrations/1764634800000-material-revisions.js';
 import { RecordUses1764700000000 } from '../migrations/1764700000000-record-uses.js';
 import { CustomerRecordsMaskKinds1764810000000 } from '../migrations/1764810000000-customer-records-mask-kinds.js';
+import { MaterialProvenanceFiles1764820000000 } from '../migrations/1764820000000-material-provenance-files.js';
 
 /** Every entity of the app; each domain module also registers its own with forFeature. */
 export const ENTITIES = [
@@ -71,6 +72,7 @@ export const MIGRATIONS = [
   MaterialRevisions1764634800000,
   RecordUses1764700000000,
   CustomerRecordsMaskKinds1764810000000,
+  MaterialProvenanceFiles1764820000000,
 ];
 
 /** TypeORM options for PostgreSQL; never `synchronize` — the schema comes from migrations. */

@@ -1,71 +1,87 @@
+import type { ProvenanceKind } from '@quietglass/shared/materials';
 import type { MaterialModel } from '@quietglass/shared/optics/dispersion';
 import { MATERIAL_LIBRARY } from '@quietglass/shared/optics/library';
+import { readLibraryFile } from '../materials/constants-library.js';
 
 export interface DemoMaterial {
   name: string;
   model: MaterialModel;
   rangeNm: { from: number; to: number };
-  typical: boolean;
+  provenanceKind: ProvenanceKind;
   source: string;
   processNotes: string;
+  /** The published constants file it was read from, kept with it for download. */
+  file?: { fileName: string; text: string };
 }
-
-const TYPICAL_SOURCE =
-  'Typical index near 550 nm (common practice, from memory); demo data only — measure your own process';
 
 /**
- * A Cauchy model n = A + B/λ² (λ in µm) through the typical index at 550 nm, with a modest,
- * typical dispersion B. Demo values, not measurements.
+ * The demo shop's library names for the published optical-constants files
+ * (backend/assets/optical-constants). The short names (SiO2, ZrO2 …) are the films the demo
+ * chamber and design use; other samples of the same material carry their kind and author.
  */
-function typicalCauchy(n550: number, B: number): MaterialModel {
-  return { model: 'cauchy', A: n550 - B / 0.55 ** 2, B, C: 0, k: 0 };
+const LIBRARY_NAMES: readonly [file: string, name: string][] = [
+  ['film/mgf2--rodriguez-de-marcos.yml', 'MgF2'],
+  ['film/sio2--gao.yml', 'SiO2'],
+  ['film/al2o3--franta.yml', 'Al2O3'],
+  ['film/hfo2--al-kuhaili.yml', 'HfO2'],
+  ['film/zro2--synowicki.yml', 'ZrO2'],
+  ['film/ta2o5--gao.yml', 'Ta2O5'],
+  ['film/nb2o5--lemarchand.yml', 'Nb2O5'],
+  ['film/tio2--sarkar.yml', 'TiO2'],
+  ['film/si3n4--beliaev.yml', 'Si3N4 (PECVD)'],
+  ['film/zns--amotchkina.yml', 'ZnS (e-beam)'],
+  ['film/sio2--lemarchand.yml', 'SiO2 (sputtered, Lemarchand)'],
+  ['film/sio2--rodriguez-de-marcos.yml', 'SiO2 (e-beam 300 °C, Rodríguez-de Marcos)'],
+  ['film/ta2o5--rodriguez-de-marcos.yml', 'Ta2O5 (e-beam 300 °C, Rodríguez-de Marcos)'],
+  ['film/tio2--siefke.yml', 'TiO2 (ALD, Siefke)'],
+  ['film/al2o3--zhukovsky.yml', 'Al2O3 (ALD, Zhukovsky)'],
+  ['metal/ag--mcpeak.yml', 'Ag'],
+  ['metal/al--mcpeak.yml', 'Al'],
+  ['metal/cr--johnson.yml', 'Cr'],
+  ['substrate/fused-silica--malitson.yml', 'Fused silica'],
+  ['substrate/sapphire-o--malitson-o.yml', 'Sapphire (ordinary ray)'],
+  ['substrate/caf2--malitson.yml', 'CaF2'],
+  ['substrate/b270--b270.yml', 'B270'],
+  ['substrate/si--green-2008.yml', 'Si'],
+  ['substrate/ge--burnett.yml', 'Ge'],
+  ['substrate/polycarbonate--sultanova.yml', 'Polycarbonate'],
+  ['substrate/pmma--sultanova.yml', 'PMMA'],
+];
+
+/** A library file as a demo material: its reference (and DOI) as source, its notes as notes. */
+function fromLibrary(file: string, name: string): DemoMaterial {
+  const { text, parsed, fileName } = readLibraryFile(file);
+  return {
+    name,
+    model: parsed.model,
+    rangeNm: parsed.rangeNm,
+    provenanceKind: 'published',
+    source: parsed.doi ? `${parsed.reference}\nDOI: ${parsed.doi}` : parsed.reference,
+    processNotes: [parsed.notes, `Data: ${parsed.form}`].filter((l) => l !== '').join('\n'),
+    file: { fileName, text },
+  };
 }
 
-/** Substrates from published Sellmeier coefficients; coating materials as typical demo values. */
+/** Air, N-BK7 (SCHOTT coefficients) and the published optical-constants files. */
 export const DEMO_MATERIALS: readonly DemoMaterial[] = [
   {
     name: 'Air',
     model: MATERIAL_LIBRARY.air,
     rangeNm: { from: 150, to: 20_000 },
-    typical: false,
+    provenanceKind: 'typical',
     source: 'Taken as n = 1; air (about 1.0003 at 550 nm) differs by less than coating work resolves',
     processNotes: 'Incident and exit medium',
   },
   {
     name: 'N-BK7',
-    model: MATERIAL_LIBRARY['N-BK7'],
+    // SCHOTT states the Sellmeier coefficients for 0.3–2.5 µm.
+    model: { ...MATERIAL_LIBRARY['N-BK7'], validNm: { from: 300, to: 2500 } } as MaterialModel,
     rangeNm: { from: 300, to: 2500 },
-    typical: false,
+    provenanceKind: 'published',
     source: 'SCHOTT optical glass data sheet, N-BK7 Sellmeier coefficients',
     processNotes: 'Substrate glass',
   },
-  {
-    name: 'Fused silica',
-    model: MATERIAL_LIBRARY['fused-silica'],
-    rangeNm: { from: 210, to: 3700 },
-    typical: false,
-    source: 'I. H. Malitson, J. Opt. Soc. Am. 55, 1205 (1965)',
-    processNotes: 'Substrate glass',
-  },
-  ...(
-    [
-      ['MgF2', 1.38, 0.003, 200],
-      ['SiO2', 1.46, 0.0035, 200],
-      ['Al2O3', 1.63, 0.008, 250],
-      ['HfO2', 1.95, 0.015, 250],
-      ['ZrO2', 2.05, 0.02, 300],
-      ['Ta2O5', 2.1, 0.022, 320],
-      ['Nb2O5', 2.3, 0.03, 380],
-      ['TiO2', 2.35, 0.035, 400],
-    ] as const
-  ).map(([name, n550, B, fromNm]) => ({
-    name,
-    model: typicalCauchy(n550, B),
-    rangeNm: { from: fromNm, to: 1100 },
-    typical: true,
-    source: TYPICAL_SOURCE,
-    processNotes: 'Evaporated film; no chamber data yet',
-  })),
+  ...LIBRARY_NAMES.map(([file, name]) => fromLibrary(file, name)),
 ];
 
 /** Invented customers of the invented demo shop. */
@@ -171,8 +187,9 @@ export const DEMO_CHAMBERS: readonly {
 
 /**
  * The demo shop's designs (invented scenario). "HVS-2210 four-layer AR" answers Halden's lens mask:
- * MgF2 / ZrO2 / Al2O3 / SiO2, incident side first, on N-BK7, thicknesses found with the optics engine
- * for the demo's typical materials. Mira Castell wrote and submitted version 1; Tomas Reyes approved
+ * MgF2 / ZrO2 / Al2O3 / SiO2, incident side first, on N-BK7, thicknesses found with the optics engine's
+ * Fit to mask for the demo library's published films (MgF2 Rodríguez-de Marcos et al., ZrO2
+ * Synowicki, Al2O3 Franta et al., SiO2 Gao et al.; worst margin +0.096 percentage points). Mira Castell wrote and submitted version 1; Tomas Reyes approved
  * and released it, so operators have a recipe to build and sales a version to quote.
  */
 export const DEMO_DESIGNS: readonly {
@@ -199,10 +216,10 @@ export const DEMO_DESIGNS: readonly {
     substrateThicknessMm: 2,
     referenceWavelengthNm: 550,
     layers: [
-      ['MgF2', 96.8],
-      ['ZrO2', 127.6],
-      ['Al2O3', 84.2],
-      ['SiO2', 76.2],
+      ['MgF2', 94.2],
+      ['ZrO2', 119.1],
+      ['Al2O3', 79.6],
+      ['SiO2', 89.3],
     ],
     notes: 'Front surface of the lens; demo design',
   },

@@ -90,16 +90,31 @@ async function createDemo(db: DataSource, signIns: DemoSignIn[]): Promise<number
   }
   for (const m of DEMO_MATERIALS) {
     if (await db.getRepository(Material).existsBy({ name: m.name })) continue;
-    await db.getRepository(Material).insert({
+    const content = m.file ? Buffer.from(m.file.text, 'utf8') : null;
+    const inserted = await db.getRepository(Material).insert({
       name: m.name,
       model: m.model,
       rangeFromNm: m.rangeNm.from,
       rangeToNm: m.rangeNm.to,
-      typical: m.typical,
+      typical: m.provenanceKind === 'typical',
+      provenanceKind: m.provenanceKind,
       source: m.source,
       processNotes: m.processNotes,
+      ...(m.file && content
+        ? {
+            sourceFileName: m.file.fileName,
+            sourceFileType: 'application/yaml',
+            sourceFileBytes: content.length,
+          }
+        : {}),
       version: 1,
     });
+    if (content) {
+      await db.query('INSERT INTO material_source_files (material_id, content) VALUES ($1, $2)', [
+        (inserted.identifiers[0] as { id: number }).id,
+        content,
+      ]);
+    }
     created += 1;
   }
   for (const mask of DEMO_SPEC_MASKS) {

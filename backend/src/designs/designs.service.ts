@@ -103,7 +103,7 @@ export class DesignsService {
       this.customers.get(dto.customerId),
       `customerId: customer ${dto.customerId} does not exist`,
     );
-    await this.checkMaterials(dto);
+    await this.checkMaterials(dto, this.db.manager, false, new Set());
     await this.checkMask(dto.specMaskId ?? null, customer.id);
     const id = await this.db.transaction(async (tx) => {
       const design = await tx
@@ -188,7 +188,8 @@ export class DesignsService {
   ): Promise<DesignVersionView> {
     const version = await this.findVersion(id, number);
     if (!isEditable(version)) throw notEditable(version);
-    await this.checkMaterials(dto);
+    // A retired material may stay where the draft already has it, but not be newly chosen.
+    await this.checkMaterials(dto, this.db.manager, false, usedMaterialIds(version));
     await this.db.transaction(async (tx) => {
       const saved = await updateIfVersion(
         tx,
@@ -345,6 +346,8 @@ export class DesignsService {
     c: DesignVersionContent | VersionContentDto,
     manager: EntityManager = this.db.manager,
     freeze = false,
+    /** When given, a retired material is refused unless its id is in this set (new work). */
+    retiredAllowed?: ReadonlySet<number>,
   ): Promise<Map<number, NamedModel>> {
     const wanted = new Set([
       c.incidentMaterialId,
@@ -372,6 +375,12 @@ export class DesignsService {
       if (!byId.has(l.materialId))
         problems.push(`layers[${i}].materialId: material ${l.materialId} does not exist`);
     });
+    if (retiredAllowed) {
+      for (const m of found) {
+        if (m.retiredAt && !retiredAllowed.has(m.id))
+          problems.push(`material "${m.name}" is retired; choose a current material or restore it first`);
+      }
+    }
     if (problems.length > 0) throw new BadRequestException({ message: problems });
     return byId;
   }
@@ -482,4 +491,9 @@ export function toVersionView(
     updatedAt: v.updatedAt.toISOString(),
     materialsSnapshot: v.materialsSnapshot,
   };
+}
+
+/** The materials a version's content uses (incident, substrate, layers). */
+function usedMaterialIds(c: DesignVersionContent): Set<number> {
+  return new Set([c.incidentMaterialId, c.substrateMaterialId, ...c.layers.map((l) => l.materialId)]);
 }

@@ -8,7 +8,7 @@ import {
   UpdateDateColumn,
   VersionColumn,
 } from 'typeorm';
-import type { MaterialRevisionView, MaterialView } from '@quietglass/shared/materials';
+import type { MaterialRevisionView, MaterialView, ProvenanceKind } from '@quietglass/shared/materials';
 import type { MaterialModel } from '@quietglass/shared/optics/dispersion';
 import { User } from '../users/user.entity.js';
 
@@ -38,6 +38,12 @@ export class Material {
   @Column({ type: 'text', default: '' })
   source: string;
 
+  @Column({ name: 'provenance_kind', type: 'varchar', length: 10, default: 'published' })
+  provenanceKind: ProvenanceKind;
+
+  @Column({ name: 'provenance_run', type: 'varchar', length: 120, default: '' })
+  provenanceRun: string;
+
   @Column({ name: 'source_date', type: 'date', nullable: true })
   sourceDate: string | null;
 
@@ -50,6 +56,20 @@ export class Material {
    */
   @Column({ type: 'integer', default: 1 })
   revision: number;
+
+  /** Retired: hidden from pickers, kept for the versions that use it. */
+  @Column({ name: 'retired_at', type: 'timestamptz', nullable: true })
+  retiredAt: Date | null;
+
+  /** The file it was imported from (its bytes live in material_source_files). */
+  @Column({ name: 'source_file_name', type: 'varchar', length: 255, nullable: true })
+  sourceFileName: string | null;
+
+  @Column({ name: 'source_file_type', type: 'varchar', length: 100, nullable: true })
+  sourceFileType: string | null;
+
+  @Column({ name: 'source_file_bytes', type: 'integer', nullable: true })
+  sourceFileBytes: number | null;
 
   @VersionColumn()
   version: number;
@@ -91,6 +111,12 @@ export class MaterialRevision {
   @Column({ type: 'text' })
   source: string;
 
+  @Column({ name: 'provenance_kind', type: 'varchar', length: 10 })
+  provenanceKind: ProvenanceKind;
+
+  @Column({ name: 'provenance_run', type: 'varchar', length: 120 })
+  provenanceRun: string;
+
   @Column({ name: 'source_date', type: 'date', nullable: true })
   sourceDate: string | null;
 
@@ -114,7 +140,13 @@ function contentView(m: Material | MaterialRevision) {
     model: m.model,
     rangeNm: { from: m.rangeFromNm, to: m.rangeToNm },
     typical: m.typical,
-    provenance: { source: m.source, date: m.sourceDate, notes: m.processNotes },
+    provenance: {
+      kind: m.provenanceKind,
+      source: m.source,
+      date: m.sourceDate,
+      run: m.provenanceRun,
+      notes: m.processNotes,
+    },
   };
 }
 
@@ -123,6 +155,15 @@ export function toMaterialView(m: Material): MaterialView {
     id: m.id,
     revision: m.revision,
     ...contentView(m),
+    retiredAt: m.retiredAt?.toISOString() ?? null,
+    sourceFile:
+      m.sourceFileName === null
+        ? null
+        : {
+            fileName: m.sourceFileName,
+            mediaType: m.sourceFileType ?? 'application/octet-stream',
+            sizeBytes: m.sourceFileBytes ?? 0,
+          },
     version: m.version,
     updatedAt: m.updatedAt.toISOString(),
   };

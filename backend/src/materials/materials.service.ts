@@ -7,6 +7,8 @@ import {
   type MaterialModel,
 } from '@quietglass/shared/optics/dispersion';
 import { OpticsInputError } from '@quietglass/shared/optics/errors';
+import { parseConstantsFile } from '@quietglass/shared/optics/constants-file';
+import { provenanceProblem, type ProvenanceKind } from '@quietglass/shared/materials';
 import { AuditService } from '../audit/audit.service.js';
 import { isUniqueViolation } from '../common/db-errors.js';
 import { stableStringify } from '../common/stable-json.js';
@@ -14,12 +16,30 @@ import { updateIfVersion } from '../common/optimistic-lock.js';
 import type { User } from '../users/user.entity.js';
 import { Material, MaterialRevision } from './material.entity.js';
 import type {
+  ImportConstantsFileDto,
   ImportMaterialCsvDto,
   MaterialDto,
+  NkCsvDto,
   ProvenanceDto,
   UpdateMaterialDto,
 } from './dto/material.dto.js';
-import { parseNkCsv } from './nk-csv.js';
+import { parseNkCsv, type NkTable, type WavelengthUnit } from './nk-csv.js';
+
+/** An uploaded file kept with the material it made. */
+interface SourceFile {
+  fileName: string;
+  mediaType: string;
+  content: Buffer;
+}
+
+/** What an n,k file reads as, shown before it is saved. */
+export interface NkCsvPreview {
+  table: NkTable;
+  unit: WavelengthUnit;
+  decimalComma: boolean;
+  headerRow: boolean;
+  rangeNm: { from: number; to: number };
+}
 
 /** Points at which a model is checked across its stated range (poles, n ≤ 0, k < 0). */
 const RANGE_CHECK_POINTS = 201;
@@ -87,6 +107,8 @@ export class MaterialsService {
             rangeFromNm: before.rangeFromNm,
             rangeToNm: before.rangeToNm,
             typical: before.typical,
+            provenanceKind: before.provenanceKind,
+            provenanceRun: before.provenanceRun,
             source: before.source,
             sourceDate: before.sourceDate,
             processNotes: before.processNotes,
@@ -156,17 +178,36 @@ export class MaterialsService {
       .find({ where: { materialId: id }, order: { revision: 'DESC' } });
   }
 
-  /** Creates a tabulated material from CSV text; any bad row rejects the whole file. */
-  async importCsv(dto: ImportMaterialCsvDto, user: User): Promise<Material> {
-    const parsed = parseNkCsv(dto.csv, dto.unit);
+  /** What an n,k file reads as (the same parser as the import), or 400 with every bad row. */
+  previewCsv(dto: NkCsvDto): NkCsvPreview {
+    const parsed = parseNkCsv(dto.csv, dto.unit ?? null);
     if (!parsed.ok) {
       const details = parsed.problems.map((p) => (p.row > 0 ? `row ${p.row}: ${p.reason}` : p.reason));
       throw new BadRequestException({ message: details });
     }
-    const { wavelengths, n, k } = parsed.table;
-    const rangeNm = { from: wavelengths[0], to: wavelengths[wavelengths.length - 1] };
+    const { table } = parsed;
+    return {
+      table,
+      unit: parsed.unit,
+      decimalComma: parsed.decimalComma,
+      headerRow: parsed.headerRow,
+      rangeNm: { from: table.wavelengths[0], to: table.wavelengths[table.wavelengths.length - 1] },
+    };
+  }
+
+  /** Creates a tabulated material from CSV text and keeps the file; any bad row rejects it all. */
+  async importCsv(dto: ImportMaterialCsvDto, user: User): Promise<Material> {
+    const { table, rangeNm } = this.previewCsv(dto);
+    const { wavelengths, n, k } = table;
     const model = checkedModel(
-      { model: 'table', wavelengths, n, k, interpolation: dto.interpolation ?? 'linear' },
+      {
+        model: 'table',
+        wavelengths,
+        n,
+        k,
+        interpolation: dto.interpolation ?? 'linear',
+        clamp: dto.clamp ?? false,
+      },
       rangeNm,
     );
     return this.save(
@@ -176,13 +217,118 @@ export class MaterialsService {
       }),
       user,
       'imported from CSV',
+      {
+        fileName: dto.fileName?.trim() || `${dto.name}.csv`,
+        mediaType: 'text/csv',
+        content: Buffer.from(dto.csv, 'utf8'),
+      },
     );
   }
 
-  private async save(material: Material, user: User, action: string): Promise<Material> {
+  /**
+   * Creates a material from a published optical-constants file: tabulated n,k, or the stated
+   * formula with its range as the valid range. The file's reference (and DOI) is the provenance,
+   * its comments and conditions the notes; the file is kept for download.
+   */
+  async importConstantsFile(dto: ImportConstantsFileDto, user: User): Promise<Material> {
+    let parsed;
+    try {
+      parsed = parseConstantsFile(dto.text);
+    } catch (err) {
+      if (err instanceof OpticsInputError) throw new BadRequestException({ message: [err.message] });
+      throw err;
+    }
+    const model = checkedModel(
+      parsed.model.model === 'constant' ? parsed.model : { ...parsed.model, clamp: dto.clamp ?? false },
+      parsed.rangeNm,
+    );
+    const source = parsed.doi ? `${parsed.reference}\nDOI: ${parsed.doi}` : parsed.reference;
+    const notes = [parsed.notes, `Data: ${parsed.form}`, dto.notes?.trim() ?? '']
+      .filter((line) => line !== '')
+      .join('\n');
+    return this.save(
+      this.materials.create({
+        ...fields({
+          name: dto.name,
+          rangeNm: parsed.rangeNm,
+          provenance: { kind: 'published', source, notes },
+        }),
+        model,
+      }),
+      user,
+      'imported from a published constants file',
+      {
+        fileName: dto.fileName.trim(),
+        mediaType: 'application/yaml',
+        content: Buffer.from(dto.text, 'utf8'),
+      },
+    );
+  }
+
+  /**
+   * Retires (hides from pickers) or restores a material. Versions that use it keep it: their
+   * snapshot holds its model and the library still lists it, marked retired.
+   */
+  async setRetired(id: number, retired: boolean, version: number, user: User): Promise<Material> {
+    const before = await this.get(id);
+    if (Boolean(before.retiredAt) === retired) {
+      throw new ConflictException(
+        `Material "${before.name}" is ${retired ? 'already retired' : 'not retired'}`,
+      );
+    }
+    await this.materials.manager.transaction(async (tx) => {
+      await updateIfVersion(
+        tx,
+        Material,
+        { id, expectedVersion: version, set: { retiredAt: retired ? new Date() : null } },
+        async () => staleMaterial(await this.get(id)),
+      );
+      await this.audit.record(tx, {
+        actor: user,
+        entity: 'material',
+        entityId: id,
+        action: retired ? 'retired' : 'restored',
+        summary: retired
+          ? `material "${before.name}" retired: hidden from pickers, kept for the versions that use it`
+          : `material "${before.name}" restored to the pickers`,
+        details: {},
+      });
+    });
+    return this.get(id);
+  }
+
+  /** The file a material was imported from; 404 when it was entered by hand. */
+  async sourceFile(id: number): Promise<SourceFile> {
+    const material = await this.get(id);
+    const [row] = await this.materials.manager.query<{ content: Buffer }[]>(
+      'SELECT content FROM material_source_files WHERE material_id = $1',
+      [id],
+    );
+    if (!row || material.sourceFileName === null) {
+      throw new NotFoundException(`Material "${material.name}" was not imported from a file`);
+    }
+    return {
+      fileName: material.sourceFileName,
+      mediaType: material.sourceFileType ?? 'application/octet-stream',
+      content: row.content,
+    };
+  }
+
+  private async save(material: Material, user: User, action: string, file?: SourceFile): Promise<Material> {
+    if (file) {
+      material.sourceFileName = file.fileName;
+      material.sourceFileType = file.mediaType;
+      material.sourceFileBytes = file.content.length;
+    }
     try {
       return await this.materials.manager.transaction(async (tx) => {
         const saved = await tx.getRepository(Material).save(material);
+        if (file) {
+          await tx.query('INSERT INTO material_source_files (material_id, content) VALUES ($1, $2)', [
+            saved.id,
+            file.content,
+          ]);
+        }
         await this.audit.record(tx, {
           actor: user,
           entity: 'material',
@@ -193,6 +339,8 @@ export class MaterialsService {
             model: saved.model,
             rangeNm: [saved.rangeFromNm, saved.rangeToNm],
             source: saved.source,
+            provenance: saved.provenanceKind,
+            ...(file ? { file: { name: file.fileName, bytes: file.content.length } } : {}),
           },
         });
         return saved;
@@ -233,26 +381,50 @@ function staleMaterial(current: Material): ConflictException {
   );
 }
 
+/**
+ * The stored fields of a material. Provenance is required: its kind (or `typical: true`), and for
+ * a published reference the reference, for a measurement its date and run (shared rule).
+ */
 function fields(dto: {
   name: string;
   rangeNm: { from: number; to: number };
   typical?: boolean;
   provenance?: ProvenanceDto;
 }): Partial<Material> {
+  const stated = dto.provenance?.kind;
+  if (stated && dto.typical !== undefined && dto.typical !== (stated === 'typical')) {
+    throw new BadRequestException({
+      message: [`typical (${dto.typical}) contradicts provenance.kind "${stated}"`],
+    });
+  }
+  const kind: ProvenanceKind | undefined = stated ?? (dto.typical ? 'typical' : undefined);
+  if (!kind) {
+    throw new BadRequestException({
+      message: [
+        'provenance.kind is required: published (with its reference), measured (with date and run) or typical',
+      ],
+    });
+  }
+  const problem = provenanceProblem({ kind, ...dto.provenance });
+  if (problem) throw new BadRequestException({ message: [`provenance: ${problem}`] });
   return {
     name: dto.name,
     rangeFromNm: dto.rangeNm.from,
     rangeToNm: dto.rangeNm.to,
-    typical: dto.typical ?? false,
-    source: dto.provenance?.source ?? '',
+    typical: kind === 'typical',
+    provenanceKind: kind,
+    source: dto.provenance?.source?.trim() ?? '',
     sourceDate: dto.provenance?.date ?? null,
+    provenanceRun: dto.provenance?.run?.trim() ?? '',
     processNotes: dto.provenance?.notes ?? '',
   };
 }
 
 /**
  * The engine validates the model; then the model must give a physical index across the whole
- * stated range (this catches Sellmeier poles and Cauchy fits that go negative).
+ * stated range (this catches Sellmeier poles and Cauchy fits that go negative). A formula model
+ * takes the stated range as its valid range, so the engine refuses it (or, with `clamp`, holds
+ * the end values and warns) outside it, as it does for a table.
  */
 export function checkedModel(raw: unknown, rangeNm: { from: number; to: number }): MaterialModel {
   if (!(rangeNm.from > 0) || !(rangeNm.to > rangeNm.from)) {
@@ -261,7 +433,14 @@ export function checkedModel(raw: unknown, rangeNm: { from: number; to: number }
     });
   }
   try {
-    const model = validateMaterialModel(raw, 'model');
+    const formula =
+      typeof raw === 'object' &&
+      raw !== null &&
+      ((raw as { model?: unknown }).model === 'cauchy' || (raw as { model?: unknown }).model === 'sellmeier');
+    const model = validateMaterialModel(
+      formula ? { ...raw, validNm: { from: rangeNm.from, to: rangeNm.to } } : raw,
+      'model',
+    );
     if (model.model === 'table' && !model.clamp) {
       const lo = model.wavelengths[0];
       const hi = model.wavelengths[model.wavelengths.length - 1];

@@ -13,6 +13,8 @@ describe('parseNkCsv: valid files', () => {
     expect(r).toEqual({
       ok: true,
       headerRow: true,
+      unit: 'um',
+      decimalComma: false,
       table: { wavelengths: [400, 500], n: [1.47, 1.46], k: [0, 0.001] },
     });
   });
@@ -25,6 +27,42 @@ describe('parseNkCsv: valid files', () => {
   });
 });
 
+describe('parseNkCsv: headers with units, decimal commas', () => {
+  it('takes the unit from a header such as "Wavelength (nm)" or "wavelength [µm]"', () => {
+    const nm = parseNkCsv('Wavelength (nm),n,k\n400,1.47,0\n500,1.46,0.001\n', null);
+    expect(nm).toMatchObject({ ok: true, unit: 'nm', table: { wavelengths: [400, 500] } });
+    const um = parseNkCsv(
+      'wavelength [µm]\tn (-)\tk (-)\n0.252\t1.523846\t0.001211\n0.254\t1.522945\t0.001171\n',
+      null,
+    );
+    expect(um).toMatchObject({
+      ok: true,
+      unit: 'um',
+      table: { wavelengths: [252, 254], n: [1.523846, 1.522945] },
+    });
+    expect(parseNkCsv('λ/nm;n\n400;2.3\n500;2.25\n', null)).toMatchObject({ ok: true, unit: 'nm' });
+  });
+
+  it('reads decimal commas in semicolon- and tab-separated files', () => {
+    const r = parseNkCsv('Wavelength (µm);n;k\n0,40;1,4701;0\n0,50;1,4623;1,2e-4\n', null);
+    expect(r).toEqual({
+      ok: true,
+      headerRow: true,
+      unit: 'um',
+      decimalComma: true,
+      table: { wavelengths: [400, 500], n: [1.4701, 1.4623], k: [0, 1.2e-4] },
+    });
+  });
+
+  it('refuses a header unit that contradicts the chosen unit, and a file with no unit at all', () => {
+    expect(problems('Wavelength (nm),n\n400,1.5\n500,1.4\n', 'um')[0].reason).toMatch(
+      /the header gives the wavelengths in nm, but µm was chosen/,
+    );
+    const r = parseNkCsv('400,1.5\n500,1.4\n', null);
+    expect(r.ok === false && r.problems[0].reason).toMatch(/names no wavelength unit/);
+  });
+});
+
 describe('parseNkCsv: every kind of bad file is rejected with row-level reasons', () => {
   it('1 empty file', () => {
     expect(problems('')).toEqual([{ row: 0, reason: 'the file is empty' }]);
@@ -34,7 +72,7 @@ describe('parseNkCsv: every kind of bad file is rejected with row-level reasons'
     expect(problems('wavelength_nm,n,k\n')).toEqual([{ row: 0, reason: 'at least 2 data rows are needed' }]);
   });
   it('3 a header without an n column', () => {
-    expect(problems('wavelength_nm,index\n400,1.5\n')[0].reason).toMatch(
+    expect(problems('wavelength_nm,value\n400,1.5\n')[0].reason).toMatch(
       /must name a wavelength column .* and an n column/,
     );
   });

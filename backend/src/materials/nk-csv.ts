@@ -1,4 +1,4 @@
-import { numericCell as cell, readCsvRows, type CsvProblem } from '../common/csv.js';
+import { numericCell as plainCell, readCsvRows, type CsvProblem } from '../common/csv.js';
 
 /** Largest n,k file accepted (bytes of text). */
 export const MAX_NK_CSV_BYTES = 1_000_000;
@@ -15,22 +15,53 @@ export interface NkTable {
 export type { CsvProblem };
 
 export type NkCsvResult =
-  { ok: true; table: NkTable; headerRow: boolean } | { ok: false; problems: CsvProblem[] };
+  | { ok: true; table: NkTable; headerRow: boolean; unit: WavelengthUnit; decimalComma: boolean }
+  | { ok: false; problems: CsvProblem[] };
 
-const WAVELENGTH_NAMES = /^(wavelength|wl|lambda|λ)(_?\(?(nm|um|µm|micron)\)?)?$/i;
-const N_NAMES = /^n$/i;
-const K_NAMES = /^(k|kappa)$/i;
+/**
+ * A wavelength column's name, with or without its unit: `wavelength_nm`, `Wavelength (nm)`,
+ * `wavelength [µm]`, `λ/nm`, `wl um`.
+ */
+const WAVELENGTH_NAMES =
+  /^(wavelength|wave length|wl|lambda|λ)\s*(?:[_/,]\s*|\s)?[([]?\s*(nm|um|µm|μm|microns?|micrometres?|micrometers?|nanometres?|nanometers?)?\s*[)\]]?$/i;
+/** n and k columns, optionally with a unitless mark: `n`, `n (-)`, `k [1]`. */
+const N_NAMES = /^(n|index|refractive index)\s*([([]\s*(-|1)?\s*[)\]])?$/i;
+const K_NAMES = /^(k|kappa|extinction( coefficient)?)\s*([([]\s*(-|1)?\s*[)\]])?$/i;
+
+function unitOfName(name: string): WavelengthUnit | null {
+  const unit = WAVELENGTH_NAMES.exec(name)?.[2]?.toLowerCase();
+  if (!unit) return null;
+  return unit.startsWith('n') ? 'nm' : 'um';
+}
+
+/** A cell with a decimal comma ("1,4567") read as a number where the delimiter is not a comma. */
+function decimalCommaCell(value: string): number | null {
+  const t = value.trim();
+  return /^[+-]?\d+,\d+([eE][+-]?\d+)?$/.test(t) ? Number(t.replace(',', '.')) : null;
+}
 
 /**
  * Parses an n,k table: columns wavelength, n and (optionally) k, comma-, semicolon- or
  * tab-separated, with or without a header row (a header names the columns in any order, e.g.
- * `wavelength_nm,n,k`). Every bad row is reported with its line number and reason; nothing is
- * returned unless the whole file is valid.
+ * `wavelength_nm,n,k` or `Wavelength (µm);n;k`). Semicolon- and tab-separated files may use
+ * decimal commas. A unit in the header decides nm or µm; `unit` is used when the header names
+ * none (and must agree with it when both are given). Every bad row is reported with its line number
+ * and reason; nothing is returned unless the whole file is valid.
  */
-export function parseNkCsv(text: string, unit: WavelengthUnit): NkCsvResult {
+export function parseNkCsv(text: string, requestedUnit: WavelengthUnit | null): NkCsvResult {
   const read = readCsvRows(text, MAX_NK_CSV_BYTES);
   if (!read.ok) return read;
   const rows = read.rows;
+  const commaDecimals = read.delimiter !== ',';
+  const seen = { decimalComma: false };
+  const cell = (value: string): number | null => {
+    const plain = plainCell(value);
+    if (plain !== null || !commaDecimals) return plain;
+    const comma = decimalCommaCell(value);
+    if (comma !== null) seen.decimalComma = true;
+    return comma;
+  };
+  let unit: WavelengthUnit | null = requestedUnit;
   const lineOf = read.lines;
   const problems: CsvProblem[] = [];
 
@@ -39,6 +70,7 @@ export function parseNkCsv(text: string, unit: WavelengthUnit): NkCsvResult {
   const head = rows[0] ?? [];
   // A header row has no number in it; a data row with a bad cell still has its wavelength.
   const headerRow = head.every((c) => cell(c) === null);
+  seen.decimalComma = false;
   if (headerRow) {
     first = 1;
     const names = head.map((c) => c.trim());
@@ -57,6 +89,19 @@ export function parseNkCsv(text: string, unit: WavelengthUnit): NkCsvResult {
       };
     }
     columns = { wl, n, k: k >= 0 ? k : null };
+    const named = unitOfName(names[wl]);
+    if (named && requestedUnit && named !== requestedUnit) {
+      return {
+        ok: false,
+        problems: [
+          {
+            row: lineOf[0],
+            reason: `the header gives the wavelengths in ${named === 'um' ? 'µm' : 'nm'}, but ${requestedUnit === 'um' ? 'µm' : 'nm'} was chosen`,
+          },
+        ],
+      };
+    }
+    unit = named ?? requestedUnit;
   } else if (head.length < 2) {
     return {
       ok: false,
@@ -66,6 +111,17 @@ export function parseNkCsv(text: string, unit: WavelengthUnit): NkCsvResult {
     columns = { wl: 0, n: 1, k: null };
   }
 
+  if (unit === null) {
+    return {
+      ok: false,
+      problems: [
+        {
+          row: 0,
+          reason: 'the header names no wavelength unit; choose nm or µm (or name it, e.g. "Wavelength (nm)")',
+        },
+      ],
+    };
+  }
   const table: NkTable = { wavelengths: [], n: [], k: [] };
   let previous = -Infinity;
   for (let i = first; i < rows.length; i += 1) {
@@ -87,7 +143,7 @@ export function parseNkCsv(text: string, unit: WavelengthUnit): NkCsvResult {
       problems.push({ row: line, reason: `not a number: ${bad.join(', ')}` });
       continue;
     }
-    const nm = unit === 'um' ? wl * 1000 : wl;
+    const nm = unit === 'um' ? Number((wl * 1000).toFixed(6)) : wl;
     const rowProblems: string[] = [];
     if (!(nm > 0)) rowProblems.push('wavelength must be > 0');
     if (!(n > 0)) rowProblems.push('n must be > 0');
@@ -116,5 +172,7 @@ export function parseNkCsv(text: string, unit: WavelengthUnit): NkCsvResult {
       reason: 'the wavelengths look like nm (all above 20 µm); choose nm as the unit',
     });
   }
-  return problems.length > 0 ? { ok: false, problems } : { ok: true, table, headerRow };
+  return problems.length > 0
+    ? { ok: false, problems }
+    : { ok: true, table, headerRow, unit, decimalComma: seen.decimalComma };
 }

@@ -2,6 +2,7 @@ import Box from '@mui/material/Box';
 import FormHelperText from '@mui/material/FormHelperText';
 import Typography from '@mui/material/Typography';
 import { useId } from 'react';
+import { formatFileSize } from '../lib/format';
 
 interface FileFieldProps {
   label: string;
@@ -14,7 +15,7 @@ interface FileFieldProps {
 }
 
 function describe(file: File): string {
-  return `${file.name}, ${(file.size / 1_000_000).toFixed(2)} MB`;
+  return `${file.name}, ${formatFileSize(file.size)}`;
 }
 
 /** A labelled file input with its chosen file (or problem) underneath. */

@@ -45,3 +45,10 @@ export function fieldText(value: unknown): string {
     return String(value);
   return '';
 }
+
+/** A file size as people read it: "812 bytes", "12.4 kB", "1.25 MB" (decimal units). */
+export function formatFileSize(bytes: number): string {
+  if (bytes < 1000) return `${bytes} byte${bytes === 1 ? '' : 's'}`;
+  if (bytes < 1_000_000) return `${(bytes / 1000).toFixed(1)} kB`;
+  return `${(bytes / 1_000_000).toFixed(2)} MB`;
+}

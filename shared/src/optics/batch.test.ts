@@ -131,4 +131,24 @@ describe('entry-point validation', () => {
       'layers[0]: table covers 400–700 nm; its end values were held at 2 of 3 wavelengths',
     ]);
   });
+
+  it('flags held formula values as a warning and refuses them without clamp', () => {
+    const sellmeier = {
+      model: 'sellmeier' as const,
+      B: [1.03961212, 0.231792344, 1.01046945],
+      C: [0.00600069867, 0.0200179144, 103.560653],
+      validNm: { from: 400, to: 700 },
+    };
+    const wavelengthsNm = [380, 550, 720];
+    const plan = createSpectrumPlan(
+      { ...twoLayer, substrate: { ...sellmeier, clamp: true } },
+      { ...grid, wavelengthsNm },
+    );
+    expect(plan.warnings).toEqual([
+      'substrate: sellmeier model holds for 400–700 nm; its end values were held at 2 of 3 wavelengths',
+    ]);
+    expect(() =>
+      createSpectrumPlan({ ...twoLayer, substrate: sellmeier }, { ...grid, wavelengthsNm }),
+    ).toThrow(/substrate\.validNm: 380 nm is outside/);
+  });
 });

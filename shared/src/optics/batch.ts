@@ -5,7 +5,13 @@
  * run again and again (e.g. inside an optimiser that only changes thicknesses).
  */
 import { incidenceAngle, oneOf, positiveNumber } from './checks.js';
-import { countOutsideTable, evaluateIndex, type IndexSamples, type MaterialModel } from './dispersion.js';
+import {
+  countOutsideRange,
+  evaluateIndex,
+  modelRangeNm,
+  type IndexSamples,
+  type MaterialModel,
+} from './dispersion.js';
 import { OpticsInputError, fieldPath } from './errors.js';
 import {
   POL_BOTH,
@@ -122,7 +128,7 @@ export interface PlanWork {
 /**
  * Validates `stack`, `grid` and `options` once and prepares everything computeSpectrum needs.
  * Throws {@link OpticsInputError} naming the field (bad grid values, a wavelength outside a table
- * without clamp, an absorbing incident medium, a missing substrate thickness for an absorbing
+ * or a formula's valid range without clamp, an absorbing incident medium, a missing substrate thickness for an absorbing
  * substrate under `incoherent`, amplitudes asked for where they are not defined).
  */
 export function createSpectrumPlan(
@@ -154,11 +160,12 @@ export function createSpectrumPlan(
   const evalMedium = (model: MaterialModel, field: string): IndexSamples => {
     const out = { n: new Float64Array(nW), k: new Float64Array(nW) };
     evaluateIndex(out, model, wavelengthsNm, field);
-    const outside = countOutsideTable(model, wavelengthsNm);
-    if (outside > 0 && model.model === 'table') {
-      const w = model.wavelengths;
+    const outside = countOutsideRange(model, wavelengthsNm);
+    const range = modelRangeNm(model);
+    if (outside > 0 && range) {
+      const what = model.model === 'table' ? 'table covers' : `${model.model} model holds for`;
       warnings.push(
-        `${field}: table covers ${w[0]}–${w[w.length - 1]} nm; its end values were held at ${outside} of ${nW} wavelengths`,
+        `${field}: ${what} ${range.from}–${range.to} nm; its end values were held at ${outside} of ${nW} wavelengths`,
       );
     }
     return out;

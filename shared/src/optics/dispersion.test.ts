@@ -1,6 +1,6 @@
 import { describe, expect, it } from 'vitest';
 import {
-  countOutsideTable,
+  countOutsideRange,
   evaluateIndex,
   indexAt,
   validateMaterialModel,
@@ -45,6 +45,46 @@ describe('Sellmeier glasses from published coefficients', () => {
     expect(() => indexAt(model, 500)).toThrow(OpticsInputError);
     expect(() => indexAt(model, 490, 'layers[3]')).toThrow(/layers\[3\].*no physical index at 490 nm/);
     expect(indexAt(model, 510).n).toBeCloseTo(Math.sqrt(1 + 0.2601 / 0.0101), 12);
+  });
+});
+
+describe('formula models and their valid range', () => {
+  // N-BK7, SCHOTT optical glass data sheet: the Sellmeier coefficients are stated for 0.3–2.5 µm.
+  const bk7 = { ...MATERIAL_LIBRARY['N-BK7'], validNm: { from: 300, to: 2500 } } as MaterialModel;
+
+  it('refuses a wavelength outside the stated range instead of extrapolating', () => {
+    const model = validateMaterialModel(bk7);
+    expect(indexAt(model, 587.56).n).toBeCloseTo(1.5168, 5); // SCHOTT data sheet nd
+    // Without a range the formula runs on to 12 µm and gives a meaningless n ≈ 2.4.
+    expect(indexAt(MATERIAL_LIBRARY['N-BK7'], 12_000).n).toBeGreaterThan(2);
+    expect(() => indexAt(model, 12_000, 'substrate')).toThrow(
+      /substrate\.validNm: 12000 nm is outside the sellmeier model's valid range \(300–2500 nm\)/,
+    );
+    expect(() => indexAt(model, 250)).toThrow(OpticsInputError);
+  });
+
+  it('with clamp holds the end value and counts the held points', () => {
+    const held = validateMaterialModel({ ...bk7, clamp: true });
+    expect(indexAt(held, 12_000).n).toBe(indexAt(held, 2500).n);
+    expect(indexAt(held, 250).n).toBe(indexAt(held, 300).n);
+    expect(countOutsideRange(held, [250, 587.56, 2500, 12_000])).toBe(2);
+    expect(countOutsideRange(MATERIAL_LIBRARY['N-BK7'], [12_000])).toBe(0);
+  });
+
+  it('applies to Cauchy models too and checks the range itself', () => {
+    const cauchy = validateMaterialModel({
+      model: 'cauchy',
+      A: 1.45,
+      B: 0.004,
+      validNm: { from: 400, to: 800 },
+    });
+    expect(() => indexAt(cauchy, 900)).toThrow(/900 nm is outside the cauchy model's valid range/);
+    expect(() =>
+      validateMaterialModel({ model: 'cauchy', A: 1.45, validNm: { from: 800, to: 400 } }, 'm'),
+    ).toThrow(/m\.validNm: from \(800 nm\) must be below to \(400 nm\)/);
+    expect(() => validateMaterialModel({ model: 'sellmeier', B: [1], C: [0.01], clamp: true }, 'm')).toThrow(
+      /m\.clamp: needs a validNm range/,
+    );
   });
 });
 
@@ -112,7 +152,7 @@ describe('tables', () => {
     const { n } = samples(clamped, [380, 720]);
     expect(n[0]).toBe(2.4);
     expect(n[1]).toBe(2.22);
-    expect(countOutsideTable(clamped, [380, 450, 720])).toBe(2);
+    expect(countOutsideRange(clamped, [380, 450, 720])).toBe(2);
   });
 
   it('checks rows: increasing wavelengths, matching lengths', () => {

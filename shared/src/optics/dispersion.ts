@@ -36,9 +36,23 @@ export interface CauchyAbsorption {
   reference: number;
 }
 
+/**
+ * Where a formula model holds: the wavelengths its coefficients were fitted or measured over, in nm.
+ * Outside it a formula is refused, or (with `clamp`) evaluated at the nearer end and reported, just
+ * as a table is; a formula is never extrapolated silently.
+ */
+export interface ValidRange {
+  from: number;
+  to: number;
+}
+
 /** Cauchy: n(λ) = A + B/λ² + C/λ⁴ with λ in µm (B in µm², C in µm⁴). */
 export interface CauchyModel {
   model: 'cauchy';
+  /** Wavelengths (nm) the fit holds for; unbounded when omitted. */
+  validNm?: ValidRange;
+  /** Outside `validNm`: `false` (default) is an error; `true` holds the end values and reports it. */
+  clamp?: boolean;
   A: number;
   B?: number;
   C?: number;
@@ -50,6 +64,10 @@ export interface CauchyModel {
 /** Sellmeier: n²(λ) = 1 + Σ Bᵢ λ² / (λ² − Cᵢ), λ in µm, Cᵢ in µm², 1 to 3 terms. */
 export interface SellmeierModel {
   model: 'sellmeier';
+  /** Wavelengths (nm) the coefficients hold for; unbounded when omitted. */
+  validNm?: ValidRange;
+  /** Outside `validNm`: `false` (default) is an error; `true` holds the end values and reports it. */
+  clamp?: boolean;
   B: readonly number[];
   C: readonly number[];
   /** Constant extinction coefficient, ≥ 0 (0 when omitted). */
@@ -101,9 +119,10 @@ export function validateMaterialModel(value: unknown, field = ''): MaterialModel
       return { model, n: positiveNumber(obj.n, at('n')), k: optionalK(obj.k, at('k')) };
     }
     case 'cauchy': {
-      onlyKeys(obj, ['model', 'A', 'B', 'C', 'k', 'absorption'], field);
+      onlyKeys(obj, ['model', 'A', 'B', 'C', 'k', 'absorption', 'validNm', 'clamp'], field);
       const out: CauchyModel = {
         model,
+        ...formulaRange(obj, field),
         A: positiveNumber(obj.A, at('A')),
         B: obj.B === undefined ? 0 : finiteNumber(obj.B, at('B')),
         C: obj.C === undefined ? 0 : finiteNumber(obj.C, at('C')),
@@ -126,7 +145,7 @@ export function validateMaterialModel(value: unknown, field = ''): MaterialModel
       return out;
     }
     case 'sellmeier': {
-      onlyKeys(obj, ['model', 'B', 'C', 'k'], field);
+      onlyKeys(obj, ['model', 'B', 'C', 'k', 'validNm', 'clamp'], field);
       const B = numberList(obj.B, at('B'));
       const C = numberList(obj.C, at('C'), nonNegativeNumber);
       if (B.length < 1 || B.length > 3) {
@@ -135,7 +154,7 @@ export function validateMaterialModel(value: unknown, field = ''): MaterialModel
       if (C.length !== B.length) {
         throw new OpticsInputError(at('C'), `must have as many terms as B (${B.length}, got ${C.length})`);
       }
-      return { model, B, C, k: optionalK(obj.k, at('k')) };
+      return { model, ...formulaRange(obj, field), B, C, k: optionalK(obj.k, at('k')) };
     }
     case 'table': {
       onlyKeys(obj, ['model', 'wavelengths', 'n', 'k', 'interpolation', 'clamp'], field);
@@ -170,12 +189,37 @@ export function validateMaterialModel(value: unknown, field = ''): MaterialModel
         obj.interpolation === undefined
           ? 'linear'
           : oneOf(obj.interpolation, ['linear', 'pchip'] as const, at('interpolation'));
-      if (obj.clamp !== undefined && typeof obj.clamp !== 'boolean') {
-        throw new OpticsInputError(at('clamp'), 'must be true or false');
-      }
-      return { model, wavelengths, n, k, interpolation, clamp: obj.clamp === true };
+      return { model, wavelengths, n, k, interpolation, clamp: clampFlag(obj.clamp, at('clamp')) };
     }
   }
+}
+
+function clampFlag(value: unknown, field: string): boolean {
+  if (value !== undefined && typeof value !== 'boolean') {
+    throw new OpticsInputError(field, 'must be true or false');
+  }
+  return value === true;
+}
+
+/** A formula's optional `validNm` and `clamp`, checked (0 < from < to). */
+function formulaRange(
+  obj: Record<string, unknown>,
+  field: string,
+): { validNm?: ValidRange; clamp?: boolean } {
+  const at = fieldPath(field, 'validNm');
+  const clamp = clampFlag(obj.clamp, fieldPath(field, 'clamp'));
+  if (obj.validNm === undefined) {
+    if (clamp) throw new OpticsInputError(fieldPath(field, 'clamp'), 'needs a validNm range to hold');
+    return {};
+  }
+  const range = plainObject(obj.validNm, at);
+  onlyKeys(range, ['from', 'to'], at);
+  const from = positiveNumber(range.from, fieldPath(at, 'from'));
+  const to = positiveNumber(range.to, fieldPath(at, 'to'));
+  if (!(to > from)) {
+    throw new OpticsInputError(at, `from (${from} nm) must be below to (${to} nm)`);
+  }
+  return { validNm: { from, to }, clamp };
 }
 
 function optionalK(value: unknown, field: string): number {
@@ -194,7 +238,8 @@ export function constantIndex(n: number, k = 0): ConstantIndex {
  * @param wavelengthsNm wavelengths in nm, each > 0.
  * @param field path used in error messages (e.g. `layers[2]`).
  * @returns out.
- * @throws OpticsInputError when a wavelength is outside a table without `clamp`, or when the model
+ * @throws OpticsInputError when a wavelength is outside a table or a formula's `validNm` without
+ *   `clamp`, or when the model
  *   gives no physical index there (Sellmeier pole, n ≤ 0, non-finite values).
  */
 export function evaluateIndex(
@@ -219,18 +264,17 @@ export function evaluateIndex(
       const C = model.C ?? 0;
       const abs = model.absorption;
       for (let i = 0; i < count; i++) {
-        const um2 = (wavelengthsNm[i] * 1e-3) ** 2;
+        const nm = formulaWavelength(model, wavelengthsNm[i], field);
+        const um2 = (nm * 1e-3) ** 2;
         n[i] = A + B / um2 + C / (um2 * um2);
-        k[i] = abs
-          ? abs.k * Math.exp(abs.exponent * (1e3 / wavelengthsNm[i] - 1e3 / abs.reference))
-          : (model.k ?? 0);
+        k[i] = abs ? abs.k * Math.exp(abs.exponent * (1e3 / nm - 1e3 / abs.reference)) : (model.k ?? 0);
       }
       break;
     }
     case 'sellmeier': {
       const terms = model.B.length;
       for (let i = 0; i < count; i++) {
-        const um2 = (wavelengthsNm[i] * 1e-3) ** 2;
+        const um2 = (formulaWavelength(model, wavelengthsNm[i], field) * 1e-3) ** 2;
         let n2 = 1;
         for (let j = 0; j < terms; j++) n2 += (model.B[j] * um2) / (um2 - model.C[j]);
         n[i] = Math.sqrt(n2);
@@ -261,16 +305,53 @@ export function indexAt(model: MaterialModel, wavelengthNm: number, field = ''):
   return { n: out.n[0], k: out.k[0] };
 }
 
-/** How many of the wavelengths lie outside a table's range (0 for analytic models). */
-export function countOutsideTable(model: MaterialModel, wavelengthsNm: ArrayLike<number>): number {
-  if (model.model !== 'table') return 0;
-  const lo = model.wavelengths[0];
-  const hi = model.wavelengths[model.wavelengths.length - 1];
+/**
+ * The wavelengths (nm) a model holds for: a table's first and last rows, a formula's `validNm`;
+ * `null` for a constant or a formula without a stated range.
+ */
+export function modelRangeNm(model: MaterialModel): ValidRange | null {
+  switch (model.model) {
+    case 'table':
+      return { from: model.wavelengths[0], to: model.wavelengths[model.wavelengths.length - 1] };
+    case 'cauchy':
+    case 'sellmeier':
+      return model.validNm ?? null;
+    case 'constant':
+      return null;
+  }
+}
+
+/**
+ * How many of the wavelengths lie outside a model's range ({@link modelRangeNm}); 0 for a model
+ * without one. With `clamp` these are the points evaluated at the held end values.
+ */
+export function countOutsideRange(model: MaterialModel, wavelengthsNm: ArrayLike<number>): number {
+  const range = modelRangeNm(model);
+  if (!range) return 0;
+  const lo = range.from;
+  const hi = range.to;
   let outside = 0;
   for (let i = 0; i < wavelengthsNm.length; i++) {
     if (wavelengthsNm[i] < lo || wavelengthsNm[i] > hi) outside++;
   }
   return outside;
+}
+
+/**
+ * The wavelength (nm) a formula is evaluated at: λ itself inside `validNm`, the nearer end with
+ * `clamp`; outside without `clamp` it throws (entry-point check, before any kernel runs).
+ */
+function formulaWavelength(model: CauchyModel | SellmeierModel, nm: number, field: string): number {
+  const range = model.validNm;
+  if (!range || (nm >= range.from && nm <= range.to)) return nm;
+  if (!model.clamp) {
+    throw new OpticsInputError(
+      fieldPath(field, 'validNm'),
+      `${nm} nm is outside the ${model.model} model's valid range (${range.from}–${range.to} nm); ` +
+        'choose a material that covers it or set "clamp": true to hold the end values',
+    );
+  }
+  return nm < range.from ? range.from : range.to;
 }
 
 function evaluateTable(

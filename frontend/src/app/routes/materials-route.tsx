@@ -1,12 +1,16 @@
 import AddOutlined from '@mui/icons-material/AddOutlined';
 import UploadFileOutlined from '@mui/icons-material/UploadFileOutlined';
+import MenuBookOutlined from '@mui/icons-material/MenuBookOutlined';
 import Box from '@mui/material/Box';
+import FormControlLabel from '@mui/material/FormControlLabel';
+import Switch from '@mui/material/Switch';
 import Button from '@mui/material/Button';
 import Typography from '@mui/material/Typography';
 import { useState } from 'react';
 import { PageHeader } from '../../components/page-header';
 import { useSignedInUser } from '../../features/auth/signed-in-user';
 import { useMaterials, type MaterialView } from '../../features/materials/api/get-materials';
+import { ConstantsFileDialog } from '../../features/materials/components/constants-file-dialog';
 import { MaterialCsvDialog } from '../../features/materials/components/material-csv-dialog';
 import { MaterialDetail } from '../../features/materials/components/material-detail';
 import { MaterialFormDialog } from '../../features/materials/components/material-form-dialog';
@@ -20,6 +24,8 @@ export function MaterialsRoute() {
   const [selectedId, setSelectedId] = useState<number | null>(null);
   const [editing, setEditing] = useState<MaterialView | 'new' | null>(null);
   const [uploading, setUploading] = useState(false);
+  const [importing, setImporting] = useState(false);
+  const [showRetired, setShowRetired] = useState(false);
   const selected = materials.data?.find((m) => m.id === selectedId) ?? null;
 
   return (
@@ -30,6 +36,9 @@ export function MaterialsRoute() {
         actions={
           canEdit && (
             <>
+              <Button variant="outlined" startIcon={<MenuBookOutlined />} onClick={() => setImporting(true)}>
+                Import published constants
+              </Button>
               <Button
                 variant="outlined"
                 startIcon={<UploadFileOutlined />}
@@ -45,7 +54,15 @@ export function MaterialsRoute() {
         }
       />
       <Box sx={{ display: 'grid', gap: 2 }}>
-        <MaterialsGrid selectedId={selectedId} onSelect={(m) => setSelectedId(m?.id ?? null)} />
+        <FormControlLabel
+          control={<Switch checked={showRetired} onChange={(e) => setShowRetired(e.target.checked)} />}
+          label="Show retired materials"
+        />
+        <MaterialsGrid
+          selectedId={selectedId}
+          showRetired={showRetired}
+          onSelect={(m) => setSelectedId(m?.id ?? null)}
+        />
         {selected ? (
           <MaterialDetail material={selected} canEdit={canEdit} onEdit={() => setEditing(selected)} />
         ) : (
@@ -63,6 +80,11 @@ export function MaterialsRoute() {
           onSaved={(m) => setSelectedId(m.id)}
         />
       )}
+      <ConstantsFileDialog
+        open={importing}
+        onClose={() => setImporting(false)}
+        onSaved={(m) => setSelectedId(m.id)}
+      />
       <MaterialCsvDialog
         open={uploading}
         onClose={() => setUploading(false)}

@@ -12,6 +12,8 @@ export interface LibraryMaterial {
   name: string;
   model: MaterialModel;
   rangeNm?: { from: number; to: number };
+  /** Set when retired: pickers no longer offer it, rows that use it keep it. */
+  retiredAt?: string | null;
 }
 
 /** One row of the Layer grid, incident side first. Thickness is kept as typed until it is valid. */

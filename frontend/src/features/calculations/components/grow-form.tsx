@@ -1,3 +1,4 @@
+import { pickableMaterials } from '@quietglass/shared';
 import Box from '@mui/material/Box';
 import Button from '@mui/material/Button';
 import Checkbox from '@mui/material/Checkbox';
@@ -138,7 +139,7 @@ export function GrowForm({ materials, initialMaterialIds, layerCount, pending, o
         render={({ field, fieldState }) => (
           <MaterialChecks
             legend="Allowed materials"
-            materials={materials}
+            materials={pickableMaterials(materials, initialMaterialIds)}
             value={field.value}
             onChange={field.onChange}
             error={fieldState.error?.message}

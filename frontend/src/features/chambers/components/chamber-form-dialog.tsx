@@ -1,3 +1,4 @@
+import { pickableMaterials } from '@quietglass/shared';
 import AddOutlined from '@mui/icons-material/AddOutlined';
 import DeleteOutlined from '@mui/icons-material/DeleteOutlined';
 import Alert from '@mui/material/Alert';
@@ -48,7 +49,14 @@ export function ChamberFormDialog({ open, chamber, materials, onClose }: Chamber
   const { fields, append, remove } = useFieldArray({ control, name: 'materials' });
   const mutation = chamber ? update : create;
   const conflict = update.error instanceof ApiError && update.error.status === 409 ? update.error : null;
-  const options = namedOptions(materials);
+  const options = namedOptions(
+    pickableMaterials(
+      materials,
+      (chamber?.materials ?? [])
+        .map((m) => m.materialId)
+        .concat(chamber ? [chamber.monitorChipMaterialId] : []),
+    ),
+  );
   const nameOf = (id: number) => materials.find((m) => m.id === id)?.name ?? `Material ${id}`;
 
   const close = () => {

@@ -14,7 +14,15 @@ const MGF2 = TEST_MATERIALS[2].model;
 
 type User = ReturnType<typeof renderWithProviders>['user'];
 
-function Harness({ initial, onChange }: { initial: LayerRow[]; onChange?: (rows: LayerRow[]) => void }) {
+function Harness({
+  initial,
+  onChange,
+  materials = TEST_MATERIALS,
+}: {
+  initial: LayerRow[];
+  onChange?: (rows: LayerRow[]) => void;
+  materials?: typeof TEST_MATERIALS;
+}) {
   const [rows, setRows] = useState(initial);
   return (
     <LayerGrid
@@ -23,7 +31,7 @@ function Harness({ initial, onChange }: { initial: LayerRow[]; onChange?: (rows:
         setRows(next);
         onChange?.(next);
       }}
-      materials={TEST_MATERIALS}
+      materials={materials}
       referenceWavelengthNm={550}
       readOnly={false}
     />
@@ -99,6 +107,27 @@ describe('LayerGrid', () => {
     // 4·2.35·99.64/550 = 1.7029 (Macleod ch. 2).
     expect(cell(0, 'qwot').textContent).toBe(((4 * 2.35 * 99.64) / 550).toFixed(4));
     expect(cell(0, 'qwot').textContent).toBe('1.7029');
+  });
+
+  it('offers no retired material, but a row that uses one keeps showing it', async () => {
+    const retired = TEST_MATERIALS.map((m) =>
+      m.id === 5 ? { ...m, retiredAt: '2026-12-01T00:00:00.000Z' } : m,
+    );
+    const { user } = renderWithProviders(
+      <Harness initial={layers([4, 99.64], [2, 80])} materials={retired} />,
+    );
+    await screen.findByRole('grid', { name: 'Layer grid' });
+    await user.dblClick(cell(0, 'material'));
+    const options = (await screen.findAllByRole('option')).map((o) => o.textContent);
+    expect(options).toContain('MgF2');
+    expect(options).not.toContain('TiO2');
+    await user.keyboard('{Escape}');
+
+    const { unmount } = renderWithProviders(<Harness initial={layers([5, 50])} materials={retired} />);
+    await waitFor(() => expect(screen.getAllByRole('grid', { name: 'Layer grid' })).toHaveLength(2));
+    const second = within(screen.getAllByRole('grid', { name: 'Layer grid' })[1]);
+    expect(second.getAllByRole('row')[1].textContent).toContain('TiO2');
+    unmount();
   });
 
   it('shows an inline error for a negative or non-numeric thickness and no QWOT for it', async () => {

@@ -1,3 +1,4 @@
+import { pickableMaterials } from '@quietglass/shared';
 import Alert from '@mui/material/Alert';
 import MenuItem from '@mui/material/MenuItem';
 import TextField from '@mui/material/TextField';
@@ -63,7 +64,7 @@ export function PeriodDialog({
 
   const materialField = (label: string, value: string, set: (v: string) => void) => (
     <TextField select label={label} value={value} onChange={(e) => set(e.target.value)} size="small">
-      {materials.map((m) => (
+      {pickableMaterials(materials).map((m) => (
         <MenuItem key={m.id} value={String(m.id)}>
           {m.name}
         </MenuItem>

@@ -1,3 +1,4 @@
+import { pickableMaterials } from '@quietglass/shared';
 import AddOutlined from '@mui/icons-material/AddOutlined';
 import ArrowDownwardOutlined from '@mui/icons-material/ArrowDownwardOutlined';
 import ArrowUpwardOutlined from '@mui/icons-material/ArrowUpwardOutlined';
@@ -162,7 +163,10 @@ export function LayerGrid({
         editable: !readOnly,
         sortable: false,
         type: 'singleSelect',
-        valueOptions: materials.map((m) => ({ value: m.id, label: m.name })),
+        valueOptions: pickableMaterials(
+          materials,
+          rows.map((r) => r.materialId),
+        ).map((m) => ({ value: m.id, label: m.name })),
         renderEditCell: (params) => <MaterialEditCell {...params} />,
         renderCell: ({ row }) => {
           const problem = materialProblem(row, materialsById);

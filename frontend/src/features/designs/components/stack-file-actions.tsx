@@ -86,7 +86,11 @@ export function StackFileActions({
       setProblems({ file: file.name, list: [`not JSON: ${e instanceof Error ? e.message : String(e)}`] });
       return;
     }
-    const read = draftFromStackFile(json, library, version);
+    const read = draftFromStackFile(
+      json,
+      library.map((m) => ({ id: m.id, name: m.name, model: m.model, retired: Boolean(m.retiredAt) })),
+      version,
+    );
     if (!read.ok) {
       setProblems({ file: file.name, list: read.problems });
       return;

@@ -1,6 +1,12 @@
 import Box from '@mui/material/Box';
-import { BACK_SURFACE_TREATMENTS } from '@quietglass/shared';
-import type { Control, FieldPath, FieldValues, RegisterOptions } from 'react-hook-form';
+import { BACK_SURFACE_TREATMENTS, pickableMaterials } from '@quietglass/shared';
+import {
+  useWatch,
+  type Control,
+  type FieldPath,
+  type FieldValues,
+  type RegisterOptions,
+} from 'react-hook-form';
 import { FormSelectField, namedOptions } from '../../../components/form-select-field';
 import { FormTextField } from '../../../components/form-text-field';
 import { BACK_SURFACE_LABELS, HEADER_RULES, type HeaderValues } from '../header';
@@ -34,7 +40,17 @@ export function VersionHeaderFields<T extends HeaderValues & FieldValues>({
     size,
     disabled,
   });
-  const materialOptions = namedOptions(materials);
+  // A retired material stays on offer only while it is the one chosen.
+  const chosen = useWatch({
+    control,
+    name: ['incidentMaterialId', 'substrateMaterialId'] as FieldPath<T>[],
+  }) as unknown[];
+  const materialOptions = namedOptions(
+    pickableMaterials(
+      materials,
+      chosen.map((v) => (v === '' || v === null || v === undefined ? null : Number(v))),
+    ),
+  );
   return (
     <Box
       sx={{

@@ -17,7 +17,9 @@ const MGF2: MaterialView = {
   model: { model: 'cauchy', A: 1.37, B: 0.003, C: 0, k: 0 },
   rangeNm: { from: 200, to: 1100 },
   typical: true,
-  provenance: { source: 'Typical value', date: null, notes: 'Evaporated film' },
+  provenance: { kind: 'typical', source: 'Typical value', date: null, run: '', notes: 'Evaporated film' },
+  retiredAt: null,
+  sourceFile: null,
   version: 2,
   updatedAt: '2026-12-01T08:00:00.000Z',
 };
@@ -80,7 +82,8 @@ describe('MaterialFormDialog', () => {
     await fill(user, dialog, 'C3 (µm²)', '103.560653');
     await fill(user, dialog, 'Valid from (nm)', '300');
     await fill(user, dialog, 'Valid to (nm)', '2500');
-    await fill(user, dialog, 'Source', 'Glass data sheet');
+    await user.selectOptions(dialog.getByLabelText('Provenance'), 'published');
+    await fill(user, dialog, 'Reference (authors, title, journal, DOI)', 'Glass data sheet');
     await fill(user, dialog, 'Date (YYYY-MM-DD)', '2026-11-30');
     await user.click(dialog.getByRole('button', { name: 'Add material' }));
 
@@ -93,12 +96,79 @@ describe('MaterialFormDialog', () => {
           B: [1.03961212, 0.231792344, 1.01046945],
           C: [0.00600069867, 0.0200179144, 103.560653],
           k: 0,
+          validNm: { from: 300, to: 2500 },
+          clamp: false,
         },
         rangeNm: { from: 300, to: 2500 },
         typical: false,
-        provenance: { source: 'Glass data sheet', notes: '', date: '2026-11-30' },
+        provenance: { kind: 'published', source: 'Glass data sheet', notes: '', date: '2026-11-30' },
       },
     ]);
+  });
+
+  it('takes resonance wavelengths λᵢ in µm and stores Cᵢ = λᵢ²; reads n live at the reference wavelength and 587.6 nm', async () => {
+    const api = mockApi({
+      'POST /api/materials': { status: 201, body: { ...MGF2, id: 21, name: 'Sapphire o' } },
+    });
+    const onClose = vi.fn();
+    const { user } = renderWithProviders(
+      <MaterialFormDialog open material={null} onClose={onClose} referenceWavelengthNm={550} />,
+    );
+    const dialog = within(await screen.findByRole('dialog', { name: 'New material' }));
+    await fill(user, dialog, 'Name', 'Sapphire o');
+    await user.selectOptions(dialog.getByLabelText('Dispersion model'), 'sellmeier');
+    await user.selectOptions(dialog.getByLabelText('Enter the poles as'), 'lambda');
+    // Sapphire, ordinary ray: I. H. Malitson and M. J. Dodge, J. Opt. Soc. Am. 62, 1405 (1972), as
+    // B and resonance wavelengths in µm; n(589.3 nm) = 1.76808.
+    await fill(user, dialog, 'B1', '1.4313493');
+    await fill(user, dialog, 'λ1 (µm)', '0.0726631');
+    await fill(user, dialog, 'B2', '0.65054713');
+    await fill(user, dialog, 'λ2 (µm)', '0.1193242');
+    await fill(user, dialog, 'B3', '5.3414021');
+    await fill(user, dialog, 'λ3 (µm)', '18.028251');
+    await fill(user, dialog, 'Valid from (nm)', '200');
+    await fill(user, dialog, 'Valid to (nm)', '5000');
+    await fill(user, dialog, 'Reference wavelength (nm)', '589.3');
+    const readout = within(dialog.getByRole('region', { name: 'Index readout' }));
+    expect(readout.getByLabelText('Index at 589.3 nm').textContent).toBe('589.3 nm: n = 1.76808, k = 0.00');
+    expect(readout.getByLabelText('Index at 587.6 nm').textContent).toMatch(/^587\.6 nm: n = 1\.768\d\d/);
+
+    // Outside the valid range the readout says the engine refuses it.
+    await fill(user, dialog, 'Valid to (nm)', '500');
+    expect(readout.getByLabelText('Index at 587.6 nm').textContent).toBe(
+      '587.6 nm: outside the valid range (refused)',
+    );
+    await fill(user, dialog, 'Valid to (nm)', '5000');
+
+    await user.selectOptions(dialog.getByLabelText('Provenance'), 'published');
+    await fill(
+      user,
+      dialog,
+      'Reference (authors, title, journal, DOI)',
+      'Malitson and Dodge, JOSA 62, 1405 (1972)',
+    );
+    await user.click(dialog.getByRole('button', { name: 'Add material' }));
+    await waitFor(() => expect(onClose).toHaveBeenCalled());
+    const body = api.calls('POST', '/api/materials')[0].body as { model: { C: number[] } };
+    expect(body.model.C).toEqual([0.0726631 ** 2, 0.1193242 ** 2, 18.028251 ** 2]);
+  });
+
+  it('requires provenance: a measured material needs its date and run', async () => {
+    const api = mockApi({});
+    const { user } = renderWithProviders(<MaterialFormDialog open material={null} onClose={() => {}} />);
+    const dialog = within(await screen.findByRole('dialog', { name: 'New material' }));
+    await fill(user, dialog, 'Name', 'Shop SiO2');
+    await fill(user, dialog, 'n', '1.46');
+    await fill(user, dialog, 'Valid from (nm)', '400');
+    await fill(user, dialog, 'Valid to (nm)', '900');
+    await user.click(dialog.getByRole('button', { name: 'Add material' }));
+    expect(descriptionOf('Provenance')).toBe('Say where the data come from');
+
+    await user.selectOptions(dialog.getByLabelText('Provenance'), 'measured');
+    await user.click(dialog.getByRole('button', { name: 'Add material' }));
+    expect(descriptionOf('Date (YYYY-MM-DD)')).toBe('A measurement needs its date');
+    expect(descriptionOf('Run')).toBe('A measurement needs its run');
+    expect(api.requests).toHaveLength(0);
   });
 
   it('sends the loaded version; on 409 shows the message and Reload loads the current material', async () => {

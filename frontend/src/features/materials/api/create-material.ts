@@ -1,5 +1,5 @@
 import { useMutation, useQueryClient } from '@tanstack/react-query';
-import type { MaterialModel } from '@quietglass/shared';
+import type { MaterialModel, ProvenanceKind } from '@quietglass/shared';
 import { apiClient } from '../../../lib/api-client';
 import { getMaterialsQueryOptions, type MaterialView } from './get-materials';
 
@@ -8,7 +8,8 @@ export interface MaterialInput {
   model: MaterialModel;
   rangeNm: { from: number; to: number };
   typical: boolean;
-  provenance: { source: string; date?: string; notes: string };
+  /** Required: published (with its reference), measured (with date and run) or typical. */
+  provenance: { kind: ProvenanceKind; source: string; date?: string; run?: string; notes: string };
 }
 
 export function createMaterial(input: MaterialInput): Promise<MaterialView> {

@@ -1,5 +1,6 @@
 import { useMutation, useQueryClient } from '@tanstack/react-query';
 import { apiClient } from '../../../lib/api-client';
+import type { MaterialInput } from './create-material';
 import { getMaterialsQueryOptions, type MaterialView } from './get-materials';
 
 /** Largest n,k file the API takes (bytes), checked here before sending too. */
@@ -9,10 +10,15 @@ export interface ImportMaterialCsvInput {
   name: string;
   /** The file's text: wavelength, n and optionally k per row. */
   csv: string;
-  unit: 'nm' | 'um';
+  /** Left out when the header names the unit ("Wavelength (nm)"). */
+  unit?: 'nm' | 'um';
   interpolation: 'linear' | 'pchip';
+  /** Outside the table: hold the end values and warn. */
+  clamp: boolean;
+  /** The uploaded file's name, kept with it for download. */
+  fileName: string;
   typical: boolean;
-  provenance?: { source: string; notes: string };
+  provenance: MaterialInput['provenance'];
 }
 
 export function importMaterialCsv(input: ImportMaterialCsvInput): Promise<MaterialView> {

@@ -4,11 +4,13 @@ import Button from '@mui/material/Button';
 import Chip from '@mui/material/Chip';
 import Paper from '@mui/material/Paper';
 import Typography from '@mui/material/Typography';
-import { evaluateIndex, type MaterialModel } from '@quietglass/shared';
+import { PROVENANCE_KIND_LABELS, evaluateIndex, type MaterialModel } from '@quietglass/shared';
 import { useMemo } from 'react';
 import { ErrorAlert } from '../../../components/error-alert';
 import { Plot } from '../../../components/plot';
-import { formatDateTime } from '../../../lib/format';
+import { apiUrl } from '../../../lib/api-client';
+import { formatDateTime, formatFileSize } from '../../../lib/format';
+import { materialSourceFilePath, useRetireMaterial } from '../api/retire-material';
 import type { MaterialView } from '../api/get-materials';
 import { useMaterialRevisions } from '../api/get-material-revisions';
 import { MODEL_KIND_LABELS, describeModel } from '../material-form';
@@ -48,6 +50,9 @@ interface MaterialDetailProps {
 /** One material: its model, provenance and a plot of n and k over its valid range. */
 export function MaterialDetail({ material, canEdit, onEdit }: MaterialDetailProps) {
   const curve = useMemo(() => indexCurve(material.model, material.rangeNm), [material]);
+  const retire = useRetireMaterial();
+  const { provenance } = material;
+  const held = 'clamp' in material.model && material.model.clamp === true;
   return (
     <Paper variant="outlined" sx={{ p: 2 }} component="section" aria-label={`Material ${material.name}`}>
       <Box sx={{ display: 'flex', alignItems: 'center', gap: 1, mb: 1, flexWrap: 'wrap' }}>
@@ -55,22 +60,64 @@ export function MaterialDetail({ material, canEdit, onEdit }: MaterialDetailProp
           {material.name}
         </Typography>
         <Chip size="small" label={MODEL_KIND_LABELS[material.model.model]} />
-        {material.typical && <Chip size="small" color="warning" variant="outlined" label="typical value" />}
+        <Chip
+          size="small"
+          variant="outlined"
+          color={provenance.kind === 'typical' ? 'warning' : 'default'}
+          label={PROVENANCE_KIND_LABELS[provenance.kind]}
+        />
+        {material.retiredAt && <Chip size="small" color="default" label="retired" />}
         {canEdit && (
           <Button variant="outlined" size="small" onClick={onEdit}>
             Edit
           </Button>
         )}
+        {canEdit && (
+          <Button
+            variant="outlined"
+            size="small"
+            disabled={retire.isPending}
+            onClick={() =>
+              retire.mutate({ id: material.id, version: material.version, retire: !material.retiredAt })
+            }
+          >
+            {material.retiredAt ? 'Restore' : 'Retire'}
+          </Button>
+        )}
       </Box>
+      {retire.error && <ErrorAlert error={retire.error} title="Not changed" />}
+      {material.retiredAt && (
+        <Alert severity="info" sx={{ mb: 1 }}>
+          Retired {formatDateTime(material.retiredAt)}: no longer offered in pickers; the versions that use it
+          keep it.
+        </Alert>
+      )}
       <Typography variant="body2">{describeModel(material.model)}</Typography>
       <Typography variant="body2" color="text.secondary">
-        Valid {material.rangeNm.from}–{material.rangeNm.to} nm ·{' '}
-        {material.provenance.source || 'no source given'}
-        {material.provenance.date ? ` (${material.provenance.date})` : ''} · revision {material.revision} ·
-        version {material.version}, changed {formatDateTime(material.updatedAt)}
+        Valid {material.rangeNm.from}–{material.rangeNm.to} nm (
+        {held ? 'end values held outside, with a warning' : 'refused outside'}) · revision {material.revision}{' '}
+        · version {material.version}, changed {formatDateTime(material.updatedAt)}
       </Typography>
+      <Typography variant="body2" sx={{ whiteSpace: 'pre-line' }} aria-label="Provenance">
+        {PROVENANCE_KIND_LABELS[provenance.kind]}
+        {provenance.kind === 'measured'
+          ? ` on ${provenance.date ?? '—'}, run ${provenance.run || '—'}`
+          : provenance.date
+            ? ` (${provenance.date})`
+            : ''}
+        {provenance.source ? `: ${provenance.source}` : ''}
+      </Typography>
+      {material.sourceFile && (
+        <Typography variant="body2">
+          Original file:{' '}
+          <a href={apiUrl(materialSourceFilePath(material.id))} download={material.sourceFile.fileName}>
+            {material.sourceFile.fileName}
+          </a>{' '}
+          ({formatFileSize(material.sourceFile.sizeBytes)})
+        </Typography>
+      )}
       {material.provenance.notes && (
-        <Typography variant="body2" color="text.secondary">
+        <Typography variant="body2" color="text.secondary" sx={{ whiteSpace: 'pre-line' }}>
           {material.provenance.notes}
         </Typography>
       )}

@@ -1,5 +1,7 @@
 import Box from '@mui/material/Box';
+import TextField from '@mui/material/TextField';
 import Typography from '@mui/material/Typography';
+import { PROVENANCE_KINDS, PROVENANCE_KIND_LABELS, type MaterialModel } from '@quietglass/shared';
 import { useQueryClient } from '@tanstack/react-query';
 import { useState } from 'react';
 import { useForm, useWatch } from 'react-hook-form';
@@ -18,11 +20,17 @@ import { useUpdateMaterial } from '../api/update-material';
 import {
   EMPTY_MATERIAL_VALUES,
   MODEL_KIND_LABELS,
+  convertSellmeierC,
   materialInputOf,
   materialRules,
+  readIndex,
   valuesOf,
   type MaterialFormValues,
+  type SellmeierForm,
 } from '../material-form';
+
+/** The d line (587.6 nm, helium), where glass catalogues state nd. */
+const D_LINE_NM = 587.6;
 
 interface MaterialFormDialogProps {
   open: boolean;
@@ -31,21 +39,32 @@ interface MaterialFormDialogProps {
   onClose: () => void;
   /** Told the saved material (new or edited), e.g. to select it. */
   onSaved?: (saved: MaterialView) => void;
+  /** The design reference wavelength for the live readout (nm; 550 when not given). */
+  referenceWavelengthNm?: number;
 }
 
 /** Create or edit a material: constant, Cauchy or Sellmeier model, valid range and provenance. */
-export function MaterialFormDialog({ open, material, onClose, onSaved }: MaterialFormDialogProps) {
+export function MaterialFormDialog({
+  open,
+  material,
+  onClose,
+  onSaved,
+  referenceWavelengthNm,
+}: MaterialFormDialogProps) {
   const queryClient = useQueryClient();
   const create = useCreateMaterial();
   const update = useUpdateMaterial();
   // The version the edit is based on; replaced by Reload after a conflict.
   const [base, setBase] = useState<MaterialView | null>(material);
   const [reloadError, setReloadError] = useState<Error | null>(null);
-  const { control, handleSubmit, reset } = useForm<MaterialFormValues>({
+  const { control, handleSubmit, reset, getValues, setValue } = useForm<MaterialFormValues>({
     defaultValues: material ? valuesOf(material) : EMPTY_MATERIAL_VALUES,
     mode: 'onTouched',
   });
   const kind = useWatch({ control, name: 'kind' });
+  const provenanceKind = useWatch({ control, name: 'provenanceKind' });
+  const sellmeierForm = useWatch({ control, name: 'sellmeierForm' });
+  const [referenceText, setReferenceText] = useState(String(referenceWavelengthNm ?? 550));
   const mutation = material ? update : create;
   const conflict = update.error instanceof ApiError && update.error.status === 409 ? update.error : null;
 
@@ -77,6 +96,12 @@ export function MaterialFormDialog({ open, material, onClose, onSaved }: Materia
     } catch (error) {
       setReloadError(error instanceof Error ? error : new Error(String(error)));
     }
+  };
+
+  const changeSellmeierForm = (to: SellmeierForm) => {
+    if (to === getValues('sellmeierForm')) return;
+    for (const i of [1, 2, 3] as const) setValue(`C${i}`, convertSellmeierC(getValues(`C${i}`), to));
+    setValue('sellmeierForm', to);
   };
 
   const numberField = (
@@ -155,13 +180,28 @@ export function MaterialFormDialog({ open, material, onClose, onSaved }: Materia
       {kind === 'sellmeier' && (
         <>
           <Typography variant="body2" color="text.secondary">
-            n²(λ) = 1 + Σ Bᵢλ²/(λ² − Cᵢ) with λ in µm and Cᵢ in µm²; one to three terms.
+            n²(λ) = 1 + Σ Bᵢλ²/(λ² − Cᵢ) with λ in µm; one to three terms. Cᵢ in µm², or the resonance
+            wavelength λᵢ in µm as many publications give it (Cᵢ = λᵢ²).
           </Typography>
+          <TextField
+            select
+            label="Enter the poles as"
+            size="small"
+            value={sellmeierForm}
+            onChange={(e) => changeSellmeierForm(e.target.value as SellmeierForm)}
+            slotProps={{ select: { native: true } }}
+            sx={{ maxWidth: 320 }}
+          >
+            <option value="C">Cᵢ in µm²</option>
+            <option value="lambda">Resonance wavelength λᵢ in µm</option>
+          </TextField>
           <Box sx={{ display: 'grid', gap: 2, gridTemplateColumns: 'repeat(3, minmax(0, 1fr))' }}>
             {([1, 2, 3] as const).map((i) => (
               <Box key={i} sx={{ display: 'grid', gap: 1 }}>
                 {numberField(`B${i}`, `B${i}`, materialRules.sellmeierB(i))}
-                {numberField(`C${i}`, `C${i} (µm²)`, materialRules.sellmeierC(i))}
+                {sellmeierForm === 'lambda'
+                  ? numberField(`C${i}`, `λ${i} (µm)`, materialRules.sellmeierC(i))
+                  : numberField(`C${i}`, `C${i} (µm²)`, materialRules.sellmeierC(i))}
               </Box>
             ))}
           </Box>
@@ -180,18 +220,62 @@ export function MaterialFormDialog({ open, material, onClose, onSaved }: Materia
       </Box>
       <FormCheckboxField
         control={control}
-        name="typical"
-        label="Typical value (not measured on our process)"
+        name="holdOutside"
+        label="Outside the valid range, hold the end values and warn (otherwise calculations there are refused)"
       />
-      <Box sx={{ display: 'grid', gap: 2, gridTemplateColumns: { xs: '1fr', sm: '2fr 1fr' } }}>
-        <FormTextField control={control} name="source" label="Source" size="small" />
+      {kind !== 'table' && (
+        <IndexReadout
+          control={control}
+          original={base?.model ?? null}
+          referenceText={referenceText}
+          onReferenceChange={setReferenceText}
+        />
+      )}
+      <FormSelectField
+        control={control}
+        name="provenanceKind"
+        rules={{ validate: (v) => materialRules.provenanceKind(String(v)) }}
+        label="Provenance"
+        size="small"
+        placeholder="Choose…"
+        options={PROVENANCE_KINDS.map((k) => ({ value: k, label: PROVENANCE_KIND_LABELS[k] }))}
+      />
+      <Box
+        sx={{
+          display: 'grid',
+          gap: 2,
+          gridTemplateColumns: { xs: '1fr', sm: provenanceKind === 'measured' ? '2fr 1fr 1fr' : '2fr 1fr' },
+        }}
+      >
+        <FormTextField
+          control={control}
+          name="source"
+          rules={{ validate: (v, all) => materialRules.source(String(v), all) }}
+          label={
+            provenanceKind === 'published'
+              ? 'Reference (authors, title, journal, DOI)'
+              : provenanceKind === 'measured'
+                ? 'What was measured and how'
+                : 'Source'
+          }
+          size="small"
+        />
         <FormTextField
           control={control}
           name="date"
-          rules={{ validate: (v) => materialRules.date(String(v)) }}
+          rules={{ validate: (v, all) => materialRules.measuredDate(String(v), all) }}
           label="Date (YYYY-MM-DD)"
           size="small"
         />
+        {provenanceKind === 'measured' && (
+          <FormTextField
+            control={control}
+            name="run"
+            rules={{ validate: (v, all) => materialRules.run(String(v), all) }}
+            label="Run"
+            size="small"
+          />
+        )}
       </Box>
       <FormTextField
         control={control}
@@ -202,5 +286,49 @@ export function MaterialFormDialog({ open, material, onClose, onSaved }: Materia
         minRows={2}
       />
     </FormDialog>
+  );
+}
+
+/** Live n and k of the model being entered at the reference wavelength and at the d line. */
+function IndexReadout({
+  control,
+  original,
+  referenceText,
+  onReferenceChange,
+}: {
+  control: ReturnType<typeof useForm<MaterialFormValues>>['control'];
+  original: MaterialModel | null;
+  referenceText: string;
+  onReferenceChange: (text: string) => void;
+}) {
+  const values = useWatch({ control }) as MaterialFormValues;
+  const reference = Number(referenceText);
+  const wavelengths = reference > 0 ? [reference, D_LINE_NM] : [D_LINE_NM];
+  const readings = readIndex({ ...EMPTY_MATERIAL_VALUES, ...values }, original, wavelengths);
+  return (
+    <Box
+      component="section"
+      aria-label="Index readout"
+      sx={{ display: 'flex', gap: 2, alignItems: 'center', flexWrap: 'wrap' }}
+    >
+      <TextField
+        label="Reference wavelength (nm)"
+        size="small"
+        value={referenceText}
+        onChange={(e) => onReferenceChange(e.target.value)}
+        slotProps={{ htmlInput: { inputMode: 'decimal' } }}
+        sx={{ width: 200 }}
+      />
+      <Box>
+        {readings.map((r) => (
+          <Typography key={r.wavelengthNm} variant="body2" aria-label={`Index at ${r.wavelengthNm} nm`}>
+            {r.wavelengthNm} nm:{' '}
+            {r.n === null
+              ? r.problem
+              : `n = ${r.n.toFixed(5)}, k = ${(r.k ?? 0).toPrecision(3)}${r.held ? ' (outside the range: end value held)' : ''}`}
+          </Typography>
+        ))}
+      </Box>
+    </Box>
   );
 }

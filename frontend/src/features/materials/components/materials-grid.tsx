@@ -1,12 +1,19 @@
 import Chip from '@mui/material/Chip';
 import { DataGrid, type GridColDef, type GridRowSelectionModel } from '@mui/x-data-grid';
+import { PROVENANCE_KIND_LABELS } from '@quietglass/shared';
 import { useMemo } from 'react';
 import { ErrorAlert } from '../../../components/error-alert';
 import { useMaterials, type MaterialView } from '../api/get-materials';
 import { MODEL_KIND_LABELS } from '../material-form';
 
 const columns: GridColDef<MaterialView>[] = [
-  { field: 'name', headerName: 'Name', flex: 1, minWidth: 140 },
+  {
+    field: 'name',
+    headerName: 'Name',
+    flex: 1,
+    minWidth: 160,
+    renderCell: ({ row }) => (row.retiredAt ? `${row.name} (retired)` : row.name),
+  },
   {
     field: 'model',
     headerName: 'Model',
@@ -21,14 +28,15 @@ const columns: GridColDef<MaterialView>[] = [
     sortComparator: (a: string, b: string) => parseFloat(a) - parseFloat(b),
   },
   {
-    field: 'typical',
+    field: 'provenance',
     headerName: 'Data',
-    width: 180,
+    width: 200,
+    valueGetter: (_v, row) => PROVENANCE_KIND_LABELS[row.provenance.kind],
     renderCell: ({ row }) =>
-      row.typical ? (
-        <Chip size="small" color="warning" variant="outlined" label="typical value" />
+      row.provenance.kind === 'typical' ? (
+        <Chip size="small" color="warning" variant="outlined" label={PROVENANCE_KIND_LABELS.typical} />
       ) : (
-        'measured / published'
+        PROVENANCE_KIND_LABELS[row.provenance.kind]
       ),
   },
   {
@@ -43,11 +51,17 @@ const columns: GridColDef<MaterialView>[] = [
 interface MaterialsGridProps {
   selectedId: number | null;
   onSelect: (material: MaterialView | null) => void;
+  /** Also list retired materials (default: only those in use for new work). */
+  showRetired?: boolean;
 }
 
 /** The materials library; choosing a row opens its detail. */
-export function MaterialsGrid({ selectedId, onSelect }: MaterialsGridProps) {
+export function MaterialsGrid({ selectedId, onSelect, showRetired = false }: MaterialsGridProps) {
   const materials = useMaterials();
+  const rows = useMemo(
+    () => (materials.data ?? []).filter((m) => showRetired || !m.retiredAt || m.id === selectedId),
+    [materials.data, showRetired, selectedId],
+  );
   const selection = useMemo<GridRowSelectionModel>(
     () => ({ type: 'include', ids: new Set(selectedId === null ? [] : [selectedId]) }),
     [selectedId],
@@ -57,7 +71,7 @@ export function MaterialsGrid({ selectedId, onSelect }: MaterialsGridProps) {
   return (
     <DataGrid
       aria-label="Materials"
-      rows={materials.data ?? []}
+      rows={rows}
       columns={columns}
       loading={materials.isPending}
       autoHeight
