@@ -376,3 +376,19 @@ export interface RunSheetCalibration {
 
 /** Longest comment on a calibration decision, characters. */
 export const CALIBRATION_COMMENT_MAX_LENGTH = 2000;
+
+/** One line naming the calibration behind a run sheet's tooling factors, for the materials it uses. */
+export function runSheetCalibrationLine(
+  calibration: RunSheetCalibration,
+  materials: readonly string[],
+): string {
+  const used = new Set(materials);
+  const parts = calibration.materials
+    .filter((m) => used.has(m.material))
+    .map((m) =>
+      m.decision
+        ? `${m.material} ${m.toolingFactor} (calibration #${m.decision.id}, accepted ${m.decision.decidedAt.slice(0, 10)} by ${m.decision.decidedBy})`
+        : `${m.material} ${m.toolingFactor} (chamber setting)`,
+    );
+  return `Tooling factors from chamber version ${calibration.chamberVersion}: ${parts.join('; ')}.`;
+}

@@ -2,6 +2,7 @@ import 'reflect-metadata';
 import { DataSource, type DataSourceOptions } from 'typeorm';
 import { AuditEvent } from '../audit/audit-event.entity.js';
 import { Calculation } from '../calculations/calculation.entity.js';
+import { CalibrationDecision, CalibrationSettingsRecord } from '../calibration/calibration.entity.js';
 import { Chamber } from '../chambers/chamber.entity.js';
 import { Customer } from '../customers/customer.entity.js';
 import { Design } from '../designs/design.entity.js';
@@ -31,6 +32,7 @@ import { Sessions1764634700000 } from '../migrations/1764634700000-sessions.js';
 import { MaterialRevisions1764634800000 } from '../migrations/1764634800000-material-revisions.js';
 import { RecordUses1764700000000 } from '../migrations/1764700000000-record-uses.js';
 import { CustomerRecordsMaskKinds1764810000000 } from '../migrations/1764810000000-customer-records-mask-kinds.js';
+import { ChamberCalibration1764840000000 } from '../migrations/1764840000000-chamber-calibration.js';
 
 /** Every entity of the app; each domain module also registers its own with forFeature. */
 export const ENTITIES = [
@@ -52,6 +54,8 @@ export const ENTITIES = [
   OutboxAttachment,
   Session,
   AuditEvent,
+  CalibrationDecision,
+  CalibrationSettingsRecord,
 ];
 
 /** Every migration, in order. Listed explicitly so the same list works from src (tests) and dist. */
@@ -71,6 +75,7 @@ export const MIGRATIONS = [
   MaterialRevisions1764634800000,
   RecordUses1764700000000,
   CustomerRecordsMaskKinds1764810000000,
+  ChamberCalibration1764840000000,
 ];
 
 /** TypeORM options for PostgreSQL; never `synchronize` — the schema comes from migrations. */

@@ -7,7 +7,9 @@
  * against a neighbour) gets a large σ; a singular JᵀJ gives no uncertainty at all (null).
  */
 import { OpticsInputError } from '../optics/errors.js';
-import type { MaskMerit } from './merit.js';
+import type { SpecMask } from '../optics/mask.js';
+import type { OpticalStack } from '../optics/stack.js';
+import { createMaskMerit, type MaskMerit, type MaskMeritOptions } from './merit.js';
 
 /** Central-difference step for the Jacobian where analytic derivatives are not available, nm. */
 const FD_STEP_NM = 1e-3;
@@ -19,6 +21,20 @@ export interface ThicknessUncertainty {
   residualScale: number;
   /** n − p. */
   degreesOfFreedom: number;
+}
+
+/**
+ * {@link thicknessUncertainty} for a fit of `stack` to `mask` and `options.targets` (as Fit to mask
+ * was called), at the fitted `thicknessesNm`; `fittedSamples` is the number of target points.
+ */
+export function fitUncertainty(
+  stack: OpticalStack,
+  mask: SpecMask,
+  options: MaskMeritOptions,
+  thicknessesNm: readonly number[],
+  fittedSamples: number,
+): ThicknessUncertainty {
+  return thicknessUncertainty(createMaskMerit(stack, mask, options), thicknessesNm, fittedSamples);
 }
 
 /**
