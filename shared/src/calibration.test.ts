@@ -148,6 +148,20 @@ describe('calibrationCause and calibrationFindings', () => {
     expect(findings[0].correction.value).toBeCloseTo(1.02, 12);
   });
 
+  it('suggests one common cause when most recent runs showed the same factor for all materials', () => {
+    const estimates = [
+      { materialId: 1, runs: 8, correction: { value: 1.0197, sigma: 0.0011 } },
+      { materialId: 2, runs: 8, correction: { value: 1.0276, sigma: 0.0025 } },
+    ];
+    // The estimates alone differ by more than 2σ and half the threshold: per material.
+    expect(calibrationFindings(estimates, settings).map((f) => f.kind)).toEqual(['material', 'material']);
+    const runs = ['common', 'common', 'material', 'common'] as const;
+    expect(calibrationFindings(estimates, settings, runs).map((f) => f.kind)).toEqual(['common']);
+    // Not when one material did not move at all.
+    const one = [estimates[0], { materialId: 2, runs: 8, correction: { value: 1.001, sigma: 0.001 } }];
+    expect(calibrationFindings(one, settings, runs).map((f) => f.kind)).toEqual(['material']);
+  });
+
   it('suggests nothing below the threshold, inside 2σ, or before minRuns runs', () => {
     const one = (value: number, sigma: number, runs: number) =>
       calibrationFindings([{ materialId: 1, runs, correction: { value, sigma } }], settings);

@@ -57,7 +57,7 @@ export const DEFAULT_CALIBRATION_SETTINGS: CalibrationSettings = {
  * A layer whose fitted thickness factor has a standard uncertainty above this is not identified
  * by its run's spectrum (typically a very thin layer) and is left out (common practice, no source).
  */
-export const IDENTIFIABLE_MAX_FACTOR_SIGMA = 0.05;
+export const IDENTIFIABLE_MAX_FACTOR_SIGMA = 0.02;
 
 /** Smallest standard uncertainty a run's value is given, relative (common practice, no source). */
 export const MIN_RUN_SIGMA = 0.001;
@@ -190,7 +190,8 @@ export type CalibrationCause = 'none' | 'material' | 'common';
 
 /**
  * The cause a set of per-material factors points to: `common` when every material is off by the
- * same factor (within 2σ of their weighted mean, which is itself off by the threshold) — a monitor
+ * same factor (within 2σ or half the threshold of their weighted mean, which is itself off by the
+ * threshold) — a monitor
  * or geometry cause, not a material's; `material` when some material is off on its own; `none`.
  */
 export function calibrationCause(factors: readonly Measured[], thresholdPercent: number): CalibrationCause {
@@ -200,8 +201,12 @@ export function calibrationCause(factors: readonly Measured[], thresholdPercent:
     const mean = weightedMean(
       factors.map((f) => ({ value: f.value, sigma: Math.max(f.sigma, MIN_RUN_SIGMA) })),
     );
+    // Together: within 2σ of the mean, or within half the threshold of it (a difference too small
+    // to act on per material; common practice, no source).
     const together = factors.every(
-      (f) => Math.abs(f.value - mean.value) <= 2 * Math.max(f.sigma, MIN_RUN_SIGMA),
+      (f) =>
+        Math.abs(f.value - mean.value) <= 2 * Math.max(f.sigma, MIN_RUN_SIGMA) ||
+        Math.abs(f.value - mean.value) * 100 <= thresholdPercent / 2,
     );
     if (together && factors.every(off) && off(mean)) return 'common';
   }
@@ -224,23 +229,36 @@ export type CalibrationFinding =
 
 /**
  * Findings from the current estimates: every material with at least `minRuns` runs whose
- * correction is off by the threshold and by more than 2σ is a candidate; when there are two or
- * more materials with enough runs and all of them are candidates off by the same factor (see
- * {@link calibrationCause}), the finding is one common cause instead of per-material factors.
+ * correction is off by the threshold and by more than 2σ is a candidate. The finding is one common
+ * (monitor or geometry) cause instead of per-material factors when two or more materials have
+ * enough runs, all of them are candidates off in the same direction, and either their estimates
+ * agree (see {@link calibrationCause}) or most of the recent runs (`recentCauses`, the causes of the
+ * last runs, at least `minRuns` of them) each showed the same factor for all materials.
  */
 export function calibrationFindings(
   estimates: readonly MaterialEstimate[],
   settings: CalibrationSettings = DEFAULT_CALIBRATION_SETTINGS,
+  recentCauses: readonly CalibrationCause[] = [],
 ): CalibrationFinding[] {
   const ready = estimates.filter((e) => e.runs >= settings.minRuns);
-  const cause =
-    ready.length > 0
-      ? calibrationCause(
-          ready.map((e) => e.correction),
-          settings.thresholdPercent,
-        )
-      : 'none';
-  if (cause === 'common') {
+  const off = (e: MaterialEstimate) =>
+    Math.abs(e.correction.value - 1) * 100 >= settings.thresholdPercent &&
+    Math.abs(e.correction.value - 1) > 2 * e.correction.sigma;
+  const candidates = ready.filter(off);
+  const allTogether =
+    ready.length >= 2 &&
+    candidates.length === ready.length &&
+    (candidates.every((e) => e.correction.value > 1) || candidates.every((e) => e.correction.value < 1));
+  const runsSayCommon =
+    recentCauses.length >= settings.minRuns &&
+    recentCauses.filter((c) => c === 'common').length * 2 > recentCauses.length;
+  const estimatesSayCommon =
+    allTogether &&
+    calibrationCause(
+      ready.map((e) => e.correction),
+      settings.thresholdPercent,
+    ) === 'common';
+  if (allTogether && (estimatesSayCommon || runsSayCommon)) {
     return [
       {
         kind: 'common',
@@ -251,13 +269,7 @@ export function calibrationFindings(
       },
     ];
   }
-  return ready
-    .filter(
-      (e) =>
-        Math.abs(e.correction.value - 1) * 100 >= settings.thresholdPercent &&
-        Math.abs(e.correction.value - 1) > 2 * e.correction.sigma,
-    )
-    .map((e) => ({ kind: 'material', materialId: e.materialId, correction: e.correction }));
+  return candidates.map((e) => ({ kind: 'material', materialId: e.materialId, correction: e.correction }));
 }
 
 /** A suggested tooling factor, rounded as chambers keep them (4 decimals). */
