@@ -6,11 +6,15 @@
  */
 import type { NestExpressApplication } from '@nestjs/platform-express';
 import request from 'supertest';
+import { DataSource } from 'typeorm';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { designStackDescription, engineBackSurface } from '@quietglass/shared/designs';
 import { calculateSpectrum } from '@quietglass/shared/optics/batch';
 import { parseStack } from '@quietglass/shared/optics/stack';
+import { dataSourceOptions } from '../src/database/data-source.js';
+import { seedCalibrationDemo } from '../src/database/demo-calibration.js';
 import { approvedDesign } from './support/approved.js';
+import { requireE2eEnv } from './support/env.js';
 import { createTestApp, demoSession } from './support/app.js';
 import { binary } from './support/binary.js';
 import { customerId, materialIds } from './support/fixtures.js';
@@ -349,5 +353,28 @@ describe('chamber calibration', () => {
       .set('Cookie', admin)
       .send({ thresholdPercent: 1, minRuns: 4, version: current.version });
     expect(stale.status).toBe(409);
+  });
+
+  it('seeds the demo chamber with twelve diagnosed runs, a ZrO2 drift and its suggestion, once', async () => {
+    const db = new DataSource(dataSourceOptions(requireE2eEnv().databaseUrl));
+    await db.initialize();
+    try {
+      expect(await seedCalibrationDemo(db)).toBe(12);
+      expect(await seedCalibrationDemo(db)).toBe(0);
+    } finally {
+      await db.destroy();
+    }
+    const b2 = (await http().get('/api/chambers').set('Cookie', mira)).body.find(
+      (c: { name: string }) => c.name === 'Box coater B2',
+    );
+    const view = (await http().get(`/api/chambers/${b2.id}/calibration`).set('Cookie', mira)).body;
+    const zr = view.series.find((x: { materialName: string }) => x.materialName === 'ZrO2');
+    expect(zr.runs).toHaveLength(12);
+    expect(zr.runs.map((r: { runDate: string }) => r.runDate)[0]).toBe('2026-10-02');
+    // The invented drift ends at +2 % (plus the last runs' own 0.3 % scatter): within 3σ of it.
+    expect(Math.abs(zr.estimate.correction.value - 1.02)).toBeLessThan(3 * zr.estimate.correction.sigma);
+    expect(
+      view.suggestions.map((x: { kind: string; materialIds: number[] }) => [x.kind, x.materialIds]),
+    ).toEqual([['material', [m['ZrO2']]]]);
   });
 });

@@ -55,9 +55,11 @@ export const DEFAULT_CALIBRATION_SETTINGS: CalibrationSettings = {
 
 /**
  * A layer whose fitted thickness factor has a standard uncertainty above this is not identified
- * by its run's spectrum (typically a very thin layer) and is left out (common practice, no source).
+ * by its run's spectrum (a very thin layer, or one with little index contrast to its neighbours,
+ * e.g. SiO2 on glass) and is left out: a factor known only to ±1 % cannot support a correction of
+ * the usual 1 % threshold (common practice, no source).
  */
-export const IDENTIFIABLE_MAX_FACTOR_SIGMA = 0.02;
+export const IDENTIFIABLE_MAX_FACTOR_SIGMA = 0.01;
 
 /** Smallest standard uncertainty a run's value is given, relative (common practice, no source). */
 export const MIN_RUN_SIGMA = 0.001;
