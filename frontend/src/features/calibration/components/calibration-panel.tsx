@@ -90,7 +90,10 @@ export function CalibrationPanel({
       {view && chamber && (
         <Stack spacing={2}>
           {view.suggestions.length === 0 && (
-            <Alert severity="success">No suggested correction: every estimate is within the threshold.</Alert>
+            <Alert severity="info">
+              No suggested correction pending. Suggestions already decided stay hidden until a new run is
+              diagnosed.
+            </Alert>
           )}
           {view.suggestions.map((s) => (
             <Alert
