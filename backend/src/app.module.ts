@@ -7,6 +7,7 @@ import { AuditModule } from './audit/audit.module.js';
 import { AuthModule } from './auth/auth.module.js';
 import { BackupsModule } from './backups/backups.module.js';
 import { CalculationsModule } from './calculations/calculations.module.js';
+import { CalibrationModule } from './calibration/calibration.module.js';
 import { ChambersModule } from './chambers/chambers.module.js';
 import { RecipesModule } from './recipes/recipes.module.js';
 import { CustomersModule } from './customers/customers.module.js';
@@ -37,6 +38,7 @@ import { UsersModule } from './users/users.module.js';
     DesignsModule,
     CalculationsModule,
     ChambersModule,
+    CalibrationModule,
     RecipesModule,
     RunsModule,
     ReportsModule,

@@ -53,6 +53,7 @@ interface MatrixContext {
   releasedDesignId: number;
   chamberId: number;
   chamberVersion: number;
+  calibrationSettingsVersion: number;
   runId: number;
   /** Per permitted role, a run its own matrix user logged (only a run's operator may change it). */
   ownRunIds: Partial<Record<Role | 'anonymous', number>>;
@@ -513,6 +514,33 @@ const RULES: RouteRule[] = [
   },
   {
     method: 'get',
+    path: '/api/chambers/:id/calibration',
+    allow: FLOOR,
+    okStatus: 200,
+    url: (ctx) => `/api/chambers/${ctx.chamberId}/calibration`,
+  },
+  {
+    // The matrix chamber has no suggestion: a permitted caller gets past the role check to the 409.
+    method: 'post',
+    path: '/api/chambers/:id/calibration/decisions',
+    allow: DESIGNERS,
+    okStatus: 409,
+    url: (ctx) => `/api/chambers/${ctx.chamberId}/calibration/decisions`,
+    body: () => ({ key: 'material|0|run0|tf1->1', decision: 'rejected', comment: 'matrix' }),
+  },
+  { method: 'get', path: '/api/calibration/settings', allow: FLOOR, okStatus: 200 },
+  {
+    method: 'put',
+    path: '/api/calibration/settings',
+    allow: ['admin'],
+    okStatus: 200,
+    body: (ctx) => ({ thresholdPercent: 1, minRuns: 4, version: ctx.calibrationSettingsVersion }),
+    after: (ctx, body) => {
+      ctx.calibrationSettingsVersion = body.version ?? ctx.calibrationSettingsVersion;
+    },
+  },
+  {
+    method: 'get',
     path: '/api/recipes/:id/:number/run-sheet',
     allow: FLOOR,
     okStatus: 200,
@@ -749,6 +777,7 @@ const ctx: MatrixContext = {
   releasedDesignId: 0,
   chamberId: 0,
   chamberVersion: 1,
+  calibrationSettingsVersion: 1,
   runId: 0,
   ownRunIds: {},
   spectrumId: 0,
@@ -833,6 +862,9 @@ beforeAll(async () => {
     .send(chamberBody(ctx));
   expect(chamber.status).toBe(201);
   ctx.chamberId = chamber.body.id;
+  ctx.calibrationSettingsVersion = (
+    await request(app.getHttpServer()).get('/api/calibration/settings').set('Cookie', adminCookie)
+  ).body.version;
   const createDesign = async () => {
     const res = await request(app.getHttpServer())
       .post('/api/designs')

@@ -14,6 +14,8 @@ export const AUDIT_ENTITIES = [
   'quote',
   'run',
   'chamber',
+  'chamber-calibration',
+  'calibration-settings',
 ] as const;
 export type AuditEntity = (typeof AUDIT_ENTITIES)[number];
 
@@ -27,6 +29,8 @@ export const AUDIT_ENTITY_LABELS: Record<AuditEntity, string> = {
   quote: 'Quote',
   run: 'Chamber run',
   chamber: 'Chamber',
+  'chamber-calibration': 'Chamber calibration',
+  'calibration-settings': 'Calibration settings',
 };
 
 /** One entry of the audit trail. */

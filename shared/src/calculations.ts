@@ -58,6 +58,16 @@ export interface LayerDeviation {
   /** fitted ÷ design. */
   factor: number;
   deviationPercent: number;
+  /**
+   * Standard uncertainty of `factor` from the fit (s²·(JᵀJ)⁻¹ at the solution); null where it
+   * cannot be estimated; absent in diagnoses made before uncertainties were kept.
+   */
+  factorSigma?: number | null;
+  /**
+   * Whether the spectrum identifies this layer: false for a layer on its factor bound or with a
+   * factor σ above IDENTIFIABLE_MAX_FACTOR_SIGMA (typically a very thin layer).
+   */
+  identified?: boolean;
 }
 
 /** What a client reads of a completed Run diagnosis. */

@@ -7,6 +7,7 @@ export * from './reports.js';
 export * from './quotes.js';
 export * from './runs.js';
 export * from './chambers.js';
+export * from './calibration.js';
 export * from './recipes.js';
 export * from './outbox.js';
 export * from './calculations.js';

@@ -3,6 +3,7 @@
  * order with physical and monitor thicknesses, QWOT at the monitor wavelength, rate, time, and the
  * optical monitor's expected transmittance while each layer grows, with its turning points.
  */
+import type { RunSheetCalibration } from './calibration.js';
 import {
   createSpectrumOutput,
   createSpectrumPlan,
@@ -86,6 +87,8 @@ export interface RunSheet {
 export interface RunSheetView extends RunSheet {
   recipe: { designId: number; number: number; name: string; customer: string };
   chamber: { id: number; name: string };
+  /** Which calibration the tooling factors come from (the chamber version and, per material, the accepted calibration). */
+  calibration: RunSheetCalibration;
 }
 
 /** Builds the run sheet; errors name the layer or material whose settings are missing or wrong. */

@@ -21,5 +21,6 @@ import { OptimiseService } from './optimise.service.js';
   ],
   controllers: [CalculationsController],
   providers: [CalculationsService, OptimiseService],
+  exports: [CalculationsService],
 })
 export class CalculationsModule {}

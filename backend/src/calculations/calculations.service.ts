@@ -241,6 +241,16 @@ export class CalculationsService {
     });
   }
 
+  /** The latest completed Run diagnosis of each of the runs that have one. */
+  async latestDiagnoses(runIds: readonly number[]): Promise<Map<number, Calculation>> {
+    if (runIds.length === 0) return new Map();
+    const rows = await this.calculations.find({
+      where: { runId: In([...runIds]), kind: 'diagnosis', status: 'completed' },
+      order: { id: 'ASC' },
+    });
+    return new Map(rows.map((c) => [c.runId!, c]));
+  }
+
   list(): Promise<Calculation[]> {
     return this.calculations.find({ order: { id: 'DESC' }, take: 100 });
   }

@@ -1,6 +1,6 @@
 import { BadRequestException, ConflictException, Injectable, NotFoundException } from '@nestjs/common';
 import { InjectRepository } from '@nestjs/typeorm';
-import { Repository } from 'typeorm';
+import { Repository, type EntityManager } from 'typeorm';
 import { AuditService } from '../audit/audit.service.js';
 import { isUniqueViolation } from '../common/db-errors.js';
 import { updateIfVersion } from '../common/optimistic-lock.js';
@@ -76,6 +76,49 @@ export class ChambersService {
       }),
     );
     return this.get(id);
+  }
+
+  /**
+   * Sets one material's tooling factor inside the caller's transaction (an accepted calibration),
+   * only while the chamber is still at `expectedVersion`; the audit entry has before and after.
+   */
+  async applyToolingFactor(
+    tx: EntityManager,
+    change: {
+      id: number;
+      expectedVersion: number;
+      materialId: number;
+      toolingFactor: number;
+      reason: string;
+    },
+    user: User,
+  ): Promise<void> {
+    const before = await this.get(change.id);
+    const materials = before.materials.map((m) =>
+      m.materialId === change.materialId ? { ...m, toolingFactor: change.toolingFactor } : m,
+    );
+    const old = before.materials.find((m) => m.materialId === change.materialId);
+    if (!old)
+      throw new BadRequestException(
+        `Chamber "${before.name}" has no setting for material ${change.materialId}`,
+      );
+    await updateIfVersion(
+      tx,
+      Chamber,
+      { id: change.id, expectedVersion: change.expectedVersion, set: { materials } },
+      () =>
+        new ConflictException(
+          `Chamber "${before.name}" was changed by someone else (now version ${before.version}); reload it`,
+        ),
+    );
+    await this.audit.record(tx, {
+      actor: user,
+      entity: 'chamber',
+      entityId: change.id,
+      action: 'edited',
+      summary: `chamber "${before.name}" tooling factor of material ${change.materialId}: ${old.toolingFactor} → ${change.toolingFactor} (${change.reason})`,
+      details: { before: { materials: before.materials }, after: { materials } },
+    });
   }
 
   /** Materials must exist and appear once each. */

@@ -2,6 +2,7 @@ import 'reflect-metadata';
 import { DataSource, type DataSourceOptions } from 'typeorm';
 import { AuditEvent } from '../audit/audit-event.entity.js';
 import { Calculation } from '../calculations/calculation.entity.js';
+import { CalibrationDecision, CalibrationSettingsRecord } from '../calibration/calibration.entity.js';
 import { Chamber } from '../chambers/chamber.entity.js';
 import { Customer } from '../customers/customer.entity.js';
 import { Design } from '../designs/design.entity.js';
@@ -32,6 +33,7 @@ import { MaterialRevisions1764634800000 } from '../migrations/1764634800000-mate
 import { RecordUses1764700000000 } from '../migrations/1764700000000-record-uses.js';
 import { CustomerRecordsMaskKinds1764810000000 } from '../migrations/1764810000000-customer-records-mask-kinds.js';
 import { MaterialProvenanceFiles1764820000000 } from '../migrations/1764820000000-material-provenance-files.js';
+import { ChamberCalibration1764840000000 } from '../migrations/1764840000000-chamber-calibration.js';
 
 /** Every entity of the app; each domain module also registers its own with forFeature. */
 export const ENTITIES = [
@@ -53,6 +55,8 @@ export const ENTITIES = [
   OutboxAttachment,
   Session,
   AuditEvent,
+  CalibrationDecision,
+  CalibrationSettingsRecord,
 ];
 
 /** Every migration, in order. Listed explicitly so the same list works from src (tests) and dist. */
@@ -73,6 +77,7 @@ export const MIGRATIONS = [
   RecordUses1764700000000,
   CustomerRecordsMaskKinds1764810000000,
   MaterialProvenanceFiles1764820000000,
+  ChamberCalibration1764840000000,
 ];
 
 /** TypeORM options for PostgreSQL; never `synchronize` — the schema comes from migrations. */

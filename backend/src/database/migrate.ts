@@ -1,11 +1,13 @@
 import 'reflect-metadata';
 import { DataSource } from 'typeorm';
 import { dataSourceOptions } from './data-source.js';
+import { seedCalibrationDemo } from './demo-calibration.js';
 import { demoSignIns, seedDemo } from './demo-seed.js';
 
 /**
  * `node dist/database/migrate.js [--seed CREDENTIALS.json]`: runs pending migrations, then (with
- * --seed) creates the demo shop's users, keeping their generated passwords in CREDENTIALS.json.
+ * --seed) creates the demo shop's users, keeping their generated passwords in CREDENTIALS.json,
+ * and the demo chamber's calibration history.
  */
 async function main(): Promise<void> {
   const url = process.env.DATABASE_URL;
@@ -21,6 +23,8 @@ async function main(): Promise<void> {
     if (credentials) {
       const created = await seedDemo(db, demoSignIns(credentials));
       console.log(`demo seed: ${created} record(s) created`);
+      const runs = await seedCalibrationDemo(db);
+      if (runs > 0) console.log(`demo seed: ${runs} diagnosed chamber runs for the calibration history`);
     }
   } finally {
     await db.destroy();

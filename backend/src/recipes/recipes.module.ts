@@ -1,3 +1,4 @@
+import { CalibrationModule } from '../calibration/calibration.module.js';
 import { Module } from '@nestjs/common';
 import { ChambersModule } from '../chambers/chambers.module.js';
 import { DesignsModule } from '../designs/designs.module.js';
@@ -7,7 +8,7 @@ import { RunSheetService } from './run-sheet.service.js';
 
 /** Released recipes and their run sheets: reads designs, chambers and materials through their services. */
 @Module({
-  imports: [DesignsModule, ChambersModule, MaterialsModule],
+  imports: [DesignsModule, ChambersModule, MaterialsModule, CalibrationModule],
   controllers: [RecipesController],
   providers: [RunSheetService],
 })

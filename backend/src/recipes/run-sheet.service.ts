@@ -1,7 +1,9 @@
 import { BadRequestException, Injectable } from '@nestjs/common';
 import PDFDocument from 'pdfkit';
+import { runSheetCalibrationLine } from '@quietglass/shared/calibration';
 import { buildRunSheet, type RunSheetView } from '@quietglass/shared/runsheet';
 import { OpticsInputError } from '@quietglass/shared/optics/errors';
+import { CalibrationService } from '../calibration/calibration.service.js';
 import { ChambersService } from '../chambers/chambers.service.js';
 import { RecipesService } from '../designs/recipes.service.js';
 import { MaterialsService } from '../materials/materials.service.js';
@@ -13,6 +15,7 @@ export class RunSheetService {
     private readonly recipes: RecipesService,
     private readonly chambers: ChambersService,
     private readonly materials: MaterialsService,
+    private readonly calibration: CalibrationService,
   ) {}
 
   async build(
@@ -33,6 +36,10 @@ export class RunSheetService {
       throw new BadRequestException(
         `The monitor chip material of chamber "${chamber.name}" no longer exists`,
       );
+    const calibration = await this.calibration.forRunSheet(
+      chamber,
+      new Map([...library.values()].map((m) => [m.id, m.name])),
+    );
     const settings: Record<string, { toolingFactor: number; rateNmPerS: number }> = {};
     for (const m of chamber.materials) {
       const name = library.get(m.materialId)?.name;
@@ -53,6 +60,7 @@ export class RunSheetService {
         ...sheet,
         recipe: { designId, number, name: version.design.name, customer: version.design.customer.name },
         chamber: { id: chamber.id, name: chamber.name },
+        calibration,
       };
     } catch (err) {
       if (err instanceof OpticsInputError) throw new BadRequestException({ message: [err.message] });
@@ -79,6 +87,12 @@ export class RunSheetService {
       `Customer: ${sheet.recipe.customer}    Chamber: ${sheet.chamber.name}    Monitor wavelength: ${sheet.monitorWavelengthNm} nm`,
     );
     doc.text(sheet.convention);
+    doc.text(
+      runSheetCalibrationLine(
+        sheet.calibration,
+        sheet.layers.map((l) => l.material),
+      ),
+    );
     doc.moveDown(0.5);
     doc.font('Helvetica-Bold').text('Safety');
     doc.font('Helvetica').fontSize(8);

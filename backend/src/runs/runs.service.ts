@@ -77,6 +77,13 @@ export class RunsService {
     return this.db.getRepository(ChamberRun).find({ order: { id: 'DESC' }, take: 200 });
   }
 
+  /** Every run of a chamber, oldest first (by run date, then as entered). */
+  listForChamber(chamberId: number): Promise<ChamberRun[]> {
+    return this.db
+      .getRepository(ChamberRun)
+      .find({ where: { chamberId }, order: { runDate: 'ASC', id: 'ASC' } });
+  }
+
   async get(id: number): Promise<ChamberRun> {
     const run = await this.db.getRepository(ChamberRun).findOneBy({ id });
     if (!run) throw new NotFoundException(`Chamber run ${id} does not exist`);

@@ -6,6 +6,7 @@ import { ErrorAlert } from '../../components/error-alert';
 import { LoadingBlock } from '../../components/loading-block';
 import { PageHeader } from '../../components/page-header';
 import { useSignedInUser } from '../../features/auth/signed-in-user';
+import { CalibrationPanel } from '../../features/calibration/components/calibration-panel';
 import { useChambers, type ChamberView } from '../../features/chambers/api/get-chambers';
 import { ChamberFormDialog } from '../../features/chambers/components/chamber-form-dialog';
 import { ChambersList } from '../../features/chambers/components/chambers-list';
@@ -52,6 +53,9 @@ export function ChambersRoute() {
           materials={materials.data}
           onEdit={canEdit ? (c) => setEditing(c) : undefined}
         />
+      )}
+      {chambers.data && chambers.data.length > 0 && (
+        <CalibrationPanel chambers={chambers.data} canDecide={canEdit} />
       )}
       {editing !== undefined && materials.data && (
         <ChamberFormDialog

@@ -34,6 +34,10 @@ describe('chambers page', () => {
       'GET /api/auth/session': { status: 200, body: { user: STAFF.engineer } },
       'GET /api/chambers': { status: 200, body: [CHAMBER] },
       'GET /api/materials': { status: 200, body: MATERIALS },
+      'GET /api/chambers/7/calibration': {
+        status: 200,
+        body: { chamberId: 7, settings: {}, series: [], suggestions: [], decisions: [] },
+      },
     });
     const { user } = renderApp('/chambers');
     expect(await screen.findByRole('button', { name: 'New chamber' }, { timeout: 10_000 })).toBeTruthy();

@@ -35,6 +35,17 @@ const SHEET: RunSheetView = {
   }),
   recipe: { designId: 30, number: 1, name: 'Sheet check', customer: 'Fenwick Optics Lab' },
   chamber: { id: 4, name: 'Test bell jar' },
+  calibration: {
+    chamberVersion: 3,
+    materials: [
+      { material: 'L', toolingFactor: 1.2, decision: null },
+      {
+        material: 'H',
+        toolingFactor: 0.75,
+        decision: { id: 7, decidedAt: '2026-12-02T09:00:00.000Z', decidedBy: 'Test Engineer' },
+      },
+    ],
+  },
 };
 
 const CHAMBERS = [
@@ -100,6 +111,9 @@ describe('RunSheetRoute', () => {
     // Totals by hand: part 225 nm, monitor 20 + 25 + 80 + 100 = 225 nm, time 650 s = 10 min 50 s.
     expect(rows[5]).toEqual(['Totals', '225.00', '', '225.00', '', '', '650.0', '']);
     expect(screen.getByLabelText('Run time').textContent).toMatch(/^Deposition time 10 min 50 s/);
+    expect(screen.getByLabelText('Calibration used').textContent).toBe(
+      'Tooling factors from chamber version 3: L 1.2 (chamber setting); H 0.75 (calibration #7, accepted 2026-12-02 by Test Engineer).',
+    );
     expect(
       screen.getByText(/Tooling factor = thickness on the part ÷ thickness on the monitor/),
     ).toBeTruthy();

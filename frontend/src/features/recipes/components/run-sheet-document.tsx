@@ -9,6 +9,7 @@ import TableFooter from '@mui/material/TableFooter';
 import TableHead from '@mui/material/TableHead';
 import TableRow from '@mui/material/TableRow';
 import Typography from '@mui/material/Typography';
+import { runSheetCalibrationLine } from '@quietglass/shared';
 import { formatFixed } from '../../../lib/format';
 import type { RunSheetView } from '../api/get-run-sheet';
 import { formatDuration } from '../run-sheet-format';
@@ -47,6 +48,12 @@ export function RunSheetDocument({ sheet }: RunSheetDocumentProps) {
         <Typography variant="body2" color="text.secondary" sx={{ mb: 1 }}>
           Step 1 goes on the substrate first; the last step is the outermost layer. Chamber{' '}
           {sheet.chamber.name}, monitor wavelength {lambda} nm. {sheet.convention}
+        </Typography>
+        <Typography variant="body2" sx={{ mb: 1 }} aria-label="Calibration used">
+          {runSheetCalibrationLine(
+            sheet.calibration,
+            sheet.layers.map((l) => l.material),
+          )}
         </Typography>
         <Table size="small" aria-label="Run sheet layers">
           <TableHead>
