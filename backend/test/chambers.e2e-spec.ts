@@ -1,5 +1,6 @@
 import type { NestExpressApplication } from '@nestjs/platform-express';
 import request from 'supertest';
+import { DataSource } from 'typeorm';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { createTestApp, demoSession } from './support/app.js';
 import { binary } from './support/binary.js';
@@ -124,6 +125,134 @@ describe('chambers', () => {
       .set('Cookie', operator)
       .send({ name: 'Mine', monitorWavelengthsNm: [550], monitorChipMaterialId: m['N-BK7'], materials: [] });
     expect(res.status).toBe(403);
+  });
+});
+
+describe('process settings per material', () => {
+  const setting = (materialId: number, patch: object = {}) => ({
+    materialId,
+    substrateTemperatureC: 250,
+    basePressureMbar: 2e-5,
+    o2FlowSccm: 12,
+    o2PartialPressureMbar: null,
+    ionVoltageV: 120,
+    ionCurrentA: 2.5,
+    ionGasFlowSccm: 8,
+    notes: 'hold the rate within ± 0.05 nm/s',
+    ...patch,
+  });
+  const stored = async () =>
+    (await app
+      .get(DataSource)
+      .query('SELECT settings, version FROM chamber_process_settings WHERE chamber_id = $1', [
+        chamberId,
+      ])) as {
+      settings: object[];
+      version: number;
+    }[];
+
+  it('is empty at version 0 before the first save, and operators may read it', async () => {
+    const res = await http().get(`/api/chambers/${chamberId}/process-settings`).set('Cookie', operator);
+    expect(res.status).toBe(200);
+    expect(res.body).toEqual({ chamberId, settings: [], version: 0, updatedAt: null });
+    expect((await http().get('/api/chambers/99999/process-settings').set('Cookie', operator)).status).toBe(
+      404,
+    );
+  });
+
+  it.each([
+    [{ substrateTemperatureC: 'hot' }, 'settings.0.substrateTemperatureC must be a number (°C)'],
+    [{ substrateTemperatureC: 900 }, 'settings.0.substrateTemperatureC must be at most 400 °C'],
+    [{ basePressureMbar: 0 }, 'settings.0.basePressureMbar must be at least 1e-9 mbar'],
+    [{ basePressureMbar: 2 }, 'settings.0.basePressureMbar must be at most 0.001 mbar'],
+    [{ o2FlowSccm: -3 }, 'settings.0.o2FlowSccm must be at least 0 sccm'],
+    [{ ionCurrentA: 'high' }, 'settings.0.ionCurrentA must be a number (A)'],
+    [{ notes: 'n'.repeat(301) }, 'settings.0.notes must be at most 300 characters'],
+    [
+      { materialId: 99999 },
+      'settings[0].materialId: material 99999 is not in the material list of chamber "Test chamber"',
+    ],
+  ])('refuses %j with 400 and writes nothing', async (patch, detail) => {
+    const res = await http()
+      .put(`/api/chambers/${chamberId}/process-settings`)
+      .set('Cookie', mira)
+      .send({ settings: [setting(m['Sheet L 1.5'], patch)], version: 0 });
+    expect(res.status).toBe(400);
+    expect(res.body.details).toContain(detail);
+    expect(await stored()).toEqual([]);
+  });
+
+  it('refuses a material listed twice and an operator edit', async () => {
+    const twice = await http()
+      .put(`/api/chambers/${chamberId}/process-settings`)
+      .set('Cookie', mira)
+      .send({ settings: [setting(m['Sheet L 1.5']), setting(m['Sheet L 1.5'])], version: 0 });
+    expect(twice.status).toBe(400);
+    expect(twice.body.details).toContain(
+      `settings[1].materialId: material ${m['Sheet L 1.5']} is listed twice`,
+    );
+    const op = await http()
+      .put(`/api/chambers/${chamberId}/process-settings`)
+      .set('Cookie', operator)
+      .send({ settings: [setting(m['Sheet L 1.5'])], version: 0 });
+    expect(op.status).toBe(403);
+    expect(await stored()).toEqual([]);
+  });
+
+  it('saves the set under a version lock and puts before and after on the audit trail', async () => {
+    const first = await http()
+      .put(`/api/chambers/${chamberId}/process-settings`)
+      .set('Cookie', mira)
+      .send({
+        settings: [
+          setting(m['Sheet L 1.5'], {
+            ionVoltageV: undefined,
+            ionCurrentA: undefined,
+            ionGasFlowSccm: undefined,
+          }),
+          setting(m['Sheet H 2.0'], { o2FlowSccm: null, o2PartialPressureMbar: 1.5e-4 }),
+        ],
+        version: 0,
+      });
+    expect(first.status, JSON.stringify(first.body)).toBe(200);
+    expect(first.body.version).toBe(1);
+    expect(first.body.settings[0]).toEqual({
+      materialId: m['Sheet L 1.5'],
+      substrateTemperatureC: 250,
+      basePressureMbar: 2e-5,
+      o2FlowSccm: 12,
+      o2PartialPressureMbar: null,
+      arFlowSccm: null,
+      ionVoltageV: null,
+      ionCurrentA: null,
+      ionGasFlowSccm: null,
+      notes: 'hold the rate within ± 0.05 nm/s',
+    });
+    expect(first.body.settings[1]).toMatchObject({ o2FlowSccm: null, o2PartialPressureMbar: 1.5e-4 });
+    const stale = await http()
+      .put(`/api/chambers/${chamberId}/process-settings`)
+      .set('Cookie', tomas)
+      .send({ settings: [], version: 0 });
+    expect(stale.status).toBe(409);
+    expect(stale.body.message).toMatch(/now version 1/);
+    const second = await http()
+      .put(`/api/chambers/${chamberId}/process-settings`)
+      .set('Cookie', tomas)
+      .send({ settings: [setting(m['Sheet H 2.0'], { substrateTemperatureC: 300 })], version: 1 });
+    expect(second.status).toBe(200);
+    expect((await stored())[0].version).toBe(2);
+    const [entry] = (await app
+      .get(DataSource)
+      .query(
+        `SELECT action, details FROM audit_events WHERE entity = 'chamber' AND entity_id = $1 ORDER BY id DESC LIMIT 1`,
+        [chamberId],
+      )) as {
+      action: string;
+      details: { before: { substrateTemperatureC: number }[]; after: { substrateTemperatureC: number }[] };
+    }[];
+    expect(entry.action).toBe('process settings edited');
+    expect(entry.details.before.map((s) => s.substrateTemperatureC)).toEqual([250, 250]);
+    expect(entry.details.after.map((s) => s.substrateTemperatureC)).toEqual([300]);
   });
 });
 

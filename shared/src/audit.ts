@@ -14,6 +14,7 @@ export const AUDIT_ENTITIES = [
   'quote',
   'run',
   'chamber',
+  'shop-settings',
 ] as const;
 export type AuditEntity = (typeof AUDIT_ENTITIES)[number];
 
@@ -27,6 +28,7 @@ export const AUDIT_ENTITY_LABELS: Record<AuditEntity, string> = {
   quote: 'Quote',
   run: 'Chamber run',
   chamber: 'Chamber',
+  'shop-settings': 'Shop settings',
 };
 
 /** One entry of the audit trail. */

@@ -3,6 +3,8 @@ import { DataSource, type DataSourceOptions } from 'typeorm';
 import { AuditEvent } from '../audit/audit-event.entity.js';
 import { Calculation } from '../calculations/calculation.entity.js';
 import { Chamber } from '../chambers/chamber.entity.js';
+import { ShopSettings } from '../shop-settings/shop-settings.entity.js';
+import { ChamberProcessSettings } from '../chambers/process-settings.entity.js';
 import { Customer } from '../customers/customer.entity.js';
 import { Design } from '../designs/design.entity.js';
 import { DesignVersion } from '../designs/design-version.entity.js';
@@ -31,6 +33,7 @@ import { Sessions1764634700000 } from '../migrations/1764634700000-sessions.js';
 import { MaterialRevisions1764634800000 } from '../migrations/1764634800000-material-revisions.js';
 import { RecordUses1764700000000 } from '../migrations/1764700000000-record-uses.js';
 import { CustomerRecordsMaskKinds1764810000000 } from '../migrations/1764810000000-customer-records-mask-kinds.js';
+import { ChamberProcessShopSettings1764830000000 } from '../migrations/1764830000000-chamber-process-shop-settings.js';
 
 /** Every entity of the app; each domain module also registers its own with forFeature. */
 export const ENTITIES = [
@@ -44,6 +47,7 @@ export const ENTITIES = [
   VersionEvent,
   Calculation,
   Chamber,
+  ChamberProcessSettings,
   ChamberRun,
   RunSpectrum,
   ComplianceReport,
@@ -52,6 +56,7 @@ export const ENTITIES = [
   OutboxAttachment,
   Session,
   AuditEvent,
+  ShopSettings,
 ];
 
 /** Every migration, in order. Listed explicitly so the same list works from src (tests) and dist. */
@@ -71,6 +76,7 @@ export const MIGRATIONS = [
   MaterialRevisions1764634800000,
   RecordUses1764700000000,
   CustomerRecordsMaskKinds1764810000000,
+  ChamberProcessShopSettings1764830000000,
 ];
 
 /** TypeORM options for PostgreSQL; never `synchronize` — the schema comes from migrations. */
