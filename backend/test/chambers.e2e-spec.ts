@@ -5,6 +5,7 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { createTestApp, demoSession } from './support/app.js';
 import { binary } from './support/binary.js';
 import { customerId, materialIds } from './support/fixtures.js';
+import { pageTexts, wordBoxes } from './support/pdf-pages.js';
 
 let app: NestExpressApplication;
 let mira: string;
@@ -289,6 +290,70 @@ describe('run sheet of a released recipe', () => {
     expect(res.status).toBe(200);
     expect(res.headers['content-type']).toBe('application/pdf');
     expect((res.body as Buffer).subarray(0, 5).toString()).toBe('%PDF-');
+  });
+
+  it('names the substrate, part, quantity and sides, and carries each layer’s process setting', async () => {
+    const res = await http()
+      .get(
+        `/api/recipes/${recipeId}/1/run-sheet?chamberId=${chamberId}&part=${encodeURIComponent('  BW-7 window ')}&quantity=24&substrateThicknessMm=2.2&sides=front`,
+      )
+      .set('Cookie', operator);
+    expect(res.status, JSON.stringify(res.body)).toBe(200);
+    expect(res.body.substrate).toEqual({ material: 'N-BK7', thicknessMm: 2.2, designThicknessMm: 2 });
+    expect(res.body.job).toEqual({ part: 'BW-7 window', quantity: 24, sides: 'front' });
+    expect(res.body.shop).toEqual({ name: 'Larkspur Thin Film Works', hasLogo: false });
+    // The set saved above keeps only Sheet H 2.0 (300 °C): steps 1 and 3 are H, 2 and 4 are L.
+    expect(
+      res.body.layers.map(
+        (l: { process: { substrateTemperatureC: number } | null }) =>
+          l.process?.substrateTemperatureC ?? null,
+      ),
+    ).toEqual([300, null, 300, null]);
+    const plain = await http()
+      .get(`/api/recipes/${recipeId}/1/run-sheet?chamberId=${chamberId}`)
+      .set('Cookie', operator);
+    expect(plain.body.job).toEqual({ part: '', quantity: null, sides: 'front' });
+    expect(plain.body.substrate.thicknessMm).toBe(2);
+  });
+
+  it.each([
+    ['quantity=0', 'quantity must be at least 1'],
+    ['quantity=2.5', 'quantity must be a whole number of parts'],
+    ['substrateThicknessMm=-1', 'substrateThicknessMm must be > 0'],
+    ['substrateThicknessMm=abc', 'substrateThicknessMm must be a number'],
+    [`part=${'p'.repeat(81)}`, 'part must be at most 80 characters'],
+    ['sides=back', 'sides must be one of front, both'],
+    [
+      'sides=both',
+      'sides: this design leaves the back surface uncoated; coating both sides would not be the approved design',
+    ],
+  ])('refuses a run sheet with %s (400)', async (q, detail) => {
+    for (const suffix of ['run-sheet', 'run-sheet.pdf']) {
+      const res = await http()
+        .get(`/api/recipes/${recipeId}/1/${suffix}?chamberId=${chamberId}&${q}`)
+        .set('Cookie', operator);
+      expect(res.status).toBe(400);
+      expect(res.body.details).toContain(detail);
+    }
+  });
+
+  it('prints the shop name and job on the PDF, page-numbered', async () => {
+    const res = await binary(
+      http()
+        .get(`/api/recipes/${recipeId}/1/run-sheet.pdf?chamberId=${chamberId}&part=BW-7&quantity=24`)
+        .set('Cookie', operator),
+    );
+    expect(res.status).toBe(200);
+    const pages = pageTexts(res.body as Buffer);
+    expect(pages[0]).toContain('Larkspur Thin Film Works');
+    expect(pages[0]).toMatch(/Quantity\s+24 pcs/);
+    const words = wordBoxes(res.body as Buffer)
+      .filter((w) => w.page === 1)
+      .map((w) => w.text)
+      .join(' ');
+    expect(words).toContain('Monitor QWOT at 600 nm');
+    expect(pages[0]).toContain('Substrate at 300 °C');
+    pages.forEach((p, i) => expect(p).toContain(`Page ${i + 1} of ${pages.length}`));
   });
 
   it('has no run sheet for a draft, and names a material the chamber lacks', async () => {

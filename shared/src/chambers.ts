@@ -103,3 +103,27 @@ export function formatPressureMbar(p: number): string {
     .join('');
   return `${mantissa.toFixed(1)} × 10${power} mbar`;
 }
+
+/**
+ * A process setting as short lines for a run sheet cell: temperature, base pressure, gases, ion
+ * assist and the note, leaving out what is not used.
+ */
+export function processLines(s: ProcessSetting): string[] {
+  const lines = [
+    `Substrate at ${s.substrateTemperatureC} °C`,
+    `Base pressure ≤ ${formatPressureMbar(s.basePressureMbar)}`,
+  ];
+  const o2: string[] = [];
+  if (s.o2FlowSccm !== null) o2.push(`${s.o2FlowSccm} sccm`);
+  if (s.o2PartialPressureMbar !== null)
+    o2.push(`${formatPressureMbar(s.o2PartialPressureMbar)} partial pressure`);
+  if (o2.length > 0) lines.push(`O₂ ${o2.join(', ')}`);
+  if (s.arFlowSccm !== null) lines.push(`Ar ${s.arFlowSccm} sccm`);
+  const ion: string[] = [];
+  if (s.ionVoltageV !== null) ion.push(`${s.ionVoltageV} V`);
+  if (s.ionCurrentA !== null) ion.push(`${s.ionCurrentA} A`);
+  if (s.ionGasFlowSccm !== null) ion.push(`gas ${s.ionGasFlowSccm} sccm`);
+  lines.push(ion.length > 0 ? `Ion assist ${ion.join(', ')}` : 'No ion assist');
+  if (s.notes) lines.push(s.notes);
+  return lines;
+}

@@ -83,6 +83,16 @@ export function drawRow(
   });
 }
 
+/** Extra table options: taller rows to write in, and rules between the columns. */
+export interface TableOptions {
+  /** Font size, pt. */
+  size?: number;
+  /** Least height of a body row, pt (room for handwriting). */
+  minRowHeight?: number;
+  /** Vertical rules between columns, for tables that are filled in by hand. */
+  columnRules?: boolean;
+}
+
 /**
  * A table whose cells wrap within their columns: each row is as tall as its tallest cell, so no
  * text runs into the next column or row. The header row repeats after a page break. Returns the y
@@ -94,22 +104,39 @@ export function drawTable(
   rows: string[][],
   x: number,
   y: number,
-  size = 8,
+  options: TableOptions | number = {},
 ): number {
+  const {
+    size = 8,
+    minRowHeight = 0,
+    columnRules = false,
+  } = typeof options === 'number' ? { size: options } : options;
   const width = cols.reduce((s, c) => s + c.width, 0);
   const header = cols.map((c) => c.title);
   const headerH = rowHeight(doc, cols, header, BOLD, size);
+  const rules = (from: number, to: number) => {
+    if (!columnRules) return;
+    doc.save().lineWidth(0.4).strokeColor(GRID);
+    let cx = x;
+    for (const c of cols.slice(0, -1)) {
+      cx += c.width;
+      doc.moveTo(cx, from).lineTo(cx, to).stroke();
+    }
+    doc.restore();
+  };
   const drawHeader = (at: number) => {
     doc.save().rect(x, at, width, headerH).fill('#eef2f4').restore();
     drawRow(doc, cols, header, x, at, BOLD, size);
+    rules(at, at + headerH);
     return at + headerH;
   };
-  y = drawHeader(room(doc, y, headerH + 16));
+  y = drawHeader(room(doc, y, headerH + Math.max(16, minRowHeight)));
   for (const row of rows) {
-    const h = rowHeight(doc, cols, row, REGULAR, size);
+    const h = Math.max(minRowHeight, rowHeight(doc, cols, row, REGULAR, size));
     const at = room(doc, y, h);
     y = at === y ? y : drawHeader(at);
     drawRow(doc, cols, row, x, y, REGULAR, size);
+    rules(y, y + h);
     y += h;
     doc
       .save()

@@ -19,22 +19,40 @@ vi.mock('../../../components/plot', () => import('../../../test/plot-mock'));
  * QWOT = 4·n·d_monitor/λ, time = d_monitor ÷ rate. Invented chamber and customer.
  */
 const constant = (n: number) => ({ model: 'constant' as const, n, k: 0 });
+const BUILT = buildRunSheet({
+  layers: [
+    { material: 'L', model: constant(1.5), thicknessNm: 120 },
+    { material: 'H', model: constant(2.0), thicknessNm: 60 },
+    { material: 'L', model: constant(1.5), thicknessNm: 30 },
+    { material: 'H', model: constant(2.0), thicknessNm: 15 },
+  ],
+  monitorChip: constant(1.52),
+  chamber: {
+    monitorWavelengthNm: 600,
+    materials: { L: { toolingFactor: 1.2, rateNmPerS: 0.5 }, H: { toolingFactor: 0.75, rateNmPerS: 0.25 } },
+  },
+});
+/** Process settings kept for H only (invented test values). */
+const H_PROCESS = {
+  materialId: 12,
+  substrateTemperatureC: 250,
+  basePressureMbar: 2e-5,
+  o2FlowSccm: 12,
+  o2PartialPressureMbar: null,
+  arFlowSccm: null,
+  ionVoltageV: 120,
+  ionCurrentA: 2.5,
+  ionGasFlowSccm: 8,
+  notes: '',
+};
 const SHEET: RunSheetView = {
-  ...buildRunSheet({
-    layers: [
-      { material: 'L', model: constant(1.5), thicknessNm: 120 },
-      { material: 'H', model: constant(2.0), thicknessNm: 60 },
-      { material: 'L', model: constant(1.5), thicknessNm: 30 },
-      { material: 'H', model: constant(2.0), thicknessNm: 15 },
-    ],
-    monitorChip: constant(1.52),
-    chamber: {
-      monitorWavelengthNm: 600,
-      materials: { L: { toolingFactor: 1.2, rateNmPerS: 0.5 }, H: { toolingFactor: 0.75, rateNmPerS: 0.25 } },
-    },
-  }),
+  ...BUILT,
+  layers: BUILT.layers.map((l) => ({ ...l, process: l.material === 'H' ? H_PROCESS : null })),
   recipe: { designId: 30, number: 1, name: 'Sheet check', customer: 'Fenwick Optics Lab' },
   chamber: { id: 4, name: 'Test bell jar' },
+  shop: { name: 'Fenwick Coating Shop', hasLogo: false },
+  substrate: { material: 'N-BK7', thicknessMm: 2, designThicknessMm: 2 },
+  job: { part: '', quantity: null, sides: 'front' },
 };
 
 const CHAMBERS = [

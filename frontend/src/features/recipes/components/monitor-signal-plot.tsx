@@ -1,7 +1,7 @@
 import type { RunSheetLayer } from '@quietglass/shared';
 import { useMemo } from 'react';
 import { Plot, PLOT_COLOURS, type PlotData } from '../../../components/plot';
-import { monitorPlotData } from '../run-sheet-plot-data';
+import { monitorPlotData } from '@quietglass/shared/runsheet-signal';
 
 interface MonitorSignalPlotProps {
   layers: readonly RunSheetLayer[];
