@@ -2,6 +2,7 @@ export * from './roles.js';
 export * from './designs.js';
 export * from './analysis.js';
 export * from './runsheet.js';
+export * from './runsheet-signal.js';
 export * from './measured.js';
 export * from './reports.js';
 export * from './quotes.js';

@@ -26,6 +26,11 @@ export interface PlotProps {
   height?: number;
   /** When set, a "Download PNG" button saves the plot under this name (the modebar offers it too). */
   pngFileName?: string;
+  /**
+   * Width to draw at while the page prints, CSS px: a chart drawn for a wide screen would otherwise
+   * be cut at the paper's right edge. Its size on screen comes back after printing.
+   */
+  printWidthPx?: number;
 }
 
 const PlotlyPlot = lazy(() => import('./plotly-plot'));

@@ -182,4 +182,77 @@ describe('RunSheetRoute', () => {
       api.calls('GET', '/api/recipes/30/1/run-sheet?chamberId=4&monitorWavelengthNm=632.8'),
     ).toHaveLength(1);
   });
+
+  it('names the job, labels the monitor QWOT, prints process settings and has room to write and sign', async () => {
+    const withJob: RunSheetView = {
+      ...SHEET,
+      substrate: { material: 'N-BK7', thicknessMm: 2.2, designThicknessMm: 2 },
+      job: { part: 'FW-7 window', quantity: 24, sides: 'front' },
+    };
+    const api = mockApi({
+      'GET /api/recipes/30/1': { status: 200, body: RECIPE },
+      'GET /api/chambers': { status: 200, body: CHAMBERS },
+      'GET /api/recipes/30/1/run-sheet?chamberId=4&monitorWavelengthNm=600': { status: 200, body: SHEET },
+      'GET /api/recipes/30/1/run-sheet?chamberId=4&monitorWavelengthNm=600&part=FW-7+window': {
+        status: 200,
+        body: { ...withJob, job: { ...withJob.job, quantity: null }, substrate: SHEET.substrate },
+      },
+      // Leaving the quantity field applies it before the thickness is typed.
+      'GET /api/recipes/30/1/run-sheet?chamberId=4&monitorWavelengthNm=600&part=FW-7+window&quantity=24': {
+        status: 200,
+        body: { ...withJob, substrate: SHEET.substrate },
+      },
+      'GET /api/recipes/30/1/run-sheet?chamberId=4&monitorWavelengthNm=600&part=FW-7+window&quantity=24&substrateThicknessMm=2.2':
+        { status: 200, body: withJob },
+    });
+    const { user, router } = renderRoute('/recipes/30/1?chamberId=4');
+    const table = await screen.findByRole('table', { name: 'Run sheet layers' });
+    const headers = within(table)
+      .getAllByRole('columnheader')
+      .map((h) => h.textContent);
+    expect(headers).toContain('Monitor QWOT at 600 nm');
+    expect(headers.slice(-4)).toEqual([
+      'Process settings',
+      'Actual end thickness (nm)',
+      'Actual rate (nm/s)',
+      'Remarks',
+    ]);
+    // Step 1 is H (process kept), step 2 is L (none kept).
+    const step1 = within(table).getAllByRole('row')[1];
+    expect(step1.textContent).toContain('Base pressure ≤ 2.0 × 10⁻⁵ mbar');
+    expect(step1.textContent).toContain('Ion assist 120 V, 2.5 A, gas 8 sccm');
+    expect(within(table).getAllByRole('row')[2].textContent).toContain('None kept for this material');
+    expect(within(table).getByLabelText('Actual end thickness, step 1').textContent).toBe('');
+    const signOff = screen.getByRole('region', { name: 'Sign-off' });
+    expect(within(signOff).getByRole('group', { name: 'Run by (operator)' })).toBeTruthy();
+    expect(within(signOff).getByRole('group', { name: 'Checked by' })).toBeTruthy();
+    expect(screen.getByRole('banner', { name: 'Run sheet header' }).textContent).toContain(
+      'Fenwick Coating Shop',
+    );
+
+    // A quantity that is not a whole number is refused before anything is asked of the API.
+    await user.type(screen.getByLabelText('Part'), 'FW-7 window');
+    await user.tab();
+    await screen.findByText('FW-7 window');
+    await user.type(screen.getByLabelText('Quantity'), '2.5');
+    await user.tab();
+    expect(screen.getByText('A whole number of parts')).toBeTruthy();
+    await user.clear(screen.getByLabelText('Quantity'));
+    await user.type(screen.getByLabelText('Quantity'), '24');
+    await user.type(screen.getByLabelText('Substrate thickness (mm)'), '2.2{Enter}');
+    await screen.findByText('24 pcs');
+    expect(screen.getByText('N-BK7, 2.2 mm (design: 2 mm) thick')).toBeTruthy();
+    expect(router.state.location.search).toBe(
+      '?chamberId=4&part=FW-7+window&quantity=24&substrateThicknessMm=2.2',
+    );
+    expect(screen.getByRole('link', { name: 'Download PDF' }).getAttribute('href')).toBe(
+      '/api/recipes/30/1/run-sheet.pdf?chamberId=4&monitorWavelengthNm=600&part=FW-7+window&quantity=24&substrateThicknessMm=2.2',
+    );
+    // "Both surfaces" is not this design's choice.
+    const both = within(screen.getByLabelText('Sides to coat')).getByRole('option', {
+      name: /Both surfaces/,
+    }) as HTMLOptionElement;
+    expect(both.disabled).toBe(true);
+    expect(api.unexpected, api.unexpected.join()).toEqual([]);
+  });
 });
