@@ -1,3 +1,4 @@
+import { writeFileSync } from 'node:fs';
 import type { NestExpressApplication } from '@nestjs/platform-express';
 import request from 'supertest';
 import { DataSource } from 'typeorm';
@@ -5,7 +6,7 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { createTestApp, demoSession } from './support/app.js';
 import { binary } from './support/binary.js';
 import { customerId, materialIds } from './support/fixtures.js';
-import { pageTexts, wordBoxes } from './support/pdf-pages.js';
+import { pagePngs, pageTexts, wordBoxes } from './support/pdf-pages.js';
 
 let app: NestExpressApplication;
 let mira: string;
@@ -94,6 +95,19 @@ describe('chambers', () => {
     const b2 = res.body.find((c: { name: string }) => c.name === 'Box coater B2');
     expect(b2.monitorWavelengthsNm).toEqual([550, 632.8]);
     expect(b2.materials).toContainEqual({ materialId: m['MgF2'], toolingFactor: 1.08, rateNmPerS: 0.8 });
+    // Its demo process settings: one per material, marked as demo values.
+    const process = await http().get(`/api/chambers/${b2.id}/process-settings`).set('Cookie', operator);
+    expect(process.body.version).toBe(1);
+    expect(process.body.settings.map((s: { materialId: number }) => s.materialId).sort()).toEqual(
+      b2.materials.map((x: { materialId: number }) => x.materialId).sort(),
+    );
+    const mgf2 = process.body.settings.find((s: { materialId: number }) => s.materialId === m['MgF2']);
+    expect(mgf2).toMatchObject({
+      substrateTemperatureC: 280,
+      o2FlowSccm: null,
+      ionVoltageV: null,
+      notes: 'demo value',
+    });
   });
 
   it.each([
@@ -354,6 +368,31 @@ describe('run sheet of a released recipe', () => {
     expect(words).toContain('Monitor QWOT at 600 nm');
     expect(pages[0]).toContain('Substrate at 300 °C');
     pages.forEach((p, i) => expect(p).toContain(`Page ${i + 1} of ${pages.length}`));
+  });
+
+  it('writes page 1 of the demo recipe on the demo chamber for the README when asked', async () => {
+    const out = process.env.QG_RUN_SHEET_PNG;
+    if (!out) return;
+    const recipes = (await http().get('/api/recipes').set('Cookie', operator)).body as {
+      designId: number;
+      number: number;
+      name: string;
+    }[];
+    const demo = recipes.find((r) => r.name === 'HVS-2210 four-layer AR')!;
+    const b2 = (await http().get('/api/chambers').set('Cookie', operator)).body.find(
+      (c: { name: string }) => c.name === 'Box coater B2',
+    );
+    const res = await binary(
+      http()
+        .get(
+          `/api/recipes/${demo.designId}/${demo.number}/run-sheet.pdf?chamberId=${b2.id}&part=HVS-2210-L3&quantity=48`,
+        )
+        .set('Cookie', operator),
+    );
+    expect(res.status).toBe(200);
+    pagePngs(res.body as Buffer, 110).forEach((png, i) =>
+      writeFileSync(out.replace('.png', `-${i + 1}.png`), png),
+    );
   });
 
   it('has no run sheet for a draft, and names a material the chamber lacks', async () => {
