@@ -39,3 +39,4 @@ export * from './optimise/yield.js';
 
 // Plot defaults shared by the client's plots.
 export * from './plots/plot-range.js';
+export * from './shop.js';
