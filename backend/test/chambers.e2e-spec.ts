@@ -1,9 +1,12 @@
+import { writeFileSync } from 'node:fs';
 import type { NestExpressApplication } from '@nestjs/platform-express';
 import request from 'supertest';
+import { DataSource } from 'typeorm';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { createTestApp, demoSession } from './support/app.js';
 import { binary } from './support/binary.js';
 import { customerId, materialIds } from './support/fixtures.js';
+import { pagePngs, pageTexts, wordBoxes } from './support/pdf-pages.js';
 
 let app: NestExpressApplication;
 let mira: string;
@@ -92,6 +95,19 @@ describe('chambers', () => {
     const b2 = res.body.find((c: { name: string }) => c.name === 'Box coater B2');
     expect(b2.monitorWavelengthsNm).toEqual([550, 632.8]);
     expect(b2.materials).toContainEqual({ materialId: m['MgF2'], toolingFactor: 1.08, rateNmPerS: 0.8 });
+    // Its demo process settings: one per material, marked as demo values.
+    const process = await http().get(`/api/chambers/${b2.id}/process-settings`).set('Cookie', operator);
+    expect(process.body.version).toBe(1);
+    expect(process.body.settings.map((s: { materialId: number }) => s.materialId).sort()).toEqual(
+      b2.materials.map((x: { materialId: number }) => x.materialId).sort(),
+    );
+    const mgf2 = process.body.settings.find((s: { materialId: number }) => s.materialId === m['MgF2']);
+    expect(mgf2).toMatchObject({
+      substrateTemperatureC: 280,
+      o2FlowSccm: null,
+      ionVoltageV: null,
+      notes: 'demo value',
+    });
   });
 
   it.each([
@@ -124,6 +140,134 @@ describe('chambers', () => {
       .set('Cookie', operator)
       .send({ name: 'Mine', monitorWavelengthsNm: [550], monitorChipMaterialId: m['N-BK7'], materials: [] });
     expect(res.status).toBe(403);
+  });
+});
+
+describe('process settings per material', () => {
+  const setting = (materialId: number, patch: object = {}) => ({
+    materialId,
+    substrateTemperatureC: 250,
+    basePressureMbar: 2e-5,
+    o2FlowSccm: 12,
+    o2PartialPressureMbar: null,
+    ionVoltageV: 120,
+    ionCurrentA: 2.5,
+    ionGasFlowSccm: 8,
+    notes: 'hold the rate within ± 0.05 nm/s',
+    ...patch,
+  });
+  const stored = async () =>
+    (await app
+      .get(DataSource)
+      .query('SELECT settings, version FROM chamber_process_settings WHERE chamber_id = $1', [
+        chamberId,
+      ])) as {
+      settings: object[];
+      version: number;
+    }[];
+
+  it('is empty at version 0 before the first save, and operators may read it', async () => {
+    const res = await http().get(`/api/chambers/${chamberId}/process-settings`).set('Cookie', operator);
+    expect(res.status).toBe(200);
+    expect(res.body).toEqual({ chamberId, settings: [], version: 0, updatedAt: null });
+    expect((await http().get('/api/chambers/99999/process-settings').set('Cookie', operator)).status).toBe(
+      404,
+    );
+  });
+
+  it.each([
+    [{ substrateTemperatureC: 'hot' }, 'settings.0.substrateTemperatureC must be a number (°C)'],
+    [{ substrateTemperatureC: 900 }, 'settings.0.substrateTemperatureC must be at most 400 °C'],
+    [{ basePressureMbar: 0 }, 'settings.0.basePressureMbar must be at least 1e-9 mbar'],
+    [{ basePressureMbar: 2 }, 'settings.0.basePressureMbar must be at most 0.001 mbar'],
+    [{ o2FlowSccm: -3 }, 'settings.0.o2FlowSccm must be at least 0 sccm'],
+    [{ ionCurrentA: 'high' }, 'settings.0.ionCurrentA must be a number (A)'],
+    [{ notes: 'n'.repeat(301) }, 'settings.0.notes must be at most 300 characters'],
+    [
+      { materialId: 99999 },
+      'settings[0].materialId: material 99999 is not in the material list of chamber "Test chamber"',
+    ],
+  ])('refuses %j with 400 and writes nothing', async (patch, detail) => {
+    const res = await http()
+      .put(`/api/chambers/${chamberId}/process-settings`)
+      .set('Cookie', mira)
+      .send({ settings: [setting(m['Sheet L 1.5'], patch)], version: 0 });
+    expect(res.status).toBe(400);
+    expect(res.body.details).toContain(detail);
+    expect(await stored()).toEqual([]);
+  });
+
+  it('refuses a material listed twice and an operator edit', async () => {
+    const twice = await http()
+      .put(`/api/chambers/${chamberId}/process-settings`)
+      .set('Cookie', mira)
+      .send({ settings: [setting(m['Sheet L 1.5']), setting(m['Sheet L 1.5'])], version: 0 });
+    expect(twice.status).toBe(400);
+    expect(twice.body.details).toContain(
+      `settings[1].materialId: material ${m['Sheet L 1.5']} is listed twice`,
+    );
+    const op = await http()
+      .put(`/api/chambers/${chamberId}/process-settings`)
+      .set('Cookie', operator)
+      .send({ settings: [setting(m['Sheet L 1.5'])], version: 0 });
+    expect(op.status).toBe(403);
+    expect(await stored()).toEqual([]);
+  });
+
+  it('saves the set under a version lock and puts before and after on the audit trail', async () => {
+    const first = await http()
+      .put(`/api/chambers/${chamberId}/process-settings`)
+      .set('Cookie', mira)
+      .send({
+        settings: [
+          setting(m['Sheet L 1.5'], {
+            ionVoltageV: undefined,
+            ionCurrentA: undefined,
+            ionGasFlowSccm: undefined,
+          }),
+          setting(m['Sheet H 2.0'], { o2FlowSccm: null, o2PartialPressureMbar: 1.5e-4 }),
+        ],
+        version: 0,
+      });
+    expect(first.status, JSON.stringify(first.body)).toBe(200);
+    expect(first.body.version).toBe(1);
+    expect(first.body.settings[0]).toEqual({
+      materialId: m['Sheet L 1.5'],
+      substrateTemperatureC: 250,
+      basePressureMbar: 2e-5,
+      o2FlowSccm: 12,
+      o2PartialPressureMbar: null,
+      arFlowSccm: null,
+      ionVoltageV: null,
+      ionCurrentA: null,
+      ionGasFlowSccm: null,
+      notes: 'hold the rate within ± 0.05 nm/s',
+    });
+    expect(first.body.settings[1]).toMatchObject({ o2FlowSccm: null, o2PartialPressureMbar: 1.5e-4 });
+    const stale = await http()
+      .put(`/api/chambers/${chamberId}/process-settings`)
+      .set('Cookie', tomas)
+      .send({ settings: [], version: 0 });
+    expect(stale.status).toBe(409);
+    expect(stale.body.message).toMatch(/now version 1/);
+    const second = await http()
+      .put(`/api/chambers/${chamberId}/process-settings`)
+      .set('Cookie', tomas)
+      .send({ settings: [setting(m['Sheet H 2.0'], { substrateTemperatureC: 300 })], version: 1 });
+    expect(second.status).toBe(200);
+    expect((await stored())[0].version).toBe(2);
+    const [entry] = (await app
+      .get(DataSource)
+      .query(
+        `SELECT action, details FROM audit_events WHERE entity = 'chamber' AND entity_id = $1 ORDER BY id DESC LIMIT 1`,
+        [chamberId],
+      )) as {
+      action: string;
+      details: { before: { substrateTemperatureC: number }[]; after: { substrateTemperatureC: number }[] };
+    }[];
+    expect(entry.action).toBe('process settings edited');
+    expect(entry.details.before.map((s) => s.substrateTemperatureC)).toEqual([250, 250]);
+    expect(entry.details.after.map((s) => s.substrateTemperatureC)).toEqual([300]);
   });
 });
 
@@ -160,6 +304,95 @@ describe('run sheet of a released recipe', () => {
     expect(res.status).toBe(200);
     expect(res.headers['content-type']).toBe('application/pdf');
     expect((res.body as Buffer).subarray(0, 5).toString()).toBe('%PDF-');
+  });
+
+  it('names the substrate, part, quantity and sides, and carries each layer’s process setting', async () => {
+    const res = await http()
+      .get(
+        `/api/recipes/${recipeId}/1/run-sheet?chamberId=${chamberId}&part=${encodeURIComponent('  BW-7 window ')}&quantity=24&substrateThicknessMm=2.2&sides=front`,
+      )
+      .set('Cookie', operator);
+    expect(res.status, JSON.stringify(res.body)).toBe(200);
+    expect(res.body.substrate).toEqual({ material: 'N-BK7', thicknessMm: 2.2, designThicknessMm: 2 });
+    expect(res.body.job).toEqual({ part: 'BW-7 window', quantity: 24, sides: 'front' });
+    expect(res.body.shop).toEqual({ name: 'Larkspur Thin Film Works', hasLogo: false });
+    // The set saved above keeps only Sheet H 2.0 (300 °C): steps 1 and 3 are H, 2 and 4 are L.
+    expect(
+      res.body.layers.map(
+        (l: { process: { substrateTemperatureC: number } | null }) =>
+          l.process?.substrateTemperatureC ?? null,
+      ),
+    ).toEqual([300, null, 300, null]);
+    const plain = await http()
+      .get(`/api/recipes/${recipeId}/1/run-sheet?chamberId=${chamberId}`)
+      .set('Cookie', operator);
+    expect(plain.body.job).toEqual({ part: '', quantity: null, sides: 'front' });
+    expect(plain.body.substrate.thicknessMm).toBe(2);
+  });
+
+  it.each([
+    ['quantity=0', 'quantity must be at least 1'],
+    ['quantity=2.5', 'quantity must be a whole number of parts'],
+    ['substrateThicknessMm=-1', 'substrateThicknessMm must be > 0'],
+    ['substrateThicknessMm=abc', 'substrateThicknessMm must be a number'],
+    [`part=${'p'.repeat(81)}`, 'part must be at most 80 characters'],
+    ['sides=back', 'sides must be one of front, both'],
+    [
+      'sides=both',
+      'sides: this design leaves the back surface uncoated; coating both sides would not be the approved design',
+    ],
+  ])('refuses a run sheet with %s (400)', async (q, detail) => {
+    for (const suffix of ['run-sheet', 'run-sheet.pdf']) {
+      const res = await http()
+        .get(`/api/recipes/${recipeId}/1/${suffix}?chamberId=${chamberId}&${q}`)
+        .set('Cookie', operator);
+      expect(res.status).toBe(400);
+      expect(res.body.details).toContain(detail);
+    }
+  });
+
+  it('prints the shop name and job on the PDF, page-numbered', async () => {
+    const res = await binary(
+      http()
+        .get(`/api/recipes/${recipeId}/1/run-sheet.pdf?chamberId=${chamberId}&part=BW-7&quantity=24`)
+        .set('Cookie', operator),
+    );
+    expect(res.status).toBe(200);
+    const pages = pageTexts(res.body as Buffer);
+    expect(pages[0]).toContain('Larkspur Thin Film Works');
+    expect(pages[0]).toMatch(/Quantity\s+24 pcs/);
+    const words = wordBoxes(res.body as Buffer)
+      .filter((w) => w.page === 1)
+      .map((w) => w.text)
+      .join(' ');
+    expect(words).toContain('Monitor QWOT at 600 nm');
+    expect(pages[0]).toContain('Substrate at 300 °C');
+    pages.forEach((p, i) => expect(p).toContain(`Page ${i + 1} of ${pages.length}`));
+  });
+
+  it('writes page 1 of the demo recipe on the demo chamber for the README when asked', async () => {
+    const out = process.env.QG_RUN_SHEET_PNG;
+    if (!out) return;
+    const recipes = (await http().get('/api/recipes').set('Cookie', operator)).body as {
+      designId: number;
+      number: number;
+      name: string;
+    }[];
+    const demo = recipes.find((r) => r.name === 'HVS-2210 four-layer AR')!;
+    const b2 = (await http().get('/api/chambers').set('Cookie', operator)).body.find(
+      (c: { name: string }) => c.name === 'Box coater B2',
+    );
+    const res = await binary(
+      http()
+        .get(
+          `/api/recipes/${demo.designId}/${demo.number}/run-sheet.pdf?chamberId=${b2.id}&part=HVS-2210-L3&quantity=48`,
+        )
+        .set('Cookie', operator),
+    );
+    expect(res.status).toBe(200);
+    pagePngs(res.body as Buffer, 110).forEach((png, i) =>
+      writeFileSync(out.replace('.png', `-${i + 1}.png`), png),
+    );
   });
 
   it('has no run sheet for a draft, and names a material the chamber lacks', async () => {

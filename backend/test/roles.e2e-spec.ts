@@ -7,6 +7,7 @@ import { binary } from './support/binary.js';
 import { createTestApp, sessionCookie } from './support/app.js';
 import { demoSignIn } from './support/env.js';
 import { materialIds, twoLayerDesign, versionContent } from './support/fixtures.js';
+import { solidPng } from './support/png.js';
 
 /**
  * Every API route, who may use it, and what a permitted call returns. A route missing here fails
@@ -54,6 +55,8 @@ interface MatrixContext {
   chamberId: number;
   chamberVersion: number;
   calibrationSettingsVersion: number;
+  processVersion: number;
+  shopVersion: number;
   runId: number;
   /** Per permitted role, a run its own matrix user logged (only a run's operator may change it). */
   ownRunIds: Partial<Record<Role | 'anonymous', number>>;
@@ -541,6 +544,66 @@ const RULES: RouteRule[] = [
   },
   {
     method: 'get',
+    path: '/api/chambers/:id/process-settings',
+    allow: FLOOR,
+    okStatus: 200,
+    url: (ctx) => `/api/chambers/${ctx.chamberId}/process-settings`,
+  },
+  {
+    method: 'put',
+    path: '/api/chambers/:id/process-settings',
+    allow: DESIGNERS,
+    okStatus: 200,
+    url: (ctx) => `/api/chambers/${ctx.chamberId}/process-settings`,
+    body: (ctx) => ({
+      settings: [
+        { materialId: ctx.materialIdsByName['MgF2'], substrateTemperatureC: 250, basePressureMbar: 2e-5 },
+      ],
+      version: ctx.processVersion,
+    }),
+    after: (ctx, body) => {
+      ctx.processVersion = body.version ?? ctx.processVersion;
+    },
+  },
+  { method: 'get', path: '/api/shop-settings', allow: ALL, okStatus: 200 },
+  {
+    method: 'put',
+    path: '/api/shop-settings',
+    allow: ['admin'],
+    okStatus: 200,
+    // The demo name again: other files print it on their documents.
+    body: (ctx) => ({ shopName: 'Larkspur Thin Film Works', version: ctx.shopVersion }),
+    after: (ctx, body) => {
+      ctx.shopVersion = body.version ?? ctx.shopVersion;
+    },
+  },
+  { method: 'get', path: '/api/shop-settings/logo', allow: ALL, okStatus: 200, download: true },
+  {
+    method: 'put',
+    path: '/api/shop-settings/logo',
+    allow: ['admin'],
+    okStatus: 200,
+    body: (ctx) => ({
+      contentType: 'image/png',
+      dataBase64: solidPng(30, 10).toString('base64'),
+      version: ctx.shopVersion,
+    }),
+    after: (ctx, body) => {
+      ctx.shopVersion = body.version ?? ctx.shopVersion;
+    },
+  },
+  {
+    method: 'delete',
+    path: '/api/shop-settings/logo',
+    allow: ['admin'],
+    okStatus: 200,
+    url: (ctx) => `/api/shop-settings/logo?version=${ctx.shopVersion}`,
+    after: (ctx, body) => {
+      ctx.shopVersion = body.version ?? ctx.shopVersion;
+    },
+  },
+  {
+    method: 'get',
     path: '/api/recipes/:id/:number/run-sheet',
     allow: FLOOR,
     okStatus: 200,
@@ -778,6 +841,8 @@ const ctx: MatrixContext = {
   chamberId: 0,
   chamberVersion: 1,
   calibrationSettingsVersion: 1,
+  processVersion: 0,
+  shopVersion: 0,
   runId: 0,
   ownRunIds: {},
   spectrumId: 0,
@@ -865,6 +930,14 @@ beforeAll(async () => {
   ctx.calibrationSettingsVersion = (
     await request(app.getHttpServer()).get('/api/calibration/settings').set('Cookie', adminCookie)
   ).body.version;
+  ctx.processVersion = 0;
+  // A logo for the matrix to read; the DELETE row removes it again.
+  const logo = await request(app.getHttpServer())
+    .put('/api/shop-settings/logo')
+    .set('Cookie', adminCookie)
+    .send({ contentType: 'image/png', dataBase64: solidPng(30, 10).toString('base64'), version: 0 });
+  expect(logo.status, JSON.stringify(logo.body)).toBe(200);
+  ctx.shopVersion = logo.body.version;
   const createDesign = async () => {
     const res = await request(app.getHttpServer())
       .post('/api/designs')

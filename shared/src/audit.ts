@@ -16,6 +16,7 @@ export const AUDIT_ENTITIES = [
   'chamber',
   'chamber-calibration',
   'calibration-settings',
+  'shop-settings',
 ] as const;
 export type AuditEntity = (typeof AUDIT_ENTITIES)[number];
 
@@ -31,6 +32,7 @@ export const AUDIT_ENTITY_LABELS: Record<AuditEntity, string> = {
   chamber: 'Chamber',
   'chamber-calibration': 'Chamber calibration',
   'calibration-settings': 'Calibration settings',
+  'shop-settings': 'Shop settings',
 };
 
 /** One entry of the audit trail. */

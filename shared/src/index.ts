@@ -2,6 +2,7 @@ export * from './roles.js';
 export * from './designs.js';
 export * from './analysis.js';
 export * from './runsheet.js';
+export * from './runsheet-signal.js';
 export * from './measured.js';
 export * from './reports.js';
 export * from './quotes.js';
@@ -42,3 +43,4 @@ export * from './optimise/yield.js';
 // Plot defaults shared by the client's plots.
 export * from './plots/plot-range.js';
 export * from './plots/nice-ticks.js';
+export * from './shop.js';

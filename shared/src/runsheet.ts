@@ -13,6 +13,7 @@ import {
 import { indexAt, type MaterialModel } from './optics/dispersion.js';
 import { OpticsInputError } from './optics/errors.js';
 import type { OpticalStack } from './optics/stack.js';
+import type { ProcessSetting } from './chambers.js';
 
 /**
  * Tooling factor convention: TF = thickness deposited on the part ÷ thickness on the monitor, so
@@ -83,13 +84,48 @@ export interface RunSheet {
   cautions: readonly string[];
 }
 
+/** Which surfaces of each part get the coating. */
+export const RUN_SHEET_SIDES = ['front', 'both'] as const;
+export type RunSheetSides = (typeof RUN_SHEET_SIDES)[number];
+
+/** Limits of what the operator types for a run, written once for the API and the page. */
+export const RUN_SHEET_JOB_LIMITS = {
+  partMaxLength: 80,
+  quantityMax: 100_000,
+  /** Same bound as a design's substrate thickness, mm. */
+  substrateThicknessMaxMm: 1000,
+} as const;
+
+/** One layer of the run sheet with the chamber's process setting for its material (null: none kept). */
+export interface RunSheetViewLayer extends RunSheetLayer {
+  process: ProcessSetting | null;
+}
+
 /** A released recipe's run sheet on one chamber, as the API computes it. */
-export interface RunSheetView extends RunSheet {
+export interface RunSheetView extends Omit<RunSheet, 'layers'> {
+  layers: RunSheetViewLayer[];
   recipe: { designId: number; number: number; name: string; customer: string };
   chamber: { id: number; name: string };
   /** Which calibration the tooling factors come from (the chamber version and, per material, the accepted calibration). */
   calibration: RunSheetCalibration;
+  /** The shop for the header; its logo, when `hasLogo`, is at /api/shop-settings/logo. */
+  shop: { name: string; hasLogo: boolean };
+  /** The substrate from the design; its thickness as entered for this run (the design's by default). */
+  substrate: { material: string; thicknessMm: number; designThicknessMm: number };
+  /** What this run coats: the part (as the shop names it), how many, which sides. */
+  job: { part: string; quantity: number | null; sides: RunSheetSides };
 }
+
+/** The sides a design coats: both when its back surface carries the same coating. */
+export function sidesOfDesign(backSurface: string): RunSheetSides {
+  return backSurface === 'same-coating' ? 'both' : 'front';
+}
+
+/** How a run sheet words the sides to coat. */
+export const SIDES_LABELS: Record<RunSheetSides, string> = {
+  front: 'Front surface only',
+  both: 'Both surfaces (same coating on each; run the layers once per side)',
+};
 
 /** Builds the run sheet; errors name the layer or material whose settings are missing or wrong. */
 export function buildRunSheet(input: RunSheetInput): RunSheet {

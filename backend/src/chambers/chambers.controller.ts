@@ -1,11 +1,12 @@
 import { Body, Controller, Get, Param, ParseIntPipe, Post, Put } from '@nestjs/common';
-import type { ChamberView } from '@quietglass/shared/chambers';
+import type { ChamberView, ProcessSettingsView } from '@quietglass/shared/chambers';
 import { CurrentUser } from '../auth/current-user.decorator.js';
 import { Roles } from '../auth/roles.decorator.js';
 import type { User } from '../users/user.entity.js';
 import { toChamberView } from './chamber.entity.js';
 import { ChambersService } from './chambers.service.js';
 import { ChamberDto, UpdateChamberDto } from './dto/chamber.dto.js';
+import { ProcessSettingsDto } from './dto/process-settings.dto.js';
 
 /** Chambers are kept by admins and engineers; operators read them. */
 @Controller()
@@ -37,5 +38,20 @@ export class ChambersController {
     @CurrentUser() user: User,
   ): Promise<ChamberView> {
     return toChamberView(await this.chambers.update(id, dto, user));
+  }
+
+  @Get('chambers/:id/process-settings')
+  processSettings(@Param('id', ParseIntPipe) id: number): Promise<ProcessSettingsView> {
+    return this.chambers.getProcessSettings(id);
+  }
+
+  @Put('chambers/:id/process-settings')
+  @Roles('admin', 'engineer')
+  saveProcessSettings(
+    @Param('id', ParseIntPipe) id: number,
+    @Body() dto: ProcessSettingsDto,
+    @CurrentUser() user: User,
+  ): Promise<ProcessSettingsView> {
+    return this.chambers.saveProcessSettings(id, dto, user);
   }
 }

@@ -6,9 +6,15 @@ import { MaterialsModule } from '../materials/materials.module.js';
 import { Chamber } from './chamber.entity.js';
 import { ChambersController } from './chambers.controller.js';
 import { ChambersService } from './chambers.service.js';
+import { ChamberProcessSettings } from './process-settings.entity.js';
 
 @Module({
-  imports: [TypeOrmModule.forFeature([Chamber]), DesignsModule, MaterialsModule, AuditModule],
+  imports: [
+    TypeOrmModule.forFeature([Chamber, ChamberProcessSettings]),
+    DesignsModule,
+    MaterialsModule,
+    AuditModule,
+  ],
   controllers: [ChambersController],
   providers: [ChambersService],
   exports: [ChambersService],

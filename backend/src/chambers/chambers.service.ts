@@ -6,13 +6,18 @@ import { isUniqueViolation } from '../common/db-errors.js';
 import { updateIfVersion } from '../common/optimistic-lock.js';
 import type { User } from '../users/user.entity.js';
 import { MaterialsService } from '../materials/materials.service.js';
+import type { ProcessSetting, ProcessSettingsView } from '@quietglass/shared/chambers';
 import { Chamber } from './chamber.entity.js';
 import type { ChamberDto, UpdateChamberDto } from './dto/chamber.dto.js';
+import type { ProcessSettingsDto } from './dto/process-settings.dto.js';
+import { ChamberProcessSettings } from './process-settings.entity.js';
 
 @Injectable()
 export class ChambersService {
   constructor(
     @InjectRepository(Chamber) private readonly chambers: Repository<Chamber>,
+    @InjectRepository(ChamberProcessSettings)
+    private readonly processSettings: Repository<ChamberProcessSettings>,
     private readonly materials: MaterialsService,
     private readonly audit: AuditService,
   ) {}
@@ -119,6 +124,88 @@ export class ChambersService {
       summary: `chamber "${before.name}" tooling factor of material ${change.materialId}: ${old.toolingFactor} → ${change.toolingFactor} (${change.reason})`,
       details: { before: { materials: before.materials }, after: { materials } },
     });
+  }
+
+  /** A chamber's process settings per material; an empty set at version 0 before the first save. */
+  async getProcessSettings(chamberId: number): Promise<ProcessSettingsView> {
+    await this.get(chamberId);
+    const row = await this.processSettings.findOneBy({ chamberId });
+    return {
+      chamberId,
+      settings: row?.settings ?? [],
+      version: row?.version ?? 0,
+      updatedAt: row?.updatedAt.toISOString() ?? null,
+    };
+  }
+
+  /**
+   * Replaces the whole set in one locked write: only while it is still at the version the editor
+   * read, with before and after on the audit trail. Each material must be one of the chamber's.
+   */
+  async saveProcessSettings(
+    chamberId: number,
+    dto: ProcessSettingsDto,
+    user: User,
+  ): Promise<ProcessSettingsView> {
+    const chamber = await this.get(chamberId);
+    const before = await this.getProcessSettings(chamberId);
+    const listed = new Set(chamber.materials.map((m) => m.materialId));
+    const problems: string[] = [];
+    const seen = new Set<number>();
+    dto.settings.forEach((s, i) => {
+      if (!listed.has(s.materialId))
+        problems.push(
+          `settings[${i}].materialId: material ${s.materialId} is not in the material list of chamber "${chamber.name}"`,
+        );
+      if (seen.has(s.materialId))
+        problems.push(`settings[${i}].materialId: material ${s.materialId} is listed twice`);
+      seen.add(s.materialId);
+    });
+    if (problems.length > 0) throw new BadRequestException({ message: problems });
+    const settings: ProcessSetting[] = dto.settings.map((s) => ({
+      materialId: s.materialId,
+      substrateTemperatureC: s.substrateTemperatureC,
+      basePressureMbar: s.basePressureMbar,
+      o2FlowSccm: s.o2FlowSccm ?? null,
+      o2PartialPressureMbar: s.o2PartialPressureMbar ?? null,
+      arFlowSccm: s.arFlowSccm ?? null,
+      ionVoltageV: s.ionVoltageV ?? null,
+      ionCurrentA: s.ionCurrentA ?? null,
+      ionGasFlowSccm: s.ionGasFlowSccm ?? null,
+      notes: s.notes ?? '',
+    }));
+    await this.chambers.manager.transaction(async (tx) => {
+      const json = JSON.stringify(settings);
+      const rows =
+        dto.version === 0
+          ? await tx.query<unknown[]>(
+              `INSERT INTO chamber_process_settings (chamber_id, settings, version, updated_at)
+               VALUES ($1, $2::jsonb, 1, now()) ON CONFLICT (chamber_id) DO NOTHING RETURNING version`,
+              [chamberId, json],
+            )
+          : (
+              await tx.query<[unknown[], number]>(
+                `UPDATE chamber_process_settings SET settings = $2::jsonb, version = version + 1, updated_at = now()
+               WHERE chamber_id = $1 AND version = $3 RETURNING version`,
+                [chamberId, json, dto.version],
+              )
+            )[0]; // UPDATE … RETURNING comes back as [rows, count] from the pg driver.
+      if (rows.length !== 1) {
+        const now = await this.getProcessSettings(chamberId);
+        throw new ConflictException(
+          `The process settings of chamber "${chamber.name}" were changed by someone else (now version ${now.version}); reload them and apply your edit again`,
+        );
+      }
+      await this.audit.record(tx, {
+        actor: user,
+        entity: 'chamber',
+        entityId: chamberId,
+        action: 'process settings edited',
+        summary: `process settings of chamber "${chamber.name}" edited (version ${dto.version} → ${dto.version + 1})`,
+        details: { before: before.settings, after: settings },
+      });
+    });
+    return this.getProcessSettings(chamberId);
   }
 
   /** Materials must exist and appear once each. */

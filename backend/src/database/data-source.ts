@@ -4,6 +4,8 @@ import { AuditEvent } from '../audit/audit-event.entity.js';
 import { Calculation } from '../calculations/calculation.entity.js';
 import { CalibrationDecision, CalibrationSettingsRecord } from '../calibration/calibration.entity.js';
 import { Chamber } from '../chambers/chamber.entity.js';
+import { ShopSettings } from '../shop-settings/shop-settings.entity.js';
+import { ChamberProcessSettings } from '../chambers/process-settings.entity.js';
 import { Customer } from '../customers/customer.entity.js';
 import { Design } from '../designs/design.entity.js';
 import { DesignVersion } from '../designs/design-version.entity.js';
@@ -34,6 +36,7 @@ import { RecordUses1764700000000 } from '../migrations/1764700000000-record-uses
 import { CustomerRecordsMaskKinds1764810000000 } from '../migrations/1764810000000-customer-records-mask-kinds.js';
 import { MaterialProvenanceFiles1764820000000 } from '../migrations/1764820000000-material-provenance-files.js';
 import { ChamberCalibration1764840000000 } from '../migrations/1764840000000-chamber-calibration.js';
+import { ChamberProcessShopSettings1764830000000 } from '../migrations/1764830000000-chamber-process-shop-settings.js';
 
 /** Every entity of the app; each domain module also registers its own with forFeature. */
 export const ENTITIES = [
@@ -47,6 +50,7 @@ export const ENTITIES = [
   VersionEvent,
   Calculation,
   Chamber,
+  ChamberProcessSettings,
   ChamberRun,
   RunSpectrum,
   ComplianceReport,
@@ -57,6 +61,7 @@ export const ENTITIES = [
   AuditEvent,
   CalibrationDecision,
   CalibrationSettingsRecord,
+  ShopSettings,
 ];
 
 /** Every migration, in order. Listed explicitly so the same list works from src (tests) and dist. */
@@ -77,6 +82,7 @@ export const MIGRATIONS = [
   RecordUses1764700000000,
   CustomerRecordsMaskKinds1764810000000,
   MaterialProvenanceFiles1764820000000,
+  ChamberProcessShopSettings1764830000000,
   ChamberCalibration1764840000000,
 ];
 

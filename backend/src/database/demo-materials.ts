@@ -224,3 +224,30 @@ export const DEMO_DESIGNS: readonly {
     notes: 'Front surface of the lens; demo design',
   },
 ];
+
+/**
+ * The demo chamber's process settings per material (invented scenario values, not a recipe to
+ * follow): substrate temperature °C, base pressure mbar, O₂ flow sccm (null: none), and the
+ * ion-assist source's voltage V, current A and gas flow sccm (null: no ion assist).
+ */
+export const DEMO_PROCESS_SETTINGS: Record<
+  string,
+  readonly [
+    name: string,
+    temperatureC: number,
+    basePressureMbar: number,
+    o2FlowSccm: number | null,
+    ion: [voltageV: number, currentA: number, gasSccm: number] | null,
+  ][]
+> = {
+  'Box coater B2': [
+    ['MgF2', 280, 2e-5, null, null],
+    ['SiO2', 200, 2e-5, 8, [110, 2.0, 10]],
+    ['Al2O3', 200, 2e-5, 12, [120, 2.5, 10]],
+    ['HfO2', 200, 2e-5, 15, [130, 3.0, 12]],
+    ['ZrO2', 200, 2e-5, 15, [130, 3.0, 12]],
+    ['Ta2O5', 200, 2e-5, 18, [140, 3.0, 12]],
+    ['Nb2O5', 200, 2e-5, 18, [140, 3.0, 12]],
+    ['TiO2', 200, 2e-5, 20, [140, 3.5, 14]],
+  ],
+};

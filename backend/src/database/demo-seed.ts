@@ -8,9 +8,12 @@ import { Material } from '../materials/material.entity.js';
 import { User } from '../users/user.entity.js';
 import { validateSpecMask } from '@quietglass/shared/optics/mask';
 import { SpecMaskRecord } from '../spec-masks/spec-mask.entity.js';
+import type { ProcessSetting } from '@quietglass/shared/chambers';
 import { Chamber } from '../chambers/chamber.entity.js';
+import { ChamberProcessSettings } from '../chambers/process-settings.entity.js';
 import {
   DEMO_CHAMBERS,
+  DEMO_PROCESS_SETTINGS,
   DEMO_CUSTOMERS,
   DEMO_DESIGNS,
   DEMO_MATERIALS,
@@ -140,7 +143,7 @@ async function createDemo(db: DataSource, signIns: DemoSignIn[]): Promise<number
     for (const [name, toolingFactor, rateNmPerS] of chamber.materials) {
       materials.push({ materialId: await id(name), toolingFactor, rateNmPerS });
     }
-    await db.getRepository(Chamber).insert({
+    const { identifiers } = await db.getRepository(Chamber).insert({
       name: chamber.name,
       monitorWavelengthsNm: chamber.monitorWavelengthsNm,
       monitorChipMaterialId: await id(chamber.monitorChip),
@@ -148,6 +151,29 @@ async function createDemo(db: DataSource, signIns: DemoSignIn[]): Promise<number
       notes: chamber.notes,
       version: 1,
     });
+    const settings: ProcessSetting[] = [];
+    for (const [name, temperature, basePressure, o2, ion] of DEMO_PROCESS_SETTINGS[chamber.name] ?? []) {
+      settings.push({
+        materialId: await id(name),
+        substrateTemperatureC: temperature,
+        basePressureMbar: basePressure,
+        o2FlowSccm: o2,
+        o2PartialPressureMbar: null,
+        arFlowSccm: null,
+        ionVoltageV: ion?.[0] ?? null,
+        ionCurrentA: ion?.[1] ?? null,
+        ionGasFlowSccm: ion?.[2] ?? null,
+        notes: 'demo value',
+      });
+    }
+    if (settings.length > 0) {
+      await db.getRepository(ChamberProcessSettings).insert({
+        chamberId: Number(identifiers[0].id),
+        settings,
+        version: 1,
+        updatedAt: new Date(),
+      });
+    }
     created += 1;
   }
   for (const demo of DEMO_USERS) {

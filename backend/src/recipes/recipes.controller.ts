@@ -1,19 +1,11 @@
-import {
-  Controller,
-  Get,
-  Param,
-  ParseFloatPipe,
-  ParseIntPipe,
-  Query,
-  Res,
-  StreamableFile,
-} from '@nestjs/common';
+import { Controller, Get, Param, ParseIntPipe, Query, Res, StreamableFile } from '@nestjs/common';
 import type { Response } from 'express';
 import type { RecipeSummaryView, RecipeView } from '@quietglass/shared/recipes';
 import type { RunSheetView } from '@quietglass/shared/runsheet';
 import { Roles } from '../auth/roles.decorator.js';
 import { DesignsService, toVersionView } from '../designs/designs.service.js';
 import { RecipesService } from '../designs/recipes.service.js';
+import { RunSheetQueryDto } from './dto/run-sheet-query.dto.js';
 import { RunSheetService } from './run-sheet.service.js';
 
 /** Released recipes for the floor: the list, one recipe, and its run sheet on a chosen chamber. */
@@ -51,21 +43,19 @@ export class RecipesController {
   runSheet(
     @Param('id', ParseIntPipe) id: number,
     @Param('number', ParseIntPipe) number: number,
-    @Query('chamberId', ParseIntPipe) chamberId: number,
-    @Query('monitorWavelengthNm', new ParseFloatPipe({ optional: true })) monitorWavelengthNm?: number,
+    @Query() query: RunSheetQueryDto,
   ): Promise<RunSheetView> {
-    return this.runSheets.build(id, number, chamberId, monitorWavelengthNm);
+    return this.runSheets.build(id, number, query);
   }
 
   @Get(':id/:number/run-sheet.pdf')
   async runSheetPdf(
     @Param('id', ParseIntPipe) id: number,
     @Param('number', ParseIntPipe) number: number,
-    @Query('chamberId', ParseIntPipe) chamberId: number,
+    @Query() query: RunSheetQueryDto,
     @Res({ passthrough: true }) res: Response,
-    @Query('monitorWavelengthNm', new ParseFloatPipe({ optional: true })) monitorWavelengthNm?: number,
   ): Promise<StreamableFile> {
-    const sheet = await this.runSheets.build(id, number, chamberId, monitorWavelengthNm);
+    const sheet = await this.runSheets.build(id, number, query);
     res.setHeader('Content-Disposition', `attachment; filename="run-sheet-${id}-v${number}.pdf"`);
     return new StreamableFile(await this.runSheets.pdf(sheet), { type: 'application/pdf' });
   }

@@ -1,12 +1,13 @@
 import { BadRequestException, Injectable } from '@nestjs/common';
-import PDFDocument from 'pdfkit';
-import { runSheetCalibrationLine } from '@quietglass/shared/calibration';
-import { buildRunSheet, type RunSheetView } from '@quietglass/shared/runsheet';
+import { buildRunSheet, sidesOfDesign, type RunSheetView } from '@quietglass/shared/runsheet';
 import { OpticsInputError } from '@quietglass/shared/optics/errors';
 import { CalibrationService } from '../calibration/calibration.service.js';
 import { ChambersService } from '../chambers/chambers.service.js';
 import { RecipesService } from '../designs/recipes.service.js';
 import { MaterialsService } from '../materials/materials.service.js';
+import { ShopSettingsService } from '../shop-settings/shop-settings.service.js';
+import type { RunSheetQueryDto } from './dto/run-sheet-query.dto.js';
+import { renderRunSheetPdf } from './run-sheet-pdf.js';
 
 /** Run sheets for released recipes on a chosen chamber: JSON for the page, PDF for the floor. */
 @Injectable()
@@ -16,20 +17,30 @@ export class RunSheetService {
     private readonly chambers: ChambersService,
     private readonly materials: MaterialsService,
     private readonly calibration: CalibrationService,
+    private readonly shop: ShopSettingsService,
   ) {}
 
-  async build(
-    designId: number,
-    number: number,
-    chamberId: number,
-    monitorWavelengthNm?: number,
-  ): Promise<RunSheetView> {
+  async build(designId: number, number: number, query: RunSheetQueryDto): Promise<RunSheetView> {
     const version = await this.recipes.releasedRecipe(designId, number);
-    const chamber = await this.chambers.get(chamberId);
-    const lambda = monitorWavelengthNm ?? chamber.monitorWavelengthsNm[0];
+    const chamber = await this.chambers.get(query.chamberId);
+    const lambda = query.monitorWavelengthNm ?? chamber.monitorWavelengthsNm[0];
+    const designSides = sidesOfDesign(version.backSurface);
+    if (query.sides !== undefined && query.sides !== designSides) {
+      throw new BadRequestException({
+        message: [
+          designSides === 'both'
+            ? 'sides: this design carries the same coating on its back surface; its run sheet coats both sides'
+            : 'sides: this design leaves the back surface uncoated; coating both sides would not be the approved design',
+        ],
+      });
+    }
     // A released version computes with the material models frozen at submission.
     const snapshot = version.materialsSnapshot ?? {};
-    const ids = [chamber.monitorChipMaterialId, ...chamber.materials.map((m) => m.materialId)];
+    const ids = [
+      chamber.monitorChipMaterialId,
+      version.substrateMaterialId,
+      ...chamber.materials.map((m) => m.materialId),
+    ];
     const library = new Map((await this.materials.findByIds(ids)).map((m) => [m.id, m]));
     const chip = library.get(chamber.monitorChipMaterialId);
     if (!chip)
@@ -40,11 +51,17 @@ export class RunSheetService {
       chamber,
       new Map([...library.values()].map((m) => [m.id, m.name])),
     );
+    const substrate =
+      snapshot[String(version.substrateMaterialId)]?.name ?? library.get(version.substrateMaterialId)?.name;
     const settings: Record<string, { toolingFactor: number; rateNmPerS: number }> = {};
     for (const m of chamber.materials) {
       const name = library.get(m.materialId)?.name;
       if (name) settings[name] = { toolingFactor: m.toolingFactor, rateNmPerS: m.rateNmPerS };
     }
+    const process = new Map(
+      (await this.chambers.getProcessSettings(chamber.id)).settings.map((s) => [s.materialId, s]),
+    );
+    const shop = await this.shop.get();
     try {
       const sheet = buildRunSheet({
         layers: version.layers.map((l, i) => {
@@ -58,9 +75,20 @@ export class RunSheetService {
       });
       return {
         ...sheet,
+        layers: sheet.layers.map((l) => ({
+          ...l,
+          process: process.get(version.layers[l.designLayer - 1].materialId) ?? null,
+        })),
         recipe: { designId, number, name: version.design.name, customer: version.design.customer.name },
         chamber: { id: chamber.id, name: chamber.name },
         calibration,
+        shop: { name: shop.shopName, hasLogo: shop.logo !== null },
+        substrate: {
+          material: substrate ?? `material ${version.substrateMaterialId}`,
+          thicknessMm: query.substrateThicknessMm ?? version.substrateThicknessMm,
+          designThicknessMm: version.substrateThicknessMm,
+        },
+        job: { part: query.part ?? '', quantity: query.quantity ?? null, sides: designSides },
       };
     } catch (err) {
       if (err instanceof OpticsInputError) throw new BadRequestException({ message: [err.message] });
@@ -68,80 +96,9 @@ export class RunSheetService {
     }
   }
 
-  /** A printable PDF of the run sheet: title block, cautions, the layer table, totals. */
+  /** The printable PDF, with the shop's logo in the header when one was uploaded. */
   async pdf(sheet: RunSheetView): Promise<Buffer> {
-    const doc = new PDFDocument({
-      size: 'A4',
-      margin: 40,
-      info: { Title: `Run sheet ${sheet.recipe.name} v${sheet.recipe.number}` },
-    });
-    const chunks: Buffer[] = [];
-    doc.on('data', (c: Buffer) => chunks.push(c));
-    const done = new Promise<Buffer>((resolve) => doc.on('end', () => resolve(Buffer.concat(chunks))));
-    doc
-      .font('Helvetica-Bold')
-      .fontSize(16)
-      .text(`Run sheet — ${sheet.recipe.name}, version ${sheet.recipe.number}`);
-    doc.font('Helvetica').fontSize(10);
-    doc.text(
-      `Customer: ${sheet.recipe.customer}    Chamber: ${sheet.chamber.name}    Monitor wavelength: ${sheet.monitorWavelengthNm} nm`,
-    );
-    doc.text(sheet.convention);
-    doc.text(
-      runSheetCalibrationLine(
-        sheet.calibration,
-        sheet.layers.map((l) => l.material),
-      ),
-    );
-    doc.moveDown(0.5);
-    doc.font('Helvetica-Bold').text('Safety');
-    doc.font('Helvetica').fontSize(8);
-    for (const c of sheet.cautions) doc.text(`• ${c}`);
-    doc.moveDown(0.5).fontSize(9);
-    const cols = [40, 75, 150, 215, 265, 330, 385, 440, 495];
-    const header = [
-      'Step',
-      'Material',
-      'Part nm',
-      'Tooling',
-      'Monitor nm',
-      'QWOT',
-      'Rate nm/s',
-      'Time s',
-      'Turns (nm)',
-    ];
-    let y = doc.y;
-    doc.font('Helvetica-Bold');
-    header.forEach((h, i) => doc.text(h, cols[i], y, { lineBreak: false }));
-    doc.font('Helvetica');
-    y += 14;
-    for (const l of sheet.layers) {
-      if (y > 780) {
-        doc.addPage();
-        y = 40;
-      }
-      const row = [
-        String(l.step),
-        l.material,
-        l.partThicknessNm.toFixed(2),
-        l.toolingFactor.toFixed(3),
-        l.monitorThicknessNm.toFixed(2),
-        l.qwotAtMonitor.toFixed(3),
-        l.rateNmPerS.toFixed(2),
-        l.timeS.toFixed(0),
-        l.turningPointsNm.map((t) => t.toFixed(1)).join(', ') || '—',
-      ];
-      row.forEach((v, i) => doc.text(v, cols[i], y, { lineBreak: false }));
-      y += 13;
-    }
-    doc
-      .font('Helvetica-Bold')
-      .text(
-        `Totals: ${sheet.totals.partThicknessNm.toFixed(1)} nm on the part, ${sheet.totals.monitorThicknessNm.toFixed(1)} nm on the monitor, ${(sheet.totals.timeS / 60).toFixed(1)} min deposition`,
-        40,
-        y + 8,
-      );
-    doc.end();
-    return done;
+    const { logo } = await this.shop.header();
+    return renderRunSheetPdf(sheet, { logo, printedOn: new Date().toISOString().slice(0, 10) });
   }
 }

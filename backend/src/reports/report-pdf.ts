@@ -1,8 +1,26 @@
-import { fileURLToPath } from 'node:url';
-import PDFDocument from 'pdfkit';
 import type { LimitBand } from '@quietglass/shared/optics/mask';
 import { niceTicks } from '@quietglass/shared/plots/nice-ticks';
 import type { ReportSummary } from '@quietglass/shared/reports';
+import {
+  BOLD,
+  CURVE,
+  type Doc,
+  drawDocumentHeader,
+  drawFields,
+  drawFooters,
+  drawTable,
+  fill,
+  fmt,
+  FORBIDDEN,
+  GRID,
+  INK,
+  LIMIT,
+  MARGIN,
+  MUTED,
+  newDocument,
+  REGULAR,
+  room,
+} from '../common/pdf-layout.js';
 
 export interface PlotSeries {
   title: string;
@@ -14,6 +32,8 @@ export interface PlotSeries {
 
 export interface ReportDocument {
   shop: string;
+  /** The shop's logo (PNG or JPEG) for the header, when one was uploaded. */
+  logo?: Buffer | null;
   /** Stable per report: see documentNumber(). */
   documentNumber: string;
   customer: string;
@@ -33,150 +53,6 @@ export interface ReportDocument {
 /** A report's document number, derived from its id alone so it never changes: CR-000042. */
 export function documentNumber(reportId: number): string {
   return `CR-${String(reportId).padStart(6, '0')}`;
-}
-
-/*
- * DejaVu Sans (Bitstream Vera licence, backend/assets/fonts/LICENSE-DejaVu.txt) has every symbol
- * the report prints: ≤ ≥ ± ° µ λ θ Δ – —. The PDF's standard fonts have no ≤ or ≥. The path is
- * the same from src/reports and dist/reports.
- */
-const FONT_REGULAR = fileURLToPath(new URL('../../assets/fonts/DejaVuSans.ttf', import.meta.url));
-const FONT_BOLD = fileURLToPath(new URL('../../assets/fonts/DejaVuSans-Bold.ttf', import.meta.url));
-const REGULAR = 'Body';
-const BOLD = 'Body-Bold';
-
-const INK = '#1d2b33';
-const MUTED = '#4f5f67';
-const GRID = '#d5dde1';
-const CURVE = '#1f6f78';
-const LIMIT = '#b2432c';
-const FORBIDDEN = '#c8553d';
-const RULE_LINE = '#9aa8ae';
-
-const MARGIN = 40;
-/** Space kept free at the foot of each page for the footer line, pt. */
-const FOOTER_SPACE = 28;
-const CELL_PAD = 3;
-
-/** A value with a true minus sign (U+2212), or a dash when there is none. */
-function fmt(v: number | null | undefined, digits = 3): string {
-  return v === null || v === undefined || !Number.isFinite(v) ? '—' : v.toFixed(digits).replace(/^-/, '−');
-}
-
-type Doc = PDFKit.PDFDocument;
-
-function pageBottom(doc: Doc): number {
-  return doc.page.height - MARGIN - FOOTER_SPACE;
-}
-
-/** Starts a new page when `height` pt do not fit below `y`; returns where to draw. */
-function room(doc: Doc, y: number, height: number): number {
-  if (y + height <= pageBottom(doc)) return y;
-  doc.addPage();
-  return MARGIN;
-}
-
-interface Column {
-  title: string;
-  width: number;
-  align?: 'left' | 'right';
-}
-
-/** Height of a table row whose cells wrap inside their columns, pt. */
-function rowHeight(doc: Doc, cols: Column[], cells: string[], font: string, size: number): number {
-  doc.font(font).fontSize(size);
-  let h = 0;
-  cells.forEach((c, i) => {
-    h = Math.max(h, doc.heightOfString(c, { width: cols[i].width - 2 * CELL_PAD }));
-  });
-  return h + 2 * CELL_PAD;
-}
-
-function drawRow(
-  doc: Doc,
-  cols: Column[],
-  cells: string[],
-  x: number,
-  y: number,
-  font: string,
-  size: number,
-) {
-  doc.font(font).fontSize(size).fillColor(INK);
-  let cx = x;
-  cells.forEach((c, i) => {
-    doc.text(c, cx + CELL_PAD, y + CELL_PAD, {
-      width: cols[i].width - 2 * CELL_PAD,
-      align: cols[i].align ?? 'left',
-    });
-    cx += cols[i].width;
-  });
-}
-
-/**
- * A table whose cells wrap within their columns: each row is as tall as its tallest cell, so no
- * text runs into the next column or row. The header row repeats after a page break. Returns the y
- * below the table.
- */
-function drawTable(doc: Doc, cols: Column[], rows: string[][], x: number, y: number, size = 8): number {
-  const width = cols.reduce((s, c) => s + c.width, 0);
-  const header = cols.map((c) => c.title);
-  const headerH = rowHeight(doc, cols, header, BOLD, size);
-  const drawHeader = (at: number) => {
-    doc.save().rect(x, at, width, headerH).fill('#eef2f4').restore();
-    drawRow(doc, cols, header, x, at, BOLD, size);
-    return at + headerH;
-  };
-  y = drawHeader(room(doc, y, headerH + 16));
-  for (const row of rows) {
-    const h = rowHeight(doc, cols, row, REGULAR, size);
-    const at = room(doc, y, h);
-    y = at === y ? y : drawHeader(at);
-    drawRow(doc, cols, row, x, y, REGULAR, size);
-    y += h;
-    doc
-      .save()
-      .lineWidth(0.4)
-      .strokeColor(GRID)
-      .moveTo(x, y)
-      .lineTo(x + width, y)
-      .stroke()
-      .restore();
-  }
-  return y;
-}
-
-/** Column widths that fill `total`: fixed ones as given, the rest share what is left. */
-function fill(total: number, cols: (Column | Omit<Column, 'width'>)[]): Column[] {
-  const fixed = cols.reduce((s, c) => s + ('width' in c ? c.width : 0), 0);
-  const flexible = cols.filter((c) => !('width' in c)).length;
-  return cols.map((c) => ('width' in c ? c : { ...c, width: (total - fixed) / flexible }));
-}
-
-/** Label–value pairs in two columns, values wrapping. Returns the y below. */
-function drawFields(doc: Doc, fields: [string, string][], x: number, y: number, width: number): number {
-  const half = width / 2;
-  const labelW = 78;
-  for (let i = 0; i < fields.length; i += 2) {
-    const pair = fields.slice(i, i + 2);
-    let h = 0;
-    doc.font(REGULAR).fontSize(9);
-    for (const [, value] of pair) h = Math.max(h, doc.heightOfString(value, { width: half - labelW - 8 }));
-    pair.forEach(([label, value], j) => {
-      const cx = x + j * half;
-      doc
-        .font(BOLD)
-        .fontSize(8)
-        .fillColor(MUTED)
-        .text(label, cx, y + 1, { width: labelW - 4 });
-      doc
-        .font(REGULAR)
-        .fontSize(9)
-        .fillColor(INK)
-        .text(value, cx + labelW, y, { width: half - labelW - 8 });
-    });
-    y += h + 4;
-  }
-  return y;
 }
 
 /** Where a band's limits lie: the limit values and which side of each is forbidden. */
@@ -324,77 +200,19 @@ function drawPlot(doc: Doc, s: PlotSeries, x: number, y: number, w: number, sour
   doc.restore();
 }
 
-/** "Page n of m" and the document number on every page, written once all pages exist. */
-function drawFooters(doc: Doc, r: ReportDocument): void {
-  const range = doc.bufferedPageRange();
-  for (let i = range.start; i < range.start + range.count; i++) {
-    doc.switchToPage(i);
-    // Writing below the bottom margin would otherwise start a new page.
-    const bottom = doc.page.margins.bottom;
-    doc.page.margins.bottom = 0;
-    const y = doc.page.height - MARGIN - 12;
-    const w = doc.page.width - 2 * MARGIN;
-    doc
-      .save()
-      .lineWidth(0.5)
-      .strokeColor(RULE_LINE)
-      .moveTo(MARGIN, y - 6)
-      .lineTo(MARGIN + w, y - 6)
-      .stroke()
-      .restore();
-    doc.font(REGULAR).fontSize(7.5).fillColor(MUTED);
-    doc.text(`${r.shop} · Compliance report ${r.documentNumber}`, MARGIN, y, {
-      width: w / 2,
-      lineBreak: false,
-    });
-    doc.text(`Page ${i - range.start + 1} of ${range.count}`, MARGIN + w / 2, y, {
-      width: w / 2,
-      align: 'right',
-      lineBreak: false,
-    });
-    doc.page.margins.bottom = bottom;
-  }
-}
-
 /** The compliance report as a PDF (A4). */
 export function renderReportPdf(r: ReportDocument): Promise<Buffer> {
-  const doc = new PDFDocument({
-    size: 'A4',
-    margin: MARGIN,
-    bufferPages: true,
+  const { doc, done } = newDocument({
     info: { Title: `Compliance report ${r.documentNumber} — ${r.part} v${r.version}`, Author: r.shop },
   });
-  doc.registerFont(REGULAR, FONT_REGULAR);
-  doc.registerFont(BOLD, FONT_BOLD);
-  const chunks: Buffer[] = [];
-  doc.on('data', (c: Buffer) => chunks.push(c));
-  const done = new Promise<Buffer>((resolve) => doc.on('end', () => resolve(Buffer.concat(chunks))));
   const width = doc.page.width - 2 * MARGIN;
   const source = r.summary.source === 'designed' ? 'designed' : 'measured';
-
-  doc
-    .font(BOLD)
-    .fontSize(16)
-    .fillColor(INK)
-    .text('Spec compliance report', MARGIN, MARGIN, { width: width - 160 });
-  doc
-    .font(BOLD)
-    .fontSize(10)
-    .text(r.documentNumber, MARGIN + width - 160, MARGIN + 4, { width: 160, align: 'right' });
-  doc
-    .font(REGULAR)
-    .fontSize(10)
-    .fillColor(MUTED)
-    .text(r.shop, MARGIN, MARGIN + 22, { width });
-  let y = MARGIN + 40;
-  doc
-    .save()
-    .lineWidth(0.8)
-    .strokeColor(INK)
-    .moveTo(MARGIN, y)
-    .lineTo(MARGIN + width, y)
-    .stroke()
-    .restore();
+  let y = drawDocumentHeader(doc, {
+    title: 'Spec compliance report',
+    shopName: r.shop,
+    logo: r.logo ?? null,
+    reference: r.documentNumber,
+  });
   y = drawFields(
     doc,
     [
@@ -507,7 +325,7 @@ export function renderReportPdf(r: ReportDocument): Promise<Buffer> {
       .fillColor(INK)
       .text('The layer design is not disclosed in this report.', MARGIN, y, { width });
   }
-  drawFooters(doc, r);
+  drawFooters(doc, `${r.shop} · Compliance report ${r.documentNumber}`);
   doc.end();
   return done;
 }

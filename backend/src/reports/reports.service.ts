@@ -1,4 +1,4 @@
-import { BadRequestException, Inject, Injectable, NotFoundException } from '@nestjs/common';
+import { BadRequestException, Injectable, NotFoundException } from '@nestjs/common';
 import { InjectDataSource } from '@nestjs/typeorm';
 import { DataSource, In } from 'typeorm';
 import {
@@ -10,7 +10,6 @@ import { evaluateMaskOnMeasured } from '@quietglass/shared/measured';
 import { validateSpecMask, type LimitBand } from '@quietglass/shared/optics/mask';
 import { parseStack } from '@quietglass/shared/optics/stack';
 import type { ReportBandRow, ReportSummary } from '@quietglass/shared/reports';
-import { appConfig, type AppConfig } from '../config/configuration.js';
 import { missingAsBadRequest, orNull } from '../common/not-found.js';
 import { ApprovalsService } from '../designs/approvals.service.js';
 import { DesignsService } from '../designs/designs.service.js';
@@ -18,6 +17,7 @@ import type { RunSpectrum } from '../runs/run.entity.js';
 import { RunsService } from '../runs/runs.service.js';
 import { internalMaskProblem, SpecMasksService } from '../spec-masks/spec-masks.service.js';
 import { isCustomerSpecification } from '@quietglass/shared/customers';
+import { ShopSettingsService } from '../shop-settings/shop-settings.service.js';
 import type { User } from '../users/user.entity.js';
 import type { CreateReportDto } from './dto/report.dto.js';
 import { documentNumber, renderReportPdf, type PlotSeries } from './report-pdf.js';
@@ -28,11 +28,11 @@ import { colourOf, computeDesignedOffThread, rule } from './report-compute.js';
 export class ReportsService {
   constructor(
     @InjectDataSource() private readonly db: DataSource,
-    @Inject(appConfig.KEY) private readonly config: AppConfig,
     private readonly designs: DesignsService,
     private readonly approvals: ApprovalsService,
     private readonly masks: SpecMasksService,
     private readonly runs: RunsService,
+    private readonly shop: ShopSettingsService,
   ) {}
 
   /** Computes the compliance of a version against a mask, renders the PDF and stores both. */
@@ -95,6 +95,7 @@ export class ReportsService {
         }));
     // The document number comes from the report's id: the row is written first and its PDF added
     // in the same transaction, so no report is ever seen without one.
+    const header = await this.shop.header();
     const id = await this.db.transaction(async (tx) => {
       const repo = tx.getRepository(ComplianceReport);
       const saved = await repo.save(
@@ -112,7 +113,8 @@ export class ReportsService {
       );
       await this.masks.markInUse(maskId, tx);
       const pdf = await renderReportPdf({
-        shop: this.config.shopName,
+        shop: header.shopName,
+        logo: header.logo,
         documentNumber: documentNumber(saved.id),
         customer: design.customer.name,
         part: design.name,

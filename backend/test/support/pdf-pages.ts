@@ -111,3 +111,55 @@ export function isRoundTickRow(values: number[]): boolean {
       Math.abs(v - values[0] - i * step) < step * 1e-6 && Math.abs(v / step - Math.round(v / step)) < 1e-6,
   );
 }
+
+/** A page as grey pixels (pdftoppm -gray, binary PGM): 0 black … 255 white, row by row. */
+export interface GreyPage {
+  width: number;
+  height: number;
+  pixels: Uint8Array;
+}
+
+/** Each page as grey pixels at `dpi`, to measure where ink lies. */
+export function pageGreys(pdf: Buffer, dpi = 72): GreyPage[] {
+  return withFile(pdf, (file, dir) => {
+    execFileSync('pdftoppm', ['-gray', '-r', String(dpi), file, path.join(dir, 'page')]);
+    return readdirSync(dir)
+      .filter((f) => f.endsWith('.pgm'))
+      .sort()
+      .map((f) => {
+        const data = readFileSync(path.join(dir, f));
+        // Header: "P5\n<width> <height>\n<max>\n", then one byte per pixel.
+        const header = /^P5\s+(\d+)\s+(\d+)\s+(\d+)\s/.exec(data.subarray(0, 40).toString('latin1'));
+        if (!header) throw new Error('pdftoppm did not write a binary PGM');
+        const width = Number(header[1]);
+        const height = Number(header[2]);
+        return {
+          width,
+          height,
+          pixels: new Uint8Array(data.subarray(header[0].length, header[0].length + width * height)),
+        };
+      });
+  });
+}
+
+/** The box of everything darker than `threshold` on a page, px; null for a blank page. */
+export function inkBox(
+  page: GreyPage,
+  threshold = 250,
+): { left: number; top: number; right: number; bottom: number } | null {
+  let left = page.width;
+  let top = page.height;
+  let right = -1;
+  let bottom = -1;
+  for (let y = 0; y < page.height; y++) {
+    for (let x = 0; x < page.width; x++) {
+      if (page.pixels[y * page.width + x] < threshold) {
+        if (x < left) left = x;
+        if (x > right) right = x;
+        if (y < top) top = y;
+        if (y > bottom) bottom = y;
+      }
+    }
+  }
+  return right < 0 ? null : { left, top, right, bottom };
+}

@@ -30,6 +30,11 @@ export interface PlotProps {
    * (the modebar offers the PNG too).
    */
   pngFileName?: string;
+  /**
+   * Width to draw at while the page prints, CSS px: a chart drawn for a wide screen would otherwise
+   * be cut at the paper's right edge. Its size on screen comes back after printing.
+   */
+  printWidthPx?: number;
 }
 
 const PlotlyPlot = lazy(() => import('./plotly-plot'));

@@ -2,7 +2,7 @@ import Box from '@mui/material/Box';
 import Button from '@mui/material/Button';
 import Plotly, { type Config } from 'plotly.js-dist-min';
 import createPlotlyComponent from 'react-plotly.js/factory';
-import { useMemo, useRef } from 'react';
+import { useEffect, useMemo, useRef } from 'react';
 import { plotCsv, styleSeries, withAxisDefaults } from '../lib/plot-style';
 import { PLOT_COLOURS, type PlotLayout, type PlotProps } from './plot';
 
@@ -20,8 +20,42 @@ function download(text: string, fileName: string) {
 const PlotlyChart = createPlotlyComponent(Plotly);
 
 /** The Plotly chart behind components/plot (loaded on first use: plotly.js is large). */
-export default function PlotlyPlot({ title, data, layout, height = 320, pngFileName }: PlotProps) {
+export default function PlotlyPlot({
+  title,
+  data,
+  layout,
+  height = 320,
+  pngFileName,
+  printWidthPx,
+}: PlotProps) {
   const graph = useRef<HTMLElement | null>(null);
+  useEffect(() => {
+    if (printWidthPx === undefined) return;
+    let screenWidth: number | null = null;
+    const toPaper = () => {
+      const div = graph.current;
+      if (!div || screenWidth !== null) return;
+      screenWidth = div.clientWidth;
+      if (screenWidth > printWidthPx) void Plotly.relayout(div, { width: printWidthPx });
+      else screenWidth = null;
+    };
+    const toScreen = () => {
+      const div = graph.current;
+      if (!div || screenWidth === null) return;
+      void Plotly.relayout(div, { width: screenWidth });
+      screenWidth = null;
+    };
+    const print = window.matchMedia('print');
+    const onMedia = (event: MediaQueryListEvent) => (event.matches ? toPaper() : toScreen());
+    print.addEventListener('change', onMedia);
+    window.addEventListener('beforeprint', toPaper);
+    window.addEventListener('afterprint', toScreen);
+    return () => {
+      print.removeEventListener('change', onMedia);
+      window.removeEventListener('beforeprint', toPaper);
+      window.removeEventListener('afterprint', toScreen);
+    };
+  }, [printWidthPx]);
   const config: Partial<Config> = {
     displaylogo: false,
     responsive: true,

@@ -135,6 +135,10 @@ describe('side navigation', () => {
       'GET /api/outbox': { status: 200, body: [] },
       'GET /api/audit': { status: 200, body: [] },
       'GET /api/users': { status: 200, body: [] },
+      'GET /api/shop-settings': {
+        status: 200,
+        body: { shopName: 'Larkspur Thin Film Works', logo: null, version: 0, updatedAt: null },
+      },
     });
     renderApp(path);
 

@@ -21,6 +21,10 @@ describe('users page', () => {
   it('creates a user from the "New user" dialog and shows the new row from the refreshed list', async () => {
     const api = mockApi({
       'GET /api/auth/session': { status: 200, body: { user: STAFF.admin } },
+      'GET /api/shop-settings': {
+        status: 200,
+        body: { shopName: 'Larkspur Thin Film Works', logo: null, version: 0, updatedAt: null },
+      },
       'GET /api/users': [
         { status: 200, body: [STAFF.admin, STAFF.engineer] },
         { status: 200, body: [STAFF.admin, STAFF.engineer, PETRA] },

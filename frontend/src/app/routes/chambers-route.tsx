@@ -10,6 +10,7 @@ import { CalibrationPanel } from '../../features/calibration/components/calibrat
 import { useChambers, type ChamberView } from '../../features/chambers/api/get-chambers';
 import { ChamberFormDialog } from '../../features/chambers/components/chamber-form-dialog';
 import { ChambersList } from '../../features/chambers/components/chambers-list';
+import { ProcessSettingsDialog } from '../../features/chambers/components/process-settings-dialog';
 import { useMaterials } from '../../features/materials/api/get-materials';
 import { isDesigner } from '../../lib/roles';
 
@@ -20,6 +21,7 @@ export function ChambersRoute() {
   const materials = useMaterials();
   // undefined: no dialog; null: a new chamber.
   const [editing, setEditing] = useState<ChamberView | null | undefined>(undefined);
+  const [processOf, setProcessOf] = useState<ChamberView | null>(null);
 
   return (
     <>
@@ -52,6 +54,7 @@ export function ChambersRoute() {
           chambers={chambers.data}
           materials={materials.data}
           onEdit={canEdit ? (c) => setEditing(c) : undefined}
+          onProcessSettings={(c) => setProcessOf(c)}
         />
       )}
       {chambers.data && chambers.data.length > 0 && (
@@ -64,6 +67,15 @@ export function ChambersRoute() {
           chamber={editing}
           materials={materials.data}
           onClose={() => setEditing(undefined)}
+        />
+      )}
+      {processOf && materials.data && (
+        <ProcessSettingsDialog
+          key={processOf.id}
+          chamber={processOf}
+          materials={materials.data}
+          readOnly={!canEdit}
+          onClose={() => setProcessOf(null)}
         />
       )}
     </>

@@ -9,15 +9,44 @@ import { LoadingBlock } from '../../components/loading-block';
 import { PageHeader } from '../../components/page-header';
 import { useChambers } from '../../features/chambers/api/get-chambers';
 import { useRecipe } from '../../features/recipes/api/get-recipe';
-import { runSheetPdfUrl, useRunSheet, type RunSheetParams } from '../../features/recipes/api/get-run-sheet';
+import {
+  runSheetPdfUrl,
+  useRunSheet,
+  type RunSheetJobParams,
+  type RunSheetParams,
+} from '../../features/recipes/api/get-run-sheet';
 import { RunSheetControls } from '../../features/recipes/components/run-sheet-controls';
 import { RunSheetDocument } from '../../features/recipes/components/run-sheet-document';
+import { RunSheetJobFields } from '../../features/recipes/components/run-sheet-job-fields';
 import { RunSheetPrintStyles } from '../../features/recipes/components/run-sheet-print-styles';
 import { NotFoundRoute } from './not-found-route';
 
 function positiveNumber(text: string | null | undefined): number | null {
   const value = Number(text);
   return text && Number.isFinite(value) && value > 0 ? value : null;
+}
+
+const JOB_KEYS = ['part', 'quantity', 'sides', 'substrateThicknessMm'] as const;
+
+/** The run's part, quantity, sides and substrate thickness as the address holds them. */
+function jobFromSearch(search: URLSearchParams): RunSheetJobParams {
+  const sides = search.get('sides');
+  return {
+    part: search.get('part') || null,
+    quantity: positiveNumber(search.get('quantity')),
+    sides: sides === 'front' || sides === 'both' ? sides : null,
+    substrateThicknessMm: positiveNumber(search.get('substrateThicknessMm')),
+  };
+}
+
+function withJob(search: URLSearchParams, job: RunSheetJobParams): URLSearchParams {
+  const next = new URLSearchParams(search);
+  for (const key of JOB_KEYS) {
+    const value = job[key];
+    if (value === null || value === '') next.delete(key);
+    else next.set(key, String(value));
+  }
+  return next;
 }
 
 export function RunSheetRoute() {
@@ -37,8 +66,11 @@ export function RunSheetRoute() {
     chamber && askedWavelength !== null && chamber.monitorWavelengthsNm.includes(askedWavelength)
       ? askedWavelength
       : (chamber?.monitorWavelengthsNm[0] ?? null);
+  const job = jobFromSearch(search);
   const sheetParams: RunSheetParams | null =
-    valid && chamber && recipe.data ? { designId, number, chamberId: chamber.id, monitorWavelengthNm } : null;
+    valid && chamber && recipe.data
+      ? { designId, number, chamberId: chamber.id, monitorWavelengthNm, job }
+      : null;
   const sheet = useRunSheet(sheetParams);
 
   if (!valid) return <NotFoundRoute />;
@@ -90,13 +122,23 @@ export function RunSheetRoute() {
           chamberId={chamber?.id ?? null}
           monitorWavelengthNm={monitorWavelengthNm}
           onChange={(choice) => {
-            const next = new URLSearchParams();
+            const next = new URLSearchParams(search);
+            next.delete('chamberId');
+            next.delete('monitorWavelengthNm');
             if (choice.chamberId !== null) next.set('chamberId', String(choice.chamberId));
             if (choice.monitorWavelengthNm !== null)
               next.set('monitorWavelengthNm', String(choice.monitorWavelengthNm));
             setSearch(next, { replace: true });
           }}
         />
+        {chamber && (
+          <RunSheetJobFields
+            job={job}
+            designSides={sheet.data?.job.sides ?? null}
+            designThicknessMm={sheet.data?.substrate.designThicknessMm ?? null}
+            onChange={(next) => setSearch(withJob(search, next), { replace: true })}
+          />
+        )}
         {!chamber && chambers.data.length > 0 && (
           <Alert severity="info" data-print="hide">
             Choose a chamber: the monitor thicknesses and times depend on its tooling factors and rates.

@@ -3,6 +3,7 @@ import Button from '@mui/material/Button';
 import { useState } from 'react';
 import { PageHeader } from '../../components/page-header';
 import { useSignedInUser } from '../../features/auth/signed-in-user';
+import { ShopSettingsPanel } from '../../features/shop-settings/components/shop-settings-panel';
 import { CreateUserDialog } from '../../features/users/components/create-user-dialog';
 import { UsersGrid } from '../../features/users/components/users-grid';
 
@@ -20,6 +21,7 @@ export function UsersRoute() {
           </Button>
         }
       />
+      <ShopSettingsPanel />
       <UsersGrid currentUserId={user.id} />
       <CreateUserDialog open={creating} onClose={() => setCreating(false)} />
     </>

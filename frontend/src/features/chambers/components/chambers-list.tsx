@@ -16,10 +16,12 @@ interface ChambersListProps {
   materials: readonly { id: number; name: string }[];
   /** Shows an Edit button per chamber; omitted for readers. */
   onEdit?: (chamber: ChamberView) => void;
+  /** Opens a chamber's process settings per material. */
+  onProcessSettings?: (chamber: ChamberView) => void;
 }
 
 /** Each chamber with its monitor and its tooling factor and rate per material. */
-export function ChambersList({ chambers, materials, onEdit }: ChambersListProps) {
+export function ChambersList({ chambers, materials, onEdit, onProcessSettings }: ChambersListProps) {
   const nameOf = (id: number) => materials.find((m) => m.id === id)?.name ?? `Material ${id}`;
   if (chambers.length === 0) {
     return (
@@ -42,6 +44,11 @@ export function ChambersList({ chambers, materials, onEdit }: ChambersListProps)
                 chip · updated {formatDateTime(c.updatedAt)}
               </Typography>
             </Box>
+            {onProcessSettings && (
+              <Button onClick={() => onProcessSettings(c)} aria-label={`Process settings of ${c.name}`}>
+                Process settings
+              </Button>
+            )}
             {onEdit && (
               <Button startIcon={<EditOutlined />} onClick={() => onEdit(c)} aria-label={`Edit ${c.name}`}>
                 Edit

@@ -19,20 +19,35 @@ vi.mock('../../../components/plot', () => import('../../../test/plot-mock'));
  * QWOT = 4·n·d_monitor/λ, time = d_monitor ÷ rate. Invented chamber and customer.
  */
 const constant = (n: number) => ({ model: 'constant' as const, n, k: 0 });
+const BUILT = buildRunSheet({
+  layers: [
+    { material: 'L', model: constant(1.5), thicknessNm: 120 },
+    { material: 'H', model: constant(2.0), thicknessNm: 60 },
+    { material: 'L', model: constant(1.5), thicknessNm: 30 },
+    { material: 'H', model: constant(2.0), thicknessNm: 15 },
+  ],
+  monitorChip: constant(1.52),
+  chamber: {
+    monitorWavelengthNm: 600,
+    materials: { L: { toolingFactor: 1.2, rateNmPerS: 0.5 }, H: { toolingFactor: 0.75, rateNmPerS: 0.25 } },
+  },
+});
+/** Process settings kept for H only (invented test values). */
+const H_PROCESS = {
+  materialId: 12,
+  substrateTemperatureC: 250,
+  basePressureMbar: 2e-5,
+  o2FlowSccm: 12,
+  o2PartialPressureMbar: null,
+  arFlowSccm: null,
+  ionVoltageV: 120,
+  ionCurrentA: 2.5,
+  ionGasFlowSccm: 8,
+  notes: '',
+};
 const SHEET: RunSheetView = {
-  ...buildRunSheet({
-    layers: [
-      { material: 'L', model: constant(1.5), thicknessNm: 120 },
-      { material: 'H', model: constant(2.0), thicknessNm: 60 },
-      { material: 'L', model: constant(1.5), thicknessNm: 30 },
-      { material: 'H', model: constant(2.0), thicknessNm: 15 },
-    ],
-    monitorChip: constant(1.52),
-    chamber: {
-      monitorWavelengthNm: 600,
-      materials: { L: { toolingFactor: 1.2, rateNmPerS: 0.5 }, H: { toolingFactor: 0.75, rateNmPerS: 0.25 } },
-    },
-  }),
+  ...BUILT,
+  layers: BUILT.layers.map((l) => ({ ...l, process: l.material === 'H' ? H_PROCESS : null })),
   recipe: { designId: 30, number: 1, name: 'Sheet check', customer: 'Fenwick Optics Lab' },
   chamber: { id: 4, name: 'Test bell jar' },
   calibration: {
@@ -46,6 +61,9 @@ const SHEET: RunSheetView = {
       },
     ],
   },
+  shop: { name: 'Fenwick Coating Shop', hasLogo: false },
+  substrate: { material: 'N-BK7', thicknessMm: 2, designThicknessMm: 2 },
+  job: { part: '', quantity: null, sides: 'front' },
 };
 
 const CHAMBERS = [
@@ -177,5 +195,78 @@ describe('RunSheetRoute', () => {
     expect(
       api.calls('GET', '/api/recipes/30/1/run-sheet?chamberId=4&monitorWavelengthNm=632.8'),
     ).toHaveLength(1);
+  });
+
+  it('names the job, labels the monitor QWOT, prints process settings and has room to write and sign', async () => {
+    const withJob: RunSheetView = {
+      ...SHEET,
+      substrate: { material: 'N-BK7', thicknessMm: 2.2, designThicknessMm: 2 },
+      job: { part: 'FW-7 window', quantity: 24, sides: 'front' },
+    };
+    const api = mockApi({
+      'GET /api/recipes/30/1': { status: 200, body: RECIPE },
+      'GET /api/chambers': { status: 200, body: CHAMBERS },
+      'GET /api/recipes/30/1/run-sheet?chamberId=4&monitorWavelengthNm=600': { status: 200, body: SHEET },
+      'GET /api/recipes/30/1/run-sheet?chamberId=4&monitorWavelengthNm=600&part=FW-7+window': {
+        status: 200,
+        body: { ...withJob, job: { ...withJob.job, quantity: null }, substrate: SHEET.substrate },
+      },
+      // Leaving the quantity field applies it before the thickness is typed.
+      'GET /api/recipes/30/1/run-sheet?chamberId=4&monitorWavelengthNm=600&part=FW-7+window&quantity=24': {
+        status: 200,
+        body: { ...withJob, substrate: SHEET.substrate },
+      },
+      'GET /api/recipes/30/1/run-sheet?chamberId=4&monitorWavelengthNm=600&part=FW-7+window&quantity=24&substrateThicknessMm=2.2':
+        { status: 200, body: withJob },
+    });
+    const { user, router } = renderRoute('/recipes/30/1?chamberId=4');
+    const table = await screen.findByRole('table', { name: 'Run sheet layers' });
+    const headers = within(table)
+      .getAllByRole('columnheader')
+      .map((h) => h.textContent);
+    expect(headers).toContain('Monitor QWOT at 600 nm');
+    expect(headers.slice(-4)).toEqual([
+      'Process settings',
+      'Actual end thickness (nm)',
+      'Actual rate (nm/s)',
+      'Remarks',
+    ]);
+    // Step 1 is H (process kept), step 2 is L (none kept).
+    const step1 = within(table).getAllByRole('row')[1];
+    expect(step1.textContent).toContain('Base pressure ≤ 2.0 × 10⁻⁵ mbar');
+    expect(step1.textContent).toContain('Ion assist 120 V, 2.5 A, gas 8 sccm');
+    expect(within(table).getAllByRole('row')[2].textContent).toContain('None kept for this material');
+    expect(within(table).getByLabelText('Actual end thickness, step 1').textContent).toBe('');
+    const signOff = screen.getByRole('region', { name: 'Sign-off' });
+    expect(within(signOff).getByRole('group', { name: 'Run by (operator)' })).toBeTruthy();
+    expect(within(signOff).getByRole('group', { name: 'Checked by' })).toBeTruthy();
+    expect(screen.getByRole('banner', { name: 'Run sheet header' }).textContent).toContain(
+      'Fenwick Coating Shop',
+    );
+
+    // A quantity that is not a whole number is refused before anything is asked of the API.
+    await user.type(screen.getByLabelText('Part'), 'FW-7 window');
+    await user.tab();
+    await screen.findByText('FW-7 window');
+    await user.type(screen.getByLabelText('Quantity'), '2.5');
+    await user.tab();
+    expect(screen.getByText('A whole number of parts')).toBeTruthy();
+    await user.clear(screen.getByLabelText('Quantity'));
+    await user.type(screen.getByLabelText('Quantity'), '24');
+    await user.type(screen.getByLabelText('Substrate thickness (mm)'), '2.2{Enter}');
+    await screen.findByText('24 pcs');
+    expect(screen.getByText('N-BK7, 2.2 mm (design: 2 mm) thick')).toBeTruthy();
+    expect(router.state.location.search).toBe(
+      '?chamberId=4&part=FW-7+window&quantity=24&substrateThicknessMm=2.2',
+    );
+    expect(screen.getByRole('link', { name: 'Download PDF' }).getAttribute('href')).toBe(
+      '/api/recipes/30/1/run-sheet.pdf?chamberId=4&monitorWavelengthNm=600&part=FW-7+window&quantity=24&substrateThicknessMm=2.2',
+    );
+    // "Both surfaces" is not this design's choice.
+    const both = within(screen.getByLabelText('Sides to coat')).getByRole('option', {
+      name: /Both surfaces/,
+    }) as HTMLOptionElement;
+    expect(both.disabled).toBe(true);
+    expect(api.unexpected, api.unexpected.join()).toEqual([]);
   });
 });

@@ -1,5 +1,5 @@
 import { keepPreviousData, queryOptions, useQuery } from '@tanstack/react-query';
-import type { RunSheetView } from '@quietglass/shared';
+import type { RunSheetSides, RunSheetView } from '@quietglass/shared';
 import { apiClient, apiUrl } from '../../../lib/api-client';
 
 export type { RunSheetView } from '@quietglass/shared';
@@ -10,11 +10,31 @@ export interface RunSheetParams {
   chamberId: number;
   /** One of the chamber's monitor wavelengths; the chamber's first when null. */
   monitorWavelengthNm: number | null;
+  /** What the run coats; left out when null (the API then prints blanks and the design's substrate). */
+  job?: RunSheetJobParams;
 }
 
-function query({ chamberId, monitorWavelengthNm }: RunSheetParams): string {
+export interface RunSheetJobParams {
+  part: string | null;
+  quantity: number | null;
+  sides: RunSheetSides | null;
+  substrateThicknessMm: number | null;
+}
+
+export const NO_JOB: RunSheetJobParams = {
+  part: null,
+  quantity: null,
+  sides: null,
+  substrateThicknessMm: null,
+};
+
+function query({ chamberId, monitorWavelengthNm, job = NO_JOB }: RunSheetParams): string {
   const params = new URLSearchParams({ chamberId: String(chamberId) });
   if (monitorWavelengthNm !== null) params.set('monitorWavelengthNm', String(monitorWavelengthNm));
+  if (job.part) params.set('part', job.part);
+  if (job.quantity !== null) params.set('quantity', String(job.quantity));
+  if (job.sides !== null) params.set('sides', job.sides);
+  if (job.substrateThicknessMm !== null) params.set('substrateThicknessMm', String(job.substrateThicknessMm));
   return params.toString();
 }
 
@@ -39,6 +59,7 @@ export function getRunSheetQueryOptions(params: RunSheetParams) {
       params.number,
       params.chamberId,
       params.monitorWavelengthNm,
+      params.job ?? NO_JOB,
     ] as const,
     queryFn: ({ signal }) => getRunSheet(params, signal),
   });

@@ -1,7 +1,13 @@
 import type { RunSheetLayer } from '@quietglass/shared';
 import { useMemo } from 'react';
 import { Plot, PLOT_COLOURS, type PlotData } from '../../../components/plot';
-import { monitorPlotData } from '../run-sheet-plot-data';
+import { monitorPlotData } from '@quietglass/shared';
+
+/**
+ * Width of the chart on paper, CSS px: A4 landscape with 10 mm margins leaves 277 mm ≈ 1047 px,
+ * less the section's padding and border.
+ */
+export const MONITOR_PRINT_WIDTH_PX = 960;
 
 interface MonitorSignalPlotProps {
   layers: readonly RunSheetLayer[];
@@ -52,6 +58,7 @@ export function MonitorSignalPlot({ layers, monitorWavelengthNm }: MonitorSignal
       data={data}
       height={340}
       pngFileName="monitor-signal"
+      printWidthPx={MONITOR_PRINT_WIDTH_PX}
       layout={{
         xaxis: { title: { text: 'Thickness deposited on the monitor (nm)' } },
         yaxis: { title: { text: `Transmittance at ${monitorWavelengthNm} nm (%)` } },

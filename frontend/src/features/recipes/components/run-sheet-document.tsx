@@ -10,6 +10,8 @@ import TableHead from '@mui/material/TableHead';
 import TableRow from '@mui/material/TableRow';
 import Typography from '@mui/material/Typography';
 import { runSheetCalibrationLine } from '@quietglass/shared';
+import { processLines, SIDES_LABELS } from '@quietglass/shared';
+import { apiUrl } from '../../../lib/api-client';
 import { formatFixed } from '../../../lib/format';
 import type { RunSheetView } from '../api/get-run-sheet';
 import { formatDuration } from '../run-sheet-format';
@@ -24,10 +26,81 @@ interface RunSheetDocumentProps {
  * in deposition order with part and monitor thicknesses, QWOT, rate and time, the totals, and the
  * monitor signal to expect.
  */
+/** Label of the QWOT column: the monitor's QWOT, at the monitor wavelength. */
+export function qwotLabel(monitorWavelengthNm: number): string {
+  return `Monitor QWOT at ${monitorWavelengthNm} nm`;
+}
+
+const WRITE_IN = { minWidth: 72, borderLeft: 1, borderColor: 'divider', height: 44 } as const;
+
 export function RunSheetDocument({ sheet }: RunSheetDocumentProps) {
   const lambda = sheet.monitorWavelengthNm;
+  const { substrate, job } = sheet;
+  const thickness =
+    substrate.thicknessMm === substrate.designThicknessMm
+      ? `${substrate.thicknessMm} mm`
+      : `${substrate.thicknessMm} mm (design: ${substrate.designThicknessMm} mm)`;
+  const fields: [string, string][] = [
+    ['Customer', sheet.recipe.customer],
+    ['Recipe', `${sheet.recipe.name}, version ${sheet.recipe.number} (released)`],
+    ['Part', job.part || '—'],
+    ['Quantity', job.quantity === null ? '—' : `${job.quantity} pcs`],
+    ['Substrate', `${substrate.material}, ${thickness} thick`],
+    ['Sides to coat', SIDES_LABELS[job.sides]],
+    ['Chamber', sheet.chamber.name],
+    ['Monitor', `λ = ${lambda} nm, transmittance through the monitor chip`],
+  ];
   return (
     <Box sx={{ display: 'grid', gap: 2 }}>
+      <Box
+        component="header"
+        aria-label="Run sheet header"
+        sx={{
+          display: 'flex',
+          alignItems: 'center',
+          gap: 2,
+          borderBottom: 1,
+          borderColor: 'text.primary',
+          pb: 1,
+        }}
+      >
+        {sheet.shop.hasLogo && (
+          <Box
+            component="img"
+            src={apiUrl('/shop-settings/logo')}
+            alt={`${sheet.shop.name} logo`}
+            sx={{ maxHeight: 48, maxWidth: 160, objectFit: 'contain' }}
+          />
+        )}
+        <Box sx={{ flexGrow: 1 }}>
+          <Typography variant="h2" component="p">
+            Run sheet
+          </Typography>
+          <Typography variant="body2" color="text.secondary">
+            {sheet.shop.name}
+          </Typography>
+        </Box>
+      </Box>
+      <Box
+        component="dl"
+        aria-label="Job"
+        sx={{
+          display: 'grid',
+          gridTemplateColumns: { xs: 'max-content 1fr', md: 'max-content 1fr max-content 1fr' },
+          columnGap: 2,
+          rowGap: 0.5,
+          m: 0,
+          '& dt': { fontWeight: 600, color: 'text.secondary' },
+          '& dd': { m: 0 },
+        }}
+      >
+        {fields.map(([label, value]) => (
+          <Box key={label} sx={{ display: 'contents' }}>
+            <dt>{label}</dt>
+            <dd>{value}</dd>
+          </Box>
+        ))}
+      </Box>
       <Alert
         severity="warning"
         role="region"
@@ -64,10 +137,14 @@ export function RunSheetDocument({ sheet }: RunSheetDocumentProps) {
               <TableCell align="right">On the part (nm)</TableCell>
               <TableCell align="right">Tooling factor</TableCell>
               <TableCell align="right">Set on the monitor (nm)</TableCell>
-              <TableCell align="right">QWOT at {lambda} nm</TableCell>
+              <TableCell align="right">{qwotLabel(lambda)}</TableCell>
               <TableCell align="right">Rate (nm/s)</TableCell>
               <TableCell align="right">Time (s)</TableCell>
-              <TableCell>Turning points (nm into the layer)</TableCell>
+              <TableCell>Turning points (monitor nm into the layer)</TableCell>
+              <TableCell>Process settings</TableCell>
+              <TableCell>Actual end thickness (nm)</TableCell>
+              <TableCell>Actual rate (nm/s)</TableCell>
+              <TableCell sx={{ minWidth: 120 }}>Remarks</TableCell>
             </TableRow>
           </TableHead>
           <TableBody>
@@ -87,6 +164,14 @@ export function RunSheetDocument({ sheet }: RunSheetDocumentProps) {
                     ? '—'
                     : l.turningPointsNm.map((t) => t.toFixed(1)).join(', ')}
                 </TableCell>
+                <TableCell sx={{ whiteSpace: 'pre-line', fontSize: '0.8em', minWidth: 180 }}>
+                  {l.process
+                    ? processLines(l.process).join('\n')
+                    : 'None kept for this material on this chamber'}
+                </TableCell>
+                <TableCell sx={WRITE_IN} aria-label={`Actual end thickness, step ${l.step}`} />
+                <TableCell sx={WRITE_IN} aria-label={`Actual rate, step ${l.step}`} />
+                <TableCell sx={WRITE_IN} aria-label={`Remarks, step ${l.step}`} />
               </TableRow>
             ))}
           </TableBody>
@@ -101,7 +186,7 @@ export function RunSheetDocument({ sheet }: RunSheetDocumentProps) {
               <TableCell />
               <TableCell />
               <TableCell align="right">{formatFixed(sheet.totals.timeS, 1)}</TableCell>
-              <TableCell />
+              <TableCell colSpan={5} />
             </TableRow>
           </TableFooter>
         </Table>
@@ -124,6 +209,31 @@ export function RunSheetDocument({ sheet }: RunSheetDocumentProps) {
           points, ticks the thickness at which each layer stops.
         </Typography>
         <MonitorSignalPlot layers={sheet.layers} monitorWavelengthNm={lambda} />
+      </Paper>
+      <Paper
+        variant="outlined"
+        sx={{ p: 2, '@media print': { breakInside: 'avoid' } }}
+        component="section"
+        aria-label="Sign-off"
+      >
+        <Typography variant="h2" component="h2" gutterBottom>
+          Sign-off
+        </Typography>
+        <Box sx={{ display: 'grid', gridTemplateColumns: { xs: '1fr', md: '1fr 1fr' }, gap: 4 }}>
+          {['Run by (operator)', 'Checked by'].map((who) => (
+            <Box key={who} role="group" aria-label={who}>
+              <Typography variant="subtitle2">{who}</Typography>
+              {['Name', 'Signature', 'Date and time'].map((field) => (
+                <Box key={field} sx={{ display: 'flex', alignItems: 'flex-end', gap: 1, mt: 2 }}>
+                  <Typography variant="body2" color="text.secondary" sx={{ width: 110 }}>
+                    {field}
+                  </Typography>
+                  <Box sx={{ flexGrow: 1, borderBottom: 1, borderColor: 'text.primary', height: 20 }} />
+                </Box>
+              ))}
+            </Box>
+          ))}
+        </Box>
       </Paper>
     </Box>
   );

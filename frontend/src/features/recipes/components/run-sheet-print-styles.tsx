@@ -16,7 +16,9 @@ export function RunSheetPrintStyles() {
           'main > .MuiToolbar-root': { display: 'none !important' },
           main: { padding: '0 !important' },
           body: { background: '#fff' },
-          '@page': { size: 'A4', margin: '12mm' },
+          // Landscape like the PDF: the layer table has columns to write the actual values in.
+          '@page': { size: 'A4 landscape', margin: '10mm' },
+          '.js-plotly-plot .modebar': { display: 'none !important' },
         },
       }}
     />

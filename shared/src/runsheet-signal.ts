@@ -1,4 +1,8 @@
-import type { RunSheetLayer } from '@quietglass/shared';
+/*
+ * The expected optical-monitor signal of a whole run on one axis, for the run sheet's chart on the
+ * page and in the PDF.
+ */
+import type { RunSheetLayer } from './runsheet.js';
 
 export interface MonitorTrace {
   name: string;
@@ -30,8 +34,8 @@ function valueAt(x: readonly number[], y: readonly number[], at: number): number
 }
 
 /**
- * The monitor signal of a whole run on one axis: each layer's curve shifted by the monitor
- * thickness deposited before it, with its turning points and the point where the layer stops.
+ * Each layer's monitor curve shifted by the monitor thickness deposited before it, with its turning
+ * points and the point where the layer stops.
  */
 export function monitorPlotData(layers: readonly RunSheetLayer[]): {
   traces: MonitorTrace[];
