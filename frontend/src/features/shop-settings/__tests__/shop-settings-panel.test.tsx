@@ -1,4 +1,4 @@
-import { render, screen, within } from '@testing-library/react';
+import { render, screen, waitFor, within } from '@testing-library/react';
 import userEvent from '@testing-library/user-event';
 import { describe, expect, it } from 'vitest';
 import { AppProviders } from '../../../app/providers';
@@ -27,7 +27,8 @@ describe('ShopSettingsPanel', () => {
     const user = renderPanel();
     const panel = within(await screen.findByRole('region', { name: 'Shop settings' }));
     const name = (await panel.findByLabelText('Shop name')) as HTMLInputElement;
-    expect(name.value).toBe('Larkspur Thin Film Works');
+    // The field fills once the settings have loaded.
+    await waitFor(() => expect(name.value).toBe('Larkspur Thin Film Works'));
     await user.clear(name);
     await user.click(panel.getByRole('button', { name: 'Save name' }));
     expect(await panel.findByText('The shop needs a name')).toBeTruthy();
