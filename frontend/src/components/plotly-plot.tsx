@@ -3,19 +3,9 @@ import Button from '@mui/material/Button';
 import Plotly, { type Config } from 'plotly.js-dist-min';
 import createPlotlyComponent from 'react-plotly.js/factory';
 import { useEffect, useMemo, useRef } from 'react';
+import { downloadText } from '../lib/download';
 import { plotCsv, styleSeries, withAxisDefaults } from '../lib/plot-style';
 import { PLOT_COLOURS, type PlotLayout, type PlotProps } from './plot';
-
-function download(text: string, fileName: string) {
-  const url = URL.createObjectURL(new Blob([text], { type: 'text/csv;charset=utf-8' }));
-  const a = document.createElement('a');
-  a.href = url;
-  a.download = fileName;
-  document.body.appendChild(a);
-  a.click();
-  a.remove();
-  URL.revokeObjectURL(url);
-}
 
 const PlotlyChart = createPlotlyComponent(Plotly);
 
@@ -104,7 +94,12 @@ export default function PlotlyPlot({
           >
             Download PNG
           </Button>
-          <Button size="small" onClick={() => download(plotCsv(data, fullLayout), `${pngFileName}.csv`)}>
+          <Button
+            size="small"
+            onClick={() =>
+              downloadText(plotCsv(data, fullLayout), `${pngFileName}.csv`, 'text/csv;charset=utf-8')
+            }
+          >
             Download CSV
           </Button>
         </Box>

@@ -12,6 +12,7 @@ import {
   type NamedModel,
 } from '@quietglass/shared';
 import { ErrorAlert } from '../../../components/error-alert';
+import { downloadText } from '../../../lib/download';
 import { notify } from '../../../lib/notifier';
 import { useCreateDesignVersion } from '../api/create-design-version';
 import type { LibraryMaterial } from '../layers';
@@ -58,15 +59,11 @@ export function StackFileActions({
       name: `${designName} version ${version.number}`,
       description: `Exported from Quietglass on ${new Date().toISOString().slice(0, 10)}; status ${version.status}.`,
     });
-    const blob = new Blob([`${JSON.stringify(file, null, 2)}\n`], { type: 'application/json' });
-    const url = URL.createObjectURL(blob);
-    const a = document.createElement('a');
-    a.href = url;
-    a.download = `${fileStem(designName)}-v${version.number}.stack.json`;
-    document.body.appendChild(a);
-    a.click();
-    a.remove();
-    URL.revokeObjectURL(url);
+    downloadText(
+      `${JSON.stringify(file, null, 2)}\n`,
+      `${fileStem(designName)}-v${version.number}.stack.json`,
+      'application/json',
+    );
   };
 
   const importFile = async (file: File) => {
