@@ -276,6 +276,29 @@ describe('DesignWorkspace', () => {
     expect((api.calls('PUT', VERSION_URL)[0].body as { rowVersion: number }).rowVersion).toBe(1);
   });
 
+  it('exports a stack file only of the saved version, never of unsaved grid edits', async () => {
+    mockWorkspaceApi({
+      [`GET ${VERSION_URL}`]: { status: 200, body: testVersion({ layers: [layer(4, 90)] }) },
+      [`PUT ${VERSION_URL}`]: (request) => ({
+        status: 200,
+        body: { ...testVersion(), ...(request.body as object), rowVersion: 2 },
+      }),
+      'GET /api/designs/12': { status: 200, body: TEST_DESIGN },
+      'GET /api/designs': { status: 200, body: [] },
+    });
+    const { user } = renderWorkspace();
+    await screen.findByRole('grid', { name: 'Layer grid' });
+    const exportButton = () => screen.getByRole('button', { name: 'Export stack file' }) as HTMLButtonElement;
+    await waitFor(() => expect(exportButton().disabled).toBe(false));
+
+    await setThickness(user, 0, '99.64');
+    expect(exportButton().disabled).toBe(true);
+    expect(exportButton().title).toBe('Save your changes first: the file is exported as version 1 as saved');
+
+    await user.click(saveButton());
+    await waitFor(() => expect(exportButton().disabled).toBe(false));
+  });
+
   it('asks before leaving the page with unsaved grid edits, and stays or leaves as chosen', async () => {
     mockWorkspaceApi({
       [`GET ${VERSION_URL}`]: { status: 200, body: testVersion({ layers: [layer(4, 90)] }) },

@@ -22,6 +22,11 @@ interface StackFileActionsProps {
   version: DesignVersionView;
   /** The grid's content as it stands (null while it has problems). */
   content: DesignVersionContent | null;
+  /**
+   * The grid differs from the saved version: the file would carry content under a version number
+   * it was never saved as, so export waits for a save.
+   */
+  unsaved: boolean;
   /** Models the version computes with, by material id. */
   models: ReadonlyMap<number, NamedModel>;
   /** The library a file's materials are matched against by name. */
@@ -44,6 +49,7 @@ export function StackFileActions({
   designName,
   version,
   content,
+  unsaved,
   models,
   library,
   canImport,
@@ -54,7 +60,7 @@ export function StackFileActions({
   const create = useCreateDesignVersion();
 
   const exportFile = () => {
-    if (!content) return;
+    if (!content || unsaved) return;
     const file = designStackFile(content, models, {
       name: `${designName} version ${version.number}`,
       description: `Exported from Quietglass on ${new Date().toISOString().slice(0, 10)}; status ${version.status}.`,
@@ -114,8 +120,12 @@ export function StackFileActions({
         <Button
           size="small"
           onClick={exportFile}
-          disabled={!content}
-          title="Download this version as a stack file for npm run calc"
+          disabled={!content || unsaved}
+          title={
+            unsaved
+              ? `Save your changes first: the file is exported as version ${version.number} as saved`
+              : 'Download this version as a stack file for npm run calc'
+          }
         >
           Export stack file
         </Button>

@@ -406,6 +406,7 @@ export function VersionEditor({
             designName={designName}
             version={baseline}
             content={content}
+            unsaved={dirty}
             models={models}
             library={library}
             canImport={canEdit}
