@@ -59,13 +59,23 @@ export interface LayerDeviation {
   factor: number;
   deviationPercent: number;
   /**
-   * Standard uncertainty of `factor` from the fit (s²·(JᵀJ)⁻¹ at the solution); null where it
-   * cannot be estimated; absent in diagnoses made before uncertainties were kept.
+   * Standard uncertainty of `factor`: the fit's (s²·(JᵀJ)⁻¹ at the solution) widened by the
+   * unresolved spread of the unidentified layers it is correlated with (optimise/diagnosis.ts);
+   * null where it cannot be estimated; absent in diagnoses made before uncertainties were kept
+   * (and the fit's alone in those made before the widening).
    */
   factorSigma?: number | null;
+  /** The fit's own linearised σ of `factor`, before the widening (absent in older diagnoses). */
+  fitFactorSigma?: number | null;
+  /**
+   * The unidentified layer (1 = outermost) whose trade-off with this one widens its σ most, with
+   * their correlation; null when none does (absent in older diagnoses).
+   */
+  correlatedWith?: { layer: number; correlation: number } | null;
   /**
    * Whether the spectrum identifies this layer: false for a layer on its factor bound or with a
-   * factor σ above IDENTIFIABLE_MAX_FACTOR_SIGMA (typically a very thin layer).
+   * factor σ (widened) above IDENTIFIABLE_MAX_FACTOR_SIGMA (a very thin layer, or one that trades
+   * thickness with an unidentified neighbour).
    */
   identified?: boolean;
 }

@@ -55,9 +55,10 @@ export const DEFAULT_CALIBRATION_SETTINGS: CalibrationSettings = {
 
 /**
  * A layer whose fitted thickness factor has a standard uncertainty above this is not identified
- * by its run's spectrum (a very thin layer, or one with little index contrast to its neighbours,
- * e.g. SiO2 on glass) and is left out: a factor known only to ±1 % cannot support a correction of
- * the usual 1 % threshold (common practice, no source).
+ * by its run's spectrum (a very thin layer, one with little index contrast to its neighbours,
+ * e.g. SiO2 on glass, or one that trades thickness with such a layer — its σ widened as
+ * optimise/diagnosis.ts explains) and is left out: a factor known only to ±1 % cannot support a
+ * correction of the usual 1 % threshold (common practice, no source).
  */
 export const IDENTIFIABLE_MAX_FACTOR_SIGMA = 0.01;
 
@@ -289,10 +290,20 @@ export interface CalibrationLayerPoint {
   step: number;
   designNm: number;
   fittedNm: number;
-  /** fitted ÷ design, with its standard uncertainty from the fit (null: not estimated). */
+  /**
+   * fitted ÷ design, with its standard uncertainty (null: not estimated): the fit's own, widened
+   * by the unidentified layers it trades thickness with (Run diagnosis).
+   */
   factor: number;
   factorSigma: number | null;
-  /** False: too thin (or too correlated) to be identified by the spectrum; left out. */
+  /** The fit's own σ before the widening (null: not estimated or not kept by the diagnosis). */
+  fitFactorSigma: number | null;
+  /**
+   * The unidentified layer (design layer, 1 = outermost) whose trade-off with this one widens its
+   * σ most, with their correlation; null: none.
+   */
+  correlatedWith: { layer: number; correlation: number } | null;
+  /** False: too thin, or too correlated with an unidentified layer, to be identified; left out. */
   identified: boolean;
   /** What the operator entered for the step. */
   monitorThicknessNm: number | null;

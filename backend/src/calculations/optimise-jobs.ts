@@ -6,9 +6,8 @@
 import { maskSamples, type JobSize } from '@quietglass/shared/budgets';
 import type { DiagnosisResult } from '@quietglass/shared/calculations';
 import { growLayers, type AllowedMaterial, type GrowResult } from '@quietglass/shared/optimise/needle';
-import { IDENTIFIABLE_MAX_FACTOR_SIGMA } from '@quietglass/shared/calibration';
 import { fitToMask, type FitResult } from '@quietglass/shared/optimise/fit';
-import { fitUncertainty } from '@quietglass/shared/optimise/fit-uncertainty';
+import { diagnoseRun } from '@quietglass/shared/optimise/diagnosis';
 import type { YieldOptions } from '@quietglass/shared/optimise/yield';
 import type { LimitBand } from '@quietglass/shared/optics/mask';
 import { parseStack, type StackDescription } from '@quietglass/shared/optics/stack';
@@ -123,17 +122,10 @@ export function runOptimiseJob(
     });
   }
   // Run diagnosis: the thicknesses that reproduce the measured spectrum, each within its factor range.
-  const design = stack.layers.map((l) => l.thicknessNm);
-  const [lo, hi] = input.factorRange;
-  const minNm = design.map((d) => Math.max(0.5, d * lo));
-  const maxNm = design.map((d) => d * hi);
-  const targets = [{ ...input.measured, polarisation: 'avg' as const }];
-  const fit = fitToMask(stack, mask, {
+  return diagnoseRun(stack, mask, input.measured, input.layerMaterialIds, {
     back: input.back,
-    minThicknessNm: minNm,
-    maxThicknessNm: maxNm,
+    factorRange: input.factorRange,
     maxIterations: DIAGNOSIS_ITERATIONS,
-    targets,
     onIteration: (it) =>
       report({
         type: 'progress',
@@ -142,30 +134,6 @@ export function runOptimiseJob(
         iteration: it.iteration,
       }),
   });
-  // How well the spectrum pins each layer: its σ from the fit, and whether it sits on a bound.
-  const samples = input.measured.wavelengthsNm.length;
-  const sigmaNm =
-    samples > design.length
-      ? fitUncertainty(stack, mask, { back: input.back, targets }, fit.thicknessesNm, samples).sigmaNm
-      : design.map(() => null);
-  const layers = design
-    .map((d, i) => {
-      const fitted = fit.thicknessesNm[i];
-      const factorSigma = sigmaNm[i] === null ? null : sigmaNm[i] / d;
-      const onBound = fitted <= minNm[i] * (1 + 1e-9) || fitted >= maxNm[i] * (1 - 1e-9);
-      return {
-        layer: i + 1,
-        materialId: input.layerMaterialIds[i],
-        designNm: d,
-        fittedNm: fitted,
-        factor: fitted / d,
-        deviationPercent: (fitted / d - 1) * 100,
-        factorSigma,
-        identified: !onBound && factorSigma !== null && factorSigma <= IDENTIFIABLE_MAX_FACTOR_SIGMA,
-      };
-    })
-    .sort((a, b) => Math.abs(b.deviationPercent) - Math.abs(a.deviationPercent));
-  return { fit, layers, residualRmsPercent: fit.merit.after };
 }
 
 /** The size of an optimisation job for its work budget (shared/budgets). */

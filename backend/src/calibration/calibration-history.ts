@@ -90,6 +90,8 @@ export function materialSeries(
           fittedNm: l.fittedNm,
           factor: l.factor,
           factorSigma: l.factorSigma ?? null,
+          fitFactorSigma: l.fitFactorSigma ?? l.factorSigma ?? null,
+          correlatedWith: l.correlatedWith ?? null,
           identified: ok,
           monitorThicknessNm: monitor,
           rateNmPerS: reading?.rateNmPerS ?? null,

@@ -4,7 +4,9 @@
  * layers (W. H. Press et al., Numerical Recipes, 3rd ed., §15.5 "Nonlinear Models", eq. 15.5.15
  * with the unknown measurement σ replaced by the residual estimate, §15.1). A layer whose
  * thickness the spectrum hardly constrains (a very thin layer, or one that trades off exactly
- * against a neighbour) gets a large σ; a singular JᵀJ gives no uncertainty at all (null).
+ * against a neighbour) gets a large σ; a singular JᵀJ gives no uncertainty at all (null). The
+ * correlation of two layers' thicknesses, ρ_jk = C_jk/√(C_jj·C_kk), shows the pairs the spectrum
+ * cannot tell apart (one thicker, the other thinner, the same spectrum).
  */
 import { OpticsInputError } from '../optics/errors.js';
 import type { SpecMask } from '../optics/mask.js';
@@ -17,6 +19,11 @@ const FD_STEP_NM = 1e-3;
 export interface ThicknessUncertainty {
   /** Standard uncertainty of each front layer's thickness, nm; null where it cannot be estimated. */
   sigmaNm: (number | null)[];
+  /**
+   * Correlation of the fitted thicknesses, p×p row by row (ρ_jj = 1); null where JᵀJ is singular
+   * or a variance is not positive.
+   */
+  correlation: (number | null)[][];
   /** s = √(Σr²/(n − p)), the residual scale (percentage points × sample weight). */
   residualScale: number;
   /** n − p. */
@@ -95,7 +102,14 @@ export function thicknessUncertainty(
     const v = inverse[j * p + j] * s2;
     return v >= 0 && Number.isFinite(v) ? Math.sqrt(v) : null;
   });
-  return { sigmaNm, residualScale: Math.sqrt(s2), degreesOfFreedom: dof };
+  const correlation = Array.from({ length: p }, (_, j) =>
+    Array.from({ length: p }, (_, k) => {
+      if (!inverse || sigmaNm[j] === null || sigmaNm[k] === null) return null;
+      const rho = inverse[j * p + k] / Math.sqrt(inverse[j * p + j] * inverse[k * p + k]);
+      return Number.isFinite(rho) ? Math.max(-1, Math.min(1, rho)) : null;
+    }),
+  );
+  return { sigmaNm, correlation, residualScale: Math.sqrt(s2), degreesOfFreedom: dof };
 }
 
 /**

@@ -19,6 +19,8 @@ const layer = (factor: number, identified: boolean, designNm: number) => ({
   fittedNm: designNm * factor,
   factor,
   factorSigma: identified ? 0.002 : 0.08,
+  fitFactorSigma: identified ? 0.002 : 0.08,
+  correlatedWith: null,
   identified,
   monitorThicknessNm: null,
   rateNmPerS: 0.41,

@@ -12,6 +12,7 @@ import TableRow from '@mui/material/TableRow';
 import TextField from '@mui/material/TextField';
 import Typography from '@mui/material/Typography';
 import { useState } from 'react';
+import { IDENTIFIABLE_MAX_FACTOR_SIGMA } from '@quietglass/shared';
 import { ErrorAlert } from '../../../components/error-alert';
 import { LoadingBlock } from '../../../components/loading-block';
 import { formatDateTime } from '../../../lib/format';
@@ -161,6 +162,7 @@ export function CalibrationPanel({
                 chamberName={chamber.name}
                 thresholdPercent={view.settings.thresholdPercent}
               />
+              <RunHistoryTable series={shown} />
             </Box>
           ) : (
             <Typography variant="body2">No diagnosed runs on this chamber yet.</Typography>
@@ -253,7 +255,7 @@ function SummaryTable({
               <TableCell align="right">{s.estimate?.runs ?? 0}</TableCell>
               <TableCell
                 align="right"
-                title="Too thin or too weakly constrained by the spectrum to be identified"
+                title="Too thin, too weakly constrained by the spectrum, or trading thickness with such a layer"
               >
                 {left}
               </TableCell>
@@ -261,6 +263,45 @@ function SummaryTable({
             </TableRow>
           );
         })}
+      </TableBody>
+    </Table>
+  );
+}
+
+/** What one diagnosed layer contributed: its factor with σ, or why it was left out. */
+function layerStatus(l: CalibrationSeriesView['runs'][number]['layers'][number]): string {
+  const sigma = l.factorSigma === null ? '' : ` ± ${(l.factorSigma * 100).toFixed(2)} %`;
+  const value = `${signedPercent((l.factor - 1) * 100)}${sigma}`;
+  if (l.identified) return `layer ${l.layer}: ${value}`;
+  if (l.correlatedWith && l.fitFactorSigma !== null && l.fitFactorSigma <= IDENTIFIABLE_MAX_FACTOR_SIGMA)
+    return `layer ${l.layer}: ${value}, correlated with layer ${l.correlatedWith.layer} (ρ ${l.correlatedWith.correlation.toFixed(2)}), not used`;
+  return `layer ${l.layer}: ${value}, not identified, not used`;
+}
+
+function RunHistoryTable({ series }: { series: CalibrationSeriesView }) {
+  return (
+    <Table size="small" aria-label={`Run history ${series.materialName}`} sx={{ mt: 1 }}>
+      <TableHead>
+        <TableRow>
+          <TableCell>Run</TableCell>
+          <TableCell align="right">Tooling factor used</TableCell>
+          <TableCell align="right">Correction (±1σ)</TableCell>
+          <TableCell>Layers (fitted ÷ design)</TableCell>
+        </TableRow>
+      </TableHead>
+      <TableBody>
+        {series.runs.map((r) => (
+          <TableRow key={r.runId}>
+            <TableCell>{`${r.lotNumber} (${r.runDate})`}</TableCell>
+            <TableCell align="right">{r.toolingFactorInEffect}</TableCell>
+            <TableCell align="right">
+              {r.correction
+                ? `${signedPercent((r.correction.value - 1) * 100)} ± ${(r.correction.sigma * 100).toFixed(2)} %`
+                : 'no identified layer'}
+            </TableCell>
+            <TableCell>{r.layers.map(layerStatus).join('; ')}</TableCell>
+          </TableRow>
+        ))}
       </TableBody>
     </Table>
   );
