@@ -9,6 +9,8 @@ import { approvedDesign } from './support/approved.js';
 import { createTestApp, demoSession } from './support/app.js';
 import { customerId, materialIds } from './support/fixtures.js';
 import { startWorkerProcess, type WorkerProcess } from './support/worker-process.js';
+import { DEFAULT_TARGET_MARGIN_PERCENT } from '@quietglass/shared/optimise/fit';
+import { RESULT_FORECAST } from '@quietglass/shared/optimise/result-forecast';
 
 let app: NestExpressApplication;
 let mira: string;
@@ -109,8 +111,12 @@ describe('Fit to mask', () => {
     expect(done.summary.merit.after).toBeLessThan(done.summary.merit.before);
     expect(done.live.history.length).toBeGreaterThan(1);
     expect(done.live.history.at(-1).merit).toBeCloseTo(done.summary.merit.after, 6);
-    // No target margin asked: the engine's own small one, reported with the result.
-    expect(done.summary.targetMarginPercent).toBe(0.001);
+    // No target margin asked: the shop's default (the engine's until an admin sets one), reported
+    // with the result, and a yield forecast of the fitted stack beside it.
+    expect(done.summary.targetMarginPercent).toBe(DEFAULT_TARGET_MARGIN_PERCENT);
+    expect(done.summary.forecast).toMatchObject({ trials: RESULT_FORECAST.trials, relativePercent: 1 });
+    expect(done.summary.forecast.yieldFraction).toBeGreaterThanOrEqual(0);
+    expect(done.summary.forecast.yieldFraction).toBeLessThanOrEqual(1);
     for (const d of done.summary.thicknessesNm) expect(d).toBeGreaterThanOrEqual(10 - 1e-9);
     const again = await http()
       .post(`/api/designs/${id}/versions/1/fit`)

@@ -2,7 +2,7 @@ import type { NestExpressApplication } from '@nestjs/platform-express';
 import request from 'supertest';
 import { DataSource } from 'typeorm';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { ROLES, type Role } from '@quietglass/shared';
+import { DEFAULT_TARGET_MARGIN_PERCENT, ROLES, type Role } from '@quietglass/shared';
 import { binary } from './support/binary.js';
 import { createTestApp, sessionCookie } from './support/app.js';
 import { demoSignIn } from './support/env.js';
@@ -573,6 +573,17 @@ const RULES: RouteRule[] = [
     okStatus: 200,
     // The demo name again: other files print it on their documents.
     body: (ctx) => ({ shopName: 'Larkspur Thin Film Works', version: ctx.shopVersion }),
+    after: (ctx, body) => {
+      ctx.shopVersion = body.version ?? ctx.shopVersion;
+    },
+  },
+  {
+    method: 'put',
+    path: '/api/shop-settings/target-margin',
+    allow: ['admin'],
+    okStatus: 200,
+    // The engine's default again: other files design in it.
+    body: (ctx) => ({ targetMarginPercent: DEFAULT_TARGET_MARGIN_PERCENT, version: ctx.shopVersion }),
     after: (ctx, body) => {
       ctx.shopVersion = body.version ?? ctx.shopVersion;
     },

@@ -3,8 +3,10 @@ import request from 'supertest';
 import { DataSource } from 'typeorm';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { LOGO_MAX_BYTES } from '@quietglass/shared/shop';
+import { DEFAULT_TARGET_MARGIN_PERCENT } from '@quietglass/shared/optimise/fit';
 import { createTestApp, demoSession } from './support/app.js';
 import { binary } from './support/binary.js';
+import { customerId, maskId, materialIds, twoLayerDesign } from './support/fixtures.js';
 import { solidPng } from './support/png.js';
 
 let app: NestExpressApplication;
@@ -55,6 +57,7 @@ describe('shop settings', () => {
     expect(res.body).toEqual({
       shopName: 'Larkspur Thin Film Works',
       logo: null,
+      targetMarginPercent: DEFAULT_TARGET_MARGIN_PERCENT,
       version: 0,
       updatedAt: null,
     });
@@ -156,5 +159,64 @@ describe('shop settings', () => {
       }[]
     ).map((r) => r.action);
     expect(actions).toEqual(['renamed', 'logo uploaded', 'logo removed']);
+  });
+
+  it.each([
+    [{ targetMarginPercent: -0.1, version: 3 }, 'targetMarginPercent must be ≥ 0'],
+    [{ targetMarginPercent: 6, version: 3 }, 'targetMarginPercent must be at most 5 percentage points'],
+    [{ targetMarginPercent: '0.2', version: 3 }, 'targetMarginPercent must be a number'],
+    [{ version: 3 }, 'targetMarginPercent must be a number'],
+  ])('refuses the target margin %j with 400 and writes nothing', async (body, detail) => {
+    const res = await http().put('/api/shop-settings/target-margin').set('Cookie', admin).send(body);
+    expect(res.status).toBe(400);
+    expect(res.body.details).toContain(detail);
+    expect((await settingsRow())[0].version).toBe(3);
+  });
+
+  it('sets the default target margin (admins only, audited) that a Fit to mask without one designs in', async () => {
+    const engineerTry = await http()
+      .put('/api/shop-settings/target-margin')
+      .set('Cookie', engineer)
+      .send({ targetMarginPercent: 0.25, version: 3 });
+    expect(engineerTry.status).toBe(403);
+    const res = await http()
+      .put('/api/shop-settings/target-margin')
+      .set('Cookie', admin)
+      .send({ targetMarginPercent: 0.25, version: 3 });
+    expect(res.status).toBe(200);
+    expect(res.body).toMatchObject({ targetMarginPercent: 0.25, version: 4, shopName: 'Larkspur Optics' });
+    const audit = (await app.get(DataSource).query(
+      `SELECT summary FROM audit_events
+         WHERE entity = 'shop-settings' AND action = 'target margin changed' AND id > $1`,
+      [firstAudit],
+    )) as { summary: string }[];
+    expect(audit.map((a) => a.summary)).toEqual([
+      `default target margin changed from ${DEFAULT_TARGET_MARGIN_PERCENT} to 0.25 percentage points`,
+    ]);
+
+    const m = await materialIds(app, engineer);
+    const customer = await customerId(app, engineer, 'Halden Vision Systems');
+    const specMaskId = await maskId(app, engineer, customer, 'HVS-2210 lens AR');
+    const design = await http()
+      .post('/api/designs')
+      .set('Cookie', engineer)
+      .send({ ...twoLayerDesign(m, customer, 'Shop target margin'), specMaskId });
+    expect(design.status, JSON.stringify(design.body)).toBe(201);
+    // What the queued Fit to mask designs in: the shop's default, or the margin the request names.
+    const marginOf = async (body: object) => {
+      const sub = await http()
+        .post(`/api/designs/${design.body.id}/versions/1/fit`)
+        .set('Cookie', engineer)
+        .send({ maxIterations: 3, ...body });
+      expect(sub.status, JSON.stringify(sub.body)).toBe(201);
+      const rows = (await app
+        .get(DataSource)
+        .query('SELECT input FROM calculations WHERE id = $1', [sub.body.id])) as {
+        input: { options: { marginPercent: number } };
+      }[];
+      return rows[0].input.options.marginPercent;
+    };
+    expect(await marginOf({})).toBe(0.25);
+    expect(await marginOf({ targetMarginPercent: 0.05 })).toBe(0.05);
   });
 });

@@ -39,6 +39,7 @@ export * from './optimise/merit.js';
 export * from './optimise/fit.js';
 export * from './optimise/needle.js';
 export * from './optimise/yield.js';
+export * from './optimise/result-forecast.js';
 
 // Plot defaults shared by the client's plots.
 export * from './plots/plot-range.js';

@@ -1,5 +1,6 @@
 /*
- * The shop's own settings: its name and logo in the header of run sheets and compliance reports.
+ * The shop's own settings: its name and logo in the header of run sheets and compliance reports,
+ * and the target margin its optimisations design in unless the engineer asks for another.
  */
 
 /** Logo types a PDF can embed as they are. */
@@ -16,6 +17,11 @@ export interface ShopSettingsView {
   shopName: string;
   /** Present when a logo was uploaded: its type and size; fetch it from /api/shop-settings/logo. */
   logo: { contentType: LogoType; bytes: number } | null;
+  /**
+   * Target margin Fit to mask and Grow layers design in when the request names none, percentage
+   * points (0 to MAX_TARGET_MARGIN_PERCENT); DEFAULT_TARGET_MARGIN_PERCENT until an admin sets it.
+   */
+  targetMarginPercent: number;
   /** Optimistic-locking counter: 0 before the first save; send it back with an edit. */
   version: number;
   updatedAt: string | null;

@@ -4,6 +4,7 @@ import { DesignsModule } from '../designs/designs.module.js';
 import { MaterialsModule } from '../materials/materials.module.js';
 import { QueueModule } from '../queue/queue.module.js';
 import { RunsModule } from '../runs/runs.module.js';
+import { ShopSettingsModule } from '../shop-settings/shop-settings.module.js';
 import { SpecMasksModule } from '../spec-masks/spec-masks.module.js';
 import { Calculation } from './calculation.entity.js';
 import { CalculationsController } from './calculations.controller.js';
@@ -18,6 +19,7 @@ import { OptimiseService } from './optimise.service.js';
     MaterialsModule,
     RunsModule,
     SpecMasksModule,
+    ShopSettingsModule,
   ],
   controllers: [CalculationsController],
   providers: [CalculationsService, OptimiseService],

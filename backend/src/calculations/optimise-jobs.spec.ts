@@ -1,6 +1,7 @@
 import { describe, expect, it } from 'vitest';
 import type { GrowResult } from '@quietglass/shared/optimise/needle';
 import { grownLayerMaterialId } from '@quietglass/shared/calculations';
+import { RESULT_FORECAST, forecastResult } from '@quietglass/shared/optimise/result-forecast';
 import { runOptimiseJob, type GrowInput } from './optimise-jobs.js';
 
 /*
@@ -56,5 +57,32 @@ describe('grownLayerMaterialId', () => {
     expect(grownLayerMaterialId('layers[0]', [4], byName)).toBe(4);
     expect(grownLayerMaterialId('layers[3]', [4], byName)).toBeUndefined();
     expect(grownLayerMaterialId('ZrO2', [4], byName)).toBeUndefined();
+  });
+});
+
+describe('the forecast beside a Grow layers result', () => {
+  it('forecasts the grown stack under the stated thickness error, as its last progress', () => {
+    const fractions: number[] = [];
+    const result = runOptimiseJob(INPUT, (p) => {
+      fractions.push(p.fraction);
+      return true;
+    }) as GrowResult;
+    const forecast = result.forecast!;
+    expect(forecast.trials).toBe(RESULT_FORECAST.trials);
+    expect(forecast.relativePercent).toBe(RESULT_FORECAST.relativePercent);
+    // The same forecast of the same stack, run directly, gives the same figures.
+    const direct = forecastResult(result.stack, { bands: INPUT.bands }, 'none')!;
+    expect(forecast.yieldFraction).toBe(direct.yieldFraction);
+    expect(forecast.medianWorstMargin).toBe(direct.medianWorstMargin);
+    // A worst margin below the median of the trials' worst margins is what a 1 % error costs.
+    expect(forecast.medianWorstMargin).toBeLessThan(result.final.worstMargin);
+    expect(fractions.at(-1)).toBe(1);
+    expect(fractions.filter((f) => f > 0.99).length).toBeGreaterThan(0);
+  });
+
+  it('keeps no forecast when the job is cancelled during it', () => {
+    const result = runOptimiseJob(INPUT, (p) => p.fraction <= 0.99) as GrowResult;
+    expect(result.stoppedBy).not.toBe('cancelled');
+    expect(result.forecast).toBeNull();
   });
 });

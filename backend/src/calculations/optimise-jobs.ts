@@ -8,9 +8,11 @@ import type { DiagnosisResult } from '@quietglass/shared/calculations';
 import { growLayers, type AllowedMaterial, type GrowResult } from '@quietglass/shared/optimise/needle';
 import { fitToMask, type FitResult } from '@quietglass/shared/optimise/fit';
 import { diagnoseRun } from '@quietglass/shared/optimise/diagnosis';
+import { forecastResult } from '@quietglass/shared/optimise/result-forecast';
 import type { YieldOptions } from '@quietglass/shared/optimise/yield';
-import type { LimitBand } from '@quietglass/shared/optics/mask';
-import { parseStack, type StackDescription } from '@quietglass/shared/optics/stack';
+import type { LimitBand, SpecMask } from '@quietglass/shared/optics/mask';
+import type { BackSurface } from '@quietglass/shared/optics/batch';
+import { parseStack, type OpticalStack, type StackDescription } from '@quietglass/shared/optics/stack';
 
 export type OptimiseKind = 'fit' | 'grow' | 'yield' | 'diagnosis';
 
@@ -84,7 +86,7 @@ export function runOptimiseJob(
   const mask = { bands: input.bands };
   if (input.kind === 'fit') {
     const max = input.options.maxIterations;
-    return fitToMask(stack, mask, {
+    const fit = fitToMask(stack, mask, {
       back: input.back,
       locked: input.options.locked,
       minThicknessNm: input.options.minThicknessNm,
@@ -99,10 +101,16 @@ export function runOptimiseJob(
           iteration: it.iteration,
         }),
     });
+    if (fit.stoppedBy === 'cancelled') return fit;
+    const fitted = {
+      ...stack,
+      layers: stack.layers.map((l, i) => ({ ...l, thicknessNm: fit.thicknessesNm[i] })),
+    };
+    return { ...fit, forecast: resultForecast(fitted, mask, input.back, report) };
   }
   if (input.kind === 'grow') {
     const max = input.options.maxSteps;
-    return growLayers(stack, mask, {
+    const grown = growLayers(stack, mask, {
       back: input.back,
       allowedMaterials: input.allowed.map(({ name, model }) => ({ name, model })),
       maxLayers: input.options.maxLayers,
@@ -120,6 +128,8 @@ export function runOptimiseJob(
           layerCount: step.layerCount,
         }),
     });
+    if (grown.stoppedBy === 'cancelled') return grown;
+    return { ...grown, forecast: resultForecast(grown.stack, mask, input.back, report) };
   }
   // Run diagnosis: the thicknesses that reproduce the measured spectrum, each within its factor range.
   return diagnoseRun(stack, mask, input.measured, input.layerMaterialIds, {
@@ -134,6 +144,24 @@ export function runOptimiseJob(
         iteration: it.iteration,
       }),
   });
+}
+
+/**
+ * The short yield forecast beside a Fit or Grow result (shared/optimise/result-forecast), reported
+ * as the last 1 % of the job's progress; a cancel stops it and keeps no forecast.
+ */
+function resultForecast(
+  stack: OpticalStack,
+  mask: SpecMask,
+  back: BackSurface,
+  report: (p: ProgressMessage) => boolean,
+) {
+  let cancelled = false;
+  const forecast = forecastResult(stack, mask, back, (fraction) => {
+    cancelled = !report({ type: 'progress', fraction: 0.99 + 0.01 * fraction });
+    return !cancelled;
+  });
+  return cancelled ? null : forecast;
 }
 
 /** The size of an optimisation job for its work budget (shared/budgets). */

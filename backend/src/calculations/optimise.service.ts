@@ -10,6 +10,7 @@ import { missingAsBadRequest } from '../common/not-found.js';
 import { DesignsService } from '../designs/designs.service.js';
 import { MaterialsService } from '../materials/materials.service.js';
 import { RunsService } from '../runs/runs.service.js';
+import { ShopSettingsService } from '../shop-settings/shop-settings.service.js';
 import { SpecMasksService } from '../spec-masks/spec-masks.service.js';
 import type { User } from '../users/user.entity.js';
 import { CalculationsService } from './calculations.service.js';
@@ -25,7 +26,13 @@ export class OptimiseService {
     private readonly materials: MaterialsService,
     private readonly runs: RunsService,
     private readonly masks: SpecMasksService,
+    private readonly shop: ShopSettingsService,
   ) {}
+
+  /** The margin asked for, else the shop's default. */
+  private async targetMargin(asked: number | undefined): Promise<number> {
+    return asked ?? (await this.shop.targetMarginPercent());
+  }
 
   async fit(designId: number, number: number, dto: FitDto, user: User) {
     const base = await this.base(designId, number, dto.specMaskId);
@@ -46,7 +53,7 @@ export class OptimiseService {
         minThicknessNm: min,
         maxThicknessNm: max,
         maxIterations: dto.maxIterations ?? 100,
-        ...(dto.targetMarginPercent === undefined ? {} : { marginPercent: dto.targetMarginPercent }),
+        marginPercent: await this.targetMargin(dto.targetMarginPercent),
       },
     };
     return this.calculations.submitOptimisation('fit', input, user, { designId, versionNumber: number });
@@ -87,7 +94,7 @@ export class OptimiseService {
         maxTotalThicknessNm: dto.maxTotalThicknessNm ?? 5000,
         minThicknessNm: min,
         maxSteps: dto.maxSteps ?? 30,
-        ...(dto.targetMarginPercent === undefined ? {} : { marginPercent: dto.targetMarginPercent }),
+        marginPercent: await this.targetMargin(dto.targetMarginPercent),
         ...(outermostOnly ? { outermostOnly } : {}),
         ...(nextToSubstrate ? { nextToSubstrate } : {}),
       },

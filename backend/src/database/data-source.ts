@@ -36,6 +36,7 @@ import { RecordUses1764700000000 } from '../migrations/1764700000000-record-uses
 import { CustomerRecordsMaskKinds1764810000000 } from '../migrations/1764810000000-customer-records-mask-kinds.js';
 import { MaterialProvenanceFiles1764820000000 } from '../migrations/1764820000000-material-provenance-files.js';
 import { ChamberCalibration1764840000000 } from '../migrations/1764840000000-chamber-calibration.js';
+import { ShopTargetMargin1764910000000 } from '../migrations/1764910000000-shop-target-margin.js';
 import { ChamberProcessShopSettings1764830000000 } from '../migrations/1764830000000-chamber-process-shop-settings.js';
 
 /** Every entity of the app; each domain module also registers its own with forFeature. */
@@ -84,6 +85,7 @@ export const MIGRATIONS = [
   MaterialProvenanceFiles1764820000000,
   ChamberProcessShopSettings1764830000000,
   ChamberCalibration1764840000000,
+  ShopTargetMargin1764910000000,
 ];
 
 /** TypeORM options for PostgreSQL; never `synchronize` — the schema comes from migrations. */

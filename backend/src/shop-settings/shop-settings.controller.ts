@@ -4,10 +4,10 @@ import type { ShopSettingsView } from '@quietglass/shared/shop';
 import { CurrentUser } from '../auth/current-user.decorator.js';
 import { Roles } from '../auth/roles.decorator.js';
 import type { User } from '../users/user.entity.js';
-import { ShopLogoDto, ShopNameDto } from './dto/shop-settings.dto.js';
+import { ShopLogoDto, ShopNameDto, ShopTargetMarginDto } from './dto/shop-settings.dto.js';
 import { ShopSettingsService } from './shop-settings.service.js';
 
-/** Everyone signed in reads the shop's name and logo; only admins change them. */
+/** Everyone signed in reads the shop's settings; only admins change them. */
 @Controller('shop-settings')
 export class ShopSettingsController {
   constructor(private readonly shop: ShopSettingsService) {}
@@ -21,6 +21,12 @@ export class ShopSettingsController {
   @Roles('admin')
   saveName(@Body() dto: ShopNameDto, @CurrentUser() user: User): Promise<ShopSettingsView> {
     return this.shop.saveName(dto, user);
+  }
+
+  @Put('target-margin')
+  @Roles('admin')
+  saveTargetMargin(@Body() dto: ShopTargetMarginDto, @CurrentUser() user: User): Promise<ShopSettingsView> {
+    return this.shop.saveTargetMargin(dto, user);
   }
 
   @Get('logo')

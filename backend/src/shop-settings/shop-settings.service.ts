@@ -8,10 +8,11 @@ import {
 import { InjectDataSource } from '@nestjs/typeorm';
 import { DataSource } from 'typeorm';
 import { LOGO_MAX_BYTES, type LogoType, type ShopSettingsView } from '@quietglass/shared/shop';
+import { DEFAULT_TARGET_MARGIN_PERCENT } from '@quietglass/shared/optimise/fit';
 import { appConfig, type AppConfig } from '../config/configuration.js';
 import { AuditService } from '../audit/audit.service.js';
 import type { User } from '../users/user.entity.js';
-import type { ShopLogoDto, ShopNameDto } from './dto/shop-settings.dto.js';
+import type { ShopLogoDto, ShopNameDto, ShopTargetMarginDto } from './dto/shop-settings.dto.js';
 import { embeds, imageSize, LOGO_MAX_PIXELS } from './logo-image.js';
 import { ShopSettings } from './shop-settings.entity.js';
 
@@ -53,6 +54,7 @@ export class ShopSettingsService {
     return {
       shopName: row?.shopName ?? this.config.shopName,
       logo: row?.logoType ? { contentType: row.logoType, bytes: Number(bytes) } : null,
+      targetMarginPercent: row?.targetMarginPercent ?? DEFAULT_TARGET_MARGIN_PERCENT,
       version: row?.version ?? 0,
       updatedAt: row?.updatedAt.toISOString() ?? null,
     };
@@ -81,6 +83,21 @@ export class ShopSettingsService {
       action: 'renamed',
       summary: `shop name changed from "${before.shopName}" to "${dto.shopName}"`,
       details: { before: before.shopName, after: dto.shopName },
+    });
+    return this.get();
+  }
+
+  /** The target margin Fit to mask and Grow layers design in when a request names none. */
+  async targetMarginPercent(): Promise<number> {
+    return (await this.row())?.targetMarginPercent ?? DEFAULT_TARGET_MARGIN_PERCENT;
+  }
+
+  async saveTargetMargin(dto: ShopTargetMarginDto, user: User): Promise<ShopSettingsView> {
+    const before = await this.get();
+    await this.write(dto.version, { targetMarginPercent: dto.targetMarginPercent }, user, {
+      action: 'target margin changed',
+      summary: `default target margin changed from ${before.targetMarginPercent} to ${dto.targetMarginPercent} percentage points`,
+      details: { before: before.targetMarginPercent, after: dto.targetMarginPercent },
     });
     return this.get();
   }
@@ -125,7 +142,12 @@ export class ShopSettingsService {
   /** One locked write of the single row, with its audit entry, in one transaction. */
   private async write(
     version: number,
-    set: { shopName?: string; logo?: Buffer | null; logoType?: LogoType | null },
+    set: {
+      shopName?: string;
+      logo?: Buffer | null;
+      logoType?: LogoType | null;
+      targetMarginPercent?: number;
+    },
     user: User,
     entry: { action: string; summary: string; details?: Record<string, unknown> },
   ): Promise<void> {
@@ -133,9 +155,16 @@ export class ShopSettingsService {
       const rows =
         version === 0
           ? await tx.query<unknown[]>(
-              `INSERT INTO shop_settings (id, shop_name, logo, logo_type, version, updated_at)
-               VALUES ($1, $2, $3, $4, 1, now()) ON CONFLICT (id) DO NOTHING RETURNING version`,
-              [ROW, set.shopName ?? this.config.shopName, set.logo ?? null, set.logoType ?? null],
+              `INSERT INTO shop_settings
+                 (id, shop_name, logo, logo_type, target_margin_percent, version, updated_at)
+               VALUES ($1, $2, $3, $4, $5, 1, now()) ON CONFLICT (id) DO NOTHING RETURNING version`,
+              [
+                ROW,
+                set.shopName ?? this.config.shopName,
+                set.logo ?? null,
+                set.logoType ?? null,
+                set.targetMarginPercent ?? null,
+              ],
             )
           : (
               await tx.query<[unknown[], number]>(
@@ -143,6 +172,8 @@ export class ShopSettingsService {
                    shop_name = CASE WHEN $3::boolean THEN $4 ELSE shop_name END,
                    logo = CASE WHEN $5::boolean THEN $6::bytea ELSE logo END,
                    logo_type = CASE WHEN $5::boolean THEN $7 ELSE logo_type END,
+                   target_margin_percent =
+                     CASE WHEN $8::boolean THEN $9::double precision ELSE target_margin_percent END,
                    version = version + 1, updated_at = now()
                  WHERE id = $1 AND version = $2 RETURNING version`,
                 [
@@ -153,6 +184,8 @@ export class ShopSettingsService {
                   set.logo !== undefined,
                   set.logo ?? null,
                   set.logoType ?? null,
+                  set.targetMarginPercent !== undefined,
+                  set.targetMarginPercent ?? null,
                 ],
               )
             )[0];

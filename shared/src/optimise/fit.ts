@@ -22,6 +22,7 @@
  *   direction). λ falls by 3 after a step that lowers Σr², rises by 4 after one that does not
  *   (Marquardt's scaled damping). Everything is deterministic: the same input gives the same iterates.
  */
+import type { ResultForecast } from './result-forecast.js';
 import { oneOf, onlyKeys, plainObject } from '../optics/checks.js';
 import { OpticsInputError, fieldPath } from '../optics/errors.js';
 import type { SpecMask } from '../optics/mask.js';
@@ -131,6 +132,11 @@ export interface FitResult {
   stoppedBy: FitStop;
   /** The margin the fit aimed for (limits tightened by it), percentage points; absent in older results. */
   targetMarginPercent?: number;
+  /**
+   * Yield forecast of the result under RESULT_FORECAST's thickness error, added by the compute
+   * queue after the optimisation; absent in older results and when the job was cancelled.
+   */
+  forecast?: ResultForecast | null;
 }
 
 /** Bounds and lock per front layer, as the refinement uses them. */

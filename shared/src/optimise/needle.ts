@@ -16,6 +16,7 @@
  * thickness, a quarter and a half wave at the mask's centre wavelength, refined within [min, max];
  * the best that lowers the merit is kept (the gradual-evolution variant of the method).
  */
+import type { ResultForecast } from './result-forecast.js';
 import { onlyKeys, plainObject } from '../optics/checks.js';
 import { evaluateIndex, indexAt, validateMaterialModel, type MaterialModel } from '../optics/dispersion.js';
 import { createNeedleGrid, needleFunction, type NeedleMaterials } from '../optics/derivatives.js';
@@ -151,6 +152,11 @@ export interface GrowResult {
   stoppedBy: GrowStop;
   /** The margin growing aimed for, percentage points; absent in older results. */
   targetMarginPercent?: number;
+  /**
+   * Yield forecast of the result under RESULT_FORECAST's thickness error, added by the compute
+   * queue after the optimisation; absent in older results and when the job was cancelled.
+   */
+  forecast?: ResultForecast | null;
 }
 
 interface WorkLayer {

@@ -1,7 +1,8 @@
 import { Transform } from 'class-transformer';
-import { IsIn, IsInt, IsString, MaxLength, Min, MinLength } from 'class-validator';
+import { IsIn, IsInt, IsNumber, IsString, Max, MaxLength, Min, MinLength } from 'class-validator';
+import { MAX_TARGET_MARGIN_PERCENT } from '@quietglass/shared/optimise/fit';
 import { LOGO_MAX_BYTES, LOGO_TYPES, SHOP_NAME_MAX, type LogoType } from '@quietglass/shared/shop';
-import { trim } from '../../common/dto.js';
+import { finite, trim } from '../../common/dto.js';
 
 export class ShopNameDto {
   @Transform(trim)
@@ -29,6 +30,20 @@ export class ShopLogoDto {
     message: `the logo must be at most ${LOGO_MAX_BYTES / 1024} KB`,
   })
   dataBase64: string;
+
+  @IsInt({ message: 'version must be the version you read' })
+  @Min(0)
+  version: number;
+}
+
+export class ShopTargetMarginDto {
+  /** Percentage points inside every limit, 0 to MAX_TARGET_MARGIN_PERCENT. */
+  @IsNumber(finite, { message: 'targetMarginPercent must be a number' })
+  @Min(0, { message: 'targetMarginPercent must be ≥ 0' })
+  @Max(MAX_TARGET_MARGIN_PERCENT, {
+    message: `targetMarginPercent must be at most ${MAX_TARGET_MARGIN_PERCENT} percentage points`,
+  })
+  targetMarginPercent: number;
 
   @IsInt({ message: 'version must be the version you read' })
   @Min(0)

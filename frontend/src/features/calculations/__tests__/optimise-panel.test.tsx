@@ -58,6 +58,14 @@ const FIT: FitResult = {
   ],
   converged: true,
   stoppedBy: 'converged',
+  forecast: {
+    trials: 500,
+    requestedTrials: 500,
+    relativePercent: 1,
+    yieldFraction: 0.874,
+    medianWorstMargin: 0.0521,
+    p5WorstMargin: -0.0132,
+  },
 };
 
 function calc(overrides: Partial<CalculationView>): CalculationView {
@@ -186,6 +194,9 @@ describe('OptimisePanel — Fit to mask', () => {
     expect(region().getByRole('group', { name: 'Fit to mask result' }).textContent).toBe(
       'PassMerit 2.7581 → 0.1234 percentage points · worst margin +0.084 percentage points, target +0.100 not reached · 6 iterations (converged)',
     );
+    expect(region().getByRole('status', { name: 'Forecast yield of the result' }).textContent).toBe(
+      'Forecast yield 87.4 % at 1 % (1σ) thickness error per layer, 500 trials · worst margin median +0.052, 5th percentile −0.013 percentage points. Run a Yield forecast of the accepted version for systematic and index errors.',
+    );
     expect(region().queryByRole('progressbar', { name: 'Fit to mask progress' })).toBeNull();
     const [history] = tracesOf(region().getByRole('figure', { name: 'Merit per iteration' }));
     expect([history.x, history.y]).toEqual([
@@ -207,6 +218,27 @@ describe('OptimisePanel — Fit to mask', () => {
     expect(api.calls('POST', '/api/calculations/7/accept').map((r) => r.body)).toEqual([{}]);
     // The new draft was handed to the page to cache before it was opened.
     expect(storeVersion.mock.calls.map(([v]) => v.number)).toEqual([2]);
+  });
+
+  it("starts the target margin at the shop's default and sends what the engineer types", async () => {
+    const api = mockApi({
+      'GET /api/shop-settings': {
+        status: 200,
+        body: { shopName: 'Larkspur', logo: null, targetMarginPercent: 0.3, version: 2, updatedAt: null },
+      },
+      'POST /api/designs/12/versions/1/fit': { status: 201, body: { ...calc({}), reused: false } },
+      [POLL]: { status: 200, body: calc({ status: 'queued' }) },
+      'GET /api/calculations': { status: 200, body: [] },
+    });
+    const { user } = renderPanel(ONE_LAYER);
+    const margin = (await screen.findByLabelText('Target margin (pp)')) as HTMLInputElement;
+    await waitFor(() => expect(margin.value).toBe('0.3'));
+    expect(screen.getByText('Inside every limit; shop default 0.3')).toBeTruthy();
+    await user.click(screen.getByRole('button', { name: 'Run Fit to mask' }));
+    await waitFor(() => expect(api.calls('POST', '/api/designs/12/versions/1/fit')).toHaveLength(1));
+    expect(api.calls('POST', '/api/designs/12/versions/1/fit')[0].body).toMatchObject({
+      targetMarginPercent: 0.3,
+    });
   });
 
   it('cancels a running fit', async () => {

@@ -4,7 +4,7 @@ import { useForm } from 'react-hook-form';
 import { FormTextField } from '../../../components/form-text-field';
 import type { FitRequest } from '../api/submit-optimisation';
 import { wholeIn } from '../form-rules';
-import { DEFAULT_TARGET_MARGIN_TEXT, TargetMarginField } from './target-margin-field';
+import { DEFAULT_TARGET_MARGIN_TEXT, TargetMarginField, useShopMarginDefault } from './target-margin-field';
 import { ThicknessBoundsFields } from './thickness-bounds-fields';
 
 interface FitValues {
@@ -28,7 +28,9 @@ interface FitFormProps {
 
 /** Bounds, target margin and iterations of Fit to mask (Levenberg–Marquardt over the unlocked layers). */
 export function FitForm({ pending, onRun }: FitFormProps) {
-  const { control, handleSubmit } = useForm<FitValues>({ defaultValues: DEFAULTS, mode: 'onTouched' });
+  const form = useForm<FitValues>({ defaultValues: DEFAULTS, mode: 'onTouched' });
+  const { control, handleSubmit } = form;
+  useShopMarginDefault(form);
   const onSubmit = handleSubmit((v) =>
     onRun({
       minThicknessNm: Number(v.minThicknessNm),

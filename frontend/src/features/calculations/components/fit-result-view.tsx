@@ -7,6 +7,7 @@ import { Plot } from '../../../components/plot';
 import { fittedLayers, STOP_REASONS } from '../results';
 import { AcceptButton } from './accept-button';
 import { SpectrumOverlay } from './spectrum-overlay';
+import { ResultForecastLine } from './result-forecast-line';
 import { marginSummary } from './target-margin-field';
 import { ThicknessTable } from './thickness-table';
 import { tableLayers, type VersionContext } from './version-context';
@@ -57,6 +58,7 @@ export function FitResultView({
           {STOP_REASONS[result.stoppedBy] ?? result.stoppedBy})
         </Typography>
       </Box>
+      <ResultForecastLine forecast={result.forecast} />
       <Plot
         title="Merit per iteration"
         height={240}

@@ -11,7 +11,7 @@ import { Controller, useForm, useWatch } from 'react-hook-form';
 import { FormTextField } from '../../../components/form-text-field';
 import type { GrowRequest } from '../api/submit-optimisation';
 import { numberIn, wholeIn } from '../form-rules';
-import { DEFAULT_TARGET_MARGIN_TEXT, TargetMarginField } from './target-margin-field';
+import { DEFAULT_TARGET_MARGIN_TEXT, TargetMarginField, useShopMarginDefault } from './target-margin-field';
 import { ThicknessBoundsFields } from './thickness-bounds-fields';
 
 /** Most materials Grow layers may use (GrowDto). */
@@ -90,7 +90,7 @@ function MaterialChecks({ legend, materials, value, onChange, error, help }: Mat
 
 /** Allowed materials and limits of Grow layers (needle synthesis from the version's stack). */
 export function GrowForm({ materials, initialMaterialIds, layerCount, pending, onRun }: GrowFormProps) {
-  const { control, handleSubmit } = useForm<GrowValues>({
+  const form = useForm<GrowValues>({
     defaultValues: {
       allowedMaterialIds: initialMaterialIds.slice(0, MAX_ALLOWED_MATERIALS),
       outermostOnlyMaterialIds: [],
@@ -104,6 +104,8 @@ export function GrowForm({ materials, initialMaterialIds, layerCount, pending, o
     },
     mode: 'onTouched',
   });
+  const { control, handleSubmit } = form;
+  useShopMarginDefault(form);
   const allowed = useWatch({ control, name: 'allowedMaterialIds' });
   const onSubmit = handleSubmit((v) =>
     onRun({

@@ -13,6 +13,7 @@ import { Plot } from '../../../components/plot';
 import { grownLayers, STOP_REASONS } from '../results';
 import { AcceptButton } from './accept-button';
 import { SpectrumOverlay } from './spectrum-overlay';
+import { ResultForecastLine } from './result-forecast-line';
 import { marginSummary } from './target-margin-field';
 import { ThicknessTable } from './thickness-table';
 import { tableLayers, type VersionContext } from './version-context';
@@ -61,6 +62,10 @@ export function GrowResultView({
         {result.final.pass ? 'Pass' : 'Fail'},{' '}
         {marginSummary(result.final.worstMargin, result.targetMarginPercent)}.
       </Typography>
+      <ResultForecastLine
+        forecast={result.forecast}
+        of={`the final step, ${result.final.layerCount} layers`}
+      />
       <Plot
         title="Merit against layer count"
         height={260}

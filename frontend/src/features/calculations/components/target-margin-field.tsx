@@ -1,18 +1,32 @@
 import { DEFAULT_TARGET_MARGIN_PERCENT, MAX_TARGET_MARGIN_PERCENT } from '@quietglass/shared';
-import type { Control, FieldPath, FieldValues } from 'react-hook-form';
+import { useEffect } from 'react';
+import type { Control, FieldPath, FieldValues, PathValue, UseFormReturn } from 'react-hook-form';
 import { FormTextField } from '../../../components/form-text-field';
 import { formatSigned } from '../../../lib/format';
+import { useShopTargetMargin } from '../../../lib/shop-settings';
 import { numberIn } from '../form-rules';
 
-/** The form's starting text for the target margin. */
+/** The form's starting text for the target margin, until the shop's default has loaded. */
 export const DEFAULT_TARGET_MARGIN_TEXT = String(DEFAULT_TARGET_MARGIN_PERCENT);
 
+type WithMargin = FieldValues & { targetMarginPercent: string };
+
+/**
+ * Starts the form's target margin at the shop's default once it has loaded, unless the engineer
+ * has already typed one.
+ */
+export function useShopMarginDefault<T extends WithMargin>(form: UseFormReturn<T>): void {
+  const { percent, loaded } = useShopTargetMargin();
+  useEffect(() => {
+    const name = 'targetMarginPercent' as FieldPath<T>;
+    if (loaded && !form.getFieldState(name).isDirty)
+      form.resetField(name, { defaultValue: String(percent) as PathValue<T, FieldPath<T>> });
+  }, [loaded, percent, form]);
+}
+
 /** Target margin of Fit to mask and Grow layers: how far inside every limit to design. */
-export function TargetMarginField<T extends FieldValues & { targetMarginPercent: string }>({
-  control,
-}: {
-  control: Control<T>;
-}) {
+export function TargetMarginField<T extends WithMargin>({ control }: { control: Control<T> }) {
+  const { percent } = useShopTargetMargin();
   return (
     <FormTextField
       control={control}
@@ -20,7 +34,7 @@ export function TargetMarginField<T extends FieldValues & { targetMarginPercent:
       label="Target margin (pp)"
       size="small"
       sx={{ width: 170 }}
-      helperText="Inside every limit"
+      helperText={`Inside every limit; shop default ${percent}`}
       rules={{ validate: numberIn('Target margin', 0, MAX_TARGET_MARGIN_PERCENT, ' percentage points') }}
     />
   );

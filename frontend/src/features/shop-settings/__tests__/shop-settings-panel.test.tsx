@@ -6,7 +6,13 @@ import { createQueryClient } from '../../../lib/query-client';
 import { mockApi } from '../../../test/mock-api';
 import { ShopSettingsPanel } from '../components/shop-settings-panel';
 
-const VIEW = { shopName: 'Larkspur Thin Film Works', logo: null, version: 0, updatedAt: null };
+const VIEW = {
+  shopName: 'Larkspur Thin Film Works',
+  logo: null,
+  targetMarginPercent: 0.1,
+  version: 0,
+  updatedAt: null,
+};
 
 function renderPanel() {
   const user = userEvent.setup();
@@ -40,6 +46,34 @@ describe('ShopSettingsPanel', () => {
       shopName: 'Larkspur Optics',
       version: 0,
     });
+  });
+
+  it('saves the default target margin with the version read, refusing one outside 0–5 pp', async () => {
+    const api = mockApi({
+      'GET /api/shop-settings': { status: 200, body: VIEW },
+      'PUT /api/shop-settings/target-margin': {
+        status: 200,
+        body: { ...VIEW, targetMarginPercent: 0.25, version: 1 },
+      },
+    });
+    const user = renderPanel();
+    const form = within(await screen.findByRole('form', { name: 'Design defaults' }));
+    const field = form.getByLabelText('Default target margin (pp)') as HTMLInputElement;
+    await waitFor(() => expect(field.value).toBe('0.1'));
+    await user.clear(field);
+    await user.type(field, '7');
+    await user.click(form.getByRole('button', { name: 'Save margin' }));
+    expect(await form.findByText('A number from 0 to 5 percentage points')).toBeTruthy();
+    expect(api.calls('PUT', '/api/shop-settings/target-margin')).toHaveLength(0);
+    await user.clear(field);
+    await user.type(field, '0.25');
+    await user.click(form.getByRole('button', { name: 'Save margin' }));
+    await screen.findByText('Default target margin saved.');
+    expect(api.calls('PUT', '/api/shop-settings/target-margin')[0].body).toEqual({
+      targetMarginPercent: 0.25,
+      version: 0,
+    });
+    await waitFor(() => expect(field.value).toBe('0.25'));
   });
 
   it('refuses a logo that is not PNG or JPEG, or too large, before sending it', async () => {

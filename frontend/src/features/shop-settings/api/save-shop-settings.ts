@@ -6,12 +6,18 @@ import { getShopSettingsQueryOptions, type ShopSettingsView } from './get-shop-s
 export type ShopSettingsChange =
   | { kind: 'name'; shopName: string; version: number }
   | { kind: 'logo'; contentType: LogoType; dataBase64: string; version: number }
-  | { kind: 'remove-logo'; version: number };
+  | { kind: 'remove-logo'; version: number }
+  | { kind: 'target-margin'; targetMarginPercent: number; version: number };
 
 export function saveShopSettings(change: ShopSettingsChange): Promise<ShopSettingsView> {
   if (change.kind === 'name')
     return apiClient.put<ShopSettingsView>('/shop-settings', {
       shopName: change.shopName,
+      version: change.version,
+    });
+  if (change.kind === 'target-margin')
+    return apiClient.put<ShopSettingsView>('/shop-settings/target-margin', {
+      targetMarginPercent: change.targetMarginPercent,
       version: change.version,
     });
   if (change.kind === 'logo')
@@ -23,7 +29,7 @@ export function saveShopSettings(change: ShopSettingsChange): Promise<ShopSettin
   return apiRequest<ShopSettingsView>(`/shop-settings/logo?version=${change.version}`, { method: 'DELETE' });
 }
 
-/** Renames the shop, uploads or removes its logo; the form shows 400 and 409 itself. */
+/** Renames the shop, uploads or removes its logo, sets its target margin; the form shows 400 and 409 itself. */
 export function useSaveShopSettings() {
   const queryClient = useQueryClient();
   return useMutation({

@@ -2,14 +2,20 @@ import Box from '@mui/material/Box';
 import Button from '@mui/material/Button';
 import Paper from '@mui/material/Paper';
 import Typography from '@mui/material/Typography';
-import { LOGO_MAX_BYTES, LOGO_TYPES, SHOP_NAME_MAX, type LogoType } from '@quietglass/shared';
+import {
+  LOGO_MAX_BYTES,
+  LOGO_TYPES,
+  MAX_TARGET_MARGIN_PERCENT,
+  SHOP_NAME_MAX,
+  type LogoType,
+} from '@quietglass/shared';
 import { useEffect, useRef, useState } from 'react';
 import { useForm } from 'react-hook-form';
 import { ConflictAlert } from '../../../components/conflict-alert';
 import { ErrorAlert } from '../../../components/error-alert';
 import { FormTextField } from '../../../components/form-text-field';
 import { ApiError, apiUrl } from '../../../lib/api-client';
-import { fieldText } from '../../../lib/format';
+import { fieldText, parseNumberInput } from '../../../lib/format';
 import { notify } from '../../../lib/notifier';
 import { useShopSettings } from '../api/get-shop-settings';
 import { useSaveShopSettings } from '../api/save-shop-settings';
@@ -19,6 +25,14 @@ export function shopNameError(value: string): string | null {
   const t = value.trim();
   if (t === '') return 'The shop needs a name';
   return t.length > SHOP_NAME_MAX ? `At most ${SHOP_NAME_MAX} characters` : null;
+}
+
+/** Why a default target margin cannot be saved (the API's rule); null when it can. */
+export function targetMarginError(value: string): string | null {
+  const v = parseNumberInput(value.trim());
+  return v === null || v < 0 || v > MAX_TARGET_MARGIN_PERCENT
+    ? `A number from 0 to ${MAX_TARGET_MARGIN_PERCENT} percentage points`
+    : null;
 }
 
 /** Why a chosen logo file cannot be uploaded, before it is sent; null when it can. */
@@ -48,10 +62,18 @@ export function ShopSettingsPanel() {
     defaultValues: { shopName: '' },
     mode: 'onTouched',
   });
+  const margin = useForm<{ targetMarginPercent: string }>({
+    defaultValues: { targetMarginPercent: '' },
+    mode: 'onTouched',
+  });
   const view = settings.data;
   useEffect(() => {
     if (view) reset({ shopName: view.shopName });
   }, [view?.version, view?.shopName, reset]); // eslint-disable-line react-hooks/exhaustive-deps
+  const resetMargin = margin.reset;
+  useEffect(() => {
+    if (view) resetMargin({ targetMarginPercent: String(view.targetMarginPercent) });
+  }, [view?.version, view?.targetMarginPercent, resetMargin]); // eslint-disable-line react-hooks/exhaustive-deps
   const conflict = save.error instanceof ApiError && save.error.status === 409 ? save.error : null;
 
   const onSubmit = handleSubmit(({ shopName }) => {
@@ -59,6 +81,17 @@ export function ShopSettingsPanel() {
     save.mutate(
       { kind: 'name', shopName: shopName.trim(), version: view.version },
       { onSuccess: () => notify('Shop name saved.', 'success') },
+    );
+  });
+  const onSaveMargin = margin.handleSubmit(({ targetMarginPercent }) => {
+    if (!view) return;
+    save.mutate(
+      {
+        kind: 'target-margin',
+        targetMarginPercent: parseNumberInput(targetMarginPercent.trim())!,
+        version: view.version,
+      },
+      { onSuccess: () => notify('Default target margin saved.', 'success') },
     );
   });
   const onFile = async (file: File | undefined) => {
@@ -79,8 +112,8 @@ export function ShopSettingsPanel() {
         Shop settings
       </Typography>
       <Typography variant="body2" color="text.secondary" sx={{ mb: 1.5 }}>
-        The name and logo in the header of run sheets and compliance reports. PNG or JPEG, at most{' '}
-        {LOGO_MAX_BYTES / 1024} KB and 4000 px a side.
+        The name and logo in the header of run sheets and compliance reports (PNG or JPEG, at most{' '}
+        {LOGO_MAX_BYTES / 1024} KB and 4000 px a side), and the margin optimisations design in.
       </Typography>
       {settings.isError && (
         <ErrorAlert error={settings.error} title="The shop settings could not be loaded" />
@@ -167,6 +200,26 @@ export function ShopSettingsPanel() {
                 {fileError}
               </Typography>
             )}
+          </Box>
+          <Box
+            component="form"
+            noValidate
+            aria-label="Design defaults"
+            onSubmit={(e) => void onSaveMargin(e)}
+            sx={{ display: 'flex', gap: 1, alignItems: 'flex-start', gridColumn: '1 / -1' }}
+          >
+            <FormTextField
+              control={margin.control}
+              name="targetMarginPercent"
+              label="Default target margin (pp)"
+              size="small"
+              sx={{ width: 220 }}
+              helperText="Fit to mask and Grow layers design this far inside every limit unless the engineer asks for another"
+              rules={{ validate: (v) => targetMarginError(fieldText(v)) ?? true }}
+            />
+            <Button type="submit" variant="contained" loading={save.isPending}>
+              Save margin
+            </Button>
           </Box>
         </Box>
       )}
