@@ -329,6 +329,40 @@ describe('chamber calibration', () => {
     expect(audit.body[0].summary).toMatch(/calibration accepted: Six runs agree/);
   });
 
+  it('reads past runs against the factor they kept when a tooling factor is edited by hand', async () => {
+    const chamber = (await http().get(`/api/chambers/${chamberId}`).set('Cookie', mira)).body;
+    const edit = await http()
+      .put(`/api/chambers/${chamberId}`)
+      .set('Cookie', mira)
+      .send({
+        name: chamber.name,
+        monitorWavelengthsNm: chamber.monitorWavelengthsNm,
+        monitorChipMaterialId: chamber.monitorChipMaterialId,
+        notes: chamber.notes,
+        version: chamber.version,
+        materials: chamber.materials.map((x: { materialId: number; toolingFactor: number }) =>
+          x.materialId === m['SiO2'] ? { ...x, toolingFactor: 1.1 } : x,
+        ),
+      });
+    expect(edit.status, JSON.stringify(edit.body)).toBe(200);
+    const view = await calibration();
+    const si = view.series.find((x: { materialId: number }) => x.materialId === m['SiO2']);
+    expect(si.currentToolingFactor).toBe(1.1);
+    // Every SiO2 run was made at 1.04 and came out right: read against the factor each run kept,
+    // the history says 1.10 is 5.5 % high and proposes 1.04 again (read against 1.10, it would
+    // have called 1.10 right).
+    expect(si.runs.map((r: { toolingFactorInEffect: number }) => r.toolingFactorInEffect)).toEqual(
+      Array<number>(si.runs.length).fill(1.04),
+    );
+    expect(Math.abs(si.estimate.correction.value - 1.04 / 1.1)).toBeLessThan(0.004);
+    const back = view.suggestions.filter(
+      (x: { kind: string; materialIds: number[] }) => x.kind === 'material' && x.materialIds[0] === m['SiO2'],
+    );
+    expect(back).toHaveLength(1);
+    expect(back[0].currentToolingFactor).toBe(1.1);
+    expect(Math.abs(back[0].proposedToolingFactor - 1.04)).toBeLessThan(0.005);
+  });
+
   it('keeps the threshold as an admin setting, audited, and refuses a bad one', async () => {
     const current = (await http().get('/api/calibration/settings').set('Cookie', operator)).body;
     expect(current).toMatchObject({ thresholdPercent: 1, minRuns: 4 });

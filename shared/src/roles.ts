@@ -28,7 +28,7 @@ export const NAV_SECTIONS = [
   { key: 'queue', label: 'Compute queue', path: '/compute-queue', roles: ['admin', 'engineer'] },
   { key: 'recipes', label: 'Released recipes', path: '/recipes', roles: ['admin', 'engineer', 'operator'] },
   { key: 'runs', label: 'Chamber runs', path: '/runs', roles: ['admin', 'engineer', 'operator'] },
-  { key: 'chambers', label: 'Chambers', path: '/chambers', roles: ['admin', 'engineer'] },
+  { key: 'chambers', label: 'Chambers', path: '/chambers', roles: ['admin', 'engineer', 'operator'] },
   { key: 'reports', label: 'Compliance reports', path: '/reports', roles: ['admin', 'engineer', 'sales'] },
   { key: 'quotes', label: 'Quotes', path: '/quotes', roles: ['admin', 'engineer', 'sales'] },
   { key: 'outbox', label: 'Outbox', path: '/admin/outbox', roles: ['admin'] },

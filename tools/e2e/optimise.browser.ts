@@ -59,6 +59,10 @@ describe('optimise', () => {
     // Merit of the rough start → of the fitted stack, percentage points.
     expect(summary).toMatch(/Merit 0\.11\d\d → 0\.0000 percentage points/);
     expect(await optimise.getByRole('figure', { name: 'Merit per iteration' }).count()).toBe(1);
+    // The worker's short yield forecast of the fitted stack sits beside the result.
+    expect(await optimise.getByRole('status', { name: 'Forecast yield of the result' }).innerText()).toMatch(
+      /^Forecast yield \d{1,3}\.\d % at 1 % \(1σ\) thickness error per layer, 500 trials/,
+    );
     await optimise.getByRole('figure', { name: 'Reflectance before and after' }).waitFor({ timeout: 30_000 });
 
     const table = optimise.getByRole('table', { name: 'Thicknesses before and after' });

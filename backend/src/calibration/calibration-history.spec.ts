@@ -204,4 +204,38 @@ describe('calibration history from simulated, diagnosed runs', () => {
     const e = high.estimate!;
     expect(Math.abs(e.correction.value - 1)).toBeLessThan(2 * e.correction.sigma);
   });
+
+  it('reads each run against the tooling factor kept with it, also after a manual edit of the chamber', () => {
+    // Same history, but the factor was raised to 1.02 by hand (no calibration decision): only the
+    // factor each run kept when it was logged tells the runs apart.
+    const truth = (material: number, k: number) => (material === H && k < 6 ? 1.02 : 1);
+    const diagnosed = history(12, truth, 5).map((d, k) => ({
+      ...d,
+      run: { ...d.run, toolingFactors: { [String(L)]: 1, [String(H)]: k < 6 ? 1 : 1.02 } },
+    }));
+    const causes = runCauses(diagnosed, 1);
+    const high = materialSeries(
+      { materialId: H, toolingFactor: 1.02, rateNmPerS: 0.4 },
+      'H',
+      diagnosed,
+      [],
+      causes,
+    );
+    expect(high.runs.map((r) => r.toolingFactorInEffect)).toEqual([
+      ...Array<number>(6).fill(1),
+      ...Array<number>(6).fill(1.02),
+    ]);
+    const e = high.estimate!;
+    expect(Math.abs(e.correction.value - 1)).toBeLessThan(2 * e.correction.sigma);
+    // Without the kept factors the same history reads the early runs against 1.02: a false drift.
+    const unkept = materialSeries(
+      { materialId: H, toolingFactor: 1.02, rateNmPerS: 0.4 },
+      'H',
+      history(12, truth, 5),
+      [],
+      causes,
+    );
+    expect(unkept.runs[0].toolingFactorInEffect).toBe(1.02);
+    expect(unkept.runs[0].correction!.value).toBeGreaterThan(1.015);
+  });
 });

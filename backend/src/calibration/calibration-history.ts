@@ -23,7 +23,15 @@ import type { LayerReading } from '@quietglass/shared/runs';
 
 /** A run with its diagnosis, as the history reads it. */
 export interface DiagnosedRun {
-  run: { id: number; lotNumber: string; runDate: string; createdAt: Date; layerReadings: LayerReading[] };
+  run: {
+    id: number;
+    lotNumber: string;
+    runDate: string;
+    createdAt: Date;
+    layerReadings: LayerReading[];
+    /** Material id → the chamber's tooling factor when the run was logged (null on older runs). */
+    toolingFactors?: Record<string, number> | null;
+  };
   calculationId: number;
   summary: DiagnosisSummary;
 }
@@ -75,7 +83,12 @@ export function materialSeries(
   for (const d of diagnosed) {
     const own = d.summary.layers.filter((l) => l.materialId === setting.materialId);
     if (own.length === 0) continue;
-    const inEffect = toolingFactorAt(decided, setting.materialId, d.run.createdAt) ?? current;
+    // The factor kept with the run (also right after a manual edit of the chamber); for runs
+    // logged before it was kept, the one the calibration decisions imply.
+    const inEffect =
+      d.run.toolingFactors?.[String(setting.materialId)] ??
+      toolingFactorAt(decided, setting.materialId, d.run.createdAt) ??
+      current;
     const count = d.summary.layers.length;
     const layers: CalibrationLayerPoint[] = own
       .map((l) => {

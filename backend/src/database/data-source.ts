@@ -37,6 +37,7 @@ import { CustomerRecordsMaskKinds1764810000000 } from '../migrations/17648100000
 import { MaterialProvenanceFiles1764820000000 } from '../migrations/1764820000000-material-provenance-files.js';
 import { ChamberCalibration1764840000000 } from '../migrations/1764840000000-chamber-calibration.js';
 import { ShopTargetMargin1764910000000 } from '../migrations/1764910000000-shop-target-margin.js';
+import { RunToolingFactors1764920000000 } from '../migrations/1764920000000-run-tooling-factors.js';
 import { ChamberProcessShopSettings1764830000000 } from '../migrations/1764830000000-chamber-process-shop-settings.js';
 
 /** Every entity of the app; each domain module also registers its own with forFeature. */
@@ -86,6 +87,7 @@ export const MIGRATIONS = [
   ChamberProcessShopSettings1764830000000,
   ChamberCalibration1764840000000,
   ShopTargetMargin1764910000000,
+  RunToolingFactors1764920000000,
 ];
 
 /** TypeORM options for PostgreSQL; never `synchronize` — the schema comes from migrations. */

@@ -109,6 +109,9 @@ export async function seedCalibrationDemo(db: DataSource): Promise<number> {
           durability: [],
           notes: 'Demo run (invented)',
           remarks: [],
+          toolingFactors: Object.fromEntries(
+            chamber.materials.map((m) => [String(m.materialId), m.toolingFactor]),
+          ),
           createdAt: runDate,
         }),
       );

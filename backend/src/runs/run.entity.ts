@@ -44,6 +44,10 @@ export class ChamberRun {
   @Column({ type: 'text', default: '' })
   notes: string;
 
+  /** Material id → the chamber's tooling factor when the run was logged (null before it was kept). */
+  @Column({ name: 'tooling_factors', type: 'jsonb', nullable: true })
+  toolingFactors: Record<string, number> | null;
+
   /** Remarks by anyone who reads the run, appended in one statement (never edited). */
   @Column({ type: 'jsonb', default: () => "'[]'" })
   remarks: RunRemark[];

@@ -44,9 +44,12 @@ export class RunsService {
       this.recipes.releasedRecipe(dto.designId, dto.versionNumber),
       `design ${dto.designId} version ${dto.versionNumber} is not a released recipe`,
     );
-    await missingAsBadRequest(
+    const chamber = await missingAsBadRequest(
       this.chambers.get(dto.chamberId),
       `chamberId: chamber ${dto.chamberId} does not exist`,
+    );
+    const toolingFactors = Object.fromEntries(
+      chamber.materials.map((m) => [String(m.materialId), m.toolingFactor]),
     );
     const id = await this.db.transaction(async (tx) => {
       const repo = tx.getRepository(ChamberRun);
@@ -58,6 +61,7 @@ export class RunsService {
           layerReadings: [],
           durability: [],
           remarks: [],
+          toolingFactors,
         }),
       );
       await this.audit.record(tx, {
@@ -66,7 +70,7 @@ export class RunsService {
         entityId: saved.id,
         action: 'logged',
         summary: `run of lot ${saved.lotNumber} logged (design ${dto.designId} v${dto.versionNumber}, chamber ${dto.chamberId})`,
-        details: { ...dto },
+        details: { ...dto, toolingFactors },
       });
       return saved.id;
     });

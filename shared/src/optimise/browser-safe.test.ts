@@ -9,6 +9,7 @@ import { fileURLToPath } from 'node:url';
 import { describe, expect, it } from 'vitest';
 
 const here = dirname(fileURLToPath(import.meta.url));
+const NODE_ONLY = /\b(process\.|Buffer\b|require\(|__dirname|reference types="node")/;
 const sources = readdirSync(here).filter((f) => f.endsWith('.ts') && !f.endsWith('.test.ts'));
 
 describe('optimisation code', () => {
@@ -24,8 +25,18 @@ describe('optimisation code', () => {
       (m) => m[1],
     );
     for (const spec of imports) {
-      expect(spec.startsWith('./') || spec.startsWith('../optics/')).toBe(true);
+      // Own folder, the optics core, or a shared rule module one level up (itself checked below).
+      const sharedRule = /^\.\.\/[a-z-]+\.js$/.test(spec);
+      expect(
+        spec.startsWith('./') || spec.startsWith('../optics/') || sharedRule,
+        `${file} imports ${spec}`,
+      ).toBe(true);
+      if (sharedRule) {
+        const rule = readFileSync(join(here, spec.replace(/\.js$/, '.ts')), 'utf8');
+        expect(rule, `${spec} uses a Node global`).not.toMatch(NODE_ONLY);
+        expect(rule, `${spec} imports a package`).not.toMatch(/from\s+['"][^.'"][^'"]*['"]/);
+      }
     }
-    expect(source).not.toMatch(/\b(process\.|Buffer\b|require\(|__dirname|reference types="node")/);
+    expect(source).not.toMatch(NODE_ONLY);
   });
 });

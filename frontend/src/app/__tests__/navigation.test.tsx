@@ -49,6 +49,7 @@ const EXPECTED_LINKS: Record<Role, [name: string, href: string][]> = {
     ['Home', '/'],
     ['Released recipes', '/recipes'],
     ['Chamber runs', '/runs'],
+    ['Chambers', '/chambers'],
   ],
 };
 

@@ -28,17 +28,21 @@ const MATERIALS = [
   updatedAt: '2026-12-01T08:00:00.000Z',
 }));
 
+function mockChambersPage(role: 'engineer' | 'operator') {
+  mockApi({
+    'GET /api/auth/session': { status: 200, body: { user: STAFF[role] } },
+    'GET /api/chambers': { status: 200, body: [CHAMBER] },
+    'GET /api/materials': { status: 200, body: MATERIALS },
+    'GET /api/chambers/7/calibration': {
+      status: 200,
+      body: { chamberId: 7, settings: {}, series: [], suggestions: [], decisions: [] },
+    },
+  });
+}
+
 describe('chambers page', () => {
   it('an engineer opens a chamber for editing with its saved values', async () => {
-    mockApi({
-      'GET /api/auth/session': { status: 200, body: { user: STAFF.engineer } },
-      'GET /api/chambers': { status: 200, body: [CHAMBER] },
-      'GET /api/materials': { status: 200, body: MATERIALS },
-      'GET /api/chambers/7/calibration': {
-        status: 200,
-        body: { chamberId: 7, settings: {}, series: [], suggestions: [], decisions: [] },
-      },
-    });
+    mockChambersPage('engineer');
     const { user } = renderApp('/chambers');
     expect(await screen.findByRole('button', { name: 'New chamber' }, { timeout: 10_000 })).toBeTruthy();
     await user.click(await screen.findByRole('button', { name: 'Edit Bell jar 1' }, { timeout: 10_000 }));
@@ -47,5 +51,16 @@ describe('chambers page', () => {
     expect((row.getByLabelText('Material') as HTMLSelectElement).value).toBe('4');
     expect((row.getByLabelText('Tooling factor') as HTMLInputElement).value).toBe('1.08');
     expect((row.getByLabelText('Rate (nm/s)') as HTMLInputElement).value).toBe('0.8');
+  });
+
+  it('an operator reads the chambers and their calibration, with nothing to change', async () => {
+    mockChambersPage('operator');
+    renderApp('/chambers');
+    const section = within(await screen.findByRole('region', { name: 'Bell jar 1' }, { timeout: 10_000 }));
+    expect(section.getByText(/1\.08/)).toBeTruthy();
+    expect(section.getByRole('button', { name: 'Process settings of Bell jar 1' })).toBeTruthy();
+    expect(screen.getByText(/You can read the chamber settings/)).toBeTruthy();
+    expect(screen.queryByRole('button', { name: 'New chamber' })).toBeNull();
+    expect(screen.queryByRole('button', { name: 'Edit Bell jar 1' })).toBeNull();
   });
 });
