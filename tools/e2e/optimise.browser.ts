@@ -49,6 +49,8 @@ describe('optimise', () => {
     await openWorkspaceTab(page, 'Optimise');
     const optimise = page.getByRole('region', { name: 'Optimise' });
     await optimise.getByRole('tab', { name: 'Fit to mask' }).click();
+    // Design in margin: every limit by at least 0.1 percentage points.
+    await optimise.getByLabel('Target margin (pp)').fill('0.1');
     await optimise.getByRole('button', { name: 'Run Fit to mask' }).click();
     const status = optimise.getByRole('status', { name: 'Fit to mask status' });
     await expect.poll(() => status.innerText(), { timeout: 90_000 }).toMatch(/is done/);
@@ -58,6 +60,10 @@ describe('optimise', () => {
     expect(summary).toMatch(/Pass/);
     // Merit of the rough start → of the fitted stack, percentage points.
     expect(summary).toMatch(/Merit 0\.11\d\d → 0\.0000 percentage points/);
+    // The fit kept improving after the mask passed: its worst margin is at least the one asked for.
+    const achieved = /worst margin \+(\d+\.\d{3}) percentage points, target \+0\.100 reached/.exec(summary);
+    expect(achieved, summary).not.toBeNull();
+    expect(Number(achieved![1])).toBeGreaterThanOrEqual(0.1);
     expect(await optimise.getByRole('figure', { name: 'Merit per iteration' }).count()).toBe(1);
     // The worker's short yield forecast of the fitted stack sits beside the result.
     expect(await optimise.getByRole('status', { name: 'Forecast yield of the result' }).innerText()).toMatch(
