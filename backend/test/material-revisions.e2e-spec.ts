@@ -166,13 +166,14 @@ describe('material revisions', () => {
       .set('Cookie', mira)
       .send({ rowVersion: 1 })
       .then((r) => r);
-    const waitingOn = async (table: string) => {
+    /** Polls until at least `min` statements matching `query` wait on a lock (up to 5 s). */
+    const waitingOn = async (query: string, min = 1) => {
       for (let i = 0; i < 100; i++) {
         const rows = (await db.query(
           `SELECT count(*)::int AS n FROM pg_stat_activity WHERE wait_event_type = 'Lock' AND query ILIKE $1`,
-          [`%${table}%`],
+          [`%${query}%`],
         )) as { n: number }[];
-        if (rows[0].n > 0) return true;
+        if (rows[0].n >= min) return true;
         await new Promise((r) => setTimeout(r, 50));
       }
       return false;
@@ -187,8 +188,9 @@ describe('material revisions', () => {
         editDone = true;
         return r;
       });
-    await new Promise((r) => setTimeout(r, 500));
-    // The edit may not slip in between: it waits for the submit that is freezing the material.
+    // The edit may not slip in between: it waits on a lock (beside the submit) while the submit is
+    // freezing the material.
+    expect(await waitingOn('', 2)).toBe(true);
     expect(editDone).toBe(false);
     await holder.rollbackTransaction();
     await holder.release();
