@@ -11,6 +11,19 @@ export interface ChamberMaterialSetting {
   rateNmPerS: number;
 }
 
+/**
+ * A tooling factor as shown and printed: three decimals, more where the stored factor has them
+ * (a calibration sets four), so a sheet never shows a rounded factor beside a thickness computed
+ * with the exact one.
+ */
+export function formatToolingFactor(factor: number): string {
+  for (let decimals = 3; decimals < 6; decimals++) {
+    const text = factor.toFixed(decimals);
+    if (Number(text) === factor) return text;
+  }
+  return factor.toFixed(6);
+}
+
 /** A coating chamber: tooling factors and rates per material, and its optical monitor. */
 export interface ChamberView {
   id: number;

@@ -1,5 +1,5 @@
 import { runSheetCalibrationLine } from '@quietglass/shared/calibration';
-import { processLines } from '@quietglass/shared/chambers';
+import { formatToolingFactor, processLines } from '@quietglass/shared/chambers';
 import { niceTicks } from '@quietglass/shared/plots/nice-ticks';
 import { SIDES_LABELS, type RunSheetView } from '@quietglass/shared/runsheet';
 import { monitorPlotData } from '@quietglass/shared/runsheet-signal';
@@ -306,7 +306,7 @@ export function renderRunSheetPdf(
       String(l.step),
       l.material,
       fixed(l.partThicknessNm, 2),
-      fixed(l.toolingFactor, 3),
+      formatToolingFactor(l.toolingFactor),
       fixed(l.monitorThicknessNm, 2),
       fixed(l.qwotAtMonitor, 3),
       fixed(l.rateNmPerS, 2),

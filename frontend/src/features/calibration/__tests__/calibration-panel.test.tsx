@@ -96,7 +96,7 @@ describe('calibration panel', () => {
       .map((r) => [...r.querySelectorAll('td, th')].map((c) => c.textContent));
     // Only materials with runs are listed; one 3 nm layer per run is left out.
     expect(rows.slice(1)).toEqual([
-      ['ZrO2', '0.97', '+2.03 % ± 0.11 %', '+0.020 % ± 0.050 %', '10', '10', '1.025'],
+      ['ZrO2', '0.970', '+2.03 % ± 0.11 %', '+0.020 % ± 0.050 %', '10', '10', '1.025'],
     ]);
     const t = traces('Control chart Bell jar 1 ZrO2');
     const runs = t.find((x) => x.name === 'Runs (±1σ)')!;
@@ -126,7 +126,7 @@ describe('calibration panel', () => {
     );
     await user.click(within(region).getByRole('button', { name: 'Accept' }));
     const dialog = within(await screen.findByRole('dialog', { name: 'Accept the suggestion' }));
-    expect(dialog.getByText(/becomes 0.9897 \(now 0.97\)/)).toBeTruthy();
+    expect(dialog.getByText(/becomes 0.9897 \(now 0.970\)/)).toBeTruthy();
     await user.click(dialog.getByRole('button', { name: 'Accept' }));
     expect(await dialog.findByText('Say why')).toBeTruthy();
     expect(api.calls('POST', '/api/chambers/7/calibration/decisions')).toEqual([]);

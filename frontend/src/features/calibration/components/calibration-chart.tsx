@@ -1,3 +1,4 @@
+import { formatToolingFactor } from '@quietglass/shared';
 import { Plot, type PlotData } from '../../../components/plot';
 import type { CalibrationSeriesView } from '../api/get-chamber-calibration';
 
@@ -98,7 +99,9 @@ export function CalibrationChart({
       layout={{
         xaxis: { title: { text: 'Diagnosed run' }, type: 'category' },
         yaxis: {
-          title: { text: `Correction, % (actual ÷ tooling factor ${series.currentToolingFactor} − 1)` },
+          title: {
+            text: `Correction, % (actual ÷ tooling factor ${formatToolingFactor(series.currentToolingFactor)} − 1)`,
+          },
           zeroline: true,
         },
         legend: { orientation: 'h', y: -0.3 },

@@ -12,7 +12,7 @@ import TableRow from '@mui/material/TableRow';
 import TextField from '@mui/material/TextField';
 import Typography from '@mui/material/Typography';
 import { useState } from 'react';
-import { IDENTIFIABLE_MAX_FACTOR_SIGMA } from '@quietglass/shared';
+import { IDENTIFIABLE_MAX_FACTOR_SIGMA, formatToolingFactor } from '@quietglass/shared';
 import { ErrorAlert } from '../../../components/error-alert';
 import { LoadingBlock } from '../../../components/loading-block';
 import { formatDateTime } from '../../../lib/format';
@@ -241,7 +241,7 @@ function SummaryTable({
           return (
             <TableRow key={s.materialId}>
               <TableCell>{s.materialName}</TableCell>
-              <TableCell align="right">{s.currentToolingFactor}</TableCell>
+              <TableCell align="right">{formatToolingFactor(s.currentToolingFactor)}</TableCell>
               <TableCell align="right" sx={off ? { fontWeight: 700 } : undefined}>
                 {c
                   ? `${signedPercent((c.value - 1) * 100)} ± ${(c.sigma * 100).toFixed(2)} %`
@@ -293,7 +293,7 @@ function RunHistoryTable({ series }: { series: CalibrationSeriesView }) {
         {series.runs.map((r) => (
           <TableRow key={r.runId}>
             <TableCell>{`${r.lotNumber} (${r.runDate})`}</TableCell>
-            <TableCell align="right">{r.toolingFactorInEffect}</TableCell>
+            <TableCell align="right">{formatToolingFactor(r.toolingFactorInEffect)}</TableCell>
             <TableCell align="right">
               {r.correction
                 ? `${signedPercent((r.correction.value - 1) * 100)} ± ${(r.correction.sigma * 100).toFixed(2)} %`

@@ -1,6 +1,6 @@
 import Typography from '@mui/material/Typography';
 import { useForm } from 'react-hook-form';
-import { CALIBRATION_COMMENT_MAX_LENGTH } from '@quietglass/shared';
+import { CALIBRATION_COMMENT_MAX_LENGTH, formatToolingFactor } from '@quietglass/shared';
 import { ErrorAlert } from '../../../components/error-alert';
 import { FormDialog } from '../../../components/form-dialog';
 import { FormTextField } from '../../../components/form-text-field';
@@ -39,8 +39,11 @@ export function DecisionDialog({
       <Typography variant="body2">{suggestion.message}</Typography>
       {decision === 'accepted' && suggestion.proposedToolingFactor !== null && (
         <Typography variant="body2">
-          The chamber’s tooling factor becomes {suggestion.proposedToolingFactor} (now{' '}
-          {suggestion.currentToolingFactor}) for run sheets made from now on.
+          The chamber’s tooling factor becomes {formatToolingFactor(suggestion.proposedToolingFactor)} (now{' '}
+          {suggestion.currentToolingFactor === null
+            ? '—'
+            : formatToolingFactor(suggestion.currentToolingFactor)}
+          ) for run sheets made from now on.
         </Typography>
       )}
       <FormTextField

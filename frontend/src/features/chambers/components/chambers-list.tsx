@@ -8,6 +8,7 @@ import TableCell from '@mui/material/TableCell';
 import TableHead from '@mui/material/TableHead';
 import TableRow from '@mui/material/TableRow';
 import Typography from '@mui/material/Typography';
+import { formatToolingFactor } from '@quietglass/shared';
 import { formatDateTime, formatFixed } from '../../../lib/format';
 import type { ChamberView } from '../api/get-chambers';
 
@@ -72,7 +73,7 @@ export function ChambersList({ chambers, materials, onEdit, onProcessSettings }:
               {c.materials.map((m) => (
                 <TableRow key={m.materialId}>
                   <TableCell>{nameOf(m.materialId)}</TableCell>
-                  <TableCell align="right">{formatFixed(m.toolingFactor, 3)}</TableCell>
+                  <TableCell align="right">{formatToolingFactor(m.toolingFactor)}</TableCell>
                   <TableCell align="right">{formatFixed(m.rateNmPerS, 2)}</TableCell>
                 </TableRow>
               ))}

@@ -10,7 +10,7 @@ import TableHead from '@mui/material/TableHead';
 import TableRow from '@mui/material/TableRow';
 import Typography from '@mui/material/Typography';
 import { runSheetCalibrationLine } from '@quietglass/shared';
-import { processLines, SIDES_LABELS } from '@quietglass/shared';
+import { formatToolingFactor, processLines, SIDES_LABELS } from '@quietglass/shared';
 import { apiUrl } from '../../../lib/api-client';
 import { formatFixed } from '../../../lib/format';
 import type { RunSheetView } from '../api/get-run-sheet';
@@ -154,7 +154,7 @@ export function RunSheetDocument({ sheet }: RunSheetDocumentProps) {
                 <TableCell>{l.designLayer}</TableCell>
                 <TableCell>{l.material}</TableCell>
                 <TableCell align="right">{formatFixed(l.partThicknessNm, 2)}</TableCell>
-                <TableCell align="right">{formatFixed(l.toolingFactor, 3)}</TableCell>
+                <TableCell align="right">{formatToolingFactor(l.toolingFactor)}</TableCell>
                 <TableCell align="right">{formatFixed(l.monitorThicknessNm, 2)}</TableCell>
                 <TableCell align="right">{formatFixed(l.qwotAtMonitor, 3)}</TableCell>
                 <TableCell align="right">{formatFixed(l.rateNmPerS, 2)}</TableCell>
