@@ -5,6 +5,7 @@
  *   npx tsx tools/bench/analysis.bench.ts [--runs 5] [--url http://127.0.0.1:3000]
  */
 import { apiSession, arg, signInDemoEngineer } from './api-session.js';
+import { median, required } from './stats.js';
 
 const base = arg('--url', 'http://127.0.0.1:3000');
 const runs = Number(arg('--runs', '5'));
@@ -38,7 +39,7 @@ async function main(): Promise<void> {
   for (let run = 0; run < runs; run++) {
     const design = await api<{ id: number }>('POST', '/designs', {
       name: `Benchmark 20-layer ${new Date().toISOString()} #${run}`,
-      customerId: customers[0].id,
+      customerId: required(customers[0], 'a demo customer').id,
       incidentMaterialId: air,
       substrateMaterialId: substrate,
       substrateThicknessMm: 1,
@@ -77,7 +78,6 @@ async function main(): Promise<void> {
     times.push(performance.now() - started);
     computeTimes.push(calc.computeMs ?? NaN);
   }
-  const median = (xs: number[]) => [...xs].sort((a, b) => a - b)[Math.floor(xs.length / 2)];
   console.log('Compute queue: standard 20-layer map, 1000 λ × 91 angles (s, p and avg), front surface');
   console.log(`runs: ${runs}`);
   console.log(

@@ -31,6 +31,10 @@ import {
 } from '@quietglass/shared';
 import { parseConstantsFile } from '@quietglass/shared/optics/constants-file';
 import { Mulberry32, fillDeviates } from '@quietglass/shared/optimise/random';
+import { required } from './stats.js';
+
+/** The one-minute load average, as the figures are recorded with it. */
+const load = () => (loadavg()[0] ?? 0).toFixed(2);
 
 const LIBRARY = new URL('../../backend/assets/optical-constants/', import.meta.url);
 function published(file: string): MaterialModel {
@@ -42,7 +46,7 @@ const HIGH_FILES: Record<string, string> = {
   Ta2O5: 'film/ta2o5--gao.yml',
 };
 const highName = process.argv[3] ?? 'TiO2';
-const HIGH = published(HIGH_FILES[highName]);
+const HIGH = published(required(HIGH_FILES[highName], `a published file for ${highName}`));
 const SIO2 = published('film/sio2--gao.yml');
 const MGF2 = published('film/mgf2--rodriguez-de-marcos.yml');
 
@@ -66,7 +70,7 @@ const start: OpticalStack = {
     { material: MGF2, thicknessNm: 95 },
     { material: HIGH, thicknessNm: 120 },
   ],
-  substrate: MATERIAL_LIBRARY['N-BK7'],
+  substrate: required(MATERIAL_LIBRARY['N-BK7'], 'N-BK7 in the material library'),
   backLayers: [],
   exit: constantIndex(1),
 };
@@ -88,10 +92,10 @@ function run(method: DerivativeMethod, round: number): void {
   });
   const growSeconds = (performance.now() - t0) / 1000;
   console.log(
-    `[${method}, run ${round}] a) Grow layers: ${growSeconds.toFixed(2)} s (load ${loadavg()[0].toFixed(2)}), ` +
+    `[${method}, run ${round}] a) Grow layers: ${growSeconds.toFixed(2)} s (load ${load()}), ` +
       `${grown.final.layerCount} layers, ${grown.final.totalThicknessNm.toFixed(0)} nm, ${grown.steps.length - 1} steps, ` +
       `stopped by ${grown.stoppedBy}, merit ${grown.final.merit.toFixed(4)}, ` +
-      `worst margin ${grown.final.worstMargin.toFixed(4)} %-points, outermost ${grown.final.layers[0].material}, ` +
+      `worst margin ${grown.final.worstMargin.toFixed(4)} %-points, outermost ${grown.final.layers[0]?.material ?? 'none'}, ` +
       `mask ${evaluateMask(mask, grown.stack).pass ? 'passes' : 'FAILS'}`,
   );
   if (process.env.QG_BENCH_VERBOSE)
@@ -110,7 +114,7 @@ function run(method: DerivativeMethod, round: number): void {
     ...grown.stack,
     layers: grown.stack.layers.map((l, i) => ({
       ...l,
-      thicknessNm: l.thicknessNm * (1 + 0.02 * errors[i]),
+      thicknessNm: l.thicknessNm * (1 + 0.02 * required(errors[i], 'a thickness error')),
     })),
   };
   t0 = performance.now();
@@ -123,10 +127,10 @@ function run(method: DerivativeMethod, round: number): void {
   );
 }
 
-console.log(`Node ${process.version}, ${cpus()[0]?.model ?? 'unknown CPU'}, load ${loadavg()[0].toFixed(2)}`);
+console.log(`Node ${process.version}, ${cpus()[0]?.model ?? 'unknown CPU'}, load ${load()}`);
 const which = process.argv[2];
 for (const round of [1, 2]) {
   for (const method of ['analytic', 'differences'] as const)
     if (!which || which === 'both' || which === method) run(method, round);
 }
-console.log(`load at end ${loadavg()[0].toFixed(2)}`);
+console.log(`load at end ${load()}`);

@@ -19,6 +19,7 @@ import {
 } from '@quietglass/shared';
 import { SpectrumWorkerPool } from '@quietglass/shared/node/parallel';
 import { referenceResponse, type ReferenceLayer } from '@quietglass/shared/optics/reference';
+import { bestAndMedian, required } from './stats.js';
 
 const LAYERS = 20;
 const WAVELENGTHS = Array.from({ length: 1000 }, (_, i) => 400 + (300 * i) / 999);
@@ -59,18 +60,15 @@ async function timeInterleaved(
   rounds: number,
 ): Promise<Timing[]> {
   for (let i = 0; i < warmups; i++) for (const run of runs) await run();
-  const samples = runs.map((): number[] => []);
+  const timed = runs.map((run) => ({ run, samples: [] as number[] }));
   for (let round = 0; round < rounds; round++) {
-    for (let j = 0; j < runs.length; j++) {
+    for (const t of timed) {
       const start = performance.now();
-      await runs[j]();
-      samples[j].push((performance.now() - start) / 1000);
+      await t.run();
+      t.samples.push((performance.now() - start) / 1000);
     }
   }
-  return samples.map((list) => {
-    list.sort((a, b) => a - b);
-    return { best: list[0], median: list[Math.floor(list.length / 2)] };
-  });
+  return timed.map((t) => bestAndMedian(t.samples));
 }
 
 function rate(evaluations: number, seconds: number): string {
@@ -88,17 +86,19 @@ async function main(): Promise<void> {
   const refEvaluations = LAYERS * WAVELENGTHS.length * refAngles.length;
   let worstDiff = 0;
   const runReference = () => {
-    for (let ia = 0; ia < ANGLES.length; ia += REFERENCE_ANGLE_STRIDE) {
-      for (let iw = 0; iw < WAVELENGTHS.length; iw++) {
+    for (const [ia, angleDeg] of ANGLES.entries()) {
+      if (ia % REFERENCE_ANGLE_STRIDE !== 0) continue;
+      for (const [iw, wavelengthNm] of WAVELENGTHS.entries()) {
         const res = referenceResponse({
           incident: { n: 1, k: 0 },
           layers: layerSpecs,
           exit: { n: 1.52, k: 0 },
-          wavelengthNm: WAVELENGTHS[iw],
-          angleDeg: ANGLES[ia],
+          wavelengthNm,
+          angleDeg,
           polarisation: 's',
         });
-        worstDiff = Math.max(worstDiff, Math.abs(res.R - out.R[ia * WAVELENGTHS.length + iw]));
+        const engineR = required(out.R[ia * WAVELENGTHS.length + iw], 'an engine result');
+        worstDiff = Math.max(worstDiff, Math.abs(res.R - engineR));
       }
     }
   };
@@ -106,16 +106,20 @@ async function main(): Promise<void> {
   // Engine on all cores through the worker-thread pool (started once, warm).
   const threads = availableParallelism();
   const pool = await SpectrumWorkerPool.create({ size: threads });
-  let engine: Timing;
-  let parallel: Timing;
+  let timings: Timing[];
   try {
-    [engine, parallel] = await timeInterleaved([runEngine, () => pool.compute(stack, grid)], WARMUPS, ROUNDS);
+    timings = await timeInterleaved([runEngine, () => pool.compute(stack, grid)], WARMUPS, ROUNDS);
   } finally {
     await pool.close();
   }
+  const engine = required(timings[0], 'the engine timing');
+  const parallel = required(timings[1], 'the worker-pool timing');
   // The reference runs on its own afterwards: the garbage it makes would otherwise be collected
   // during the engine's rounds.
-  const [reference] = await timeInterleaved([runReference], 1, REFERENCE_ROUNDS);
+  const reference = required(
+    (await timeInterleaved([runReference], 1, REFERENCE_ROUNDS))[0],
+    'the reference timing',
+  );
 
   const rows = [
     ['engine, 1 thread', `${WAVELENGTHS.length}×${ANGLES.length}×1`, engine, EVALUATIONS],
@@ -150,8 +154,8 @@ async function main(): Promise<void> {
     rate(evals, t.best),
     rate(evals, t.median),
   ]);
-  const widths = header.map((h, c) => Math.max(h.length, ...table.map((r) => r[c].length)));
-  const line = (cells: readonly string[]) => cells.map((cell, c) => cell.padEnd(widths[c])).join('  ');
+  const widths = header.map((h, c) => Math.max(h.length, ...table.map((r) => r[c]?.length ?? 0)));
+  const line = (cells: readonly string[]) => cells.map((cell, c) => cell.padEnd(widths[c] ?? 0)).join('  ');
   console.log(line(header));
   console.log(line(widths.map((w) => '-'.repeat(w))));
   for (const r of table) console.log(line(r));

@@ -24,6 +24,7 @@ import {
   type SpecMask,
 } from '@quietglass/shared';
 import { YieldWorkerPool } from '@quietglass/shared/node/yield-parallel';
+import { required } from './stats.js';
 
 const LOW = constantIndex(1.38);
 const HIGH = constantIndex(2.35);
@@ -32,7 +33,7 @@ function onGlass(layers: Layer[]): OpticalStack {
   return {
     incident: constantIndex(1),
     layers,
-    substrate: MATERIAL_LIBRARY['N-BK7'],
+    substrate: required(MATERIAL_LIBRARY['N-BK7'], 'N-BK7 in the material library'),
     backLayers: [],
     exit: constantIndex(1),
   };

@@ -15,6 +15,7 @@ import {
   createPreviewCalculator,
   type PreviewRequest,
 } from '../../frontend/src/lib/preview/compute-preview.ts';
+import { median, required } from './stats.js';
 
 const LAYERS = 30;
 const WARMUPS = 50;
@@ -61,20 +62,15 @@ function request(thicknessesNm: number[], slot = 'live'): PreviewRequest {
   };
 }
 
-function median(samples: number[]): number {
-  const sorted = [...samples].sort((a, b) => a - b);
-  return sorted[Math.floor(sorted.length / 2)];
-}
-
 function main(): void {
   const calculator = createPreviewCalculator();
   const thicknesses = [...base];
   let sink = 0;
   const recompute = (i: number) => {
     // One layer's thickness changes by a fraction of a nanometre, as an edit in the grid would.
-    thicknesses[i % LAYERS] = base[i % LAYERS] + (i % 7) * 0.1;
+    thicknesses[i % LAYERS] = required(base[i % LAYERS], 'a layer') + (i % 7) * 0.1;
     const result = calculator.compute(request(thicknesses));
-    sink += result.curves[0].R[500] + (result.mask?.worstMargin ?? 0);
+    sink += (result.curves[0]?.R[500] ?? 0) + (result.mask?.worstMargin ?? 0);
   };
   for (let i = 0; i < WARMUPS; i++) recompute(i);
   const warm: number[] = [];
@@ -88,7 +84,7 @@ function main(): void {
     const start = performance.now();
     const result = createPreviewCalculator().compute(request(base, `cold-${i}`));
     cold.push(performance.now() - start);
-    sink += result.curves[0].R[0];
+    sink += result.curves[0]?.R[0] ?? 0;
   }
   const check = calculator.compute(request(base));
   console.log(

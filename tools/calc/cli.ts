@@ -88,7 +88,7 @@ function pick<T extends string>(value: string, allowed: readonly T[], option: st
 export function parseCalcArgs(argv: readonly string[]): CalcArgs | 'help' {
   const seen = new Map<string, string>();
   for (let i = 0; i < argv.length; i++) {
-    const arg = argv[i];
+    const arg = argv[i] ?? '';
     if (arg === '--help' || arg === '-h') return 'help';
     const eq = arg.indexOf('=');
     const name = arg.startsWith('--') && eq > 0 ? arg.slice(0, eq) : arg;
@@ -178,7 +178,7 @@ export function computeCalc(args: CalcArgs, stack: OpticalStack): SpectrumOutput
     );
   } catch (error) {
     if (!(error instanceof OpticsInputError)) throw error;
-    const root = error.field.split(/[.[]/)[0];
+    const root = error.field.split(/[.[]/)[0] ?? '';
     const option = GRID_OPTIONS[root];
     if (option) throw new UsageError(`${option}: ${error.problem}`);
     throw new StackFileError(`${args.stackFile}: ${error.message}`);

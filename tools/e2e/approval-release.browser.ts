@@ -153,8 +153,9 @@ describe('approval and release', () => {
       layers: { qwotAtMonitor: number; monitorThicknessNm: number }[];
       cautions: string[];
     };
-    expect(sheet.layers[0].monitorThicknessNm).toBeCloseTo(89.3 / 1.04, 9);
-    expect(firstStep[6]).toBe(sheet.layers[0].qwotAtMonitor.toFixed(3));
+    const step1 = sheet.layers[0]!;
+    expect(step1.monitorThicknessNm).toBeCloseTo(89.3 / 1.04, 9);
+    expect(firstStep[6]).toBe(step1.qwotAtMonitor.toFixed(3));
 
     const cautions = page.getByRole('region', { name: 'Safety cautions' });
     expect(await cautions.innerText()).toMatch(/high voltage/);

@@ -61,7 +61,7 @@ beforeAll(async () => {
       });
       const built = {
         ...version,
-        layers: version.layers.map((l, i) => ({ ...l, thicknessNm: l.thicknessNm * FACTORS[i] })),
+        layers: version.layers.map((l, i) => ({ ...l, thicknessNm: l.thicknessNm * FACTORS[i]! })),
       };
       const R = calculateSpectrum(
         parseStack(designStackDescription(built, models)),
@@ -70,7 +70,7 @@ beforeAll(async () => {
       ).R;
       // A small deterministic ripple stands in for measurement noise (±0.004 %).
       const rows = wavelengthsNm.map(
-        (w, i) => `${w},${Math.max(0, 100 * R[i] + 0.004 * Math.sin(1.7 * i + k)).toFixed(5)}`,
+        (w, i) => `${w},${Math.max(0, 100 * R[i]! + 0.004 * Math.sin(1.7 * i + k)).toFixed(5)}`,
       );
       const spectrum = await apiJson<{ id: number }>(jonah, 'post', `/api/runs/${run.id}/spectra`, {
         filename: `C-${k + 1}.csv`,

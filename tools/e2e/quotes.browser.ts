@@ -102,8 +102,9 @@ describe('quotes', () => {
     // somewhere inside the 420–680 nm band.
     expect(report.summary.worstMargin).toBeGreaterThan(0.05);
     expect(report.summary.worstMargin).toBeLessThan(0.2);
-    expect(report.summary.bands[0].worstAtNm).toBeGreaterThanOrEqual(420);
-    expect(report.summary.bands[0].worstAtNm).toBeLessThanOrEqual(680);
+    const band = report.summary.bands[0]!;
+    expect(band.worstAtNm).toBeGreaterThanOrEqual(420);
+    expect(band.worstAtNm).toBeLessThanOrEqual(680);
 
     await page.getByRole('button', { name: 'Send', exact: true }).click();
     const confirm = page.getByRole('dialog', { name: `Send quote Q-${quoteId}?` });

@@ -37,7 +37,7 @@ describe('signing in as each demo role', () => {
   it('a wrong password shows the API message and stays on the sign-in page', async () => {
     const page = await browser.newPage();
     await page.goto(`${baseUrl()}/sign-in`);
-    await page.getByLabel('E-mail').fill(demoSignIns()[0].email);
+    await page.getByLabel('E-mail').fill(demoSignIns()[0]!.email);
     await page.getByLabel('Password').fill('not-the-password');
     await page.getByRole('button', { name: 'Sign in' }).click();
     await expect.poll(() => page.getByText('Wrong e-mail or password.').count()).toBe(1);

@@ -125,13 +125,13 @@ describe('stack file', () => {
       (await run.json()) as { spectra: { id: number; angleDeg: number; quantity: string }[] }
     ).spectra;
     expect(spectrum).toMatchObject({ angleDeg: ANGLE_DEG, quantity: 'R' });
-    const res = await page.request.get(`${baseUrl()}/api/runs/${runId}/spectra/${spectrum.id}/comparison`);
+    const res = await page.request.get(`${baseUrl()}/api/runs/${runId}/spectra/${spectrum!.id}/comparison`);
     expect(res.ok()).toBe(true);
     const view = (await res.json()) as SpectrumComparisonView;
     expect(view.measured.valuesPercent).toHaveLength(61);
-    view.measured.valuesPercent.forEach((v, i) => expect(v).toBeCloseTo(cliPercent[i], 9));
+    view.measured.valuesPercent.forEach((v, i) => expect(v).toBeCloseTo(cliPercent[i]!, 9));
     expect(view.design.wavelengthsNm).toEqual(view.measured.wavelengthsNm);
-    const worstGap = Math.max(...view.design.valuesPercent.map((d, i) => Math.abs(d - cliPercent[i])));
+    const worstGap = Math.max(...view.design.valuesPercent.map((d, i) => Math.abs(d - cliPercent[i]!)));
     expect(worstGap).toBeLessThan(1e-9);
 
     // The page's verdict is the mask's verdict on the CLI's numbers.
