@@ -128,68 +128,72 @@ export function RunSheetDocument({ sheet }: RunSheetDocumentProps) {
             sheet.layers.map((l) => l.material),
           )}
         </Typography>
-        <Table size="small" aria-label="Run sheet layers">
-          <TableHead>
-            <TableRow>
-              <TableCell>Step</TableCell>
-              <TableCell>Design layer</TableCell>
-              <TableCell>Material</TableCell>
-              <TableCell align="right">On the part (nm)</TableCell>
-              <TableCell align="right">Tooling factor</TableCell>
-              <TableCell align="right">Set on the monitor (nm)</TableCell>
-              <TableCell align="right">{qwotLabel(lambda)}</TableCell>
-              <TableCell align="right">Rate (nm/s)</TableCell>
-              <TableCell align="right">Time (s)</TableCell>
-              <TableCell>Turning points (monitor nm into the layer)</TableCell>
-              <TableCell>Process settings</TableCell>
-              <TableCell>Actual end thickness (nm)</TableCell>
-              <TableCell>Actual rate (nm/s)</TableCell>
-              <TableCell sx={{ minWidth: 120 }}>Remarks</TableCell>
-            </TableRow>
-          </TableHead>
-          <TableBody>
-            {sheet.layers.map((l) => (
-              <TableRow key={l.step}>
-                <TableCell>{l.step}</TableCell>
-                <TableCell>{l.designLayer}</TableCell>
-                <TableCell>{l.material}</TableCell>
-                <TableCell align="right">{formatFixed(l.partThicknessNm, 2)}</TableCell>
-                <TableCell align="right">{formatToolingFactor(l.toolingFactor)}</TableCell>
-                <TableCell align="right">{formatFixed(l.monitorThicknessNm, 2)}</TableCell>
-                <TableCell align="right">{formatFixed(l.qwotAtMonitor, 3)}</TableCell>
-                <TableCell align="right">{formatFixed(l.rateNmPerS, 2)}</TableCell>
-                <TableCell align="right">{formatFixed(l.timeS, 1)}</TableCell>
-                <TableCell>
-                  {l.turningPointsNm.length === 0
-                    ? '—'
-                    : l.turningPointsNm.map((t) => t.toFixed(1)).join(', ')}
-                </TableCell>
-                <TableCell sx={{ whiteSpace: 'pre-line', fontSize: '0.8em', minWidth: 180 }}>
-                  {l.process
-                    ? processLines(l.process).join('\n')
-                    : 'None kept for this material on this chamber'}
-                </TableCell>
-                <TableCell sx={WRITE_IN} aria-label={`Actual end thickness, step ${l.step}`} />
-                <TableCell sx={WRITE_IN} aria-label={`Actual rate, step ${l.step}`} />
-                <TableCell sx={WRITE_IN} aria-label={`Remarks, step ${l.step}`} />
+        {/* Fourteen columns: tight cell padding keeps them inside a 1440 px screen beside the
+            navigation; on a narrower one the table scrolls on its own, never the whole page. */}
+        <Box sx={{ overflowX: 'auto', '@media print': { overflowX: 'visible' } }}>
+          <Table size="small" aria-label="Run sheet layers" sx={{ '& .MuiTableCell-root': { px: 1 } }}>
+            <TableHead>
+              <TableRow>
+                <TableCell>Step</TableCell>
+                <TableCell>Design layer</TableCell>
+                <TableCell>Material</TableCell>
+                <TableCell align="right">On the part (nm)</TableCell>
+                <TableCell align="right">Tooling factor</TableCell>
+                <TableCell align="right">Set on the monitor (nm)</TableCell>
+                <TableCell align="right">{qwotLabel(lambda)}</TableCell>
+                <TableCell align="right">Rate (nm/s)</TableCell>
+                <TableCell align="right">Time (s)</TableCell>
+                <TableCell>Turning points (monitor nm into the layer)</TableCell>
+                <TableCell>Process settings</TableCell>
+                <TableCell>Actual end thickness (nm)</TableCell>
+                <TableCell>Actual rate (nm/s)</TableCell>
+                <TableCell sx={{ minWidth: 120 }}>Remarks</TableCell>
               </TableRow>
-            ))}
-          </TableBody>
-          <TableFooter
-            sx={{ '& .MuiTableCell-root': { color: 'text.primary', fontWeight: 600, fontSize: 'inherit' } }}
-          >
-            <TableRow>
-              <TableCell colSpan={3}>Totals</TableCell>
-              <TableCell align="right">{formatFixed(sheet.totals.partThicknessNm, 2)}</TableCell>
-              <TableCell />
-              <TableCell align="right">{formatFixed(sheet.totals.monitorThicknessNm, 2)}</TableCell>
-              <TableCell />
-              <TableCell />
-              <TableCell align="right">{formatFixed(sheet.totals.timeS, 1)}</TableCell>
-              <TableCell colSpan={5} />
-            </TableRow>
-          </TableFooter>
-        </Table>
+            </TableHead>
+            <TableBody>
+              {sheet.layers.map((l) => (
+                <TableRow key={l.step}>
+                  <TableCell>{l.step}</TableCell>
+                  <TableCell>{l.designLayer}</TableCell>
+                  <TableCell>{l.material}</TableCell>
+                  <TableCell align="right">{formatFixed(l.partThicknessNm, 2)}</TableCell>
+                  <TableCell align="right">{formatToolingFactor(l.toolingFactor)}</TableCell>
+                  <TableCell align="right">{formatFixed(l.monitorThicknessNm, 2)}</TableCell>
+                  <TableCell align="right">{formatFixed(l.qwotAtMonitor, 3)}</TableCell>
+                  <TableCell align="right">{formatFixed(l.rateNmPerS, 2)}</TableCell>
+                  <TableCell align="right">{formatFixed(l.timeS, 1)}</TableCell>
+                  <TableCell>
+                    {l.turningPointsNm.length === 0
+                      ? '—'
+                      : l.turningPointsNm.map((t) => t.toFixed(1)).join(', ')}
+                  </TableCell>
+                  <TableCell sx={{ whiteSpace: 'pre-line', fontSize: '0.8em', minWidth: 180 }}>
+                    {l.process
+                      ? processLines(l.process).join('\n')
+                      : 'None kept for this material on this chamber'}
+                  </TableCell>
+                  <TableCell sx={WRITE_IN} aria-label={`Actual end thickness, step ${l.step}`} />
+                  <TableCell sx={WRITE_IN} aria-label={`Actual rate, step ${l.step}`} />
+                  <TableCell sx={WRITE_IN} aria-label={`Remarks, step ${l.step}`} />
+                </TableRow>
+              ))}
+            </TableBody>
+            <TableFooter
+              sx={{ '& .MuiTableCell-root': { color: 'text.primary', fontWeight: 600, fontSize: 'inherit' } }}
+            >
+              <TableRow>
+                <TableCell colSpan={3}>Totals</TableCell>
+                <TableCell align="right">{formatFixed(sheet.totals.partThicknessNm, 2)}</TableCell>
+                <TableCell />
+                <TableCell align="right">{formatFixed(sheet.totals.monitorThicknessNm, 2)}</TableCell>
+                <TableCell />
+                <TableCell />
+                <TableCell align="right">{formatFixed(sheet.totals.timeS, 1)}</TableCell>
+                <TableCell colSpan={5} />
+              </TableRow>
+            </TableFooter>
+          </Table>
+        </Box>
         <Typography variant="body1" sx={{ mt: 1.5 }} aria-label="Run time">
           Deposition time {formatDuration(sheet.totals.timeS)} ({sheet.layers.length} layers, at the rates
           above; pump-down, heating and venting not included).
