@@ -24,7 +24,7 @@ describe('sign-in', () => {
     expect(res.body.user).toMatchObject({ email: demo.email, role, active: true });
     expect(res.body.user).not.toHaveProperty('passwordHash');
     const cookie = ([] as string[])
-      .concat(res.headers['set-cookie'])
+      .concat(res.headers['set-cookie'] ?? [])
       .find((c) => c.startsWith('qg_session='));
     expect(cookie).toMatch(/HttpOnly/i);
     expect(cookie).toMatch(/SameSite=Strict/i);
@@ -133,7 +133,7 @@ describe('session', () => {
       .set('Cookie', await demoSession(app, 'sales'));
     expect(res.status).toBe(204);
     const cleared = ([] as string[])
-      .concat(res.headers['set-cookie'])
+      .concat(res.headers['set-cookie'] ?? [])
       .find((c) => c.startsWith('qg_session='));
     expect(cleared).toMatch(/Expires=Thu, 01 Jan 1970/);
   });

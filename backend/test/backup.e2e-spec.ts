@@ -48,7 +48,7 @@ async function calculationOf(email: string, hash: string): Promise<number> {
       email,
     ],
   )) as { id: number }[];
-  return row.id;
+  return row!.id;
 }
 
 describe('deleting calculations', () => {
@@ -96,7 +96,7 @@ describe('backups', () => {
           (await db.query(
             `SELECT count(*) AS n FROM pg_stat_activity WHERE application_name = 'pg_dump'`,
           )) as { n: string }[]
-        )[0].n,
+        )[0]!.n,
       );
     const server = app.getHttpServer().listen(0, '127.0.0.1');
     try {
@@ -158,12 +158,12 @@ describe('backups', () => {
           const [row] = (await target.query(
             `SELECT count(*) AS n, md5(coalesce(string_agg(x::text, '|' ORDER BY x::text), '')) AS h FROM "${t}" x`,
           )) as { n: string; h: string }[];
-          out[t] = `${row.n}:${row.h}`;
+          out[t] = `${row!.n}:${row!.h}`;
         }
         return out;
       };
       const before = await fingerprint();
-      expect(Number(before.users.split(':')[0])).toBeGreaterThan(0);
+      expect(Number(before.users!.split(':')[0])).toBeGreaterThan(0);
 
       const file = path.join(dir, 'shop.dump');
       const env = { ...process.env, DATABASE_URL: url.toString() };
@@ -200,10 +200,10 @@ describe('backups', () => {
       expect(restore.status, restore.stderr).toBe(0);
       expect(await fingerprint()).toEqual(before);
       // Sequences come back too: a new row gets a fresh id.
-      const [{ max }] = (await target.query('SELECT max(id) AS max FROM customers')) as { max: number }[];
+      const [{ max }] = (await target.query('SELECT max(id) AS max FROM customers')) as [{ max: number }];
       const [{ id }] = (await target.query(
         `INSERT INTO customers (name) VALUES ('After restore') RETURNING id`,
-      )) as { id: number }[];
+      )) as [{ id: number }];
       expect(id).toBeGreaterThan(max);
     } finally {
       await target.destroy();

@@ -21,7 +21,7 @@ let demo: { id: number; specMaskId: number };
 
 const http = () => request(app.getHttpServer());
 const calculationCount = async () =>
-  Number(((await db.query('SELECT count(*) AS n FROM calculations')) as { n: string }[])[0].n);
+  Number(((await db.query('SELECT count(*) AS n FROM calculations')) as { n: string }[])[0]!.n);
 
 async function status(id: number, cookie = mira): Promise<{ status: string; progress: number }> {
   return (await http().get(`/api/calculations/${id}`).set('Cookie', cookie)).body as {
@@ -143,7 +143,7 @@ describe('cancel of the largest Yield forecast', () => {
     const [row] = (await db.query('SELECT processed_by FROM calculations WHERE id = $1', [id])) as {
       processed_by: string;
     }[];
-    if (row.processed_by === w.id) {
+    if (row!.processed_by === w.id) {
       const line = await vi.waitFor(
         () => {
           const m = new RegExp(`calculation ${id} cancelled: its threads stopped (\\d+) ms`).exec(w.output());

@@ -107,7 +107,7 @@ describe('compute queue: full analysis', () => {
     const done = await waitFor('completion', statusIs(first.body.id, 'completed'));
     expect(done.progress).toBe(1);
     expect(done.computeMs).toBeGreaterThan(0);
-    expect(done.processedBy).toBe(workers[0].id);
+    expect(done.processedBy).toBe(workers[0]!.id);
     expect(done.summary.wavelengthsNm).toHaveLength(31);
     expect(done.summary.anglesDeg).toEqual([0, 20, 40, 60]);
     expect(done.summary.colour).toHaveLength(4);
@@ -135,7 +135,7 @@ describe('compute queue: full analysis', () => {
       .get(`/api/calculations/${first.body.id}/result?quantity=R&polarisation=p`)
       .set('Cookie', engineer);
     expect(stored.status).toBe(200);
-    stored.body.values[2].forEach((v: number, i: number) => expect(v).toBeCloseTo(direct.R[i], 12));
+    stored.body.values[2].forEach((v: number, i: number) => expect(v).toBeCloseTo(direct.R[i]!, 12));
     // s and p coincide at normal incidence (Hecht, ch. 4).
     const s0 = (
       await http()
@@ -154,7 +154,7 @@ describe('compute queue: full analysis', () => {
     expect(lines[0]).toBe('wavelength_nm,angle_deg,pol,R_percent,T_percent,A_percent');
     expect(lines).toHaveLength(1 + 3 * 4 * 31);
     // Percent with 4 decimals, the same values the result route gives as fractions.
-    const [, , , r] = lines[1].split(',');
+    const [, , , r] = lines[1]!.split(',');
     expect(r).toMatch(/^\d+\.\d{4}$/);
     expect(Number(r)).toBeCloseTo(100 * s0[0], 4);
 

@@ -72,7 +72,7 @@ async function diagnosedRun(lot: string, runDate: string, seed: number): Promise
     ...stack,
     layers: stack.layers.map((l, i) => ({
       ...l,
-      thicknessNm: l.thicknessNm * (LAYERS[i][0] === 'ZrO2' ? 1.03 : 1),
+      thicknessNm: l.thicknessNm * (LAYERS[i]![0] === 'ZrO2' ? 1.03 : 1),
     })),
   };
   const R = calculateSpectrum(
@@ -84,7 +84,7 @@ async function diagnosedRun(lot: string, runDate: string, seed: number): Promise
   const noise = () => ((s = (s * 1103515245 + 12345) % 2 ** 31) / 2 ** 31 - 0.5) * 0.02;
   const csv = [
     'wavelength_nm,R_percent',
-    ...WAVELENGTHS.map((wl, i) => `${wl},${Math.max(0, R[i] * 100 + noise()).toFixed(5)}`),
+    ...WAVELENGTHS.map((wl, i) => `${wl},${Math.max(0, R[i]! * 100 + noise()).toFixed(5)}`),
   ].join('\n');
   const up = await http()
     .post(`/api/runs/${run.body.id}/spectra`)
@@ -291,7 +291,7 @@ describe('chamber calibration', () => {
       chamber.materials.find((x: { materialId: number }) => x.materialId === m['SiO2']).toolingFactor,
     ).toBe(1.04);
     // The sheet fetched before keeps its numbers; a new sheet uses the accepted factor and says so.
-    expect(sheetBefore.layers.filter((l) => l.material === 'ZrO2')[0].toolingFactor).toBe(ZRO2_TF);
+    expect(sheetBefore.layers.filter((l) => l.material === 'ZrO2')[0]!.toolingFactor).toBe(ZRO2_TF);
     const after = await runSheet();
     expect(
       after.layers

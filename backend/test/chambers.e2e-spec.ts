@@ -191,7 +191,7 @@ describe('process settings per material', () => {
     const res = await http()
       .put(`/api/chambers/${chamberId}/process-settings`)
       .set('Cookie', mira)
-      .send({ settings: [setting(m['Sheet L 1.5'], patch)], version: 0 });
+      .send({ settings: [setting(m['Sheet L 1.5']!, patch)], version: 0 });
     expect(res.status).toBe(400);
     expect(res.body.details).toContain(detail);
     expect(await stored()).toEqual([]);
@@ -201,7 +201,7 @@ describe('process settings per material', () => {
     const twice = await http()
       .put(`/api/chambers/${chamberId}/process-settings`)
       .set('Cookie', mira)
-      .send({ settings: [setting(m['Sheet L 1.5']), setting(m['Sheet L 1.5'])], version: 0 });
+      .send({ settings: [setting(m['Sheet L 1.5']!), setting(m['Sheet L 1.5']!)], version: 0 });
     expect(twice.status).toBe(400);
     expect(twice.body.details).toContain(
       `settings[1].materialId: material ${m['Sheet L 1.5']} is listed twice`,
@@ -209,7 +209,7 @@ describe('process settings per material', () => {
     const op = await http()
       .put(`/api/chambers/${chamberId}/process-settings`)
       .set('Cookie', operator)
-      .send({ settings: [setting(m['Sheet L 1.5'])], version: 0 });
+      .send({ settings: [setting(m['Sheet L 1.5']!)], version: 0 });
     expect(op.status).toBe(403);
     expect(await stored()).toEqual([]);
   });
@@ -220,12 +220,12 @@ describe('process settings per material', () => {
       .set('Cookie', mira)
       .send({
         settings: [
-          setting(m['Sheet L 1.5'], {
+          setting(m['Sheet L 1.5']!, {
             ionVoltageV: undefined,
             ionCurrentA: undefined,
             ionGasFlowSccm: undefined,
           }),
-          setting(m['Sheet H 2.0'], { o2FlowSccm: null, o2PartialPressureMbar: 1.5e-4 }),
+          setting(m['Sheet H 2.0']!, { o2FlowSccm: null, o2PartialPressureMbar: 1.5e-4 }),
         ],
         version: 0,
       });
@@ -253,9 +253,9 @@ describe('process settings per material', () => {
     const second = await http()
       .put(`/api/chambers/${chamberId}/process-settings`)
       .set('Cookie', tomas)
-      .send({ settings: [setting(m['Sheet H 2.0'], { substrateTemperatureC: 300 })], version: 1 });
+      .send({ settings: [setting(m['Sheet H 2.0']!, { substrateTemperatureC: 300 })], version: 1 });
     expect(second.status).toBe(200);
-    expect((await stored())[0].version).toBe(2);
+    expect((await stored())[0]!.version).toBe(2);
     const [entry] = (await app
       .get(DataSource)
       .query(
@@ -265,9 +265,9 @@ describe('process settings per material', () => {
       action: string;
       details: { before: { substrateTemperatureC: number }[]; after: { substrateTemperatureC: number }[] };
     }[];
-    expect(entry.action).toBe('process settings edited');
-    expect(entry.details.before.map((s) => s.substrateTemperatureC)).toEqual([250, 250]);
-    expect(entry.details.after.map((s) => s.substrateTemperatureC)).toEqual([300]);
+    expect(entry!.action).toBe('process settings edited');
+    expect(entry!.details.before.map((s) => s.substrateTemperatureC)).toEqual([250, 250]);
+    expect(entry!.details.after.map((s) => s.substrateTemperatureC)).toEqual([300]);
   });
 });
 

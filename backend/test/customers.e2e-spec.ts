@@ -174,15 +174,15 @@ describe('customers', () => {
     const doc = (await http().get('/api/docs-json')).body as {
       components: { schemas: Record<string, { properties: Record<string, unknown>; required?: string[] }> };
     };
-    expect(Object.keys(doc.components.schemas.CustomerDto.properties).sort()).toEqual([
+    expect(Object.keys(doc.components.schemas.CustomerDto!.properties).sort()).toEqual([
       'contactEmail',
       'contacts',
       'name',
       'notes',
     ]);
-    expect(doc.components.schemas.CustomerDto.required).toEqual(['name']);
-    expect(doc.components.schemas.CustomerContactDto.required?.sort()).toEqual(['email', 'name']);
-    expect(doc.components.schemas.UpdateCustomerDto.required?.sort()).toEqual(['name', 'version']);
+    expect(doc.components.schemas.CustomerDto!.required).toEqual(['name']);
+    expect(doc.components.schemas.CustomerContactDto!.required?.sort()).toEqual(['email', 'name']);
+    expect(doc.components.schemas.UpdateCustomerDto!.required?.sort()).toEqual(['name', 'version']);
   });
 
   it('operators do not see customers', async () => {

@@ -95,7 +95,7 @@ describe('demo shop', () => {
         name: string;
       }[];
       expect(chamber).toBeDefined();
-      await db.query(`UPDATE chambers SET name = 'Box coater B2 (renamed)' WHERE id = $1`, [chamber.id]);
+      await db.query(`UPDATE chambers SET name = 'Box coater B2 (renamed)' WHERE id = $1`, [chamber!.id]);
       try {
         expect(await seedDemo(db, demoSignIns(credentialsFile))).toBe(0);
         const rows = (await db.query(`SELECT name FROM chambers WHERE name LIKE 'Box coater B2%'`)) as {
@@ -103,7 +103,7 @@ describe('demo shop', () => {
         }[];
         expect(rows.map((r) => r.name)).toEqual(['Box coater B2 (renamed)']);
       } finally {
-        await db.query(`UPDATE chambers SET name = 'Box coater B2' WHERE id = $1`, [chamber.id]);
+        await db.query(`UPDATE chambers SET name = 'Box coater B2' WHERE id = $1`, [chamber!.id]);
       }
     } finally {
       await db.destroy();

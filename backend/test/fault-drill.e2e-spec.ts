@@ -144,7 +144,7 @@ beforeAll(async () => {
     headers: { 'content-type': 'application/json', [CSRF_HEADER]: '1' },
     body: JSON.stringify({ email: mira?.email, password: mira?.password }),
   });
-  cookie = (res.headers.get('set-cookie') ?? '').split(';')[0];
+  cookie = (res.headers.get('set-cookie') ?? '').split(';')[0]!;
   expect(cookie).toMatch(/^qg_session=/);
   db = new DataSource(dataSourceOptions(drillDbUrl));
   await db.initialize();
@@ -172,7 +172,7 @@ describe('fault drill under the npm start supervisor', () => {
     );
     const [killed] = pidsOf('worker').slice(-1);
     const mark = output.length;
-    process.kill(killed, 'SIGKILL');
+    process.kill(killed!, 'SIGKILL');
     // The API answers while the worker is down.
     expect((await api(`/calculations/${id}`)).status).toBe(200);
     const restarted = await waitForOutput(/worker restarted \(pid (\d+)\)/, mark);
@@ -186,11 +186,11 @@ describe('fault drill under the npm start supervisor', () => {
       'SELECT completed_count, attempts, processed_by FROM calculations WHERE id = $1',
       [id],
     )) as { completed_count: number; attempts: number; processed_by: string }[];
-    expect(row.completed_count).toBe(1);
-    expect(row.attempts).toBeGreaterThanOrEqual(2);
-    expect(row.processed_by).toMatch(new RegExp(`:${newPid}$`));
+    expect(row!.completed_count).toBe(1);
+    expect(row!.attempts).toBeGreaterThanOrEqual(2);
+    expect(row!.processed_by).toMatch(new RegExp(`:${newPid}$`));
     expect(since(mark)).not.toMatch(/api stopped unexpectedly/);
-    expect(alive(killed)).toBe(false);
+    expect(alive(killed!)).toBe(false);
   }, 180_000);
 
   it('PostgreSQL stopped for 10 s: plain 503s, then recovery without any restart; a running job completes once', async () => {
@@ -233,7 +233,7 @@ describe('fault drill under the npm start supervisor', () => {
     const [row] = (await db.query('SELECT completed_count FROM calculations WHERE id = $1', [id])) as {
       completed_count: number;
     }[];
-    expect(row.completed_count).toBe(1);
+    expect(row!.completed_count).toBe(1);
     // Nothing crashed: the supervisor restarted nothing.
     expect(since(mark)).not.toMatch(/stopped unexpectedly/);
   }, 240_000);

@@ -173,7 +173,7 @@ describe('material revisions', () => {
           `SELECT count(*)::int AS n FROM pg_stat_activity WHERE wait_event_type = 'Lock' AND query ILIKE $1`,
           [`%${query}%`],
         )) as { n: number }[];
-        if (rows[0].n >= min) return true;
+        if (rows[0]!.n >= min) return true;
         await new Promise((r) => setTimeout(r, 50));
       }
       return false;

@@ -42,25 +42,25 @@ describe('materials library', () => {
     });
     for (const name of ['MgF2', 'SiO2', 'Al2O3', 'HfO2', 'ZrO2', 'Ta2O5', 'Nb2O5', 'TiO2']) {
       expect(byName[name]).toMatchObject({ typical: false, provenance: { kind: 'published' } });
-      expect(byName[name].provenance.source).toMatch(/DOI: 10\./);
-      expect(byName[name].sourceFile).toMatchObject({ mediaType: 'application/yaml' });
+      expect(byName[name]!.provenance.source).toMatch(/DOI: 10\./);
+      expect(byName[name]!.sourceFile).toMatchObject({ mediaType: 'application/yaml' });
     }
     // I. H. Malitson, J. Opt. Soc. Am. 55, 1205 (1965): n(587.6 nm) = 1.45846, formula stated 0.21–6.7 µm.
     const silica = byName['Fused silica'];
-    expect(silica.provenance.source).toMatch(/Malitson[\s\S]*DOI: 10\.1364\/JOSA\.55\.001205/);
-    expect(indexAt(silica.model, 587.6).n).toBeCloseTo(1.45846, 5);
-    expect(silica.rangeNm).toEqual({ from: 210, to: 6700 });
+    expect(silica!.provenance.source).toMatch(/Malitson[\s\S]*DOI: 10\.1364\/JOSA\.55\.001205/);
+    expect(indexAt(silica!.model, 587.6).n).toBeCloseTo(1.45846, 5);
+    expect(silica!.rangeNm).toEqual({ from: 210, to: 6700 });
     // I. H. Malitson, Appl. Opt. 2, 1103 (1963): CaF2 n(587.6 nm) = 1.43385.
-    expect(indexAt(byName.CaF2.model, 587.6).n).toBeCloseTo(1.43385, 5);
+    expect(indexAt(byName.CaF2!.model, 587.6).n).toBeCloseTo(1.43385, 5);
     // Malitson & Dodge, J. Opt. Soc. Am. 62, 1405 (1972), ordinary ray: n(589.3 nm) = 1.76808.
-    expect(indexAt(byName['Sapphire (ordinary ray)'].model, 589.3).n).toBeCloseTo(1.76808, 5);
+    expect(indexAt(byName['Sapphire (ordinary ray)']!.model, 589.3).n).toBeCloseTo(1.76808, 5);
     // Gao, Lemarchand, Lequime, J. Europ. Opt. Soc. Rap. Public. 8, 13010 (2013), first row 0.252 µm.
-    expect(indexAt(byName.SiO2.model, 252)).toEqual({ n: 1.523846, k: 0.001211 });
+    expect(indexAt(byName.SiO2!.model, 252)).toEqual({ n: 1.523846, k: 0.001211 });
     // M. A. Green, Sol. Energ. Mat. Sol. Cells 92, 1305 (2008), row 0.5 µm: n 4.294, k 0.044165.
-    expect(indexAt(byName.Si.model, 500)).toEqual({ n: 4.294, k: 0.044165 });
+    expect(indexAt(byName.Si!.model, 500)).toEqual({ n: 4.294, k: 0.044165 });
     // M. F. Al-Kuhaili, Opt. Mat. 27, 383 (2004): n = 1.875 + 6.28e-3/λ² + 5.80e-4/λ⁴ (λ in µm), 0.2–2 µm.
-    expect(byName.HfO2.model).toMatchObject({ model: 'cauchy', A: 1.875, B: 6.28e-3, C: 5.8e-4 });
-    expect(() => indexAt(byName.HfO2.model, 2500)).toThrow(/outside the cauchy model's valid range/);
+    expect(byName.HfO2!.model).toMatchObject({ model: 'cauchy', A: 1.875, B: 6.28e-3, C: 5.8e-4 });
+    expect(() => indexAt(byName.HfO2!.model, 2500)).toThrow(/outside the cauchy model's valid range/);
   });
 
   it('creates a Cauchy material and returns the normalised model', async () => {

@@ -287,7 +287,7 @@ describe('Run diagnosis', () => {
     const noise = () => ((seed = (seed * 1103515245 + 12345) % 2 ** 31) / 2 ** 31 - 0.5) * 0.01;
     const csv = [
       'wavelength_nm,R_percent',
-      ...wavelengthsNm.map((wl, i) => `${wl},${(R[i] * 100 + noise()).toFixed(5)}`),
+      ...wavelengthsNm.map((wl, i) => `${wl},${(R[i]! * 100 + noise()).toFixed(5)}`),
     ].join('\n');
     const up = await http()
       .post(`/api/runs/${run.body.id}/spectra`)

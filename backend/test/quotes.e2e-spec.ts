@@ -114,7 +114,7 @@ describe('compliance reports', () => {
     pages.forEach((p, i) => expect(p).toContain(`Page ${i + 1} of ${pages.length}`));
     expect(overlappingWords(wordBoxes(pdf.body as Buffer))).toEqual([]);
     const png = pagePngs(pdf.body as Buffer)[0];
-    expect(png.subarray(1, 4).toString('latin1')).toBe('PNG');
+    expect(png!.subarray(1, 4).toString('latin1')).toBe('PNG');
   });
 
   it('hides the layer table when asked', async () => {

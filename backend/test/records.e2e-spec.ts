@@ -355,7 +355,7 @@ describe('the audit trail', () => {
       ['deactivated', 'Elin Voss'],
       ['password reset', 'Elin Voss'],
     ]);
-    expect(trail[2].summary).toBe(`${email}: role operator → sales`);
+    expect(trail[2]!.summary).toBe(`${email}: role operator → sales`);
 
     const design = created(
       await http()

@@ -1012,7 +1012,7 @@ beforeAll(async () => {
        VALUES ($1, 1, $2, $3, '2026-12-01', (SELECT id FROM users WHERE email = $4)) RETURNING id`,
       [ctx.releasedDesignId, ctx.chamberId, `M-${role}`, `matrix-${role}@larkspur.example`],
     )) as { id: number }[];
-    ctx.ownRunIds[role] = own.id;
+    ctx.ownRunIds[role] = own!.id;
   }
   const spectrum = await request(app.getHttpServer())
     .post(`/api/runs/${ctx.runId}/spectra`)

@@ -338,7 +338,7 @@ describe('the local SMTP fake', () => {
     );
     expect(message).toBeDefined();
     const file = await http()
-      .get(`/api/outbox/${message!.id}/attachments/${message!.attachments[0].id}`)
+      .get(`/api/outbox/${message!.id}/attachments/${message!.attachments[0]!.id}`)
       .set('Cookie', admin);
     expect(file.status).toBe(200);
     expect(file.headers['content-type']).toBe('application/octet-stream');

@@ -25,7 +25,7 @@ beforeAll(async () => {
   const db = app.get(DataSource);
   await db.query('DELETE FROM shop_settings');
   firstAudit = Number(
-    ((await db.query('SELECT coalesce(max(id), 0) AS n FROM audit_events')) as { n: string }[])[0].n,
+    ((await db.query('SELECT coalesce(max(id), 0) AS n FROM audit_events')) as { n: string }[])[0]!.n,
   );
 });
 afterAll(async () => {
@@ -47,7 +47,7 @@ const auditCount = async () =>
       (await app
         .get(DataSource)
         .query(`SELECT count(*) AS n FROM audit_events WHERE entity = 'shop-settings'`)) as { n: string }[]
-    )[0].n,
+    )[0]!.n,
   );
 
 describe('shop settings', () => {
@@ -170,7 +170,7 @@ describe('shop settings', () => {
     const res = await http().put('/api/shop-settings/target-margin').set('Cookie', admin).send(body);
     expect(res.status).toBe(400);
     expect(res.body.details).toContain(detail);
-    expect((await settingsRow())[0].version).toBe(3);
+    expect((await settingsRow())[0]!.version).toBe(3);
   });
 
   it('sets the default target margin (admins only, audited) that a Fit to mask without one designs in', async () => {
@@ -214,7 +214,7 @@ describe('shop settings', () => {
         .query('SELECT input FROM calculations WHERE id = $1', [sub.body.id])) as {
         input: { options: { marginPercent: number } };
       }[];
-      return rows[0].input.options.marginPercent;
+      return rows[0]!.input.options.marginPercent;
     };
     expect(await marginOf({})).toBe(0.25);
     expect(await marginOf({ targetMarginPercent: 0.05 })).toBe(0.05);

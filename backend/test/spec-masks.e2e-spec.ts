@@ -44,7 +44,7 @@ describe('spec masks', () => {
         customer: { id: halden, name: 'Halden Vision Systems' },
       }),
     ]);
-    expect(demo[0].bands[0]).toMatchObject({
+    expect(demo[0]!.bands[0]).toMatchObject({
       from_nm: 420,
       to_nm: 680,
       max_percent: 0.5,

@@ -154,13 +154,13 @@ describe('users (admin)', () => {
       }
       const [a, b] = made;
       const [byA, byB] = await Promise.all([
-        http().patch(`/api/users/${b.id}`).set('Cookie', a.cookie).send({ role: 'engineer' }),
-        http().patch(`/api/users/${a.id}`).set('Cookie', b.cookie).send({ role: 'engineer' }),
+        http().patch(`/api/users/${b!.id}`).set('Cookie', a!.cookie).send({ role: 'engineer' }),
+        http().patch(`/api/users/${a!.id}`).set('Cookie', b!.cookie).send({ role: 'engineer' }),
       ]);
       // The loser's session ended with its role change (401) or its actor had just lost the role (403).
       expect([byA.status, byB.status].filter((s) => s === 200)).toHaveLength(1);
       const roles = (await db.query('SELECT id, role FROM users WHERE id = ANY($1) ORDER BY id', [
-        [a.id, b.id],
+        [a!.id, b!.id],
       ])) as {
         role: string;
       }[];

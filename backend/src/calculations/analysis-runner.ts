@@ -128,9 +128,12 @@ function fieldAt(stack: OpticalStack, wavelengthNm: number, angleDeg: number): A
   const depths = evenDepthsNm(stack, FIELD_POINTS, 50);
   const s = fieldProfile(new Float64Array(depths.length), stack, wavelengthNm, angleDeg, 's', depths);
   const p = fieldProfile(new Float64Array(depths.length), stack, wavelengthNm, angleDeg, 'p', depths);
-  const interfacesNm = [0];
-  for (const layer of stack.layers)
-    interfacesNm.push(interfacesNm[interfacesNm.length - 1] + layer.thicknessNm);
+  let depthNm = 0;
+  const interfacesNm = [depthNm];
+  for (const layer of stack.layers) {
+    depthNm += layer.thicknessNm;
+    interfacesNm.push(depthNm);
+  }
   return {
     wavelengthNm,
     angleDeg,

@@ -51,6 +51,7 @@ import {
 import type { User } from '../users/user.entity.js';
 import { Calculation } from './calculation.entity.js';
 import { optimiseJobSize, type OptimiseInput, type OptimiseKind } from './optimise-jobs.js';
+import { elementAt } from '../common/element-at.js';
 
 /**
  * The BullMQ job id of a calculation: one job per calculation, so a double add is a no-op. The
@@ -361,7 +362,8 @@ export class CalculationsService {
         for (let ia = 0; ia < summary.anglesDeg.length; ia++) {
           const angle = summary.anglesDeg[ia];
           for (let iw = 0; iw < summary.wavelengthsNm.length; iw++) {
-            const at = (q: AnalysisQuantity) => percent4(values[analysisIndex(summary, q, pol, ia, iw)]);
+            const at = (q: AnalysisQuantity) =>
+              percent4(elementAt(values, analysisIndex(summary, q, pol, ia, iw), 'the stored result'));
             chunk.push(`${summary.wavelengthsNm[iw]},${angle},${pol},${at('R')},${at('T')},${at('A')}\n`);
             if (chunk.length === CSV_LINES_PER_PIECE) {
               yield chunk.join('');

@@ -13,6 +13,7 @@ import type { YieldOptions } from '@quietglass/shared/optimise/yield';
 import type { LimitBand, SpecMask } from '@quietglass/shared/optics/mask';
 import type { BackSurface } from '@quietglass/shared/optics/batch';
 import { parseStack, type OpticalStack, type StackDescription } from '@quietglass/shared/optics/stack';
+import { elementAt } from '../common/element-at.js';
 
 export type OptimiseKind = 'fit' | 'grow' | 'yield' | 'diagnosis';
 
@@ -104,7 +105,10 @@ export function runOptimiseJob(
     if (fit.stoppedBy === 'cancelled') return fit;
     const fitted = {
       ...stack,
-      layers: stack.layers.map((l, i) => ({ ...l, thicknessNm: fit.thicknessesNm[i] })),
+      layers: stack.layers.map((l, i) => ({
+        ...l,
+        thicknessNm: elementAt(fit.thicknessesNm, i, 'the fitted thicknesses'),
+      })),
     };
     return { ...fit, forecast: resultForecast(fitted, mask, input.back, report) };
   }

@@ -16,6 +16,7 @@ import type { User } from '../users/user.entity.js';
 import { CalculationsService } from './calculations.service.js';
 import type { DiagnosisDto, FitDto, GrowDto, YieldDto } from './dto/optimise.dto.js';
 import { type DiagnosisInput, type FitInput, type GrowInput, type YieldInput } from './optimise-jobs.js';
+import { elementAt } from '../common/element-at.js';
 
 /** Builds the inputs of Fit to mask, Grow layers, Yield forecast and Run diagnosis, and accepts results. */
 @Injectable()
@@ -189,7 +190,10 @@ export class OptimiseService {
     let layers: DesignVersionView['layers'];
     if (calc.kind === 'fit') {
       const result = calc.summary as unknown as FitResult;
-      layers = from.layers.map((l, i) => ({ ...l, thicknessNm: result.thicknessesNm[i] }));
+      layers = from.layers.map((l, i) => ({
+        ...l,
+        thicknessNm: elementAt(result.thicknessesNm, i, 'the fitted thicknesses'),
+      }));
     } else {
       const result = calc.summary as unknown as GrowResult;
       const chosen = step === undefined ? result.final : result.steps.find((s) => s.step === step);

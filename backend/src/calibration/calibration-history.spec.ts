@@ -42,7 +42,7 @@ const RUN_NOISE = 0.003;
 function description(factors: number[]): StackDescription {
   return {
     substrate: { n: 1.52 },
-    layers: DESIGN.map(([m, d], i) => ({ n: INDEX[m], thickness_nm: d * factors[i] })),
+    layers: DESIGN.map(([m, d], i) => ({ n: INDEX[m], thickness_nm: d * factors[i]! })),
   };
 }
 
@@ -63,10 +63,10 @@ function history(
   for (let k = 0; k < runs; k++) {
     // One run-to-run factor per material (the source and its shutter), shared by its layers.
     const perMaterial: Record<number, number> = {
-      [L]: truth(L, k) * (1 + RUN_NOISE * noise[k * 8]),
-      [H]: truth(H, k) * (1 + RUN_NOISE * noise[k * 8 + 1]),
+      [L]: truth(L, k) * (1 + RUN_NOISE * noise[k * 8]!),
+      [H]: truth(H, k) * (1 + RUN_NOISE * noise[k * 8 + 1]!),
     };
-    const built = parseStack(description(DESIGN.map(([m]) => perMaterial[m])));
+    const built = parseStack(description(DESIGN.map(([m]) => perMaterial[m]!)));
     const R = calculateSpectrum(built, {
       wavelengthsNm: WAVELENGTHS,
       anglesDeg: [0],
@@ -74,7 +74,7 @@ function history(
     }).R;
     // A spectrophotometer reports no negative reflectance.
     const measured = WAVELENGTHS.map((_, i) =>
-      Math.max(0, 100 * R[i] + SPECTRAL_NOISE_PERCENT * spectral[k * WAVELENGTHS.length + i]),
+      Math.max(0, 100 * R[i]! + SPECTRAL_NOISE_PERCENT * spectral[k * WAVELENGTHS.length + i]!),
     );
     const input: DiagnosisInput = {
       kind: 'diagnosis',
@@ -122,7 +122,7 @@ function findings(series: CalibrationSeriesView[]) {
       correction: s.estimate!.correction,
     })),
     DEFAULT_CALIBRATION_SETTINGS,
-    recentCauses(series[0].runs, DEFAULT_CALIBRATION_SETTINGS.minRuns),
+    recentCauses(series[0]!.runs, DEFAULT_CALIBRATION_SETTINGS.minRuns),
   );
 }
 
@@ -130,6 +130,7 @@ describe('calibration history from simulated, diagnosed runs', () => {
   it('recovers a slow 2 % drift of one material over 12 runs within 2σ and suggests only that material', () => {
     const drift = (material: number, k: number) => (material === H ? 1 + (0.02 * k) / 11 : 1);
     const [low, high] = seriesOf(history(12, drift, 1));
+    if (!low || !high) throw new Error('expected one series per material');
     const h = high.estimate!;
     expect(h.runs).toBe(12);
     expect(Math.abs(h.correction.value - 1.02)).toBeLessThan(2 * h.correction.sigma);
@@ -145,6 +146,7 @@ describe('calibration history from simulated, diagnosed runs', () => {
 
   it('leaves the 2 nm layer out as not identified and keeps the thick layers', () => {
     const [, high] = seriesOf(history(3, () => 1, 2));
+    if (!high) throw new Error('expected one series per material');
     for (const run of high.runs) {
       const thin = run.layers.find((x) => x.designNm === 2)!;
       const thick = run.layers.find((x) => x.designNm === 120)!;
@@ -161,20 +163,21 @@ describe('calibration history from simulated, diagnosed runs', () => {
     const series = seriesOf(history(12, truth, 3));
     expect(findings(series)).toEqual([]);
     const high = series[1];
-    expect(high.runs[7].tracked!.outOfControl).toBe(true);
+    if (!high) throw new Error('expected one series per material');
+    expect(high.runs[7]!.tracked!.outOfControl).toBe(true);
     expect(high.runs.filter((r) => r.tracked!.outOfControl).map((r) => r.runId)).toEqual([8]);
-    expect(high.runs[7].cause).toBe('material');
+    expect(high.runs[7]!.cause).toBe('material');
   });
 
   it('points to a monitor or geometry cause when every material is off by the same 2.5 %', () => {
     const series = seriesOf(history(8, () => 1.025, 4));
     const f = findings(series);
     expect(f).toHaveLength(1);
-    expect(f[0].kind).toBe('common');
+    expect(f[0]!.kind).toBe('common');
     // The classification is the point here (recovery is the drift test's): the common factor lies
     // within half the threshold of the truth.
-    expect(Math.abs(f[0].correction.value - 1.025)).toBeLessThan(0.005);
-    expect(series[0].runs.filter((r) => r.cause === 'common').length).toBeGreaterThanOrEqual(6);
+    expect(Math.abs(f[0]!.correction.value - 1.025)).toBeLessThan(0.005);
+    expect(series[0]!.runs.filter((r) => r.cause === 'common').length).toBeGreaterThanOrEqual(6);
   });
 
   it('measures runs made before an accepted calibration against the factor they were made with', () => {
@@ -199,8 +202,8 @@ describe('calibration history from simulated, diagnosed runs', () => {
       decided,
       causes,
     );
-    expect(high.runs[0].toolingFactorInEffect).toBe(1);
-    expect(high.runs[11].toolingFactorInEffect).toBe(1.02);
+    expect(high.runs[0]!.toolingFactorInEffect).toBe(1);
+    expect(high.runs[11]!.toolingFactorInEffect).toBe(1.02);
     const e = high.estimate!;
     expect(Math.abs(e.correction.value - 1)).toBeLessThan(2 * e.correction.sigma);
   });
@@ -235,7 +238,7 @@ describe('calibration history from simulated, diagnosed runs', () => {
       [],
       causes,
     );
-    expect(unkept.runs[0].toolingFactorInEffect).toBe(1.02);
-    expect(unkept.runs[0].correction!.value).toBeGreaterThan(1.015);
+    expect(unkept.runs[0]!.toolingFactorInEffect).toBe(1.02);
+    expect(unkept.runs[0]!.correction!.value).toBeGreaterThan(1.015);
   });
 });

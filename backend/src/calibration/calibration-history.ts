@@ -20,6 +20,7 @@ import {
 import type { DiagnosisSummary } from '@quietglass/shared/calculations';
 import type { ChamberMaterialSetting } from '@quietglass/shared/chambers';
 import type { LayerReading } from '@quietglass/shared/runs';
+import { elementAt } from '../common/element-at.js';
 
 /** A run with its diagnosis, as the history reads it. */
 export interface DiagnosedRun {
@@ -143,7 +144,7 @@ export function materialSeries(
   }
   const withValue = points.filter((p) => p.correction !== null);
   const tracked = trackCalibration(withValue.map((p) => p.correction!));
-  withValue.forEach((p, i) => (p.tracked = tracked[i]));
+  withValue.forEach((p, i) => (p.tracked = elementAt(tracked, i, 'the tracked corrections')));
   const last = tracked[tracked.length - 1];
   const withRate = points.filter((p) => p.rateRatio !== null);
   const rateTracked = trackCalibration(withRate.map((p) => ({ value: p.rateRatio!, sigma: 0 })));
@@ -210,7 +211,8 @@ export function suggestion(
   series: CalibrationSeriesView[],
   diagnosed: DiagnosedRun[],
 ): CalibrationSuggestionView {
-  const lastRunId = diagnosed[diagnosed.length - 1].run.id;
+  const lastRunId = diagnosed.at(-1)?.run.id;
+  if (lastRunId === undefined) throw new Error('a calibration suggestion needs at least one diagnosed run');
   if (f.kind === 'common') {
     const names = series.filter((s) => f.materialIds.includes(s.materialId)).map((s) => s.materialName);
     return {

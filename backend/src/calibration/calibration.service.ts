@@ -151,6 +151,7 @@ export class CalibrationService {
       );
     }
     const materialId = s.kind === 'material' ? s.materialIds[0] : null;
+    if (materialId === undefined) throw new Error(`calibration suggestion ${s.key} names no material`);
     const id = await this.decisions.manager.transaction(async (tx) => {
       if (dto.decision === 'accepted' && materialId !== null) {
         await this.chambers.applyToolingFactor(

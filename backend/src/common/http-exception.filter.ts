@@ -27,6 +27,7 @@ const REASONS: Record<number, string> = {
   500: 'Internal Server Error',
   503: 'Service Unavailable',
 };
+const reason = (statusCode: number): string => REASONS[statusCode] ?? 'Error';
 
 /** Turns every error into ErrorBody; unexpected errors are logged and shown without internals. */
 @Catch()
@@ -60,14 +61,14 @@ export function toErrorBody(exception: unknown): ErrorBody {
   if (exception instanceof JsonTooDeepError || cause instanceof JsonTooDeepError) {
     return {
       statusCode: 400,
-      error: REASONS[400],
+      error: reason(400),
       message: String((cause instanceof JsonTooDeepError ? cause : (exception as JsonTooDeepError)).message),
     };
   }
   if (exception instanceof HttpException) {
     const statusCode: HttpStatus = exception.getStatus();
     const response = exception.getResponse();
-    const error = REASONS[statusCode] ?? 'Error';
+    const error = reason(statusCode);
     if (statusCode === HttpStatus.TOO_MANY_REQUESTS) {
       const own = response as { message?: unknown; retryAfterSeconds?: unknown };
       if (typeof own === 'object' && typeof own.message === 'string') {
@@ -93,12 +94,12 @@ export function toErrorBody(exception: unknown): ErrorBody {
   }
   // An outage of PostgreSQL or Redis is not a bug: say so plainly, with 503.
   if (isRedisOutage(exception))
-    return { statusCode: 503, error: REASONS[503], message: OUTAGE_MESSAGES.redis };
+    return { statusCode: 503, error: reason(503), message: OUTAGE_MESSAGES.redis };
   if (isDatabaseOutage(exception))
-    return { statusCode: 503, error: REASONS[503], message: OUTAGE_MESSAGES.database };
+    return { statusCode: 503, error: reason(503), message: OUTAGE_MESSAGES.database };
   return {
     statusCode: 500,
-    error: REASONS[500],
+    error: reason(500),
     message: 'Something went wrong on the server; it has been logged',
   };
 }

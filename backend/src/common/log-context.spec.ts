@@ -25,7 +25,7 @@ describe('log lines carry the request and job ids of their context', () => {
     cap.restore();
     const [inJob, outside] = cap.lines().map((l) => JSON.parse(l) as Record<string, unknown>);
     expect(inJob).toMatchObject({ message: 'claimed', context: 'Compute', jobId: '42', calculationId: 7 });
-    expect(outside.message).toBe('idle');
+    expect(outside!.message).toBe('idle');
     expect(outside).not.toHaveProperty('jobId');
   });
 
@@ -36,7 +36,7 @@ describe('log lines carry the request and job ids of their context', () => {
       withLogFields({ calculationId: 3 }, () => logger.log('queued', 'Calculations')),
     );
     cap.restore();
-    expect(stripVTControlCharacters(cap.lines()[0])).toContain('[Calculations] req=abcd1234 calc=3 queued');
+    expect(stripVTControlCharacters(cap.lines()[0]!)).toContain('[Calculations] req=abcd1234 calc=3 queued');
     expect(currentLogFields()).toEqual({});
   });
 

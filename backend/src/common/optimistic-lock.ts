@@ -1,4 +1,5 @@
 import type { EntityManager, EntityTarget, ObjectLiteral, QueryDeepPartialEntity } from 'typeorm';
+import { elementAt } from './element-at.js';
 
 /** A change to one row that only applies while the row is still at the version the editor read. */
 export interface LockedChange<T extends ObjectLiteral> {
@@ -50,5 +51,5 @@ export async function updateIfVersion<T extends ObjectLiteral>(
     .execute();
   if (result.affected !== 1) throw await conflict();
   const rows = result.raw as Record<string, number>[];
-  return Number(rows[0][column]);
+  return Number(elementAt(rows, 0, 'the updated rows')[column]);
 }

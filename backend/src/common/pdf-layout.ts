@@ -5,6 +5,7 @@
  */
 import { fileURLToPath } from 'node:url';
 import PDFDocument from 'pdfkit';
+import { elementAt } from './element-at.js';
 
 /*
  * DejaVu Sans (Bitstream Vera licence, backend/assets/fonts/LICENSE-DejaVu.txt) has every symbol
@@ -58,7 +59,10 @@ export function rowHeight(doc: Doc, cols: Column[], cells: string[], font: strin
   doc.font(font).fontSize(size);
   let h = 0;
   cells.forEach((c, i) => {
-    h = Math.max(h, doc.heightOfString(c, { width: cols[i].width - 2 * CELL_PAD }));
+    h = Math.max(
+      h,
+      doc.heightOfString(c, { width: elementAt(cols, i, 'the table columns').width - 2 * CELL_PAD }),
+    );
   });
   return h + 2 * CELL_PAD;
 }
@@ -75,11 +79,12 @@ export function drawRow(
   doc.font(font).fontSize(size).fillColor(INK);
   let cx = x;
   cells.forEach((c, i) => {
+    const col = elementAt(cols, i, 'the table columns');
     doc.text(c, cx + CELL_PAD, y + CELL_PAD, {
-      width: cols[i].width - 2 * CELL_PAD,
-      align: cols[i].align ?? 'left',
+      width: col.width - 2 * CELL_PAD,
+      align: col.align ?? 'left',
     });
-    cx += cols[i].width;
+    cx += col.width;
   });
 }
 

@@ -10,6 +10,7 @@ import { DesignVersion } from '../designs/design-version.entity.js';
 import { Material } from '../materials/material.entity.js';
 import { ChamberRun, RunSpectrum } from '../runs/run.entity.js';
 import { User } from '../users/user.entity.js';
+import { elementAt } from '../common/element-at.js';
 
 /** Recorded in demo_seeds once the history exists. */
 const CALIBRATION_SEED = 'larkspur-calibration-history';
@@ -44,7 +45,7 @@ export async function seedCalibrationDemo(db: DataSource): Promise<number> {
     substrate: { material: model(version.substrateMaterialId) },
     layers: version.layers.map((l, i) => ({
       material: model(l.materialId),
-      thickness_nm: l.thicknessNm * factors[i],
+      thickness_nm: l.thicknessNm * elementAt(factors, i, 'the layer factors'),
     })),
   });
   const setting = new Map(chamber.materials.map((m) => [m.materialId, m]));
@@ -62,7 +63,7 @@ export async function seedCalibrationDemo(db: DataSource): Promise<number> {
     version.layers.forEach((l, i) => {
       if (byMaterial.has(l.materialId)) return;
       const drift = l.materialId === zro2 ? (0.02 * k) / (RUNS - 1) : 0;
-      byMaterial.set(l.materialId, (1 + drift) * (1 + 0.003 * scatter[k * 16 + i]));
+      byMaterial.set(l.materialId, (1 + drift) * (1 + 0.003 * elementAt(scatter, k * 16 + i, 'the scatter')));
     });
     const factors = version.layers.map((l) => byMaterial.get(l.materialId)!);
     const R = calculateSpectrum(parseStack(description(factors)), {
@@ -71,7 +72,13 @@ export async function seedCalibrationDemo(db: DataSource): Promise<number> {
       polarisations: ['avg'],
     }).R;
     const values = WAVELENGTHS.map((_, i) =>
-      Number(Math.max(0, 100 * R[i] + 0.03 * noise[k * WAVELENGTHS.length + i]).toFixed(4)),
+      Number(
+        Math.max(
+          0,
+          100 * elementAt(R, i, 'the spectrum') +
+            0.03 * elementAt(noise, k * WAVELENGTHS.length + i, 'the noise'),
+        ).toFixed(4),
+      ),
     );
     const lot = `B2-26${String(101 + k)}`;
     const csv = ['wavelength_nm,R_percent', ...WAVELENGTHS.map((w, i) => `${w},${values[i]}`)].join('\n');
@@ -81,7 +88,9 @@ export async function seedCalibrationDemo(db: DataSource): Promise<number> {
       return {
         step: count - i,
         monitorThicknessNm: Number((l.thicknessNm / s.toolingFactor).toFixed(1)),
-        rateNmPerS: Number((s.rateNmPerS * (1 + 0.02 * scatter[k * 16 + 8 + i])).toFixed(3)),
+        rateNmPerS: Number(
+          (s.rateNmPerS * (1 + 0.02 * elementAt(scatter, k * 16 + 8 + i, 'the scatter'))).toFixed(3),
+        ),
       };
     });
     const input: DiagnosisInput = {

@@ -62,11 +62,17 @@ function fromLibrary(file: string, name: string): DemoMaterial {
   };
 }
 
+function libraryModel(name: string): MaterialModel {
+  const model = MATERIAL_LIBRARY[name];
+  if (model === undefined) throw new Error(`${name} is not in the material library`);
+  return model;
+}
+
 /** Air, N-BK7 (SCHOTT coefficients) and the published optical-constants files. */
 export const DEMO_MATERIALS: readonly DemoMaterial[] = [
   {
     name: 'Air',
-    model: MATERIAL_LIBRARY.air,
+    model: libraryModel('air'),
     rangeNm: { from: 150, to: 20_000 },
     provenanceKind: 'typical',
     source: 'Taken as n = 1; air (about 1.0003 at 550 nm) differs by less than coating work resolves',

@@ -23,6 +23,7 @@ import { Design } from '../designs/design.entity.js';
 import { DesignVersion } from '../designs/design-version.entity.js';
 import { VersionEvent } from '../designs/version-event.entity.js';
 import { hashPassword } from '../users/passwords.js';
+import { elementAt } from '../common/element-at.js';
 
 /**
  * The demo shop, an invented scenario: Larkspur Thin Film Works, a small coating shop with one
@@ -76,7 +77,9 @@ const DEMO_SEED = 'larkspur-demo-shop';
 export async function seedDemo(db: DataSource, signIns: DemoSignIn[]): Promise<number> {
   const [done] = await db.query<unknown[]>('SELECT 1 FROM demo_seeds WHERE name = $1', [DEMO_SEED]);
   if (done) return 0;
-  const earlier = await db.getRepository(User).existsBy({ email: DEMO_USERS[0].email });
+  const earlier = await db
+    .getRepository(User)
+    .existsBy({ email: elementAt(DEMO_USERS, 0, 'the demo users').email });
   const created = earlier ? 0 : await createDemo(db, signIns);
   await db.query('INSERT INTO demo_seeds (name) VALUES ($1) ON CONFLICT DO NOTHING', [DEMO_SEED]);
   return created;
@@ -168,7 +171,7 @@ async function createDemo(db: DataSource, signIns: DemoSignIn[]): Promise<number
     }
     if (settings.length > 0) {
       await db.getRepository(ChamberProcessSettings).insert({
-        chamberId: Number(identifiers[0].id),
+        chamberId: Number(elementAt(identifiers, 0, 'the inserted chamber ids').id),
         settings,
         version: 1,
         updatedAt: new Date(),
@@ -232,7 +235,7 @@ async function seedReleasedDesign(db: DataSource, demo: (typeof DEMO_DESIGNS)[nu
       referenceWavelengthNm: demo.referenceWavelengthNm,
       notes: demo.notes,
       layers: demo.layers.map(([, thicknessNm], i) => ({
-        materialId: layerMaterials[i].id,
+        materialId: elementAt(layerMaterials, i, 'the layer materials').id,
         thicknessNm,
         locked: false,
         notes: '',

@@ -285,7 +285,7 @@ export class DesignsService {
     await this.checkMaterials(draft);
     const number = await this.db.transaction(async (tx) => {
       await tx.query('SELECT id FROM designs WHERE id = $1 FOR UPDATE', [id]);
-      const [{ max }] = await tx.query<{ max: number }[]>(
+      const [{ max }] = await tx.query<[{ max: number }]>(
         'SELECT max(number) AS max FROM design_versions WHERE design_id = $1',
         [id],
       );

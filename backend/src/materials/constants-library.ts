@@ -30,5 +30,5 @@ export function readLibraryFile(file: string): { text: string; parsed: Constants
     throw new Error(`not a library file: ${file}`);
   }
   const text = fs.readFileSync(fileURLToPath(new URL(file, LIBRARY_DIR)), 'utf8');
-  return { text, parsed: parseConstantsFile(text), fileName: file.split('/')[1] };
+  return { text, parsed: parseConstantsFile(text), fileName: file.slice(file.indexOf('/') + 1) };
 }

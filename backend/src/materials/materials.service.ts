@@ -24,6 +24,7 @@ import type {
   UpdateMaterialDto,
 } from './dto/material.dto.js';
 import { parseNkCsv, type NkTable, type WavelengthUnit } from './nk-csv.js';
+import { elementAt } from '../common/element-at.js';
 
 /** An uploaded file kept with the material it made. */
 interface SourceFile {
@@ -191,7 +192,10 @@ export class MaterialsService {
       unit: parsed.unit,
       decimalComma: parsed.decimalComma,
       headerRow: parsed.headerRow,
-      rangeNm: { from: table.wavelengths[0], to: table.wavelengths[table.wavelengths.length - 1] },
+      rangeNm: {
+        from: elementAt(table.wavelengths, 0, 'the n,k table'),
+        to: elementAt(table.wavelengths, table.wavelengths.length - 1, 'the n,k table'),
+      },
     };
   }
 
@@ -442,8 +446,8 @@ export function checkedModel(raw: unknown, rangeNm: { from: number; to: number }
       'model',
     );
     if (model.model === 'table' && !model.clamp) {
-      const lo = model.wavelengths[0];
-      const hi = model.wavelengths[model.wavelengths.length - 1];
+      const lo = elementAt(model.wavelengths, 0, 'the n,k table');
+      const hi = elementAt(model.wavelengths, model.wavelengths.length - 1, 'the n,k table');
       if (rangeNm.from < lo || rangeNm.to > hi) {
         throw new OpticsInputError(
           'rangeNm',

@@ -55,11 +55,11 @@ describe('parseNkCsv: headers with units, decimal commas', () => {
   });
 
   it('refuses a header unit that contradicts the chosen unit, and a file with no unit at all', () => {
-    expect(problems('Wavelength (nm),n\n400,1.5\n500,1.4\n', 'um')[0].reason).toMatch(
+    expect(problems('Wavelength (nm),n\n400,1.5\n500,1.4\n', 'um')[0]!.reason).toMatch(
       /the header gives the wavelengths in nm, but µm was chosen/,
     );
     const r = parseNkCsv('400,1.5\n500,1.4\n', null);
-    expect(r.ok === false && r.problems[0].reason).toMatch(/names no wavelength unit/);
+    expect(r.ok === false && r.problems[0]!.reason).toMatch(/names no wavelength unit/);
   });
 });
 
@@ -72,7 +72,7 @@ describe('parseNkCsv: every kind of bad file is rejected with row-level reasons'
     expect(problems('wavelength_nm,n,k\n')).toEqual([{ row: 0, reason: 'at least 2 data rows are needed' }]);
   });
   it('3 a header without an n column', () => {
-    expect(problems('wavelength_nm,value\n400,1.5\n')[0].reason).toMatch(
+    expect(problems('wavelength_nm,value\n400,1.5\n')[0]!.reason).toMatch(
       /must name a wavelength column .* and an n column/,
     );
   });
@@ -102,18 +102,18 @@ describe('parseNkCsv: every kind of bad file is rejected with row-level reasons'
     expect(problems('400,1.5,0\n500,1.4\n')).toEqual([{ row: 2, reason: 'has 2 column(s), the file has 3' }]);
   });
   it('9 a single column', () => {
-    expect(problems('400\n500\n')[0].reason).toBe('expected 2 or 3 columns: wavelength, n and optionally k');
+    expect(problems('400\n500\n')[0]!.reason).toBe('expected 2 or 3 columns: wavelength, n and optionally k');
   });
   it('10 the wrong unit: µm values read as nm, and nm values read as µm', () => {
-    expect(problems('0.4,1.5\n0.5,1.4\n', 'nm')[0].reason).toMatch(/look like µm/);
-    expect(problems('400000,1.5\n500000,1.4\n', 'um')[0].reason).toMatch(/look like nm/);
+    expect(problems('0.4,1.5\n0.5,1.4\n', 'nm')[0]!.reason).toMatch(/look like µm/);
+    expect(problems('400000,1.5\n500000,1.4\n', 'um')[0]!.reason).toMatch(/look like nm/);
   });
   it('11 a file over the size limit', () => {
     const big = '400,1.5\n'.repeat(Math.ceil(MAX_NK_CSV_BYTES / 8) + 10);
     expect(problems(big)).toEqual([{ row: 0, reason: 'the file is larger than 1 MB' }]);
   });
   it('12 unbalanced quotes', () => {
-    expect(problems('400,"1.5\n500,1.4\n')[0].reason).toMatch(/unbalanced quotes/);
+    expect(problems('400,"1.5\n500,1.4\n')[0]!.reason).toMatch(/unbalanced quotes/);
   });
   it('13 a negative wavelength', () => {
     expect(problems('-400,1.5\n500,1.4\n')).toEqual([{ row: 1, reason: 'wavelength must be > 0' }]);

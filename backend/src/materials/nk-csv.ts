@@ -62,7 +62,7 @@ export function parseNkCsv(text: string, requestedUnit: WavelengthUnit | null): 
     return comma;
   };
   let unit: WavelengthUnit | null = requestedUnit;
-  const lineOf = read.lines;
+  const lineOf = (index: number): number => read.lines[index] ?? 0;
   const problems: CsvProblem[] = [];
 
   let columns = { wl: 0, n: 1, k: 2 as number | null };
@@ -82,20 +82,20 @@ export function parseNkCsv(text: string, requestedUnit: WavelengthUnit | null): 
         ok: false,
         problems: [
           {
-            row: lineOf[0],
+            row: lineOf(0),
             reason: `the header "${names.join(',')}" must name a wavelength column (e.g. wavelength_nm) and an n column; k is optional`,
           },
         ],
       };
     }
     columns = { wl, n, k: k >= 0 ? k : null };
-    const named = unitOfName(names[wl]);
+    const named = unitOfName(names[wl] ?? '');
     if (named && requestedUnit && named !== requestedUnit) {
       return {
         ok: false,
         problems: [
           {
-            row: lineOf[0],
+            row: lineOf(0),
             reason: `the header gives the wavelengths in ${named === 'um' ? 'µm' : 'nm'}, but ${requestedUnit === 'um' ? 'µm' : 'nm'} was chosen`,
           },
         ],
@@ -105,7 +105,7 @@ export function parseNkCsv(text: string, requestedUnit: WavelengthUnit | null): 
   } else if (head.length < 2) {
     return {
       ok: false,
-      problems: [{ row: lineOf[0], reason: 'expected 2 or 3 columns: wavelength, n and optionally k' }],
+      problems: [{ row: lineOf(0), reason: 'expected 2 or 3 columns: wavelength, n and optionally k' }],
     };
   } else if (head.length === 2) {
     columns = { wl: 0, n: 1, k: null };
@@ -124,21 +124,22 @@ export function parseNkCsv(text: string, requestedUnit: WavelengthUnit | null): 
   }
   const table: NkTable = { wavelengths: [], n: [], k: [] };
   let previous = -Infinity;
-  for (let i = first; i < rows.length; i += 1) {
-    const line = lineOf[i];
-    const row = rows[i];
+  for (const [i, row] of rows.entries()) {
+    if (i < first) continue;
+    const line = lineOf(i);
+    const text = (index: number): string => row[index] ?? '';
     if (row.length !== head.length) {
       problems.push({ row: line, reason: `has ${row.length} column(s), the file has ${head.length}` });
       continue;
     }
-    const wl = cell(row[columns.wl]);
-    const n = cell(row[columns.n]);
-    const k = columns.k === null ? 0 : cell(row[columns.k]);
+    const wl = cell(text(columns.wl));
+    const n = cell(text(columns.n));
+    const k = columns.k === null ? 0 : cell(text(columns.k));
     if (wl === null || n === null || k === null) {
       const bad = [
-        wl === null ? `wavelength "${row[columns.wl].trim()}"` : null,
-        n === null ? `n "${row[columns.n].trim()}"` : null,
-        k === null && columns.k !== null ? `k "${row[columns.k].trim()}"` : null,
+        wl === null ? `wavelength "${text(columns.wl).trim()}"` : null,
+        n === null ? `n "${text(columns.n).trim()}"` : null,
+        k === null && columns.k !== null ? `k "${text(columns.k).trim()}"` : null,
       ].filter(Boolean);
       problems.push({ row: line, reason: `not a number: ${bad.join(', ')}` });
       continue;
@@ -163,10 +164,12 @@ export function parseNkCsv(text: string, requestedUnit: WavelengthUnit | null): 
   if (problems.length === 0 && table.wavelengths.length < 2) {
     problems.push({ row: 0, reason: 'at least 2 data rows are needed' });
   }
-  if (problems.length === 0 && unit === 'nm' && table.wavelengths[table.wavelengths.length - 1] < 20) {
+  const shortest = table.wavelengths[0];
+  const longest = table.wavelengths.at(-1);
+  if (problems.length === 0 && unit === 'nm' && longest !== undefined && longest < 20) {
     problems.push({ row: 0, reason: 'the wavelengths look like µm (all below 20); choose µm as the unit' });
   }
-  if (problems.length === 0 && unit === 'um' && table.wavelengths[0] > 20_000) {
+  if (problems.length === 0 && unit === 'um' && shortest !== undefined && shortest > 20_000) {
     problems.push({
       row: 0,
       reason: 'the wavelengths look like nm (all above 20 µm); choose nm as the unit',

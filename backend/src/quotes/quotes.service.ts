@@ -16,6 +16,7 @@ import { SpecMasksService } from '../spec-masks/spec-masks.service.js';
 import type { User } from '../users/user.entity.js';
 import type { QuoteDecisionDto, QuoteDto, UpdateQuoteDto } from './dto/quote.dto.js';
 import { Quote } from './quote.entity.js';
+import { elementAt } from '../common/element-at.js';
 
 /** Today in the shop's calendar (UTC), YYYY-MM-DD. */
 const today = () => new Date().toISOString().slice(0, 10);
@@ -305,7 +306,7 @@ export class QuotesService {
     }
     if (dto.validUntil <= today()) problems.push(`validUntil: must be in the future (after ${today()})`);
     const quantities = dto.quantityBreaks.map((b) => b.minQuantity);
-    if (quantities.some((q, i) => i > 0 && q <= quantities[i - 1])) {
+    if (quantities.some((q, i) => i > 0 && q <= elementAt(quantities, i - 1, 'the quantity breaks'))) {
       problems.push('quantityBreaks: minQuantity must increase from one break to the next');
     }
     if (problems.length > 0) throw new BadRequestException({ message: problems });

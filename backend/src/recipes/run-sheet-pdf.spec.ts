@@ -144,7 +144,7 @@ describe('run sheet PDF, read back with poppler-utils', () => {
   });
 
   it('numbers every page "Page n of m", also when the layers run over several pages', async () => {
-    const many = Array.from({ length: 30 }, (_, i) => FOUR[i % 4]);
+    const many = Array.from({ length: 30 }, (_, i) => FOUR[i % 4]!);
     const pdf = await render(sheetOf(many));
     const pages = pageTexts(pdf);
     expect(pages.length).toBeGreaterThan(2);
@@ -161,7 +161,7 @@ describe('run sheet PDF, read back with poppler-utils', () => {
   });
 
   it('never prints text over text, with or without a logo, short or long', async () => {
-    const many = Array.from({ length: 30 }, (_, i) => FOUR[i % 4]);
+    const many = Array.from({ length: 30 }, (_, i) => FOUR[i % 4]!);
     for (const [sheet, logo] of [
       [sheetOf(FOUR), null],
       [sheetOf(FOUR), solidPng(300, 60)],
@@ -183,12 +183,12 @@ describe('run sheet PDF, read back with poppler-utils', () => {
     }
     const rows = [...lines.values()].filter((l) => l.length >= 5 && l.every(isNumber));
     expect(rows).toHaveLength(1);
-    const xTicks = rows[0].sort((a, b) => a.xMin - b.xMin).map((w) => Number(w.text));
+    const xTicks = rows[0]!.sort((a, b) => a.xMin - b.xMin).map((w) => Number(w.text));
     expect(isRoundTickRow(xTicks), xTicks.join(' ')).toBe(true);
     // Monitor total: 20 + 25 + 80 + 100 = 225 nm (part ÷ tooling factor), so the axis ends at 250 nm.
     expect(xTicks[0]).toBe(0);
     expect(xTicks.at(-1)).toBe(250);
-    const axis = rows[0][0];
+    const axis = rows[0]![0]!;
     const yLabels = words
       .filter((w) => w.page === axis.page && isNumber(w) && w.xMax < axis.xMin + 10 && w.yMax < axis.yMin)
       .sort((a, b) => b.yMin - a.yMin)
@@ -198,7 +198,7 @@ describe('run sheet PDF, read back with poppler-utils', () => {
   });
 
   it('keeps everything, the chart included, inside the page margins', async () => {
-    const many = Array.from({ length: 30 }, (_, i) => FOUR[i % 4]);
+    const many = Array.from({ length: 30 }, (_, i) => FOUR[i % 4]!);
     for (const sheet of [sheetOf(FOUR), sheetOf(many)]) {
       const pdf = await render(sheet, solidPng(300, 60));
       const greys = pageGreys(pdf, 72);

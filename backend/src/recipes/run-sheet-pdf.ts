@@ -22,6 +22,7 @@ import {
   room,
   RULE_LINE,
 } from '../common/pdf-layout.js';
+import { elementAt } from '../common/element-at.js';
 
 /** One colour per material in the monitor chart, in the order materials first appear. */
 const MATERIAL_COLOURS = ['#1f6f78', '#b2432c', '#5b4a9e', '#7a8a1f', '#a8632a', '#2d5c8f'];
@@ -108,32 +109,35 @@ function drawMonitorChart(doc: Doc, sheet: RunSheetView, x: number, y: number, w
   let start = 0;
   let lastRight = -Infinity;
   sheet.layers.forEach((l, i) => {
-    const centre = px((start + layerEnds.x[i]) / 2);
+    const end = elementAt(layerEnds.x, i, 'the layer ends');
+    const centre = px((start + end) / 2);
     const label = String(l.step);
     const half = doc.widthOfString(label) / 2;
     if (centre - half > lastRight + 2) {
       doc.text(label, centre - half, top + 3, { lineBreak: false });
       lastRight = centre + half;
     }
-    start = layerEnds.x[i];
+    start = end;
   });
 
   doc.save();
   doc.rect(x, top, w, h).clip();
   const materials = [...new Set(traces.map((t) => t.material))];
-  const colour = (m: string) => MATERIAL_COLOURS[materials.indexOf(m) % MATERIAL_COLOURS.length];
+  const colour = (m: string) =>
+    elementAt(MATERIAL_COLOURS, materials.indexOf(m) % MATERIAL_COLOURS.length, 'the material colours');
   for (const t of traces) {
     doc.lineWidth(1.3).strokeColor(colour(t.material));
     t.x.forEach((v, i) => {
-      if (i === 0) doc.moveTo(px(v), py(t.y[i]));
-      else doc.lineTo(px(v), py(t.y[i]));
+      const y = elementAt(t.y, i, 'the monitor trace');
+      if (i === 0) doc.moveTo(px(v), py(y));
+      else doc.lineTo(px(v), py(y));
     });
     doc.stroke();
   }
   doc.fillColor(LIMIT);
   turningPoints.x.forEach((v, i) => {
     const cx = px(v);
-    const cy = py(turningPoints.y[i]);
+    const cy = py(elementAt(turningPoints.y, i, 'the turning points'));
     doc
       .moveTo(cx, cy - 3)
       .lineTo(cx + 3, cy)

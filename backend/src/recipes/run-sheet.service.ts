@@ -8,6 +8,7 @@ import { MaterialsService } from '../materials/materials.service.js';
 import { ShopSettingsService } from '../shop-settings/shop-settings.service.js';
 import type { RunSheetQueryDto } from './dto/run-sheet-query.dto.js';
 import { renderRunSheetPdf } from './run-sheet-pdf.js';
+import { elementAt } from '../common/element-at.js';
 
 /** Run sheets for released recipes on a chosen chamber: JSON for the page, PDF for the floor. */
 @Injectable()
@@ -23,7 +24,9 @@ export class RunSheetService {
   async build(designId: number, number: number, query: RunSheetQueryDto): Promise<RunSheetView> {
     const version = await this.recipes.releasedRecipe(designId, number);
     const chamber = await this.chambers.get(query.chamberId);
-    const lambda = query.monitorWavelengthNm ?? chamber.monitorWavelengthsNm[0];
+    const lambda =
+      query.monitorWavelengthNm ??
+      elementAt(chamber.monitorWavelengthsNm, 0, "the chamber's monitor wavelengths");
     const designSides = sidesOfDesign(version.backSurface);
     if (query.sides !== undefined && query.sides !== designSides) {
       throw new BadRequestException({
@@ -77,7 +80,8 @@ export class RunSheetService {
         ...sheet,
         layers: sheet.layers.map((l) => ({
           ...l,
-          process: process.get(version.layers[l.designLayer - 1].materialId) ?? null,
+          process:
+            process.get(elementAt(version.layers, l.designLayer - 1, 'the recipe layers').materialId) ?? null,
         })),
         recipe: { designId, number, name: version.design.name, customer: version.design.customer.name },
         chamber: { id: chamber.id, name: chamber.name },

@@ -9,6 +9,7 @@ import { evaluateMask, type LimitBand } from '@quietglass/shared/optics/mask';
 import { parseStack, type OpticalStack, type StackDescription } from '@quietglass/shared/optics/stack';
 import type { ReportBandRow, ReportSummary } from '@quietglass/shared/reports';
 import type { PlotSeries } from './report-pdf.js';
+import { elementAt } from '../common/element-at.js';
 
 export interface DesignedInput {
   bands: LimitBand[];
@@ -55,19 +56,22 @@ function designedSummary(
   back: 'none' | 'incoherent',
 ): ReportSummary {
   const result = evaluateMask({ bands }, stack, { back });
-  const rows: ReportBandRow[] = result.bands.map((b, i) => ({
-    band: i,
-    label: bands[i].label ?? '',
-    rule: rule(bands[i]),
-    angles: (bands[i].angles_deg ?? [0]).join(', ') + '°',
-    polarisation: bands[i].polarisation ?? 'avg',
-    evaluated: true,
-    pass: b.pass,
-    worstMargin: b.worstMargin,
-    worstAtNm: b.worstAt.wavelengthNm,
-    worstAtDeg: b.worstAt.angleDeg,
-    valuePercent: b.worstAt.valuePercent,
-  }));
+  const rows: ReportBandRow[] = result.bands.map((b, i) => {
+    const band = elementAt(bands, i, 'the limit bands');
+    return {
+      band: i,
+      label: band.label ?? '',
+      rule: rule(band),
+      angles: (band.angles_deg ?? [0]).join(', ') + '°',
+      polarisation: band.polarisation ?? 'avg',
+      evaluated: true,
+      pass: b.pass,
+      worstMargin: b.worstMargin,
+      worstAtNm: b.worstAt.wavelengthNm,
+      worstAtDeg: b.worstAt.angleDeg,
+      valuePercent: b.worstAt.valuePercent,
+    };
+  });
   return {
     source: 'designed',
     pass: result.pass,

@@ -145,7 +145,7 @@ describe('compliance report PDF, read back with poppler-utils', () => {
   it('numbers every page "Page n of m" with the document number', async () => {
     const pages = pageTexts(
       await renderReportPdf(
-        sampleReport({ layers: Array.from({ length: 60 }, () => sampleReport().layers![0]) }),
+        sampleReport({ layers: Array.from({ length: 60 }, () => sampleReport().layers![0]!) }),
       ),
     );
     expect(pages.length).toBeGreaterThan(1);
@@ -157,11 +157,11 @@ describe('compliance report PDF, read back with poppler-utils', () => {
 
   it('never prints text over text, with long rules and labels wrapping inside their columns', async () => {
     const long = sampleReport();
-    long.summary.bands[0].label = 'visible range for the front surface of the customer’s lens';
-    long.summary.bands[1].rule = `${long.summary.bands[1].rule} and more words that must wrap inside the column`;
+    long.summary.bands[0]!.label = 'visible range for the front surface of the customer’s lens';
+    long.summary.bands[1]!.rule = `${long.summary.bands[1]!.rule} and more words that must wrap inside the column`;
     const measured = sampleReport();
     measured.summary = { ...measured.summary, source: 'measured', pass: null };
-    Object.assign(measured.summary.bands[3], {
+    Object.assign(measured.summary.bands[3]!, {
       evaluated: false,
       pass: null,
       worstMargin: null,
@@ -189,7 +189,7 @@ describe('compliance report PDF, read back with poppler-utils', () => {
     for (const row of [...xRows, ...yColumns]) expect(isRoundTickRow(row), row.join(' ')).toBe(true);
     // 429–665 nm: the axis runs 400–700 nm; the old ticks 429, 507, 586, 665 are gone.
     expect(xRows[0]).toEqual([400, 450, 500, 550, 600, 650, 700]);
-    expect(yColumns[2].at(-1)).toBe(100);
+    expect(yColumns[2]!.at(-1)).toBe(100);
   });
 
   it('keeps a short report on one page and says so when the layers are hidden', async () => {

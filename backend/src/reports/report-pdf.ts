@@ -21,6 +21,7 @@ import {
   REGULAR,
   room,
 } from '../common/pdf-layout.js';
+import { elementAt } from '../common/element-at.js';
 
 export interface PlotSeries {
   title: string;
@@ -81,8 +82,8 @@ function drawPlot(doc: Doc, s: PlotSeries, x: number, y: number, w: number, sour
   const h = PLOT_H;
   const xs = s.wavelengthsNm;
   const xt = niceTicks(
-    Math.min(xs[0], ...s.bands.map((b) => b.from_nm)),
-    Math.max(xs[xs.length - 1], ...s.bands.map((b) => b.to_nm)),
+    Math.min(elementAt(xs, 0, 'the plotted wavelengths'), ...s.bands.map((b) => b.from_nm)),
+    Math.max(elementAt(xs, xs.length - 1, 'the plotted wavelengths'), ...s.bands.map((b) => b.to_nm)),
     11,
   );
   const limitValues = s.bands.flatMap((b) => limitsOf(b).map((l) => l.value));
@@ -151,8 +152,9 @@ function drawPlot(doc: Doc, s: PlotSeries, x: number, y: number, w: number, sour
   }
   doc.lineWidth(1.2).strokeColor(CURVE);
   xs.forEach((wl, i) => {
-    if (i === 0) doc.moveTo(px(wl), py(s.valuesPercent[i]));
-    else doc.lineTo(px(wl), py(s.valuesPercent[i]));
+    const value = elementAt(s.valuesPercent, i, 'the plotted values');
+    if (i === 0) doc.moveTo(px(wl), py(value));
+    else doc.lineTo(px(wl), py(value));
   });
   doc.stroke();
   doc.restore();

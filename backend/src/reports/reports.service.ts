@@ -23,6 +23,7 @@ import type { CreateReportDto } from './dto/report.dto.js';
 import { documentNumber, renderReportPdf, type PlotSeries } from './report-pdf.js';
 import { ComplianceReport } from './report.entity.js';
 import { colourOf, computeDesignedOffThread, rule } from './report-compute.js';
+import { elementAt } from '../common/element-at.js';
 
 @Injectable()
 export class ReportsService {
@@ -208,20 +209,23 @@ export class ReportsService {
 
   private measuredSummary(bands: LimitBand[], m: RunSpectrum): ReportSummary {
     const result = evaluateMaskOnMeasured({ bands }, m);
-    const rows: ReportBandRow[] = result.bands.map((b, i) => ({
-      band: i,
-      label: bands[i].label ?? '',
-      rule: rule(bands[i]),
-      angles: (bands[i].angles_deg ?? [0]).join(', ') + '°',
-      polarisation: bands[i].polarisation ?? 'avg',
-      evaluated: b.evaluated,
-      pass: b.pass ?? null,
-      worstMargin: b.worstMargin ?? null,
-      worstAtNm: b.worstAt?.wavelengthNm ?? null,
-      worstAtDeg: b.worstAt ? m.angleDeg : null,
-      valuePercent: b.worstAt?.valuePercent ?? null,
-      ...(b.reason ? { reason: b.reason } : {}),
-    }));
+    const rows: ReportBandRow[] = result.bands.map((b, i) => {
+      const band = elementAt(bands, i, 'the limit bands');
+      return {
+        band: i,
+        label: band.label ?? '',
+        rule: rule(band),
+        angles: (band.angles_deg ?? [0]).join(', ') + '°',
+        polarisation: band.polarisation ?? 'avg',
+        evaluated: b.evaluated,
+        pass: b.pass ?? null,
+        worstMargin: b.worstMargin ?? null,
+        worstAtNm: b.worstAt?.wavelengthNm ?? null,
+        worstAtDeg: b.worstAt ? m.angleDeg : null,
+        valuePercent: b.worstAt?.valuePercent ?? null,
+        ...(b.reason ? { reason: b.reason } : {}),
+      };
+    });
     return {
       source: 'measured',
       pass: result.pass,

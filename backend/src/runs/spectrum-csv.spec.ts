@@ -132,7 +132,7 @@ describe('measured spectrum CSV', () => {
       { row: 2, reason: 'R must lie between 0 and 1 (the column is a fraction) (got 1.2)' },
     ]);
     const missing = parseSpectrumCsv('wavelength_nm,R_percent\n400,1\n500,1\n', { quantity: 'T' });
-    expect(!missing.ok && missing.problems[0].reason).toMatch(/no T column/);
+    expect(!missing.ok && missing.problems[0]!.reason).toMatch(/no T column/);
   });
 
   it('rejects a file over 2 MB', () => {

@@ -39,8 +39,9 @@ function valueColumns(names: string[]): ValueColumn[] {
   names.forEach((n, index) => {
     const percent = PERCENT.exec(n);
     const fraction = percent ? null : FRACTION.exec(n);
-    const m = percent ?? fraction;
-    if (m) found.push({ index, quantity: m[1].toUpperCase() as SpectrumQuantity, scale: percent ? 1 : 100 });
+    const letter = (percent ?? fraction)?.[1];
+    if (letter !== undefined)
+      found.push({ index, quantity: letter.toUpperCase() as SpectrumQuantity, scale: percent ? 1 : 100 });
   });
   return found;
 }
@@ -64,27 +65,34 @@ export function parseSpectrumCsv(text: string, options: SpectrumCsvOptions = {})
   const read = readCsvRows(text, MAX_SPECTRUM_CSV_BYTES);
   if (!read.ok) return read;
   const [header, ...rows] = read.rows;
+  const headerLine = read.lines[0] ?? 0;
+  if (header === undefined) return { ok: false, problems: [{ row: 0, reason: 'the file is empty' }] };
   const names = header.map((h) => h.trim());
   const wl = names.findIndex((n) => WAVELENGTH.test(n));
-  if (wl < 0) return headerProblem(read.lines[0], names, 'no wavelength_nm column');
+  if (wl < 0) return headerProblem(headerLine, names, 'no wavelength_nm column');
   const columns = valueColumns(names);
   const quantities = [...new Set(columns.map((c) => c.quantity))];
-  if (quantities.length === 0) return headerProblem(read.lines[0], names, 'no R_percent or T_percent column');
+  const [firstQuantity] = quantities;
+  if (firstQuantity === undefined)
+    return headerProblem(headerLine, names, 'no R_percent or T_percent column');
   let quantity: SpectrumQuantity;
   if (options.quantity !== undefined) {
     if (!quantities.includes(options.quantity))
-      return headerProblem(read.lines[0], names, `no ${options.quantity} column`);
+      return headerProblem(headerLine, names, `no ${options.quantity} column`);
     quantity = options.quantity;
   } else if (quantities.length > 1) {
     return headerProblem(
-      read.lines[0],
+      headerLine,
       names,
       'both R and T columns: choose the quantity to upload, or upload one quantity per file',
     );
-  } else quantity = quantities[0];
+  } else quantity = firstQuantity;
   const chosen = columns.filter((c) => c.quantity === quantity);
-  if (chosen.length > 1) return headerProblem(read.lines[0], names, `more than one ${quantity} column`);
-  const { index: vc, scale } = chosen[0];
+  const [valueColumn, ...extra] = chosen;
+  if (valueColumn === undefined)
+    throw new Error(`spectrum CSV: no ${quantity} column after the header check`);
+  if (extra.length > 0) return headerProblem(headerLine, names, `more than one ${quantity} column`);
+  const { index: vc, scale } = valueColumn;
   const angleColumn = names.findIndex((n) => ANGLE.test(n));
   const polColumn = names.findIndex((n) => POLARISATION.test(n));
 
@@ -98,26 +106,27 @@ export function parseSpectrumCsv(text: string, options: SpectrumCsvOptions = {})
   }
   const parsed: Row[] = [];
   rows.forEach((row, i) => {
-    const line = read.lines[i + 1];
+    const line = read.lines[i + 1] ?? 0;
     if (row.length !== header.length) {
       problems.push({ row: line, reason: `has ${row.length} column(s), the header has ${header.length}` });
       return;
     }
-    const x = numericCell(row[wl]);
-    const y = numericCell(row[vc]);
-    const angle = angleColumn < 0 ? null : numericCell(row[angleColumn]);
+    const cell = (index: number): string => row[index] ?? '';
+    const x = numericCell(cell(wl));
+    const y = numericCell(cell(vc));
+    const angle = angleColumn < 0 ? null : numericCell(cell(angleColumn));
     if (x === null || y === null || (angleColumn >= 0 && angle === null)) {
       const bad = [
-        x === null ? `wavelength "${row[wl].trim()}"` : '',
-        y === null ? `${quantity} "${row[vc].trim()}"` : '',
-        angleColumn >= 0 && angle === null ? `angle "${row[angleColumn].trim()}"` : '',
+        x === null ? `wavelength "${cell(wl).trim()}"` : '',
+        y === null ? `${quantity} "${cell(vc).trim()}"` : '',
+        angleColumn >= 0 && angle === null ? `angle "${cell(angleColumn).trim()}"` : '',
       ]
         .filter(Boolean)
         .join(', ');
       problems.push({ row: line, reason: `not a number: ${bad}` });
       return;
     }
-    parsed.push({ line, x, y, angle, pol: polColumn < 0 ? null : row[polColumn].trim().toLowerCase() });
+    parsed.push({ line, x, y, angle, pol: polColumn < 0 ? null : cell(polColumn).trim().toLowerCase() });
   });
   // A file-level problem with the rows' selection comes after the row problems found so far.
   const fail = (reason: string): SpectrumCsvResult => ({
@@ -167,7 +176,8 @@ export function parseSpectrumCsv(text: string, options: SpectrumCsvOptions = {})
     // 15 significant digits drop the binary rounding of ×100 (0.9568 × 100 = 95.67999…).
     spectrum.valuesPercent.push(scale === 1 ? y : Number((y * 100).toPrecision(15)));
   }
-  if (problems.length === 0 && spectrum.wavelengthsNm[spectrum.wavelengthsNm.length - 1] < 100) {
+  const lastWavelength = spectrum.wavelengthsNm.at(-1);
+  if (problems.length === 0 && lastWavelength !== undefined && lastWavelength < 100) {
     problems.push({ row: 0, reason: 'the wavelengths look like µm (all below 100); the file must give nm' });
   }
   problems.sort((a, b) => a.row - b.row);

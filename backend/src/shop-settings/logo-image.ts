@@ -19,7 +19,7 @@ export function imageSize(data: Buffer, type: LogoType): { width: number; height
   let at = 2;
   while (at + 9 < data.length) {
     if (data[at] !== 0xff) return null;
-    const marker = data[at + 1];
+    const marker = data.readUInt8(at + 1);
     const length = data.readUInt16BE(at + 2);
     // SOF0–SOF15 except DHT (C4), JPG (C8) and DAC (CC).
     if (marker >= 0xc0 && marker <= 0xcf && marker !== 0xc4 && marker !== 0xc8 && marker !== 0xcc) {

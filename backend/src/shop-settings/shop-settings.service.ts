@@ -45,7 +45,7 @@ export class ShopSettingsService {
     const row = await this.row();
     const bytes = row?.logoType
       ? (
-          await this.db.query<{ n: number }[]>(
+          await this.db.query<[{ n: number }]>(
             'SELECT octet_length(logo) AS n FROM shop_settings WHERE id = $1',
             [ROW],
           )

@@ -52,7 +52,7 @@ describe('spec-mask CSV', () => {
   });
 
   it('rejects unknown or missing columns in the header', () => {
-    expect(bad('from_nm,to_nm,colour\n400,500,red\n')[0].reason).toMatch(
+    expect(bad('from_nm,to_nm,colour\n400,500,red\n')[0]!.reason).toMatch(
       /unknown column\(s\) colour; missing column\(s\) quantity/,
     );
   });
@@ -65,8 +65,8 @@ describe('spec-mask CSV', () => {
     );
   });
   it('rejects an empty file, a header without bands and ragged rows', () => {
-    expect(bad('')[0].reason).toBe('the file is empty');
-    expect(bad('from_nm,to_nm,quantity\n')[0].reason).toBe('the file has a header but no limit band');
+    expect(bad('')[0]!.reason).toBe('the file is empty');
+    expect(bad('from_nm,to_nm,quantity\n')[0]!.reason).toBe('the file has a header but no limit band');
     expect(bad('from_nm,to_nm,quantity\n400,500\n')).toEqual([
       { row: 2, reason: 'has 2 column(s), the header has 3' },
     ]);

@@ -37,6 +37,7 @@ export function parseMaskCsv(text: string): MaskCsvResult {
   if (!read.ok) return read;
   const lines = read.lines;
   const [header, ...rows] = read.rows;
+  if (header === undefined) return { ok: false, problems: [{ row: 0, reason: 'the file is empty' }] };
   const names = header.map((h) => h.trim().toLowerCase());
   const unknown = names.filter((n) => !(MASK_CSV_COLUMNS as readonly string[]).includes(n));
   const missing = REQUIRED.filter((r) => !names.includes(r));
@@ -57,7 +58,7 @@ export function parseMaskCsv(text: string): MaskCsvResult {
   const problems: CsvProblem[] = [];
   const bands: Record<string, unknown>[] = [];
   rows.forEach((row, i) => {
-    const line = lines[i + 1];
+    const line = lines[i + 1] ?? 0;
     if (row.length !== names.length) {
       problems.push({ row: line, reason: `has ${row.length} column(s), the header has ${names.length}` });
       return;
@@ -65,7 +66,7 @@ export function parseMaskCsv(text: string): MaskCsvResult {
     const band: Record<string, unknown> = {};
     const bad: string[] = [];
     names.forEach((name, c) => {
-      const cell = row[c].trim();
+      const cell = (row[c] ?? '').trim();
       if (cell === '') return;
       if (NUMBER_COLUMNS.has(name)) {
         const v = numeric(cell);

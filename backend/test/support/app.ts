@@ -53,7 +53,7 @@ export async function sessionCookie(app: INestApplication, email: string, passwo
     .concat(res.headers['set-cookie'] ?? [])
     .find((c) => c.startsWith('qg_session='));
   if (!cookie) throw new Error('sign-in set no qg_session cookie');
-  return cookie.split(';')[0];
+  return cookie.split(';')[0]!;
 }
 
 export async function demoSession(app: INestApplication, role: Role, index = 0): Promise<string> {

@@ -57,7 +57,7 @@ export function wordBoxes(pdf: Buffer): WordBox[] {
           yMin: Number(m[2]),
           xMax: Number(m[3]),
           yMax: Number(m[4]),
-          text: decode(m[5]),
+          text: decode(m[5]!),
         });
       }
     });
@@ -71,10 +71,8 @@ export function wordBoxes(pdf: Buffer): WordBox[] {
  */
 export function overlappingWords(words: WordBox[], tolerance = 0.6): [WordBox, WordBox][] {
   const out: [WordBox, WordBox][] = [];
-  for (let i = 0; i < words.length; i++) {
-    for (let j = i + 1; j < words.length; j++) {
-      const a = words[i];
-      const b = words[j];
+  for (const [i, a] of words.entries()) {
+    for (const b of words.slice(i + 1)) {
       if (a.page !== b.page) continue;
       const dx = Math.min(a.xMax, b.xMax) - Math.max(a.xMin, b.xMin);
       const dy = Math.min(a.yMax, b.yMax) - Math.max(a.yMin, b.yMin);
@@ -102,13 +100,13 @@ export function pagePngs(pdf: Buffer, dpi = 80): Buffer[] {
  */
 export function isRoundTickRow(values: number[]): boolean {
   if (values.length < 3) return false;
-  const step = values[1] - values[0];
+  const step = values[1]! - values[0]!;
   if (!(step > 0)) return false;
   const mantissa = step / 10 ** Math.floor(Math.log10(step) + 1e-9);
   if (![1, 2, 5].some((m) => Math.abs(mantissa - m) < 1e-6)) return false;
   return values.every(
     (v, i) =>
-      Math.abs(v - values[0] - i * step) < step * 1e-6 && Math.abs(v / step - Math.round(v / step)) < 1e-6,
+      Math.abs(v - values[0]! - i * step) < step * 1e-6 && Math.abs(v / step - Math.round(v / step)) < 1e-6,
   );
 }
 
@@ -153,7 +151,7 @@ export function inkBox(
   let bottom = -1;
   for (let y = 0; y < page.height; y++) {
     for (let x = 0; x < page.width; x++) {
-      if (page.pixels[y * page.width + x] < threshold) {
+      if (page.pixels[y * page.width + x]! < threshold) {
         if (x < left) left = x;
         if (x > right) right = x;
         if (y < top) top = y;

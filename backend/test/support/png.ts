@@ -12,7 +12,7 @@ const CRC_TABLE = Array.from({ length: 256 }, (_, n) => {
 
 function crc32(data: Buffer): number {
   let c = 0xffffffff;
-  for (const b of data) c = CRC_TABLE[(c ^ b) & 0xff] ^ (c >>> 8);
+  for (const b of data) c = CRC_TABLE[(c ^ b) & 0xff]! ^ (c >>> 8);
   return (c ^ 0xffffffff) >>> 0;
 }
 

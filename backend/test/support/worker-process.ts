@@ -40,7 +40,7 @@ export async function startWorkerProcess(extraEnv: Record<string, string> = {}):
       const m = /([A-Za-z0-9_.-]+:\d+) computing with/.exec(output);
       if (m) {
         clearTimeout(timer);
-        resolve(m[1]);
+        resolve(m[1]!);
       }
     };
     child.stdout?.on('data', onData);
