@@ -127,9 +127,8 @@ describe('approval and release', () => {
     // Body rows plus header and totals.
     await expect.poll(() => layers.getByRole('row').count()).toBe(6);
     // On a 1440 px screen the whole sheet fits beside the navigation: no sideways scrolling.
-    expect(
-      await page.evaluate(() => document.documentElement.scrollWidth - document.documentElement.clientWidth),
-    ).toBe(0);
+    const sideways = 'document.documentElement.scrollWidth - document.documentElement.clientWidth';
+    expect(await page.evaluate(sideways)).toBe(0);
     const firstStep = (await layers.getByRole('row').nth(1).getByRole('cell').allInnerTexts()).map((t) =>
       t.trim(),
     );
