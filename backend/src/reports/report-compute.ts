@@ -31,6 +31,21 @@ export function rule(b: LimitBand): string {
   return `${b.quantity} = ${b.target_percent} ± ${b.tolerance_percent} % over ${b.from_nm}–${b.to_nm} nm`;
 }
 
+/** What a report row says of the band itself, before its result: index, label, rule, angles. */
+export function bandDescription(
+  bands: readonly LimitBand[],
+  i: number,
+): Pick<ReportBandRow, 'band' | 'label' | 'rule' | 'angles' | 'polarisation'> {
+  const band = elementAt(bands, i, 'the limit bands');
+  return {
+    band: i,
+    label: band.label ?? '',
+    rule: rule(band),
+    angles: (band.angles_deg ?? [0]).join(', ') + '°',
+    polarisation: band.polarisation ?? 'avg',
+  };
+}
+
 /** Summary, plots and colour of the designed values (in the calling thread). */
 export function computeDesigned(input: DesignedInput): DesignedOutput {
   const stack = parseStack(input.stack);
@@ -56,22 +71,15 @@ function designedSummary(
   back: 'none' | 'incoherent',
 ): ReportSummary {
   const result = evaluateMask({ bands }, stack, { back });
-  const rows: ReportBandRow[] = result.bands.map((b, i) => {
-    const band = elementAt(bands, i, 'the limit bands');
-    return {
-      band: i,
-      label: band.label ?? '',
-      rule: rule(band),
-      angles: (band.angles_deg ?? [0]).join(', ') + '°',
-      polarisation: band.polarisation ?? 'avg',
-      evaluated: true,
-      pass: b.pass,
-      worstMargin: b.worstMargin,
-      worstAtNm: b.worstAt.wavelengthNm,
-      worstAtDeg: b.worstAt.angleDeg,
-      valuePercent: b.worstAt.valuePercent,
-    };
-  });
+  const rows: ReportBandRow[] = result.bands.map((b, i) => ({
+    ...bandDescription(bands, i),
+    evaluated: true,
+    pass: b.pass,
+    worstMargin: b.worstMargin,
+    worstAtNm: b.worstAt.wavelengthNm,
+    worstAtDeg: b.worstAt.angleDeg,
+    valuePercent: b.worstAt.valuePercent,
+  }));
   return {
     source: 'designed',
     pass: result.pass,

@@ -22,8 +22,7 @@ import type { User } from '../users/user.entity.js';
 import type { CreateReportDto } from './dto/report.dto.js';
 import { documentNumber, renderReportPdf, type PlotSeries } from './report-pdf.js';
 import { ComplianceReport } from './report.entity.js';
-import { colourOf, computeDesignedOffThread, rule } from './report-compute.js';
-import { elementAt } from '../common/element-at.js';
+import { bandDescription, colourOf, computeDesignedOffThread } from './report-compute.js';
 
 @Injectable()
 export class ReportsService {
@@ -209,23 +208,16 @@ export class ReportsService {
 
   private measuredSummary(bands: LimitBand[], m: RunSpectrum): ReportSummary {
     const result = evaluateMaskOnMeasured({ bands }, m);
-    const rows: ReportBandRow[] = result.bands.map((b, i) => {
-      const band = elementAt(bands, i, 'the limit bands');
-      return {
-        band: i,
-        label: band.label ?? '',
-        rule: rule(band),
-        angles: (band.angles_deg ?? [0]).join(', ') + '°',
-        polarisation: band.polarisation ?? 'avg',
-        evaluated: b.evaluated,
-        pass: b.pass ?? null,
-        worstMargin: b.worstMargin ?? null,
-        worstAtNm: b.worstAt?.wavelengthNm ?? null,
-        worstAtDeg: b.worstAt ? m.angleDeg : null,
-        valuePercent: b.worstAt?.valuePercent ?? null,
-        ...(b.reason ? { reason: b.reason } : {}),
-      };
-    });
+    const rows: ReportBandRow[] = result.bands.map((b, i) => ({
+      ...bandDescription(bands, i),
+      evaluated: b.evaluated,
+      pass: b.pass ?? null,
+      worstMargin: b.worstMargin ?? null,
+      worstAtNm: b.worstAt?.wavelengthNm ?? null,
+      worstAtDeg: b.worstAt ? m.angleDeg : null,
+      valuePercent: b.worstAt?.valuePercent ?? null,
+      ...(b.reason ? { reason: b.reason } : {}),
+    }));
     return {
       source: 'measured',
       pass: result.pass,
