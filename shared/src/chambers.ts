@@ -24,6 +24,22 @@ export function formatToolingFactor(factor: number): string {
   return factor.toFixed(6);
 }
 
+/** Material id (as a JSON key) → tooling factor: what a run keeps of its chamber when logged. */
+export type ToolingFactorsKept = Record<string, number>;
+
+/** The tooling factors a run keeps of its chamber's materials. */
+export function keptToolingFactors(materials: readonly ChamberMaterialSetting[]): ToolingFactorsKept {
+  return Object.fromEntries(materials.map((m) => [String(m.materialId), m.toolingFactor]));
+}
+
+/** The factor a run kept for a material, or undefined when it kept none. */
+export function keptToolingFactor(
+  kept: ToolingFactorsKept | null | undefined,
+  materialId: number,
+): number | undefined {
+  return kept?.[String(materialId)];
+}
+
 /** A coating chamber: tooling factors and rates per material, and its optical monitor. */
 export interface ChamberView {
   id: number;

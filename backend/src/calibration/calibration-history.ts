@@ -18,7 +18,11 @@ import {
   type Measured,
 } from '@quietglass/shared/calibration';
 import type { DiagnosisSummary } from '@quietglass/shared/calculations';
-import type { ChamberMaterialSetting } from '@quietglass/shared/chambers';
+import {
+  keptToolingFactor,
+  type ChamberMaterialSetting,
+  type ToolingFactorsKept,
+} from '@quietglass/shared/chambers';
 import type { LayerReading } from '@quietglass/shared/runs';
 import { elementAt } from '../common/element-at.js';
 
@@ -31,7 +35,7 @@ export interface DiagnosedRun {
     createdAt: Date;
     layerReadings: LayerReading[];
     /** Material id → the chamber's tooling factor when the run was logged (null on older runs). */
-    toolingFactors?: Record<string, number> | null;
+    toolingFactors?: ToolingFactorsKept | null;
   };
   calculationId: number;
   summary: DiagnosisSummary;
@@ -87,7 +91,7 @@ export function materialSeries(
     // The factor kept with the run (also right after a manual edit of the chamber); for runs
     // logged before it was kept, the one the calibration decisions imply.
     const inEffect =
-      d.run.toolingFactors?.[String(setting.materialId)] ??
+      keptToolingFactor(d.run.toolingFactors, setting.materialId) ??
       toolingFactorAt(decided, setting.materialId, d.run.createdAt) ??
       current;
     const count = d.summary.layers.length;

@@ -11,6 +11,7 @@ import { Material } from '../materials/material.entity.js';
 import { ChamberRun, RunSpectrum } from '../runs/run.entity.js';
 import { User } from '../users/user.entity.js';
 import { elementAt } from '../common/element-at.js';
+import { keptToolingFactors } from '@quietglass/shared/chambers';
 
 /** Recorded in demo_seeds once the history exists. */
 const CALIBRATION_SEED = 'larkspur-calibration-history';
@@ -118,9 +119,7 @@ export async function seedCalibrationDemo(db: DataSource): Promise<number> {
           durability: [],
           notes: 'Demo run (invented)',
           remarks: [],
-          toolingFactors: Object.fromEntries(
-            chamber.materials.map((m) => [String(m.materialId), m.toolingFactor]),
-          ),
+          toolingFactors: keptToolingFactors(chamber.materials),
           createdAt: runDate,
         }),
       );

@@ -7,6 +7,7 @@ import {
   PrimaryGeneratedColumn,
   UpdateDateColumn,
 } from 'typeorm';
+import type { ToolingFactorsKept } from '@quietglass/shared/chambers';
 import type { DurabilityResult, LayerReading, RunRemark } from '@quietglass/shared/runs';
 import { User } from '../users/user.entity.js';
 
@@ -46,7 +47,7 @@ export class ChamberRun {
 
   /** Material id → the chamber's tooling factor when the run was logged (null before it was kept). */
   @Column({ name: 'tooling_factors', type: 'jsonb', nullable: true })
-  toolingFactors: Record<string, number> | null;
+  toolingFactors: ToolingFactorsKept | null;
 
   /** Remarks by anyone who reads the run, appended in one statement (never edited). */
   @Column({ type: 'jsonb', default: () => "'[]'" })

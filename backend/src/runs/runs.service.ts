@@ -26,6 +26,7 @@ import type { User } from '../users/user.entity.js';
 import type { RunRemarkDto, StartRunDto, UpdateRunDto, UploadSpectrumDto } from './dto/run.dto.js';
 import { ChamberRun, RunSpectrum } from './run.entity.js';
 import { parseSpectrumCsv } from './spectrum-csv.js';
+import { keptToolingFactors } from '@quietglass/shared/chambers';
 
 @Injectable()
 export class RunsService {
@@ -48,9 +49,7 @@ export class RunsService {
       this.chambers.get(dto.chamberId),
       `chamberId: chamber ${dto.chamberId} does not exist`,
     );
-    const toolingFactors = Object.fromEntries(
-      chamber.materials.map((m) => [String(m.materialId), m.toolingFactor]),
-    );
+    const toolingFactors = keptToolingFactors(chamber.materials);
     const id = await this.db.transaction(async (tx) => {
       const repo = tx.getRepository(ChamberRun);
       const saved = await repo.save(
