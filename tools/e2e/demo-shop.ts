@@ -1,4 +1,10 @@
-import { CSRF_HEADER, type DesignVersionView, type LimitBand } from '@quietglass/shared';
+import {
+  CSRF_HEADER,
+  evaluateMaskOnMeasured,
+  type DesignVersionView,
+  type LimitBand,
+  type MeasuredSpectrum,
+} from '@quietglass/shared';
 import {
   request,
   type APIRequestContext,
@@ -200,4 +206,23 @@ export async function startRunInDialog(page: Page, recipeLabel: string | null, l
 /** Opens a tab of the design workspace below the grid and the plot ("Full analysis", "Optimise" …). */
 export async function openWorkspaceTab(page: Page, name: string): Promise<void> {
   await page.getByRole('tablist', { name: 'Workspace' }).getByRole('tab', { name, exact: true }).click();
+}
+
+/**
+ * What the run page's "Measured against the mask" line must say of a measured spectrum, worked out
+ * with the engine's own mask check: the verdict and "Worst margin ±x percentage points at λ nm".
+ */
+export function expectedMeasuredVerdict(
+  bands: LimitBand[],
+  measured: MeasuredSpectrum,
+): { verdict: 'Pass' | 'Fail'; worstLine: string } {
+  const expected = evaluateMaskOnMeasured({ bands }, measured);
+  if (expected.worstMargin === null) throw new Error('the mask judged nothing of the measured spectrum');
+  const worst = expected.bands.find((b) => b.worstMargin === expected.worstMargin);
+  if (!worst?.worstAt) throw new Error('the worst band has no worst point');
+  const sign = expected.worstMargin >= 0 ? '+' : '−';
+  return {
+    verdict: expected.pass ? 'Pass' : 'Fail',
+    worstLine: `Worst margin ${sign}${Math.abs(expected.worstMargin).toFixed(3)} percentage points at ${worst.worstAt.wavelengthNm} nm`,
+  };
 }

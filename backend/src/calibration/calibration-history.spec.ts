@@ -114,6 +114,17 @@ function seriesOf(diagnosed: DiagnosedRun[], decided: PastDecision[] = []): Cali
   );
 }
 
+/** The H material's series on a chamber whose H tooling factor is now 1.02. */
+function highAt102(diagnosed: DiagnosedRun[], decided: PastDecision[], causes: ReturnType<typeof runCauses>) {
+  return materialSeries(
+    { materialId: H, toolingFactor: 1.02, rateNmPerS: 0.4 },
+    'H',
+    diagnosed,
+    decided,
+    causes,
+  );
+}
+
 function findings(series: CalibrationSeriesView[]) {
   return calibrationFindings(
     series.map((s) => ({
@@ -195,13 +206,7 @@ describe('calibration history from simulated, diagnosed runs', () => {
       },
     ];
     const causes = runCauses(diagnosed, 1);
-    const high = materialSeries(
-      { materialId: H, toolingFactor: 1.02, rateNmPerS: 0.4 },
-      'H',
-      diagnosed,
-      decided,
-      causes,
-    );
+    const high = highAt102(diagnosed, decided, causes);
     expect(high.runs[0]!.toolingFactorInEffect).toBe(1);
     expect(high.runs[11]!.toolingFactorInEffect).toBe(1.02);
     const e = high.estimate!;
@@ -217,13 +222,7 @@ describe('calibration history from simulated, diagnosed runs', () => {
       run: { ...d.run, toolingFactors: { [String(L)]: 1, [String(H)]: k < 6 ? 1 : 1.02 } },
     }));
     const causes = runCauses(diagnosed, 1);
-    const high = materialSeries(
-      { materialId: H, toolingFactor: 1.02, rateNmPerS: 0.4 },
-      'H',
-      diagnosed,
-      [],
-      causes,
-    );
+    const high = highAt102(diagnosed, [], causes);
     expect(high.runs.map((r) => r.toolingFactorInEffect)).toEqual([
       ...Array<number>(6).fill(1),
       ...Array<number>(6).fill(1.02),
@@ -231,13 +230,7 @@ describe('calibration history from simulated, diagnosed runs', () => {
     const e = high.estimate!;
     expect(Math.abs(e.correction.value - 1)).toBeLessThan(2 * e.correction.sigma);
     // Without the kept factors the same history reads the early runs against 1.02: a false drift.
-    const unkept = materialSeries(
-      { materialId: H, toolingFactor: 1.02, rateNmPerS: 0.4 },
-      'H',
-      history(12, truth, 5),
-      [],
-      causes,
-    );
+    const unkept = highAt102(history(12, truth, 5), [], causes);
     expect(unkept.runs[0]!.toolingFactorInEffect).toBe(1.02);
     expect(unkept.runs[0]!.correction!.value).toBeGreaterThan(1.015);
   });
