@@ -19,8 +19,8 @@ import {
 /*
  * Files in and out, end to end: the engineer Mira Castell exports the demo's released recipe
  * "HVS-2210 four-layer AR" version 1 as a stack file from the design workspace; the command-line
- * calculator (`npm run calc`) computes its reflectance from that file at 8°, unpolarised, as R
- * fractions; the operator Jonah Pike uploads that CSV as is to a run of the same recipe. The run
+ * calculator (tools/calc, what `npm run calc` runs) computes its reflectance from that file at 8°,
+ * unpolarised, as R fractions; the operator Jonah Pike uploads that CSV as is to a run of the same recipe. The run
  * page must then read it as percent and find it on the design curve the server computes itself:
  * the file carried every layer, material model and substrate exactly.
  */
@@ -65,13 +65,13 @@ describe('stack file', () => {
     await engineer.context.close();
 
     // The command-line calculator reads the file: R, T, A as fractions, 400–700 nm every 5 nm.
+    // Its entry point, not `npm run calc`: that rebuilds shared/dist, which the running API and
+    // worker load from (the CLI tests cover `npm run calc` itself).
     const csv = execFileSync(
-      'npm',
+      'npx',
       [
-        'run',
-        '--silent',
-        'calc',
-        '--',
+        'tsx',
+        'tools/calc/main.ts',
         '--stack',
         stackPath,
         '--from',
