@@ -164,6 +164,9 @@ async function main() {
       DATABASE_URL: pg.url,
       PORT: String(port),
       CLIENT_DIST: path.join(ROOT, 'frontend', 'dist'),
+      // Every browser test signs the same demo users in from 127.0.0.1, dozens of times a minute;
+      // the sign-in limits themselves are checked by the backend e2e tests (auth, security).
+      SIGNIN_LIMIT: '1000',
     };
     runStep(
       'migrating and seeding the browser-test database…',

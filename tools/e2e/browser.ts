@@ -42,5 +42,11 @@ export async function signIn(page: Page, who: DemoSignIn): Promise<void> {
   await page.getByLabel('E-mail').fill(who.email);
   await page.getByLabel('Password').fill(who.password);
   await page.getByRole('button', { name: 'Sign in' }).click();
-  await page.locator('nav[aria-label="Main"]').waitFor();
+  // Either the navigation of a signed-in user or the sign-in page's refusal, said at once.
+  const nav = page.locator('nav[aria-label="Main"]');
+  const refusal = page.getByRole('alert');
+  await nav.or(refusal).first().waitFor();
+  if (!(await nav.isVisible()) && (await refusal.count()) > 0 && page.url().includes('/sign-in'))
+    throw new Error(`sign-in of ${who.email} refused: ${await refusal.first().innerText()}`);
+  await nav.waitFor();
 }
