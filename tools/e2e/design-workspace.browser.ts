@@ -73,9 +73,10 @@ describe('design workspace', () => {
     await page.reload();
     await openWorkspaceTab(page, 'Full analysis');
     const reopened = page.getByRole('region', { name: 'Full analysis' });
-    await expect
-      .poll(() => reopened.getByRole('status', { name: 'Analysis status' }).innerText(), { timeout: 20_000 })
-      .toMatch(/completed/);
+    // A reload on a busy machine rebuilds the whole workspace first: wait for the stored result.
+    const reopenedStatus = reopened.getByRole('status', { name: 'Analysis status' });
+    await reopenedStatus.waitFor({ timeout: 45_000 });
+    await expect.poll(() => reopenedStatus.innerText(), { timeout: 20_000 }).toMatch(/completed/);
     expect(await reopened.getByLabel('Analysis run by').innerText()).toMatch(
       /^Run by Mira Castell, finished /,
     );
