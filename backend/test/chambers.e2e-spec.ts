@@ -113,13 +113,24 @@ describe('chambers', () => {
   it.each([
     [
       { materials: [{ materialId: 1, toolingFactor: -1, rateNmPerS: 1 }] },
-      'materials.0.toolingFactor must be > 0',
+      'materials.0.toolingFactor: Tooling factor must be greater than 0',
     ],
     [
       { materials: [{ materialId: 1, toolingFactor: 1, rateNmPerS: 'fast' }] },
-      'materials.0.rateNmPerS must be a number',
+      'materials.0.rateNmPerS: Enter the rate in nm/s as a number, e.g. 0.8',
     ],
-    [{ monitorWavelengthsNm: [] }, 'monitorWavelengthsNm needs at least one wavelength'],
+    [
+      {
+        materials: [
+          { materialId: 1, toolingFactor: 1, rateNmPerS: 1 },
+          { materialId: 1, toolingFactor: 1.1, rateNmPerS: 1 },
+        ],
+      },
+      'materials.1.materialId: This material is already listed in row 1',
+    ],
+    [{ monitorWavelengthsNm: [] }, 'monitorWavelengthsNm: Enter at least one monitor wavelength'],
+    [{ name: '  ' }, 'name: Enter a chamber name'],
+    [{ colour: 'red' }, 'Unrecognized key: "colour"'],
     [{ monitorChipMaterialId: 99999 }, 'monitorChipMaterialId: material 99999 does not exist'],
   ])('rejects a bad chamber %j with 400', async (patch, detail) => {
     const body = {
@@ -132,6 +143,27 @@ describe('chambers', () => {
     const res = await http().post('/api/chambers').set('Cookie', mira).send(body);
     expect(res.status).toBe(400);
     expect(res.body.details).toContain(detail);
+  });
+
+  it('publishes the shared chamber schema as the body of create and edit in the OpenAPI description', async () => {
+    type Body = { properties: Record<string, { maximum?: number; items?: Body }>; required?: string[] };
+    const doc = (await http().get('/api/docs-json')).body as {
+      paths: Record<
+        string,
+        Record<string, { requestBody: { content: { 'application/json': { schema: Body } } } }>
+      >;
+    };
+    const bodyOf = (method: string, p: string) =>
+      doc.paths[p]![method]!.requestBody.content['application/json'].schema;
+    const create = bodyOf('post', '/api/chambers');
+    expect(create.required?.sort()).toEqual([
+      'materials',
+      'monitorChipMaterialId',
+      'monitorWavelengthsNm',
+      'name',
+    ]);
+    expect(create.properties.materials!.items!.properties.toolingFactor!.maximum).toBe(10);
+    expect(bodyOf('put', '/api/chambers/{id}').required).toContain('version');
   });
 
   it('operators cannot change chambers', async () => {

@@ -8,6 +8,8 @@ export * from './reports.js';
 export * from './quotes.js';
 export * from './runs.js';
 export * from './chambers.js';
+export * from './schemas/common.js';
+export * from './schemas/chambers.js';
 export * from './calibration.js';
 export * from './recipes.js';
 export * from './outbox.js';

@@ -1,11 +1,17 @@
 import { Body, Controller, Get, Param, ParseIntPipe, Post, Put } from '@nestjs/common';
 import type { ChamberView, ProcessSettingsView } from '@quietglass/shared/chambers';
+import {
+  chamberInputSchema,
+  chamberUpdateSchema,
+  type ChamberInput,
+  type ChamberUpdate,
+} from '@quietglass/shared/schemas/chambers';
 import { CurrentUser } from '../auth/current-user.decorator.js';
 import { Roles } from '../auth/roles.decorator.js';
+import { ZodBody } from '../common/zod-body.js';
 import type { User } from '../users/user.entity.js';
 import { toChamberView } from './chamber.entity.js';
 import { ChambersService } from './chambers.service.js';
-import { ChamberDto, UpdateChamberDto } from './dto/chamber.dto.js';
 import { ProcessSettingsDto } from './dto/process-settings.dto.js';
 
 /** Chambers are kept by admins and engineers; operators read them. */
@@ -26,15 +32,17 @@ export class ChambersController {
 
   @Post('chambers')
   @Roles('admin', 'engineer')
-  async create(@Body() dto: ChamberDto, @CurrentUser() user: User): Promise<ChamberView> {
+  @ZodBody(chamberInputSchema)
+  async create(@Body() dto: ChamberInput, @CurrentUser() user: User): Promise<ChamberView> {
     return toChamberView(await this.chambers.create(dto, user));
   }
 
   @Put('chambers/:id')
   @Roles('admin', 'engineer')
+  @ZodBody(chamberUpdateSchema)
   async update(
     @Param('id', ParseIntPipe) id: number,
-    @Body() dto: UpdateChamberDto,
+    @Body() dto: ChamberUpdate,
     @CurrentUser() user: User,
   ): Promise<ChamberView> {
     return toChamberView(await this.chambers.update(id, dto, user));

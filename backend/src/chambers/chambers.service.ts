@@ -8,7 +8,7 @@ import type { User } from '../users/user.entity.js';
 import { MaterialsService } from '../materials/materials.service.js';
 import type { ProcessSetting, ProcessSettingsView } from '@quietglass/shared/chambers';
 import { Chamber } from './chamber.entity.js';
-import type { ChamberDto, UpdateChamberDto } from './dto/chamber.dto.js';
+import type { ChamberInput, ChamberUpdate } from '@quietglass/shared/schemas/chambers';
 import type { ProcessSettingsDto } from './dto/process-settings.dto.js';
 import { ChamberProcessSettings } from './process-settings.entity.js';
 
@@ -32,7 +32,7 @@ export class ChambersService {
     return chamber;
   }
 
-  async create(dto: ChamberDto, user: User): Promise<Chamber> {
+  async create(dto: ChamberInput, user: User): Promise<Chamber> {
     await this.check(dto);
     return this.unique(dto.name, () =>
       this.chambers.manager.transaction(async (tx) => {
@@ -51,7 +51,7 @@ export class ChambersService {
   }
 
   /** Tooling factors and rates change run sheets: one locked UPDATE, with before and after on the record. */
-  async update(id: number, dto: UpdateChamberDto, user: User): Promise<Chamber> {
+  async update(id: number, dto: ChamberUpdate, user: User): Promise<Chamber> {
     const before = await this.get(id);
     await this.check(dto);
     await this.unique(dto.name, () =>
@@ -208,21 +208,17 @@ export class ChambersService {
     return this.getProcessSettings(chamberId);
   }
 
-  /** Materials must exist and appear once each. */
-  private async check(dto: ChamberDto): Promise<void> {
+  /** Materials must exist (the shared schema has refused a material listed twice). */
+  private async check(dto: ChamberInput): Promise<void> {
     const ids = [dto.monitorChipMaterialId, ...dto.materials.map((m) => m.materialId)];
     const found = new Set((await this.materials.findByIds(ids)).map((m) => m.id));
     const problems: string[] = [];
     if (!found.has(dto.monitorChipMaterialId)) {
       problems.push(`monitorChipMaterialId: material ${dto.monitorChipMaterialId} does not exist`);
     }
-    const seen = new Set<number>();
     dto.materials.forEach((m, i) => {
       if (!found.has(m.materialId))
-        problems.push(`materials[${i}].materialId: material ${m.materialId} does not exist`);
-      if (seen.has(m.materialId))
-        problems.push(`materials[${i}].materialId: material ${m.materialId} is listed twice`);
-      seen.add(m.materialId);
+        problems.push(`materials.${i}.materialId: material ${m.materialId} does not exist`);
     });
     if (problems.length > 0) throw new BadRequestException({ message: problems });
   }
@@ -237,7 +233,7 @@ export class ChambersService {
   }
 }
 
-function fields(dto: ChamberDto): Partial<Chamber> {
+function fields(dto: ChamberInput): Partial<Chamber> {
   return {
     name: dto.name,
     monitorWavelengthsNm: dto.monitorWavelengthsNm,
@@ -247,6 +243,6 @@ function fields(dto: ChamberDto): Partial<Chamber> {
       toolingFactor: m.toolingFactor,
       rateNmPerS: m.rateNmPerS,
     })),
-    notes: dto.notes ?? '',
+    notes: dto.notes,
   };
 }

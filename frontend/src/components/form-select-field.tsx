@@ -7,8 +7,9 @@ export interface SelectOption {
   label: string;
 }
 
-type FormSelectFieldProps<T extends FieldValues> = {
-  control: Control<T>;
+type FormSelectFieldProps<T extends FieldValues, TOut extends FieldValues = T> = {
+  /** A form's control; the form may hand its submit handler parsed values (a schema resolver). */
+  control: Control<T, unknown, TOut>;
   name: FieldPath<T>;
   label: string;
   options: readonly SelectOption[];
@@ -26,12 +27,12 @@ export const NEW_CUSTOMER_OPTION = 'New customer…';
 const CREATE_VALUE = '__create__';
 
 /** A native select bound to a react-hook-form field (keyboard-friendly and plain to test). */
-export function FormSelectField<T extends FieldValues>({
+export function FormSelectField<T extends FieldValues, TOut extends FieldValues = T>({
   options,
   placeholder,
   createOption,
   ...props
-}: FormSelectFieldProps<T>) {
+}: FormSelectFieldProps<T, TOut>) {
   const intercept = (value: string) => {
     if (!createOption || value !== CREATE_VALUE) return false;
     createOption.onCreate();

@@ -7,11 +7,12 @@ import {
   type RegisterOptions,
 } from 'react-hook-form';
 
-type FormTextFieldProps<T extends FieldValues> = Omit<
+type FormTextFieldProps<T extends FieldValues, TOut extends FieldValues = T> = Omit<
   TextFieldProps,
   'name' | 'value' | 'onChange' | 'onBlur' | 'error' | 'inputRef' | 'defaultValue'
 > & {
-  control: Control<T>;
+  /** A form's control; the form may hand its submit handler parsed values (a schema resolver). */
+  control: Control<T, unknown, TOut>;
   name: FieldPath<T>;
   rules?: RegisterOptions<T, FieldPath<T>>;
   /** Sees each typed or chosen value first; returning true keeps it out of the form. */
@@ -19,14 +20,14 @@ type FormTextFieldProps<T extends FieldValues> = Omit<
 };
 
 /** A MUI text field bound to a react-hook-form field; the rule's message shows as helper text. */
-export function FormTextField<T extends FieldValues>({
+export function FormTextField<T extends FieldValues, TOut extends FieldValues = T>({
   control,
   name,
   rules,
   helperText,
   interceptChange,
   ...textFieldProps
-}: FormTextFieldProps<T>) {
+}: FormTextFieldProps<T, TOut>) {
   const { field, fieldState } = useController({ control, name, rules });
   return (
     <TextField

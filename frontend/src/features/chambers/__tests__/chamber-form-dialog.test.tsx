@@ -3,10 +3,15 @@ import { describe, expect, it, vi } from 'vitest';
 import { apiError, mockApi } from '../../../test/mock-api';
 import { renderWithProviders } from '../../../test/render';
 import type { ChamberView } from '../api/get-chambers';
-import { chamberRules } from '../chamber-form';
+import {
+  chamberFormSchema,
+  valuesOfChamber,
+  type ChamberFormValues,
+  type MaterialRowValues,
+} from '../chamber-form';
 import { ChamberFormDialog } from '../components/chamber-form-dialog';
 
-// Rules mirror the API's ChamberDto (backend/src/chambers/dto/chamber.dto.ts): tooling factor and
+// The form checks the API's own chamber schema (shared/src/schemas/chambers.ts): tooling factor and
 // rate > 0 (at most 10 and 100 nm/s), 1–8 monitor wavelengths within 200–3000 nm. Invented chamber.
 
 const MATERIALS = [
@@ -33,7 +38,21 @@ function renderDialog(chamber: ChamberView | null, onClose = vi.fn()) {
   return { ...view, onClose, dialog: within(screen.getByRole('dialog')) };
 }
 
-describe('chamber rules', () => {
+/** The messages the form shows for its values: the shared chamber schema's, after parsing the text. */
+function problems(patch: Partial<ChamberFormValues>, row: Partial<MaterialRowValues> = {}): string[] {
+  const values: ChamberFormValues = {
+    name: 'Bell jar 2',
+    monitorWavelengths: '550',
+    monitorChipMaterialId: '2',
+    materials: [{ materialId: '4', toolingFactor: '1.08', rateNmPerS: '0.8', ...row }],
+    notes: '',
+    ...patch,
+  };
+  const parsed = chamberFormSchema.safeParse(values);
+  return parsed.success ? [] : parsed.error.issues.map((i) => `${i.path.join('.')}: ${i.message}`);
+}
+
+describe('chamber form schema', () => {
   it.each([
     ['0', 'Tooling factor must be greater than 0'],
     ['-1.2', 'Tooling factor must be greater than 0'],
@@ -41,12 +60,20 @@ describe('chamber rules', () => {
     ['fast', 'Enter the tooling factor as a number, e.g. 1.04'],
     ['', 'Enter the tooling factor as a number, e.g. 1.04'],
   ])('rejects tooling factor %j: %s', (text, message) => {
-    expect(chamberRules.toolingFactor(text)).toBe(message);
+    expect(problems({}, { toolingFactor: text })).toEqual([`materials.0.toolingFactor: ${message}`]);
   });
 
-  it('accepts a tooling factor above and below 1', () => {
-    expect(chamberRules.toolingFactor('0.95')).toBe(true);
-    expect(chamberRules.toolingFactor('1.08')).toBe(true);
+  it('accepts a tooling factor above and below 1 and hands on the parsed request body', () => {
+    expect(problems({}, { toolingFactor: '0.95' })).toEqual([]);
+    const edited = { ...valuesOfChamber(CHAMBER), monitorWavelengths: '550; 632.8' };
+    edited.materials = [{ materialId: '4', toolingFactor: '1.08', rateNmPerS: ' 0.8 ' }];
+    expect(chamberFormSchema.parse(edited)).toEqual({
+      name: 'Bell jar 1',
+      monitorWavelengthsNm: [550, 632.8],
+      monitorChipMaterialId: 2,
+      materials: [{ materialId: 4, toolingFactor: 1.08, rateNmPerS: 0.8 }],
+      notes: 'Demo chamber',
+    });
   });
 
   it.each([
@@ -55,7 +82,7 @@ describe('chamber rules', () => {
     ['150', 'Monitor wavelengths must be between 200 and 3000 nm'],
     ['400 450 500 550 600 650 700 750 800', 'At most 8 monitor wavelengths'],
   ])('rejects monitor wavelengths %j: %s', (text, message) => {
-    expect(chamberRules.monitorWavelengths(text)).toBe(message);
+    expect(problems({ monitorWavelengths: text }).map((p) => p.replace(/^[\w.]+: /, ''))).toEqual([message]);
   });
 });
 
@@ -87,7 +114,7 @@ describe('ChamberFormDialog', () => {
     await user.selectOptions(second.getByLabelText('Material'), 'MgF2');
     await user.type(second.getByLabelText('Rate (nm/s)'), '1');
     await user.click(dialog.getByRole('button', { name: 'Save chamber' }));
-    expect(await second.findByText('MgF2 is already listed in row 1')).toBeTruthy();
+    expect(await second.findByText('This material is already listed in row 1')).toBeTruthy();
     expect(api.requests).toHaveLength(0);
   });
 
@@ -124,14 +151,19 @@ describe('ChamberFormDialog', () => {
 
   it("edits with the chamber's version and shows the API's refusal", async () => {
     const api = mockApi({
-      'PUT /api/chambers/7': apiError(400, 'Bad Request', 'materials.0.toolingFactor must be > 0', [
-        'materials.0.toolingFactor must be > 0',
-      ]),
+      'PUT /api/chambers/7': apiError(
+        400,
+        'Bad Request',
+        'materials.0.toolingFactor: Tooling factor must be greater than 0',
+        ['materials.0.toolingFactor: Tooling factor must be greater than 0'],
+      ),
     });
     const { user, dialog, onClose } = renderDialog(CHAMBER);
     expect((dialog.getByLabelText('Monitor wavelengths (nm)') as HTMLInputElement).value).toBe('550, 632.8');
     await user.click(dialog.getByRole('button', { name: 'Save chamber' }));
-    expect((await dialog.findByRole('alert')).textContent).toContain('materials.0.toolingFactor must be > 0');
+    expect((await dialog.findByRole('alert')).textContent).toContain(
+      'materials.0.toolingFactor: Tooling factor must be greater than 0',
+    );
     expect(api.calls('PUT', '/api/chambers/7').map((r) => r.body)).toEqual([
       {
         name: 'Bell jar 1',

@@ -1,15 +1,10 @@
 import { useMutation, useQueryClient } from '@tanstack/react-query';
+import type { ChamberInput } from '@quietglass/shared';
 import { apiClient } from '../../../lib/api-client';
-import { getChambersQueryOptions, type ChamberMaterialSetting, type ChamberView } from './get-chambers';
+import { getChambersQueryOptions, type ChamberView } from './get-chambers';
 
-/** What a chamber form sends (the API's ChamberDto). */
-export interface ChamberInput {
-  name: string;
-  monitorWavelengthsNm: number[];
-  monitorChipMaterialId: number;
-  materials: ChamberMaterialSetting[];
-  notes: string;
-}
+/** What a chamber form sends: the API's shared chamber schema. */
+export type { ChamberInput } from '@quietglass/shared';
 
 export function createChamber(input: ChamberInput): Promise<ChamberView> {
   return apiClient.post<ChamberView>('/chambers', input);

@@ -8,6 +8,7 @@ import IconButton from '@mui/material/IconButton';
 import Typography from '@mui/material/Typography';
 import { useQueryClient } from '@tanstack/react-query';
 import { useState } from 'react';
+import { zodResolver } from '@hookform/resolvers/zod';
 import { useFieldArray, useForm } from 'react-hook-form';
 import { ConflictAlert } from '../../../components/conflict-alert';
 import { ErrorAlert } from '../../../components/error-alert';
@@ -21,12 +22,11 @@ import { getChambersQueryOptions, type ChamberView } from '../api/get-chambers';
 import { useUpdateChamber } from '../api/update-chamber';
 import {
   EMPTY_MATERIAL_ROW,
-  chamberInputOf,
-  chamberRules,
+  chamberFormSchema,
   valuesOfChamber,
+  type ChamberFormOutput,
   type ChamberFormValues,
 } from '../chamber-form';
-import { fieldText } from '../../../lib/format';
 
 interface ChamberFormDialogProps {
   open: boolean;
@@ -42,8 +42,9 @@ export function ChamberFormDialog({ open, chamber, materials, onClose }: Chamber
   const create = useCreateChamber();
   const update = useUpdateChamber();
   const [base, setBase] = useState<ChamberView | null>(chamber);
-  const { control, handleSubmit, reset } = useForm<ChamberFormValues>({
+  const { control, handleSubmit, reset } = useForm<ChamberFormValues, unknown, ChamberFormOutput>({
     defaultValues: valuesOfChamber(chamber),
+    resolver: zodResolver(chamberFormSchema),
     mode: 'onTouched',
   });
   const { fields, append, remove } = useFieldArray({ control, name: 'materials' });
@@ -57,16 +58,13 @@ export function ChamberFormDialog({ open, chamber, materials, onClose }: Chamber
         .concat(chamber ? [chamber.monitorChipMaterialId] : []),
     ),
   );
-  const nameOf = (id: number) => materials.find((m) => m.id === id)?.name ?? `Material ${id}`;
-
   const close = () => {
     create.reset();
     update.reset();
     onClose();
   };
 
-  const onSubmit = handleSubmit((values) => {
-    const input = chamberInputOf(values);
+  const onSubmit = handleSubmit((input) => {
     const onSuccess = (saved: ChamberView) => {
       notify(`Chamber ${saved.name} saved.`, 'success');
       close();
@@ -97,18 +95,12 @@ export function ChamberFormDialog({ open, chamber, materials, onClose }: Chamber
       {conflict && <ConflictAlert message={conflict.message} onReload={() => void reload()} />}
       {mutation.error && !conflict && <ErrorAlert error={mutation.error} title="Not saved" />}
       <Box sx={{ display: 'grid', gap: 2, gridTemplateColumns: { xs: '1fr', md: '2fr 1fr 1fr' }, pt: 1 }}>
-        <FormTextField
-          control={control}
-          name="name"
-          label="Name"
-          rules={{ validate: (v) => chamberRules.name(fieldText(v)) }}
-        />
+        <FormTextField control={control} name="name" label="Name" />
         <FormTextField
           control={control}
           name="monitorWavelengths"
           label="Monitor wavelengths (nm)"
           helperText="e.g. 550, 632.8"
-          rules={{ validate: (v) => chamberRules.monitorWavelengths(fieldText(v)) }}
         />
         <FormSelectField
           control={control}
@@ -116,7 +108,6 @@ export function ChamberFormDialog({ open, chamber, materials, onClose }: Chamber
           label="Monitor chip material"
           placeholder="Choose…"
           options={options}
-          rules={{ validate: (v) => chamberRules.monitorChip(fieldText(v)) }}
         />
       </Box>
       <Box component="fieldset" aria-label="Tooling factors and rates" sx={{ border: 0, p: 0, m: 0 }}>
@@ -147,23 +138,18 @@ export function ChamberFormDialog({ open, chamber, materials, onClose }: Chamber
                 size="small"
                 placeholder="Choose…"
                 options={options}
-                rules={{
-                  validate: (v, all) => chamberRules.material(fieldText(v), all.materials, index, nameOf),
-                }}
               />
               <FormTextField
                 control={control}
                 name={`materials.${index}.toolingFactor`}
                 label="Tooling factor"
                 size="small"
-                rules={{ validate: (v) => chamberRules.toolingFactor(fieldText(v)) }}
               />
               <FormTextField
                 control={control}
                 name={`materials.${index}.rateNmPerS`}
                 label="Rate (nm/s)"
                 size="small"
-                rules={{ validate: (v) => chamberRules.rate(fieldText(v)) }}
               />
               <IconButton aria-label={`Remove material row ${index + 1}`} onClick={() => remove(index)}>
                 <DeleteOutlined fontSize="small" />
@@ -175,14 +161,7 @@ export function ChamberFormDialog({ open, chamber, materials, onClose }: Chamber
           Add material
         </Button>
       </Box>
-      <FormTextField
-        control={control}
-        name="notes"
-        label="Notes"
-        multiline
-        minRows={2}
-        rules={{ validate: (v) => chamberRules.notes(fieldText(v)) }}
-      />
+      <FormTextField control={control} name="notes" label="Notes" multiline minRows={2} />
     </FormDialog>
   );
 }

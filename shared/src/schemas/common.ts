@@ -1,0 +1,47 @@
+/*
+ * Building blocks of the request schemas the API validates with and the client's forms check
+ * before sending. A schema's messages are written for the person filling the form; the API puts
+ * the field's path in front of them.
+ */
+import { z } from 'zod';
+
+/** A finite number (zod rejects NaN and ±Infinity); `typeMessage` when it is not one. */
+export function finiteNumber(typeMessage: string) {
+  return z.number({ error: typeMessage });
+}
+
+/** The id of a record chosen from a list; `message` when none (or no valid one) is chosen. */
+export function recordId(message: string) {
+  return z.number({ error: message }).int({ error: message }).positive({ error: message });
+}
+
+/** A trimmed, required line of text of at most `max` characters. */
+export function requiredText(emptyMessage: string, max: number) {
+  return z
+    .string({ error: emptyMessage })
+    .trim()
+    .min(1, { error: emptyMessage })
+    .max(max, { error: `At most ${max} characters` });
+}
+
+/** Free text of at most `max` characters; missing means empty. */
+export function optionalText(max: number) {
+  return z
+    .string({ error: 'Must be text' })
+    .max(max, { error: `At most ${max} characters` })
+    .default('');
+}
+
+/** The optimistic-locking counter an edit sends back. */
+export const versionToken = z
+  .number({ error: 'version must be the version number last read' })
+  .int({ error: 'version must be a whole number' })
+  .min(1, { error: 'version must be at least 1' });
+
+/** One line per problem, as the API answers them: "materials.0.toolingFactor: …". */
+export function issueLines(error: z.ZodError): string[] {
+  return error.issues.map((issue) => {
+    const where = issue.path.map(String).join('.');
+    return where === '' ? issue.message : `${where}: ${issue.message}`;
+  });
+}
