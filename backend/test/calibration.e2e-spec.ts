@@ -211,7 +211,7 @@ describe('chamber calibration', () => {
       .set('Cookie', mira)
       .send({ key: firstKey, decision: 'accepted', comment: ' ' });
     expect(noComment.status).toBe(400);
-    expect(noComment.body.details).toContain('comment must say why');
+    expect(noComment.body.details).toEqual(['comment: Say why']);
     const badDecision = await http()
       .post(url)
       .set('Cookie', mira)
@@ -371,6 +371,11 @@ describe('chamber calibration', () => {
       .set('Cookie', admin)
       .send({ thresholdPercent: Number.NaN, minRuns: 1, version: current.version });
     expect(bad.status).toBe(400);
+    // JSON carries NaN as null.
+    expect(bad.body.details).toEqual([
+      'thresholdPercent: Enter the threshold in percent as a number',
+      'minRuns: At least 2 runs',
+    ]);
     const byEngineer = await http()
       .put('/api/calibration/settings')
       .set('Cookie', mira)

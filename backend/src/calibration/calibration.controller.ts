@@ -1,10 +1,16 @@
 import { Body, Controller, Get, Param, ParseIntPipe, Post, Put } from '@nestjs/common';
 import type { CalibrationDecisionView, ChamberCalibrationView } from '@quietglass/shared/calibration';
+import {
+  calibrationDecisionSchema,
+  calibrationSettingsSchema,
+  type CalibrationDecisionInput,
+  type CalibrationSettingsInput,
+} from '@quietglass/shared/schemas/calibration';
 import { CurrentUser } from '../auth/current-user.decorator.js';
 import { Roles } from '../auth/roles.decorator.js';
+import { ZodBody } from '../common/zod-body.js';
 import type { User } from '../users/user.entity.js';
 import { CalibrationService } from './calibration.service.js';
-import { CalibrationDecisionDto, CalibrationSettingsDto } from './dto/calibration.dto.js';
 
 /** Chamber calibration: everyone who reads chambers sees it; engineers and admins decide. */
 @Controller()
@@ -19,9 +25,10 @@ export class CalibrationController {
 
   @Post('chambers/:id/calibration/decisions')
   @Roles('admin', 'engineer')
+  @ZodBody(calibrationDecisionSchema)
   decide(
     @Param('id', ParseIntPipe) id: number,
-    @Body() dto: CalibrationDecisionDto,
+    @Body() dto: CalibrationDecisionInput,
     @CurrentUser() user: User,
   ): Promise<CalibrationDecisionView> {
     return this.calibration.decide(id, dto, user);
@@ -35,7 +42,8 @@ export class CalibrationController {
 
   @Put('calibration/settings')
   @Roles('admin')
-  async updateSettings(@Body() dto: CalibrationSettingsDto, @CurrentUser() user: User) {
+  @ZodBody(calibrationSettingsSchema)
+  async updateSettings(@Body() dto: CalibrationSettingsInput, @CurrentUser() user: User) {
     const row = await this.calibration.updateSettings(dto, user);
     return { thresholdPercent: row.thresholdPercent, minRuns: row.minRuns, version: row.version };
   }

@@ -19,7 +19,10 @@ import { RunsService } from '../runs/runs.service.js';
 import type { User } from '../users/user.entity.js';
 import { materialSeries, runCauses, suggestion, type DiagnosedRun } from './calibration-history.js';
 import { CalibrationDecision, CalibrationSettingsRecord, toDecisionView } from './calibration.entity.js';
-import type { CalibrationDecisionDto, CalibrationSettingsDto } from './dto/calibration.dto.js';
+import type {
+  CalibrationDecisionInput,
+  CalibrationSettingsInput,
+} from '@quietglass/shared/schemas/calibration';
 
 /**
  * Chamber calibration from the run history: per chamber and material, the tooling factor each
@@ -52,7 +55,7 @@ export class CalibrationService {
   }
 
   /** The shop's threshold and minimum runs; admin only, audited. */
-  async updateSettings(dto: CalibrationSettingsDto, user: User): Promise<CalibrationSettingsRecord> {
+  async updateSettings(dto: CalibrationSettingsInput, user: User): Promise<CalibrationSettingsRecord> {
     const before = await this.settingsRecord();
     await this.settingsRows.manager.transaction(async (tx) => {
       await updateIfVersion(
@@ -139,7 +142,7 @@ export class CalibrationService {
    * suggestion sets the chamber's tooling factor in the same transaction; every decision is audited
    * with its comment. Run sheets made afterwards use the new factor; printed ones keep theirs.
    */
-  async decide(chamberId: number, dto: CalibrationDecisionDto, user: User) {
+  async decide(chamberId: number, dto: CalibrationDecisionInput, user: User) {
     const { view, chamber } = await this.compute(chamberId);
     const s = view.suggestions.find((x) => x.key === dto.key);
     if (!s) {

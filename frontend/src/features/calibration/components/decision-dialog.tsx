@@ -1,11 +1,15 @@
 import Typography from '@mui/material/Typography';
+import { zodResolver } from '@hookform/resolvers/zod';
 import { useForm } from 'react-hook-form';
-import { CALIBRATION_COMMENT_MAX_LENGTH, formatToolingFactor } from '@quietglass/shared';
+import { calibrationDecisionSchema, formatToolingFactor } from '@quietglass/shared';
 import { ErrorAlert } from '../../../components/error-alert';
 import { FormDialog } from '../../../components/form-dialog';
 import { FormTextField } from '../../../components/form-text-field';
 import { useDecideCalibration } from '../api/decide-calibration';
 import type { CalibrationSuggestionView } from '../api/get-chamber-calibration';
+
+/** The comment as the API checks it (trimmed, required, limited). */
+const commentSchema = calibrationDecisionSchema.pick({ comment: true });
 
 /** Accept or reject one suggestion, exactly as shown, with a comment (kept on the audit trail). */
 export function DecisionDialog({
@@ -20,7 +24,10 @@ export function DecisionDialog({
   onClose: () => void;
 }) {
   const decide = useDecideCalibration();
-  const { control, handleSubmit } = useForm<{ comment: string }>({ defaultValues: { comment: '' } });
+  const { control, handleSubmit } = useForm<{ comment: string }>({
+    defaultValues: { comment: '' },
+    resolver: zodResolver(commentSchema),
+  });
   const verb = decision === 'accepted' ? (suggestion.kind === 'common' ? 'Acknowledge' : 'Accept') : 'Reject';
   return (
     <FormDialog
@@ -31,7 +38,7 @@ export function DecisionDialog({
       onClose={onClose}
       onSubmit={handleSubmit((v) =>
         decide.mutate(
-          { chamberId, key: suggestion.key, decision, comment: v.comment.trim() },
+          { chamberId, key: suggestion.key, decision, comment: v.comment },
           { onSuccess: onClose },
         ),
       )}
@@ -46,21 +53,7 @@ export function DecisionDialog({
           ) for run sheets made from now on.
         </Typography>
       )}
-      <FormTextField
-        control={control}
-        name="comment"
-        label="Comment"
-        multiline
-        minRows={2}
-        required
-        rules={{
-          validate: (v: string) => v.trim().length > 0 || 'Say why',
-          maxLength: {
-            value: CALIBRATION_COMMENT_MAX_LENGTH,
-            message: `At most ${CALIBRATION_COMMENT_MAX_LENGTH} characters`,
-          },
-        }}
-      />
+      <FormTextField control={control} name="comment" label="Comment" multiline minRows={2} required />
       {decide.isError && <ErrorAlert error={decide.error} title="The decision was not saved" />}
     </FormDialog>
   );
