@@ -65,10 +65,10 @@ describe('shop settings', () => {
   });
 
   it.each([
-    [{ shopName: '   ', version: 0 }, 'shopName must not be empty'],
-    [{ shopName: 'x'.repeat(121), version: 0 }, 'shopName must be at most 120 characters'],
-    [{ shopName: 'Fine', version: -1 }, 'version must not be less than 0'],
-    [{ shopName: 'Fine', version: 0, colour: 'red' }, 'property colour should not exist'],
+    [{ shopName: '   ', version: 0 }, 'shopName: The shop needs a name'],
+    [{ shopName: 'x'.repeat(121), version: 0 }, 'shopName: At most 120 characters'],
+    [{ shopName: 'Fine', version: -1 }, 'version: version must be the version you read'],
+    [{ shopName: 'Fine', version: 0, colour: 'red' }, 'Unrecognized key: "colour"'],
   ])('refuses the name %j with 400 and writes nothing', async (body, detail) => {
     const res = await http().put('/api/shop-settings').set('Cookie', admin).send(body);
     expect(res.status).toBe(400);
@@ -101,7 +101,7 @@ describe('shop settings', () => {
   it.each([
     [
       { contentType: 'image/gif', dataBase64: 'R0lGODlh', version: 1 },
-      'contentType must be one of image/png, image/jpeg',
+      'contentType: The logo must be a PNG or JPEG image',
     ],
     [{ contentType: 'image/png', dataBase64: 'not base64!', version: 1 }, 'dataBase64: not valid base64'],
     [
@@ -122,7 +122,7 @@ describe('shop settings', () => {
     ],
     [
       { contentType: 'image/png', dataBase64: 'A'.repeat(Math.ceil(LOGO_MAX_BYTES / 3) * 4 + 4), version: 1 },
-      'the logo must be at most 512 KB',
+      'dataBase64: The logo must be at most 512 KB',
     ],
   ])('refuses the logo %# with 400 and writes nothing', async (body, detail) => {
     const res = await http().put('/api/shop-settings/logo').set('Cookie', admin).send(body);
@@ -162,10 +162,16 @@ describe('shop settings', () => {
   });
 
   it.each([
-    [{ targetMarginPercent: -0.1, version: 3 }, 'targetMarginPercent must be ≥ 0'],
-    [{ targetMarginPercent: 6, version: 3 }, 'targetMarginPercent must be at most 5 percentage points'],
-    [{ targetMarginPercent: '0.2', version: 3 }, 'targetMarginPercent must be a number'],
-    [{ version: 3 }, 'targetMarginPercent must be a number'],
+    [
+      { targetMarginPercent: -0.1, version: 3 },
+      'targetMarginPercent: A number from 0 to 5 percentage points',
+    ],
+    [{ targetMarginPercent: 6, version: 3 }, 'targetMarginPercent: A number from 0 to 5 percentage points'],
+    [
+      { targetMarginPercent: '0.2', version: 3 },
+      'targetMarginPercent: A number from 0 to 5 percentage points',
+    ],
+    [{ version: 3 }, 'targetMarginPercent: A number from 0 to 5 percentage points'],
   ])('refuses the target margin %j with 400 and writes nothing', async (body, detail) => {
     const res = await http().put('/api/shop-settings/target-margin').set('Cookie', admin).send(body);
     expect(res.status).toBe(400);

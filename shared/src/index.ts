@@ -11,6 +11,7 @@ export * from './chambers.js';
 export * from './schemas/common.js';
 export * from './schemas/chambers.js';
 export * from './schemas/calibration.js';
+export * from './schemas/shop.js';
 export * from './calibration.js';
 export * from './recipes.js';
 export * from './outbox.js';

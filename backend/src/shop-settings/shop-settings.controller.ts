@@ -1,10 +1,18 @@
 import { Body, Controller, Delete, Get, Put, Query, ParseIntPipe, Res, StreamableFile } from '@nestjs/common';
 import type { Response } from 'express';
+import {
+  shopLogoSchema,
+  shopNameSchema,
+  shopTargetMarginSchema,
+  type ShopLogoInput,
+  type ShopNameInput,
+  type ShopTargetMarginInput,
+} from '@quietglass/shared/schemas/shop';
 import type { ShopSettingsView } from '@quietglass/shared/shop';
 import { CurrentUser } from '../auth/current-user.decorator.js';
 import { Roles } from '../auth/roles.decorator.js';
+import { ZodBody } from '../common/zod-body.js';
 import type { User } from '../users/user.entity.js';
-import { ShopLogoDto, ShopNameDto, ShopTargetMarginDto } from './dto/shop-settings.dto.js';
 import { ShopSettingsService } from './shop-settings.service.js';
 
 /** Everyone signed in reads the shop's settings; only admins change them. */
@@ -19,13 +27,15 @@ export class ShopSettingsController {
 
   @Put()
   @Roles('admin')
-  saveName(@Body() dto: ShopNameDto, @CurrentUser() user: User): Promise<ShopSettingsView> {
+  @ZodBody(shopNameSchema)
+  saveName(@Body() dto: ShopNameInput, @CurrentUser() user: User): Promise<ShopSettingsView> {
     return this.shop.saveName(dto, user);
   }
 
   @Put('target-margin')
   @Roles('admin')
-  saveTargetMargin(@Body() dto: ShopTargetMarginDto, @CurrentUser() user: User): Promise<ShopSettingsView> {
+  @ZodBody(shopTargetMarginSchema)
+  saveTargetMargin(@Body() dto: ShopTargetMarginInput, @CurrentUser() user: User): Promise<ShopSettingsView> {
     return this.shop.saveTargetMargin(dto, user);
   }
 
@@ -38,7 +48,8 @@ export class ShopSettingsController {
 
   @Put('logo')
   @Roles('admin')
-  saveLogo(@Body() dto: ShopLogoDto, @CurrentUser() user: User): Promise<ShopSettingsView> {
+  @ZodBody(shopLogoSchema)
+  saveLogo(@Body() dto: ShopLogoInput, @CurrentUser() user: User): Promise<ShopSettingsView> {
     return this.shop.saveLogo(dto, user);
   }
 

@@ -12,7 +12,7 @@ import { DEFAULT_TARGET_MARGIN_PERCENT } from '@quietglass/shared/optimise/fit';
 import { appConfig, type AppConfig } from '../config/configuration.js';
 import { AuditService } from '../audit/audit.service.js';
 import type { User } from '../users/user.entity.js';
-import type { ShopLogoDto, ShopNameDto, ShopTargetMarginDto } from './dto/shop-settings.dto.js';
+import type { ShopLogoInput, ShopNameInput, ShopTargetMarginInput } from '@quietglass/shared/schemas/shop';
 import { embeds, imageSize, LOGO_MAX_PIXELS } from './logo-image.js';
 import { ShopSettings } from './shop-settings.entity.js';
 
@@ -77,7 +77,7 @@ export class ShopSettingsService {
     return { shopName: view.shopName, logo: view.logo ? (await this.logo()).data : null };
   }
 
-  async saveName(dto: ShopNameDto, user: User): Promise<ShopSettingsView> {
+  async saveName(dto: ShopNameInput, user: User): Promise<ShopSettingsView> {
     const before = await this.get();
     await this.write(dto.version, { shopName: dto.shopName }, user, {
       action: 'renamed',
@@ -92,7 +92,7 @@ export class ShopSettingsService {
     return (await this.row())?.targetMarginPercent ?? DEFAULT_TARGET_MARGIN_PERCENT;
   }
 
-  async saveTargetMargin(dto: ShopTargetMarginDto, user: User): Promise<ShopSettingsView> {
+  async saveTargetMargin(dto: ShopTargetMarginInput, user: User): Promise<ShopSettingsView> {
     const before = await this.get();
     await this.write(dto.version, { targetMarginPercent: dto.targetMarginPercent }, user, {
       action: 'target margin changed',
@@ -103,7 +103,7 @@ export class ShopSettingsService {
   }
 
   /** A PNG or JPEG within the size limits, checked by its own bytes rather than the declared type. */
-  async saveLogo(dto: ShopLogoDto, user: User): Promise<ShopSettingsView> {
+  async saveLogo(dto: ShopLogoInput, user: User): Promise<ShopSettingsView> {
     if (!BASE64.test(dto.dataBase64) || dto.dataBase64.length % 4 !== 0) {
       throw new BadRequestException({ message: ['dataBase64: not valid base64'] });
     }

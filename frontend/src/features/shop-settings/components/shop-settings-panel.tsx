@@ -2,43 +2,42 @@ import Box from '@mui/material/Box';
 import Button from '@mui/material/Button';
 import Paper from '@mui/material/Paper';
 import Typography from '@mui/material/Typography';
+import { zodResolver } from '@hookform/resolvers/zod';
 import {
   LOGO_MAX_BYTES,
+  LOGO_SIZE_MESSAGE,
   LOGO_TYPES,
-  MAX_TARGET_MARGIN_PERCENT,
-  SHOP_NAME_MAX,
+  shopNameSchema,
+  shopTargetMarginSchema,
   type LogoType,
 } from '@quietglass/shared';
 import { useEffect, useRef, useState } from 'react';
 import { useForm } from 'react-hook-form';
+import { z } from 'zod';
 import { ConflictAlert } from '../../../components/conflict-alert';
 import { ErrorAlert } from '../../../components/error-alert';
 import { FormTextField } from '../../../components/form-text-field';
 import { ApiError, apiUrl } from '../../../lib/api-client';
-import { fieldText, parseNumberInput } from '../../../lib/format';
+import { parseNumberInput } from '../../../lib/format';
 import { notify } from '../../../lib/notifier';
 import { useShopSettings } from '../api/get-shop-settings';
 import { useSaveShopSettings } from '../api/save-shop-settings';
 
-/** Why a shop name cannot be saved (the API's rule); null when it can. */
-export function shopNameError(value: string): string | null {
-  const t = value.trim();
-  if (t === '') return 'The shop needs a name';
-  return t.length > SHOP_NAME_MAX ? `At most ${SHOP_NAME_MAX} characters` : null;
-}
+/** The name form: the API's own rule (trimmed, required, limited). */
+const nameFormSchema = shopNameSchema.pick({ shopName: true });
 
-/** Why a default target margin cannot be saved (the API's rule); null when it can. */
-export function targetMarginError(value: string): string | null {
-  const v = parseNumberInput(value.trim());
-  return v === null || v < 0 || v > MAX_TARGET_MARGIN_PERCENT
-    ? `A number from 0 to ${MAX_TARGET_MARGIN_PERCENT} percentage points`
-    : null;
-}
+/** The margin form: the typed text parsed, then the API's own limits and message. */
+const marginFormSchema = z.object({
+  targetMarginPercent: z
+    .string()
+    .transform((text) => parseNumberInput(text.trim()) ?? Number.NaN)
+    .pipe(shopTargetMarginSchema.shape.targetMarginPercent),
+});
 
 /** Why a chosen logo file cannot be uploaded, before it is sent; null when it can. */
 export function logoFileError(file: { type: string; size: number }): string | null {
   if (!(LOGO_TYPES as readonly string[]).includes(file.type)) return 'The logo must be a PNG or JPEG image';
-  if (file.size > LOGO_MAX_BYTES) return `The logo must be at most ${LOGO_MAX_BYTES / 1024} KB`;
+  if (file.size > LOGO_MAX_BYTES) return LOGO_SIZE_MESSAGE;
   return null;
 }
 
@@ -60,10 +59,12 @@ export function ShopSettingsPanel() {
   const fileInput = useRef<HTMLInputElement | null>(null);
   const { control, handleSubmit, reset } = useForm<{ shopName: string }>({
     defaultValues: { shopName: '' },
+    resolver: zodResolver(nameFormSchema),
     mode: 'onTouched',
   });
-  const margin = useForm<{ targetMarginPercent: string }>({
+  const margin = useForm<{ targetMarginPercent: string }, unknown, z.output<typeof marginFormSchema>>({
     defaultValues: { targetMarginPercent: '' },
+    resolver: zodResolver(marginFormSchema),
     mode: 'onTouched',
   });
   const view = settings.data;
@@ -79,7 +80,7 @@ export function ShopSettingsPanel() {
   const onSubmit = handleSubmit(({ shopName }) => {
     if (!view) return;
     save.mutate(
-      { kind: 'name', shopName: shopName.trim(), version: view.version },
+      { kind: 'name', shopName, version: view.version },
       { onSuccess: () => notify('Shop name saved.', 'success') },
     );
   });
@@ -88,7 +89,7 @@ export function ShopSettingsPanel() {
     save.mutate(
       {
         kind: 'target-margin',
-        targetMarginPercent: parseNumberInput(targetMarginPercent.trim())!,
+        targetMarginPercent,
         version: view.version,
       },
       { onSuccess: () => notify('Default target margin saved.', 'success') },
@@ -149,7 +150,6 @@ export function ShopSettingsPanel() {
               label="Shop name"
               size="small"
               sx={{ flexGrow: 1 }}
-              rules={{ validate: (v) => shopNameError(fieldText(v)) ?? true }}
             />
             <Button type="submit" variant="contained" loading={save.isPending}>
               Save name
@@ -215,7 +215,6 @@ export function ShopSettingsPanel() {
               size="small"
               sx={{ width: 220 }}
               helperText="Fit to mask and Grow layers design this far inside every limit unless the engineer asks for another"
-              rules={{ validate: (v) => targetMarginError(fieldText(v)) ?? true }}
             />
             <Button type="submit" variant="contained" loading={save.isPending}>
               Save margin
