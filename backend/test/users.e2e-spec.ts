@@ -53,19 +53,19 @@ describe('users (admin)', () => {
   it.each([
     [
       { email: 'not-an-email', displayName: 'X', role: 'engineer', password: 'long-enough-pw' },
-      'email must be a valid e-mail address',
+      'email: Enter a valid e-mail address',
     ],
     [
       { email: 'a@larkspur.example', displayName: 'X', role: 'wizard', password: 'long-enough-pw' },
-      'role must be one of admin, engineer, sales, operator',
+      'role: Choose a role: admin, engineer, sales, operator',
     ],
     [
       { email: 'a@larkspur.example', displayName: 'X', role: 'engineer', password: 'short' },
-      'password must be at least 10 characters',
+      'password: At least 10 characters',
     ],
     [
       { email: 'a@larkspur.example', displayName: '   ', role: 'engineer', password: 'long-enough-pw' },
-      'displayName must not be empty',
+      'displayName: Enter a display name',
     ],
   ])('rejects %j with 400 and writes nothing', async (body, detail) => {
     const before = await userCount();

@@ -6,8 +6,13 @@ import type { User } from '../users/user.entity.js';
 import { toUserView } from '../users/user-view.js';
 import { AuthService } from './auth.service.js';
 import { CurrentSession, CurrentUser, type AuthedRequest } from './current-user.decorator.js';
-import { ChangePasswordDto } from './dto/change-password.dto.js';
-import { SignInDto } from './dto/sign-in.dto.js';
+import {
+  changePasswordSchema,
+  signInSchema,
+  type ChangePasswordInput,
+  type SignInInput,
+} from '@quietglass/shared/schemas/users';
+import { ZodBody } from '../common/zod-body.js';
 import { AllowedBeforePasswordChange, OptionalSession, Public } from './public.decorator.js';
 import { SESSION_COOKIE } from './session.js';
 
@@ -21,8 +26,9 @@ export class AuthController {
   @Public()
   @Post('sign-in')
   @HttpCode(200)
+  @ZodBody(signInSchema)
   async signIn(
-    @Body() dto: SignInDto,
+    @Body() dto: SignInInput,
     @Req() req: Request,
     @Res({ passthrough: true }) res: Response,
   ): Promise<{ user: UserView }> {
@@ -70,10 +76,11 @@ export class AuthController {
   @Post('password')
   @HttpCode(204)
   @AllowedBeforePasswordChange()
+  @ZodBody(changePasswordSchema)
   async changePassword(
     @CurrentUser() user: User,
     @CurrentSession() sessionId: string,
-    @Body() dto: ChangePasswordDto,
+    @Body() dto: ChangePasswordInput,
   ): Promise<void> {
     await this.auth.changePassword(user, sessionId, dto.currentPassword, dto.newPassword);
   }

@@ -1,8 +1,5 @@
 import bcrypt from 'bcryptjs';
 
-/** Minimum length of a new password; mirrored by the client's forms. */
-export const MIN_PASSWORD_LENGTH = 10;
-
 function cost(): number {
   const raw = Number(process.env.BCRYPT_COST ?? 11);
   return Number.isInteger(raw) && raw >= 4 && raw <= 15 ? raw : 11;

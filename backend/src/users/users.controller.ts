@@ -2,9 +2,15 @@ import { Body, Controller, Get, HttpCode, Param, ParseIntPipe, Patch, Post } fro
 import type { UserView } from '@quietglass/shared';
 import { Roles } from '../auth/roles.decorator.js';
 import { CurrentUser } from '../auth/current-user.decorator.js';
-import { CreateUserDto } from './dto/create-user.dto.js';
-import { UpdateUserDto } from './dto/update-user.dto.js';
-import { SetPasswordDto } from './dto/set-password.dto.js';
+import {
+  createUserSchema,
+  setPasswordSchema,
+  updateUserSchema,
+  type CreateUserInput,
+  type SetPasswordInput,
+  type UpdateUserInput,
+} from '@quietglass/shared/schemas/users';
+import { ZodBody } from '../common/zod-body.js';
 import type { User } from './user.entity.js';
 import { toUserView } from './user-view.js';
 import { UsersService } from './users.service.js';
@@ -20,14 +26,16 @@ export class UsersController {
   }
 
   @Post()
-  async create(@Body() dto: CreateUserDto, @CurrentUser() actor: User): Promise<UserView> {
+  @ZodBody(createUserSchema)
+  async create(@Body() dto: CreateUserInput, @CurrentUser() actor: User): Promise<UserView> {
     return toUserView(await this.users.create(dto, actor));
   }
 
   @Patch(':id')
+  @ZodBody(updateUserSchema)
   async update(
     @Param('id', ParseIntPipe) id: number,
-    @Body() dto: UpdateUserDto,
+    @Body() dto: UpdateUserInput,
     @CurrentUser() actor: User,
   ): Promise<UserView> {
     return toUserView(await this.users.update(id, dto, actor));
@@ -35,9 +43,10 @@ export class UsersController {
 
   @Post(':id/password')
   @HttpCode(204)
+  @ZodBody(setPasswordSchema)
   async resetPassword(
     @Param('id', ParseIntPipe) id: number,
-    @Body() dto: SetPasswordDto,
+    @Body() dto: SetPasswordInput,
     @CurrentUser() actor: User,
   ): Promise<void> {
     await this.users.setPassword(id, dto.newPassword, { kind: 'admin', actor });

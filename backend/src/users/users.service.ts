@@ -3,8 +3,7 @@ import { InjectRepository } from '@nestjs/typeorm';
 import { Repository } from 'typeorm';
 import { AuditService } from '../audit/audit.service.js';
 import { User } from './user.entity.js';
-import type { CreateUserDto } from './dto/create-user.dto.js';
-import type { UpdateUserDto } from './dto/update-user.dto.js';
+import type { CreateUserInput, UpdateUserInput } from '@quietglass/shared/schemas/users';
 import { isUniqueViolation } from '../common/db-errors.js';
 import { SessionsService } from '../sessions/sessions.service.js';
 import { hashPassword } from './passwords.js';
@@ -35,7 +34,7 @@ export class UsersService {
     return this.users.findOneBy({ email: email.trim().toLowerCase() });
   }
 
-  async create(dto: CreateUserDto, actor?: User): Promise<User> {
+  async create(dto: CreateUserInput, actor?: User): Promise<User> {
     const user = this.users.create({
       email: dto.email,
       displayName: dto.displayName,
@@ -72,7 +71,7 @@ export class UsersService {
    * (two admins demoting each other) run one after the other: the second finds its actor no longer
    * an active admin and is refused, and the shop always keeps one.
    */
-  async update(id: number, dto: UpdateUserDto, actor: User): Promise<User> {
+  async update(id: number, dto: UpdateUserInput, actor: User): Promise<User> {
     const actorId = actor.id;
     await this.get(id);
     return this.users.manager.transaction(async (tx) => {

@@ -35,7 +35,6 @@ import {
   validUntilRule,
   type QuoteFormValues,
 } from '../quote-form';
-import { fieldText } from '../../../lib/format';
 
 export interface QuoteCustomerChoice {
   id: number;
@@ -185,7 +184,7 @@ export function QuoteFormDialog({
           name="contactEmail"
           label="Contact e-mail"
           type="email"
-          rules={{ ...emailRules, validate: (v) => emailRules.validate(fieldText(v)) }}
+          rules={emailRules}
         />
         <FormSelectField
           control={control}
