@@ -13,6 +13,7 @@ import {
   type Page,
 } from 'playwright-core';
 import { baseUrl, demoSignIns, signIn, type DemoSignIn } from './browser.js';
+import { expect } from 'vitest';
 
 /*
  * The demo shop as the browser tests use it. The four-layer AR stack answers the demo customer's
@@ -205,7 +206,19 @@ export async function startRunInDialog(page: Page, recipeLabel: string | null, l
 
 /** Opens a tab of the design workspace below the grid and the plot ("Full analysis", "Optimise" …). */
 export async function openWorkspaceTab(page: Page, name: string): Promise<void> {
-  await page.getByRole('tablist', { name: 'Workspace' }).getByRole('tab', { name, exact: true }).click();
+  const tab = page.getByRole('tablist', { name: 'Workspace' }).getByRole('tab', { name, exact: true });
+  // The scrollable tab strip may still be scrolling its selected tab into view right after a
+  // (re)load, and a click then lands beside the tab: click until the tab is the selected one.
+  for (let attempt = 0; attempt < 5; attempt++) {
+    await tab.click();
+    try {
+      await expect.poll(() => tab.getAttribute('aria-selected'), { timeout: 3_000 }).toBe('true');
+      return;
+    } catch {
+      // clicked while the strip moved; try again
+    }
+  }
+  throw new Error(`the workspace tab "${name}" did not open after 5 clicks`);
 }
 
 /**

@@ -1,7 +1,14 @@
 import type { Browser } from 'playwright-core';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { launchBrowser } from './browser.js';
-import { browserSession, createDesignInBrowser, demoUser, layerCell, maskResult } from './demo-shop.js';
+import {
+  browserSession,
+  createDesignInBrowser,
+  demoUser,
+  layerCell,
+  maskResult,
+  openWorkspaceTab,
+} from './demo-shop.js';
 
 /*
  * An engineer works the Layer grid as a spreadsheet: a block copied from a spreadsheet with a
@@ -109,7 +116,7 @@ describe('Layer grid as a spreadsheet', () => {
     expect(await again.getByLabel('From (nm)').inputValue()).toBe('390');
 
     // Compare keeps its own range, from the mask too.
-    await page.getByRole('tablist', { name: 'Workspace' }).getByRole('tab', { name: 'Compare' }).click();
+    await openWorkspaceTab(page, 'Compare');
     const compare = page.getByRole('region', { name: 'Compare versions' });
     expect(await compare.getByLabel('From (nm)').inputValue()).toBe('390');
     expect(await compare.getByLabel('To (nm)').inputValue()).toBe('710');
