@@ -1,6 +1,7 @@
 import { displayNameField, emailField, newPasswordField } from '@quietglass/shared';
 import type { RegisterOptions } from 'react-hook-form';
-import type { ZodType } from 'zod';
+import { z, type ZodType } from 'zod';
+import { parseNumberInput } from './format';
 
 export {
   MAX_DISPLAY_NAME_LENGTH,
@@ -18,6 +19,12 @@ export function schemaRule(schema: ZodType) {
     },
   } satisfies RegisterOptions<Record<string, string>, string>;
 }
+
+/**
+ * Text typed in a number field as a number, or NaN, which the API's number schemas refuse with
+ * their own message: pipe it into one (`typedNumber.pipe(schema.shape.x)`).
+ */
+export const typedNumber = z.string().transform((text) => parseNumberInput(text) ?? Number.NaN);
 
 /** An e-mail address as the API checks it. */
 export const emailRules = schemaRule(emailField);

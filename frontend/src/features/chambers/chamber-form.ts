@@ -1,6 +1,7 @@
 import { chamberInputSchema, chamberMaterialSchema, type ChamberInput } from '@quietglass/shared';
 import { z } from 'zod';
-import { parseNumberInput, parseNumberList } from '../../lib/format';
+import { parseNumberList } from '../../lib/format';
+import { typedNumber } from '../../lib/validation';
 import type { ChamberView } from './api/get-chambers';
 
 export interface MaterialRowValues {
@@ -43,8 +44,6 @@ export function valuesOfChamber(chamber: ChamberView | null): ChamberFormValues 
   };
 }
 
-/** Text typed in a number field: a number, or NaN that the shared schema refuses with its message. */
-const typedNumber = z.string().transform((text) => parseNumberInput(text) ?? Number.NaN);
 /** A record chosen in a select: its id, or NaN when none is chosen. */
 const chosenId = z.string().transform((text) => (text === '' ? Number.NaN : Number(text)));
 

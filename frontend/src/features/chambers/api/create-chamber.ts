@@ -3,9 +3,6 @@ import type { ChamberInput } from '@quietglass/shared';
 import { apiClient } from '../../../lib/api-client';
 import { getChambersQueryOptions, type ChamberView } from './get-chambers';
 
-/** What a chamber form sends: the API's shared chamber schema. */
-export type { ChamberInput } from '@quietglass/shared';
-
 export function createChamber(input: ChamberInput): Promise<ChamberView> {
   return apiClient.post<ChamberView>('/chambers', input);
 }

@@ -1,6 +1,6 @@
 import { useMutation, useQueryClient } from '@tanstack/react-query';
 import { apiClient } from '../../../lib/api-client';
-import type { ChamberInput } from './create-chamber';
+import type { ChamberInput } from '@quietglass/shared';
 import { getChambersQueryOptions, type ChamberView } from './get-chambers';
 
 export interface UpdateChamberInput {

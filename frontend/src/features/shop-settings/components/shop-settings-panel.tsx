@@ -18,8 +18,8 @@ import { ConflictAlert } from '../../../components/conflict-alert';
 import { ErrorAlert } from '../../../components/error-alert';
 import { FormTextField } from '../../../components/form-text-field';
 import { ApiError, apiUrl } from '../../../lib/api-client';
-import { parseNumberInput } from '../../../lib/format';
 import { notify } from '../../../lib/notifier';
+import { typedNumber } from '../../../lib/validation';
 import { useShopSettings } from '../api/get-shop-settings';
 import { useSaveShopSettings } from '../api/save-shop-settings';
 
@@ -28,10 +28,7 @@ const nameFormSchema = shopNameSchema.pick({ shopName: true });
 
 /** The margin form: the typed text parsed, then the API's own limits and message. */
 const marginFormSchema = z.object({
-  targetMarginPercent: z
-    .string()
-    .transform((text) => parseNumberInput(text.trim()) ?? Number.NaN)
-    .pipe(shopTargetMarginSchema.shape.targetMarginPercent),
+  targetMarginPercent: typedNumber.pipe(shopTargetMarginSchema.shape.targetMarginPercent),
 });
 
 /** Why a chosen logo file cannot be uploaded, before it is sent; null when it can. */
