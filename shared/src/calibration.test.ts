@@ -9,6 +9,7 @@ import {
   weightedMean,
   type Measured,
 } from './calibration.js';
+import { elementAt } from './checked.js';
 import { Mulberry32, fillDeviates } from './optimise/random.js';
 
 /** Normal deviates from a fixed seed (the product's own Mulberry32 + Box–Muller). */
@@ -18,7 +19,10 @@ function deviates(count: number, seed: number): Float64Array {
 
 function series(truth: (k: number) => number, sigma: number, runs: number, seed: number): Measured[] {
   const noise = deviates(runs, seed);
-  return Array.from({ length: runs }, (_, k) => ({ value: truth(k) + sigma * noise[k], sigma }));
+  return Array.from({ length: runs }, (_, k) => ({
+    value: truth(k) + sigma * elementAt(noise, k, 'noise'),
+    sigma,
+  }));
 }
 
 describe('weightedMean', () => {
@@ -42,7 +46,10 @@ describe('scatterBetweenRuns', () => {
   it('recovers an unstated run-to-run scatter from the median moving range (Montgomery, SQC 7th ed., §6.4)', () => {
     // 400 runs of pure scatter 0.5 % with a stated σ of 0.1 %: total σ = √(0.5² + 0.1²) %.
     const noise = deviates(400, 7);
-    const s = Array.from({ length: 400 }, (_, k) => ({ value: 1 + 0.005 * noise[k], sigma: 0.001 }));
+    const s = Array.from({ length: 400 }, (_, k) => ({
+      value: 1 + 0.005 * elementAt(noise, k, 'noise'),
+      sigma: 0.001,
+    }));
     const tau = scatterBetweenRuns(s);
     // Expected √(0.005² − 0.001²) = 0.0049; 10 % allowed for 400 runs.
     expect(tau).toBeGreaterThan(0.0049 * 0.9);
@@ -59,7 +66,7 @@ describe('trackCalibration', () => {
   it('recovers a constant 2 % offset within 2σ of its stated uncertainty', () => {
     for (const seed of [1, 2, 3, 4, 5]) {
       const tracked = trackCalibration(series(() => 1.02, 0.003, 12, seed));
-      const last = tracked[tracked.length - 1];
+      const last = elementAt(tracked, tracked.length - 1, 'tracked');
       expect(Math.abs(last.estimate - 1.02)).toBeLessThan(2 * last.estimateSigma);
       expect(last.estimateSigma).toBeLessThan(0.003);
     }
@@ -69,7 +76,7 @@ describe('trackCalibration', () => {
     const slope = 0.02 / 11;
     for (const seed of [11, 12, 13, 14, 15]) {
       const tracked = trackCalibration(series((k) => 1 + slope * k, 0.003, 12, seed));
-      const last = tracked[11];
+      const last = elementAt(tracked, 11, 'tracked');
       expect(Math.abs(last.estimate - 1.02)).toBeLessThan(2 * last.estimateSigma);
       expect(Math.abs(last.driftPerRun - slope)).toBeLessThan(2 * last.driftSigma);
     }
@@ -79,13 +86,13 @@ describe('trackCalibration', () => {
     const s = series(() => 1, 0.003, 12, 21);
     s[7] = { value: 1.08, sigma: 0.003 };
     const tracked = trackCalibration(s);
-    expect(tracked[7].outOfControl).toBe(true);
-    expect(tracked.filter((p) => p.outOfControl)).toHaveLength(1);
+    const p = elementAt(tracked, 7, 'tracked');
+    expect(p.outOfControl).toBe(true);
+    expect(tracked.filter((q) => q.outOfControl)).toHaveLength(1);
     // Unclipped, the Kalman gain would pull the level most of the way to 1.08.
-    expect(Math.abs(tracked[7].estimate - 1)).toBeLessThan(0.01);
-    expect(Math.abs(tracked[11].estimate - 1)).toBeLessThan(0.01);
+    expect(Math.abs(p.estimate - 1)).toBeLessThan(0.01);
+    expect(Math.abs(elementAt(tracked, 11, 'tracked').estimate - 1)).toBeLessThan(0.01);
     // The limits bracket the prediction symmetrically at 3σ.
-    const p = tracked[7];
     expect(p.predicted).not.toBeNull();
     expect((p.limitHigh! - p.predicted!) / (p.predicted! - p.limitLow!)).toBeCloseTo(1, 12);
   });
@@ -94,7 +101,8 @@ describe('trackCalibration', () => {
     const base = series(() => 1, 0.002, 6, 5);
     const sure = trackCalibration([...base, { value: 1.006, sigma: 0.002 }]);
     const unsure = trackCalibration([...base, { value: 1.006, sigma: 0.02 }]);
-    const shift = (t: ReturnType<typeof trackCalibration>) => t[6].estimate - t[5].estimate;
+    const shift = (t: ReturnType<typeof trackCalibration>) =>
+      elementAt(t, 6, 'tracked').estimate - elementAt(t, 5, 'tracked').estimate;
     expect(shift(sure)).toBeGreaterThan(3 * shift(unsure));
   });
 });
@@ -144,8 +152,9 @@ describe('calibrationCause and calibrationFindings', () => {
       settings,
     );
     expect(findings).toHaveLength(1);
-    expect(findings[0].kind).toBe('common');
-    expect(findings[0].correction.value).toBeCloseTo(1.02, 12);
+    const finding = elementAt(findings, 0, 'findings');
+    expect(finding.kind).toBe('common');
+    expect(finding.correction.value).toBeCloseTo(1.02, 12);
   });
 
   it('suggests one common cause when most recent runs showed the same factor for all materials', () => {
@@ -158,7 +167,10 @@ describe('calibrationCause and calibrationFindings', () => {
     const runs = ['common', 'common', 'material', 'common'] as const;
     expect(calibrationFindings(estimates, settings, runs).map((f) => f.kind)).toEqual(['common']);
     // Not when one material did not move at all.
-    const one = [estimates[0], { materialId: 2, runs: 8, correction: { value: 1.001, sigma: 0.001 } }];
+    const one = [
+      elementAt(estimates, 0, 'estimates'),
+      { materialId: 2, runs: 8, correction: { value: 1.001, sigma: 0.001 } },
+    ];
     expect(calibrationFindings(one, settings, runs).map((f) => f.kind)).toEqual(['material']);
   });
 

@@ -21,6 +21,7 @@
  * is estimated from the median moving range of the run values, σ ≈ MR̃/0.954 (Montgomery, §6.4,
  * individuals chart; the constant 0.954 from memory), and added to each run's variance.
  */
+import { elementAt } from './checked.js';
 
 /** A value with its standard uncertainty. */
 export interface Measured {
@@ -105,10 +106,11 @@ export function weightedMean(values: readonly Measured[]): Measured {
  */
 export function scatterBetweenRuns(series: readonly Measured[]): number {
   if (series.length < 3) return 0;
-  const ranges = series.slice(1).map((p, i) => Math.abs(p.value - series[i].value));
+  const ranges = series.slice(1).map((p, i) => Math.abs(p.value - elementAt(series, i, 'the series').value));
   ranges.sort((a, b) => a - b);
   const mid = ranges.length >> 1;
-  const median = ranges.length % 2 ? ranges[mid] : (ranges[mid - 1] + ranges[mid]) / 2;
+  const upper = elementAt(ranges, mid, 'the moving ranges');
+  const median = ranges.length % 2 ? upper : (elementAt(ranges, mid - 1, 'the moving ranges') + upper) / 2;
   const total = median / 0.954;
   const stated = series.reduce((s, p) => s + p.sigma * p.sigma, 0) / series.length;
   return Math.sqrt(Math.max(0, total * total - stated));

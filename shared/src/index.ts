@@ -1,3 +1,4 @@
+export * from './checked.js';
 export * from './roles.js';
 export * from './designs.js';
 export * from './analysis.js';

@@ -1,4 +1,5 @@
 import { describe, expect, it } from 'vitest';
+import { elementAt } from './checked.js';
 import { evaluateMaskOnMeasured, interpolate } from './measured.js';
 
 const wl = [400, 500, 600, 700];
@@ -25,8 +26,9 @@ describe('measured spectrum against a mask', () => {
       valuesPercent: [0.2, 0.6, 1.0, 1.4],
     });
     expect(r.bands[0]).toMatchObject({ evaluated: true, pass: false, label: 'visible' });
-    expect(r.bands[0].worstMargin).toBeCloseTo(-0.2, 12);
-    expect(r.bands[0].worstAt?.wavelengthNm).toBe(650);
+    const visible = elementAt(r.bands, 0, 'bands');
+    expect(visible.worstMargin).toBeCloseTo(-0.2, 12);
+    expect(visible.worstAt?.wavelengthNm).toBe(650);
     expect(r.bands[1]).toMatchObject({ evaluated: false, reason: 'measured at 8°; the band asks for 45°' });
     expect(r.pass).toBe(false);
     expect(r.worstMargin).toBeCloseTo(-0.2, 12);
@@ -40,10 +42,10 @@ describe('measured spectrum against a mask', () => {
       wavelengthsNm: wl,
       valuesPercent: [0.2, 0.3, 0.3, 0.2],
     };
-    expect(evaluateMaskOnMeasured({ bands: [mask.bands[0]] }, low).pass).toBe(true);
+    expect(evaluateMaskOnMeasured({ bands: [elementAt(mask.bands, 0, 'mask bands')] }, low).pass).toBe(true);
     expect(evaluateMaskOnMeasured(mask, low).pass).toBeNull();
     const t = evaluateMaskOnMeasured(mask, { ...low, quantity: 'T' });
-    expect(t.bands[0].reason).toBe('the band limits R; T was measured');
+    expect(elementAt(t.bands, 0, 'bands').reason).toBe('the band limits R; T was measured');
     expect(t.pass).toBeNull();
     expect(t.worstBand).toBeNull();
   });

@@ -4,6 +4,7 @@
  * angle or polarisation, or wavelengths outside the scan) are reported as not evaluated, never as
  * passing.
  */
+import { elementAt } from './checked.js';
 import { OpticsInputError } from './optics/errors.js';
 import { bandMargin, bandWavelengthsNm, validateSpecMask, type SpecMask } from './optics/mask.js';
 
@@ -45,24 +46,28 @@ export const ANGLE_TOLERANCE_DEG = 8;
 
 /** Linear interpolation of a strictly increasing table; null outside it. */
 export function interpolate(xs: readonly number[], ys: readonly number[], x: number): number | null {
-  if (x < xs[0] || x > xs[xs.length - 1]) return null;
+  const first = xs[0];
+  const last = xs[xs.length - 1];
+  if (first === undefined || last === undefined || x < first || x > last) return null;
   let lo = 0;
   let hi = xs.length - 1;
   while (hi - lo > 1) {
     const mid = (lo + hi) >> 1;
-    if (xs[mid] <= x) lo = mid;
+    if (elementAt(xs, mid, 'the wavelengths') <= x) lo = mid;
     else hi = mid;
   }
-  if (xs[hi] === xs[lo]) return ys[lo];
-  const t = (x - xs[lo]) / (xs[hi] - xs[lo]);
-  return ys[lo] + t * (ys[hi] - ys[lo]);
+  const [x0, x1] = [elementAt(xs, lo, 'the wavelengths'), elementAt(xs, hi, 'the wavelengths')];
+  const [y0, y1] = [elementAt(ys, lo, 'the values'), elementAt(ys, hi, 'the values')];
+  if (x1 === x0) return y0;
+  return y0 + ((x - x0) / (x1 - x0)) * (y1 - y0);
 }
 
 /** Evaluates a measured spectrum against a mask, band by band (margins in percentage points). */
 export function evaluateMaskOnMeasured(mask: SpecMask, measured: MeasuredSpectrum): MeasuredMaskResult {
   const checked = validateSpecMask(mask);
   const { wavelengthsNm: xs, valuesPercent: ys } = measured;
-  if (xs.length < 2 || xs.length !== ys.length) {
+  const [scanFrom, scanTo] = [xs[0], xs[xs.length - 1]];
+  if (scanFrom === undefined || scanTo === undefined || xs.length < 2 || xs.length !== ys.length) {
     throw new OpticsInputError('measured', 'needs at least 2 wavelengths and one value per wavelength');
   }
   const bands = checked.bands.map((band, i): MeasuredBandResult => {
@@ -82,11 +87,11 @@ export function evaluateMaskOnMeasured(mask: SpecMask, measured: MeasuredSpectru
         reason: `measured at ${measured.angleDeg}°; the band asks for ${angles.join(', ')}°`,
       };
     }
-    if (band.from_nm < xs[0] || band.to_nm > xs[xs.length - 1]) {
+    if (band.from_nm < scanFrom || band.to_nm > scanTo) {
       return {
         ...base,
         evaluated: false,
-        reason: `the scan covers ${xs[0]}–${xs[xs.length - 1]} nm; the band needs ${band.from_nm}–${band.to_nm} nm`,
+        reason: `the scan covers ${scanFrom}–${scanTo} nm; the band needs ${band.from_nm}–${band.to_nm} nm`,
       };
     }
     let worst = Infinity;
@@ -103,14 +108,13 @@ export function evaluateMaskOnMeasured(mask: SpecMask, measured: MeasuredSpectru
   });
   const evaluated = bands.filter((b) => b.evaluated);
   let worstBand: number | null = null;
+  let worstMargin: number | null = null;
   bands.forEach((b, i) => {
-    if (
-      b.evaluated &&
-      (worstBand === null || (b.worstMargin as number) < (bands[worstBand].worstMargin as number))
-    )
+    if (b.evaluated && (worstMargin === null || (b.worstMargin as number) < worstMargin)) {
       worstBand = i;
+      worstMargin = b.worstMargin as number;
+    }
   });
-  const worstMargin = worstBand === null ? null : (bands[worstBand].worstMargin as number);
   let pass: boolean | null = null;
   if (evaluated.some((b) => !b.pass)) pass = false;
   else if (evaluated.length === bands.length) pass = true;

@@ -3,6 +3,7 @@
  * page and in the PDF.
  */
 import type { RunSheetLayer } from './runsheet.js';
+import { elementAt } from './checked.js';
 
 export interface MonitorTrace {
   name: string;
@@ -22,15 +23,17 @@ export interface MonitorMarks {
 
 /** Linear interpolation of a sampled curve at `at` (the samples rise in x). */
 function valueAt(x: readonly number[], y: readonly number[], at: number): number {
-  if (x.length === 0) return Number.NaN;
-  if (at <= x[0]) return y[0];
+  const [x0, y0] = [x[0], y[0]];
+  if (x0 === undefined || y0 === undefined) return Number.NaN;
+  if (at <= x0) return y0;
   for (let i = 1; i < x.length; i++) {
-    if (at <= x[i]) {
-      const f = (at - x[i - 1]) / (x[i] - x[i - 1] || 1);
-      return y[i - 1] + f * (y[i] - y[i - 1]);
+    const [xa, xb] = [elementAt(x, i - 1, 'the samples'), elementAt(x, i, 'the samples')];
+    if (at <= xb) {
+      const [ya, yb] = [elementAt(y, i - 1, 'the values'), elementAt(y, i, 'the values')];
+      return ya + ((at - xa) / (xb - xa || 1)) * (yb - ya);
     }
   }
-  return y[y.length - 1];
+  return elementAt(y, y.length - 1, 'the values');
 }
 
 /**
@@ -61,7 +64,7 @@ export function monitorPlotData(layers: readonly RunSheetLayer[]): {
       turningPoints.text.push(`Step ${layer.step}: turning point at ${tp.toFixed(1)} nm into the layer`);
     }
     layerEnds.x.push(offset + layer.monitorThicknessNm);
-    layerEnds.y.push(y[y.length - 1]);
+    layerEnds.y.push(elementAt(y, y.length - 1, 'the monitor curve'));
     layerEnds.text.push(`Step ${layer.step}: stop at ${layer.monitorThicknessNm.toFixed(2)} nm`);
     offset += layer.monitorThicknessNm;
   }

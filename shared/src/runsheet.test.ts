@@ -1,6 +1,7 @@
 import { describe, expect, it } from 'vitest';
 import { buildRunSheet, turningPoints, type RunSheetInput } from './runsheet.js';
 import { OpticsInputError } from './optics/errors.js';
+import { elementAt, required } from './checked.js';
 
 const constant = (n: number) => ({ model: 'constant' as const, n, k: 0 });
 const chip = constant(1.52);
@@ -36,13 +37,15 @@ describe('run sheet numbers (hand calculation)', () => {
   it('monitor thickness = part ÷ tooling factor; QWOT = 4·n·d/λ at the monitor; time = d ÷ rate', () => {
     // Layer 4 (H, 15 nm on the part, TF 0.75): 15 / 0.75 = 20 nm on the monitor;
     // QWOT = 4 · 2.0 · 20 / 600 = 0.26667; time = 20 / 0.25 = 80 s.
-    expect(sheet.layers[0].monitorThicknessNm).toBeCloseTo(20, 12);
-    expect(sheet.layers[0].qwotAtMonitor).toBeCloseTo(0.266667, 5);
-    expect(sheet.layers[0].timeS).toBeCloseTo(80, 12);
+    const first = elementAt(sheet.layers, 0, 'run sheet layers');
+    expect(first.monitorThicknessNm).toBeCloseTo(20, 12);
+    expect(first.qwotAtMonitor).toBeCloseTo(0.266667, 5);
+    expect(first.timeS).toBeCloseTo(80, 12);
     // Layer 1 (L, 120 nm, TF 1.2): 100 nm; QWOT = 4 · 1.5 · 100 / 600 = 1; time = 100 / 0.5 = 200 s.
-    expect(sheet.layers[3].monitorThicknessNm).toBeCloseTo(100, 12);
-    expect(sheet.layers[3].qwotAtMonitor).toBeCloseTo(1, 12);
-    expect(sheet.layers[3].timeS).toBeCloseTo(200, 12);
+    const last = elementAt(sheet.layers, 3, 'run sheet layers');
+    expect(last.monitorThicknessNm).toBeCloseTo(100, 12);
+    expect(last.qwotAtMonitor).toBeCloseTo(1, 12);
+    expect(last.timeS).toBeCloseTo(200, 12);
     // Totals: part 225 nm; monitor 20 + 25 + 80 + 100 = 225 nm; time 80 + 50 + 320 + 200 = 650 s.
     expect(sheet.totals.partThicknessNm).toBeCloseTo(225, 12);
     expect(sheet.totals.monitorThicknessNm).toBeCloseTo(225, 12);
@@ -52,7 +55,7 @@ describe('run sheet numbers (hand calculation)', () => {
   });
 
   it('the bare chip transmits the uncoated plate value (1 − R)/(1 + R) = 0.918318 for n = 1.52 (Macleod, Thin-Film Optical Filters, ch. 2)', () => {
-    expect(sheet.layers[0].monitor.T[0]).toBeCloseTo(0.918318, 6);
+    expect(elementAt(sheet.layers, 0, 'run sheet layers').monitor.T[0]).toBeCloseTo(0.918318, 6);
   });
 });
 
@@ -65,13 +68,14 @@ describe('monitor turning points fall at quarter-wave optical thicknesses (Macle
       chamber: { monitorWavelengthNm: 600, materials: { H: { toolingFactor: 1, rateNmPerS: 0.3 } } },
       samplesPerLayer: 600,
     });
-    const tp = sheet.layers[0].turningPointsNm;
+    const layer = elementAt(sheet.layers, 0, 'run sheet layers');
+    const tp = layer.turningPointsNm;
     expect(tp).toHaveLength(2);
     expect(tp[0]).toBeCloseTo(qw, 1);
     expect(tp[1]).toBeCloseTo(2 * qw, 1);
     // A high-index quarter wave on glass lowers T: the first turning point is a minimum.
-    const T = sheet.layers[0].monitor.T;
-    expect(Math.min(...T)).toBeLessThan(T[0]);
+    const T = layer.monitor.T;
+    expect(Math.min(...T)).toBeLessThan(elementAt(T, 0, 'monitor T'));
   });
 
   it('on top of a quarter-wave stack, the next layer turns at its own quarter wave', () => {
@@ -89,9 +93,10 @@ describe('monitor turning points fall at quarter-wave optical thicknesses (Macle
       },
       samplesPerLayer: 600,
     });
-    expect(sheet.layers[1].material).toBe('L');
-    expect(sheet.layers[1].turningPointsNm).toHaveLength(1);
-    expect(sheet.layers[1].turningPointsNm[0]).toBeCloseTo(qwL, 1);
+    const second = elementAt(sheet.layers, 1, 'run sheet layers');
+    expect(second.material).toBe('L');
+    expect(second.turningPointsNm).toHaveLength(1);
+    expect(second.turningPointsNm[0]).toBeCloseTo(qwL, 1);
   });
 
   it('turningPoints refines a sampled extremum by a parabola', () => {
@@ -105,7 +110,10 @@ describe('run sheet errors', () => {
   it('names the layer whose material the chamber does not know, and bad tooling factors', () => {
     const missing = {
       ...recipe,
-      chamber: { monitorWavelengthNm: 600, materials: { L: recipe.chamber.materials.L } },
+      chamber: {
+        monitorWavelengthNm: 600,
+        materials: { L: required(recipe.chamber.materials.L, 'chamber settings for L') },
+      },
     };
     expect(() => buildRunSheet(missing)).toThrow(OpticsInputError);
     expect(() => buildRunSheet(missing)).toThrow(

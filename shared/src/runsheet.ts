@@ -4,6 +4,7 @@
  * optical monitor's expected transmittance while each layer grows, with its turning points.
  */
 import type { RunSheetCalibration } from './calibration.js';
+import { elementAt, required } from './checked.js';
 import {
   createSpectrumOutput,
   createSpectrumPlan,
@@ -155,8 +156,8 @@ export function buildRunSheet(input: RunSheetInput): RunSheet {
 
   const out: RunSheetLayer[] = [];
   for (let step = 0; step < order.length; step++) {
-    const { layer, designLayer } = order[step];
-    const { toolingFactor, rateNmPerS } = settings[step];
+    const { layer, designLayer } = elementAt(order, step, 'the deposition order');
+    const { toolingFactor, rateNmPerS } = elementAt(settings, step, 'the process settings');
     const monitorThicknessNm = layer.thicknessNm / toolingFactor;
     const n = indexAt(layer.model, lambda, `layers[${designLayer - 1}]`).n;
     const monitor = monitorCurve(input, order, step, monitorThicknessNm, lambda, samples);
@@ -203,9 +204,14 @@ function monitorCurve(
 ): { thicknessNm: number[]; T: number[] } {
   // Incident side first: the growing layer outermost, then the earlier ones down to the chip.
   const below = order.slice(0, step).reverse();
-  const layers = [order[step], ...below].map((o, i) => ({
+  const layers = [elementAt(order, step, 'the deposition order'), ...below].map((o, i) => ({
     material: o.layer.model,
-    thicknessNm: i === 0 ? 0 : o.layer.thicknessNm / input.chamber.materials[o.layer.material].toolingFactor,
+    thicknessNm:
+      i === 0
+        ? 0
+        : o.layer.thicknessNm /
+          required(input.chamber.materials[o.layer.material], `the settings for ${o.layer.material}`)
+            .toolingFactor,
   }));
   const vacuum: MaterialModel = { model: 'constant', n: 1, k: 0 };
   const stack: OpticalStack = {
@@ -231,7 +237,7 @@ function monitorCurve(
     setLayerThicknesses(plan, thicknesses);
     computeSpectrum(result, plan);
     thicknessNm.push(d);
-    T.push(result.T[0]);
+    T.push(elementAt(result.T, 0, 'the monitor transmittance'));
   }
   return { thicknessNm, T };
 }
@@ -239,15 +245,17 @@ function monitorCurve(
 /** Interior extrema of a sampled curve, refined by a parabola through the three samples around each. */
 export function turningPoints(x: readonly number[], y: readonly number[]): number[] {
   const out: number[] = [];
+  const at = (values: readonly number[], i: number) => elementAt(values, i, 'the monitor curve');
   for (let i = 1; i < y.length - 1; i++) {
-    const a = y[i] - y[i - 1];
-    const b = y[i + 1] - y[i];
+    const [y0, y1, y2] = [at(y, i - 1), at(y, i), at(y, i + 1)];
+    const a = y1 - y0;
+    const b = y2 - y1;
     if (a === 0 && b === 0) continue;
     if ((a > 0 && b <= 0) || (a < 0 && b >= 0)) {
-      const h = x[i + 1] - x[i];
-      const denom = y[i - 1] - 2 * y[i] + y[i + 1];
-      const shift = denom === 0 ? 0 : (0.5 * (y[i - 1] - y[i + 1])) / denom;
-      out.push(x[i] + shift * h);
+      const h = at(x, i + 1) - at(x, i);
+      const denom = y0 - 2 * y1 + y2;
+      const shift = denom === 0 ? 0 : (0.5 * (y0 - y2)) / denom;
+      out.push(at(x, i) + shift * h);
     }
   }
   return out;

@@ -1,4 +1,5 @@
 import { describe, expect, it } from 'vitest';
+import { elementAt } from './checked.js';
 import type { DesignVersionContent, NamedModel } from './designs.js';
 import { designStackDescription } from './designs.js';
 import { calculateSpectrum, responseAt } from './optics/batch.js';
@@ -92,7 +93,7 @@ describe('stack files', () => {
     expect(r.content.incidentMaterialId).toBe(1);
     expect(r.content.layers.map((l) => l.materialId)).toEqual([3, 4]);
     // A QWOT of 1 at 600 nm is a quarter wave: d = λ/(4n) = 600/(4·1.38) nm.
-    expect(r.content.layers[0].thicknessNm).toBeCloseTo(600 / (4 * 1.38), 12);
+    expect(elementAt(r.content.layers, 0, 'layers').thicknessNm).toBeCloseTo(600 / (4 * 1.38), 12);
     expect(r.content).toMatchObject({
       referenceWavelengthNm: 600,
       substrateThicknessMm: 1,

@@ -5,6 +5,7 @@
  */
 import type { BackSurfaceTreatment, DesignLayer, DesignVersionContent, NamedModel } from './designs.js';
 import type { MaterialModel } from './optics/dispersion.js';
+import { elementAt } from './checked.js';
 import { OpticsInputError } from './optics/errors.js';
 import { parseStack, type StackDescription } from './optics/stack.js';
 
@@ -147,7 +148,7 @@ export function draftFromStackFile(
   if (typeof resolved === 'string') return { ok: false, problems: [resolved] };
   const layers: DesignLayer[] = root.layers.map((layer, i) => ({
     materialId: layerIds[i] as number,
-    thicknessNm: resolved.layers[i].thicknessNm,
+    thicknessNm: elementAt(resolved.layers, i, 'the resolved layers').thicknessNm,
     locked: false,
     notes: layer.label ?? '',
   }));
@@ -163,7 +164,7 @@ export function draftFromStackFile(
     const mirrored =
       back.length === front.length &&
       back.every((b, i) => {
-        const f = front[front.length - 1 - i];
+        const f = elementAt(front, front.length - 1 - i, 'the front layers');
         return (
           Math.abs(b.thicknessNm - f.thicknessNm) < 1e-9 &&
           JSON.stringify(b.material) === JSON.stringify(f.material)

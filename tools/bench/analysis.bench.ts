@@ -5,7 +5,8 @@
  *   npx tsx tools/bench/analysis.bench.ts [--runs 5] [--url http://127.0.0.1:3000]
  */
 import { apiSession, arg, signInDemoEngineer } from './api-session.js';
-import { median, required } from './stats.js';
+import { required } from '@quietglass/shared/checked';
+import { median } from './stats.js';
 
 const base = arg('--url', 'http://127.0.0.1:3000');
 const runs = Number(arg('--runs', '5'));

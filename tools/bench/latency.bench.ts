@@ -7,7 +7,8 @@
  */
 import path from 'node:path';
 import { apiSession, arg, ROOT, signInDemoEngineer } from './api-session.js';
-import { percentile, required } from './stats.js';
+import { required } from '@quietglass/shared/checked';
+import { percentile } from './stats.js';
 
 const base = arg('--url', 'http://127.0.0.1:3000');
 const seconds = Number(arg('--seconds', '15'));

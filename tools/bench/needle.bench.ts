@@ -31,7 +31,7 @@ import {
 } from '@quietglass/shared';
 import { parseConstantsFile } from '@quietglass/shared/optics/constants-file';
 import { Mulberry32, fillDeviates } from '@quietglass/shared/optimise/random';
-import { required } from './stats.js';
+import { required } from '@quietglass/shared/checked';
 
 /** The one-minute load average, as the figures are recorded with it. */
 const load = () => (loadavg()[0] ?? 0).toFixed(2);

@@ -19,7 +19,8 @@ import {
 } from '@quietglass/shared';
 import { SpectrumWorkerPool } from '@quietglass/shared/node/parallel';
 import { referenceResponse, type ReferenceLayer } from '@quietglass/shared/optics/reference';
-import { bestAndMedian, required } from './stats.js';
+import { required } from '@quietglass/shared/checked';
+import { bestAndMedian } from './stats.js';
 
 const LAYERS = 20;
 const WAVELENGTHS = Array.from({ length: 1000 }, (_, i) => 400 + (300 * i) / 999);

@@ -24,7 +24,7 @@ import {
   type SpecMask,
 } from '@quietglass/shared';
 import { YieldWorkerPool } from '@quietglass/shared/node/yield-parallel';
-import { required } from './stats.js';
+import { required } from '@quietglass/shared/checked';
 
 const LOW = constantIndex(1.38);
 const HIGH = constantIndex(2.35);

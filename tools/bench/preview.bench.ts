@@ -15,7 +15,8 @@ import {
   createPreviewCalculator,
   type PreviewRequest,
 } from '../../frontend/src/lib/preview/compute-preview.ts';
-import { median, required } from './stats.js';
+import { required } from '@quietglass/shared/checked';
+import { median } from './stats.js';
 
 const LAYERS = 30;
 const WARMUPS = 50;

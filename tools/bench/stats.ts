@@ -1,13 +1,5 @@
-/*
- * Small helpers the benchmarks share: order statistics of timing samples, and a checked lookup for
- * values a benchmark needs to exist (a demo customer, a material, a command-line word).
- */
-
-/** The value, or an error naming what was missing. */
-export function required<T>(value: T | undefined, what: string): T {
-  if (value === undefined) throw new Error(`${what} is missing`);
-  return value;
-}
+/* Order statistics of the benchmarks' timing samples. */
+import { required } from '@quietglass/shared/checked';
 
 /** The p-th percentile (nearest rank) of samples sorted ascending. */
 export function percentile(sorted: readonly number[], p: number): number {

@@ -51,7 +51,7 @@ import {
 import type { User } from '../users/user.entity.js';
 import { Calculation } from './calculation.entity.js';
 import { optimiseJobSize, type OptimiseInput, type OptimiseKind } from './optimise-jobs.js';
-import { elementAt } from '../common/element-at.js';
+import { elementAt } from '@quietglass/shared/checked';
 
 /**
  * The BullMQ job id of a calculation: one job per calculation, so a double add is a no-op. The

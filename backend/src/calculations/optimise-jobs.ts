@@ -13,7 +13,7 @@ import type { YieldOptions } from '@quietglass/shared/optimise/yield';
 import type { LimitBand, SpecMask } from '@quietglass/shared/optics/mask';
 import type { BackSurface } from '@quietglass/shared/optics/batch';
 import { parseStack, type OpticalStack, type StackDescription } from '@quietglass/shared/optics/stack';
-import { elementAt } from '../common/element-at.js';
+import { elementAt } from '@quietglass/shared/checked';
 
 export type OptimiseKind = 'fit' | 'grow' | 'yield' | 'diagnosis';
 

@@ -16,7 +16,7 @@ import type { User } from '../users/user.entity.js';
 import { CalculationsService } from './calculations.service.js';
 import type { DiagnosisDto, FitDto, GrowDto, YieldDto } from './dto/optimise.dto.js';
 import { type DiagnosisInput, type FitInput, type GrowInput, type YieldInput } from './optimise-jobs.js';
-import { elementAt } from '../common/element-at.js';
+import { elementAt } from '@quietglass/shared/checked';
 
 /** Builds the inputs of Fit to mask, Grow layers, Yield forecast and Run diagnosis, and accepts results. */
 @Injectable()

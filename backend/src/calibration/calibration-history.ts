@@ -24,7 +24,7 @@ import {
   type ToolingFactorsKept,
 } from '@quietglass/shared/chambers';
 import type { LayerReading } from '@quietglass/shared/runs';
-import { elementAt } from '../common/element-at.js';
+import { elementAt } from '@quietglass/shared/checked';
 
 /** A run with its diagnosis, as the history reads it. */
 export interface DiagnosedRun {

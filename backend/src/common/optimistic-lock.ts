@@ -1,5 +1,5 @@
 import type { EntityManager, EntityTarget, ObjectLiteral, QueryDeepPartialEntity } from 'typeorm';
-import { elementAt } from './element-at.js';
+import { elementAt } from '@quietglass/shared/checked';
 
 /** A change to one row that only applies while the row is still at the version the editor read. */
 export interface LockedChange<T extends ObjectLiteral> {

@@ -5,7 +5,7 @@
  */
 import { fileURLToPath } from 'node:url';
 import PDFDocument from 'pdfkit';
-import { elementAt } from './element-at.js';
+import { elementAt } from '@quietglass/shared/checked';
 
 /*
  * DejaVu Sans (Bitstream Vera licence, backend/assets/fonts/LICENSE-DejaVu.txt) has every symbol

@@ -10,7 +10,7 @@ import { DesignVersion } from '../designs/design-version.entity.js';
 import { Material } from '../materials/material.entity.js';
 import { ChamberRun, RunSpectrum } from '../runs/run.entity.js';
 import { User } from '../users/user.entity.js';
-import { elementAt } from '../common/element-at.js';
+import { elementAt } from '@quietglass/shared/checked';
 import { keptToolingFactors } from '@quietglass/shared/chambers';
 
 /** Recorded in demo_seeds once the history exists. */

@@ -23,7 +23,7 @@ import { Design } from '../designs/design.entity.js';
 import { DesignVersion } from '../designs/design-version.entity.js';
 import { VersionEvent } from '../designs/version-event.entity.js';
 import { hashPassword } from '../users/passwords.js';
-import { elementAt } from '../common/element-at.js';
+import { elementAt } from '@quietglass/shared/checked';
 
 /**
  * The demo shop, an invented scenario: Larkspur Thin Film Works, a small coating shop with one

@@ -24,7 +24,7 @@ import type {
   UpdateMaterialDto,
 } from './dto/material.dto.js';
 import { parseNkCsv, type NkTable, type WavelengthUnit } from './nk-csv.js';
-import { elementAt } from '../common/element-at.js';
+import { elementAt } from '@quietglass/shared/checked';
 
 /** An uploaded file kept with the material it made. */
 interface SourceFile {

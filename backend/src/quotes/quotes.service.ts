@@ -16,7 +16,7 @@ import { SpecMasksService } from '../spec-masks/spec-masks.service.js';
 import type { User } from '../users/user.entity.js';
 import type { QuoteDecisionDto, QuoteDto, UpdateQuoteDto } from './dto/quote.dto.js';
 import { Quote } from './quote.entity.js';
-import { elementAt } from '../common/element-at.js';
+import { elementAt } from '@quietglass/shared/checked';
 
 /** Today in the shop's calendar (UTC), YYYY-MM-DD. */
 const today = () => new Date().toISOString().slice(0, 10);

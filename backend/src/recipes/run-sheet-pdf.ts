@@ -22,7 +22,7 @@ import {
   room,
   RULE_LINE,
 } from '../common/pdf-layout.js';
-import { elementAt } from '../common/element-at.js';
+import { elementAt } from '@quietglass/shared/checked';
 
 /** One colour per material in the monitor chart, in the order materials first appear. */
 const MATERIAL_COLOURS = ['#1f6f78', '#b2432c', '#5b4a9e', '#7a8a1f', '#a8632a', '#2d5c8f'];

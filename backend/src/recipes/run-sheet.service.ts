@@ -8,7 +8,7 @@ import { MaterialsService } from '../materials/materials.service.js';
 import { ShopSettingsService } from '../shop-settings/shop-settings.service.js';
 import type { RunSheetQueryDto } from './dto/run-sheet-query.dto.js';
 import { renderRunSheetPdf } from './run-sheet-pdf.js';
-import { elementAt } from '../common/element-at.js';
+import { elementAt } from '@quietglass/shared/checked';
 
 /** Run sheets for released recipes on a chosen chamber: JSON for the page, PDF for the floor. */
 @Injectable()

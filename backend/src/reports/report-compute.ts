@@ -9,7 +9,7 @@ import { evaluateMask, type LimitBand } from '@quietglass/shared/optics/mask';
 import { parseStack, type OpticalStack, type StackDescription } from '@quietglass/shared/optics/stack';
 import type { ReportBandRow, ReportSummary } from '@quietglass/shared/reports';
 import type { PlotSeries } from './report-pdf.js';
-import { elementAt } from '../common/element-at.js';
+import { elementAt } from '@quietglass/shared/checked';
 
 export interface DesignedInput {
   bands: LimitBand[];

@@ -21,7 +21,7 @@ import {
   REGULAR,
   room,
 } from '../common/pdf-layout.js';
-import { elementAt } from '../common/element-at.js';
+import { elementAt } from '@quietglass/shared/checked';
 
 export interface PlotSeries {
   title: string;

@@ -14,6 +14,7 @@ import {
   type SpectrumOutput,
   type SpectrumPlan,
 } from '../optics/batch.js';
+import { elementAt } from '../checked.js';
 import { OpticsInputError } from '../optics/errors.js';
 import { startWorkers, type StartWorkersOptions } from './worker-start.js';
 import type { OpticalStack } from '../optics/stack.js';
@@ -108,7 +109,7 @@ export class SpectrumWorkerPool {
         r: out.r ? (out.r.buffer as SharedArrayBuffer) : null,
         t: out.t ? (out.t.buffer as SharedArrayBuffer) : null,
       };
-      this.workers[s].postMessage(job);
+      elementAt(this.workers, s, 'the worker pool').postMessage(job);
     }
     await done;
     return out;

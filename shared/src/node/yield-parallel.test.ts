@@ -1,5 +1,6 @@
 /// <reference types="node" />
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { elementAt } from '../checked.js';
 import { constantIndex as c } from '../optics/dispersion.js';
 import { OpticsInputError } from '../optics/errors.js';
 import type { SpecMask } from '../optics/mask.js';
@@ -51,7 +52,9 @@ describe('YieldWorkerPool', () => {
     expect(pool.size).toBe(2);
     expect(two).toEqual(one);
     expect(fractions[fractions.length - 1]).toBe(1);
-    for (let i = 1; i < fractions.length; i++) expect(fractions[i]).toBeGreaterThan(fractions[i - 1]);
+    for (let i = 1; i < fractions.length; i++) {
+      expect(fractions[i]).toBeGreaterThan(elementAt(fractions, i - 1, 'fractions'));
+    }
   });
 
   it('stops handing out trials when progress says so, keeping the trials from the first on', async () => {

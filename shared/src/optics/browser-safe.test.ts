@@ -7,6 +7,7 @@ import { readFileSync, readdirSync } from 'node:fs';
 import { dirname, join } from 'node:path';
 import { fileURLToPath } from 'node:url';
 import { describe, expect, it } from 'vitest';
+import { required } from '../checked.js';
 
 const here = dirname(fileURLToPath(import.meta.url));
 const coreFiles = [
@@ -22,8 +23,8 @@ describe('optics core', () => {
 
   it.each(coreFiles)('%s imports only relative modules and complex.js, and uses no Node globals', (file) => {
     const source = readFileSync(join(here, file), 'utf8');
-    const imports = [...source.matchAll(/^\s*(?:import|export)[^'"]*from\s+['"]([^'"]+)['"]/gm)].map(
-      (m) => m[1],
+    const imports = [...source.matchAll(/^\s*(?:import|export)[^'"]*from\s+['"]([^'"]+)['"]/gm)].map((m) =>
+      required(m[1], 'import specifier'),
     );
     for (const spec of imports) expect(spec.startsWith('.') || spec === 'complex.js').toBe(true);
     expect(source).not.toMatch(/\b(process\.|Buffer\b|require\(|__dirname|reference types="node")/);

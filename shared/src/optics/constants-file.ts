@@ -14,6 +14,7 @@
  * A formula alone becomes the engine's Sellmeier or Cauchy model with its `wavelength_range` as
  * `validNm`; a formula n with a `tabulated k` becomes a table at the k rows.
  */
+import { elementAt } from '../checked.js';
 import type { MaterialModel, TabulatedIndex } from './dispersion.js';
 import { validateMaterialModel } from './dispersion.js';
 import { OpticsInputError } from './errors.js';
@@ -41,6 +42,9 @@ interface DataEntry {
   type: string;
   fields: Record<string, string>;
 }
+
+/** A table row: wavelength (µm) and one or two values (a missing second value reads as 0). */
+type Row = [wavelengthUm: number, first: number, second: number];
 
 /**
  * Reads a constants file. Throws {@link OpticsInputError} naming the part that is wrong (a missing
@@ -71,14 +75,18 @@ export function parseConstantsFile(text: string): ConstantsFile {
   const dataLines = sections.get('DATA');
   if (!dataLines) throw new OpticsInputError('DATA', 'the file has no DATA section');
   const entries = dataEntries(dataLines);
-  if (entries.length < 1 || entries.length > 2) {
+  const [first, second] = entries;
+  if (!first || entries.length > 2) {
     throw new OpticsInputError('DATA', `expected one or two entries (got ${entries.length})`);
   }
-  const { model, form } = entries.length === 1 ? single(entries[0]) : withTabulatedK(entries[0], entries[1]);
+  const { model, form } = second ? withTabulatedK(first, second) : single(first);
   const checked = validateMaterialModel(model, 'DATA');
   const range =
     checked.model === 'table'
-      ? { from: checked.wavelengths[0], to: checked.wavelengths[checked.wavelengths.length - 1] }
+      ? {
+          from: elementAt(checked.wavelengths, 0, 'the table wavelengths'),
+          to: elementAt(checked.wavelengths, checked.wavelengths.length - 1, 'the table wavelengths'),
+        }
       : checked.model === 'constant'
         ? null
         : (checked.validNm ?? null);
@@ -109,37 +117,35 @@ function single(entry: DataEntry): { model: MaterialModel; form: string } {
   const formula = readFormula(entry);
   const validNm = { from: nmOf(formula.rangeUm[0]), to: nmOf(formula.rangeUm[1]) };
   const span = `${formula.rangeUm[0]}–${formula.rangeUm[1]} µm`;
+  const [c0, terms] = [formula.constant, formula.terms];
   if (formula.kind === 5) {
-    const c = formula.coefficients;
     let B = 0;
     let C = 0;
-    for (let i = 1; i + 1 < c.length; i += 2) {
-      if (c[i + 1] === -2) B += c[i];
-      else if (c[i + 1] === -4) C += c[i];
-      else if (c[i] !== 0) {
+    for (const { coefficient, exponent } of terms) {
+      if (exponent === -2) B += coefficient;
+      else if (exponent === -4) C += coefficient;
+      else if (coefficient !== 0) {
         throw new OpticsInputError(
           'DATA[0].coefficients',
-          `formula 5 is read in its Cauchy form (powers −2 and −4 of λ); this file has λ^${c[i + 1]}`,
+          `formula 5 is read in its Cauchy form (powers −2 and −4 of λ); this file has λ^${exponent}`,
         );
       }
     }
     return {
-      model: { model: 'cauchy', A: c[0], B, C, k: 0, validNm },
+      model: { model: 'cauchy', A: c0, B, C, k: 0, validNm },
       form: `Cauchy formula (formula 5), ${span}`,
     };
   }
-  const c = formula.coefficients;
-  if (c[0] !== 0) {
+  if (c0 !== 0) {
     throw new OpticsInputError(
       'DATA[0].coefficients',
-      `a Sellmeier formula with a constant term (C1 = ${c[0]}) is read only together with a tabulated k`,
+      `a Sellmeier formula with a constant term (C1 = ${c0}) is read only together with a tabulated k`,
     );
   }
   const B: number[] = [];
   const Cs: number[] = [];
-  for (let i = 1; i < c.length; i += 2) {
-    B.push(c[i]);
-    const ci = c[i + 1] ?? 0;
+  for (const { coefficient, exponent: ci } of terms) {
+    B.push(coefficient);
     Cs.push(formula.kind === 1 ? ci * ci : ci);
   }
   if (B.length > 3) {
@@ -161,14 +167,14 @@ function withTabulatedK(first: DataEntry, second: DataEntry): { model: MaterialM
   }
   const kRows = tableRows(second, 2, 'DATA[1]');
   const kAt = (um: number) => interpolate(kRows, um);
+  const kFrom = elementAt(kRows, 0, 'the k rows')[0];
+  const kTo = elementAt(kRows, kRows.length - 1, 'the k rows')[0];
   let wavelengthsUm: number[];
   let nAt: (um: number) => number;
   let form: string;
   if (first.type === 'tabulated n') {
     const nRows = tableRows(first, 2);
-    wavelengthsUm = nRows
-      .map((r) => r[0])
-      .filter((um) => um >= kRows[0][0] && um <= kRows[kRows.length - 1][0]);
+    wavelengthsUm = nRows.map((r) => r[0]).filter((um) => um >= kFrom && um <= kTo);
     nAt = (um) => interpolate(nRows, um);
     form = `tabulated n with tabulated k, ${wavelengthsUm.length} rows`;
   } else {
@@ -194,7 +200,10 @@ function withTabulatedK(first: DataEntry, second: DataEntry): { model: MaterialM
 interface Formula {
   kind: 1 | 2 | 5;
   rangeUm: [number, number];
-  coefficients: number[];
+  /** C1. */
+  constant: number;
+  /** The pairs C(2i), C(2i+1) after C1; a missing last C(2i+1) reads as 0. */
+  terms: { coefficient: number; exponent: number }[];
 }
 
 function readFormula(entry: DataEntry): Formula {
@@ -207,38 +216,43 @@ function readFormula(entry: DataEntry): Formula {
     );
   }
   const range = numbers(entry.fields.wavelength_range ?? '', 'DATA[0].wavelength_range');
-  if (range.length !== 2 || !(range[0] > 0) || !(range[1] > range[0])) {
+  const [lo, hi] = range;
+  if (range.length !== 2 || lo === undefined || hi === undefined || !(lo > 0) || !(hi > lo)) {
     throw new OpticsInputError('DATA[0].wavelength_range', 'must be two wavelengths in µm, low then high');
   }
-  const coefficients = numbers(entry.fields.coefficients ?? '', 'DATA[0].coefficients');
-  if (coefficients.length < 3) {
-    throw new OpticsInputError('DATA[0].coefficients', `too few coefficients (${coefficients.length})`);
+  const [constant, ...rest] = numbers(entry.fields.coefficients ?? '', 'DATA[0].coefficients');
+  if (constant === undefined || rest.length < 2) {
+    throw new OpticsInputError(
+      'DATA[0].coefficients',
+      `too few coefficients (${rest.length + (constant === undefined ? 0 : 1)})`,
+    );
   }
-  return { kind, rangeUm: [range[0], range[1]], coefficients };
+  const terms: Formula['terms'] = [];
+  for (let i = 0; i < rest.length; i += 2)
+    terms.push({ coefficient: elementAt(rest, i, 'the coefficients'), exponent: rest[i + 1] ?? 0 });
+  return { kind, rangeUm: [lo, hi], constant, terms };
 }
 
 /** n of a formula at λ (µm), straight from the file's definition. */
 function formulaN(f: Formula, um: number): number {
-  const c = f.coefficients;
   if (f.kind === 5) {
-    let n = c[0];
-    for (let i = 1; i < c.length; i += 2) n += c[i] * um ** (c[i + 1] ?? 0);
+    let n = f.constant;
+    for (const { coefficient, exponent } of f.terms) n += coefficient * um ** exponent;
     return n;
   }
   const l2 = um * um;
-  let n2 = 1 + c[0];
-  for (let i = 1; i < c.length; i += 2) {
-    const ci = c[i + 1] ?? 0;
-    n2 += (c[i] * l2) / (l2 - (f.kind === 1 ? ci * ci : ci));
+  let n2 = 1 + f.constant;
+  for (const { coefficient, exponent: ci } of f.terms) {
+    n2 += (coefficient * l2) / (l2 - (f.kind === 1 ? ci * ci : ci));
   }
   return Math.sqrt(n2);
 }
 
-function interpolate(rows: number[][], um: number): number {
+function interpolate(rows: Row[], um: number): number {
   let j = 0;
-  while (j < rows.length - 2 && rows[j + 1][0] < um) j++;
-  const [x0, y0] = rows[j];
-  const [x1, y1] = rows[j + 1];
+  while (j < rows.length - 2 && elementAt(rows, j + 1, 'the rows')[0] < um) j++;
+  const [x0, y0] = elementAt(rows, j, 'the rows');
+  const [x1, y1] = elementAt(rows, j + 1, 'the rows');
   return y0 + ((um - x0) / (x1 - x0)) * (y1 - y0);
 }
 
@@ -254,10 +268,10 @@ function numbers(text: string, field: string): number[] {
   });
 }
 
-function tableRows(entry: DataEntry, cols: number, field = 'DATA[0]'): number[][] {
+function tableRows(entry: DataEntry, cols: 2 | 3, field = 'DATA[0]'): Row[] {
   const data = entry.fields.data;
   if (data === undefined) throw new OpticsInputError(`${field}.data`, 'the entry has no data rows');
-  const rows: number[][] = [];
+  const rows: Row[] = [];
   data.split('\n').forEach((line, i) => {
     if (line.trim() === '') return;
     const cells = line.trim().split(/\s+/);
@@ -265,10 +279,12 @@ function tableRows(entry: DataEntry, cols: number, field = 'DATA[0]'): number[][
     if (cells.length !== cols) {
       throw new OpticsInputError(at, `has ${cells.length} values, "${entry.type}" rows have ${cols}`);
     }
-    const row = cells.map((c) => Number(c));
-    if (row.some((x) => !Number.isFinite(x)))
+    const values = cells.map((c) => Number(c));
+    if (values.some((x) => !Number.isFinite(x)))
       throw new OpticsInputError(at, `not a number in "${line.trim()}"`);
-    if (rows.length > 0 && !(row[0] > rows[rows.length - 1][0])) {
+    const row: Row = [elementAt(values, 0, at), elementAt(values, 1, at), values[2] ?? 0];
+    const previous = rows[rows.length - 1];
+    if (previous && !(row[0] > previous[0])) {
       throw new OpticsInputError(at, `wavelength ${row[0]} µm does not increase`);
     }
     rows.push(row);
@@ -285,8 +301,9 @@ function topLevel(text: string): Map<string, { head: string; lines: string[] }> 
     if (/^\s*#/.test(line)) continue;
     const key = /^([A-Za-z_][\w]*):\s*(.*)$/.exec(line);
     if (key) {
-      current = { head: key[2].trim(), lines: [] };
-      out.set(key[1], current);
+      const [, name = '', head = ''] = key;
+      current = { head: head.trim(), lines: [] };
+      out.set(name, current);
     } else if (current && (line.trim() === '' || /^\s/.test(line))) {
       current.lines.push(line);
     } else if (line.trim() !== '') {
@@ -304,11 +321,15 @@ function blockText(section: { head: string; lines: string[] }): string {
 
 function dedent(lines: string[]): string {
   const filled = lines.filter((l) => l.trim() !== '');
-  const indent = Math.min(...filled.map((l) => /^\s*/.exec(l)![0].length));
+  const indent = Math.min(...filled.map(leadingSpaces));
   return lines
     .map((l) => l.slice(Math.min(indent, l.length)))
     .join('\n')
     .trim();
+}
+
+function leadingSpaces(line: string): number {
+  return line.length - line.trimStart().length;
 }
 
 function conditionsText(section: { head: string; lines: string[] }): string {
@@ -324,20 +345,22 @@ function dataEntries(section: { head: string; lines: string[] }): DataEntry[] {
   const items: string[][] = [];
   for (const raw of section.lines) {
     const item = /^(\s*)- (.*)$/.exec(raw);
-    if (item) items.push([`${item[1]}  ${item[2]}`]);
-    else if (items.length > 0) items[items.length - 1].push(raw);
+    const last = items[items.length - 1];
+    if (item) items.push([`${item[1] ?? ''}  ${item[2] ?? ''}`]);
+    else if (last) last.push(raw);
     else if (raw.trim() !== '') throw new OpticsInputError('DATA', 'entries must start with "- "');
   }
   return items.map((lines, i) => {
-    const keyIndent = /^\s*/.exec(lines[0])![0].length;
+    const keyIndent = leadingSpaces(lines[0] ?? '');
     const fields: Record<string, { head: string; lines: string[] }> = {};
     let current: { head: string; lines: string[] } | null = null;
     for (const line of lines) {
-      const indent = /^\s*/.exec(line)![0].length;
+      const indent = leadingSpaces(line);
       const key = /^\s*([A-Za-z_]\w*):\s*(.*)$/.exec(line);
       if (key && indent === keyIndent) {
-        current = { head: key[2].trim(), lines: [] };
-        fields[key[1]] = current;
+        const [, name = '', head = ''] = key;
+        current = { head: head.trim(), lines: [] };
+        fields[name] = current;
       } else if (current) {
         current.lines.push(line);
       }

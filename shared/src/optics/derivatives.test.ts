@@ -4,6 +4,7 @@
  * needle function of A. V. Tikhonravov, M. K. Trubetskov, G. W. DeBell, Appl. Opt. 35, 5493 (1996)).
  */
 import { describe, expect, it } from 'vitest';
+import { elementAt } from '../checked.js';
 import {
   calculateSpectrum,
   computeSpectrum,
@@ -45,17 +46,18 @@ function centralDifferences(stack: OpticalStack, grid: Parameters<typeof createS
   const h = 1e-4;
   for (let l = 0; l < L; l++) {
     const d = [...base];
-    d[l] = base[l] + h;
+    const d0 = elementAt(base, l, 'thicknesses');
+    d[l] = d0 + h;
     setLayerThicknesses(plan, d);
     computeSpectrum(out, plan);
     const Rp = Float64Array.from(out.R);
     const Tp = Float64Array.from(out.T);
-    d[l] = base[l] - h;
+    d[l] = d0 - h;
     setLayerThicknesses(plan, d);
     computeSpectrum(out, plan);
     for (let i = 0; i < plan.size; i++) {
-      dR[l * plan.size + i] = (Rp[i] - out.R[i]) / (2 * h);
-      dT[l * plan.size + i] = (Tp[i] - out.T[i]) / (2 * h);
+      dR[l * plan.size + i] = (elementAt(Rp, i, 'R(d + h)') - elementAt(out.R, i, 'R(d − h)')) / (2 * h);
+      dT[l * plan.size + i] = (elementAt(Tp, i, 'T(d + h)') - elementAt(out.T, i, 'T(d − h)')) / (2 * h);
     }
   }
   return { dR, dT };
@@ -78,8 +80,10 @@ describe('analytic thickness derivatives', () => {
       for (let i = 0; i < numeric.dR.length; i++) {
         // Relative to the largest derivative of the case: a central difference's rounding noise
         // (~1e-16/h) swamps single tiny entries.
-        expect(Math.abs(analytic.dR[i] - numeric.dR[i])).toBeLessThan(1e-7 * scale);
-        expect(Math.abs(analytic.dT[i] - numeric.dT[i])).toBeLessThan(1e-7 * scale);
+        const dR = elementAt(analytic.dR, i, 'analytic dR') - elementAt(numeric.dR, i, 'numeric dR');
+        const dT = elementAt(analytic.dT, i, 'analytic dT') - elementAt(numeric.dT, i, 'numeric dT');
+        expect(Math.abs(dR)).toBeLessThan(1e-7 * scale);
+        expect(Math.abs(dT)).toBeLessThan(1e-7 * scale);
       }
       expect(scale).toBeGreaterThan(1e-5);
     },
@@ -123,18 +127,23 @@ describe('analytic needle function', () => {
     const merit = (s: OpticalStack) => {
       const res = calculateSpectrum(s, grid);
       let f = 0;
-      for (let i = 0; i < plan.size; i++) f += gR[i] * res.R[i] + gT[i] * res.T[i];
+      for (let i = 0; i < plan.size; i++) {
+        f +=
+          elementAt(gR, i, 'gR') * elementAt(res.R, i, 'R') +
+          elementAt(gT, i, 'gT') * elementAt(res.T, i, 'T');
+      }
       return f;
     };
     const f0 = merit(stack);
     const probe = (point: number, m: number, thicknessNm: number) => {
-      const j = depths.layer[point];
-      const host = stack.layers[j];
+      const j = elementAt(depths.layer, point, 'needle depth layers');
+      const host = elementAt(stack.layers, j, 'layers');
+      const offsetNm = elementAt(depths.offsetNm, point, 'needle depth offsets');
       const layers = [
         ...stack.layers.slice(0, j),
-        { material: host.material, thicknessNm: depths.offsetNm[point] },
-        { material: needles[m], thicknessNm },
-        { material: host.material, thicknessNm: host.thicknessNm - depths.offsetNm[point] },
+        { material: host.material, thicknessNm: offsetNm },
+        { material: elementAt(needles, m, 'needles'), thicknessNm },
+        { material: host.material, thicknessNm: host.thicknessNm - offsetNm },
         ...stack.layers.slice(j + 1),
       ];
       return (merit({ ...stack, layers }) - f0) / thicknessNm;
@@ -152,8 +161,9 @@ describe('analytic needle function', () => {
       }
     }
     for (let i = 0; i < needles.length * depths.count; i++) {
-      expect(Math.abs(analytic[i] - probed[2 * i])).toBeLessThan(1e-3 * scale);
-      expect(Math.abs(analytic[i] - probed[2 * i + 1])).toBeLessThan(1e-6 * scale);
+      const a = elementAt(analytic, i, 'needle function');
+      expect(Math.abs(a - elementAt(probed, 2 * i, 'probed'))).toBeLessThan(1e-3 * scale);
+      expect(Math.abs(a - elementAt(probed, 2 * i + 1, 'probed'))).toBeLessThan(1e-6 * scale);
     }
     expect(scale).toBeGreaterThan(1e-4);
   });

@@ -1,4 +1,5 @@
 import { describe, expect, it } from 'vitest';
+import { elementAt, required } from '../checked.js';
 import {
   countOutsideRange,
   evaluateIndex,
@@ -21,7 +22,7 @@ function samples(model: MaterialModel, wavelengths: number[]) {
 describe('Sellmeier glasses from published coefficients', () => {
   it('N-BK7 (SCHOTT data sheet): nF, nd, nC and Abbe number', () => {
     // SCHOTT N-BK7 data sheet: n(486.13) = 1.52238, n(587.56) = 1.51680, n(656.27) = 1.51432, νd = 64.17.
-    const glass = MATERIAL_LIBRARY['N-BK7'];
+    const glass = required(MATERIAL_LIBRARY['N-BK7'], 'library material N-BK7');
     const nF = indexAt(glass, 486.13).n;
     const nd = indexAt(glass, 587.56).n;
     const nC = indexAt(glass, 656.27).n;
@@ -33,7 +34,7 @@ describe('Sellmeier glasses from published coefficients', () => {
   });
 
   it('fused silica (Malitson, J. Opt. Soc. Am. 55, 1205 (1965))', () => {
-    const silica = MATERIAL_LIBRARY['fused-silica'];
+    const silica = required(MATERIAL_LIBRARY['fused-silica'], 'library material fused-silica');
     expect(indexAt(silica, 587.56).n).toBeCloseTo(1.45846, 5);
     expect(indexAt(silica, 632.8).n).toBeCloseTo(1.45702, 5);
     expect(indexAt(silica, 1064).n).toBeCloseTo(1.44963, 5);
@@ -56,7 +57,9 @@ describe('formula models and their valid range', () => {
     const model = validateMaterialModel(bk7);
     expect(indexAt(model, 587.56).n).toBeCloseTo(1.5168, 5); // SCHOTT data sheet nd
     // Without a range the formula runs on to 12 µm and gives a meaningless n ≈ 2.4.
-    expect(indexAt(MATERIAL_LIBRARY['N-BK7'], 12_000).n).toBeGreaterThan(2);
+    expect(indexAt(required(MATERIAL_LIBRARY['N-BK7'], 'library material N-BK7'), 12_000).n).toBeGreaterThan(
+      2,
+    );
     expect(() => indexAt(model, 12_000, 'substrate')).toThrow(
       /substrate\.validNm: 12000 nm is outside the sellmeier model's valid range \(300–2500 nm\)/,
     );
@@ -68,7 +71,9 @@ describe('formula models and their valid range', () => {
     expect(indexAt(held, 12_000).n).toBe(indexAt(held, 2500).n);
     expect(indexAt(held, 250).n).toBe(indexAt(held, 300).n);
     expect(countOutsideRange(held, [250, 587.56, 2500, 12_000])).toBe(2);
-    expect(countOutsideRange(MATERIAL_LIBRARY['N-BK7'], [12_000])).toBe(0);
+    expect(countOutsideRange(required(MATERIAL_LIBRARY['N-BK7'], 'library material N-BK7'), [12_000])).toBe(
+      0,
+    );
   });
 
   it('applies to Cauchy models too and checks the range itself', () => {
@@ -101,7 +106,7 @@ describe('Cauchy', () => {
     expect(n[0]).toBeCloseTo(1.45 + 0.0036 / 0.25 + 0.0001 / 0.0625, 14);
     expect(k[1]).toBeCloseTo(0.001, 15); // k at the reference wavelength
     expect(k[0]).toBeCloseTo(0.001 * Math.exp(1.5 * (1 / 0.5 - 1 / 0.4)), 15);
-    expect(k[0]).toBeLessThan(k[1]); // positive exponent: absorption rises towards the UV
+    expect(k[0]).toBeLessThan(elementAt(k, 1, 'k')); // positive exponent: absorption rises towards the UV
   });
 
   it('refuses both a constant k and an absorption tail', () => {
@@ -138,9 +143,11 @@ describe('tables', () => {
     const model = validateMaterialModel({ ...table, interpolation: 'pchip' });
     const grid = Array.from({ length: 301 }, (_, i) => 400 + i);
     const { n, k } = samples(model, grid);
-    for (const [i, wl] of [400, 500, 600, 700].entries()) expect(n[wl - 400]).toBeCloseTo(table.n[i], 14);
+    for (const [i, wl] of [400, 500, 600, 700].entries()) {
+      expect(n[wl - 400]).toBeCloseTo(elementAt(table.n, i, 'table n'), 14);
+    }
     for (let i = 1; i < grid.length; i++) {
-      expect(n[i]).toBeLessThanOrEqual(n[i - 1] + 1e-15); // monotone data stays monotone
+      expect(n[i]).toBeLessThanOrEqual(elementAt(n, i - 1, 'n') + 1e-15); // monotone data stays monotone
       expect(k[i]).toBeGreaterThanOrEqual(0); // k never dips below zero between rows
     }
   });

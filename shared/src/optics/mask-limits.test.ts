@@ -1,4 +1,5 @@
 import { describe, expect, it } from 'vitest';
+import { elementAt } from '../checked.js';
 import { Mulberry32 } from '../optimise/random.js';
 import { OpticsInputError } from './errors.js';
 import {
@@ -22,8 +23,8 @@ function referenceHasContradiction(bands: LimitBand[]): boolean {
           ];
   for (let j = 0; j < bands.length; j++)
     for (let i = 0; i < j; i++) {
-      const a = bands[i];
-      const b = bands[j];
+      const a = elementAt(bands, i, 'bands');
+      const b = elementAt(bands, j, 'bands');
       if ((a.polarisation ?? 'avg') !== (b.polarisation ?? 'avg')) continue;
       if (Math.max(a.from_nm, b.from_nm) > Math.min(a.to_nm, b.to_nm)) continue;
       if (!(a.angles_deg ?? [0]).some((x) => (b.angles_deg ?? [0]).includes(x))) continue;

@@ -28,6 +28,7 @@ import {
   type SpectrumPlan,
 } from './batch.js';
 import type { OpticalStack } from './stack.js';
+import { elementAt } from '../checked.js';
 
 export type MaskQuantity = 'R' | 'T';
 
@@ -206,7 +207,8 @@ function validateBand(item: unknown, field: string, defaultStep: number): LimitB
   const given = (['max_percent', 'min_percent', 'target_percent'] as const).filter(
     (k) => obj[k] !== undefined,
   );
-  if (given.length !== 1) {
+  const [key] = given;
+  if (key === undefined || given.length !== 1) {
     throw new OpticsInputError(
       field,
       given.length === 0
@@ -230,7 +232,6 @@ function validateBand(item: unknown, field: string, defaultStep: number): LimitB
     weight: obj.weight === undefined ? 1 : positiveNumber(obj.weight, at('weight')),
     step_nm: obj.step_nm === undefined ? defaultStep : positiveNumber(obj.step_nm, at('step_nm')),
   };
-  const key = given[0];
   band[key] = percent(key);
   if (key === 'target_percent') {
     if (obj.tolerance_percent === undefined) {
@@ -303,7 +304,7 @@ function bandAngleRange(
   if (given.length < keys.length) {
     const missing = keys.filter((k) => obj[k] === undefined);
     throw new OpticsInputError(
-      at(missing[0]),
+      at(elementAt(missing, 0, 'the missing angle keys')),
       `an angle range needs angle_from_deg, angle_to_deg and angle_step_deg (missing ${missing.join(', ')})`,
     );
   }
@@ -344,7 +345,7 @@ export function expandAngleRange(
 }
 
 function sameNumbers(a: readonly number[], b: readonly number[]): boolean {
-  return a.length === b.length && a.every((x, i) => Math.abs(x - b[i]) < 1e-9);
+  return a.length === b.length && a.every((x, i) => Math.abs(x - elementAt(b, i, 'the numbers')) < 1e-9);
 }
 
 /** A band's margin: ≥ 0 and leaving a design target inside 0–100 % (and a tolerance > 0). */
@@ -411,36 +412,45 @@ class ItemHeap {
 
   /** The best item whose band still reaches `fromNm` (bands that end before it are dropped for good). */
   top(fromNm: number): SweepItem | undefined {
-    while (this.items.length > 0 && this.items[0].band.to_nm < fromNm) this.pop();
+    for (let first = this.items[0]; first && first.band.to_nm < fromNm; first = this.items[0]) this.pop();
     return this.items[0];
   }
 
   push(item: SweepItem): void {
     const a = this.items;
     a.push(item);
-    for (let i = a.length - 1; i > 0;) {
+    // Sift up: `item` rises past every parent it beats (indices stay inside the heap).
+    let i = a.length - 1;
+    while (i > 0) {
       const parent = (i - 1) >> 1;
-      if (!this.better(a[i], a[parent])) break;
-      [a[i], a[parent]] = [a[parent], a[i]];
+      const above = elementAt(a, parent, 'the heap');
+      if (!this.better(item, above)) break;
+      a[i] = above;
       i = parent;
     }
+    a[i] = item;
   }
 
   private pop(): void {
     const a = this.items;
-    const last = a.pop() as SweepItem;
-    if (a.length === 0) return;
-    a[0] = last;
-    for (let i = 0; ;) {
+    const last = a.pop();
+    if (last === undefined || a.length === 0) return;
+    // Sift down: the last item sinks below every child that beats it.
+    let i = 0;
+    for (;;) {
       const l = 2 * i + 1;
       const r = l + 1;
-      let best = i;
-      if (l < a.length && this.better(a[l], a[best])) best = l;
-      if (r < a.length && this.better(a[r], a[best])) best = r;
-      if (best === i) return;
-      [a[i], a[best]] = [a[best], a[i]];
-      i = best;
+      let best = last;
+      let at = i;
+      const left = a[l];
+      const right = a[r];
+      if (left && this.better(left, best)) [best, at] = [left, l];
+      if (right && this.better(right, best)) [best, at] = [right, r];
+      if (at === i) break;
+      a[i] = best;
+      i = at;
     }
+    a[i] = last;
   }
 }
 
@@ -577,7 +587,7 @@ export function evaluateMaskOnSpectrum(
             `${wl} nm was not computed (use maskGrid for the grid)`,
           );
         }
-        const value = 100 * values[(ip * nA + ia) * nW + iw];
+        const value = 100 * elementAt(values, (ip * nA + ia) * nW + iw, 'the computed spectrum');
         const margin = marginOf(bound, value);
         // The merit's deviation: how far outside a one-sided limit, or off a target's centre.
         const deviation = bound.kind === 'target' ? value - bound.value : Math.max(0, -margin);
@@ -596,13 +606,15 @@ export function evaluateMaskOnSpectrum(
   });
 
   let worstBand = 0;
-  for (let b = 1; b < bands.length; b++)
-    if (bands[b].worstMargin < bands[worstBand].worstMargin) worstBand = b;
+  let worst = elementAt(bands, 0, 'the band results');
+  bands.forEach((band, b) => {
+    if (band.worstMargin < worst.worstMargin) [worst, worstBand] = [band, b];
+  });
   return {
     pass: bands.every((b) => b.pass),
-    worstMargin: bands[worstBand].worstMargin,
+    worstMargin: worst.worstMargin,
     worstBand,
-    worstAt: bands[worstBand].worstAt,
+    worstAt: worst.worstAt,
     merit: Math.sqrt(weightedSquares / weightSum),
     bands,
   };

@@ -1,4 +1,5 @@
 import { describe, expect, it } from 'vitest';
+import { elementAt } from '../checked.js';
 import { calculateSpectrum, responseAt } from './batch.js';
 import { constantIndex } from './dispersion.js';
 import type { Layer, OpticalStack } from './stack.js';
@@ -108,7 +109,7 @@ describe('single interface', () => {
       expect(res.R[i]).toBeGreaterThan(1 - 1e-12);
       expect(res.T[i]).toBe(0);
       expect(res.A[i]).toBeGreaterThanOrEqual(0);
-      expect(res.R[i] + res.T[i] + res.A[i]).toBe(1);
+      expect(elementAt(res.R, i, 'R') + elementAt(res.T, i, 'T') + elementAt(res.A, i, 'A')).toBe(1);
     }
   });
 

@@ -1,4 +1,5 @@
 import { describe, expect, it } from 'vitest';
+import { elementAt } from '../checked.js';
 import { OpticsInputError } from './errors.js';
 import { MATERIAL_LIBRARY } from './library.js';
 import { parseStack, stackThicknessNm, validateOpticalStack } from './stack.js';
@@ -18,7 +19,7 @@ describe('parseStack', () => {
     expect(stack.incident).toEqual({ model: 'constant', n: 1, k: 0 });
     expect(stack.substrate).toEqual({ model: 'constant', n: 1.52, k: 0 });
     expect(stack.layers.map((l) => l.thicknessNm)).toEqual([50, 93.2]);
-    expect(stack.layers[0].material).toEqual({ model: 'constant', n: 2.35, k: 0.0001 });
+    expect(elementAt(stack.layers, 0, 'layers').material).toEqual({ model: 'constant', n: 2.35, k: 0.0001 });
     expect(stack.exit).toEqual(stack.incident);
     expect(stack.backLayers).toEqual([]);
     expect(stackThicknessNm(stack)).toBeCloseTo(143.2, 12);
@@ -42,7 +43,7 @@ describe('parseStack', () => {
       thicknessNm: 20,
       label: 'H1',
     });
-    expect(stack.backLayers[0].thicknessNm).toBe(99.6);
+    expect(elementAt(stack.backLayers, 0, 'back layers').thicknessNm).toBe(99.6);
   });
 
   it('converts QWOT to physical thickness at the reference wavelength (d = QWOT·λ0/4n)', () => {
@@ -54,8 +55,8 @@ describe('parseStack', () => {
         { n: 2.0, qwot: 2, reference_nm: 600 },
       ],
     });
-    expect(stack.layers[0].thicknessNm).toBeCloseTo(550 / (4 * 1.38), 12);
-    expect(stack.layers[1].thicknessNm).toBeCloseTo((2 * 600) / (4 * 2.0), 12);
+    expect(elementAt(stack.layers, 0, 'layers').thicknessNm).toBeCloseTo(550 / (4 * 1.38), 12);
+    expect(elementAt(stack.layers, 1, 'layers').thicknessNm).toBeCloseTo((2 * 600) / (4 * 2.0), 12);
   });
 
   const bad: [unknown, string, RegExp][] = [
@@ -110,7 +111,10 @@ describe('validateOpticalStack', () => {
     const stack = parseStack(example);
     expect(validateOpticalStack(stack)).toEqual(stack);
     expect(() =>
-      validateOpticalStack({ ...stack, layers: [{ ...stack.layers[0], thicknessNm: Number.NaN }] }),
+      validateOpticalStack({
+        ...stack,
+        layers: [{ ...elementAt(stack.layers, 0, 'layers'), thicknessNm: Number.NaN }],
+      }),
     ).toThrow(/^layers\[0\]\.thicknessNm: must be a finite number/);
   });
 });

@@ -1,4 +1,5 @@
 import { describe, expect, it } from 'vitest';
+import { required } from '../checked.js';
 import { responseAt } from './batch.js';
 import { constantIndex as c } from './dispersion.js';
 import { MATERIAL_LIBRARY } from './library.js';
@@ -26,7 +27,7 @@ describe('QWOT ⇄ nm (Macleod ch. 2: one QWOT is n·d = λ0/4)', () => {
   });
 
   it('uses the material’s index at the reference wavelength', () => {
-    const silica = MATERIAL_LIBRARY['fused-silica'];
+    const silica = required(MATERIAL_LIBRARY['fused-silica'], 'library material fused-silica');
     // n(632.8 nm) = 1.45702 (Malitson 1965).
     expect(materialQwotToNm(silica, 1, 632.8)).toBeCloseTo(632.8 / (4 * 1.45702), 3);
     expect(materialNmToQwot(silica, materialQwotToNm(silica, 3, 632.8), 632.8)).toBeCloseTo(3, 13);

@@ -7,6 +7,7 @@ import { readFileSync, readdirSync } from 'node:fs';
 import { dirname, join } from 'node:path';
 import { fileURLToPath } from 'node:url';
 import { describe, expect, it } from 'vitest';
+import { required } from '../checked.js';
 
 const here = dirname(fileURLToPath(import.meta.url));
 const NODE_ONLY = /\b(process\.|Buffer\b|require\(|__dirname|reference types="node")/;
@@ -21,8 +22,8 @@ describe('optimisation code', () => {
 
   it.each(sources)('%s imports only the engine’s own modules and uses no Node globals', (file) => {
     const source = readFileSync(join(here, file), 'utf8');
-    const imports = [...source.matchAll(/^\s*(?:import|export)[^'"]*from\s+['"]([^'"]+)['"]/gm)].map(
-      (m) => m[1],
+    const imports = [...source.matchAll(/^\s*(?:import|export)[^'"]*from\s+['"]([^'"]+)['"]/gm)].map((m) =>
+      required(m[1], 'import specifier'),
     );
     for (const spec of imports) {
       // Own folder, the optics core, or a shared rule module one level up (itself checked below).

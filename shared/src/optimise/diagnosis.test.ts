@@ -1,4 +1,5 @@
 import { describe, expect, it } from 'vitest';
+import { elementAt } from '../checked.js';
 import {
   DEFAULT_CALIBRATION_SETTINGS,
   IDENTIFIABLE_MAX_FACTOR_SIGMA,
@@ -31,11 +32,13 @@ describe('widenedFactorSigmas', () => {
       ],
       [true, false],
     );
-    expect(w[0].sigma).toBeCloseTo(0.0151575, 6);
-    expect(w[0].correlatedWith).toEqual({ index: 1, correlation: 0.9 });
+    const identified = elementAt(w, 0, 'widened σ');
+    const unidentified = elementAt(w, 1, 'widened σ');
+    expect(identified.sigma).toBeCloseTo(0.0151575, 6);
+    expect(identified.correlatedWith).toEqual({ index: 1, correlation: 0.9 });
     // The unidentified layer is not widened by an identified one.
-    expect(w[1].sigma).toBeCloseTo(0.03, 12);
-    expect(w[1].correlatedWith).toBeNull();
+    expect(unidentified.sigma).toBeCloseTo(0.03, 12);
+    expect(unidentified.correlatedWith).toBeNull();
   });
 
   it('leaves σ as it is when the unidentified layer sits at its design value or is uncorrelated', () => {
@@ -49,7 +52,7 @@ describe('widenedFactorSigmas', () => {
       [true, false],
     );
     // u = max(0.05, 0.01) = σ: nothing beyond the fit's own σ.
-    expect(atDesign[0].sigma).toBeCloseTo(0.004, 12);
+    expect(elementAt(atDesign, 0, 'widened σ').sigma).toBeCloseTo(0.004, 12);
     const uncorrelated = widenedFactorSigmas(
       [1.0, 1.2],
       [0.004, 0.05],
@@ -59,8 +62,9 @@ describe('widenedFactorSigmas', () => {
       ],
       [true, false],
     );
-    expect(uncorrelated[0].sigma).toBeCloseTo(0.004, 12);
-    expect(uncorrelated[0].correlatedWith).toBeNull();
+    const first = elementAt(uncorrelated, 0, 'widened σ');
+    expect(first.sigma).toBeCloseTo(0.004, 12);
+    expect(first.correlatedWith).toBeNull();
   });
 });
 
@@ -89,7 +93,10 @@ const MASK = {
 function stack(factors: readonly number[]): OpticalStack {
   return {
     incident: c(1),
-    layers: DESIGN.map(([m, d], i) => ({ material: c(N[m]), thicknessNm: d * factors[i] })),
+    layers: DESIGN.map(([m, d], i) => ({
+      material: c(N[m]),
+      thicknessNm: d * elementAt(factors, i, 'factors'),
+    })),
     substrate: c(1.52),
     backLayers: [],
     exit: c(1),
@@ -112,11 +119,16 @@ function simulateHistory(scatterSeed: number, noiseSeed: number): SimulatedRun[]
   return Array.from({ length: RUNS }, (_, k) => {
     const truth = DESIGN.map(
       ([m], i) =>
-        (1 + (m === 'ZrO2' ? (0.02 * k) / (RUNS - 1) : 0)) * (1 + 0.003 * scatter[k * DESIGN.length + i]),
+        (1 + (m === 'ZrO2' ? (0.02 * k) / (RUNS - 1) : 0)) *
+        (1 + 0.003 * elementAt(scatter, k * DESIGN.length + i, 'scatter')),
     );
     const built = stack(truth);
     const valuesPercent = WAVELENGTHS.map((w, i) =>
-      Math.max(0, 100 * responseAt(built, w, ANGLE_DEG, 'avg').R + 0.03 * noise[k * WAVELENGTHS.length + i]),
+      Math.max(
+        0,
+        100 * responseAt(built, w, ANGLE_DEG, 'avg').R +
+          0.03 * elementAt(noise, k * WAVELENGTHS.length + i, 'noise'),
+      ),
     );
     const result = diagnoseRun(
       design,
@@ -166,18 +178,20 @@ describe('diagnoseRun on an engine-simulated history with two correlated layers'
   const sio2Layer = 4;
 
   it('finds Al2O3 and the SiO2 next to the glass strongly correlated', () => {
-    const correlated = history.filter((r) => r.layers[2].correlatedWith?.layer === sio2Layer);
+    const al2o3 = (r: SimulatedRun) => elementAt(r.layers, 2, 'layers');
+    const correlated = history.filter((r) => al2o3(r).correlatedWith?.layer === sio2Layer);
     expect(correlated.length).toBeGreaterThan(RUNS / 2);
-    for (const r of correlated)
-      expect(Math.abs(r.layers[2].correlatedWith!.correlation)).toBeGreaterThan(0.8);
+    for (const r of correlated) expect(Math.abs(al2o3(r).correlatedWith!.correlation)).toBeGreaterThan(0.8);
     // SiO2 itself is never identified (σ well above 1 %).
-    for (const r of history) expect(r.layers[3].identified).toBe(false);
+    for (const r of history) expect(elementAt(r.layers, 3, 'layers').identified).toBe(false);
   });
 
   it('states widened σ that cover each used layer’s true error', () => {
     for (const r of history) {
       for (const l of r.layers.filter((x) => x.identified)) {
-        expect(Math.abs(l.factor - r.truth[l.layer - 1])).toBeLessThan(3 * l.factorSigma!);
+        expect(Math.abs(l.factor - elementAt(r.truth, l.layer - 1, 'truth'))).toBeLessThan(
+          3 * l.factorSigma!,
+        );
       }
     }
   });
@@ -193,16 +207,19 @@ describe('diagnoseRun on an engine-simulated history with two correlated layers'
       settings,
     );
     expect(found.map((f) => (f.kind === 'material' ? f.materialId : -1))).toEqual([zr]);
-    const zrFinding = found[0];
+    const zrFinding = elementAt(found, 0, 'findings');
     // The drift ends at +2 % times the last run's own scatter: recovered within 3σ of its stated σ.
-    const lastTruth = history[RUNS - 1].truth[1];
+    const lastTruth = elementAt(elementAt(history, RUNS - 1, 'history').truth, 1, 'truth');
     expect(Math.abs(zrFinding.correction.value - lastTruth)).toBeLessThan(3 * zrFinding.correction.sigma);
     expect(Math.abs(zrFinding.correction.value - 1.02)).toBeLessThan(0.006);
 
     // The fit's linearised σ alone (the first pass) understates Al2O3's error: built true, it
     // lands more than 3 of those σ from its true thickness in a run where the fit would have used
     // it (σ ≤ 1 %), while the widened σ covers every run.
-    const alLayers = history.map((r) => ({ truth: r.truth[2], layer: r.layers[2] }));
+    const alLayers = history.map((r) => ({
+      truth: elementAt(r.truth, 2, 'truth'),
+      layer: elementAt(r.layers, 2, 'layers'),
+    }));
     const naiveMisses = alLayers.filter(
       ({ truth, layer }) =>
         layer.fitFactorSigma! <= IDENTIFIABLE_MAX_FACTOR_SIGMA &&

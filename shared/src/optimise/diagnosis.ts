@@ -22,6 +22,7 @@
  * the safe side for a calibration that must not act on a trade-off between layers.
  */
 import { IDENTIFIABLE_MAX_FACTOR_SIGMA } from '../calibration.js';
+import { elementAt } from '../checked.js';
 import type { DiagnosisResult, LayerDeviation } from '../calculations.js';
 import { OpticsInputError } from '../optics/errors.js';
 import type { BackSurface } from '../optics/batch.js';
@@ -61,31 +62,28 @@ export function widenedFactorSigmas(
   const p = factors.length;
   const out: WidenedFactorSigma[] = [];
   for (let j = 0; j < p; j++) {
-    const sj = sigmas[j];
+    const sj = sigmas[j] ?? null;
     if (sj === null) {
       out.push({ sigma: null, correlatedWith: null });
       continue;
     }
     let variance = sj * sj;
-    let most = -1;
+    let most: { index: number; correlation: number } | null = null;
     let mostAdded = 0;
     for (let k = 0; k < p; k++) {
-      const sk = sigmas[k];
+      const sk = sigmas[k] ?? null;
       const rho = correlation[j]?.[k] ?? null;
       if (k === j || identifiable[k] || sk === null || !(sk > 0) || rho === null) continue;
-      const spread = Math.max(sk, Math.abs(factors[k] - 1));
+      const spread = Math.max(sk, Math.abs(elementAt(factors, k, 'the factors') - 1));
       const beta = (rho * sj) / sk;
       const added = beta * beta * (spread * spread - sk * sk);
       variance += added;
       if (added > mostAdded) {
-        most = k;
+        most = { index: k, correlation: rho };
         mostAdded = added;
       }
     }
-    out.push({
-      sigma: Math.sqrt(variance),
-      correlatedWith: most >= 0 ? { index: most, correlation: correlation[j][most]! } : null,
-    });
+    out.push({ sigma: Math.sqrt(variance), correlatedWith: most });
   }
   return out;
 }
@@ -127,32 +125,38 @@ export function diagnoseRun(
     samples > design.length
       ? fitUncertainty(stack, mask, { back: options.back, targets }, fit.thicknessesNm, samples)
       : null;
-  const factors = design.map((d, i) => fit.thicknessesNm[i] / d);
+  const fittedNm = design.map((_, i) => elementAt(fit.thicknessesNm, i, 'the fitted thicknesses'));
+  const factors = design.map((d, i) => elementAt(fittedNm, i, 'the fitted thicknesses') / d);
   const fitSigmas = design.map((d, i) => {
     const s = u?.sigmaNm[i] ?? null;
     return s === null ? null : s / d;
   });
-  const onBound = design.map(
-    (_, i) => fit.thicknessesNm[i] <= minNm[i] * (1 + 1e-9) || fit.thicknessesNm[i] >= maxNm[i] * (1 - 1e-9),
-  );
-  const firstPass = fitSigmas.map((s, i) => !onBound[i] && s !== null && s <= IDENTIFIABLE_MAX_FACTOR_SIGMA);
+  const firstPass = design.map((_, i) => {
+    const fitted = elementAt(fittedNm, i, 'the fitted thicknesses');
+    const onBound =
+      fitted <= elementAt(minNm, i, 'the lower bounds') * (1 + 1e-9) ||
+      fitted >= elementAt(maxNm, i, 'the upper bounds') * (1 - 1e-9);
+    const s = fitSigmas[i] ?? null;
+    return !onBound && s !== null && s <= IDENTIFIABLE_MAX_FACTOR_SIGMA;
+  });
   const widened = u
     ? widenedFactorSigmas(factors, fitSigmas, u.correlation, firstPass)
     : fitSigmas.map(() => ({ sigma: null, correlatedWith: null }));
   const layers: LayerDeviation[] = design
     .map((d, i) => {
-      const sigma = widened[i].sigma;
-      const identified = firstPass[i] && sigma !== null && sigma <= IDENTIFIABLE_MAX_FACTOR_SIGMA;
-      const by = widened[i].correlatedWith;
+      const { sigma, correlatedWith: by } = elementAt(widened, i, 'the widened sigmas');
+      const identified =
+        elementAt(firstPass, i, 'the first pass') && sigma !== null && sigma <= IDENTIFIABLE_MAX_FACTOR_SIGMA;
+      const factor = elementAt(factors, i, 'the factors');
       return {
         layer: i + 1,
-        materialId: layerMaterialIds[i],
+        materialId: elementAt(layerMaterialIds, i, 'the layer material ids'),
         designNm: d,
-        fittedNm: fit.thicknessesNm[i],
-        factor: factors[i],
-        deviationPercent: (factors[i] - 1) * 100,
+        fittedNm: elementAt(fittedNm, i, 'the fitted thicknesses'),
+        factor,
+        deviationPercent: (factor - 1) * 100,
         factorSigma: sigma,
-        fitFactorSigma: fitSigmas[i],
+        fitFactorSigma: fitSigmas[i] ?? null,
         correlatedWith: by ? { layer: by.index + 1, correlation: by.correlation } : null,
         identified,
       };

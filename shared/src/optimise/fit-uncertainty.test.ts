@@ -1,4 +1,5 @@
 import { describe, expect, it } from 'vitest';
+import { elementAt } from '../checked.js';
 import { responseAt } from '../optics/batch.js';
 import { constantIndex as c } from '../optics/dispersion.js';
 import { OpticsInputError } from '../optics/errors.js';
@@ -15,8 +16,8 @@ function stack(thicknessesNm: number[]): OpticalStack {
   return {
     incident: c(1),
     layers: [
-      { material: c(1.38), thicknessNm: thicknessesNm[0] },
-      { material: c(2.05), thicknessNm: thicknessesNm[1] },
+      { material: c(1.38), thicknessNm: elementAt(thicknessesNm, 0, 'thicknesses') },
+      { material: c(2.05), thicknessNm: elementAt(thicknessesNm, 1, 'thicknesses') },
     ],
     substrate: c(1.52),
     backLayers: [],
@@ -44,9 +45,11 @@ describe('thicknessUncertainty', () => {
     const fitted: number[][] = [];
     const stated: number[][] = [];
     for (let t = 0; t < trials; t++) {
-      const measured = clean.map((v, i) => v + NOISE_PERCENT * noise[t * WAVELENGTHS.length + i]);
+      const measured = clean.map(
+        (v, i) => v + NOISE_PERCENT * elementAt(noise, t * WAVELENGTHS.length + i, 'noise'),
+      );
       const targets = [{ quantity: 'R' as const, wavelengthsNm: WAVELENGTHS, valuesPercent: measured }];
-      const start = stack([truth[0] * 1.05, truth[1] * 0.95]);
+      const start = stack([elementAt(truth, 0, 'truth') * 1.05, elementAt(truth, 1, 'truth') * 0.95]);
       const fit = fitToMask(start, { bands: [band] }, { targets, maxIterations: 200, minThicknessNm: 1 });
       const merit = createMaskMerit(stack(fit.thicknessesNm), { bands: [band] }, { targets });
       const u = thicknessUncertainty(merit, fit.thicknessesNm, WAVELENGTHS.length);
@@ -57,12 +60,14 @@ describe('thicknessUncertainty', () => {
       expect(u.residualScale).toBeLessThan(NOISE_PERCENT * 1.3);
     }
     for (const j of [0, 1]) {
-      const mean = fitted.reduce((s, f) => s + f[j], 0) / trials;
-      const spread = Math.sqrt(fitted.reduce((s, f) => s + (f[j] - mean) ** 2, 0) / (trials - 1));
-      const meanStated = stated.reduce((s, f) => s + f[j], 0) / trials;
+      const mean = fitted.reduce((s, f) => s + elementAt(f, j, 'fitted thicknesses'), 0) / trials;
+      const spread = Math.sqrt(
+        fitted.reduce((s, f) => s + (elementAt(f, j, 'fitted thicknesses') - mean) ** 2, 0) / (trials - 1),
+      );
+      const meanStated = stated.reduce((s, f) => s + elementAt(f, j, 'stated σ'), 0) / trials;
       expect(meanStated / spread).toBeGreaterThan(0.65);
       expect(meanStated / spread).toBeLessThan(1.35);
-      expect(Math.abs(mean - truth[j])).toBeLessThan(3 * meanStated);
+      expect(Math.abs(mean - elementAt(truth, j, 'truth'))).toBeLessThan(3 * meanStated);
     }
   });
 
@@ -79,12 +84,14 @@ describe('thicknessUncertainty', () => {
       {
         quantity: 'R' as const,
         wavelengthsNm: WAVELENGTHS,
-        valuesPercent: values.map((v, i) => v + NOISE_PERCENT * noise[i]),
+        valuesPercent: values.map((v, i) => v + NOISE_PERCENT * elementAt(noise, i, 'noise')),
       },
     ];
     const merit = createMaskMerit(stack(thin), { bands: [band] }, { targets });
     const u = thicknessUncertainty(merit, thin, WAVELENGTHS.length);
-    expect(u.sigmaNm[1]! / thin[1]).toBeGreaterThan(10 * (u.sigmaNm[0]! / thin[0]));
+    expect(u.sigmaNm[1]! / elementAt(thin, 1, 'thicknesses')).toBeGreaterThan(
+      10 * (u.sigmaNm[0]! / elementAt(thin, 0, 'thicknesses')),
+    );
   });
 
   it('refuses a fit with no more samples than layers', () => {

@@ -1,4 +1,5 @@
 import { describe, expect, it } from 'vitest';
+import { elementAt } from '../checked.js';
 import { responseAt } from '../optics/batch.js';
 import { constantIndex as c } from '../optics/dispersion.js';
 import { OpticsInputError } from '../optics/errors.js';
@@ -30,7 +31,7 @@ describe('Fit to mask', () => {
   // R = ((n0·n2² − ns·n1²)/(n0·n2² + ns·n1²))², and d = λ/(4n) for each layer (ch. 2).
   const n1 = 1.38;
   const n2 = n1 * Math.sqrt(NS / N0);
-  const quarterWaves = [REFERENCE_NM / (4 * n1), REFERENCE_NM / (4 * n2)];
+  const quarterWaves: readonly [number, number] = [REFERENCE_NM / (4 * n1), REFERENCE_NM / (4 * n2)];
 
   it('has the V-coat analytic zero the test relies on', () => {
     const analytic = ((N0 * n2 ** 2 - NS * n1 ** 2) / (N0 * n2 ** 2 + NS * n1 ** 2)) ** 2;
@@ -54,8 +55,12 @@ describe('Fit to mask', () => {
     ]);
     const result = fitToMask(start, zeroAt550, { maxIterations: 200 });
     expect(result.merit.before).toBeGreaterThan(0.2);
-    expect(Math.abs(result.thicknessesNm[0] - quarterWaves[0])).toBeLessThan(0.5);
-    expect(Math.abs(result.thicknessesNm[1] - quarterWaves[1])).toBeLessThan(0.5);
+    expect(Math.abs(elementAt(result.thicknessesNm, 0, 'fitted thicknesses') - quarterWaves[0])).toBeLessThan(
+      0.5,
+    );
+    expect(Math.abs(elementAt(result.thicknessesNm, 1, 'fitted thicknesses') - quarterWaves[1])).toBeLessThan(
+      0.5,
+    );
     expect(result.merit.after).toBeLessThan(1e-6);
     expect(result.pass).toBe(true);
     expect(result.initialThicknessesNm).toEqual(start.layers.map((l) => l.thicknessNm));
@@ -79,7 +84,7 @@ describe('Fit to mask', () => {
     expect(floored.thicknessesNm[0]).toBe(105);
     // A layer starting outside its bounds starts from the bound.
     const clipped = fitToMask(onGlass([{ n: 1.38, thicknessNm: 5 }]), zeroAt550, { maxIterations: 1 });
-    expect(clipped.history[0].merit).toBeCloseTo(
+    expect(elementAt(clipped.history, 0, 'fit history').merit).toBeCloseTo(
       100 * responseAt(onGlass([{ n: 1.38, thicknessNm: 10 }]), 550, 0, 's').R,
       10,
     );
@@ -88,8 +93,8 @@ describe('Fit to mask', () => {
       { n: n2, thicknessNm: quarterWaves[1] * 0.9 },
     ]);
     const locked = fitToMask(start, zeroAt550, { locked: [true, false] });
-    expect(locked.thicknessesNm[0]).toBe(start.layers[0].thicknessNm);
-    expect(locked.thicknessesNm[1]).not.toBe(start.layers[1].thicknessNm);
+    expect(locked.thicknessesNm[0]).toBe(elementAt(start.layers, 0, 'layers').thicknessNm);
+    expect(locked.thicknessesNm[1]).not.toBe(elementAt(start.layers, 1, 'layers').thicknessNm);
     expect(locked.merit.after).toBeLessThan(locked.merit.before);
   });
 
@@ -106,7 +111,10 @@ describe('Fit to mask', () => {
     const result = fitToMask(start, mask);
     const fitted = {
       ...start,
-      layers: start.layers.map((l, i) => ({ ...l, thicknessNm: result.thicknessesNm[i] })),
+      layers: start.layers.map((l, i) => ({
+        ...l,
+        thicknessNm: elementAt(result.thicknessesNm, i, 'fitted thicknesses'),
+      })),
     };
     const check = evaluateMask(mask, fitted);
     expect(check.pass).toBe(true);
@@ -129,7 +137,10 @@ describe('Fit to mask', () => {
     expect(bare.targetMarginPercent).toBe(0.001);
     const fitted = {
       ...start,
-      layers: start.layers.map((l, i) => ({ ...l, thicknessNm: result.thicknessesNm[i] })),
+      layers: start.layers.map((l, i) => ({
+        ...l,
+        thicknessNm: elementAt(result.thicknessesNm, i, 'fitted thicknesses'),
+      })),
     };
     const check = evaluateMask(mask, fitted);
     expect(check.worstMargin).toBeGreaterThanOrEqual(0.1 - 1e-6);
@@ -159,7 +170,9 @@ describe('Fit to mask', () => {
     const analytic = fitToMask(start, mask, { maxIterations: 300 });
     const differences = fitToMask(start, mask, { maxIterations: 300, derivatives: 'differences' });
     expect(analytic.merit.after).toBeCloseTo(differences.merit.after, 5);
-    analytic.thicknessesNm.forEach((d, i) => expect(d).toBeCloseTo(differences.thicknessesNm[i], 3));
+    analytic.thicknessesNm.forEach((d, i) =>
+      expect(d).toBeCloseTo(elementAt(differences.thicknessesNm, i, 'fitted thicknesses'), 3),
+    );
     // The analytic Jacobian costs one evaluation, differences one spectrum per free layer.
     expect(analytic.evaluations).toBeLessThan(differences.evaluations);
   });
@@ -177,7 +190,9 @@ describe('Fit to mask', () => {
     expect(first.history.map((h) => h.iteration)).toEqual(first.history.map((_, i) => i));
     // a target band only: the merit falls at every accepted step
     for (let i = 1; i < first.history.length; i++) {
-      expect(first.history[i].merit).toBeLessThan(first.history[i - 1].merit);
+      expect(elementAt(first.history, i, 'fit history').merit).toBeLessThan(
+        elementAt(first.history, i - 1, 'fit history').merit,
+      );
     }
     const stopped = fitToMask(start, zeroAt550, { onIteration: (info) => info.iteration < 2 });
     expect(stopped.stoppedBy).toBe('cancelled');

@@ -1,4 +1,5 @@
 import { describe, expect, it } from 'vitest';
+import { elementAt } from '../checked.js';
 import { calculateSpectrum } from '../optics/batch.js';
 import { constantIndex as c } from '../optics/dispersion.js';
 import { OpticsInputError } from '../optics/errors.js';
@@ -126,7 +127,13 @@ describe('mask merit', () => {
     expect(Array.from(second.R)).toEqual(
       Array.from(
         calculateSpectrum(
-          { ...stack, layers: stack.layers.map((l, i) => ({ ...l, thicknessNm: [90, 45, 20][i] })) },
+          {
+            ...stack,
+            layers: stack.layers.map((l, i) => ({
+              ...l,
+              thicknessNm: elementAt([90, 45, 20], i, 'thicknesses'),
+            })),
+          },
           merit.plan,
         ).R,
       ),

@@ -1,4 +1,5 @@
 import { describe, expect, it } from 'vitest';
+import { elementAt, required } from '../checked.js';
 import { constantIndex as c } from '../optics/dispersion.js';
 import { OpticsInputError } from '../optics/errors.js';
 import { MATERIAL_LIBRARY } from '../optics/library.js';
@@ -20,7 +21,7 @@ const broadbandAr: SpecMask = { bands: [{ from_nm: 420, to_nm: 680, quantity: 'R
 const quarterWaveOnBk7: OpticalStack = {
   incident: c(1),
   layers: [{ material: MGF2, thicknessNm: 550 / (4 * 1.38) }],
-  substrate: MATERIAL_LIBRARY['N-BK7'],
+  substrate: required(MATERIAL_LIBRARY['N-BK7'], 'library material N-BK7'),
   backLayers: [],
   exit: c(1),
 };
@@ -39,11 +40,13 @@ describe('Grow layers', () => {
     expect(check.worstMargin).toBeCloseTo(result.final.worstMargin, 10);
     for (const layer of result.stack.layers) expect(layer.thicknessNm).toBeGreaterThanOrEqual(10);
     // Progression: step 0 is the refined start, merit falls step by step, each step's stack kept.
-    expect(result.steps[0].layerCount).toBe(1);
-    expect(result.steps[0].layers[0].material).toBe('MgF2');
+    const start = elementAt(result.steps, 0, 'steps');
+    expect(start.layerCount).toBe(1);
+    expect(elementAt(start.layers, 0, 'step layers').material).toBe('MgF2');
     for (let i = 1; i < result.steps.length; i++) {
-      expect(result.steps[i].merit).toBeLessThan(result.steps[i - 1].merit);
-      expect(result.steps[i].inserted).toBeDefined();
+      const step = elementAt(result.steps, i, 'steps');
+      expect(step.merit).toBeLessThan(elementAt(result.steps, i - 1, 'steps').merit);
+      expect(step.inserted).toBeDefined();
     }
     expect(result.final).toBe(result.steps[result.steps.length - 1]);
     expect(result.final.layers.map((l) => l.thicknessNm)).toEqual(
@@ -51,10 +54,10 @@ describe('Grow layers', () => {
     );
     const models = new Map(allowed.map((m) => [m.name, m.model]));
     result.final.layers.forEach((l, i) =>
-      expect(result.stack.layers[i].material).toEqual(models.get(l.material)),
+      expect(elementAt(result.stack.layers, i, 'layers').material).toEqual(models.get(l.material)),
     );
     // the stack file of every step can be rebuilt from its plain layers
-    const step1 = result.steps[1];
+    const step1 = elementAt(result.steps, 1, 'steps');
     const rebuilt = {
       ...quarterWaveOnBk7,
       layers: step1.layers.map((l) => ({
@@ -92,7 +95,7 @@ describe('Grow layers', () => {
     // Without the rule the needle method puts MgF2 inside the stack too.
     expect(inner(free)).toContain('MgF2');
     expect(inner(ruled)).not.toContain('MgF2');
-    expect(ruled.final.layers[0].material).toBe('MgF2');
+    expect(elementAt(ruled.final.layers, 0, 'layers').material).toBe('MgF2');
     expect(['SiO2', 'TiO2', 'MgF2']).toContain(ruled.final.layers.at(-1)?.material);
     expect(evaluateMask(broadbandAr, ruled.stack).worstMargin).toBeCloseTo(ruled.final.worstMargin, 10);
     expect(() =>
@@ -109,7 +112,7 @@ describe('Grow layers', () => {
     });
     expect(analytic.final.layers.map((l) => l.material)).toEqual(probed.final.layers.map((l) => l.material));
     analytic.final.layers.forEach((l, i) =>
-      expect(l.thicknessNm).toBeCloseTo(probed.final.layers[i].thicknessNm, 2),
+      expect(l.thicknessNm).toBeCloseTo(elementAt(probed.final.layers, i, 'probed layers').thicknessNm, 2),
     );
   });
 
@@ -120,7 +123,7 @@ describe('Grow layers', () => {
       outermostFixed: true,
       maxLayers: 10,
     });
-    for (const step of result.steps) expect(step.layers[0].material).toBe('MgF2');
+    for (const step of result.steps) expect(elementAt(step.layers, 0, 'step layers').material).toBe('MgF2');
     expect(result.steps.length).toBeGreaterThan(1);
     expect(() =>
       growLayers(quarterWaveOnBk7, broadbandAr, {
@@ -149,7 +152,7 @@ describe('Grow layers', () => {
   it('also grows from a bare substrate', () => {
     const bare = { ...quarterWaveOnBk7, layers: [] };
     const result = growLayers(bare, broadbandAr, { allowedMaterials: allowed, maxLayers: 10 });
-    expect(result.steps[0].layerCount).toBe(0);
+    expect(elementAt(result.steps, 0, 'steps').layerCount).toBe(0);
     expect(result.stoppedBy).toBe('maskMet');
     expect(evaluateMask(broadbandAr, result.stack).pass).toBe(true);
   });
@@ -174,7 +177,7 @@ describe('Grow layers', () => {
       { material: 'A', thicknessNm: 90 },
       { material: 'C', thicknessNm: 30 },
     ]);
-    expect(layers[0].thicknessNm).toBe(50);
+    expect(elementAt(layers, 0, 'layers').thicknessNm).toBe(50);
   });
 
   it('rejects bad input with errors naming the field', () => {
@@ -186,7 +189,7 @@ describe('Grow layers', () => {
       [
         () =>
           growLayers(quarterWaveOnBk7, broadbandAr, {
-            allowedMaterials: [allowed[0], { name: 'MgF2', model: c(1.39) }],
+            allowedMaterials: [elementAt(allowed, 0, 'allowed materials'), { name: 'MgF2', model: c(1.39) }],
           }),
         /^allowedMaterials\[1\]\.name: "MgF2" is listed twice/,
       ],

@@ -1,4 +1,5 @@
 import { describe, expect, it } from 'vitest';
+import { elementAt, required } from '../checked.js';
 import { calculateSpectrum } from '../optics/batch.js';
 import { constantIndex as c } from '../optics/dispersion.js';
 import { OpticsInputError } from '../optics/errors.js';
@@ -22,8 +23,11 @@ const THICKNESSES = [114.4, 19.2, 54.3, 12.8, 184.5];
 const models: Record<string, ReturnType<typeof c>> = { MgF2: c(1.38), TiO2: c(2.35) };
 const design: OpticalStack = {
   incident: c(1),
-  layers: MATERIALS.map((m, i) => ({ material: models[m], thicknessNm: THICKNESSES[i] })),
-  substrate: MATERIAL_LIBRARY['N-BK7'],
+  layers: MATERIALS.map((m, i) => ({
+    material: required(models[m], `model of ${m}`),
+    thicknessNm: elementAt(THICKNESSES, i, 'thicknesses'),
+  })),
+  substrate: required(MATERIAL_LIBRARY['N-BK7'], 'library material N-BK7'),
   backLayers: [],
   exit: c(1),
 };
@@ -46,15 +50,15 @@ describe('Yield forecast', () => {
     }
     // With no error every percentile of the envelope is the nominal spectrum (computed directly).
     const direct = calculateSpectrum(design, maskGrid(mask));
-    const envelope = result.envelopes[0];
+    const envelope = elementAt(result.envelopes, 0, 'envelopes');
     expect(envelope.wavelengthsNm).toHaveLength(53);
     for (const p of envelope.percentiles) {
-      p.values.forEach((v, i) => expect(v).toBeCloseTo(100 * direct.R[i], 12));
+      p.values.forEach((v, i) => expect(v).toBeCloseTo(100 * elementAt(direct.R, i, 'R'), 12));
     }
   });
 
   it('gives 0 % with zero error when the nominal design fails', () => {
-    const strict: SpecMask = { bands: [{ ...mask.bands[0], max_percent: 0.05 }] };
+    const strict: SpecMask = { bands: [{ ...elementAt(mask.bands, 0, 'mask bands'), max_percent: 0.05 }] };
     const result = forecastYield(design, strict, { ...base, thickness: { relativePercent: 0 } });
     expect(result.nominal.pass).toBe(false);
     expect(result.yieldFraction).toBe(0);
@@ -65,7 +69,8 @@ describe('Yield forecast', () => {
       (relativePercent) =>
         forecastYield(design, mask, { ...base, thickness: { relativePercent } }).yieldFraction,
     );
-    for (let i = 1; i < yields.length; i++) expect(yields[i]).toBeLessThan(yields[i - 1]);
+    for (let i = 1; i < yields.length; i++)
+      expect(yields[i]).toBeLessThan(elementAt(yields, i - 1, 'yields'));
     expect(yields[0]).toBeGreaterThan(0.5);
     expect(yields[3]).toBeLessThan(0.3);
   });
@@ -91,7 +96,9 @@ describe('Yield forecast', () => {
     const runner = createYieldRunner(job);
     const parts = [runner.run(237, 400), runYieldTrials(job, 0, 37), runner.run(37, 99), runner.run(99, 237)];
     expect(mergeYieldParts(job, parts)).toEqual(whole);
-    expect(() => mergeYieldParts(job, [parts[1], parts[3]])).toThrow(/^parts: must cover trials from 0/);
+    expect(() => mergeYieldParts(job, [elementAt(parts, 1, 'parts'), elementAt(parts, 3, 'parts')])).toThrow(
+      /^parts: must cover trials from 0/,
+    );
   });
 
   it('applies index and systematic errors per material', () => {
@@ -120,15 +127,14 @@ describe('Yield forecast', () => {
       layerMaterials: [...MATERIALS, 'glass'],
       thickness: { relativePercent: 2 },
     });
-    const last = result.sensitivity[result.sensitivity.length - 1];
+    const sensitivity = (i: number) => elementAt(result.sensitivity, i, 'sensitivity');
+    const last = sensitivity(result.sensitivity.length - 1);
     expect(last.layer).toBe(5);
     expect(last.yieldLossFraction).toBe(0);
     expect(Math.abs(last.marginLossPercent)).toBeLessThan(1e-12);
-    expect(result.sensitivity[0].yieldLossFraction).toBeGreaterThan(0.05);
+    expect(sensitivity(0).yieldLossFraction).toBeGreaterThan(0.05);
     for (let i = 1; i < result.sensitivity.length; i++) {
-      expect(result.sensitivity[i].yieldLossFraction).toBeLessThanOrEqual(
-        result.sensitivity[i - 1].yieldLossFraction,
-      );
+      expect(sensitivity(i).yieldLossFraction).toBeLessThanOrEqual(sensitivity(i - 1).yieldLossFraction);
     }
   });
 
@@ -138,12 +144,15 @@ describe('Yield forecast', () => {
       thickness: { relativePercent: 2 },
       percentiles: [5, 50, 95],
     });
-    const [p5, p50, p95] = result.envelopes[0].percentiles;
+    const percentiles = elementAt(result.envelopes, 0, 'envelopes').percentiles;
+    const p5 = elementAt(percentiles, 0, 'percentiles');
+    const p50 = elementAt(percentiles, 1, 'percentiles');
+    const p95 = elementAt(percentiles, 2, 'percentiles');
     for (let i = 0; i < p5.values.length; i++) {
-      expect(p5.values[i]).toBeLessThanOrEqual(p50.values[i]);
-      expect(p50.values[i]).toBeLessThanOrEqual(p95.values[i]);
+      expect(p5.values[i]).toBeLessThanOrEqual(elementAt(p50.values, i, 'P50 values'));
+      expect(p50.values[i]).toBeLessThanOrEqual(elementAt(p95.values, i, 'P95 values'));
     }
-    expect(p95.values.some((v, i) => v > p5.values[i] + 0.01)).toBe(true);
+    expect(p95.values.some((v, i) => v > elementAt(p5.values, i, 'P5 values') + 0.01)).toBe(true);
     const hist = result.worstMargins.histogram;
     expect(hist.counts.reduce((a, b) => a + b, 0)).toBe(400);
     expect(hist.edges[0]).toBe(result.worstMargins.min);

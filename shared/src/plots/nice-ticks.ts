@@ -1,3 +1,5 @@
+import { elementAt } from '../checked.js';
+
 /** Round axis ticks: the axis ends, the step between ticks and the tick values. */
 export interface NiceTicks {
   /** First tick (≤ the data minimum). */
@@ -43,5 +45,7 @@ export function niceTicks(lo: number, hi: number, count = 5): NiceTicks {
   const ticks: number[] = [];
   // Multiplying integers by the step and rounding to the printed decimals keeps 0.1 + 0.2 noise out.
   for (let i = first; i <= last; i++) ticks.push(Number((i * step).toFixed(decimals)));
-  return { min: ticks[0], max: ticks[ticks.length - 1], step, ticks, decimals };
+  // first ≤ last, so the loop pushed at least one tick.
+  const min = elementAt(ticks, 0, 'the ticks');
+  return { min, max: elementAt(ticks, ticks.length - 1, 'the ticks'), step, ticks, decimals };
 }

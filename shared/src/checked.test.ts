@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { elementAt } from './element-at.js';
+import { elementAt, required } from './checked.js';
 
 describe('elementAt', () => {
   it('returns the element at the index, zero and NaN included', () => {
@@ -12,5 +12,16 @@ describe('elementAt', () => {
       'the fitted thicknesses has no element 2 (it holds 2)',
     );
     expect(() => elementAt([1, 2], -1, 'the fitted thicknesses')).toThrow(/has no element -1/);
+  });
+});
+
+describe('required', () => {
+  it('passes present values through, falsy ones included', () => {
+    expect(required(0, 'zero')).toBe(0);
+    expect(required('', 'an empty name')).toBe('');
+    expect(required(null, 'a null')).toBeNull();
+  });
+  it('names what is missing', () => {
+    expect(() => required(undefined, 'the demo customer')).toThrow('the demo customer is missing');
   });
 });
