@@ -89,7 +89,9 @@ const render = (sheet: RunSheetView, logo: Buffer | null = null) =>
 
 const isNumber = (w: WordBox) => /^-?\d+(\.\d+)?$/.test(w.text);
 
-describe('run sheet PDF, read back with poppler-utils', () => {
+// Each test renders whole PDFs and rasterises them with pdftoppm, which takes seconds on a busy
+// machine: a minute per test rather than vitest's 5 s default.
+describe('run sheet PDF, read back with poppler-utils', { timeout: 60_000 }, () => {
   it('names the job: shop, part, quantity, substrate and thickness, sides, chamber, λ', async () => {
     const [first] = pageTexts(await render(sheetOf(FOUR)));
     expect(first).toContain('Larkspur Thin Film Works');

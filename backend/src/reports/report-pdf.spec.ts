@@ -113,7 +113,9 @@ function yTickColumns(words: WordBox[]): number[][] {
   return columns.map((c) => c.map((w) => Number(w.text)).reverse());
 }
 
-describe('compliance report PDF, read back with poppler-utils', () => {
+// Each test renders whole PDFs and rasterises them with pdftoppm, which takes seconds on a busy
+// machine: a minute per test rather than vitest's 5 s default.
+describe('compliance report PDF, read back with poppler-utils', { timeout: 60_000 }, () => {
   it('prints ≤ ≥ ± ° and the en dash verbatim, which the standard PDF fonts cannot', async () => {
     const text = pageTexts(await renderReportPdf(sampleReport())).join('\n');
     expect(text).toContain('R ≤ 0.6 % over 450–650 nm');
