@@ -330,12 +330,16 @@ describe('the audit trail', () => {
       .send({ email, displayName: 'Audited Person', role: 'operator', password: 'long-enough-password' });
     expect(user.status).toBe(201);
     const id = user.body.id as number;
-    expect((await http().patch(`/api/users/${id}`).set('Cookie', admin).send({ role: 'sales' })).status).toBe(
-      200,
-    );
-    expect((await http().patch(`/api/users/${id}`).set('Cookie', admin).send({ active: false })).status).toBe(
-      200,
-    );
+    const toSales = await http()
+      .patch(`/api/users/${id}`)
+      .set('Cookie', admin)
+      .send({ role: 'sales', version: user.body.version });
+    expect(toSales.status).toBe(200);
+    const off = await http()
+      .patch(`/api/users/${id}`)
+      .set('Cookie', admin)
+      .send({ active: false, version: toSales.body.version });
+    expect(off.status).toBe(200);
     expect(
       (
         await http()

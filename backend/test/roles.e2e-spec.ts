@@ -31,6 +31,7 @@ interface RouteRule {
 
 interface MatrixContext {
   targetUserId: number;
+  targetUserVersion: number;
   materialId: number;
   materialVersion: number;
   customerId: number;
@@ -172,7 +173,10 @@ const RULES: RouteRule[] = [
     allow: ['admin'],
     okStatus: 200,
     url: (ctx) => `/api/users/${ctx.targetUserId}`,
-    body: () => ({ displayName: 'Matrix Target Renamed' }),
+    body: (ctx) => ({ displayName: 'Matrix Target Renamed', version: ctx.targetUserVersion }),
+    after: (ctx, body) => {
+      ctx.targetUserVersion = body.version ?? ctx.targetUserVersion;
+    },
   },
   {
     method: 'post',
@@ -833,6 +837,7 @@ let app: NestExpressApplication;
 const cookies = {} as Record<Role, string>;
 const ctx: MatrixContext = {
   targetUserId: 0,
+  targetUserVersion: 1,
   materialId: 0,
   materialVersion: 0,
   customerId: 0,
@@ -895,6 +900,7 @@ beforeAll(async () => {
     password: 'long-enough-password',
   });
   ctx.targetUserId = target.body.id;
+  ctx.targetUserVersion = target.body.version;
   const material = await request(app.getHttpServer())
     .post('/api/materials')
     .set('Cookie', adminCookie)

@@ -8,7 +8,13 @@ import { afterAll, afterEach, beforeAll, beforeEach, describe, expect, it } from
 import { CSRF_HEADER } from '@quietglass/shared';
 import { loadConfig } from '../src/config/configuration.js';
 import { SmtpFakeService } from '../src/mail/smtp-fake.service.js';
-import { createTestApp, demoSession, sessionCookie, sessionWithOwnPassword } from './support/app.js';
+import {
+  createTestApp,
+  demoSession,
+  sessionCookie,
+  sessionWithOwnPassword,
+  userVersion,
+} from './support/app.js';
 import { demoSignIn } from './support/env.js';
 import { rawRequest } from './support/request.js';
 
@@ -105,14 +111,27 @@ describe('sessions end on the server', () => {
 
   it('a deactivated then reactivated account does not get its old session back', async () => {
     const user = await readyUser();
-    await http().patch(`/api/users/${user.id}`).set('Cookie', admin).send({ active: false }).expect(200);
-    await http().patch(`/api/users/${user.id}`).set('Cookie', admin).send({ active: true }).expect(200);
+    const version = await userVersion(app, admin, user.id);
+    const off = await http()
+      .patch(`/api/users/${user.id}`)
+      .set('Cookie', admin)
+      .send({ active: false, version })
+      .expect(200);
+    await http()
+      .patch(`/api/users/${user.id}`)
+      .set('Cookie', admin)
+      .send({ active: true, version: off.body.version })
+      .expect(200);
     expect((await me(user.cookie)).status).toBe(401);
   });
 
   it('a role change ends the sessions that carried the old role', async () => {
     const user = await readyUser('sales');
-    await http().patch(`/api/users/${user.id}`).set('Cookie', admin).send({ role: 'engineer' }).expect(200);
+    await http()
+      .patch(`/api/users/${user.id}`)
+      .set('Cookie', admin)
+      .send({ role: 'engineer', version: await userVersion(app, admin, user.id) })
+      .expect(200);
     expect((await me(user.cookie)).status).toBe(401);
   });
 
@@ -378,13 +397,13 @@ describe('input hygiene', () => {
     const res = await http()
       .patch('/api/users/2147483648')
       .set('Cookie', admin)
-      .send({ displayName: 'Nobody' });
+      .send({ displayName: 'Nobody', version: 1 });
     expect(res.status).toBe(400);
     expect(res.body.message).toBe('id 2147483648 is out of range (at most 2147483647)');
     const fine = await http()
       .patch('/api/users/2147483647')
       .set('Cookie', admin)
-      .send({ displayName: 'Nobody' });
+      .send({ displayName: 'Nobody', version: 1 });
     expect(fine.status).toBe(404);
   });
 

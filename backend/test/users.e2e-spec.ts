@@ -2,7 +2,13 @@ import type { NestExpressApplication } from '@nestjs/platform-express';
 import request from 'supertest';
 import { DataSource } from 'typeorm';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { createTestApp, demoSession, sessionCookie, sessionWithOwnPassword } from './support/app.js';
+import {
+  createTestApp,
+  demoSession,
+  sessionCookie,
+  sessionWithOwnPassword,
+  userVersion,
+} from './support/app.js';
 import { demoSignIn } from './support/env.js';
 
 let app: NestExpressApplication;
@@ -87,7 +93,7 @@ describe('users (admin)', () => {
     const patched = await http()
       .patch(`/api/users/${created.body.id}`)
       .set('Cookie', admin)
-      .send({ role: 'admin' });
+      .send({ role: 'admin', version: created.body.version });
     expect(patched.status).toBe(200);
     expect(patched.body.role).toBe('admin');
     expect((await http().get('/api/auth/me').set('Cookie', cookie)).status).toBe(401);
@@ -106,7 +112,7 @@ describe('users (admin)', () => {
     const off = await http()
       .patch(`/api/users/${created.body.id}`)
       .set('Cookie', admin)
-      .send({ active: false });
+      .send({ active: false, version: created.body.version });
     expect(off.status).toBe(200);
     expect(off.body.active).toBe(false);
     expect((await http().get('/api/auth/me').set('Cookie', cookie)).status).toBe(401);
@@ -126,12 +132,65 @@ describe('users (admin)', () => {
 
   it('an admin cannot demote or deactivate themselves', async () => {
     const me = (await http().get('/api/auth/me').set('Cookie', admin)).body.user;
-    const demote = await http().patch(`/api/users/${me.id}`).set('Cookie', admin).send({ role: 'sales' });
+    const version = await userVersion(app, admin, me.id);
+    const demote = await http()
+      .patch(`/api/users/${me.id}`)
+      .set('Cookie', admin)
+      .send({ role: 'sales', version });
     expect(demote.status).toBe(409);
-    const off = await http().patch(`/api/users/${me.id}`).set('Cookie', admin).send({ active: false });
+    expect(demote.body.message).toBe('You cannot change your own role; ask another admin');
+    const off = await http()
+      .patch(`/api/users/${me.id}`)
+      .set('Cookie', admin)
+      .send({ active: false, version });
     expect(off.status).toBe(409);
+    expect(off.body.message).toBe('You cannot deactivate yourself; ask another admin');
     const still = await http().get('/api/auth/me').set('Cookie', admin);
     expect(still.body.user).toMatchObject({ role: 'admin', active: true });
+  });
+
+  it('an edit carries the version it was based on: a stale one (e.g. a late Undo) is refused and changes nothing', async () => {
+    const created = await http().post('/api/users').set('Cookie', admin).send({
+      email: 'versioned@larkspur.example',
+      displayName: 'Vera Sion',
+      role: 'sales',
+      password: 'a-long-password',
+    });
+    expect(created.body.version).toBe(1);
+    const url = `/api/users/${created.body.id}`;
+    const noVersion = await http().patch(url).set('Cookie', admin).send({ role: 'engineer' });
+    expect(noVersion.status).toBe(400);
+    expect(noVersion.body.message).toBe(
+      'Invalid input: version: version must be the version number last read',
+    );
+    // Admin 1 makes the user an engineer; admin 2, who read the same version, renames them.
+    const first = await http().patch(url).set('Cookie', admin).send({ role: 'engineer', version: 1 });
+    expect(first.status).toBe(200);
+    expect(first.body).toMatchObject({ role: 'engineer', version: 2 });
+    const stale = await http().patch(url).set('Cookie', admin).send({ displayName: 'Vera Late', version: 1 });
+    expect(stale.status).toBe(409);
+    expect(stale.body.message).toBe(
+      'Vera Sion was changed by someone else (now version 2); reload the page and apply your change again',
+    );
+    // Someone renames the account; Undo of the role change, still holding version 2, is refused.
+    const renamed = await http()
+      .patch(url)
+      .set('Cookie', admin)
+      .send({ displayName: 'Vera Sionne', version: 2 });
+    expect(renamed.body.version).toBe(3);
+    const undo = await http().patch(url).set('Cookie', admin).send({ role: 'sales', version: 2 });
+    expect(undo.status).toBe(409);
+    const now = (await http().get('/api/users').set('Cookie', admin)).body.find(
+      (u: { id: number }) => u.id === created.body.id,
+    );
+    expect(now).toMatchObject({ role: 'engineer', displayName: 'Vera Sionne', version: 3 });
+    // Concurrent edits from one version: exactly one applies.
+    const racing = await Promise.all(
+      ['Vera A', 'Vera B', 'Vera C'].map((displayName) =>
+        http().patch(url).set('Cookie', admin).send({ displayName, version: 3 }),
+      ),
+    );
+    expect(racing.map((r) => r.status).sort()).toEqual([200, 409, 409]);
   });
 
   it('two admins demoting each other at once: one wins, the other is refused, an active admin remains', async () => {
@@ -153,9 +212,19 @@ describe('users (admin)', () => {
         });
       }
       const [a, b] = made;
+      const [versionA, versionB] = [
+        await userVersion(app, admin, a!.id),
+        await userVersion(app, admin, b!.id),
+      ];
       const [byA, byB] = await Promise.all([
-        http().patch(`/api/users/${b!.id}`).set('Cookie', a!.cookie).send({ role: 'engineer' }),
-        http().patch(`/api/users/${a!.id}`).set('Cookie', b!.cookie).send({ role: 'engineer' }),
+        http()
+          .patch(`/api/users/${b!.id}`)
+          .set('Cookie', a!.cookie)
+          .send({ role: 'engineer', version: versionB }),
+        http()
+          .patch(`/api/users/${a!.id}`)
+          .set('Cookie', b!.cookie)
+          .send({ role: 'engineer', version: versionA }),
       ]);
       // The loser's session ended with its role change (401) or its actor had just lost the role (403).
       expect([byA.status, byB.status].filter((s) => s === 200)).toHaveLength(1);
@@ -185,7 +254,7 @@ describe('users (admin)', () => {
     const missing = await http()
       .patch('/api/users/999999')
       .set('Cookie', admin)
-      .send({ displayName: 'Ghost' });
+      .send({ displayName: 'Ghost', version: 1 });
     expect(missing.status).toBe(404);
     expect(missing.body.message).toBe('User 999999 does not exist');
     const bad = await http().patch('/api/users/abc').set('Cookie', admin).send({ displayName: 'Ghost' });

@@ -17,6 +17,8 @@ export interface UserView {
   /** The password was set by an admin: the user must choose their own before anything else. */
   mustChangePassword: boolean;
   createdAt: string;
+  /** Counts the account's changes; an edit sends back the one it was based on. */
+  version: number;
 }
 
 /** Sections of the app shell, and which roles may open each. The API enforces the same rules. */

@@ -111,7 +111,7 @@ describe('user administration', () => {
 
     const api = await apiSession(admin);
     const me = (await apiJson<UserView[]>(api, 'get', '/api/users')).find((u) => u.email === admin.email)!;
-    const refused = await api.patch(`/api/users/${me.id}`, { data: { active: false } });
+    const refused = await api.patch(`/api/users/${me.id}`, { data: { active: false, version: me.version } });
     expect(refused.status()).toBe(409);
     expect(((await refused.json()) as { message: string }).message).toBe(
       'You cannot deactivate yourself; ask another admin',

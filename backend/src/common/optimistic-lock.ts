@@ -18,7 +18,8 @@ export interface LockedChange<T extends ObjectLiteral> {
  * after waiting for a concurrent writer, so of two edits started from the same version exactly one
  * wins; the other affects no row and gets the error `conflict()` builds (usually a 409 that says who
  * changed what). Returns the new version. Every editable record saves through this; there is no
- * separate check-then-save anywhere.
+ * separate check-then-save anywhere, except on user accounts, whose edit compares the version while
+ * it holds the row lock that the last-admin rule takes anyway.
  */
 export async function updateIfVersion<T extends ObjectLiteral>(
   manager: EntityManager,

@@ -38,6 +38,7 @@ import { MaterialProvenanceFiles1764820000000 } from '../migrations/176482000000
 import { ChamberCalibration1764840000000 } from '../migrations/1764840000000-chamber-calibration.js';
 import { ShopTargetMargin1764910000000 } from '../migrations/1764910000000-shop-target-margin.js';
 import { RunToolingFactors1764920000000 } from '../migrations/1764920000000-run-tooling-factors.js';
+import { UserVersion1764930000000 } from '../migrations/1764930000000-user-version.js';
 import { ChamberProcessShopSettings1764830000000 } from '../migrations/1764830000000-chamber-process-shop-settings.js';
 
 /** Every entity of the app; each domain module also registers its own with forFeature. */
@@ -88,6 +89,7 @@ export const MIGRATIONS = [
   ChamberCalibration1764840000000,
   ShopTargetMargin1764910000000,
   RunToolingFactors1764920000000,
+  UserVersion1764930000000,
 ];
 
 /** TypeORM options for PostgreSQL; never `synchronize` — the schema comes from migrations. */

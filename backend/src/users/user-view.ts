@@ -11,5 +11,6 @@ export function toUserView(user: User): UserView {
     active: user.active,
     mustChangePassword: user.mustChangePassword,
     createdAt: user.createdAt.toISOString(),
+    version: user.version,
   };
 }

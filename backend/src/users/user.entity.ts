@@ -1,4 +1,11 @@
-import { Column, CreateDateColumn, Entity, PrimaryGeneratedColumn, UpdateDateColumn } from 'typeorm';
+import {
+  Column,
+  CreateDateColumn,
+  Entity,
+  PrimaryGeneratedColumn,
+  UpdateDateColumn,
+  VersionColumn,
+} from 'typeorm';
 import type { Role } from '@quietglass/shared';
 
 @Entity({ name: 'users' })
@@ -31,4 +38,8 @@ export class User {
 
   @UpdateDateColumn({ name: 'updated_at', type: 'timestamptz' })
   updatedAt: Date;
+
+  /** Counts the account's changes; an admin's edit carries the one it was based on. */
+  @VersionColumn()
+  version: number;
 }

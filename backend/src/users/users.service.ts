@@ -83,6 +83,11 @@ export class UsersService {
       const user = await tx
         .getRepository(User)
         .findOneOrFail({ where: { id }, lock: { mode: 'pessimistic_write' } });
+      // The row is locked until the commit, so this check and the save below cannot be overtaken.
+      if (user.version !== dto.version)
+        throw new ConflictException(
+          `${user.displayName} was changed by someone else (now version ${user.version}); reload the page and apply your change again`,
+        );
       const before = { displayName: user.displayName, role: user.role, active: user.active };
       if (id === actorId && dto.role !== undefined && dto.role !== user.role) {
         throw new ConflictException('You cannot change your own role; ask another admin');

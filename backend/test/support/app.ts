@@ -78,3 +78,11 @@ export async function sessionWithOwnPassword(
   if (res.status !== 204) throw new Error(`own password for ${email} gave ${res.status}`);
   return cookie;
 }
+
+/** The account's current version as the admin's user list shows it (an edit sends it back). */
+export async function userVersion(app: INestApplication, adminCookie: string, id: number): Promise<number> {
+  const res = await request(app.getHttpServer()).get('/api/users').set('Cookie', adminCookie);
+  const user = (res.body as { id: number; version: number }[]).find((u) => u.id === id);
+  if (!user) throw new Error(`user ${id} is not in the list (${res.status})`);
+  return user.version;
+}

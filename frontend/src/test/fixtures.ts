@@ -10,6 +10,7 @@ export const STAFF: Record<Role, UserView> = {
     active: true,
     mustChangePassword: false,
     createdAt: '2026-11-02T08:15:00.000Z',
+    version: 1,
   },
   engineer: {
     id: 2,
@@ -19,6 +20,7 @@ export const STAFF: Record<Role, UserView> = {
     active: true,
     mustChangePassword: false,
     createdAt: '2026-11-03T09:30:00.000Z',
+    version: 1,
   },
   sales: {
     id: 3,
@@ -28,6 +30,7 @@ export const STAFF: Record<Role, UserView> = {
     active: true,
     mustChangePassword: false,
     createdAt: '2026-11-04T10:45:00.000Z',
+    version: 1,
   },
   operator: {
     id: 4,
@@ -37,6 +40,7 @@ export const STAFF: Record<Role, UserView> = {
     active: false,
     mustChangePassword: false,
     createdAt: '2026-11-05T11:00:00.000Z',
+    version: 1,
   },
 };
 

@@ -52,7 +52,16 @@ describe('account schemas', () => {
     expect(lines(changePasswordSchema, { currentPassword: 'old', newPassword: 'short' })).toEqual([
       'newPassword: At least 10 characters',
     ]);
-    expect(updateUserSchema.parse({ active: false })).toEqual({ active: false });
-    expect(lines(updateUserSchema, { active: 'no' })).toEqual(['active: active must be true or false']);
+    expect(updateUserSchema.parse({ active: false, version: 3 })).toEqual({ active: false, version: 3 });
+    expect(lines(updateUserSchema, { active: 'no', version: 3 })).toEqual([
+      'active: active must be true or false',
+    ]);
+    // The version the admin saw is required, so a change never overwrites a newer one.
+    expect(lines(updateUserSchema, { role: 'sales' })).toEqual([
+      'version: version must be the version number last read',
+    ]);
+    expect(lines(updateUserSchema, { role: 'sales', version: 0 })).toEqual([
+      'version: version must be at least 1',
+    ]);
   });
 });

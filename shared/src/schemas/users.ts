@@ -4,6 +4,7 @@
  */
 import { z } from 'zod';
 import { ROLES } from '../roles.js';
+import { versionToken } from './common.js';
 
 export const MIN_PASSWORD_LENGTH = 10;
 export const MAX_PASSWORD_LENGTH = 200;
@@ -65,10 +66,14 @@ export const createUserSchema = z.strictObject({
 });
 export type CreateUserInput = z.output<typeof createUserSchema>;
 
-/** Any of a user's name, role and active flag; what is left out stays. */
+/**
+ * Any of a user's name, role and active flag (what is left out stays), with the version of the
+ * account the admin saw, so a change (or an Undo) never overwrites another admin's newer one.
+ */
 export const updateUserSchema = z.strictObject({
   displayName: displayNameField.optional(),
   role: roleField.optional(),
   active: z.boolean({ error: 'active must be true or false' }).optional(),
+  version: versionToken,
 });
 export type UpdateUserInput = z.output<typeof updateUserSchema>;

@@ -15,6 +15,7 @@ const PETRA = {
   active: true,
   mustChangePassword: false,
   createdAt: '2026-12-01T07:00:00.000Z',
+  version: 1,
 };
 
 describe('users page', () => {

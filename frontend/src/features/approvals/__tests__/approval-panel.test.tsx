@@ -18,6 +18,7 @@ const MIRA: UserView = {
   active: true,
   mustChangePassword: false,
   createdAt: '2026-11-01T08:00:00.000Z',
+  version: 1,
 };
 const TOMAS: UserView = { ...MIRA, id: 3, email: 'tomas@example.test', displayName: 'Tomas Reyes' };
 const ADMIN: UserView = {

@@ -43,6 +43,7 @@ const REVIEWER = {
   active: true,
   mustChangePassword: false,
   createdAt: '2026-11-01T08:00:00.000Z',
+  version: 1,
 };
 
 /** The workspace's answers plus an empty audit trail (the page's approval panel reads it). */

@@ -19,6 +19,7 @@ const NEW_USER = {
   active: true,
   mustChangePassword: false,
   createdAt: '2026-12-01T07:00:00.000Z',
+  version: 1,
 };
 
 /** The dialog as a page holds it: open until it asks to close. */

@@ -8,8 +8,9 @@ import { renderWithProviders } from '../../../test/render';
 import { UsersGrid } from '../components/users-grid';
 
 // Answers and bodies: the users endpoints of the Foundation issue's API contract
-// (GET /api/users → UserView[]; PATCH /api/users/:id with any of displayName, role, active;
-// 409 with a message when an administrator changes their own account).
+// (GET /api/users → UserView[]; PATCH /api/users/:id with any of displayName, role, active and the
+// version the admin saw; 409 with a message when an administrator changes their own account or the
+// account changed since).
 
 const ALL = [STAFF.admin, STAFF.engineer, STAFF.sales, STAFF.operator];
 
@@ -19,13 +20,20 @@ function rowOf(email: string): HTMLElement {
   return row;
 }
 
-/** The API as a tiny store: PATCH /api/users/:id applies its body, later GETs list the result. */
+/**
+ * The API as a tiny store: PATCH /api/users/:id applies its body at the current version and counts
+ * the version up (409 for a stale one); later GETs list the result.
+ */
 function mockAccounts(id: number) {
   let rows = ALL;
   return mockApi({
     'GET /api/users': () => ({ status: 200, body: rows }),
     [`PATCH /api/users/${id}`]: (request) => {
-      rows = rows.map((u) => (u.id === id ? { ...u, ...(request.body as Partial<UserView>) } : u));
+      const body = request.body as Partial<UserView>;
+      const now = rows.find((u) => u.id === id);
+      if (!now || body.version !== now.version)
+        return apiError(409, 'Conflict', `changed by someone else (now version ${now?.version})`);
+      rows = rows.map((u) => (u.id === id ? { ...u, ...body, version: now.version + 1 } : u));
       return { status: 200, body: rows.find((u) => u.id === id) };
     },
   });
@@ -107,7 +115,7 @@ describe('UsersGrid', () => {
       within(notice).getByText(`${STAFF.engineer.displayName} is now Sales; their sessions have ended.`),
     ).toBeTruthy();
     expect(within(notice).getByRole('button', { name: 'Undo' })).toBeTruthy();
-    expect(api.calls('PATCH', '/api/users/2').map((r) => r.body)).toEqual([{ role: 'sales' }]);
+    expect(api.calls('PATCH', '/api/users/2').map((r) => r.body)).toEqual([{ role: 'sales', version: 1 }]);
     await waitFor(() => expect(api.calls('GET', '/api/users')).toHaveLength(2));
     expect((select as HTMLSelectElement).value).toBe('sales');
     expect(api.unexpected).toEqual([]);
@@ -146,9 +154,10 @@ describe('UsersGrid', () => {
     expect(
       within(undone.closest('[role="alert"]') as HTMLElement).queryByRole('button', { name: 'Undo' }),
     ).toBeNull();
+    // The Undo is based on the version the change left (1 → 2), so it applies.
     expect(api.calls('PATCH', '/api/users/2').map((r) => r.body)).toEqual([
-      { role: 'operator' },
-      { role: 'engineer' },
+      { role: 'operator', version: 1 },
+      { role: 'engineer', version: 2 },
     ]);
     await waitFor(() => expect((select as HTMLSelectElement).value).toBe('engineer'));
     expect(screen.queryByRole('dialog')).toBeNull();
@@ -171,8 +180,8 @@ describe('UsersGrid', () => {
 
     expect(await screen.findByText(`${STAFF.sales.displayName} can sign in again.`)).toBeTruthy();
     expect(api.calls('PATCH', '/api/users/3').map((r) => r.body)).toEqual([
-      { active: false },
-      { active: true },
+      { active: false, version: 1 },
+      { active: true, version: 2 },
     ]);
     await waitFor(() => expect((toggle as HTMLInputElement).checked).toBe(true));
   });
@@ -184,8 +193,12 @@ describe('UsersGrid', () => {
         { status: 200, body: ALL.map((u) => (u.id === 2 ? { ...u, role: 'sales' } : u)) },
       ],
       'PATCH /api/users/2': [
-        { status: 200, body: { ...STAFF.engineer, role: 'sales' } },
-        apiError(404, 'Not Found', 'User 2 does not exist'),
+        { status: 200, body: { ...STAFF.engineer, role: 'sales', version: 2 } },
+        apiError(
+          409,
+          'Conflict',
+          `${STAFF.engineer.displayName} was changed by someone else (now version 3); reload the page and apply your change again`,
+        ),
       ],
     });
     const { user } = renderWithProviders(<UsersGrid currentUserId={STAFF.admin.id} />);
@@ -195,10 +208,14 @@ describe('UsersGrid', () => {
     await confirmIn(user, `Change ${STAFF.engineer.displayName}'s role to Sales?`, 'Make Sales');
     await user.click(within(await screen.findByRole('alert')).getByRole('button', { name: 'Undo' }));
 
-    expect(await screen.findByText('User 2 does not exist')).toBeTruthy();
+    expect(
+      await screen.findByText(
+        `${STAFF.engineer.displayName} was changed by someone else (now version 3); reload the page and apply your change again`,
+      ),
+    ).toBeTruthy();
     expect(api.calls('PATCH', '/api/users/2').map((r) => r.body)).toEqual([
-      { role: 'sales' },
-      { role: 'engineer' },
+      { role: 'sales', version: 1 },
+      { role: 'engineer', version: 2 },
     ]);
     await waitFor(() => expect((select as HTMLSelectElement).value).toBe('sales'));
   });
@@ -232,7 +249,7 @@ describe('UsersGrid', () => {
     expect((await screen.findByRole('alert')).textContent).toBe(
       'At least one active administrator must remain.',
     );
-    expect(api.calls('PATCH', '/api/users/3').map((r) => r.body)).toEqual([{ active: false }]);
+    expect(api.calls('PATCH', '/api/users/3').map((r) => r.body)).toEqual([{ active: false, version: 1 }]);
     await waitFor(() =>
       expect(
         (screen.getByRole('switch', { name: `Active: ${STAFF.sales.email}` }) as HTMLInputElement).checked,

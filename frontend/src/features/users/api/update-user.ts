@@ -1,13 +1,9 @@
 import { useMutation, useQueryClient } from '@tanstack/react-query';
-import type { Role, UserView } from '@quietglass/shared';
+import type { UpdateUserInput as UserChanges, UserView } from '@quietglass/shared';
 import { apiClient } from '../../../lib/api-client';
 import { getUsersQueryOptions } from './get-users';
 
-export interface UserChanges {
-  displayName?: string;
-  role?: Role;
-  active?: boolean;
-}
+export type { UserChanges };
 
 export interface UpdateUserInput {
   id: number;
@@ -19,7 +15,8 @@ export function updateUser({ id, changes }: UpdateUserInput): Promise<UserView> 
 }
 
 /**
- * Changes name, role or active flag. The list shows the change at once and falls back to the
+ * Changes name, role or active flag of the account at the version the admin saw (409 if another
+ * admin changed it since). The list shows the change at once and falls back to the
  * server's data if it is refused (the refusal, e.g. a 409 for your own account, goes to the snackbar).
  */
 export function useUpdateUser() {

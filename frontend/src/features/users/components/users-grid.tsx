@@ -47,16 +47,20 @@ function confirmText(change: PendingChange): { title: string; body: string; labe
       };
 }
 
-/** The request body that applies a change. */
+/** The request body that applies a change to the account as the admin saw it. */
 function changesOf(change: PendingChange): UserChanges {
-  return change.kind === 'role' ? { role: change.role } : { active: change.active };
+  const { version } = change.user;
+  return change.kind === 'role' ? { role: change.role, version } : { active: change.active, version };
 }
 
-/** The change that puts the account back as it was before `change`. */
-function reverseOf(change: PendingChange): PendingChange {
+/**
+ * The change that puts the account back as it was before `change`, based on the account as that
+ * change left it: if another admin changed it since, the Undo is refused instead of overwriting.
+ */
+function reverseOf(change: PendingChange, saved: UserView): PendingChange {
   return change.kind === 'role'
-    ? { user: { ...change.user, role: change.role }, kind: 'role', role: change.user.role }
-    : { user: { ...change.user, active: change.active }, kind: 'active', active: !change.active };
+    ? { user: saved, kind: 'role', role: change.user.role }
+    : { user: saved, kind: 'active', active: !change.active };
 }
 
 interface UsersGridProps {
@@ -148,13 +152,13 @@ export function UsersGrid({ currentUserId }: UsersGridProps) {
     mutate(
       { id: change.user.id, changes: changesOf(change) },
       {
-        onSuccess: () =>
+        onSuccess: (saved) =>
           notify(confirmText(change).done, 'success', {
             label: 'Undo',
             // The reverse goes through the same PATCH, so it is checked and audited like any change;
             // mutateAsync reports it even if the admin has left the page meanwhile.
             onAction: () => {
-              const undo = reverseOf(change);
+              const undo = reverseOf(change, saved);
               mutateAsync({ id: undo.user.id, changes: changesOf(undo) }).then(
                 () => notify(confirmText(undo).done, 'success'),
                 () => undefined, // the refusal is already on the snackbar
