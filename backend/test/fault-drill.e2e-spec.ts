@@ -171,6 +171,16 @@ describe('fault drill under the npm start supervisor', () => {
       { timeout: 60_000, interval: 100 },
     );
     const [killed] = pidsOf('worker').slice(-1);
+    // The worker's main thread and the threads it started (the running job's compute threads) run
+    // at a lower CPU priority than the API, so the job cannot starve light requests of the CPU.
+    // (Linux /proc/<pid>/task/<tid>/stat, field 19 is the niceness; Node's own helper threads start
+    // before the worker lowers its priority and keep theirs.)
+    const niceness = (pid: number, tid: number | string) =>
+      Number(fs.readFileSync(`/proc/${pid}/task/${tid}/stat`, 'utf8').split(') ')[1]!.split(' ')[16]);
+    const apiPid = pidsOf('api').at(-1)!;
+    expect(niceness(killed!, killed!)).toBe(Math.max(10, niceness(apiPid, apiPid)));
+    const lowered = fs.readdirSync(`/proc/${killed!}/task`).filter((tid) => niceness(killed!, tid) >= 10);
+    expect(lowered.length).toBeGreaterThanOrEqual(2);
     const mark = output.length;
     process.kill(killed!, 'SIGKILL');
     // The API answers while the worker is down.
