@@ -22,6 +22,7 @@ export * from './revisions.js';
 export * from './materials.js';
 export * from './customers.js';
 export * from './stack-file.js';
+export * from './checked.js';
 
 // Optics engine (browser-safe; Node-only helpers live under @quietglass/shared/node/parallel).
 export * from './optics/errors.js';

@@ -3,11 +3,10 @@
  * values a benchmark needs to exist (a demo customer, a material, a command-line word).
  */
 
-/** The value, or an error naming what was missing. */
-export function required<T>(value: T | undefined, what: string): T {
-  if (value === undefined) throw new Error(`${what} is missing`);
-  return value;
-}
+import { required } from '@quietglass/shared';
+
+/** The value, or an error naming what was missing (the shared package's checked lookup). */
+export { required };
 
 /** The p-th percentile (nearest rank) of samples sorted ascending. */
 export function percentile(sorted: readonly number[], p: number): number {
