@@ -127,7 +127,7 @@ export async function apiRequest<T>(path: string, options: ApiRequestOptions = {
   }
 
   const error = toApiError(response.status, parsed.ok ? parsed.value : undefined);
-  const routePath = path.split('?')[0];
+  const routePath = path.split('?')[0] ?? path;
   if (response.status === 401 && !SESSION_CHECK_PATHS.has(routePath)) unauthorizedHandler?.();
   throw error;
 }

@@ -3,7 +3,7 @@
  * categorical palette paired with dash styles, axes without SI prefixes, and the CSV export of
  * what a plot shows.
  */
-import { niceTicks } from '@quietglass/shared';
+import { elementAt, niceTicks } from '@quietglass/shared';
 import type { Data, Layout, LayoutAxis } from 'plotly.js-dist-min';
 
 /**
@@ -127,9 +127,14 @@ export function plotCsv(data: readonly Data[], layout?: Partial<Layout>): string
     const fy = formatter(yTitle);
     const fz = formatter(zTitle);
     const rows = [[xTitle, yTitle, zTitle].map(csvCell).join(',')];
-    for (let j = 0; j < heat.y.length; j++)
+    for (let j = 0; j < heat.y.length; j++) {
+      const y = fy(elementAt(heat.y, j, 'the heat map y values'));
+      const z = elementAt(heat.z, j, 'the heat map rows');
       for (let i = 0; i < heat.x.length; i++)
-        rows.push(`${fx(heat.x[i])},${fy(heat.y[j])},${fz(heat.z[j][i])}`);
+        rows.push(
+          `${fx(elementAt(heat.x, i, 'the heat map x values'))},${y},${fz(elementAt(z, i, 'a heat map row'))}`,
+        );
+    }
     return `${rows.join('\n')}\n`;
   }
   const series = data.filter((d) => {
@@ -145,12 +150,12 @@ export function plotCsv(data: readonly Data[], layout?: Partial<Layout>): string
   for (const s of series) {
     const key = s.yaxis && s.yaxis !== 'y' ? `yaxis${s.yaxis.slice(1)}` : 'yaxis';
     const col = yKeys.indexOf(key);
-    const fy = formatter(yTitles[col]);
+    const fy = formatter(elementAt(yTitles, col, 'the y axis titles'));
     for (let i = 0; i < s.x.length; i++) {
       const y = s.y[i];
       if (typeof y !== 'number' || !Number.isFinite(y)) continue;
       const cells = yTitles.map((_t, c) => (c === col ? fy(y) : ''));
-      rows.push([csvCell(s.name), fx(s.x[i]), ...cells].join(','));
+      rows.push([csvCell(s.name), fx(elementAt(s.x, i, 'the x values')), ...cells].join(','));
     }
   }
   return `${rows.join('\n')}\n`;

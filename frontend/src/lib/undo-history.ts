@@ -1,3 +1,4 @@
+import { elementAt } from '@quietglass/shared';
 import { useCallback, useState } from 'react';
 
 /** Most steps kept for undo. */
@@ -23,7 +24,7 @@ export function undoHistory<T>(history: History<T>): History<T> {
   if (history.past.length === 0) return history;
   return {
     past: history.past.slice(0, -1),
-    present: history.past[history.past.length - 1],
+    present: elementAt(history.past, history.past.length - 1, 'the undo steps'),
     future: [history.present, ...history.future],
   };
 }
@@ -32,7 +33,7 @@ export function redoHistory<T>(history: History<T>): History<T> {
   if (history.future.length === 0) return history;
   return {
     past: [...history.past, history.present],
-    present: history.future[0],
+    present: elementAt(history.future, 0, 'the redo steps'),
     future: history.future.slice(1),
   };
 }

@@ -1,3 +1,4 @@
+import { elementAt } from '@quietglass/shared';
 import { vi } from 'vitest';
 
 export interface MockResponse {
@@ -55,7 +56,7 @@ export function mockApi(handlers: Record<string, Handler | Handler[]>) {
     } else if (Array.isArray(entry)) {
       const index = served.get(key) ?? 0;
       served.set(key, index + 1);
-      handler = entry[Math.min(index, entry.length - 1)];
+      handler = elementAt(entry, Math.min(index, entry.length - 1), `the mocked answers to ${key}`);
     } else {
       handler = entry;
     }

@@ -37,7 +37,7 @@ describe('Customers page', () => {
     });
     const { user } = renderApp('/customers');
     const table = await screen.findByRole('table', { name: 'Customers' });
-    const row = within(table).getAllByRole('row')[1];
+    const row = within(table).getAllByRole('row')[1]!;
     expect(within(row).getByText('Ona Vell <ona@quillon.example>')).toBeTruthy();
     expect(within(row).getByText('Active')).toBeTruthy();
     await user.click(within(row).getByRole('button', { name: 'Show records of Quillon Optics' }));
@@ -80,7 +80,7 @@ describe('Customers page', () => {
     await user.type(contact.getByLabelText('E-mail'), 'ona@quillon.example');
     await user.click(dialog.getByRole('button', { name: 'Save customer' }));
     await waitFor(() => expect(api.calls('POST', '/api/customers')).toHaveLength(1));
-    expect(api.calls('POST', '/api/customers')[0].body).toEqual({
+    expect(api.calls('POST', '/api/customers')[0]!.body).toEqual({
       name: 'Quillon Optics',
       contactEmail: 'buyer@quillon.example',
       notes: '',
@@ -119,11 +119,11 @@ describe('Customers page', () => {
     expect(confirm.getByText(/hidden from every picker/)).toBeTruthy();
     await user.click(confirm.getByRole('button', { name: 'Archive' }));
     await waitFor(() => expect(api.calls('POST', '/api/customers/4/archive')).toHaveLength(1));
-    expect(api.calls('POST', '/api/customers/4/archive')[0].body).toEqual({ version: 2 });
+    expect(api.calls('POST', '/api/customers/4/archive')[0]!.body).toEqual({ version: 2 });
     await waitFor(() => expect(screen.queryByRole('button', { name: 'Archive Quillon Optics' })).toBeNull());
 
     await user.click(screen.getByLabelText('Show archived customers'));
-    const row = within(await screen.findByRole('table', { name: 'Customers' })).getAllByRole('row')[1];
+    const row = within(await screen.findByRole('table', { name: 'Customers' })).getAllByRole('row')[1]!;
     expect(await within(row).findByText('Archived')).toBeTruthy();
     expect(within(row).getByRole('button', { name: 'Restore Quillon Optics' })).toBeTruthy();
   });

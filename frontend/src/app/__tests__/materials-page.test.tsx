@@ -123,7 +123,7 @@ describe('materials page', () => {
 
     await user.click(detail.getByRole('button', { name: 'Retire' }));
     await waitFor(() => expect(api.calls('POST', '/api/materials/6/retire')).toHaveLength(1));
-    expect(api.calls('POST', '/api/materials/6/retire')[0].body).toEqual({ version: 1 });
+    expect(api.calls('POST', '/api/materials/6/retire')[0]!.body).toEqual({ version: 1 });
 
     await user.click(screen.getByLabelText('Show retired materials'));
     expect(await screen.findByRole('gridcell', { name: 'Old film (retired)' })).toBeTruthy();

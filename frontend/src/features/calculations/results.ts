@@ -3,6 +3,7 @@
  * FitResult, GrowResult and YieldForecast, stored as JSON) and turns them into table rows.
  */
 import {
+  elementAt,
   grownLayerMaterialId,
   type DesignLayer,
   type FitResult,
@@ -88,58 +89,68 @@ export function thicknessRows(before: readonly TableLayer[], after: readonly Tab
   const cost: number[][] = Array.from({ length: n + 1 }, () => new Array<number>(m + 1).fill(0));
   const better = (k1: number, c1: number, k2: number, c2: number) =>
     k1 > k2 || (k1 === k2 && c1 < c2 - 1e-12);
+  // Both tables are (n + 1) × (m + 1), so every i ≤ n, j ≤ m below is inside them.
+  const row = (table: number[][], i: number) => elementAt(table, i, 'the alignment table');
+  const cell = (table: number[][], i: number, j: number) => elementAt(row(table, i), j, 'an alignment row');
   for (let i = n; i >= 0; i--) {
     for (let j = m; j >= 0; j--) {
       if (i === n || j === m) continue;
-      let k = kept[i + 1][j];
-      let c = cost[i + 1][j];
-      if (better(kept[i][j + 1], cost[i][j + 1], k, c)) {
-        k = kept[i][j + 1];
-        c = cost[i][j + 1];
+      const b = elementAt(before, i, 'the layers before');
+      const a = elementAt(after, j, 'the layers after');
+      let k = cell(kept, i + 1, j);
+      let c = cell(cost, i + 1, j);
+      if (better(cell(kept, i, j + 1), cell(cost, i, j + 1), k, c)) {
+        k = cell(kept, i, j + 1);
+        c = cell(cost, i, j + 1);
       }
-      if (before[i].material === after[j].material) {
-        const km = kept[i + 1][j + 1] + 1;
-        const cm = cost[i + 1][j + 1] + Math.abs(after[j].thicknessNm - before[i].thicknessNm);
+      if (b.material === a.material) {
+        const km = cell(kept, i + 1, j + 1) + 1;
+        const cm = cell(cost, i + 1, j + 1) + Math.abs(a.thicknessNm - b.thicknessNm);
         if (better(km, cm, k, c) || (km === k && Math.abs(cm - c) <= 1e-12)) {
           k = km;
           c = cm;
         }
       }
-      kept[i][j] = k;
-      cost[i][j] = c;
+      row(kept, i)[j] = k;
+      row(cost, i)[j] = c;
     }
   }
   const rows: ThicknessRow[] = [];
   let i = 0;
   let j = 0;
   while (i < n || j < m) {
+    // Undefined exactly when i = n (all before-layers placed) or j = m (all after-layers placed).
+    const b = before[i];
+    const a = after[j];
     const match =
-      i < n &&
-      j < m &&
-      before[i].material === after[j].material &&
-      kept[i][j] === kept[i + 1][j + 1] + 1 &&
-      Math.abs(cost[i][j] - (cost[i + 1][j + 1] + Math.abs(after[j].thicknessNm - before[i].thicknessNm))) <=
+      b !== undefined &&
+      a !== undefined &&
+      b.material === a.material &&
+      cell(kept, i, j) === cell(kept, i + 1, j + 1) + 1 &&
+      Math.abs(cell(cost, i, j) - (cell(cost, i + 1, j + 1) + Math.abs(a.thicknessNm - b.thicknessNm))) <=
         1e-9;
     if (match) {
       rows.push({
         layer: j + 1,
         beforeLayer: i + 1,
-        before: before[i],
-        after: after[j],
-        changeNm: after[j].thicknessNm - before[i].thicknessNm,
+        before: b,
+        after: a,
+        changeNm: a.thicknessNm - b.thicknessNm,
         status: 'kept',
       });
       i++;
       j++;
     } else if (
-      j < m &&
-      (i === n || (kept[i][j] === kept[i][j + 1] && Math.abs(cost[i][j] - cost[i][j + 1]) <= 1e-9))
+      a !== undefined &&
+      (b === undefined ||
+        (cell(kept, i, j) === cell(kept, i, j + 1) &&
+          Math.abs(cell(cost, i, j) - cell(cost, i, j + 1)) <= 1e-9))
     ) {
       rows.push({
         layer: j + 1,
         beforeLayer: null,
         before: null,
-        after: after[j],
+        after: a,
         changeNm: null,
         status: 'new',
       });
@@ -148,7 +159,8 @@ export function thicknessRows(before: readonly TableLayer[], after: readonly Tab
       rows.push({
         layer: null,
         beforeLayer: i + 1,
-        before: before[i],
+        // i < n here: with i = n, j < m and the branch above took the new layer.
+        before: elementAt(before, i, 'the layers before'),
         after: null,
         changeNm: null,
         status: 'removed',
@@ -188,7 +200,8 @@ export function grownLayers(
 /** Centres of the worst-margin histogram's bins (edges has one more entry than counts). */
 export function binCentres(edges: readonly number[]): number[] {
   const centres: number[] = [];
-  for (let i = 0; i + 1 < edges.length; i++) centres.push((edges[i] + edges[i + 1]) / 2);
+  for (let i = 0; i + 1 < edges.length; i++)
+    centres.push((elementAt(edges, i, 'the bin edges') + elementAt(edges, i + 1, 'the bin edges')) / 2);
   return centres;
 }
 

@@ -3,7 +3,13 @@
  * material of the library, 0 < thicknessNm ≤ 100000 nm, at most 400 layers, notes ≤ 500
  * characters), checked here so a bad cell is shown where it is and never sent.
  */
-import { materialNmToQwot, materialQwotToNm, type DesignLayer, type MaterialModel } from '@quietglass/shared';
+import {
+  elementAt,
+  materialNmToQwot,
+  materialQwotToNm,
+  type DesignLayer,
+  type MaterialModel,
+} from '@quietglass/shared';
 import { parseNumberInput } from '../../lib/format';
 
 /** A material as the design workspace needs it (a MaterialView of the library fits). */
@@ -178,7 +184,7 @@ export function moveRow(rows: readonly LayerRow[], id: string, delta: -1 | 1): L
   const to = from + delta;
   if (from < 0 || to < 0 || to >= rows.length) return [...rows];
   const next = [...rows];
-  [next[from], next[to]] = [next[to], next[from]];
+  [next[from], next[to]] = [elementAt(rows, to, 'the rows'), elementAt(rows, from, 'the rows')];
   return next;
 }
 
@@ -252,7 +258,7 @@ function headerColumns(cells: readonly string[]): PasteColumns | null {
   );
   const thickness = cells.findIndex((c) => /thickness|qwot|fwot|\bnm\b|optical/i.test(c));
   if (material < 0 || thickness < 0) return null;
-  const head = cells[thickness];
+  const head = elementAt(cells, thickness, 'the header cells');
   const unit: ThicknessUnit | null = /fwot|full.?wave/i.test(head)
     ? 'fwot'
     : /qwot|quarter.?wave/i.test(head)

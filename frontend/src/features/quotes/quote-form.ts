@@ -78,7 +78,7 @@ export const unitPriceRule: Rule = (value) => {
   if (n === null) return 'Enter a unit price';
   if (n < 0) return 'The unit price must not be negative';
   if (n > MAX_UNIT_PRICE) return 'The unit price is too large';
-  const decimals = /\.(\d+)$/.exec(t)?.[1].length ?? 0;
+  const decimals = /\.(\d+)$/.exec(t)?.[1]?.length ?? 0;
   return (decimals <= 4 && !/e/i.test(t)) || 'At most 4 decimals';
 };
 

@@ -29,7 +29,7 @@ describe('apiClient', () => {
 
     expect(answer).toEqual({ id: 7, role: 'sales' });
     expect(api.requests).toHaveLength(1);
-    const { init, body } = api.requests[0];
+    const { init, body } = api.requests[0]!;
     expect(init?.method).toBe('PATCH');
     expect(init?.credentials).toBe('same-origin');
     // A change carries the header the API requires against cross-site request forgery.
@@ -44,7 +44,7 @@ describe('apiClient', () => {
   it('sends no CSRF header on a read', async () => {
     const api = mockApi({ 'GET /api/users': { status: 200, body: [] } });
     await apiClient.get('/users');
-    expect(api.requests[0].init?.headers).toEqual({ Accept: 'application/json' });
+    expect(api.requests[0]!.init?.headers).toEqual({ Accept: 'application/json' });
   });
 
   it('returns undefined for 204 No Content', async () => {

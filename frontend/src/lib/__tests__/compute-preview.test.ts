@@ -39,12 +39,12 @@ describe('preview computation', () => {
     expect(R_QUARTER_WAVE).toBeCloseTo(0.012601, 6);
     expect(result.wavelengthsNm[150]).toBeCloseTo(550, 9);
     expect(result.curves).toHaveLength(1);
-    expect(result.curves[0].R[150]).toBeCloseTo(R_QUARTER_WAVE, 6);
+    expect(result.curves[0]!.R[150]).toBeCloseTo(R_QUARTER_WAVE, 6);
     // Lossless: T = 1 − R (Hecht, Optics, ch. 4: R + T = 1 without absorption).
-    expect(result.curves[0].T[150]).toBeCloseTo(1 - R_QUARTER_WAVE, 6);
+    expect(result.curves[0]!.T[150]).toBeCloseTo(1 - R_QUARTER_WAVE, 6);
     // The quarter-wave minimum lies at the reference wavelength: R rises either side.
-    expect(result.curves[0].R[100]).toBeGreaterThan(result.curves[0].R[150]);
-    expect(result.curves[0].R[200]).toBeGreaterThan(result.curves[0].R[150]);
+    expect(result.curves[0]!.R[100]).toBeGreaterThan(result.curves[0]!.R[150]!);
+    expect(result.curves[0]!.R[200]).toBeGreaterThan(result.curves[0]!.R[150]!);
   });
 
   it('passes a mask of R ≤ 1.5 % and fails R ≤ 1.0 %, naming the worst margin and where it is', () => {
@@ -70,7 +70,7 @@ describe('preview computation', () => {
     // A half-wave layer is absentee (Macleod ch. 2): R at 550 nm equals the bare substrate's,
     // ((1 − 1.52)/(1 + 1.52))² = 0.042580 (Hecht, Optics, ch. 4).
     const halfWave = calculator.compute(request(2 * QUARTER_WAVE_NM, 1.5));
-    expect(halfWave.curves[0].R[150]).toBeCloseTo(0.04258, 5);
+    expect(halfWave.curves[0]!.R[150]).toBeCloseTo(0.04258, 5);
     expect(halfWave.mask?.pass).toBe(false);
   });
 

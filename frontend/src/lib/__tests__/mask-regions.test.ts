@@ -27,7 +27,7 @@ describe('forbidden regions of a spec mask', () => {
       { quantity: 'R', fromNm: 531.5, toNm: 532.5, lowPercent: 0, highPercent: 0.1 },
       { quantity: 'R', fromNm: 531.5, toNm: 532.5, lowPercent: 0.30000000000000004, highPercent: 100 },
     ]);
-    expect(regions[0].label).toBe('R ≤ 0.5 % (420–680 nm, 0, 15, 30°, avg)');
+    expect(regions[0]!.label).toBe('R ≤ 0.5 % (420–680 nm, 0, 15, 30°, avg)');
   });
 
   it('describes a target band with its label', () => {

@@ -44,7 +44,7 @@ describe('AuditGrid', () => {
     const grid = await screen.findByRole('grid', { name: 'Audit trail' });
     await waitFor(() => expect(within(grid).getAllByRole('row')).toHaveLength(3));
     const cells = (row: number) =>
-      within(within(grid).getAllByRole('row')[row])
+      within(within(grid).getAllByRole('row')[row]!)
         .getAllByRole('gridcell')
         .map((c) => c.textContent);
     expect(cells(1).slice(1)).toEqual([

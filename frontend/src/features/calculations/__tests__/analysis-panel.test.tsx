@@ -125,7 +125,7 @@ describe('AnalysisPanel', () => {
       'Calculation 7 completed in 0.84 s',
     );
     expect(screen.queryByRole('progressbar', { name: 'Analysis progress' })).toBeNull();
-    const [trace] = tracesOf(heat);
+    const trace = tracesOf(heat)[0]!;
     expect(trace.type).toBe('heatmap');
     expect(trace.x).toEqual([500, 550, 600]);
     expect(trace.y).toEqual([0, 30]);
@@ -139,7 +139,7 @@ describe('AnalysisPanel', () => {
       '0°',
       '30°',
     ]);
-    expect(tracesOf(screen.getByRole('figure', { name: 'Colour and Rv against angle' }))[0].y).toEqual([
+    expect(tracesOf(screen.getByRole('figure', { name: 'Colour and Rv against angle' }))[0]!.y).toEqual([
       0.5, 0.62,
     ]);
     expect(tracesOf(screen.getByRole('figure', { name: 'Field profile' })).map((t) => t.name)).toEqual([

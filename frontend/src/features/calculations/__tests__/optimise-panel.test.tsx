@@ -112,9 +112,9 @@ function valueAt(trace: Record<string, unknown>, x: number): number {
   const ys = trace.y as number[];
   let best = 0;
   xs.forEach((v, i) => {
-    if (Math.abs(v - x) < Math.abs(xs[best] - x)) best = i;
+    if (Math.abs(v - x) < Math.abs(xs[best]! - x)) best = i;
   });
-  return ys[best];
+  return ys[best]!;
 }
 
 describe('OptimisePanel — Fit to mask', () => {
@@ -183,13 +183,13 @@ describe('OptimisePanel — Fit to mask', () => {
         'Merit 0.6110 at iteration 2 (3 points)',
       ),
     );
-    const [merit] = tracesOf(region().getByRole('figure', { name: 'Merit so far' }));
+    const merit = tracesOf(region().getByRole('figure', { name: 'Merit so far' }))[0]!;
     expect(merit.x).toEqual([0, 1, 2]);
     expect(merit.y).toEqual([2.7581, 1.402, 0.611]);
 
     poll.set(calc({ status: 'completed', progress: 1, summary: FIT as unknown as Record<string, unknown> }));
     const table = await region().findByRole('table', { name: 'Thicknesses before and after' });
-    const cells = within(table).getAllByRole('row')[1].querySelectorAll('td');
+    const cells = within(table).getAllByRole('row')[1]!.querySelectorAll('td');
     expect([...cells].map((c) => c.textContent)).toEqual(['1', 'MgF2', '199.28', '99.64', '−99.64']);
     expect(region().getByRole('group', { name: 'Fit to mask result' }).textContent).toBe(
       'PassMerit 2.7581 → 0.1234 percentage points · worst margin +0.084 percentage points, target +0.100 not reached · 6 iterations (converged)',
@@ -198,7 +198,7 @@ describe('OptimisePanel — Fit to mask', () => {
       'Forecast yield 87.4 % at 1 % (1σ) thickness error per layer, 500 trials · worst margin median +0.052, 5th percentile −0.013 percentage points. Run a Yield forecast of the accepted version for systematic and index errors.',
     );
     expect(region().queryByRole('progressbar', { name: 'Fit to mask progress' })).toBeNull();
-    const [history] = tracesOf(region().getByRole('figure', { name: 'Merit per iteration' }));
+    const history = tracesOf(region().getByRole('figure', { name: 'Merit per iteration' }))[0]!;
     expect([history.x, history.y]).toEqual([
       [0, 6],
       [2.7581, 0.1234],
@@ -210,8 +210,8 @@ describe('OptimisePanel — Fit to mask', () => {
     const overlay = await region().findByRole('figure', { name: 'Reflectance before and after' });
     const traces = tracesOf(overlay);
     expect(traces.map((t) => t.name)).toEqual(['Before 0°', 'After 0°']);
-    expect(valueAt(traces[0], 550)).toBeCloseTo(4.258, 2);
-    expect(valueAt(traces[1], 550)).toBeCloseTo(1.2601, 3);
+    expect(valueAt(traces[0]!, 550)).toBeCloseTo(4.258, 2);
+    expect(valueAt(traces[1]!, 550)).toBeCloseTo(1.2601, 3);
 
     await user.click(region().getByRole('button', { name: 'Accept as new draft' }));
     await waitFor(() => expect(onVersionChange).toHaveBeenCalledWith(2));
@@ -236,7 +236,7 @@ describe('OptimisePanel — Fit to mask', () => {
     expect(screen.getByText('Inside every limit; shop default 0.3')).toBeTruthy();
     await user.click(screen.getByRole('button', { name: 'Run Fit to mask' }));
     await waitFor(() => expect(api.calls('POST', '/api/designs/12/versions/1/fit')).toHaveLength(1));
-    expect(api.calls('POST', '/api/designs/12/versions/1/fit')[0].body).toMatchObject({
+    expect(api.calls('POST', '/api/designs/12/versions/1/fit')[0]!.body).toMatchObject({
       targetMarginPercent: 0.3,
     });
   });
@@ -306,7 +306,7 @@ const GROW: GrowResult = {
   stack: {} as GrowResult['stack'],
   stoppedBy: 'maskMet',
 };
-GROW.final = GROW.steps[1];
+GROW.final = GROW.steps[1]!;
 
 describe('OptimisePanel — Grow layers', () => {
   it('asks for at least one allowed material', async () => {
@@ -356,7 +356,7 @@ describe('OptimisePanel — Grow layers', () => {
     await user.click(await region().findByRole('button', { name: 'Run Grow layers' }));
 
     const progression = await region().findByRole('figure', { name: 'Merit against layer count' });
-    const [trace] = tracesOf(progression);
+    const trace = tracesOf(progression)[0]!;
     expect(trace.x).toEqual([2, 4]);
     expect(trace.y).toEqual([0.91, 0.05]);
     expect(api.calls('POST', '/api/designs/12/versions/1/grow').map((r) => r.body)).toEqual([
@@ -488,8 +488,8 @@ describe('OptimisePanel — Yield forecast', () => {
     const envelope = region().getByRole('figure', { name: 'Percentile envelope R at 0° (avg)' });
     const traces = tracesOf(envelope);
     expect(traces.map((t) => t.name)).toEqual(['5 %', '50 %', '95 %', 'Nominal']);
-    expect(traces[2].y).toEqual([1.6, 1.4, 1.7]);
-    const [bars] = tracesOf(region().getByRole('figure', { name: 'Worst margins of the trials' }));
+    expect(traces[2]!.y).toEqual([1.6, 1.4, 1.7]);
+    const bars = tracesOf(region().getByRole('figure', { name: 'Worst margins of the trials' }))[0]!;
     expect(bars.x).toEqual([-0.2, 0, 0.2].map((v) => expect.closeTo(v, 12) as number));
     expect(bars.y).toEqual([10, 150, 40]);
     const ranking = within(region().getByRole('table', { name: 'Layer sensitivity' }))

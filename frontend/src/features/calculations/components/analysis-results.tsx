@@ -5,7 +5,7 @@ import MenuItem from '@mui/material/MenuItem';
 import TextField from '@mui/material/TextField';
 import Tooltip from '@mui/material/Tooltip';
 import Typography from '@mui/material/Typography';
-import type { AnalysisQuantity, LimitBand } from '@quietglass/shared';
+import { elementAt, type AnalysisQuantity, type LimitBand } from '@quietglass/shared';
 import { useState } from 'react';
 import { ErrorAlert } from '../../../components/error-alert';
 import { maskShapes } from '../../../components/mask-plot-layout';
@@ -26,9 +26,9 @@ const POLARISATION_LABELS: Record<ResultPolarisation, string> = { s: 's', p: 'p'
 
 /** Index of the analysed angle nearest to `angle`. */
 function nearestIndex(values: readonly number[], angle: number): number {
+  const distance = (i: number) => Math.abs(elementAt(values, i, 'the analysed angles') - angle);
   let best = 0;
-  for (let i = 1; i < values.length; i++)
-    if (Math.abs(values[i] - angle) < Math.abs(values[best] - angle)) best = i;
+  for (let i = 1; i < values.length; i++) if (distance(i) < distance(best)) best = i;
   return best;
 }
 
@@ -80,12 +80,14 @@ export function AnalysisResults({
       mode: 'lines',
       name: `${anglesDeg[ia]}°`,
       x: wavelengthsNm,
-      y: values[ia].map((v) => 100 * v),
+      y: elementAt(values, ia, 'the values per angle').map((v) => 100 * v),
     }));
   }
 
   const sliceValues = result.data
-    ? sliceIndices.flatMap((ia) => result.data.values[ia].map((v) => 100 * v))
+    ? sliceIndices.flatMap((ia) =>
+        elementAt(result.data.values, ia, 'the values per angle').map((v) => 100 * v),
+      )
     : [];
   const sliceTop = (roundAxis(sliceValues, { fromZero: true }).range as [number, number])[1];
   const colour = summary.colour;
@@ -296,7 +298,10 @@ export function AnalysisResults({
               // Each layer's name over its middle, above the plot area (under the legend).
               annotations: (field.layerLabels ?? []).map((text, i) => ({
                 text,
-                x: (field.interfacesNm[i] + field.interfacesNm[i + 1]) / 2,
+                x:
+                  (elementAt(field.interfacesNm, i, 'the interfaces') +
+                    elementAt(field.interfacesNm, i + 1, 'the interfaces')) /
+                  2,
                 xref: 'x',
                 y: 1,
                 yref: 'paper',

@@ -125,10 +125,7 @@ export function GrowResultView({
         <>
           <ThicknessTable
             before={tableLayers(version.layers, context)}
-            after={step.layers.map((l, i) => ({
-              material: tableLayers([grown.layers[i]], context)[0].material,
-              thicknessNm: l.thicknessNm,
-            }))}
+            after={tableLayers(grown.layers, context)}
           />
           {afterContent && (
             <SpectrumOverlay

@@ -4,7 +4,7 @@ import Paper from '@mui/material/Paper';
 import Tab from '@mui/material/Tab';
 import Tabs from '@mui/material/Tabs';
 import Typography from '@mui/material/Typography';
-import type { DesignVersionView, LimitBand, NamedModel } from '@quietglass/shared';
+import { elementAt, type DesignVersionView, type LimitBand, type NamedModel } from '@quietglass/shared';
 import { useMemo, useState, type ReactNode } from 'react';
 import { ErrorAlert } from '../../../components/error-alert';
 import { LoadingBlock } from '../../../components/loading-block';
@@ -121,7 +121,7 @@ export function OptimisePanel({
   }, [version.data, library, maskBands]);
 
   if (!canRun) return null;
-  const current = TABS.find((t) => t.kind === tab) ?? TABS[0];
+  const current = TABS.find((t) => t.kind === tab) ?? elementAt(TABS, 0, 'the optimisation tabs');
 
   return (
     <Paper variant="outlined" sx={{ p: 2 }} component="section" aria-label="Optimise">

@@ -44,7 +44,7 @@ const VIEW: ChamberCalibrationView = {
         correction: { value: v, sigma: 0.002 },
         rateRatio: 1.025,
         cause: 'material' as const,
-        tracked: TRACKED[i],
+        tracked: TRACKED[i]!,
       })),
       estimate: {
         correction: { value: 1.0203, sigma: 0.0011 },
@@ -103,7 +103,7 @@ describe('calibration panel', () => {
     expect(runs.y.map((y) => Number(y.toFixed(6)))).toEqual([1.9, 2.1, 2, 1.8, 2.2, 2, 6, 2.1, 1.9, 2]);
     const out = t.find((x) => x.name === 'Out of control')!;
     expect(out.x).toEqual(['T-7 (2026-11-07)']);
-    expect(t.find((x) => x.name === 'Estimate')!.y[9]).toBeCloseTo((TRACKED[9].estimate - 1) * 100, 9);
+    expect(t.find((x) => x.name === 'Estimate')!.y[9]).toBeCloseTo((TRACKED[9]!.estimate - 1) * 100, 9);
     expect(t.find((x) => x.name === 'Threshold ±1 %')!.y).toEqual([1, 1]);
     expect(api.unexpected).toEqual([]);
   });
@@ -133,7 +133,7 @@ describe('calibration panel', () => {
     await user.type(dialog.getByLabelText(/Comment/), '  Witness checked  ');
     await user.click(dialog.getByRole('button', { name: 'Accept' }));
     await waitFor(() => expect(api.calls('POST', '/api/chambers/7/calibration/decisions')).toHaveLength(1));
-    expect(api.calls('POST', '/api/chambers/7/calibration/decisions')[0].body).toEqual({
+    expect(api.calls('POST', '/api/chambers/7/calibration/decisions')[0]!.body).toEqual({
       key: 'material|4|run24|tf0.97->0.9897',
       decision: 'accepted',
       comment: 'Witness checked',

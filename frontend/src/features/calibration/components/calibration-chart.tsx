@@ -29,6 +29,8 @@ export function CalibrationChart({
   const out = runs.filter((r) => r.tracked!.outOfControl);
   const limited = runs.filter((r) => r.tracked!.limitLow !== null);
   const xl = limited.map((r) => `${r.lotNumber} (${r.runDate})`);
+  // The threshold lines span the runs shown; with none, their ends are gaps (null).
+  const span = [x[0] ?? null, x[x.length - 1] ?? null];
   const data: PlotData[] = [
     {
       type: 'scatter',
@@ -76,7 +78,7 @@ export function CalibrationChart({
       type: 'scatter',
       mode: 'lines',
       name: `Threshold ±${thresholdPercent} %`,
-      x: [x[0], x[x.length - 1]],
+      x: span,
       y: [thresholdPercent, thresholdPercent],
       line: { color: OUT_ORANGE, dash: 'dot', width: 1 },
     },
@@ -85,7 +87,7 @@ export function CalibrationChart({
       mode: 'lines',
       name: 'Lower threshold',
       showlegend: false,
-      x: [x[0], x[x.length - 1]],
+      x: span,
       y: [-thresholdPercent, -thresholdPercent],
       line: { color: OUT_ORANGE, dash: 'dot', width: 1 },
     },

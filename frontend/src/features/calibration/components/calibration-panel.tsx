@@ -12,7 +12,7 @@ import TableRow from '@mui/material/TableRow';
 import TextField from '@mui/material/TextField';
 import Typography from '@mui/material/Typography';
 import { useState } from 'react';
-import { IDENTIFIABLE_MAX_FACTOR_SIGMA, formatToolingFactor } from '@quietglass/shared';
+import { IDENTIFIABLE_MAX_FACTOR_SIGMA, elementAt, formatToolingFactor } from '@quietglass/shared';
 import { ErrorAlert } from '../../../components/error-alert';
 import { LoadingBlock } from '../../../components/loading-block';
 import { formatDateTime } from '../../../lib/format';
@@ -104,7 +104,7 @@ export function CalibrationPanel({
               aria-label={
                 s.kind === 'common'
                   ? 'Suggested check'
-                  : `Suggested tooling factor ${names.get(s.materialIds[0])}`
+                  : `Suggested tooling factor ${names.get(elementAt(s.materialIds, 0, 'the suggested materials'))}`
               }
               action={
                 canDecide && (

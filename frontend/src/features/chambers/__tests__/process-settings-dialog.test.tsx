@@ -80,7 +80,7 @@ describe('process settings on the Chambers page', () => {
     await user.type(sio2.getByLabelText('Ion source voltage (V)'), '110');
     await user.click(dialog.getByRole('button', { name: 'Save process settings' }));
     await screen.findByText('Process settings of Bell jar 1 saved.');
-    const [put] = api.calls('PUT', '/api/chambers/7/process-settings');
+    const put = api.calls('PUT', '/api/chambers/7/process-settings')[0]!;
     expect(put.body).toEqual({
       version: 3,
       settings: [

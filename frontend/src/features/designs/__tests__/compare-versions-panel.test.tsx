@@ -46,7 +46,10 @@ describe('CompareVersionsPanel', () => {
 
     const figure = await screen.findByRole('figure', { name: 'Compared spectra' });
     await waitFor(() => expect(tracesOf(figure)).toHaveLength(2));
-    const [current, bare] = tracesOf(figure) as { name: string; y: number[] }[];
+    const [current, bare] = tracesOf(figure) as [
+      { name: string; y: number[] },
+      { name: string; y: number[] },
+    ];
     expect(current.name).toBe('Current grid');
     expect(bare.name).toBe('Version 2 (draft)');
     expect(Math.min(...current.y)).toBeCloseTo(1.2601, 3);

@@ -85,7 +85,7 @@ function renderWorkspace(
 
 function gridCell(row: number, col: number): HTMLElement {
   const grid = screen.getByRole('grid', { name: 'Layer grid' });
-  return within(within(grid).getAllByRole('row')[row + 1]).getAllByRole('gridcell')[col];
+  return within(within(grid).getAllByRole('row')[row + 1]!).getAllByRole('gridcell')[col]!;
 }
 
 async function setThickness(user: User, row: number, text: string) {
@@ -116,7 +116,7 @@ describe('DesignWorkspace', () => {
     // 1.5 − R(545 nm) is the worst margin, R rising away from the 550 nm minimum.
     expect(badge.textContent).toMatch(/Worst margin \+0\.\d{3} percentage points at (545|555) nm, 0°/);
     // What went to the worker: the design's stack, its mask and the front surface alone.
-    const last = requests[requests.length - 1];
+    const last = requests[requests.length - 1]!;
     expect(last.maskBands).toEqual(MASK);
     expect(last.back).toBe('none');
     expect(last.stack.layers).toEqual([{ material: 'material-4', thickness_nm: 99.64, label: '1 MgF2' }]);
@@ -274,7 +274,7 @@ describe('DesignWorkspace', () => {
     await user.click(saveButton());
 
     await waitFor(() => expect(screen.getByText('No unsaved changes')).toBeTruthy());
-    expect((api.calls('PUT', VERSION_URL)[0].body as { rowVersion: number }).rowVersion).toBe(1);
+    expect((api.calls('PUT', VERSION_URL)[0]!.body as { rowVersion: number }).rowVersion).toBe(1);
   });
 
   it('exports a stack file only of the saved version, never of unsaved grid edits', async () => {

@@ -10,7 +10,7 @@ import { rowsFromLayers, type LayerRow } from '../layers';
 // QWOT = 4·n(λref)·d/λref (Macleod, Thin-Film Optical Filters, 5th ed., ch. 2). For MgF2 taken as a
 // constant n = 1.38 at λref = 550 nm, a quarter wave is d = 550/(4·1.38) = 99.6377 nm, so
 // 99.64 nm ⇄ QWOT 1.0000.
-const MGF2 = TEST_MATERIALS[2].model;
+const MGF2 = TEST_MATERIALS[2]!.model;
 
 type User = ReturnType<typeof renderWithProviders>['user'];
 
@@ -46,7 +46,7 @@ function dataRows(): HTMLElement[] {
 }
 
 function cell(row: number, column: keyof typeof COLUMN): HTMLElement {
-  return within(dataRows()[row]).getAllByRole('gridcell')[COLUMN[column]];
+  return within(dataRows()[row]!).getAllByRole('gridcell')[COLUMN[column]]!;
 }
 
 function column(name: keyof typeof COLUMN): string[] {
@@ -83,8 +83,8 @@ describe('LayerGrid', () => {
     await editCell(user, 0, 'qwot', '1');
     await waitFor(() => expect(cell(0, 'thickness').textContent).toBe('99.64'));
     // The full-precision quarter wave is kept, not the rounded figure shown.
-    expect(Number(latest[0].thicknessNm)).toBeCloseTo(550 / (4 * 1.38), 9);
-    expect(Number(latest[0].thicknessNm)).toBeCloseTo(materialQwotToNm(MGF2, 1, 550), 12);
+    expect(Number(latest[0]!.thicknessNm)).toBeCloseTo(550 / (4 * 1.38), 9);
+    expect(Number(latest[0]!.thicknessNm)).toBeCloseTo(materialQwotToNm(MGF2, 1, 550), 12);
 
     await editCell(user, 0, 'qwot', '2');
     // Half wave: d = 2·550/(4·1.38) = 199.2754 nm.
@@ -102,7 +102,7 @@ describe('LayerGrid', () => {
     await user.click(await screen.findByRole('option', { name: 'TiO2' }));
 
     await waitFor(() => expect(cell(0, 'material').textContent).toBe('TiO2'));
-    expect(latest[0].materialId).toBe(5);
+    expect(latest[0]!.materialId).toBe(5);
     expect(cell(0, 'thickness').textContent).toBe('99.64');
     // 4·2.35·99.64/550 = 1.7029 (Macleod ch. 2).
     expect(cell(0, 'qwot').textContent).toBe(((4 * 2.35 * 99.64) / 550).toFixed(4));
@@ -125,8 +125,8 @@ describe('LayerGrid', () => {
 
     const { unmount } = renderWithProviders(<Harness initial={layers([5, 50])} materials={retired} />);
     await waitFor(() => expect(screen.getAllByRole('grid', { name: 'Layer grid' })).toHaveLength(2));
-    const second = within(screen.getAllByRole('grid', { name: 'Layer grid' })[1]);
-    expect(second.getAllByRole('row')[1].textContent).toContain('TiO2');
+    const second = within(screen.getAllByRole('grid', { name: 'Layer grid' })[1]!);
+    expect(second.getAllByRole('row')[1]!.textContent).toContain('TiO2');
     unmount();
   });
 
@@ -140,7 +140,7 @@ describe('LayerGrid', () => {
     await editCell(user, 1, 'thickness', '-5');
     await waitFor(() => expect(cell(1, 'thickness').textContent).toBe('-5must be greater than 0 nm'));
     expect(cell(1, 'qwot').textContent).toBe('—');
-    expect(latest[1].thicknessNm).toBe('-5');
+    expect(latest[1]!.thicknessNm).toBe('-5');
 
     await editCell(user, 0, 'thickness', '12..5');
     await waitFor(() => expect(cell(0, 'thickness').textContent).toBe('12..5"12..5" is not a number'));

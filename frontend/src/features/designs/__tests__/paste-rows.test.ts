@@ -34,16 +34,16 @@ describe('parsePastedRows', () => {
   it('takes the column order and the thickness unit from a header line', () => {
     const rows = parsed('Notes;QWOT;Material\nouter;1,0;MgF2\n;2;MgF2');
     expect(rows.map((r) => r.notes)).toEqual(['outer', '']);
-    expect(rows[0].nm).toBeCloseTo(QUARTER_MGF2_NM, 9);
-    expect(rows[1].nm).toBeCloseTo(2 * QUARTER_MGF2_NM, 9);
-    expect(parsed('Material\tFWOT\nMgF2\t0.25')[0].nm).toBeCloseTo(QUARTER_MGF2_NM, 9);
+    expect(rows[0]!.nm).toBeCloseTo(QUARTER_MGF2_NM, 9);
+    expect(rows[1]!.nm).toBeCloseTo(2 * QUARTER_MGF2_NM, 9);
+    expect(parsed('Material\tFWOT\nMgF2\t0.25')[0]!.nm).toBeCloseTo(QUARTER_MGF2_NM, 9);
     // A header naming nm wins over the unit toggle.
-    expect(parsed('Material,Thickness (nm)\nMgF2,99.64', { unit: 'qwot' })[0].nm).toBe(99.64);
+    expect(parsed('Material,Thickness (nm)\nMgF2,99.64', { unit: 'qwot' })[0]!.nm).toBe(99.64);
   });
 
   it('reads headerless thicknesses in the unit chosen by the toggle', () => {
-    expect(parsed('MgF2\t1', { unit: 'qwot' })[0].nm).toBeCloseTo(QUARTER_MGF2_NM, 9);
-    expect(parsed('MgF2\t0.5', { unit: 'fwot' })[0].nm).toBeCloseTo(2 * QUARTER_MGF2_NM, 9);
+    expect(parsed('MgF2\t1', { unit: 'qwot' })[0]!.nm).toBeCloseTo(QUARTER_MGF2_NM, 9);
+    expect(parsed('MgF2\t0.5', { unit: 'fwot' })[0]!.nm).toBeCloseTo(2 * QUARTER_MGF2_NM, 9);
   });
 
   it('rejects the whole paste and names every bad line', () => {
@@ -78,7 +78,7 @@ describe('block tools', () => {
   );
 
   it('repeats a period (H L)^n with fresh row ids', () => {
-    const period = periodRows(rows[0], rows[1], 3);
+    const period = periodRows(rows[0]!, rows[1]!, 3);
     expect(period.map((r) => r.thicknessNm)).toEqual(['10', '20', '10', '20', '10', '20']);
     expect(new Set(period.map((r) => r.id)).size).toBe(6);
   });

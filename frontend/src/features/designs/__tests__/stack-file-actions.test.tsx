@@ -57,7 +57,7 @@ describe('stack files in the design workspace', () => {
     await waitFor(() => expect((button as HTMLButtonElement).disabled).toBe(false));
     await user.click(button);
     expect(names).toEqual(['Lens-AR-trial-v1.stack.json']);
-    const file = JSON.parse(await blobs[0].text()) as StackDescription;
+    const file = JSON.parse(await blobs[0]!.text()) as StackDescription;
     expect(file.layers).toEqual([{ material: 'MgF2', thickness_nm: QUARTER_MGF2 }]);
     expect(file.substrate).toEqual({ material: 'Test glass', thickness_mm: 2 });
     // Quarter wave on glass: R = ((n0·ns − n1²)/(n0·ns + n1²))² (Macleod, Thin-Film Optical Filters, §3.2.1).

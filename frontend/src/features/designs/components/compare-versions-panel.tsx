@@ -9,6 +9,7 @@ import Paper from '@mui/material/Paper';
 import TextField from '@mui/material/TextField';
 import Typography from '@mui/material/Typography';
 import {
+  elementAt,
   plotRangeForMask,
   type DesignVersionContent,
   type LimitBand,
@@ -235,7 +236,7 @@ export function CompareVersionsPanel({
   const data: PlotData[] = compared.flatMap((item) => {
     const result = results[item.key];
     if (!result || typeof result === 'string') return [];
-    const percent = result.curves[0].R.map((v) => 100 * v);
+    const percent = elementAt(result.curves, 0, 'the compared curves').R.map((v) => 100 * v);
     for (const v of percent) top = Math.max(top, v * 1.1);
     return [{ type: 'scatter', mode: 'lines', name: item.label, x: result.wavelengthsNm, y: percent }];
   });

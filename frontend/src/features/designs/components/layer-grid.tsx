@@ -1,4 +1,4 @@
-import { pickableMaterials } from '@quietglass/shared';
+import { elementAt, pickableMaterials } from '@quietglass/shared';
 import AddOutlined from '@mui/icons-material/AddOutlined';
 import ArrowDownwardOutlined from '@mui/icons-material/ArrowDownwardOutlined';
 import ArrowUpwardOutlined from '@mui/icons-material/ArrowUpwardOutlined';
@@ -127,7 +127,7 @@ export function nextEditableCell(
     row -= 1;
   }
   if (row < 0 || row >= rowCount) return null;
-  return { rowIndex: row, field: EDITABLE_FIELDS[next] };
+  return { rowIndex: row, field: elementAt(EDITABLE_FIELDS, next, 'the editable fields') };
 }
 
 /**
@@ -337,8 +337,10 @@ export function LayerGrid({
 
   /** Rows pasted into the grid go after the selected layer (else at the end). */
   const insertPasted = (pasted: LayerRow[]) => {
+    const last = pasted.at(-1);
+    if (!last) return;
     const at = selected ? selectedIndex + 1 : rows.length;
-    replace([...rows.slice(0, at), ...pasted, ...rows.slice(at)], pasted[pasted.length - 1].id);
+    replace([...rows.slice(0, at), ...pasted, ...rows.slice(at)], last.id);
   };
 
   // Ctrl+V of a block of rows anywhere on the grid (not inside a cell being edited) adds them.
@@ -459,7 +461,7 @@ export function LayerGrid({
             event.defaultMuiPrevented = true;
             const editing = params.cellMode === 'edit';
             if (editing) void apiRef.current?.stopCellEditMode({ id: params.id, field: params.field });
-            const id = gridRows[next.rowIndex].id;
+            const id = elementAt(gridRows, next.rowIndex, 'the grid rows').id;
             apiRef.current?.setCellFocus(id, next.field);
             // Text cells open for typing at once; the material cell opens its list with Enter.
             if (editing && next.field !== 'materialId')

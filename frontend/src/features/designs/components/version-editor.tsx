@@ -229,7 +229,7 @@ export function VersionEditor({
   );
 
   const allTabs = [...OWN_TABS, ...tabs];
-  const openTab = allTabs.some((t) => t.key === tab) ? tab : allTabs[0].key;
+  const openTab = allTabs.some((t) => t.key === tab) ? tab : OWN_TABS[0].key;
 
   // Keyboard shortcuts of the workspace; the latest handlers are read through a ref.
   const shortcuts = useRef({ save: () => {}, undo: () => {}, redo: () => {}, tab: (_i: number) => {} });

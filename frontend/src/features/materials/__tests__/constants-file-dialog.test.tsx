@@ -48,7 +48,7 @@ describe('ConstantsFileDialog', () => {
     await user.type(dialog.getByLabelText('Material name'), 'CaF2 windows');
     await user.click(dialog.getByRole('button', { name: 'Import material' }));
     await waitFor(() => expect(onClose).toHaveBeenCalled());
-    expect(api.calls('POST', '/api/materials/import-constants')[0].body).toEqual({
+    expect(api.calls('POST', '/api/materials/import-constants')[0]!.body).toEqual({
       name: 'CaF2 windows',
       text: CAF2,
       fileName: 'caf2--malitson.yml',

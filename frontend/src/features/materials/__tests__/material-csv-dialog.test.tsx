@@ -39,7 +39,7 @@ describe('MaterialCsvDialog', () => {
     await user.upload(dialog.getByLabelText('n,k file'), csvFile(text));
     const list = within(await dialog.findByRole('list', { name: 'Problems in the file' }));
     expect(list.getAllByRole('listitem').map((li) => li.textContent)).toEqual(ROW_PROBLEMS);
-    expect(api.calls('POST', '/api/materials/import-csv/preview')[0].body).toEqual({ csv: text });
+    expect(api.calls('POST', '/api/materials/import-csv/preview')[0]!.body).toEqual({ csv: text });
 
     await user.type(dialog.getByLabelText('Material name'), 'Film 17');
     await user.selectOptions(dialog.getByLabelText('Provenance'), 'typical');
@@ -79,7 +79,7 @@ describe('MaterialCsvDialog', () => {
     await user.click(dialog.getByRole('button', { name: 'Import material' }));
 
     await waitFor(() => expect(onClose).toHaveBeenCalled());
-    expect(api.calls('POST', '/api/materials/import-csv')[0].body).toEqual({
+    expect(api.calls('POST', '/api/materials/import-csv')[0]!.body).toEqual({
       name: 'Ta2O5 run 118',
       csv: text,
       interpolation: 'linear',

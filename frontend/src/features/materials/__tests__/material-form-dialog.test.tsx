@@ -149,7 +149,7 @@ describe('MaterialFormDialog', () => {
     );
     await user.click(dialog.getByRole('button', { name: 'Add material' }));
     await waitFor(() => expect(onClose).toHaveBeenCalled());
-    const body = api.calls('POST', '/api/materials')[0].body as { model: { C: number[] } };
+    const body = api.calls('POST', '/api/materials')[0]!.body as { model: { C: number[] } };
     expect(body.model.C).toEqual([0.0726631 ** 2, 0.1193242 ** 2, 18.028251 ** 2]);
   });
 
@@ -194,7 +194,7 @@ describe('MaterialFormDialog', () => {
     await user.click(dialog.getByRole('button', { name: 'Save material' }));
 
     const alert = (await dialog.findByText(STALE)).closest('[role="alert"]') as HTMLElement;
-    expect(api.calls('PUT', '/api/materials/4')[0].body).toMatchObject({ version: 2, model: { A: 1.375 } });
+    expect(api.calls('PUT', '/api/materials/4')[0]!.body).toMatchObject({ version: 2, model: { A: 1.375 } });
     expect(onClose).not.toHaveBeenCalled();
 
     await user.click(within(alert).getByRole('button', { name: 'Reload' }));
@@ -203,6 +203,6 @@ describe('MaterialFormDialog', () => {
 
     await user.click(dialog.getByRole('button', { name: 'Save material' }));
     await waitFor(() => expect(onClose).toHaveBeenCalled());
-    expect(api.calls('PUT', '/api/materials/4')[1].body).toMatchObject({ version: 3, model: { A: 1.372 } });
+    expect(api.calls('PUT', '/api/materials/4')[1]!.body).toMatchObject({ version: 3, model: { A: 1.372 } });
   });
 });

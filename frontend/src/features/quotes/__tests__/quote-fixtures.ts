@@ -34,7 +34,7 @@ export const DESIGN_SUMMARIES: DesignSummaryView[] = [
 const at = '2026-12-01T08:00:00.000Z';
 /** Design 12 with a version in every state but "submitted": only 2 and 3 may be quoted. */
 export const DESIGN_12: DesignView = {
-  ...DESIGN_SUMMARIES[0],
+  ...DESIGN_SUMMARIES[0]!,
   versions: [
     { number: 1, status: 'retired', updatedAt: at, createdBy: 'Tomas Reyne' },
     { number: 2, status: 'released', updatedAt: at, createdBy: 'Tomas Reyne' },

@@ -166,7 +166,7 @@ describe('QuoteFormDialog', () => {
       'designId: design 12 belongs to another customer',
     ]);
     // The edit carries the version it started from (optimistic locking).
-    expect(api.calls('PUT', '/api/quotes/21')[0].body).toMatchObject({ version: 1, versionNumber: 3 });
+    expect(api.calls('PUT', '/api/quotes/21')[0]!.body).toMatchObject({ version: 1, versionNumber: 3 });
     expect(onSaved).not.toHaveBeenCalled();
   });
 
@@ -194,7 +194,7 @@ describe('QuoteFormDialog', () => {
     expect(onNewCustomer).toHaveBeenCalledTimes(1);
     // Choosing "New customer…" leaves the picker as it was until a customer is made.
     expect((dialog.getByLabelText('Customer') as HTMLSelectElement).value).toBe('3');
-    const choose = onNewCustomer.mock.calls[0][0] as (c: { id: number; name: string }) => void;
+    const choose = onNewCustomer.mock.calls[0]![0] as (c: { id: number; name: string }) => void;
     act(() => choose({ id: 5, name: 'Marlow Scopes' }));
     expect((dialog.getByLabelText('Customer') as HTMLSelectElement).value).toBe('5');
   });

@@ -168,16 +168,16 @@ describe('RunSheetRoute', () => {
     const traces = tracesOf(figure) as { name: string; x: number[]; y: number[] }[];
     expect(traces.map((t) => t.name)).toEqual(['1 H', '2 L', '3 H', '4 L', 'Turning points', 'Layer ends']);
     // Layer 2 starts where layer 1 stopped on the monitor (20 nm) and ends at 20 + 25 = 45 nm.
-    expect(traces[1].x[0]).toBeCloseTo(20, 9);
-    expect(traces[1].x[traces[1].x.length - 1]).toBeCloseTo(45, 9);
+    expect(traces[1]!.x[0]).toBeCloseTo(20, 9);
+    expect(traces[1]!.x[traces[1]!.x.length - 1]).toBeCloseTo(45, 9);
     // The bare chip transmits (1 − R)/(1 + R) = 91.8318 % for n 1.52 (Macleod, Thin-Film Optical Filters, ch. 2).
-    expect(traces[0].y[0]).toBeCloseTo(91.8318, 3);
+    expect(traces[0]!.y[0]).toBeCloseTo(91.8318, 3);
     // Turning points are the API's, shifted by the monitor thickness deposited before their layer.
     const offsets = [0, 20, 45, 125];
-    const expected = SHEET.layers.flatMap((l, i) => l.turningPointsNm.map((t) => offsets[i] + t));
+    const expected = SHEET.layers.flatMap((l, i) => l.turningPointsNm.map((t) => offsets[i]! + t));
     expect(expected.length).toBeGreaterThan(0);
-    expect(traces[4].x).toEqual(expected.map((x) => expect.closeTo(x, 9) as unknown as number));
-    expect(traces[5].x.map((x) => Number(x.toFixed(9)))).toEqual([20, 45, 125, 225]);
+    expect(traces[4]!.x).toEqual(expected.map((x) => expect.closeTo(x, 9) as unknown as number));
+    expect(traces[5]!.x.map((x) => Number(x.toFixed(9)))).toEqual([20, 45, 125, 225]);
   });
 
   it('asks for a chamber first and offers no PDF until there is a sheet', async () => {
@@ -232,10 +232,10 @@ describe('RunSheetRoute', () => {
       'Remarks',
     ]);
     // Step 1 is H (process kept), step 2 is L (none kept).
-    const step1 = within(table).getAllByRole('row')[1];
+    const step1 = within(table).getAllByRole('row')[1]!;
     expect(step1.textContent).toContain('Base pressure ≤ 2.0 × 10⁻⁵ mbar');
     expect(step1.textContent).toContain('Ion assist 120 V, 2.5 A, gas 8 sccm');
-    expect(within(table).getAllByRole('row')[2].textContent).toContain('None kept for this material');
+    expect(within(table).getAllByRole('row')[2]!.textContent).toContain('None kept for this material');
     expect(within(table).getByLabelText('Actual end thickness, step 1').textContent).toBe('');
     const signOff = screen.getByRole('region', { name: 'Sign-off' });
     expect(within(signOff).getByRole('group', { name: 'Run by (operator)' })).toBeTruthy();

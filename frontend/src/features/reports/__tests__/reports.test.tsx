@@ -154,7 +154,7 @@ describe('NewReportDialog', () => {
     await user.type(dialog.getByLabelText('Spectrum number'), '2');
     await user.click(dialog.getByRole('button', { name: 'Create report' }));
     expect(await dialog.findByText('runId: run 31 did not build design 12 version 2')).toBeTruthy();
-    expect(api.calls('POST', '/api/reports')[0].body).toEqual({
+    expect(api.calls('POST', '/api/reports')[0]!.body).toEqual({
       designId: 12,
       versionNumber: 2,
       specMaskId: 6,
@@ -192,7 +192,7 @@ describe('report page', () => {
     expect(download.getAttribute('href')).toBe('/api/reports/4/pdf');
     expect(download.getAttribute('download')).toBe('compliance-report-4.pdf');
     const margins = screen.getByRole('table', { name: 'Limit-band margins' });
-    expect(within(margins).getAllByRole('row')[1].textContent).toBe(
+    expect(within(margins).getAllByRole('row')[1]!.textContent).toBe(
       'Band 1R ≤ 0.5 % over 420–680 nm0, 15, 30°avgFAIL-0.762420.01.262',
     );
     await waitFor(() => expect(screen.getByText(/against Fenwick lens AR rev A/)).toBeTruthy());

@@ -115,7 +115,7 @@ describe('Run page', () => {
     await user.click(readings.getByRole('button', { name: 'Save readings' }));
 
     await waitFor(() => expect(calls.calls('PUT', '/api/runs/40')).toHaveLength(1));
-    expect(calls.calls('PUT', '/api/runs/40')[0].body).toEqual({
+    expect(calls.calls('PUT', '/api/runs/40')[0]!.body).toEqual({
       version: 3,
       layerReadings: [
         { step: 1, monitorThicknessNm: 70.4, rateNmPerS: 0.5 },
@@ -207,7 +207,7 @@ describe('Run page', () => {
     await user.type(remarks.getByLabelText('New remark'), '  Witness 2 hazy at the rim ');
     await user.click(add);
     await waitFor(() => expect(calls.calls('POST', '/api/runs/40/remarks')).toHaveLength(1));
-    expect(calls.calls('POST', '/api/runs/40/remarks')[0].body).toEqual({
+    expect(calls.calls('POST', '/api/runs/40/remarks')[0]!.body).toEqual({
       text: 'Witness 2 hazy at the rim',
     });
     expect(await remarks.findByText('Witness 2 hazy at the rim')).toBeTruthy();
@@ -249,7 +249,7 @@ describe('Run page', () => {
     await user.type(durability.getByLabelText('Humidity notes'), 'haze at the edge');
     await user.click(durability.getByRole('button', { name: 'Save durability results' }));
     await waitFor(() => expect(calls.calls('PUT', '/api/runs/40')).toHaveLength(1));
-    expect(calls.calls('PUT', '/api/runs/40')[0].body).toEqual({
+    expect(calls.calls('PUT', '/api/runs/40')[0]!.body).toEqual({
       version: 3,
       durability: [
         { test: 'adhesion', method: 'ISO 9211-4, tape adhesion', result: 'pass' },
@@ -334,8 +334,8 @@ describe('Run page', () => {
     const figure = comparison.getByRole('figure', { name: 'Measured against design' });
     const traces = tracesOf(figure);
     expect(traces.map((t) => t.name)).toEqual(['Measured R 8°', 'Design R 8° avg']);
-    expect(traces[0].y).toEqual([0.4, 0.3, 0.7, 0.4]);
-    expect(traces[1].y).toEqual([0.35, 0.2, 0.3, 0.45]);
+    expect(traces[0]!.y).toEqual([0.4, 0.3, 0.7, 0.4]);
+    expect(traces[1]!.y).toEqual([0.35, 0.2, 0.3, 0.45]);
     // The forbidden region of "R ≤ 0.5 %" over 420–680 nm, from the limit up to the top of the plot.
     const shapes = layoutOf(figure).shapes as { x0: number; x1: number; y0: number; y1: number }[];
     expect(shapes).toHaveLength(1);
@@ -383,7 +383,7 @@ describe('Run page', () => {
     const panel = await section('Run diagnosis');
     expect(panel.queryByRole('button', { name: 'Run diagnosis' })).toBeNull();
     const table = within(await panel.findByRole('table', { name: 'Fitted thickness factors' }));
-    expect(within(table.getAllByRole('row')[1]).getAllByRole('cell')[6].textContent).toBe('0.920');
+    expect(within(table.getAllByRole('row')[1]!).getAllByRole('cell')[6]!.textContent).toBe('0.920');
     expect(panel.getByLabelText('Diagnosis run by').textContent).toMatch(/^Run by Tomas Reyne, finished /);
     expect(calls.requests.filter((r) => r.method === 'POST')).toHaveLength(0);
   });
@@ -403,7 +403,7 @@ describe('Run page', () => {
     const table = within(await panel.findByRole('table', { name: 'Fitted thickness factors' }));
     // Four layers: design layer 2 is deposited in step 3.
     expect(
-      within(table.getAllByRole('row')[1])
+      within(table.getAllByRole('row')[1]!)
         .getAllByRole('cell')
         .map((c) => c.textContent),
     ).toEqual(['1', '2', '3', 'ZrO2', '127.6', '117.4', '0.920', '−8.00 %', 'Likely deviated']);

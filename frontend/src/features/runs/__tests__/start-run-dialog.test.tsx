@@ -74,7 +74,7 @@ describe('StartRunDialog', () => {
     expect(api.calls('POST', '/api/runs').map((r) => r.body)).toEqual([
       { designId: 15, versionNumber: 2, chamberId: 3, lotNumber: 'L-2026-119', runDate: '2026-12-02' },
     ]);
-    expect(onStarted.mock.calls[0][0]).toMatchObject({ id: 41 });
+    expect(onStarted.mock.calls[0]![0]).toMatchObject({ id: 41 });
   });
 
   it('shows the server refusal with its details and stays open', async () => {

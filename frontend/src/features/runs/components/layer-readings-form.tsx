@@ -7,6 +7,7 @@ import TableCell from '@mui/material/TableCell';
 import TableHead from '@mui/material/TableHead';
 import TableRow from '@mui/material/TableRow';
 import Typography from '@mui/material/Typography';
+import { elementAt } from '@quietglass/shared';
 import { useForm } from 'react-hook-form';
 import { ErrorAlert } from '../../../components/error-alert';
 import { FormTextField } from '../../../components/form-text-field';
@@ -79,7 +80,7 @@ function valuesOf(run: RunView, steps: readonly DepositionStep[]): ReadingsValue
 /** The readings worth sending: steps with a value or a remark, empty fields left out. */
 export function readingsOf(values: ReadingsValues, steps: readonly DepositionStep[]): LayerReading[] {
   return steps.flatMap(({ step }, i) => {
-    const row = values.rows[i];
+    const row = elementAt(values.rows, i, 'the reading rows');
     const thickness = parseNumberInput(row.monitorThicknessNm);
     const rate = parseNumberInput(row.rateNmPerS);
     const notes = row.notes.trim();

@@ -23,6 +23,7 @@ const DATE_PATTERN = /^\d{4}-\d{2}-\d{2}$/;
 function isCalendarDate(value: string): boolean {
   if (!DATE_PATTERN.test(value)) return false;
   const [y, m, d] = value.split('-').map(Number);
+  if (y === undefined || m === undefined || d === undefined) return false;
   const date = new Date(Date.UTC(y, m - 1, d));
   return date.getUTCFullYear() === y && date.getUTCMonth() === m - 1 && date.getUTCDate() === d;
 }

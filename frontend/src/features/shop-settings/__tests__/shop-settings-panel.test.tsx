@@ -42,7 +42,7 @@ describe('ShopSettingsPanel', () => {
     await user.type(name, '  Larkspur Optics ');
     await user.click(panel.getByRole('button', { name: 'Save name' }));
     await screen.findByText('Shop name saved.');
-    expect(api.calls('PUT', '/api/shop-settings')[0].body).toEqual({
+    expect(api.calls('PUT', '/api/shop-settings')[0]!.body).toEqual({
       shopName: 'Larkspur Optics',
       version: 0,
     });
@@ -69,7 +69,7 @@ describe('ShopSettingsPanel', () => {
     await user.type(field, '0.25');
     await user.click(form.getByRole('button', { name: 'Save margin' }));
     await screen.findByText('Default target margin saved.');
-    expect(api.calls('PUT', '/api/shop-settings/target-margin')[0].body).toEqual({
+    expect(api.calls('PUT', '/api/shop-settings/target-margin')[0]!.body).toEqual({
       targetMarginPercent: 0.25,
       version: 0,
     });
@@ -107,7 +107,7 @@ describe('ShopSettingsPanel', () => {
       new File([png], 'logo.png', { type: 'image/png' }),
     );
     await screen.findByText('Logo uploaded.');
-    expect(api.calls('PUT', '/api/shop-settings/logo')[0].body).toEqual({
+    expect(api.calls('PUT', '/api/shop-settings/logo')[0]!.body).toEqual({
       contentType: 'image/png',
       dataBase64: 'iVBORw0KGgo=',
       version: 0,

@@ -212,7 +212,7 @@ describe('SpecMaskFormDialog', () => {
     await fill(user, band(1), 'Design margin', '0.1');
     await user.click(dialog.getByRole('button', { name: 'Save mask' }));
     await waitFor(() => expect(api.calls('POST', '/api/spec-masks')).toHaveLength(1));
-    expect(api.calls('POST', '/api/spec-masks')[0].body).toEqual({
+    expect(api.calls('POST', '/api/spec-masks')[0]!.body).toEqual({
       name: 'Fenwick lens AR',
       customerId: 3,
       revision: 'A',
@@ -296,7 +296,7 @@ describe('SpecMaskFormDialog', () => {
       { name: 'Quillon Optics', contactEmail: null, notes: '', contacts: [] },
     ]);
     await waitFor(() => expect(picker.value).toBe('11'));
-    expect(picker.selectedOptions[0].textContent).toBe('Quillon Optics');
+    expect(picker.selectedOptions[0]!.textContent).toBe('Quillon Optics');
   });
 });
 

@@ -6,6 +6,7 @@ import Button from '@mui/material/Button';
 import IconButton from '@mui/material/IconButton';
 import Paper from '@mui/material/Paper';
 import Typography from '@mui/material/Typography';
+import { elementAt } from '@quietglass/shared';
 import { useQueryClient } from '@tanstack/react-query';
 import { useState } from 'react';
 import { useFieldArray, useForm, useWatch, type Control } from 'react-hook-form';
@@ -90,7 +91,7 @@ function BandFields({
 }) {
   const boundType = useWatch({ control, name: `bands.${index}.boundType` });
   const angleMode = useWatch({ control, name: `bands.${index}.angleMode` });
-  const band = (v: string, all: MaskFormValues) => ({ v, band: all.bands[index] });
+  const band = (v: string, all: MaskFormValues) => ({ v, band: elementAt(all.bands, index, 'the bands') });
   const n = index + 1;
   return (
     <Paper
