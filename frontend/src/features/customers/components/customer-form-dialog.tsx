@@ -17,6 +17,7 @@ import { FormDialog } from '../../../components/form-dialog';
 import { FormTextField } from '../../../components/form-text-field';
 import { ApiError } from '../../../lib/api-client';
 import { notify } from '../../../lib/notifier';
+import { requestFormSchema } from '../../../lib/validation';
 import { getCustomersQueryOptions, type CustomerView } from '../api/get-customers';
 import { useSaveCustomer } from '../api/save-customer';
 
@@ -38,10 +39,7 @@ interface CustomerFormValues {
  * The API's own schema checks the form: its text fields are what the API accepts as they stand,
  * so the form shows the API's messages and its submit handler receives the request body.
  */
-const customerFormSchema = z
-  .custom<CustomerFormValues>()
-  .transform((values): z.input<typeof customerInputSchema> => values)
-  .pipe(customerInputSchema);
+const customerFormSchema = requestFormSchema(z.custom<CustomerFormValues>(), customerInputSchema);
 
 const EMPTY_CONTACT: ContactValues = { name: '', email: '', role: '', phone: '' };
 
