@@ -20,6 +20,13 @@ let halden: number;
 let haldenMask: number;
 
 const http = () => request(app.getHttpServer());
+/** How many quotes and reports are stored: a refused request writes neither. */
+async function counts() {
+  const [row] = await app
+    .get(DataSource)
+    .query('SELECT (SELECT count(*) FROM quotes) AS q, (SELECT count(*) FROM compliance_reports) AS r');
+  return { quotes: Number(row.q), reports: Number(row.r) };
+}
 async function pdfText(buf: Buffer): Promise<string> {
   const parser = new PDFParse({ data: new Uint8Array(buf) });
   try {
@@ -130,6 +137,36 @@ describe('compliance reports', () => {
     expect(text).not.toContain('99.60 nm');
   });
 
+  it.each([
+    [{ runId: 31 }, 'spectrumId: Give the run and its spectrum together'],
+    [{ spectrumId: 2 }, 'runId: Give the run and its spectrum together'],
+    [{ hideLayers: 'yes' }, 'hideLayers: hideLayers must be true or false'],
+    [{ versionNumber: 'one' }, 'versionNumber: Choose an approved version'],
+    [{ pages: 2 }, 'Unrecognized key: "pages"'],
+  ])('refuses the report request %j with 400 and writes nothing', async (patch, detail) => {
+    const before = await counts();
+    const res = await http()
+      .post('/api/reports')
+      .set('Cookie', sales)
+      .send({ designId, versionNumber: 1, ...patch });
+    expect(res.status).toBe(400);
+    expect(res.body.details).toContain(detail);
+    expect(await counts()).toEqual(before);
+  });
+
+  it('publishes the shared report schema as the request body in the OpenAPI description', async () => {
+    const create = (await requestBodies(app))('post', '/api/reports');
+    expect(create.required?.sort()).toEqual(['designId', 'versionNumber']);
+    expect(Object.keys(create.properties).sort()).toEqual([
+      'designId',
+      'hideLayers',
+      'runId',
+      'specMaskId',
+      'spectrumId',
+      'versionNumber',
+    ]);
+  });
+
   it('refuses a draft version', async () => {
     const m = await materialIds(app, mira);
     const draft = await http()
@@ -186,9 +223,7 @@ describe('quotes', () => {
       'quantityBreaks.1.minQuantity: Each break needs a larger quantity than the one before',
     ],
   ])('rejects %j with 400 and writes nothing', async (patch, detail) => {
-    const count = async () =>
-      Number((await app.get(DataSource).query('SELECT count(*) AS n FROM quotes'))[0].n);
-    const before = await count();
+    const before = await counts();
     const res = await http()
       .post('/api/quotes')
       .set('Cookie', sales)
@@ -196,7 +231,7 @@ describe('quotes', () => {
     expect(res.status).toBe(400);
     const expected = typeof detail === 'string' ? detail.replace('design 0', `design ${designId}`) : detail;
     expect(res.body.details).toContainEqual(expected);
-    expect(await count()).toBe(before);
+    expect(await counts()).toEqual(before);
   });
 
   it('publishes the shared quote schemas as the request bodies in the OpenAPI description', async () => {
@@ -382,12 +417,6 @@ describe('quotes under concurrency', () => {
 });
 
 describe('internal design targets and archived customers', () => {
-  const counts = async () => {
-    const [row] = await app
-      .get(DataSource)
-      .query('SELECT (SELECT count(*) FROM quotes) AS q, (SELECT count(*) FROM compliance_reports) AS r');
-    return { quotes: Number(row.q), reports: Number(row.r) };
-  };
   const internalTarget = async (revision: string) => {
     const res = await http()
       .post('/api/spec-masks')

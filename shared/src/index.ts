@@ -15,6 +15,7 @@ export * from './schemas/shop.js';
 export * from './schemas/users.js';
 export * from './schemas/customers.js';
 export * from './schemas/quotes.js';
+export * from './schemas/reports.js';
 export * from './calibration.js';
 export * from './recipes.js';
 export * from './outbox.js';
