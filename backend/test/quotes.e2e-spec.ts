@@ -8,6 +8,7 @@ import { binary } from './support/binary.js';
 import { createTestApp, demoSession } from './support/app.js';
 import { overlappingWords, pagePngs, pageTexts, wordBoxes } from './support/pdf-pages.js';
 import { customerId, maskId, materialIds } from './support/fixtures.js';
+import { requestBodies } from './support/openapi.js';
 
 let app: NestExpressApplication;
 let sales: string;
@@ -19,6 +20,13 @@ let halden: number;
 let haldenMask: number;
 
 const http = () => request(app.getHttpServer());
+/** How many quotes and reports are stored: a refused request writes neither. */
+async function counts() {
+  const [row] = await app
+    .get(DataSource)
+    .query('SELECT (SELECT count(*) FROM quotes) AS q, (SELECT count(*) FROM compliance_reports) AS r');
+  return { quotes: Number(row.q), reports: Number(row.r) };
+}
 async function pdfText(buf: Buffer): Promise<string> {
   const parser = new PDFParse({ data: new Uint8Array(buf) });
   try {
@@ -129,6 +137,36 @@ describe('compliance reports', () => {
     expect(text).not.toContain('99.60 nm');
   });
 
+  it.each([
+    [{ runId: 31 }, 'spectrumId: Give the run and its spectrum together'],
+    [{ spectrumId: 2 }, 'runId: Give the run and its spectrum together'],
+    [{ hideLayers: 'yes' }, 'hideLayers: hideLayers must be true or false'],
+    [{ versionNumber: 'one' }, 'versionNumber: Choose an approved version'],
+    [{ pages: 2 }, 'Unrecognized key: "pages"'],
+  ])('refuses the report request %j with 400 and writes nothing', async (patch, detail) => {
+    const before = await counts();
+    const res = await http()
+      .post('/api/reports')
+      .set('Cookie', sales)
+      .send({ designId, versionNumber: 1, ...patch });
+    expect(res.status).toBe(400);
+    expect(res.body.details).toContain(detail);
+    expect(await counts()).toEqual(before);
+  });
+
+  it('publishes the shared report schema as the request body in the OpenAPI description', async () => {
+    const create = (await requestBodies(app))('post', '/api/reports');
+    expect(create.required?.sort()).toEqual(['designId', 'versionNumber']);
+    expect(Object.keys(create.properties).sort()).toEqual([
+      'designId',
+      'hideLayers',
+      'runId',
+      'specMaskId',
+      'spectrumId',
+      'versionNumber',
+    ]);
+  });
+
   it('refuses a draft version', async () => {
     const m = await materialIds(app, mira);
     const draft = await http()
@@ -158,10 +196,22 @@ describe('quotes', () => {
   it.each([
     [
       { quantityBreaks: [{ minQuantity: 10, unitPrice: -1 }] },
-      'quantityBreaks.0.unitPrice must not be negative',
+      'quantityBreaks.0.unitPrice: The unit price must not be negative',
     ],
-    [{ validUntil: '2020-01-01' }, expect.stringMatching(/^validUntil: must be in the future/)],
-    [{ currency: 'euro' }, 'currency must be a three-letter ISO 4217 code such as EUR or USD'],
+    [
+      { quantityBreaks: [{ minQuantity: 10, unitPrice: 1.23456 }] },
+      'quantityBreaks.0.unitPrice: At most 4 decimals',
+    ],
+    [
+      { validUntil: '2020-01-01' },
+      expect.stringMatching(
+        /^validUntil: The validity date must be in the future \(after \d{4}-\d\d-\d\d\)$/,
+      ),
+    ],
+    [{ currency: 'euro' }, 'currency: A three-letter ISO 4217 code such as EUR or USD'],
+    [{ contactEmail: 'buyer at halden' }, 'contactEmail: Enter a valid e-mail address'],
+    [{ partDescription: ' ' }, 'partDescription: Describe the part'],
+    [{ discount: 5 }, 'Unrecognized key: "discount"'],
     [{ versionNumber: 9 }, `versionNumber: design ${0} has no version 9`],
     [
       {
@@ -170,12 +220,10 @@ describe('quotes', () => {
           { minQuantity: 10, unitPrice: 2 },
         ],
       },
-      'quantityBreaks: minQuantity must increase from one break to the next',
+      'quantityBreaks.1.minQuantity: Each break needs a larger quantity than the one before',
     ],
   ])('rejects %j with 400 and writes nothing', async (patch, detail) => {
-    const count = async () =>
-      Number((await app.get(DataSource).query('SELECT count(*) AS n FROM quotes'))[0].n);
-    const before = await count();
+    const before = await counts();
     const res = await http()
       .post('/api/quotes')
       .set('Cookie', sales)
@@ -183,7 +231,20 @@ describe('quotes', () => {
     expect(res.status).toBe(400);
     const expected = typeof detail === 'string' ? detail.replace('design 0', `design ${designId}`) : detail;
     expect(res.body.details).toContainEqual(expected);
-    expect(await count()).toBe(before);
+    expect(await counts()).toEqual(before);
+  });
+
+  it('publishes the shared quote schemas as the request bodies in the OpenAPI description', async () => {
+    const bodyOf = await requestBodies(app);
+    const create = bodyOf('post', '/api/quotes');
+    expect(create.required).not.toContain('specMaskId');
+    expect(create.required).toContain('quantityBreaks');
+    expect(create.properties.quantityBreaks!.maxItems).toBe(20);
+    expect(create.properties.quantityBreaks!.items!.properties.unitPrice!.maximum).toBe(1e9);
+    expect(create.properties.quantityBreaks!.items!.required?.sort()).toEqual(['minQuantity', 'unitPrice']);
+    expect(bodyOf('put', '/api/quotes/{id}').required).toContain('version');
+    expect(bodyOf('post', '/api/quotes/{id}/reports').required).toEqual(['reportIds']);
+    expect(bodyOf('post', '/api/quotes/{id}/decision').required).toEqual(['status']);
   });
 
   it('refuses a quote on a version that is not approved', async () => {
@@ -222,6 +283,12 @@ describe('quotes', () => {
       .post('/api/reports')
       .set('Cookie', sales)
       .send({ designId, versionNumber: 1, hideLayers: true });
+    const notIds = await http()
+      .post(`/api/quotes/${quote.body.id}/reports`)
+      .set('Cookie', sales)
+      .send({ reportIds: ['R-1'] });
+    expect(notIds.status).toBe(400);
+    expect(notIds.body.details).toEqual(['reportIds.0: reportIds must hold report ids']);
     const attached = await http()
       .post(`/api/quotes/${quote.body.id}/reports`)
       .set('Cookie', sales)
@@ -252,6 +319,12 @@ describe('quotes', () => {
 
     // Sent quotes are not edited and not sent twice; the customer's answer is recorded.
     expect((await http().post(`/api/quotes/${quote.body.id}/send`).set('Cookie', sales)).status).toBe(409);
+    const unclear = await http()
+      .post(`/api/quotes/${quote.body.id}/decision`)
+      .set('Cookie', sales)
+      .send({ status: 'maybe' });
+    expect(unclear.status).toBe(400);
+    expect(unclear.body.details).toEqual(['status: status must be accepted or declined']);
     const accepted = await http()
       .post(`/api/quotes/${quote.body.id}/decision`)
       .set('Cookie', sales)
@@ -344,12 +417,6 @@ describe('quotes under concurrency', () => {
 });
 
 describe('internal design targets and archived customers', () => {
-  const counts = async () => {
-    const [row] = await app
-      .get(DataSource)
-      .query('SELECT (SELECT count(*) FROM quotes) AS q, (SELECT count(*) FROM compliance_reports) AS r');
-    return { quotes: Number(row.q), reports: Number(row.r) };
-  };
   const internalTarget = async (revision: string) => {
     const res = await http()
       .post('/api/spec-masks')

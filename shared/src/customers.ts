@@ -28,13 +28,15 @@ export interface CustomerContact {
   phone?: string;
 }
 
-/** Limits of a customer's record (the API's DTO and the client's form use the same numbers). */
+/**
+ * Limits of a customer's record, checked by the shared customer schema (schemas/customers.ts);
+ * contact e-mail addresses follow the accounts' e-mail rule (MAX_EMAIL_LENGTH).
+ */
 export const CUSTOMER_LIMITS = {
   name: 160,
   notes: 4000,
   contacts: 20,
   contactName: 120,
-  contactEmail: 254,
   contactRole: 80,
   contactPhone: 40,
 } as const;

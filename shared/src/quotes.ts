@@ -20,9 +20,15 @@ export interface QuoteEvent {
   detail?: string;
 }
 
-/** What sales write on a quote: the body of a new quote or an edit (QuoteDto). */
-export interface QuoteInput {
-  customerId: number;
+/** Today in the shop's calendar (UTC), YYYY-MM-DD: quotes are valid until a date of it. */
+export function todayUtc(now: Date = new Date()): string {
+  return now.toISOString().slice(0, 10);
+}
+
+/** A quote as the API returns it. */
+export interface QuoteView {
+  id: number;
+  customer: { id: number; name: string };
   contactEmail: string;
   designId: number;
   versionNumber: number;
@@ -34,12 +40,6 @@ export interface QuoteInput {
   /** YYYY-MM-DD. */
   validUntil: string;
   terms: string;
-}
-
-/** A quote as the API returns it. */
-export interface QuoteView extends Omit<QuoteInput, 'customerId'> {
-  id: number;
-  customer: { id: number; name: string };
   status: QuoteStatus;
   reportIds: number[];
   history: QuoteEvent[];

@@ -3,7 +3,16 @@ import { ApiConflictResponse, ApiCreatedResponse, ApiOkResponse, ApiQuery, ApiTa
 import { Roles } from '../auth/roles.decorator.js';
 import { CurrentUser } from '../auth/current-user.decorator.js';
 import type { User } from '../users/user.entity.js';
-import { CustomerDto, CustomerVersionDto, CustomerViewDto, UpdateCustomerDto } from './dto/customer.dto.js';
+import {
+  customerInputSchema,
+  customerUpdateSchema,
+  customerVersionSchema,
+  type CustomerInput,
+  type CustomerUpdate,
+  type CustomerVersionInput,
+} from '@quietglass/shared/schemas/customers';
+import { ZodBody } from '../common/zod-body.js';
+import { CustomerViewDto } from './dto/customer.dto.js';
 import { toCustomerView, type CustomerView } from './customer.entity.js';
 import { CustomersService } from './customers.service.js';
 
@@ -37,16 +46,18 @@ export class CustomersController {
   @Post()
   @ApiCreatedResponse({ type: CustomerViewDto })
   @ApiConflictResponse({ description: 'A customer of that name exists' })
-  async create(@Body() dto: CustomerDto, @CurrentUser() user: User): Promise<CustomerView> {
+  @ZodBody(customerInputSchema)
+  async create(@Body() dto: CustomerInput, @CurrentUser() user: User): Promise<CustomerView> {
     return toCustomerView(await this.customers.create(dto, user));
   }
 
   @Put(':id')
   @ApiOkResponse({ type: CustomerViewDto })
   @ApiConflictResponse({ description: 'Stale version, or the name is taken' })
+  @ZodBody(customerUpdateSchema)
   async update(
     @Param('id', ParseIntPipe) id: number,
-    @Body() dto: UpdateCustomerDto,
+    @Body() dto: CustomerUpdate,
     @CurrentUser() user: User,
   ): Promise<CustomerView> {
     return toCustomerView(await this.customers.update(id, dto, user));
@@ -55,9 +66,10 @@ export class CustomersController {
   @Post(':id/archive')
   @ApiCreatedResponse({ type: CustomerViewDto, description: 'Hidden from pickers; records kept' })
   @ApiConflictResponse({ description: 'Stale version, or already archived' })
+  @ZodBody(customerVersionSchema)
   async archive(
     @Param('id', ParseIntPipe) id: number,
-    @Body() dto: CustomerVersionDto,
+    @Body() dto: CustomerVersionInput,
     @CurrentUser() user: User,
   ): Promise<CustomerView> {
     return toCustomerView(await this.customers.setArchived(id, true, dto.version, user));
@@ -66,9 +78,10 @@ export class CustomersController {
   @Post(':id/restore')
   @ApiCreatedResponse({ type: CustomerViewDto })
   @ApiConflictResponse({ description: 'Stale version, or not archived' })
+  @ZodBody(customerVersionSchema)
   async restore(
     @Param('id', ParseIntPipe) id: number,
-    @Body() dto: CustomerVersionDto,
+    @Body() dto: CustomerVersionInput,
     @CurrentUser() user: User,
   ): Promise<CustomerView> {
     return toCustomerView(await this.customers.setArchived(id, false, dto.version, user));

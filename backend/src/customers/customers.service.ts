@@ -1,14 +1,13 @@
 import { ConflictException, Injectable, NotFoundException } from '@nestjs/common';
 import { InjectRepository } from '@nestjs/typeorm';
 import { IsNull, Repository, type EntityManager } from 'typeorm';
-import type { CustomerContact } from '@quietglass/shared/customers';
+import type { CustomerInput, CustomerUpdate } from '@quietglass/shared/schemas/customers';
 import { AuditService } from '../audit/audit.service.js';
 import { isUniqueViolation } from '../common/db-errors.js';
 import { updateIfVersion } from '../common/optimistic-lock.js';
 import { stableStringify } from '../common/stable-json.js';
 import type { User } from '../users/user.entity.js';
 import { Customer } from './customer.entity.js';
-import type { CustomerContactDto, CustomerDto, UpdateCustomerDto } from './dto/customer.dto.js';
 
 @Injectable()
 export class CustomersService {
@@ -45,17 +44,16 @@ export class CustomersService {
     return customer;
   }
 
-  async create(dto: CustomerDto, user: User): Promise<Customer> {
-    const contacts = cleanContacts(dto.contacts ?? []);
+  async create(dto: CustomerInput, user: User): Promise<Customer> {
     return this.unique(dto.name, () =>
       this.customers.manager.transaction(async (tx) => {
         const repo = tx.getRepository(Customer);
         const saved = await repo.save(
           repo.create({
             name: dto.name,
-            contactEmail: dto.contactEmail ?? null,
-            notes: dto.notes ?? '',
-            contacts,
+            contactEmail: dto.contactEmail,
+            notes: dto.notes,
+            contacts: dto.contacts,
           }),
         );
         await this.audit.record(tx, {
@@ -64,19 +62,19 @@ export class CustomersService {
           entityId: saved.id,
           action: 'created',
           summary: `customer "${saved.name}" created`,
-          details: { name: saved.name, contactEmail: saved.contactEmail, contacts },
+          details: { name: saved.name, contactEmail: saved.contactEmail, contacts: dto.contacts },
         });
         return saved;
       }),
     );
   }
 
-  async update(id: number, dto: UpdateCustomerDto, user: User): Promise<Customer> {
+  async update(id: number, dto: CustomerUpdate, user: User): Promise<Customer> {
     const before = await this.get(id);
     const set: Partial<Customer> = { name: dto.name };
     if (dto.contactEmail !== undefined) set.contactEmail = dto.contactEmail;
     if (dto.notes !== undefined) set.notes = dto.notes;
-    if (dto.contacts !== undefined) set.contacts = cleanContacts(dto.contacts);
+    if (dto.contacts !== undefined) set.contacts = dto.contacts;
     await this.unique(dto.name, () =>
       this.customers.manager.transaction(async (tx) => {
         await this.locked(tx, id, dto.version, set);
@@ -138,14 +136,4 @@ export class CustomersService {
       throw err;
     }
   }
-}
-
-/** Contacts as stored: empty optional fields left out. */
-function cleanContacts(list: readonly CustomerContactDto[]): CustomerContact[] {
-  return list.map((c) => ({
-    name: c.name,
-    email: c.email,
-    ...(c.role ? { role: c.role } : {}),
-    ...(c.phone ? { phone: c.phone } : {}),
-  }));
 }

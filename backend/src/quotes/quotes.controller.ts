@@ -1,9 +1,19 @@
 import { Body, Controller, Get, Param, ParseIntPipe, Post, Put } from '@nestjs/common';
 import type { QuoteView } from '@quietglass/shared/quotes';
+import {
+  attachReportsSchema,
+  quoteDecisionSchema,
+  quoteInputSchema,
+  quoteUpdateSchema,
+  type AttachReportsInput,
+  type QuoteDecisionInput,
+  type QuoteInput,
+  type QuoteUpdate,
+} from '@quietglass/shared/schemas/quotes';
 import { CurrentUser } from '../auth/current-user.decorator.js';
 import { Roles } from '../auth/roles.decorator.js';
+import { ZodBody } from '../common/zod-body.js';
 import type { User } from '../users/user.entity.js';
-import { AttachReportsDto, QuoteDecisionDto, QuoteDto, UpdateQuoteDto } from './dto/quote.dto.js';
 import type { Quote } from './quote.entity.js';
 import { effectiveStatus, QuotesService } from './quotes.service.js';
 
@@ -38,23 +48,26 @@ export class QuotesController {
   }
 
   @Post()
-  async create(@Body() dto: QuoteDto, @CurrentUser() user: User): Promise<QuoteView> {
+  @ZodBody(quoteInputSchema)
+  async create(@Body() dto: QuoteInput, @CurrentUser() user: User): Promise<QuoteView> {
     return view(await this.quotes.create(dto, user));
   }
 
   @Put(':id')
+  @ZodBody(quoteUpdateSchema)
   async update(
     @Param('id', ParseIntPipe) id: number,
-    @Body() dto: UpdateQuoteDto,
+    @Body() dto: QuoteUpdate,
     @CurrentUser() user: User,
   ): Promise<QuoteView> {
     return view(await this.quotes.update(id, dto, user));
   }
 
   @Post(':id/reports')
+  @ZodBody(attachReportsSchema)
   async attach(
     @Param('id', ParseIntPipe) id: number,
-    @Body() dto: AttachReportsDto,
+    @Body() dto: AttachReportsInput,
     @CurrentUser() user: User,
   ): Promise<QuoteView> {
     return view(await this.quotes.attach(id, dto.reportIds, user));
@@ -66,9 +79,10 @@ export class QuotesController {
   }
 
   @Post(':id/decision')
+  @ZodBody(quoteDecisionSchema)
   async decide(
     @Param('id', ParseIntPipe) id: number,
-    @Body() dto: QuoteDecisionDto,
+    @Body() dto: QuoteDecisionInput,
     @CurrentUser() user: User,
   ): Promise<QuoteView> {
     return view(await this.quotes.decide(id, dto, user));

@@ -2,7 +2,8 @@ import { BadRequestException, ConflictException, Injectable, NotFoundException }
 import { InjectDataSource } from '@nestjs/typeorm';
 import { DataSource } from 'typeorm';
 import { isApprovedForCustomers } from '@quietglass/shared/designs';
-import type { QuoteStatus } from '@quietglass/shared/quotes';
+import { todayUtc, type QuoteStatus } from '@quietglass/shared/quotes';
+import type { QuoteDecisionInput, QuoteInput, QuoteUpdate } from '@quietglass/shared/schemas/quotes';
 import { AuditService } from '../audit/audit.service.js';
 import { orNull } from '../common/not-found.js';
 import { updateIfVersion } from '../common/optimistic-lock.js';
@@ -14,16 +15,11 @@ import { MailService } from '../mail/mail.service.js';
 import { ReportsService } from '../reports/reports.service.js';
 import { SpecMasksService } from '../spec-masks/spec-masks.service.js';
 import type { User } from '../users/user.entity.js';
-import type { QuoteDecisionDto, QuoteDto, UpdateQuoteDto } from './dto/quote.dto.js';
 import { Quote } from './quote.entity.js';
-import { elementAt } from '@quietglass/shared/checked';
-
-/** Today in the shop's calendar (UTC), YYYY-MM-DD. */
-const today = () => new Date().toISOString().slice(0, 10);
 
 /** A sent quote past its validity is expired; the status is derived so it is never stale. */
 export function effectiveStatus(q: Pick<Quote, 'status' | 'validUntil'>): QuoteStatus {
-  return q.status === 'sent' && q.validUntil < today() ? 'expired' : q.status;
+  return q.status === 'sent' && q.validUntil < todayUtc() ? 'expired' : q.status;
 }
 
 @Injectable()
@@ -55,7 +51,7 @@ export class QuotesService {
     return q;
   }
 
-  async create(dto: QuoteDto, user: User): Promise<Quote> {
+  async create(dto: QuoteInput, user: User): Promise<Quote> {
     const fields = await this.checked(dto);
     // Archived customers keep their quotes but get no new ones.
     if (fields.customer?.archivedAt) await this.customers.active(fields.customer.id);
@@ -84,7 +80,7 @@ export class QuotesService {
     return this.get(id);
   }
 
-  async update(id: number, dto: UpdateQuoteDto, user: User): Promise<Quote> {
+  async update(id: number, dto: QuoteUpdate, user: User): Promise<Quote> {
     const quote = await this.get(id);
     if (quote.status !== 'draft')
       throw new ConflictException(`Quote ${id} is ${quote.status}; only a draft can be edited`);
@@ -166,7 +162,7 @@ export class QuotesService {
     const quote = await this.get(id);
     if (quote.status !== 'draft')
       throw new ConflictException(`Quote ${id} is ${quote.status}; it was sent already`);
-    if (quote.validUntil < today()) {
+    if (quote.validUntil < todayUtc()) {
       throw new BadRequestException({
         message: ['validUntil is in the past: set a new validity date before sending'],
       });
@@ -246,7 +242,7 @@ export class QuotesService {
     return this.get(id);
   }
 
-  async decide(id: number, dto: QuoteDecisionDto, user: User): Promise<Quote> {
+  async decide(id: number, dto: QuoteDecisionInput, user: User): Promise<Quote> {
     const quote = await this.get(id);
     if (effectiveStatus(quote) !== 'sent') {
       throw new ConflictException(
@@ -280,8 +276,8 @@ export class QuotesService {
     return this.get(id);
   }
 
-  /** Validates the references and dates of a quote; errors name the field. */
-  private async checked(dto: QuoteDto): Promise<Partial<Quote>> {
+  /** Checks what the quote refers to (the shared schema has checked its values); errors name the field. */
+  private async checked(dto: QuoteInput): Promise<Partial<Quote>> {
     const problems: string[] = [];
     const customer = await orNull(this.customers.get(dto.customerId));
     if (!customer) problems.push(`customerId: customer ${dto.customerId} does not exist`);
@@ -304,11 +300,6 @@ export class QuotesService {
       else if (!isCustomerSpecification(mask))
         problems.push(internalMaskProblem(mask, dto.specMaskId === undefined));
     }
-    if (dto.validUntil <= today()) problems.push(`validUntil: must be in the future (after ${today()})`);
-    const quantities = dto.quantityBreaks.map((b) => b.minQuantity);
-    if (quantities.some((q, i) => i > 0 && q <= elementAt(quantities, i - 1, 'the quantity breaks'))) {
-      problems.push('quantityBreaks: minQuantity must increase from one break to the next');
-    }
     if (problems.length > 0) throw new BadRequestException({ message: problems });
     return {
       customer: customer as NonNullable<typeof customer>,
@@ -317,11 +308,11 @@ export class QuotesService {
       versionNumber: dto.versionNumber,
       specMaskId: maskId as number,
       partDescription: dto.partDescription,
-      quantityBreaks: dto.quantityBreaks.map((b) => ({ minQuantity: b.minQuantity, unitPrice: b.unitPrice })),
+      quantityBreaks: dto.quantityBreaks,
       currency: dto.currency,
       leadTimeDays: dto.leadTimeDays,
       validUntil: dto.validUntil,
-      terms: dto.terms ?? '',
+      terms: dto.terms,
     };
   }
 }

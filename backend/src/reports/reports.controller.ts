@@ -1,10 +1,11 @@
 import { Body, Controller, Get, Param, ParseIntPipe, Post, Query, Res, StreamableFile } from '@nestjs/common';
 import type { Response } from 'express';
 import type { ReportView } from '@quietglass/shared/reports';
+import { createReportSchema, type CreateReportInput } from '@quietglass/shared/schemas/reports';
 import { CurrentUser } from '../auth/current-user.decorator.js';
 import { Roles } from '../auth/roles.decorator.js';
+import { ZodBody } from '../common/zod-body.js';
 import type { User } from '../users/user.entity.js';
-import { CreateReportDto } from './dto/report.dto.js';
 import type { ComplianceReport } from './report.entity.js';
 import { ReportsService } from './reports.service.js';
 
@@ -27,7 +28,8 @@ export class ReportsController {
   }
 
   @Post()
-  async create(@Body() dto: CreateReportDto, @CurrentUser() user: User): Promise<ReportView> {
+  @ZodBody(createReportSchema)
+  async create(@Body() dto: CreateReportInput, @CurrentUser() user: User): Promise<ReportView> {
     return view(await this.reports.create(dto, user));
   }
 

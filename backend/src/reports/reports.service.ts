@@ -10,6 +10,7 @@ import { evaluateMaskOnMeasured } from '@quietglass/shared/measured';
 import { validateSpecMask, type LimitBand } from '@quietglass/shared/optics/mask';
 import { parseStack } from '@quietglass/shared/optics/stack';
 import type { ReportBandRow, ReportSummary } from '@quietglass/shared/reports';
+import type { CreateReportInput } from '@quietglass/shared/schemas/reports';
 import { missingAsBadRequest, orNull } from '../common/not-found.js';
 import { ApprovalsService } from '../designs/approvals.service.js';
 import { DesignsService } from '../designs/designs.service.js';
@@ -19,7 +20,6 @@ import { internalMaskProblem, SpecMasksService } from '../spec-masks/spec-masks.
 import { isCustomerSpecification } from '@quietglass/shared/customers';
 import { ShopSettingsService } from '../shop-settings/shop-settings.service.js';
 import type { User } from '../users/user.entity.js';
-import type { CreateReportDto } from './dto/report.dto.js';
 import { documentNumber, renderReportPdf, type PlotSeries } from './report-pdf.js';
 import { ComplianceReport } from './report.entity.js';
 import { bandDescription, colourOf, computeDesignedOffThread } from './report-compute.js';
@@ -36,7 +36,7 @@ export class ReportsService {
   ) {}
 
   /** Computes the compliance of a version against a mask, renders the PDF and stores both. */
-  async create(dto: CreateReportDto, user: User): Promise<ComplianceReport> {
+  async create(dto: CreateReportInput, user: User): Promise<ComplianceReport> {
     const version = await this.designs.findVersion(dto.designId, dto.versionNumber);
     if (!isApprovedForCustomers(version.status)) {
       throw new BadRequestException({
@@ -67,8 +67,11 @@ export class ReportsService {
     const back = engineBackSurface(version.backSurface);
     const bands = validateSpecMask({ bands: mask.bands }).bands;
 
+    // The shared schema has refused a run without its spectrum and a spectrum without its run.
     const measured =
-      dto.runId !== undefined || dto.spectrumId !== undefined ? await this.measured(dto) : null;
+      dto.runId !== undefined && dto.spectrumId !== undefined
+        ? await this.measured(dto, dto.runId, dto.spectrumId)
+        : null;
     let summary: ReportSummary;
     let plots: PlotSeries[];
     if (measured) {
@@ -103,7 +106,7 @@ export class ReportsService {
           designId: dto.designId,
           versionNumber: dto.versionNumber,
           specMaskId: maskId,
-          hideLayers: dto.hideLayers ?? false,
+          hideLayers: dto.hideLayers,
           runId: dto.runId ?? null,
           spectrumId: dto.spectrumId ?? null,
           summary,
@@ -185,23 +188,16 @@ export class ReportsService {
     return rows.map((r) => ({ id: r.id, pdf: r.pdf }));
   }
 
-  private async measured(dto: CreateReportDto) {
-    if (dto.runId === undefined || dto.spectrumId === undefined) {
-      throw new BadRequestException({
-        message: ['runId and spectrumId go together: name the run and its spectrum'],
-      });
-    }
-    const run = await orNull(this.runs.get(dto.runId));
+  private async measured(dto: CreateReportInput, runId: number, spectrumId: number) {
+    const run = await orNull(this.runs.get(runId));
     if (!run || run.designId !== dto.designId || run.versionNumber !== dto.versionNumber) {
       throw new BadRequestException({
-        message: [
-          `runId: run ${dto.runId} did not build design ${dto.designId} version ${dto.versionNumber}`,
-        ],
+        message: [`runId: run ${runId} did not build design ${dto.designId} version ${dto.versionNumber}`],
       });
     }
     const spectrum = await missingAsBadRequest(
-      this.runs.spectrum(dto.runId, dto.spectrumId),
-      `spectrumId: run ${dto.runId} has no spectrum ${dto.spectrumId}`,
+      this.runs.spectrum(runId, spectrumId),
+      `spectrumId: run ${runId} has no spectrum ${spectrumId}`,
     );
     return { ...spectrum, lot: run.lotNumber };
   }

@@ -26,6 +26,21 @@ export function schemaRule(schema: ZodType) {
  */
 export const typedNumber = z.string().transform((text) => parseNumberInput(text) ?? Number.NaN);
 
+/** A record chosen in a select: its id, or NaN (refused by the API's id schemas) when none is. */
+export const chosenId = z.string().transform((text) => (text === '' ? Number.NaN : Number(text)));
+
+/**
+ * A form's resolver schema: `typed` reads the form's fields (typed numbers, chosen ids) into the
+ * shape of an API request and the API's own `request` schema checks that, so the form shows the
+ * API's messages at the same field paths and its submit handler receives the request body.
+ */
+export function requestFormSchema<TValues, TRequestInput, TRequest>(
+  typed: ZodType<TRequestInput, TValues>,
+  request: ZodType<TRequest, TRequestInput>,
+) {
+  return typed.pipe(request);
+}
+
 /** An e-mail address as the API checks it. */
 export const emailRules = schemaRule(emailField);
 

@@ -73,7 +73,7 @@ describe('Customers page', () => {
     await user.type(contact.getByLabelText('E-mail'), 'ona at quillon');
     await user.type(contact.getByLabelText('Role'), 'purchasing');
     await user.click(dialog.getByRole('button', { name: 'Save customer' }));
-    expect(await contact.findByText('A valid e-mail address')).toBeTruthy();
+    expect(await contact.findByText('Enter a valid e-mail address')).toBeTruthy();
     expect(api.calls('POST', '/api/customers')).toHaveLength(0);
 
     await user.clear(contact.getByLabelText('E-mail'));
@@ -86,6 +86,28 @@ describe('Customers page', () => {
       notes: '',
       contacts: [{ name: 'Ona Vell', email: 'ona@quillon.example', role: 'purchasing' }],
     });
+  });
+
+  it("shows the API's own messages under the fields and sends nothing", async () => {
+    const api = mockApi({
+      'GET /api/auth/session': session,
+      'GET /api/customers': { status: 200, body: [] },
+    });
+    const { user } = renderApp('/customers');
+    await user.click(await screen.findByRole('button', { name: 'New customer' }));
+    const dialog = within(await screen.findByRole('dialog', { name: 'New customer' }));
+    await user.type(dialog.getByLabelText('Name'), '   ');
+    await user.type(dialog.getByLabelText('Quote e-mail'), 'buyer at quillon');
+    await user.click(dialog.getByRole('button', { name: 'Add contact' }));
+    const contact = within(dialog.getByRole('group', { name: 'Contact 1' }));
+    await user.type(contact.getByLabelText('E-mail'), 'ona@quillon.example');
+    await user.type(contact.getByLabelText('Phone'), '1'.repeat(41));
+    await user.click(dialog.getByRole('button', { name: 'Save customer' }));
+    expect(await dialog.findByText('Enter a customer name')).toBeTruthy();
+    expect(dialog.getByText('Enter a valid e-mail address')).toBeTruthy();
+    expect(contact.getByText("Enter the contact's name")).toBeTruthy();
+    expect(contact.getByText('At most 40 characters')).toBeTruthy();
+    expect(api.calls('POST', '/api/customers')).toHaveLength(0);
   });
 
   it('shows the API refusal of a duplicate name and keeps the dialog open', async () => {

@@ -1,14 +1,7 @@
 import { useMutation, useQueryClient } from '@tanstack/react-query';
-import type { CustomerContact } from '@quietglass/shared';
+import type { CustomerInput } from '@quietglass/shared';
 import { apiClient } from '../../../lib/api-client';
 import { CUSTOMER_LISTS_KEY, getCustomersQueryOptions, type CustomerView } from './get-customers';
-
-export interface CustomerInput {
-  name: string;
-  contactEmail: string | null;
-  notes: string;
-  contacts: CustomerContact[];
-}
 
 /** A new customer (id null) or an edit from `version`; 409 when someone else saved it first. */
 export interface SaveCustomerInput {

@@ -7,17 +7,19 @@ import IconButton from '@mui/material/IconButton';
 import Typography from '@mui/material/Typography';
 import { useQueryClient } from '@tanstack/react-query';
 import { useState } from 'react';
+import { zodResolver } from '@hookform/resolvers/zod';
 import { useFieldArray, useForm } from 'react-hook-form';
-import { CUSTOMER_LIMITS as L } from '@quietglass/shared';
+import { z } from 'zod';
+import { CUSTOMER_LIMITS as L, customerInputSchema, type CustomerInput } from '@quietglass/shared';
 import { ConflictAlert } from '../../../components/conflict-alert';
 import { ErrorAlert } from '../../../components/error-alert';
 import { FormDialog } from '../../../components/form-dialog';
 import { FormTextField } from '../../../components/form-text-field';
 import { ApiError } from '../../../lib/api-client';
 import { notify } from '../../../lib/notifier';
+import { requestFormSchema } from '../../../lib/validation';
 import { getCustomersQueryOptions, type CustomerView } from '../api/get-customers';
-import { useSaveCustomer, type CustomerInput } from '../api/save-customer';
-import { fieldText } from '../../../lib/format';
+import { useSaveCustomer } from '../api/save-customer';
 
 interface ContactValues {
   name: string;
@@ -33,8 +35,12 @@ interface CustomerFormValues {
   contacts: ContactValues[];
 }
 
-// The API's check (class-validator IsEmail) is stricter; this catches typing slips early.
-const EMAIL = /^[^\s@]+@[^\s@]+\.[^\s@]+$/;
+/**
+ * The API's own schema checks the form: its text fields are what the API accepts as they stand,
+ * so the form shows the API's messages and its submit handler receives the request body.
+ */
+const customerFormSchema = requestFormSchema(z.custom<CustomerFormValues>(), customerInputSchema);
+
 const EMPTY_CONTACT: ContactValues = { name: '', email: '', role: '', phone: '' };
 
 function valuesOf(c: CustomerView | null): CustomerFormValues {
@@ -51,22 +57,6 @@ function valuesOf(c: CustomerView | null): CustomerFormValues {
   };
 }
 
-function inputOf(v: CustomerFormValues): CustomerInput {
-  return {
-    name: v.name.trim(),
-    contactEmail: v.contactEmail.trim() === '' ? null : v.contactEmail.trim(),
-    notes: v.notes,
-    contacts: v.contacts.map((c) => ({
-      name: c.name.trim(),
-      email: c.email.trim(),
-      ...(c.role.trim() ? { role: c.role.trim() } : {}),
-      ...(c.phone.trim() ? { phone: c.phone.trim() } : {}),
-    })),
-  };
-}
-
-const max = (n: number) => ({ value: n, message: `At most ${n} characters` });
-
 interface CustomerFormDialogProps {
   open: boolean;
   /** The customer to edit, or null for a new one. */
@@ -82,8 +72,9 @@ export function CustomerFormDialog({ open, customer, onClose, onSaved }: Custome
   const save = useSaveCustomer();
   const [base, setBase] = useState<CustomerView | null>(customer);
   const [formError, setFormError] = useState<string | null>(null);
-  const { control, handleSubmit, reset } = useForm<CustomerFormValues>({
+  const { control, handleSubmit, reset } = useForm<CustomerFormValues, unknown, CustomerInput>({
     defaultValues: valuesOf(customer),
+    resolver: zodResolver(customerFormSchema),
     mode: 'onTouched',
   });
   const { fields, append, remove } = useFieldArray({ control, name: 'contacts' });
@@ -96,10 +87,10 @@ export function CustomerFormDialog({ open, customer, onClose, onSaved }: Custome
     onClose();
   };
 
-  const onSubmit = handleSubmit((values) => {
+  const onSubmit = handleSubmit((input) => {
     setFormError(null);
     save.mutate(
-      { id: base?.id ?? null, version: base?.version ?? 1, customer: inputOf(values) },
+      { id: base?.id ?? null, version: base?.version ?? 1, customer: input },
       {
         onSuccess: (saved) => {
           notify(`Customer ${saved.name} saved.`, 'success');
@@ -145,35 +136,16 @@ export function CustomerFormDialog({ open, customer, onClose, onSaved }: Custome
         </Alert>
       )}
       <Box sx={{ display: 'grid', gap: 2, gridTemplateColumns: { xs: '1fr', sm: '1fr 1fr' }, mt: 1 }}>
-        <FormTextField
-          control={control}
-          name="name"
-          rules={{ validate: (v) => fieldText(v).trim() !== '' || 'Enter a name', maxLength: max(L.name) }}
-          label="Name"
-          size="small"
-          autoFocus
-        />
+        <FormTextField control={control} name="name" label="Name" size="small" autoFocus />
         <FormTextField
           control={control}
           name="contactEmail"
-          rules={{
-            validate: (v) =>
-              fieldText(v).trim() === '' || EMAIL.test(fieldText(v).trim()) || 'An e-mail address, or empty',
-          }}
           label="Quote e-mail"
           size="small"
           helperText="Where quotes go unless a contact is chosen (optional)"
         />
       </Box>
-      <FormTextField
-        control={control}
-        name="notes"
-        rules={{ maxLength: max(L.notes) }}
-        label="Notes"
-        size="small"
-        multiline
-        maxRows={4}
-      />
+      <FormTextField control={control} name="notes" label="Notes" size="small" multiline maxRows={4} />
       <Typography component="h3" variant="subtitle2">
         Contacts
       </Typography>
@@ -193,30 +165,11 @@ export function CustomerFormDialog({ open, customer, onClose, onSaved }: Custome
             gridTemplateColumns: { xs: '1fr 1fr', md: '2fr 2fr 1.5fr 1.5fr auto' },
           }}
         >
-          <FormTextField
-            control={control}
-            name={`contacts.${i}.name`}
-            rules={{
-              validate: (v) => fieldText(v).trim() !== '' || 'Enter a name',
-              maxLength: max(L.contactName),
-            }}
-            label="Contact name"
-            size="small"
-          />
-          <FormTextField
-            control={control}
-            name={`contacts.${i}.email`}
-            rules={{
-              validate: (v) => EMAIL.test(fieldText(v).trim()) || 'A valid e-mail address',
-              maxLength: max(L.contactEmail),
-            }}
-            label="E-mail"
-            size="small"
-          />
+          <FormTextField control={control} name={`contacts.${i}.name`} label="Contact name" size="small" />
+          <FormTextField control={control} name={`contacts.${i}.email`} label="E-mail" size="small" />
           <FormTextField
             control={control}
             name={`contacts.${i}.role`}
-            rules={{ maxLength: max(L.contactRole) }}
             label="Role"
             size="small"
             helperText="Optional"
@@ -224,7 +177,6 @@ export function CustomerFormDialog({ open, customer, onClose, onSaved }: Custome
           <FormTextField
             control={control}
             name={`contacts.${i}.phone`}
-            rules={{ maxLength: max(L.contactPhone) }}
             label="Phone"
             size="small"
             helperText="Optional"

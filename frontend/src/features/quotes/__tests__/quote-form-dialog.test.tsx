@@ -1,3 +1,4 @@
+import { todayUtc } from '@quietglass/shared';
 import { act, screen, waitFor, within } from '@testing-library/react';
 import { useState } from 'react';
 import { describe, expect, it, vi } from 'vitest';
@@ -6,12 +7,12 @@ import { descriptionOf } from '../../../test/queries';
 import { renderWithProviders } from '../../../test/render';
 import type { QuoteView } from '../api/get-quotes';
 import { QuoteFormDialog } from '../components/quote-form-dialog';
-import { daysFromToday, todayUtc } from '../quote-form';
+import { daysFromToday } from '../quote-form';
 import { CUSTOMERS, DESIGN_12, DESIGN_SUMMARIES, MASKS, testQuote } from './quote-fixtures';
 
-// Rules mirrored from the API's QuoteDto and QuotesService (backend/src/quotes): unit prices not
-// negative, validity date after today (UTC), at least one quantity break, approved or released
-// versions only.
+// The form checks the API's own quote schema (shared/src/schemas/quotes.ts): unit prices not
+// negative, validity date after today (UTC), quantities rising from break to break; it offers
+// approved or released versions only.
 
 /** The form as a route uses it: it fetches the chosen design's versions (here: design 12's). */
 function Harness({ quote, onSaved }: { quote: QuoteView | null; onSaved: (q: QuoteView) => void }) {
@@ -120,6 +121,25 @@ describe('QuoteFormDialog', () => {
     expect(descriptionOf('From quantity (break 2)')).toBe(
       'Each break needs a larger quantity than the one before',
     );
+    expect(api.requests).toHaveLength(0);
+  });
+
+  it("an empty new quote shows the API's messages under its fields", async () => {
+    const api = mockApi({});
+    const { user } = renderForm();
+    const dialog = within(await screen.findByRole('dialog', { name: 'New quote' }));
+    await user.type(dialog.getByLabelText('Unit price (break 1)'), '1.23456');
+    await user.clear(dialog.getByLabelText('Currency'));
+    await user.type(dialog.getByLabelText('Currency'), 'eur');
+    await user.click(dialog.getByRole('button', { name: 'Create quote' }));
+
+    await waitFor(() => expect(descriptionOf('Customer')).toBe('Choose the customer'));
+    expect(descriptionOf('Contact e-mail')).toBe('Enter an e-mail address');
+    expect(descriptionOf('Part description')).toBe('Describe the part');
+    expect(descriptionOf('From quantity (break 1)')).toBe('Enter a quantity');
+    expect(descriptionOf('Unit price (break 1)')).toBe('At most 4 decimals');
+    expect(descriptionOf('Currency')).toBe('A three-letter ISO 4217 code such as EUR or USD');
+    expect(descriptionOf('Lead time (days)')).toBe('Enter the lead time in days');
     expect(api.requests).toHaveLength(0);
   });
 

@@ -4,8 +4,6 @@ import { apiClient } from '../../../lib/api-client';
 import type { QuoteView } from './get-quotes';
 import { quoteChanged } from './quote-changed';
 
-export type { QuoteInput } from '@quietglass/shared';
-
 export function createQuote(input: QuoteInput): Promise<QuoteView> {
   return apiClient.post<QuoteView>('/quotes', input);
 }

@@ -1,6 +1,6 @@
 import { useMutation, useQueryClient } from '@tanstack/react-query';
+import type { QuoteInput } from '@quietglass/shared';
 import { apiClient } from '../../../lib/api-client';
-import type { QuoteInput } from './create-quote';
 import type { QuoteView } from './get-quotes';
 import { quoteChanged } from './quote-changed';
 

@@ -5,9 +5,12 @@ import Button from '@mui/material/Button';
 import FormHelperText from '@mui/material/FormHelperText';
 import IconButton from '@mui/material/IconButton';
 import Typography from '@mui/material/Typography';
+import { zodResolver } from '@hookform/resolvers/zod';
 import {
+  QUOTE_LIMITS,
   isApprovedForCustomers,
   isCustomerSpecification,
+  type QuoteInput,
   type SpecMaskKind,
   type VersionStatus,
 } from '@quietglass/shared';
@@ -17,24 +20,10 @@ import { ErrorAlert } from '../../../components/error-alert';
 import { FormDialog } from '../../../components/form-dialog';
 import { FormSelectField, NEW_CUSTOMER_OPTION, namedOptions } from '../../../components/form-select-field';
 import { FormTextField } from '../../../components/form-text-field';
-import { emailRules } from '../../../lib/validation';
 import { useCreateQuote } from '../api/create-quote';
 import type { QuoteView } from '../api/get-quotes';
 import { useUpdateQuote } from '../api/update-quote';
-import {
-  currencyRule,
-  emptyQuoteValues,
-  leadTimeRule,
-  MAX_BREAKS,
-  partDescriptionRule,
-  quoteInput,
-  quoteValues,
-  risingQuantityRule,
-  termsRule,
-  unitPriceRule,
-  validUntilRule,
-  type QuoteFormValues,
-} from '../quote-form';
+import { emptyQuoteValues, quoteFormSchema, quoteValues, type QuoteFormValues } from '../quote-form';
 
 export interface QuoteCustomerChoice {
   id: number;
@@ -92,17 +81,13 @@ export function QuoteFormDialog({
   const createQuote = useCreateQuote();
   const updateQuote = useUpdateQuote();
   const mutation = quote ? updateQuote : createQuote;
-  const { control, handleSubmit, setValue, getValues, watch, formState } = useForm<QuoteFormValues>({
-    defaultValues: quote ? quoteValues(quote) : emptyQuoteValues(),
-  });
-  const breaks = useFieldArray({
-    control,
-    name: 'breaks',
-    rules: {
-      validate: (rows) => rows.length > 0 || 'Give at least one quantity break',
-      maxLength: { value: MAX_BREAKS, message: `At most ${MAX_BREAKS} quantity breaks` },
+  const { control, handleSubmit, setValue, watch, formState } = useForm<QuoteFormValues, unknown, QuoteInput>(
+    {
+      defaultValues: quote ? quoteValues(quote) : emptyQuoteValues(),
+      resolver: zodResolver(quoteFormSchema),
     },
-  });
+  );
+  const breaks = useFieldArray({ control, name: 'quantityBreaks' });
   const customerId = useWatch({ control, name: 'customerId' });
   const designId = useWatch({ control, name: 'designId' });
   const designsOfCustomer = designs.filter((d) => String(d.customer.id) === customerId);
@@ -138,8 +123,7 @@ export function QuoteFormDialog({
     onClose();
   };
 
-  const onSubmit = handleSubmit((values) => {
-    const changes = quoteInput(values);
+  const onSubmit = handleSubmit((changes) => {
     const done = {
       onSuccess: (saved: QuoteView) => {
         close();
@@ -150,7 +134,8 @@ export function QuoteFormDialog({
     else createQuote.mutate(changes, done);
   });
 
-  const breaksError = formState.errors.breaks?.root?.message ?? formState.errors.breaks?.message;
+  const breaksError =
+    formState.errors.quantityBreaks?.root?.message ?? formState.errors.quantityBreaks?.message;
 
   return (
     <FormDialog
@@ -169,7 +154,6 @@ export function QuoteFormDialog({
           name="customerId"
           label="Customer"
           placeholder="Choose…"
-          rules={{ validate: (v) => v !== '' || 'Choose the customer' }}
           options={namedOptions(customers)}
           createOption={
             onNewCustomer && {
@@ -179,13 +163,7 @@ export function QuoteFormDialog({
             }
           }
         />
-        <FormTextField
-          control={control}
-          name="contactEmail"
-          label="Contact e-mail"
-          type="email"
-          rules={emailRules}
-        />
+        <FormTextField control={control} name="contactEmail" label="Contact e-mail" type="email" />
         <FormSelectField
           control={control}
           name="designId"
@@ -195,7 +173,6 @@ export function QuoteFormDialog({
           helperText={
             customerId === '' ? 'Choose the customer first' : `${designsOfCustomer.length} of their designs`
           }
-          rules={{ validate: (v) => v !== '' || 'Choose the design' }}
           options={namedOptions(designsOfCustomer)}
         />
         <FormSelectField
@@ -213,7 +190,6 @@ export function QuoteFormDialog({
                   ? 'This design has no approved or released version yet'
                   : 'Only approved and released versions can be quoted'
           }
-          rules={{ validate: (v) => v !== '' || 'Choose an approved version' }}
           options={quotable.map((v) => ({
             value: String(v.number),
             label: `Version ${v.number} (${v.status})`,
@@ -225,18 +201,12 @@ export function QuoteFormDialog({
           label="Spec mask"
           placeholder="Choose…"
           disabled={customerId === ''}
-          rules={{ validate: (v) => v !== '' || "Choose the customer's spec mask the quote refers to" }}
           options={masksOfCustomer.map((m) => ({
             value: String(m.id),
             label: `${m.name} rev ${m.revision}`,
           }))}
         />
-        <FormTextField
-          control={control}
-          name="partDescription"
-          label="Part description"
-          rules={{ validate: partDescriptionRule }}
-        />
+        <FormTextField control={control} name="partDescription" label="Part description" />
       </Box>
 
       <Box component="fieldset" sx={{ border: 0, p: 0, m: 0, display: 'grid', gap: 1 }}>
@@ -250,23 +220,17 @@ export function QuoteFormDialog({
           >
             <FormTextField
               control={control}
-              name={`breaks.${index}.minQuantity`}
+              name={`quantityBreaks.${index}.minQuantity`}
               label={`From quantity (break ${index + 1})`}
               size="small"
               inputMode="numeric"
-              rules={{
-                validate: risingQuantityRule(() =>
-                  index === 0 ? undefined : getValues(`breaks.${index - 1}.minQuantity`),
-                ),
-              }}
             />
             <FormTextField
               control={control}
-              name={`breaks.${index}.unitPrice`}
+              name={`quantityBreaks.${index}.unitPrice`}
               label={`Unit price (break ${index + 1})`}
               size="small"
               inputMode="decimal"
-              rules={{ validate: unitPriceRule }}
             />
             <IconButton
               aria-label={`Remove break ${index + 1}`}
@@ -281,7 +245,7 @@ export function QuoteFormDialog({
         <Box>
           <Button
             startIcon={<AddOutlined />}
-            disabled={breaks.fields.length >= MAX_BREAKS}
+            disabled={breaks.fields.length >= QUOTE_LIMITS.breaks}
             onClick={() => breaks.append({ minQuantity: '', unitPrice: '' })}
           >
             Add quantity break
@@ -290,37 +254,17 @@ export function QuoteFormDialog({
       </Box>
 
       <Box sx={{ display: 'grid', gap: 2, gridTemplateColumns: { xs: '1fr', sm: 'repeat(3, 1fr)' } }}>
-        <FormTextField
-          control={control}
-          name="currency"
-          label="Currency"
-          helperText="ISO 4217, e.g. EUR"
-          rules={{ validate: currencyRule }}
-        />
-        <FormTextField
-          control={control}
-          name="leadTimeDays"
-          label="Lead time (days)"
-          inputMode="numeric"
-          rules={{ validate: leadTimeRule }}
-        />
+        <FormTextField control={control} name="currency" label="Currency" helperText="ISO 4217, e.g. EUR" />
+        <FormTextField control={control} name="leadTimeDays" label="Lead time (days)" inputMode="numeric" />
         <FormTextField
           control={control}
           name="validUntil"
           label="Valid until"
           type="date"
           slotProps={{ inputLabel: { shrink: true } }}
-          rules={{ validate: validUntilRule() }}
         />
       </Box>
-      <FormTextField
-        control={control}
-        name="terms"
-        label="Terms"
-        multiline
-        minRows={2}
-        rules={{ validate: termsRule }}
-      />
+      <FormTextField control={control} name="terms" label="Terms" multiline minRows={2} />
     </FormDialog>
   );
 }

@@ -10,7 +10,7 @@ import { NewReportDialog } from '../components/new-report-dialog';
 
 // The reports API (backend/src/reports): reports are made of approved or released versions only,
 // against a spec mask of the design's customer (the design's own mask by default); runId and
-// spectrumId go together.
+// spectrumId go together. The dialog checks the API's own schema (shared/src/schemas/reports.ts).
 
 const DESIGNS = [
   { id: 12, name: 'Fenwick lens AR', customer: { id: 3, name: 'Fenwick Optics Lab' }, specMaskId: 6 },
@@ -163,6 +163,18 @@ describe('NewReportDialog', () => {
       spectrumId: 2,
     });
     expect(onCreated).not.toHaveBeenCalled();
+  });
+  it("shows the API's messages for a run number that is not one and a design not chosen", async () => {
+    const api = mockApi({});
+    const { user } = renderWithProviders(<Harness onCreated={vi.fn()} allowMeasured />);
+    const dialog = within(await screen.findByRole('dialog', { name: 'New compliance report' }));
+    await user.type(dialog.getByLabelText('Run number'), 'R-31');
+    await user.type(dialog.getByLabelText('Spectrum number'), '2');
+    await user.click(dialog.getByRole('button', { name: 'Create report' }));
+    expect(await dialog.findByText('Enter the run number')).toBeTruthy();
+    expect(dialog.getByText('Choose the design')).toBeTruthy();
+    expect(dialog.getByText('Choose an approved version')).toBeTruthy();
+    expect(api.requests).toHaveLength(0);
   });
 });
 

@@ -1,19 +1,9 @@
 import { useMutation, useQueryClient } from '@tanstack/react-query';
+import type { CreateReportInput } from '@quietglass/shared';
 import { apiClient } from '../../../lib/api-client';
 import { REPORT_LISTS_KEY, type ReportView } from './get-reports';
 
-/** CreateReportDto: an approved or released version against a mask of the design's customer. */
-export interface CreateReportInput {
-  designId: number;
-  versionNumber: number;
-  /** The design's own mask when omitted. */
-  specMaskId?: number;
-  hideLayers: boolean;
-  /** A run's measured spectrum instead of the designed values: both or neither. */
-  runId?: number;
-  spectrumId?: number;
-}
-
+/** An approved or released version against a mask of the design's customer. */
 export function createReport(input: CreateReportInput): Promise<ReportView> {
   return apiClient.post<ReportView>('/reports', input);
 }

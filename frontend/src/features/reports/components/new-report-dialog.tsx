@@ -1,19 +1,25 @@
 import Box from '@mui/material/Box';
 import Typography from '@mui/material/Typography';
+import { zodResolver } from '@hookform/resolvers/zod';
 import {
+  createReportSchema,
   isApprovedForCustomers,
   isCustomerSpecification,
+  type CreateReportInput,
   type SpecMaskKind,
   type VersionStatus,
 } from '@quietglass/shared';
 import { useEffect } from 'react';
 import { useForm, useWatch } from 'react-hook-form';
+import { z } from 'zod';
 import { ErrorAlert } from '../../../components/error-alert';
 import { FormCheckboxField } from '../../../components/form-checkbox-field';
 import { FormDialog } from '../../../components/form-dialog';
 import { FormSelectField } from '../../../components/form-select-field';
 import { FormTextField } from '../../../components/form-text-field';
-import { useCreateReport, type CreateReportInput } from '../api/create-report';
+import { parseNumberInput } from '../../../lib/format';
+import { chosenId, requestFormSchema } from '../../../lib/validation';
+import { useCreateReport } from '../api/create-report';
 import type { ReportView } from '../api/get-reports';
 
 export interface ReportDesignChoice {
@@ -56,14 +62,24 @@ interface NewReportDialogProps {
   allowMeasured?: boolean;
 }
 
-const ID_PATTERN = /^\d+$/;
+/** A number typed in a field that may stay empty: left out when empty, NaN when not a number. */
+const typedOptionalId = z
+  .string()
+  .transform((text) => (text.trim() === '' ? undefined : (parseNumberInput(text) ?? Number.NaN)));
 
-function idRule(what: string) {
-  return (value: unknown) => {
-    const text = String(value).trim();
-    return text === '' || ID_PATTERN.test(text) || `Enter the ${what} number`;
-  };
-}
+/** The form's fields read as a report request and checked by the API's own schema. */
+const newReportSchema = requestFormSchema(
+  z.object({
+    designId: chosenId,
+    versionNumber: chosenId,
+    // The form always names the mask; NaN (none chosen) gets the API's message.
+    specMaskId: chosenId,
+    hideLayers: z.boolean(),
+    runId: typedOptionalId,
+    spectrumId: typedOptionalId,
+  }),
+  createReportSchema,
+);
 
 function defaults(preset: NewReportDialogProps['preset']): NewReportValues {
   return {
@@ -89,8 +105,9 @@ export function NewReportDialog({
   allowMeasured = false,
 }: NewReportDialogProps) {
   const createReport = useCreateReport();
-  const { control, handleSubmit, setValue, getValues, watch } = useForm<NewReportValues>({
+  const { control, handleSubmit, setValue, watch } = useForm<NewReportValues, unknown, CreateReportInput>({
     defaultValues: defaults(preset),
+    resolver: zodResolver(newReportSchema),
   });
   const designId = useWatch({ control, name: 'designId' });
   const design = designs.find((d) => String(d.id) === designId);
@@ -118,17 +135,7 @@ export function NewReportDialog({
     onClose();
   };
 
-  const onSubmit = handleSubmit((values) => {
-    const input: CreateReportInput = {
-      designId: Number(values.designId),
-      versionNumber: Number(values.versionNumber),
-      specMaskId: Number(values.specMaskId),
-      hideLayers: values.hideLayers,
-    };
-    if (values.runId.trim() !== '') {
-      input.runId = Number(values.runId);
-      input.spectrumId = Number(values.spectrumId);
-    }
+  const onSubmit = handleSubmit((input) => {
     createReport.mutate(input, {
       onSuccess: (report) => {
         close();
@@ -158,7 +165,6 @@ export function NewReportDialog({
           label="Design"
           placeholder="Choose…"
           disabled={Boolean(preset)}
-          rules={{ validate: (v) => v !== '' || 'Choose the design' }}
           options={designs.map((d) => ({ value: String(d.id), label: `${d.name} — ${d.customer.name}` }))}
         />
         <FormSelectField
@@ -176,7 +182,6 @@ export function NewReportDialog({
                   ? 'This design has no approved or released version yet'
                   : 'Only approved and released versions are reported'
           }
-          rules={{ validate: (v) => v !== '' || 'Choose an approved version' }}
           options={versionOptions}
         />
         <FormSelectField
@@ -186,7 +191,6 @@ export function NewReportDialog({
           placeholder="Choose…"
           disabled={Boolean(preset) || designId === ''}
           helperText={design ? `Customer specifications of ${design.customer.name}` : undefined}
-          rules={{ validate: (v) => v !== '' || "Choose one of the customer's spec masks" }}
           options={(preset ? masks.filter((m) => m.id === preset.specMaskId) : masksOfCustomer).map((m) => ({
             value: String(m.id),
             label: `${m.name} rev ${m.revision}`,
@@ -205,23 +209,8 @@ export function NewReportDialog({
               built this version.
             </Typography>
             <Box sx={{ display: 'grid', gap: 2, gridTemplateColumns: '1fr 1fr' }}>
-              <FormTextField
-                control={control}
-                name="runId"
-                label="Run number"
-                rules={{ validate: idRule('run') }}
-              />
-              <FormTextField
-                control={control}
-                name="spectrumId"
-                label="Spectrum number"
-                rules={{
-                  validate: (value) => {
-                    const both = (getValues('runId').trim() === '') === (String(value).trim() === '');
-                    return both ? idRule('spectrum')(value) : 'Give the run and its spectrum together';
-                  },
-                }}
-              />
+              <FormTextField control={control} name="runId" label="Run number" />
+              <FormTextField control={control} name="spectrumId" label="Spectrum number" />
             </Box>
           </>
         )}
