@@ -7,6 +7,7 @@ import { createTestApp, demoSession } from './support/app.js';
 import { binary } from './support/binary.js';
 import { customerId, materialIds } from './support/fixtures.js';
 import { pagePngs, pageTexts, wordBoxes } from './support/pdf-pages.js';
+import { requestBodySchema } from './support/openapi.js';
 
 let app: NestExpressApplication;
 let mira: string;
@@ -146,16 +147,7 @@ describe('chambers', () => {
   });
 
   it('publishes the shared chamber schema as the body of create and edit in the OpenAPI description', async () => {
-    type Body = { properties: Record<string, { maximum?: number; items?: Body }>; required?: string[] };
-    const doc = (await http().get('/api/docs-json')).body as {
-      paths: Record<
-        string,
-        Record<string, { requestBody: { content: { 'application/json': { schema: Body } } } }>
-      >;
-    };
-    const bodyOf = (method: string, p: string) =>
-      doc.paths[p]![method]!.requestBody.content['application/json'].schema;
-    const create = bodyOf('post', '/api/chambers');
+    const create = await requestBodySchema(app, 'post', '/api/chambers');
     expect(create.required?.sort()).toEqual([
       'materials',
       'monitorChipMaterialId',
@@ -163,7 +155,7 @@ describe('chambers', () => {
       'name',
     ]);
     expect(create.properties.materials!.items!.properties.toolingFactor!.maximum).toBe(10);
-    expect(bodyOf('put', '/api/chambers/{id}').required).toContain('version');
+    expect((await requestBodySchema(app, 'put', '/api/chambers/{id}')).required).toContain('version');
   });
 
   it('operators cannot change chambers', async () => {

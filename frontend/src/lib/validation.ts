@@ -26,6 +26,9 @@ export function schemaRule(schema: ZodType) {
  */
 export const typedNumber = z.string().transform((text) => parseNumberInput(text) ?? Number.NaN);
 
+/** A record chosen in a select: its id, or NaN when none is chosen (pipe it into a recordId schema). */
+export const chosenId = z.string().transform((text) => (text === '' ? Number.NaN : Number(text)));
+
 /** An e-mail address as the API checks it. */
 export const emailRules = schemaRule(emailField);
 
