@@ -1,6 +1,7 @@
 import type { NestExpressApplication } from '@nestjs/platform-express';
 import request from 'supertest';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { requestBodies } from './support/openapi.js';
 import { createTestApp, demoSession } from './support/app.js';
 import { customerId, materialIds, twoLayerDesign, versionContent } from './support/fixtures.js';
 
@@ -74,7 +75,7 @@ describe('four-eyes approval and release', () => {
     await act(mira, id, 1, 'submit', { rowVersion: 1 });
     const bare = await act(tomas, id, 1, 'return');
     expect(bare.status).toBe(400);
-    expect(bare.body.details).toEqual(['comment is required when returning a version: say what to change']);
+    expect(bare.body.details).toEqual(['comment: A return needs a comment: say what to change']);
     const returned = await act(tomas, id, 1, 'return', { comment: 'Outer layer too thin for abrasion' });
     expect(returned.body.status).toBe('returned');
     const edited = await http()
@@ -164,6 +165,30 @@ describe('four-eyes approval and release', () => {
     const early = await act(tomas, id, 1, 'release');
     expect(early.status).toBe(409);
     expect(early.body.message).toBe('Version 1 is draft; it can be released only when approved');
-    expect((await act(mira, id, 1, 'submit', {})).status).toBe(400);
+    const unread = await act(mira, id, 1, 'submit', {});
+    expect(unread.status).toBe(400);
+    expect(unread.body.details).toEqual([
+      'rowVersion: rowVersion is required to submit: the row version you reviewed',
+    ]);
+  });
+
+  it('takes a step without a body, refuses unknown fields and overlong comments, and publishes the bodies', async () => {
+    const id = await newDesign();
+    await act(mira, id, 1, 'submit', { rowVersion: 1 });
+    const extra = await act(tomas, id, 1, 'approve', { comment: 'ok', signature: 'T.' });
+    expect(extra.status).toBe(400);
+    expect(extra.body.details).toEqual(['Unrecognized key: "signature"']);
+    const long = await act(tomas, id, 1, 'approve', { comment: 'x'.repeat(4001) });
+    expect(long.body.details).toEqual(['comment: At most 4000 characters']);
+    const bare = await http().post(`/api/designs/${id}/versions/1/approve`).set('Cookie', tomas);
+    expect(bare.status, JSON.stringify(bare.body)).toBe(201);
+    expect(bare.body.status).toBe('approved');
+
+    const bodyOf = await requestBodies(app);
+    const submit = bodyOf('post', '/api/designs/{id}/versions/{number}/submit');
+    expect(submit.required).toEqual(['rowVersion']);
+    const giveBack = bodyOf('post', '/api/designs/{id}/versions/{number}/return');
+    expect(giveBack.required).toEqual(['comment']);
+    expect(giveBack.properties.comment!.maxLength).toBe(4000);
   });
 });

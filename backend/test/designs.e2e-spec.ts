@@ -2,6 +2,7 @@ import type { NestExpressApplication } from '@nestjs/platform-express';
 import request from 'supertest';
 import { DataSource } from 'typeorm';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { requestBodies } from './support/openapi.js';
 import { createTestApp, demoSession } from './support/app.js';
 import { customerId, materialIds, twoLayerDesign, versionContent } from './support/fixtures.js';
 
@@ -32,7 +33,7 @@ async function createDesign(name: string) {
     .set('Cookie', engineer)
     .send(twoLayerDesign(m, customer, name));
   expect(res.status).toBe(201);
-  return res.body as { id: number; versions: { number: number; status: string }[] };
+  return res.body as { id: number; version: number; versions: { number: number; status: string }[] };
 }
 
 describe('stack designs', () => {
@@ -62,10 +63,12 @@ describe('stack designs', () => {
   });
 
   it.each([
-    [{ thicknessNm: -5 }, 'layers.0.thicknessNm must be > 0'],
-    [{ thicknessNm: 'thick' }, 'layers.0.thicknessNm must be a number'],
-    [{ thicknessNm: null }, 'layers.0.thicknessNm must be a number'],
-    [{ materialId: 987654 }, 'layers[0].materialId: material 987654 does not exist'],
+    [{ thicknessNm: -5 }, 'layers.0.thicknessNm: Thickness must be greater than 0 nm'],
+    [{ thicknessNm: 'thick' }, 'layers.0.thicknessNm: Enter the thickness in nm as a number'],
+    [{ thicknessNm: null }, 'layers.0.thicknessNm: Enter the thickness in nm as a number'],
+    [{ thicknessNm: 100_001 }, 'layers.0.thicknessNm: Thickness must be at most 100000 nm'],
+    [{ colour: 'blue' }, 'layers.0: Unrecognized key: "colour"'],
+    [{ materialId: 987654 }, 'layers.0.materialId: material 987654 does not exist'],
   ])('rejects a bad layer %j with 400 and writes nothing', async (patch, detail) => {
     const body = twoLayerDesign(m, customer, 'Bad layers');
     body.layers[0] = { ...body.layers[0], ...patch } as (typeof body.layers)[0];
@@ -89,7 +92,7 @@ describe('stack designs', () => {
       .set('Content-Type', 'application/json')
       .send(JSON.stringify({ ...twoLayerDesign(m, customer), substrateThicknessMm: 'NaN' }));
     expect(nan.status).toBe(400);
-    expect(nan.body.details).toContain('substrateThicknessMm must be a number');
+    expect(nan.body.details).toContain('substrateThicknessMm: Enter the substrate thickness in mm');
   });
 
   it('a stale save gets 409 with a clear message, and the newer layers survive', async () => {
@@ -181,6 +184,35 @@ describe('stack designs', () => {
     expect(audit.body.map((e: { summary: string }) => e.summary)).toContain(
       'draft version 2 imported from stack file trial.stack.json',
     );
+  });
+
+  it('publishes the shared design schemas as the bodies of create, rename, save and new version', async () => {
+    const bodyOf = await requestBodies(app);
+    const create = bodyOf('post', '/api/designs');
+    expect(create.required?.sort()).toEqual([
+      'backSurface',
+      'customerId',
+      'incidentMaterialId',
+      'layers',
+      'name',
+      'referenceWavelengthNm',
+      'substrateMaterialId',
+      'substrateThicknessMm',
+    ]);
+    expect(create.properties.layers!.items!.properties.thicknessNm!.maximum).toBe(100_000);
+    expect(bodyOf('patch', '/api/designs/{id}').required).toEqual(['version']);
+    expect(bodyOf('put', '/api/designs/{id}/versions/{number}').required).toContain('rowVersion');
+    expect(bodyOf('post', '/api/designs/{id}/versions').required).toEqual(['fromNumber']);
+  });
+
+  it('a rename to an empty name or an unknown field gets 400 with the field named', async () => {
+    const design = await createDesign('Renamed AR');
+    const res = await http()
+      .patch(`/api/designs/${design.id}`)
+      .set('Cookie', engineer)
+      .send({ version: design.version, name: '  ', colour: 'teal' });
+    expect(res.status).toBe(400);
+    expect(res.body.details).toEqual(['name: Enter a name', 'Unrecognized key: "colour"']);
   });
 
   it('404 for a missing design or version', async () => {

@@ -4,6 +4,7 @@ import { DataSource } from 'typeorm';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { createTestApp, demoSession } from './support/app.js';
 import { customerId, materialIds, twoLayerDesign } from './support/fixtures.js';
+import { requestBodies } from './support/openapi.js';
 
 let app: NestExpressApplication;
 let sales: string;
@@ -67,13 +68,17 @@ describe('spec masks', () => {
   });
 
   it.each([
-    [[{ ...broadband, from_nm: 700 }], /bands\[0\]\.from_nm: must not exceed to_nm/],
-    [[{ ...broadband, max_percent: 'NaN' }], /bands\[0\]\.max_percent/],
+    [[{ ...broadband, from_nm: 700 }], /bands\.0\.from_nm: must not exceed to_nm/],
+    [[{ ...broadband, max_percent: 'NaN' }], /bands\.0\.max_percent: must be a finite number/],
     [
       [broadband, { ...broadband, max_percent: undefined, min_percent: 2 }],
-      /bands\[1\].*contradicts bands\[0\]/,
+      /bands\.1: .*contradicts bands\[0\]/,
     ],
     [[], /bands: must hold at least one limit band/],
+    [
+      [{ ...broadband, to_nm: 0 }, broadband, { ...broadband, quantity: 'A' }],
+      /bands\.0\.to_nm: must be greater than 0 \(got 0\); bands\.2\.quantity: must be one of/,
+    ],
   ])('rejects bad bands %# with a clear 400 and writes nothing', async (bands, message) => {
     const before = await maskCount();
     const res = await http()
@@ -170,9 +175,12 @@ describe('spec masks', () => {
     expect(res.body.bands[0]).toMatchObject({ ...ranged, angles_deg: [0, 5, 10, 15, 20] });
     const before = await maskCount();
     const cases: [object, string | RegExp][] = [
-      [{ kind: 'secret', bands: [ranged] }, 'kind must be one of customer, internal'],
-      [{ bands: [{ ...ranged, angle_step_deg: 0 }] }, /bands\[0\]\.angle_step_deg.*greater than 0/],
-      [{ bands: [{ ...ranged, margin_percent: 0.6 }] }, /bands\[0\]\.margin_percent.*outside 0–100 %/],
+      [{ kind: 'secret', bands: [ranged] }, 'kind: Must be one of customer, internal'],
+      [{ bands: [{ ...ranged, angle_step_deg: 0 }] }, /bands\.0\.angle_step_deg.*greater than 0/],
+      [{ bands: [{ ...ranged, margin_percent: 0.6 }] }, /bands\.0\.margin_percent.*outside 0–100 %/],
+      [{ name: ' ', bands: [ranged] }, 'name: Enter a name'],
+      [{ customerId: 'orrin', bands: [ranged] }, 'customerId: Choose the customer'],
+      [{ colour: 'blue', bands: [ranged] }, 'Unrecognized key: "colour"'],
       [
         { bands: [{ ...ranged, angle_to_deg: undefined }] },
         /needs angle_from_deg, angle_to_deg and angle_step_deg/,
@@ -189,6 +197,21 @@ describe('spec masks', () => {
       );
     }
     expect(await maskCount()).toBe(before);
+  });
+
+  it('publishes the shared spec-mask schemas as the bodies of create, edit and CSV import', async () => {
+    const bodyOf = await requestBodies(app);
+    const create = bodyOf('post', '/api/spec-masks');
+    expect(create.required?.sort()).toEqual(['bands', 'customerId', 'name', 'revision']);
+    expect(create.properties.bands!.type).toBe('array');
+    expect(create.properties.name!.maxLength).toBe(160);
+    expect(bodyOf('put', '/api/spec-masks/{id}').required).toContain('version');
+    expect(bodyOf('post', '/api/spec-masks/import-csv').required?.sort()).toEqual([
+      'csv',
+      'customerId',
+      'name',
+      'revision',
+    ]);
   });
 
   it('operators cannot see spec masks', async () => {

@@ -17,6 +17,8 @@ export * from './schemas/users.js';
 export * from './schemas/customers.js';
 export * from './schemas/quotes.js';
 export * from './schemas/reports.js';
+export * from './schemas/spec-masks.js';
+export * from './schemas/designs.js';
 export * from './calibration.js';
 export * from './recipes.js';
 export * from './outbox.js';

@@ -48,14 +48,9 @@ export class ApprovalsService {
     options: { rowVersion?: number; comment?: string },
   ): Promise<DesignVersionView> {
     const rule = RULES[action];
-    const comment = options.comment?.trim() ?? '';
-    if (action === 'submit' && options.rowVersion === undefined)
-      throw new BadRequestException({ message: ['rowVersion is required to submit'] });
-    if (action === 'return' && comment === '') {
-      throw new BadRequestException({
-        message: ['comment is required when returning a version: say what to change'],
-      });
-    }
+    // The route's schema has trimmed the comment, and asked for the row version to submit and a
+    // comment to return.
+    const comment = options.comment ?? '';
     try {
       await this.db.transaction(async (tx) => {
         // The row lock makes every check below and the status change one step: a save, another

@@ -2,8 +2,18 @@ import { Body, Controller, Get, Param, ParseIntPipe, Patch, Post, Put } from '@n
 import type { DesignSummaryView, DesignVersionView, DesignView } from '@quietglass/shared/designs';
 import { CurrentUser } from '../auth/current-user.decorator.js';
 import { Roles } from '../auth/roles.decorator.js';
+import {
+  createDesignSchema,
+  newVersionSchema,
+  saveVersionSchema,
+  updateDesignSchema,
+  type CreateDesignInput,
+  type NewVersionInput,
+  type SaveVersionInput,
+  type UpdateDesignInput,
+} from '@quietglass/shared/schemas/designs';
+import { ZodBody } from '../common/zod-body.js';
 import type { User } from '../users/user.entity.js';
-import { CreateDesignDto, NewVersionDto, SaveVersionDto, UpdateDesignDto } from './dto/design.dto.js';
 import { DesignsService } from './designs.service.js';
 
 /** Engineers and admins write designs; sales read them (for quotes); operators see released recipes only. */
@@ -19,7 +29,8 @@ export class DesignsController {
 
   @Post()
   @Roles('admin', 'engineer')
-  create(@Body() dto: CreateDesignDto, @CurrentUser() user: User): Promise<DesignView> {
+  @ZodBody(createDesignSchema)
+  create(@Body() dto: CreateDesignInput, @CurrentUser() user: User): Promise<DesignView> {
     return this.designs.create(dto, user);
   }
 
@@ -30,9 +41,10 @@ export class DesignsController {
 
   @Patch(':id')
   @Roles('admin', 'engineer')
+  @ZodBody(updateDesignSchema)
   update(
     @Param('id', ParseIntPipe) id: number,
-    @Body() dto: UpdateDesignDto,
+    @Body() dto: UpdateDesignInput,
     @CurrentUser() user: User,
   ): Promise<DesignView> {
     return this.designs.update(id, dto, user);
@@ -48,10 +60,11 @@ export class DesignsController {
 
   @Put(':id/versions/:number')
   @Roles('admin', 'engineer')
+  @ZodBody(saveVersionSchema)
   saveVersion(
     @Param('id', ParseIntPipe) id: number,
     @Param('number', ParseIntPipe) number: number,
-    @Body() dto: SaveVersionDto,
+    @Body() dto: SaveVersionInput,
     @CurrentUser() user: User,
   ): Promise<DesignVersionView> {
     return this.designs.saveVersion(id, number, dto, user);
@@ -59,9 +72,10 @@ export class DesignsController {
 
   @Post(':id/versions')
   @Roles('admin', 'engineer')
+  @ZodBody(newVersionSchema)
   newVersion(
     @Param('id', ParseIntPipe) id: number,
-    @Body() dto: NewVersionDto,
+    @Body() dto: NewVersionInput,
     @CurrentUser() user: User,
   ): Promise<DesignVersionView> {
     return this.designs.newVersion(id, dto, user);

@@ -19,11 +19,11 @@ import { Design } from './design.entity.js';
 import { DesignVersion } from './design-version.entity.js';
 import { VersionEvent } from './version-event.entity.js';
 import type {
-  CreateDesignDto,
-  SaveVersionDto,
-  UpdateDesignDto,
-  VersionContentDto,
-} from './dto/design.dto.js';
+  CreateDesignInput,
+  SaveVersionInput,
+  UpdateDesignInput,
+  VersionContentInput,
+} from '@quietglass/shared/schemas/designs';
 
 @Injectable()
 export class DesignsService {
@@ -98,7 +98,7 @@ export class DesignsService {
   }
 
   /** A new design with its first version as a draft. */
-  async create(dto: CreateDesignDto, author: User): Promise<DesignView> {
+  async create(dto: CreateDesignInput, author: User): Promise<DesignView> {
     const customer = await missingAsBadRequest(
       this.customers.get(dto.customerId),
       `customerId: customer ${dto.customerId} does not exist`,
@@ -132,7 +132,7 @@ export class DesignsService {
    * design's version token; both changes are written to the audit trail, a rename of a design with
    * customer-visible versions saying so.
    */
-  async update(id: number, dto: UpdateDesignDto, actor: User): Promise<DesignView> {
+  async update(id: number, dto: UpdateDesignInput, actor: User): Promise<DesignView> {
     const design = await this.findDesign(id);
     const set: Partial<Design> = {};
     if (dto.name !== undefined && dto.name !== design.name) set.name = dto.name;
@@ -183,7 +183,7 @@ export class DesignsService {
   async saveVersion(
     id: number,
     number: number,
-    dto: SaveVersionDto,
+    dto: SaveVersionInput,
     editor: User,
   ): Promise<DesignVersionView> {
     const version = await this.findVersion(id, number);
@@ -243,7 +243,7 @@ export class DesignsService {
   /** A new draft copied from an existing version (of any status). */
   async newVersion(
     id: number,
-    request: { fromNumber: number; content?: VersionContentDto; sourceFile?: string },
+    request: { fromNumber: number; content?: VersionContentInput; sourceFile?: string },
     author: User,
   ): Promise<DesignVersionView> {
     const from = await this.findVersion(id, request.fromNumber);
@@ -343,7 +343,7 @@ export class DesignsService {
    * edit waits for the submit and then finds the material in use (and makes a new revision).
    */
   async checkMaterials(
-    c: DesignVersionContent | VersionContentDto,
+    c: DesignVersionContent | VersionContentInput,
     manager: EntityManager = this.db.manager,
     freeze = false,
     /** When given, a retired material is refused unless its id is in this set (new work). */
@@ -373,7 +373,7 @@ export class DesignsService {
       problems.push(`substrateMaterialId: material ${c.substrateMaterialId} does not exist`);
     c.layers.forEach((l, i) => {
       if (!byId.has(l.materialId))
-        problems.push(`layers[${i}].materialId: material ${l.materialId} does not exist`);
+        problems.push(`layers.${i}.materialId: material ${l.materialId} does not exist`);
     });
     if (retiredAllowed) {
       for (const m of found) {
@@ -408,7 +408,7 @@ export class DesignsService {
   }
 }
 
-function content(c: DesignVersionContent | VersionContentDto): DesignVersionContent {
+function content(c: DesignVersionContent | VersionContentInput): DesignVersionContent {
   return {
     incidentMaterialId: c.incidentMaterialId,
     substrateMaterialId: c.substrateMaterialId,
@@ -429,7 +429,7 @@ function newDraft(
   tx: EntityManager,
   design: Design,
   number: number,
-  c: DesignVersionContent | VersionContentDto,
+  c: DesignVersionContent | VersionContentInput,
   author: User,
 ): DesignVersion {
   return tx.getRepository(DesignVersion).create({

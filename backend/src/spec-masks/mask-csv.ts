@@ -1,9 +1,7 @@
 import { numericCell as numeric, readCsvRows, writeCsv } from '../common/csv.js';
 import { LIMIT_BAND_FIELDS, type LimitBand } from '@quietglass/shared/optics/mask';
 import type { CsvProblem } from '../common/csv.js';
-
-/** Largest mask file accepted (bytes of text). */
-export const MAX_MASK_CSV_BYTES = 200_000;
+import { MAX_MASK_CSV_BYTES } from '@quietglass/shared/schemas/spec-masks';
 
 /** Columns of the spec-mask CSV, in export order: the limit band's own fields. `angles_deg` lists angles separated by `;`; an angle range fills angle_from_deg, angle_to_deg and angle_step_deg instead. */
 export const MASK_CSV_COLUMNS = LIMIT_BAND_FIELDS;

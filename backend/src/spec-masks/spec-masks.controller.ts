@@ -1,8 +1,16 @@
 import { Body, Controller, Get, Header, Param, ParseIntPipe, Post, Put, Query } from '@nestjs/common';
 import { CurrentUser } from '../auth/current-user.decorator.js';
 import { Roles } from '../auth/roles.decorator.js';
+import {
+  specMaskCsvImportSchema,
+  specMaskInputSchema,
+  specMaskUpdateSchema,
+  type SpecMaskCsvImport,
+  type SpecMaskInput,
+  type SpecMaskUpdate,
+} from '@quietglass/shared/schemas/spec-masks';
+import { ZodBody } from '../common/zod-body.js';
 import type { User } from '../users/user.entity.js';
-import { ImportSpecMaskCsvDto, SpecMaskDto, UpdateSpecMaskDto } from './dto/spec-mask.dto.js';
 import { maskToCsv } from './mask-csv.js';
 import { toSpecMaskView, type SpecMaskView } from './spec-mask.entity.js';
 import { SpecMasksService } from './spec-masks.service.js';
@@ -32,21 +40,24 @@ export class SpecMasksController {
   }
 
   @Post()
-  async create(@Body() dto: SpecMaskDto, @CurrentUser() user: User): Promise<SpecMaskView> {
+  @ZodBody(specMaskInputSchema)
+  async create(@Body() dto: SpecMaskInput, @CurrentUser() user: User): Promise<SpecMaskView> {
     return toSpecMaskView(await this.masks.create(dto, user));
   }
 
   @Put(':id')
+  @ZodBody(specMaskUpdateSchema)
   async update(
     @Param('id', ParseIntPipe) id: number,
-    @Body() dto: UpdateSpecMaskDto,
+    @Body() dto: SpecMaskUpdate,
     @CurrentUser() user: User,
   ): Promise<SpecMaskView> {
     return toSpecMaskView(await this.masks.update(id, dto, user));
   }
 
   @Post('import-csv')
-  async importCsv(@Body() dto: ImportSpecMaskCsvDto, @CurrentUser() user: User): Promise<SpecMaskView> {
+  @ZodBody(specMaskCsvImportSchema)
+  async importCsv(@Body() dto: SpecMaskCsvImport, @CurrentUser() user: User): Promise<SpecMaskView> {
     return toSpecMaskView(await this.masks.importCsv(dto, user));
   }
 }

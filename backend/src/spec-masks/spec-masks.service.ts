@@ -1,8 +1,12 @@
 import { BadRequestException, ConflictException, Injectable, NotFoundException } from '@nestjs/common';
 import { InjectRepository } from '@nestjs/typeorm';
 import { Repository, type EntityManager } from 'typeorm';
-import { validateSpecMask, type LimitBand } from '@quietglass/shared/optics/mask';
-import { OpticsInputError } from '@quietglass/shared/optics/errors';
+import {
+  limitBandsSchema,
+  type SpecMaskCsvImport,
+  type SpecMaskInput,
+  type SpecMaskUpdate,
+} from '@quietglass/shared/schemas/spec-masks';
 import { nextRevision } from '@quietglass/shared/revisions';
 import { AuditService } from '../audit/audit.service.js';
 import { isUniqueViolation } from '../common/db-errors.js';
@@ -10,7 +14,6 @@ import { missingAsBadRequest } from '../common/not-found.js';
 import { updateIfVersion } from '../common/optimistic-lock.js';
 import type { User } from '../users/user.entity.js';
 import { CustomersService } from '../customers/customers.service.js';
-import type { ImportSpecMaskCsvDto, SpecMaskDto, UpdateSpecMaskDto } from './dto/spec-mask.dto.js';
 import { parseMaskCsv } from './mask-csv.js';
 import { SpecMaskRecord } from './spec-mask.entity.js';
 
@@ -35,8 +38,9 @@ export class SpecMasksService {
     return mask;
   }
 
-  async create(dto: SpecMaskDto, user: User): Promise<SpecMaskRecord> {
-    const bands = checkedBands(dto.bands);
+  /** `dto.bands` come checked and normalised by the engine (the shared schema ran it). */
+  async create(dto: SpecMaskInput, user: User): Promise<SpecMaskRecord> {
+    const bands = dto.bands;
     const customer = await this.customer(dto.customerId);
     const kind = dto.kind ?? 'customer';
     return this.unique(dto, () =>
@@ -72,14 +76,14 @@ export class SpecMasksService {
    * becomes its next revision (A → B, or the revision the editor named) and the old one stays
    * readable, pointing at its successor. Either way the edit carries the version it started from.
    */
-  async update(id: number, dto: UpdateSpecMaskDto, user: User): Promise<SpecMaskRecord> {
+  async update(id: number, dto: SpecMaskUpdate, user: User): Promise<SpecMaskRecord> {
     const mask = await this.get(id);
     if (mask.supersededById !== null) {
       throw new ConflictException(
         `Spec mask "${mask.name}" rev ${mask.revision} was revised (see spec mask ${mask.supersededById}); edit the newest revision`,
       );
     }
-    const bands = checkedBands(dto.bands);
+    const bands = dto.bands;
     const customer = await this.customer(dto.customerId);
     const kind = dto.kind ?? mask.kind;
     const staleError = async () => stale(await this.get(id));
@@ -167,25 +171,26 @@ export class SpecMasksService {
   }
 
   /** A new mask from CSV; a bad row or band rejects the whole file. */
-  async importCsv(dto: ImportSpecMaskCsvDto, user: User): Promise<SpecMaskRecord> {
+  async importCsv(dto: SpecMaskCsvImport, user: User): Promise<SpecMaskRecord> {
     const parsed = parseMaskCsv(dto.csv);
     if (!parsed.ok) {
       throw new BadRequestException({
         message: parsed.problems.map((p) => (p.row > 0 ? `row ${p.row}: ${p.reason}` : p.reason)),
       });
     }
-    // The CSV's data rows start on line 2: name the row, not the array index, in errors.
-    try {
-      validateSpecMask({ bands: parsed.bands });
-    } catch (err) {
-      if (err instanceof OpticsInputError) {
-        const m = /^bands\[(\d+)\]\.?(.*)$/.exec(err.field);
-        const where = m ? `row ${Number(m[1]) + 2}${m[2] ? ` ${m[2]}` : ''}` : err.field || 'mask';
-        throw new BadRequestException({ message: [`${where}: ${err.problem}`] });
-      }
-      throw err;
+    // The bands' rules are the API's own (the shared schema); the CSV's data rows start on line 2,
+    // so a problem names the row, not the array index.
+    const checked = limitBandsSchema.safeParse(parsed.bands);
+    if (!checked.success) {
+      throw new BadRequestException({
+        message: checked.error.issues.map((issue) => {
+          const [index, ...field] = issue.path;
+          if (typeof index !== 'number') return `mask: ${issue.message}`;
+          return `row ${index + 2}${field.length > 0 ? ` ${field.join('.')}` : ''}: ${issue.message}`;
+        }),
+      });
     }
-    return this.create({ ...dto, bands: parsed.bands }, user);
+    return this.create({ ...dto, bands: checked.data }, user);
   }
 
   /** The customer a mask is written for: it must exist (400) and not be archived (409). */
@@ -199,16 +204,6 @@ export class SpecMasksService {
     } catch (err) {
       throw isUniqueViolation(err) ? duplicate(m) : err;
     }
-  }
-}
-
-/** The engine's validation: clear errors for NaN, from > to, contradicting overlaps. */
-export function checkedBands(bands: unknown[]): LimitBand[] {
-  try {
-    return validateSpecMask({ bands }).bands;
-  } catch (err) {
-    if (err instanceof OpticsInputError) throw new BadRequestException({ message: [err.message] });
-    throw err;
   }
 }
 

@@ -9,6 +9,7 @@ export interface BodySchema {
   items?: BodySchema;
   maximum?: number;
   maxItems?: number;
+  maxLength?: number;
   format?: string;
 }
 

@@ -4,6 +4,7 @@
  * the field's path in front of them.
  */
 import { z } from 'zod';
+import { OpticsInputError } from '../optics/errors.js';
 
 /** A finite number (zod rejects NaN and ±Infinity); `typeMessage` when it is not one. */
 export function finiteNumber(typeMessage: string) {
@@ -24,12 +25,14 @@ export function requiredText(emptyMessage: string, max: number) {
     .max(max, { error: `At most ${max} characters` });
 }
 
+/** Text of at most `max` characters, as typed (not trimmed). */
+export function limitedText(max: number) {
+  return z.string({ error: 'Must be text' }).max(max, { error: `At most ${max} characters` });
+}
+
 /** Free text of at most `max` characters; missing means empty. */
 export function optionalText(max: number) {
-  return z
-    .string({ error: 'Must be text' })
-    .max(max, { error: `At most ${max} characters` })
-    .default('');
+  return limitedText(max).default('');
 }
 
 /** The optimistic-locking counter an edit sends back. */
@@ -37,6 +40,28 @@ export const versionToken = z
   .number({ error: 'version must be the version number last read' })
   .int({ error: 'version must be a whole number' })
   .min(1, { error: 'version must be at least 1' });
+
+/** An engine field path (`bands[2].angles_deg[0]`) as path segments: ['bands', 2, 'angles_deg', 0]. */
+export function enginePath(field: string): (string | number)[] {
+  if (field === '') return [];
+  return field
+    .split(/\.|(?=\[)/)
+    .map((segment) => (segment.startsWith('[') ? Number(segment.slice(1, -1)) : segment));
+}
+
+/**
+ * What the engine's validator says of an input: the OpticsInputError it throws (its `field` and
+ * `problem`), or null when the input passes. Other errors are not input problems and propagate.
+ */
+export function engineProblem(check: () => unknown): OpticsInputError | null {
+  try {
+    check();
+    return null;
+  } catch (err) {
+    if (err instanceof OpticsInputError) return err;
+    throw err;
+  }
+}
 
 /** One line per problem, as the API answers them: "materials.0.toolingFactor: …". */
 export function issueLines(error: z.ZodError): string[] {

@@ -1,16 +1,16 @@
 /*
- * The header fields of a design version and the API's rules for them (VersionContentDto:
- * substrate thickness 0 < d ≤ 1000 mm, reference wavelength 100–20000 nm, notes ≤ 8000
- * characters, back surface one of BACK_SURFACE_TREATMENTS).
+ * The header fields of a design version, checked with the API's own field schemas
+ * (versionContentSchema in shared/src/schemas/designs.ts), so the limits and messages are its.
  */
 import {
-  BACK_SURFACE_TREATMENTS,
+  versionContentSchema,
   type BackSurfaceTreatment,
   type DesignLayer,
   type DesignVersionContent,
 } from '@quietglass/shared';
 import type { RegisterOptions } from 'react-hook-form';
 import { parseNumberInput } from '../../lib/format';
+import { chosenId, schemaRule, typedNumber } from '../../lib/validation';
 
 export interface HeaderValues {
   incidentMaterialId: string;
@@ -27,48 +27,16 @@ export const BACK_SURFACE_LABELS: Readonly<Record<BackSurfaceTreatment, string>>
   'same-coating': 'Back coated with the same stack',
 };
 
-export const MAX_SUBSTRATE_MM = 1000;
-export const MIN_REFERENCE_NM = 100;
-export const MAX_REFERENCE_NM = 20_000;
-export const MAX_VERSION_NOTES = 8000;
+const { shape } = versionContentSchema;
 
-type Rule = (value: string) => true | string;
-
-const materialRule =
-  (what: string): Rule =>
-  (value) =>
-    (value !== '' && Number.isInteger(Number(value))) || `Choose the ${what}`;
-
-const substrateThicknessRule: Rule = (value) => {
-  const mm = parseNumberInput(value);
-  if (mm === null) return 'Enter the substrate thickness in mm';
-  if (!(mm > 0)) return 'Must be greater than 0 mm';
-  if (mm > MAX_SUBSTRATE_MM) return `Must be at most ${MAX_SUBSTRATE_MM} mm`;
-  return true;
-};
-
-const referenceRule: Rule = (value) => {
-  const nm = parseNumberInput(value);
-  if (nm === null) return 'Enter the reference wavelength in nm';
-  if (nm < MIN_REFERENCE_NM || nm > MAX_REFERENCE_NM)
-    return `Must be from ${MIN_REFERENCE_NM} to ${MAX_REFERENCE_NM} nm`;
-  return true;
-};
-
-const notesRule: Rule = (value) =>
-  value.length <= MAX_VERSION_NOTES || `At most ${MAX_VERSION_NOTES} characters`;
-
-/** react-hook-form rules of each header field. */
+/** react-hook-form rules of each header field: the API's own field schemas, run on the typed text. */
 export const HEADER_RULES = {
-  incidentMaterialId: { validate: materialRule('incident medium') },
-  substrateMaterialId: { validate: materialRule('substrate') },
-  substrateThicknessMm: { validate: substrateThicknessRule },
-  referenceWavelengthNm: { validate: referenceRule },
-  notes: { validate: notesRule },
-  backSurface: {
-    validate: (value: string) =>
-      (BACK_SURFACE_TREATMENTS as readonly string[]).includes(value) || 'Choose the back surface',
-  },
+  incidentMaterialId: schemaRule(chosenId.pipe(shape.incidentMaterialId)),
+  substrateMaterialId: schemaRule(chosenId.pipe(shape.substrateMaterialId)),
+  substrateThicknessMm: schemaRule(typedNumber.pipe(shape.substrateThicknessMm)),
+  referenceWavelengthNm: schemaRule(typedNumber.pipe(shape.referenceWavelengthNm)),
+  notes: schemaRule(shape.notes),
+  backSurface: schemaRule(shape.backSurface),
 } satisfies Record<keyof HeaderValues, RegisterOptions<HeaderValues, keyof HeaderValues>>;
 
 const HEADER_LABELS: Readonly<Record<keyof HeaderValues, string>> = {
@@ -101,7 +69,7 @@ export function headerValuesOf(content: DesignVersionContent): HeaderValues {
 
 /** The reference wavelength in nm, or null while the field is invalid. */
 export function referenceOf(values: HeaderValues): number | null {
-  return referenceRule(values.referenceWavelengthNm) === true
+  return HEADER_RULES.referenceWavelengthNm.validate(values.referenceWavelengthNm) === true
     ? parseNumberInput(values.referenceWavelengthNm)
     : null;
 }

@@ -1,16 +1,20 @@
 /*
- * The Layer grid's rows and the rules the API applies to them (DesignLayerDto: materialId a
- * material of the library, 0 < thicknessNm ≤ 100000 nm, at most 400 layers, notes ≤ 500
- * characters), checked here so a bad cell is shown where it is and never sent.
+ * The Layer grid's rows and the rules the API applies to them (designLayerSchema and DESIGN_LIMITS
+ * in shared/src/schemas/designs.ts: a material of the library, the thickness limits, the most
+ * layers, the notes' length), checked here so a bad cell is shown where it is and never sent.
  */
 import {
   elementAt,
+  DESIGN_LIMITS,
+  designLayerSchema,
+  layerThicknessNm,
   materialNmToQwot,
   materialQwotToNm,
   type DesignLayer,
   type MaterialModel,
 } from '@quietglass/shared';
 import { parseNumberInput } from '../../lib/format';
+import { typedNumber } from '../../lib/validation';
 
 /** A material as the design workspace needs it (a MaterialView of the library fits). */
 export interface LibraryMaterial {
@@ -34,9 +38,12 @@ export interface LayerRow {
   notes: string;
 }
 
-export const MAX_THICKNESS_NM = 100_000;
-export const MAX_LAYERS = 400;
-export const MAX_LAYER_NOTES = 500;
+export const MAX_LAYERS = DESIGN_LIMITS.maxLayers;
+/** What is wrong with a layer's notes, in the API's words; null when they can be saved. */
+function notesProblem(notes: string): string | null {
+  const parsed = designLayerSchema.shape.notes.safeParse(notes);
+  return parsed.success ? null : `Notes: ${parsed.error.issues[0]?.message ?? 'not valid'}`;
+}
 
 let lastRowId = 0;
 /** A new row id, unique within the page. */
@@ -60,14 +67,12 @@ export function rowsFromLayers(layers: readonly DesignLayer[]): LayerRow[] {
   }));
 }
 
-/** What is wrong with a thickness entry, in a few words for the cell; null when it is valid. */
+const typedThickness = typedNumber.pipe(layerThicknessNm);
+
+/** What is wrong with a thickness entry, in the API's words, for the cell; null when it is valid. */
 export function thicknessProblem(text: string): string | null {
-  if (text.trim() === '') return 'enter a thickness';
-  const value = parseNumberInput(text);
-  if (value === null) return `"${text.trim()}" is not a number`;
-  if (!(value > 0)) return 'must be greater than 0 nm';
-  if (value > MAX_THICKNESS_NM) return `must be at most ${MAX_THICKNESS_NM} nm`;
-  return null;
+  const parsed = typedThickness.safeParse(text);
+  return parsed.success ? null : (parsed.error.issues[0]?.message ?? 'Not a thickness');
 }
 
 export function parsedThickness(row: LayerRow): number | null {
@@ -113,21 +118,15 @@ export function layerProblems(
       problems.push({ rowId: row.id, index, field: 'qwot', message: `QWOT ${qwot}` });
     } else {
       const thickness = thicknessProblem(row.thicknessNm);
-      if (thickness)
-        problems.push({ rowId: row.id, index, field: 'thicknessNm', message: `thickness ${thickness}` });
+      if (thickness) problems.push({ rowId: row.id, index, field: 'thicknessNm', message: thickness });
     }
-    if (row.notes.length > MAX_LAYER_NOTES)
-      problems.push({
-        rowId: row.id,
-        index,
-        field: 'notes',
-        message: `notes must be at most ${MAX_LAYER_NOTES} characters`,
-      });
+    const notes = notesProblem(row.notes);
+    if (notes) problems.push({ rowId: row.id, index, field: 'notes', message: notes });
   });
   return problems;
 }
 
-/** "Layer 2: thickness must be greater than 0 nm" — how a problem reads outside the grid. */
+/** "Layer 2: Thickness must be greater than 0 nm" — how a problem reads outside the grid. */
 export function describeProblem(problem: LayerProblem): string {
   return `Layer ${problem.index + 1}: ${problem.message}`;
 }
@@ -321,7 +320,7 @@ export function parsePastedRows(
     let thicknessNm = thicknessText;
     if (unit === 'nm') {
       const problem = thicknessProblem(thicknessText);
-      if (problem) rowProblems.push(`thickness ${problem}`);
+      if (problem) rowProblems.push(problem);
     } else {
       const label = THICKNESS_UNIT_LABELS[unit];
       const problem = qwotProblem(thicknessText);
@@ -336,7 +335,7 @@ export function parsePastedRows(
         if (nm === null) rowProblems.push(`${label} needs a valid reference wavelength`);
         else {
           const problem = thicknessProblem(String(nm));
-          if (problem) rowProblems.push(`thickness ${problem}`);
+          if (problem) rowProblems.push(problem);
           thicknessNm = String(nm);
         }
       }
@@ -345,8 +344,8 @@ export function parsePastedRows(
       ? cells.filter((_c, k) => k !== columns.material && k !== columns.thickness)
       : columns.notes.map((k) => cells[k] ?? '');
     const notes = noteCells.join(' ').trim();
-    if (notes.length > MAX_LAYER_NOTES)
-      rowProblems.push(`notes must be at most ${MAX_LAYER_NOTES} characters`);
+    const notesBad = notesProblem(notes);
+    if (notesBad) rowProblems.push(notesBad);
     if (rowProblems.length > 0 || !material) {
       problems.push(`Row ${lineNo}: ${rowProblems.join('; ')}`);
       return;

@@ -1,18 +1,19 @@
 /*
- * Limit bands as form values, and the engine's rules for them (validateSpecMask in
- * shared/src/optics/mask.ts, which the API applies): 0 < from_nm ≤ to_nm, angles 0 ≤ θ < 90°,
- * exactly one bound between 0 and 100 %, a tolerance > 0 with a target only, weight and step > 0.
+ * Limit bands as form values, and the form's schema: the API's spec-mask schema, whose band rules
+ * are the engine's (validateSpecMask in shared/src/optics/mask.ts), so the form shows the API's
+ * messages on the fields they name.
  */
 import {
-  bandDesignRange,
-  expandAngleRange,
-  OpticsInputError,
+  limitBandsSchema,
+  specMaskInputSchema,
   type LimitBand,
   type Polarisation,
   type SpecMaskKind,
 } from '@quietglass/shared';
 import type { FieldPath } from 'react-hook-form';
+import { z } from 'zod';
 import { parseNumberInput, parseNumberList } from '../../lib/format';
+import { chosenId } from '../../lib/validation';
 
 export type BoundType = 'max' | 'min' | 'target';
 
@@ -75,135 +76,67 @@ export const EMPTY_BAND: BandValues = {
   label: '',
 };
 
-type Verdict = true | string;
 const num = parseNumberInput;
 
-export const bandRules = {
-  fromNm: (v: string): Verdict => ((num(v) ?? 0) > 0 ? true : 'A wavelength greater than 0 nm'),
-  toNm: (v: string, band: BandValues): Verdict => {
-    const to = num(v);
-    if (to === null || !(to > 0)) return 'A wavelength greater than 0 nm';
-    const from = num(band.fromNm);
-    return from === null || from <= to || `Must not be below From (${from} nm)`;
-  },
-  angles: (v: string, band: BandValues): Verdict => {
-    if (band.angleMode === 'range') return true;
-    const list = parseNumberList(v);
-    if (!list || list.length === 0) return 'A comma list of angles, e.g. 0, 15, 30';
-    return list.every((a) => a >= 0 && a < 90) || 'Each angle from 0 to below 90°';
-  },
-  value: (v: string): Verdict => {
-    const x = num(v);
-    return (x !== null && x >= 0 && x <= 100) || 'A percentage from 0 to 100';
-  },
-  tolerance: (v: string, band: BandValues): Verdict => {
-    if (band.boundType !== 'target') return true;
-    return (num(v) ?? 0) > 0 || 'A tolerance greater than 0 %';
-  },
-  angleFrom: (v: string, band: BandValues): Verdict => {
-    if (band.angleMode !== 'range') return true;
-    const x = num(v);
-    return (x !== null && x >= 0 && x < 90) || 'An angle from 0 to below 90°';
-  },
-  angleTo: (v: string, band: BandValues): Verdict => {
-    if (band.angleMode !== 'range') return true;
-    const x = num(v);
-    if (x === null || !(x >= 0 && x < 90)) return 'An angle from 0 to below 90°';
-    const from = num(band.angleFrom);
-    return from === null || from <= x || `Must not be below From (${from}°)`;
-  },
-  /** The engine's own expansion decides how many angles a step gives. */
-  angleStep: (v: string, band: BandValues): Verdict => {
-    if (band.angleMode !== 'range') return true;
-    const step = num(v);
-    if (step === null || !(step > 0)) return 'A step greater than 0°';
-    const from = num(band.angleFrom);
-    const to = num(band.angleTo);
-    if (from === null || to === null || from > to) return true;
-    try {
-      expandAngleRange({ from, to, step });
-      return true;
-    } catch (err) {
-      if (err instanceof OpticsInputError) return `Too fine: ${err.problem}`;
-      throw err;
-    }
-  },
-  /** A margin ≥ 0 that leaves a design target inside 0–100 % (and a tolerance). */
-  margin: (v: string, band: BandValues): Verdict => {
-    if (v.trim() === '') return true;
-    const m = num(v);
-    if (m === null || m < 0) return 'Percentage points, 0 or more, or empty';
-    const value = num(band.value);
-    if (value === null) return true;
-    const [low, high] = bandDesignRange({ ...boundOf(band, value), margin_percent: m });
-    if (band.boundType === 'target' && !(low < high)) return 'Must be less than the tolerance';
-    return (low <= 100 && high >= 0) || 'Leaves no design target inside 0–100 %';
-  },
-  stepNm: (v: string): Verdict =>
-    v.trim() === '' || (num(v) ?? 0) > 0 || 'A step greater than 0 nm, or empty',
-};
-
-/** The band's wavelengths, quantity and bound alone. */
-function boundOf(values: BandValues, value: number): LimitBand {
+/**
+ * The band the API takes. A number field whose text is not a number becomes NaN (an angle list
+ * [NaN]), which the form schema reports as a typing problem; empty optional fields are left out.
+ */
+export function bandOf(values: BandValues): LimitBand {
+  const typed = (text: string) => num(text) ?? Number.NaN;
   const band: LimitBand = {
-    from_nm: Number(num(values.fromNm)),
-    to_nm: Number(num(values.toNm)),
+    from_nm: typed(values.fromNm),
+    to_nm: typed(values.toNm),
     polarisation: values.polarisation,
     quantity: values.quantity,
   };
+  const value = typed(values.value);
   if (values.boundType === 'max') band.max_percent = value;
   else if (values.boundType === 'min') band.min_percent = value;
   else {
     band.target_percent = value;
-    band.tolerance_percent = Number(num(values.tolerance));
+    band.tolerance_percent = typed(values.tolerance);
   }
-  return band;
-}
-
-/** The band the API takes (only call with valid values). */
-export function bandOf(values: BandValues): LimitBand {
-  const band = boundOf(values, Number(num(values.value)));
   if (values.angleMode === 'range') {
-    band.angle_from_deg = Number(num(values.angleFrom));
-    band.angle_to_deg = Number(num(values.angleTo));
-    band.angle_step_deg = Number(num(values.angleStep));
+    band.angle_from_deg = typed(values.angleFrom);
+    band.angle_to_deg = typed(values.angleTo);
+    band.angle_step_deg = typed(values.angleStep);
   } else {
-    band.angles_deg = parseNumberList(values.angles) ?? [0];
+    band.angles_deg = parseNumberList(values.angles) ?? [Number.NaN];
   }
-  if (values.margin.trim() !== '') band.margin_percent = Number(num(values.margin));
-  if (values.stepNm.trim() !== '') band.step_nm = Number(num(values.stepNm));
-  if (values.weight.trim() !== '') band.weight = Number(num(values.weight));
+  if (values.margin.trim() !== '') band.margin_percent = typed(values.margin);
+  if (values.stepNm.trim() !== '') band.step_nm = typed(values.stepNm);
+  if (values.weight.trim() !== '') band.weight = typed(values.weight);
   if (values.label.trim() !== '') band.label = values.label.trim();
   return band;
 }
 
-/** The bands of the form that are complete and valid, for a live preview plot. */
+/** The form fields of a band whose text is not a number (or, for angles, not a list of numbers). */
+function typingProblems(band: LimitBand): { field: keyof BandValues; message: string }[] {
+  return Object.entries(band).flatMap(([key, value]) => {
+    const field = FIELD_OF[key];
+    const bad = Array.isArray(value) ? value.some(Number.isNaN) : Number.isNaN(value);
+    if (!bad || !field) return [];
+    return [
+      {
+        field,
+        message:
+          field === 'angles'
+            ? 'Enter angles as numbers separated by commas, e.g. 0, 15, 30'
+            : 'Enter a number',
+      },
+    ];
+  });
+}
+
+/** The bands of the form that are complete and valid, as the engine normalised them (for the preview plot). */
 export function validBands(bands: readonly BandValues[]): LimitBand[] {
-  return bands
-    .filter(
-      (b) =>
-        bandRules.fromNm(b.fromNm) === true &&
-        bandRules.toNm(b.toNm, b) === true &&
-        bandRules.angles(b.angles, b) === true &&
-        bandRules.angleFrom(b.angleFrom, b) === true &&
-        bandRules.angleTo(b.angleTo, b) === true &&
-        bandRules.angleStep(b.angleStep, b) === true &&
-        bandRules.margin(b.margin, b) === true &&
-        bandRules.value(b.value) === true &&
-        bandRules.tolerance(b.tolerance, b) === true &&
-        bandRules.stepNm(b.stepNm) === true,
-    )
-    .map((b) => {
-      const band = bandOf(b);
-      // The preview plot reads angles_deg: the range's angles, expanded as the engine does.
-      if (band.angle_step_deg !== undefined)
-        band.angles_deg = expandAngleRange({
-          from: band.angle_from_deg ?? 0,
-          to: band.angle_to_deg ?? 0,
-          step: band.angle_step_deg,
-        });
-      return band;
-    });
+  return bands.flatMap((values) => {
+    const band = bandOf(values);
+    if (typingProblems(band).length > 0) return [];
+    const checked = limitBandsSchema.safeParse([band]);
+    return checked.success ? checked.data : [];
+  });
 }
 
 export function valuesOfBand(band: LimitBand): BandValues {
@@ -257,17 +190,85 @@ export interface MappedError {
   message: string;
 }
 
+interface BandPlace {
+  /** The band, or null for the mask as a whole. */
+  band: number | null;
+  /** The band's form field, or null for the band as a whole. */
+  field: keyof BandValues | null;
+  message: string;
+}
+
 /**
- * Where an API validation message belongs: `bands[1].to_nm: must …` goes to band 2's To field,
- * `bands[2]: contradicts …` to band 3 as a whole, anything else to the form.
+ * Where a problem at a path below the mask's bands belongs: [1, 'to_nm'] is band 2's To field,
+ * [2] (or a field the form does not show) band 3 as a whole, [] the mask.
+ */
+function placeOf(path: readonly PropertyKey[], message: string): BandPlace {
+  const [band, key] = path;
+  if (typeof band !== 'number') return { band: null, field: null, message };
+  const field = typeof key === 'string' ? FIELD_OF[key] : undefined;
+  if (field) return { band, field, message };
+  return { band, field: null, message: typeof key === 'string' ? `${key}: ${message}` : message };
+}
+
+/**
+ * Where an API validation message belongs: `bands.1.to_nm: must …` goes to band 2's To field,
+ * `bands.2: … contradicts …` to band 3 as a whole, anything else to the form.
  */
 export function mapMaskError(detail: string): MappedError {
   const text = detail.replace(/^Invalid input:\s*/, '');
-  const match = /^bands\[(\d+)\](?:\.([a-z_]+)(?:\[\d+\])?)?\s*:?\s*(.*)$/s.exec(text);
+  const match = /^bands\.(\d+)(?:\.([a-z_]+)(?:\.\d+)?)?:\s*(.*)$/s.exec(text);
   if (!match) return { path: null, band: null, message: text };
   const band = Number(match[1]);
-  const field = match[2] ? FIELD_OF[match[2]] : undefined;
-  const message = match[3] || text;
-  if (!field) return { path: null, band, message: match[2] ? `${match[2]}: ${message}` : message };
-  return { path: `bands.${band}.${field}`, band, message };
+  const place = placeOf(match[2] ? [band, match[2]] : [band], match[3] ?? text);
+  return { path: place.field && `bands.${band}.${place.field}`, band, message: place.message };
 }
+
+/** A band-level problem's place in the form's errors (beside the band's fields). */
+export const BAND_ERROR_KEY = 'band';
+
+const { shape } = specMaskInputSchema;
+
+/** Name, customer, revision, kind and notes as typed, checked by the API's own schema. */
+const maskDetailsFields = {
+  name: shape.name,
+  customerId: chosenId.pipe(shape.customerId),
+  revision: shape.revision,
+  kind: shape.kind.unwrap(),
+  notes: shape.notes.unwrap(),
+};
+
+// The band rows are the form's own state (selects and text fields): only their meaning is checked.
+const bandValuesSchema = z.custom<BandValues>();
+
+/** The details of a mask imported from a file: its bands come from the file, the form's list stays empty. */
+export const maskDetailsFormSchema = z
+  .object({ ...maskDetailsFields, bands: z.array(bandValuesSchema) })
+  .transform(({ bands: _none, ...details }) => details);
+export type MaskDetailsOutput = z.output<typeof maskDetailsFormSchema>;
+
+/**
+ * The form's values checked as the API checks them: typed text is read first (a number field
+ * that is not a number is named), then the bands go through the API's schema, which runs the
+ * engine's mask validation; its problems land on the form field they name. The output is the
+ * request body, with the bands as entered (the API normalises them).
+ */
+export const maskFormSchema = z.object({
+  ...maskDetailsFields,
+  bands: z.array(bandValuesSchema).transform((rows, ctx): LimitBand[] => {
+    const bands = rows.map(bandOf);
+    const typing = bands.flatMap((band, index) =>
+      typingProblems(band).map((p) => ({ path: [index, p.field], message: p.message })),
+    );
+    typing.forEach((p) => ctx.addIssue({ code: 'custom', ...p }));
+    if (typing.length > 0) return z.NEVER;
+    const checked = limitBandsSchema.safeParse(bands);
+    if (checked.success) return bands;
+    for (const issue of checked.error.issues) {
+      const { band, field, message } = placeOf(issue.path, issue.message);
+      const path = band === null ? [] : [band, field ?? BAND_ERROR_KEY];
+      ctx.addIssue({ code: 'custom', path, message });
+    }
+    return z.NEVER;
+  }),
+});
+export type MaskFormOutput = z.output<typeof maskFormSchema>;

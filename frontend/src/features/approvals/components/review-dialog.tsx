@@ -1,12 +1,15 @@
+import { returnComment, stepComment } from '@quietglass/shared';
 import { useEffect } from 'react';
 import { useForm } from 'react-hook-form';
 import { ErrorAlert } from '../../../components/error-alert';
 import { FormDialog } from '../../../components/form-dialog';
 import { FormTextField } from '../../../components/form-text-field';
+import { schemaRule } from '../../../lib/validation';
 import type { ReviewAction } from '../api/transition-version';
 
-/** Longest comment the API keeps. */
-const MAX_COMMENT_LENGTH = 4000;
+// The API's own comment rules: a return must say what to change, the other steps may.
+const RETURN_COMMENT_RULES = schemaRule(returnComment);
+const STEP_COMMENT_RULES = schemaRule(stepComment);
 
 const WORDING: Record<ReviewAction, { title: (n: number) => string; submit: string; help: string }> = {
   approve: {
@@ -78,11 +81,7 @@ export function ReviewDialog({
         multiline
         minRows={3}
         helperText={wording.help}
-        rules={{
-          maxLength: { value: MAX_COMMENT_LENGTH, message: `At most ${MAX_COMMENT_LENGTH} characters` },
-          validate: (value: string) =>
-            action !== 'return' || value.trim() !== '' || 'A return needs a comment: say what to change',
-        }}
+        rules={action === 'return' ? RETURN_COMMENT_RULES : STEP_COMMENT_RULES}
       />
     </FormDialog>
   );

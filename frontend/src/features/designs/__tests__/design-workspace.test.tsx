@@ -191,11 +191,11 @@ describe('DesignWorkspace', () => {
 
     await setThickness(user, 1, '-20');
 
-    await waitFor(() => expect(gridCell(1, 2).textContent).toBe('-20must be greater than 0 nm'));
+    await waitFor(() => expect(gridCell(1, 2).textContent).toBe('-20Thickness must be greater than 0 nm'));
     expect(saveButton().disabled).toBe(true);
     const reasonId = saveButton().getAttribute('aria-describedby') ?? '';
     expect(document.getElementById(reasonId)?.textContent).toBe(
-      'Cannot save: Layer 2: thickness must be greater than 0 nm',
+      'Cannot save: Layer 2: Thickness must be greater than 0 nm',
     );
 
     await setThickness(user, 1, '20');

@@ -138,12 +138,16 @@ describe('LayerGrid', () => {
     await screen.findByRole('grid', { name: 'Layer grid' });
 
     await editCell(user, 1, 'thickness', '-5');
-    await waitFor(() => expect(cell(1, 'thickness').textContent).toBe('-5must be greater than 0 nm'));
+    await waitFor(() =>
+      expect(cell(1, 'thickness').textContent).toBe('-5Thickness must be greater than 0 nm'),
+    );
     expect(cell(1, 'qwot').textContent).toBe('—');
     expect(latest[1]!.thicknessNm).toBe('-5');
 
     await editCell(user, 0, 'thickness', '12..5');
-    await waitFor(() => expect(cell(0, 'thickness').textContent).toBe('12..5"12..5" is not a number'));
+    await waitFor(() =>
+      expect(cell(0, 'thickness').textContent).toBe('12..5Enter the thickness in nm as a number'),
+    );
   });
 
   it('pastes tab-separated rows after the selected layer', async () => {
@@ -176,8 +180,8 @@ describe('LayerGrid', () => {
     const problems = within(await dialog.findByRole('list', { name: 'Paste problems' }));
     expect(problems.getAllByRole('listitem').map((li) => li.textContent)).toEqual([
       'Row 2: unknown material "MgF3"',
-      'Row 3: thickness "abc" is not a number',
-      'Row 4: thickness must be greater than 0 nm',
+      'Row 3: Enter the thickness in nm as a number',
+      'Row 4: Thickness must be greater than 0 nm',
       'Row 5: expected a material name and a thickness separated by a tab, comma or semicolon',
     ]);
     expect(dialog.getByRole('alert').textContent).toContain('Nothing was added');
@@ -214,7 +218,7 @@ describe('LayerGrid', () => {
     await user.click(screen.getByRole('button', { name: 'Add layer' }));
     // A new layer takes the selected layer's material and waits for a thickness.
     expect(column('material')).toEqual(['MgF2', 'MgF2', 'MgF2']);
-    expect(column('thickness')[2]).toBe('—enter a thickness');
+    expect(column('thickness')[2]).toBe('—Enter the thickness in nm as a number');
     await user.click(screen.getByRole('button', { name: 'Delete' }));
     expect(column('thickness')).toEqual(['90.00', '90.00']);
   });

@@ -1,13 +1,7 @@
 import { useMutation, useQueryClient } from '@tanstack/react-query';
-import type { DesignVersionContent, DesignView } from '@quietglass/shared';
+import type { CreateDesignInput, DesignView } from '@quietglass/shared';
 import { apiClient } from '../../../lib/api-client';
 import { getDesignsQueryOptions } from './get-designs';
-
-export interface CreateDesignInput extends DesignVersionContent {
-  name: string;
-  customerId: number;
-  specMaskId: number | null;
-}
 
 export function createDesign(input: CreateDesignInput): Promise<DesignView> {
   return apiClient.post<DesignView>('/designs', input);

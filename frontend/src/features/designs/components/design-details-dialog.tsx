@@ -1,10 +1,11 @@
 import Box from '@mui/material/Box';
-import { specMaskLabel, type DesignView, type SpecMaskKind } from '@quietglass/shared';
+import { specMaskLabel, updateDesignSchema, type DesignView, type SpecMaskKind } from '@quietglass/shared';
 import { useForm } from 'react-hook-form';
 import { ErrorAlert } from '../../../components/error-alert';
 import { FormDialog } from '../../../components/form-dialog';
 import { FormSelectField } from '../../../components/form-select-field';
 import { FormTextField } from '../../../components/form-text-field';
+import { schemaRule } from '../../../lib/validation';
 import { useUpdateDesign } from '../api/update-design';
 
 interface DesignDetailsValues {
@@ -20,8 +21,8 @@ interface DesignDetailsDialogProps {
   onClose: () => void;
 }
 
-// UpdateDesignDto: name 1–160 characters.
-const MAX_NAME = 160;
+// The API's own rule for a design's name.
+const NAME_RULES = schemaRule(updateDesignSchema.shape.name.unwrap());
 
 function valuesOf(design: DesignView): DesignDetailsValues {
   return { name: design.name, specMaskId: design.specMaskId === null ? '' : String(design.specMaskId) };
@@ -61,15 +62,7 @@ export function DesignDetailsDialog({ open, design, specMasks, onClose }: Design
     >
       {update.error && <ErrorAlert error={update.error} />}
       <Box sx={{ display: 'grid', gap: 2, mt: 1 }}>
-        <FormTextField
-          control={control}
-          name="name"
-          rules={{
-            validate: (v) => v.trim() !== '' || 'Enter a name',
-            maxLength: { value: MAX_NAME, message: `At most ${MAX_NAME} characters` },
-          }}
-          label="Name"
-        />
+        <FormTextField control={control} name="name" rules={NAME_RULES} label="Name" />
         <FormSelectField
           control={control}
           name="specMaskId"

@@ -1,11 +1,12 @@
 import Box from '@mui/material/Box';
-import { specMaskLabel, type DesignView, type SpecMaskKind } from '@quietglass/shared';
+import { createDesignSchema, specMaskLabel, type DesignView, type SpecMaskKind } from '@quietglass/shared';
 import { useEffect } from 'react';
 import { useForm, useWatch } from 'react-hook-form';
 import { ErrorAlert } from '../../../components/error-alert';
 import { FormDialog } from '../../../components/form-dialog';
 import { FormSelectField, NEW_CUSTOMER_OPTION, namedOptions } from '../../../components/form-select-field';
 import { FormTextField } from '../../../components/form-text-field';
+import { chosenId, schemaRule } from '../../../lib/validation';
 import { useCreateDesign } from '../api/create-design';
 import { contentOf, type HeaderValues } from '../header';
 import type { LibraryMaterial } from '../layers';
@@ -34,8 +35,9 @@ interface NewDesignDialogProps {
   onNewCustomer?: (choose: (customer: { id: number; name: string }) => void) => void;
 }
 
-// CreateDesignDto: name 1–160 characters.
-const MAX_NAME = 160;
+// The API's own rules for the design's name and customer.
+const NAME_RULES = schemaRule(createDesignSchema.shape.name);
+const CUSTOMER_RULES = schemaRule(chosenId.pipe(createDesignSchema.shape.customerId));
 
 function emptyValues(materials: readonly LibraryMaterial[]): NewDesignValues {
   const air = materials.find((m) => m.name.toLowerCase() === 'air');
@@ -114,19 +116,11 @@ export function NewDesignDialog({
           mt: 1,
         }}
       >
-        <FormTextField
-          control={control}
-          name="name"
-          rules={{
-            validate: (v) => v.trim() !== '' || 'Enter a name',
-            maxLength: { value: MAX_NAME, message: `At most ${MAX_NAME} characters` },
-          }}
-          label="Name"
-        />
+        <FormTextField control={control} name="name" rules={NAME_RULES} label="Name" />
         <FormSelectField
           control={control}
           name="customerId"
-          rules={{ validate: (v) => v !== '' || 'Choose the customer' }}
+          rules={CUSTOMER_RULES}
           label="Customer"
           placeholder="Choose…"
           options={namedOptions(customers)}

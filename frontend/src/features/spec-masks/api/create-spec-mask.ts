@@ -1,16 +1,7 @@
 import { useMutation, useQueryClient } from '@tanstack/react-query';
-import type { LimitBand, SpecMaskKind } from '@quietglass/shared';
+import type { SpecMaskInput } from '@quietglass/shared';
 import { apiClient } from '../../../lib/api-client';
 import { SPEC_MASK_LISTS_KEY, type SpecMaskView } from './get-spec-masks';
-
-export interface SpecMaskInput {
-  name: string;
-  customerId: number;
-  revision: string;
-  kind: SpecMaskKind;
-  bands: LimitBand[];
-  notes: string;
-}
 
 export function createSpecMask(input: SpecMaskInput): Promise<SpecMaskView> {
   return apiClient.post<SpecMaskView>('/spec-masks', input);

@@ -1,21 +1,9 @@
 import { useMutation, useQueryClient } from '@tanstack/react-query';
-import type { SpecMaskKind } from '@quietglass/shared';
+import type { SpecMaskCsvImport } from '@quietglass/shared';
 import { apiClient } from '../../../lib/api-client';
 import { SPEC_MASK_LISTS_KEY, type SpecMaskView } from './get-spec-masks';
 
-/** Largest mask file the API takes (bytes). */
-export const MAX_MASK_CSV_BYTES = 200_000;
-
-export interface ImportSpecMaskCsvInput {
-  name: string;
-  customerId: number;
-  revision: string;
-  kind: SpecMaskKind;
-  csv: string;
-  notes: string;
-}
-
-export function importSpecMaskCsv(input: ImportSpecMaskCsvInput): Promise<SpecMaskView> {
+export function importSpecMaskCsv(input: SpecMaskCsvImport): Promise<SpecMaskView> {
   return apiClient.post<SpecMaskView>('/spec-masks/import-csv', input);
 }
 

@@ -1,6 +1,6 @@
 import { useMutation, useQueryClient } from '@tanstack/react-query';
+import type { SpecMaskInput } from '@quietglass/shared';
 import { apiClient } from '../../../lib/api-client';
-import type { SpecMaskInput } from './create-spec-mask';
 import { getSpecMaskQueryOptions } from './get-spec-mask';
 import { SPEC_MASK_LISTS_KEY, type SpecMaskView } from './get-spec-masks';
 

@@ -1,13 +1,14 @@
 import Typography from '@mui/material/Typography';
-import { LIMIT_BAND_FIELDS } from '@quietglass/shared';
+import { zodResolver } from '@hookform/resolvers/zod';
+import { LIMIT_BAND_FIELDS, MAX_MASK_CSV_BYTES } from '@quietglass/shared';
 import { useState } from 'react';
 import { useForm } from 'react-hook-form';
 import { FileField } from '../../../components/file-field';
 import { FileProblemsAlert } from '../../../components/file-problems-alert';
 import { FormDialog } from '../../../components/form-dialog';
 import { notify } from '../../../lib/notifier';
-import { MAX_MASK_CSV_BYTES, useImportSpecMaskCsv } from '../api/import-spec-mask-csv';
-import type { MaskFormValues } from '../band-form';
+import { useImportSpecMaskCsv } from '../api/import-spec-mask-csv';
+import { maskDetailsFormSchema, type MaskDetailsOutput, type MaskFormValues } from '../band-form';
 import { MaskDetailsFields } from './mask-details-fields';
 
 interface SpecMaskCsvDialogProps {
@@ -39,8 +40,9 @@ export function SpecMaskCsvDialog({
     notes: '',
     bands: [],
   };
-  const { control, handleSubmit, reset, setValue } = useForm<MaskFormValues>({
+  const { control, handleSubmit, reset, setValue } = useForm<MaskFormValues, unknown, MaskDetailsOutput>({
     defaultValues: empty,
+    resolver: zodResolver(maskDetailsFormSchema),
     mode: 'onTouched',
   });
 
@@ -52,7 +54,7 @@ export function SpecMaskCsvDialog({
     onClose();
   };
 
-  const onSubmit = handleSubmit(async (values) => {
+  const onSubmit = handleSubmit(async (details) => {
     if (!file) {
       setFileProblem('Choose a CSV file');
       return;
@@ -62,14 +64,7 @@ export function SpecMaskCsvDialog({
       return;
     }
     importCsv.mutate(
-      {
-        name: values.name.trim(),
-        customerId: Number(values.customerId),
-        revision: values.revision.trim(),
-        kind: values.kind,
-        notes: values.notes,
-        csv: await file.text(),
-      },
+      { ...details, csv: await file.text() },
       {
         onSuccess: (saved) => {
           notify(

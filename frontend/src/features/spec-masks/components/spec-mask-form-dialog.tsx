@@ -6,10 +6,10 @@ import Button from '@mui/material/Button';
 import IconButton from '@mui/material/IconButton';
 import Paper from '@mui/material/Paper';
 import Typography from '@mui/material/Typography';
-import { elementAt } from '@quietglass/shared';
 import { useQueryClient } from '@tanstack/react-query';
 import { useState } from 'react';
-import { useFieldArray, useForm, useWatch, type Control } from 'react-hook-form';
+import { zodResolver } from '@hookform/resolvers/zod';
+import { useFieldArray, useForm, useFormState, useWatch, type Control } from 'react-hook-form';
 import { ConflictAlert } from '../../../components/conflict-alert';
 import { ErrorAlert } from '../../../components/error-alert';
 import { FormDialog } from '../../../components/form-dialog';
@@ -22,20 +22,20 @@ import { getSpecMaskQueryOptions } from '../api/get-spec-mask';
 import type { SpecMaskView } from '../api/get-spec-masks';
 import { useUpdateSpecMask } from '../api/update-spec-mask';
 import {
+  BAND_ERROR_KEY,
   BOUND_LABELS,
   EMPTY_BAND,
-  bandOf,
-  bandRules,
   mapMaskError,
+  maskFormSchema,
   validBands,
   valuesOfBand,
   type BandValues,
   type BoundType,
+  type MaskFormOutput,
   type MaskFormValues,
 } from '../band-form';
 import { MaskDetailsFields } from './mask-details-fields';
 import { MaskPreviewPlot } from './mask-preview-plot';
-import { fieldText } from '../../../lib/format';
 
 const POLARISATION_OPTIONS = [
   { value: 'avg', label: 'Average' },
@@ -50,6 +50,18 @@ const ANGLE_MODE_OPTIONS = [
   { value: 'list', label: 'List' },
   { value: 'range', label: 'Range' },
 ];
+const BAND_TEXT_FIELDS = [
+  'fromNm',
+  'toNm',
+  'angles',
+  'angleFrom',
+  'angleTo',
+  'angleStep',
+  'value',
+  'tolerance',
+  'margin',
+  'stepNm',
+] as const satisfies readonly (keyof BandValues)[];
 const BOUND_OPTIONS = (Object.keys(BOUND_LABELS) as BoundType[]).map((b) => ({
   value: b,
   label: BOUND_LABELS[b],
@@ -83,15 +95,22 @@ function BandFields({
   canRemove,
   bandError,
 }: {
-  control: Control<MaskFormValues>;
+  control: Control<MaskFormValues, unknown, MaskFormOutput>;
   index: number;
   onRemove: () => void;
   canRemove: boolean;
+  /** A problem of the band as a whole the API reported (the form's own are in its errors). */
   bandError: string | undefined;
 }) {
   const boundType = useWatch({ control, name: `bands.${index}.boundType` });
   const angleMode = useWatch({ control, name: `bands.${index}.angleMode` });
-  const band = (v: string, all: MaskFormValues) => ({ v, band: elementAt(all.bands, index, 'the bands') });
+  const { errors } = useFormState({ control, name: `bands.${index}` });
+  const ownError = (errors.bands?.[index] as Record<string, { message?: string }> | undefined)?.[
+    BAND_ERROR_KEY
+  ]?.message;
+  // The engine names one problem of a band at a time: a change anywhere in the band checks all of it again.
+  const together = { deps: BAND_TEXT_FIELDS.map((key) => `bands.${index}.${key}` as const) };
+  const shownError = bandError ?? ownError;
   const n = index + 1;
   return (
     <Paper
@@ -108,9 +127,9 @@ function BandFields({
           <DeleteOutlined fontSize="small" />
         </IconButton>
       </Box>
-      {bandError && (
+      {shownError && (
         <Alert severity="error" sx={{ mb: 1 }}>
-          {bandError}
+          {shownError}
         </Alert>
       )}
       <Box
@@ -123,19 +142,14 @@ function BandFields({
         <FormTextField
           control={control}
           name={`bands.${index}.fromNm`}
-          rules={{ validate: (v) => bandRules.fromNm(fieldText(v)) }}
+          rules={together}
           label="From (nm)"
           size="small"
         />
         <FormTextField
           control={control}
           name={`bands.${index}.toNm`}
-          rules={{
-            validate: (v, all) => {
-              const b = band(fieldText(v), all);
-              return bandRules.toNm(b.v, b.band);
-            },
-          }}
+          rules={together}
           label="To (nm)"
           size="small"
         />
@@ -153,13 +167,7 @@ function BandFields({
                 key={key}
                 control={control}
                 name={`bands.${index}.${key}`}
-                rules={{
-                  deps: key === 'angleStep' ? [] : [`bands.${index}.angleStep`],
-                  validate: (v, all) => {
-                    const b = band(fieldText(v), all);
-                    return bandRules[key](b.v, b.band);
-                  },
-                }}
+                rules={together}
                 label={{ angleFrom: 'Angle from (°)', angleTo: 'Angle to (°)', angleStep: 'Every (°)' }[key]}
                 size="small"
                 helperText={key === 'angleStep' ? 'Both ends included' : undefined}
@@ -170,12 +178,7 @@ function BandFields({
           <FormTextField
             control={control}
             name={`bands.${index}.angles`}
-            rules={{
-              validate: (v, all) => {
-                const b = band(fieldText(v), all);
-                return bandRules.angles(b.v, b.band);
-              },
-            }}
+            rules={together}
             label="Angles (°)"
             size="small"
             helperText="e.g. 0, 15, 30"
@@ -205,7 +208,7 @@ function BandFields({
         <FormTextField
           control={control}
           name={`bands.${index}.value`}
-          rules={{ validate: (v) => bandRules.value(fieldText(v)) }}
+          rules={together}
           label="Limit (%)"
           size="small"
           helperText="The customer's limit; reports judge this"
@@ -214,12 +217,7 @@ function BandFields({
           <FormTextField
             control={control}
             name={`bands.${index}.tolerance`}
-            rules={{
-              validate: (v, all) => {
-                const b = band(fieldText(v), all);
-                return bandRules.tolerance(b.v, b.band);
-              },
-            }}
+            rules={together}
             label="Tolerance (%)"
             size="small"
           />
@@ -227,12 +225,7 @@ function BandFields({
         <FormTextField
           control={control}
           name={`bands.${index}.margin`}
-          rules={{
-            validate: (v, all) => {
-              const b = band(fieldText(v), all);
-              return bandRules.margin(b.v, b.band);
-            },
-          }}
+          rules={together}
           label="Design margin"
           size="small"
           helperText="% points inside the limit the design aims for (optional)"
@@ -240,7 +233,7 @@ function BandFields({
         <FormTextField
           control={control}
           name={`bands.${index}.stepNm`}
-          rules={{ validate: (v) => bandRules.stepNm(fieldText(v)) }}
+          rules={together}
           label="Step (nm)"
           size="small"
           helperText="Optional"
@@ -286,8 +279,13 @@ export function SpecMaskFormDialog({
   const [base, setBase] = useState<SpecMaskView | null>(mask);
   const [bandErrors, setBandErrors] = useState<Record<number, string>>({});
   const [formError, setFormError] = useState<string | null>(null);
-  const { control, handleSubmit, reset, setError, setValue } = useForm<MaskFormValues>({
+  const { control, handleSubmit, reset, setError, setValue, formState } = useForm<
+    MaskFormValues,
+    unknown,
+    MaskFormOutput
+  >({
     defaultValues: valuesOf(mask, defaultCustomerId),
+    resolver: zodResolver(maskFormSchema),
     mode: 'onTouched',
   });
   const { fields, append, remove } = useFieldArray({ control, name: 'bands' });
@@ -317,17 +315,9 @@ export function SpecMaskFormDialog({
     setFormError(general.length > 0 ? general.join('; ') : null);
   };
 
-  const onSubmit = handleSubmit((values) => {
+  const onSubmit = handleSubmit((input) => {
     setBandErrors({});
     setFormError(null);
-    const input = {
-      name: values.name.trim(),
-      customerId: Number(values.customerId),
-      revision: values.revision.trim(),
-      kind: values.kind,
-      notes: values.notes,
-      bands: values.bands.map(bandOf),
-    };
     const onSuccess = (saved: SpecMaskView) => {
       notify(`Spec mask ${saved.name} rev ${saved.revision} saved.`, 'success');
       close();
@@ -349,6 +339,7 @@ export function SpecMaskFormDialog({
   };
 
   const preview = validBands(bands ?? []);
+  const maskError = formState.errors.bands?.root?.message ?? formError;
   const otherError =
     mutation.error && !conflict && !(mutation.error instanceof ApiError && mutation.error.status === 400)
       ? mutation.error
@@ -366,9 +357,9 @@ export function SpecMaskFormDialog({
     >
       {conflict && <ConflictAlert message={conflict.message} onReload={() => void reload()} />}
       {otherError && <ErrorAlert error={otherError} title="Not saved" />}
-      {formError && (
+      {maskError && (
         <Alert severity="error" role="alert">
-          {formError}
+          {maskError}
         </Alert>
       )}
       {mutation.error instanceof ApiError && mutation.error.status === 400 && (
