@@ -4,6 +4,7 @@ import request from 'supertest';
 import { DataSource } from 'typeorm';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { createTestApp, demoSession } from './support/app.js';
+import { publishedBodies } from './support/openapi.js';
 import { binary } from './support/binary.js';
 import { customerId, materialIds } from './support/fixtures.js';
 import { pagePngs, pageTexts, wordBoxes } from './support/pdf-pages.js';
@@ -146,15 +147,7 @@ describe('chambers', () => {
   });
 
   it('publishes the shared chamber schema as the body of create and edit in the OpenAPI description', async () => {
-    type Body = { properties: Record<string, { maximum?: number; items?: Body }>; required?: string[] };
-    const doc = (await http().get('/api/docs-json')).body as {
-      paths: Record<
-        string,
-        Record<string, { requestBody: { content: { 'application/json': { schema: Body } } } }>
-      >;
-    };
-    const bodyOf = (method: string, p: string) =>
-      doc.paths[p]![method]!.requestBody.content['application/json'].schema;
+    const bodyOf = await publishedBodies(app);
     const create = bodyOf('post', '/api/chambers');
     expect(create.required?.sort()).toEqual([
       'materials',

@@ -26,6 +26,17 @@ export function schemaRule(schema: ZodType) {
  */
 export const typedNumber = z.string().transform((text) => parseNumberInput(text) ?? Number.NaN);
 
+/** A number field that may be left empty: empty is left out (undefined), other text as `typedNumber`. */
+export const typedOptionalNumber = z
+  .string()
+  .transform((text) => (text.trim() === '' ? undefined : (parseNumberInput(text) ?? Number.NaN)));
+
+/** A free-text field that may be left empty: trimmed, and left out when empty. */
+export const typedOptionalText = z.string().transform((text) => text.trim() || undefined);
+
+/** A record chosen in a select: its id, or NaN when none is chosen (the API's id schema refuses it). */
+export const chosenId = z.string().transform((text) => (text === '' ? Number.NaN : Number(text)));
+
 /** An e-mail address as the API checks it. */
 export const emailRules = schemaRule(emailField);
 

@@ -32,6 +32,11 @@ export function optionalText(max: number) {
     .default('');
 }
 
+/** A calendar date written YYYY-MM-DD (a real day: no 31 April, 29 February only in leap years). */
+export function calendarDate(message: string) {
+  return z.iso.date({ error: message });
+}
+
 /** The optimistic-locking counter an edit sends back. */
 export const versionToken = z
   .number({ error: 'version must be the version number last read' })

@@ -1,7 +1,7 @@
 import { chamberInputSchema, chamberMaterialSchema, type ChamberInput } from '@quietglass/shared';
 import { z } from 'zod';
 import { parseNumberList } from '../../lib/format';
-import { typedNumber } from '../../lib/validation';
+import { chosenId, typedNumber } from '../../lib/validation';
 import type { ChamberView } from './api/get-chambers';
 
 export interface MaterialRowValues {
@@ -43,9 +43,6 @@ export function valuesOfChamber(chamber: ChamberView | null): ChamberFormValues 
     notes: chamber.notes,
   };
 }
-
-/** A record chosen in a select: its id, or NaN when none is chosen. */
-const chosenId = z.string().transform((text) => (text === '' ? Number.NaN : Number(text)));
 
 const { shape } = chamberInputSchema;
 const { shape: row } = chamberMaterialSchema;
