@@ -24,6 +24,9 @@ export function requiredText(emptyMessage: string, max: number) {
     .max(max, { error: `At most ${max} characters` });
 }
 
+/** The name of an uploaded file, kept with its text. */
+export const fileNameField = requiredText('The file needs a name', 255);
+
 /** Free text of at most `max` characters; missing means empty. */
 export function optionalText(max: number) {
   return z

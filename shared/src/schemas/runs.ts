@@ -10,7 +10,15 @@ import {
   SPECTRUM_QUANTITIES,
   SPECTRUM_SAMPLES,
 } from '../runs.js';
-import { calendarDate, finiteNumber, optionalText, recordId, requiredText, versionToken } from './common.js';
+import {
+  calendarDate,
+  fileNameField,
+  finiteNumber,
+  optionalText,
+  recordId,
+  requiredText,
+  versionToken,
+} from './common.js';
 
 /** Limits of a run's record; they catch typing slips — common practice (no source). */
 export const RUN_LIMITS = {
@@ -22,7 +30,6 @@ export const RUN_LIMITS = {
   durabilityCount: 50,
   methodLength: 200,
   durabilityNotesLength: 500,
-  filenameLength: 255,
   /** Largest angle of incidence of a measured spectrum, degrees. */
   spectrumAngleMaxDeg: 89,
 } as const;
@@ -93,7 +100,7 @@ const ANGLE_MESSAGE = `Enter an angle from 0 to ${RUN_LIMITS.spectrumAngleMaxDeg
 
 /** A measured spectrum file's text and how it was measured; the API then parses the file. */
 export const uploadSpectrumSchema = z.strictObject({
-  filename: requiredText('The file needs a name', RUN_LIMITS.filenameLength),
+  filename: fileNameField,
   csv: z.string({ error: 'csv must be the text of the file' }),
   angleDeg: finiteNumber(ANGLE_MESSAGE)
     .min(0, { error: ANGLE_MESSAGE })
