@@ -6,6 +6,7 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { MaterialView } from '@quietglass/shared/materials';
 import { indexAt } from '@quietglass/shared/optics/dispersion';
 import { createTestApp, demoSession } from './support/app.js';
+import { requestBodies } from './support/openapi.js';
 import { customerId, materialIds, twoLayerDesign, versionContent } from './support/fixtures.js';
 
 let app: NestExpressApplication;
@@ -99,25 +100,32 @@ describe('materials library', () => {
   });
 
   it.each([
-    [{ model: { model: 'constant', n: -1.5 } }, /model\.n/],
-    [{ model: { model: 'constant', n: 1.5, k: -0.1 } }, /model\.k/],
+    [{ model: { model: 'constant', n: -1.5 } }, 'model.n: must be greater than 0 (got -1.5)'],
+    [{ model: { model: 'constant', n: 1.5, k: -0.1 } }, 'model.k: must be 0 or more (got -0.1)'],
     [
       { model: { model: 'sellmeier', B: [1.0], C: [0.3] }, rangeNm: { from: 300, to: 900 } },
-      /no physical index/,
+      /^model: .*no physical index/,
     ],
     [
       { model: { model: 'table', wavelengths: [400, 500], n: [1.5, 1.4] }, rangeNm: { from: 380, to: 500 } },
-      /beyond the table/,
+      'rangeNm: the range 380–500 nm reaches beyond the table (400–500 nm)',
     ],
-    [{ rangeNm: { from: 900, to: 400 } }, /must be > 0 and below/],
-    [{ model: { model: 'quantum' } }, /model\.model/],
-    [{ typical: undefined }, /provenance\.kind is required/],
-    [{ typical: undefined, provenance: { kind: 'published' } }, /published material needs its reference/],
+    [{ rangeNm: { from: 900, to: 400 } }, 'rangeNm.to: To must be above From'],
+    [{ model: { model: 'quantum' } }, /^model\.model: must be one of/],
+    [{ typical: undefined }, 'provenance.kind: Say where the data come from'],
+    [
+      { typical: undefined, provenance: { kind: 'published' } },
+      'provenance.source: A published material needs its reference',
+    ],
     [
       { typical: undefined, provenance: { kind: 'measured', date: '2026-11-20' } },
-      /measured material needs the measurement date and the run/,
+      'provenance.run: A measurement needs its run',
     ],
-    [{ provenance: { kind: 'published', source: 'x' } }, /contradicts provenance\.kind/],
+    [
+      { provenance: { kind: 'published', source: 'x' } },
+      'typical: typical (true) contradicts provenance.kind "published"',
+    ],
+    [{ colour: 'teal' }, 'Unrecognized key: "colour"'],
   ])('rejects a bad model or range %# with 400 and writes nothing', async (patch, message) => {
     const before = await materialCount();
     const res = await http()
@@ -131,7 +139,9 @@ describe('materials library', () => {
         ...patch,
       });
     expect(res.status).toBe(400);
-    expect(res.body.message).toMatch(message);
+    expect(res.body.details).toEqual([
+      typeof message === 'string' ? message : expect.stringMatching(message),
+    ]);
     expect(await materialCount()).toBe(before);
   });
 
@@ -243,12 +253,30 @@ describe('n,k CSV import', () => {
     expect(await materialCount()).toBe(before);
   });
 
+  it('publishes the shared material schemas as the request bodies in the OpenAPI description', async () => {
+    const bodyOf = await requestBodies(app);
+    const create = bodyOf('post', '/api/materials');
+    expect(create.required?.sort()).toEqual(['model', 'name', 'rangeNm']);
+    expect(create.properties.provenance!.properties.kind!.enum).toEqual(['published', 'measured', 'typical']);
+    expect(bodyOf('put', '/api/materials/{id}').required).toContain('version');
+    expect(bodyOf('post', '/api/materials/import-csv').properties.interpolation!.enum).toEqual([
+      'linear',
+      'pchip',
+    ]);
+    expect(bodyOf('post', '/api/materials/import-constants').required?.sort()).toEqual([
+      'fileName',
+      'name',
+      'text',
+    ]);
+    expect(bodyOf('post', '/api/materials/{id}/retire').required).toEqual(['version']);
+  });
+
   it('rejects a file over 1 MB with a clear message', async () => {
     const csv = '400.000,1.500000,0.000000\n'.repeat(45_000);
     const res = await http()
       .post('/api/materials/import-csv')
       .set('Cookie', engineer)
-      .send({ name: 'Huge', unit: 'nm', csv });
+      .send({ name: 'Huge', unit: 'nm', csv, typical: true });
     expect(res.status).toBe(400);
     expect(res.body.details).toEqual(['the file is larger than 1 MB']);
   });

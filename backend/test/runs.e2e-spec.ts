@@ -3,6 +3,7 @@ import request from 'supertest';
 import { DataSource } from 'typeorm';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { createTestApp, demoSession } from './support/app.js';
+import { requestBodies } from './support/openapi.js';
 import { customerId, maskId, materialIds } from './support/fixtures.js';
 
 let app: NestExpressApplication;
@@ -94,15 +95,18 @@ describe('chamber runs', () => {
       .set('Cookie', operator)
       .send({ version: 2, layerReadings: [{ step: 9 }] });
     expect(tooFar.status).toBe(400);
-    expect(tooFar.body.details).toEqual(['layerReadings[0].step: the recipe has 3 layers']);
+    expect(tooFar.body.details).toEqual(['layerReadings.0.step: the recipe has 3 layers']);
     const noMethod = await http()
       .put(`/api/runs/${id}`)
       .set('Cookie', operator)
       .send({ version: 2, durability: [{ test: 'humidity', method: ' ', result: 'pass' }] });
     expect(noMethod.status).toBe(400);
+    expect(noMethod.body.details).toEqual([
+      'durability.0.method: Name the test procedure followed (e.g. ISO 9211-4, tape adhesion)',
+    ]);
     const noVersion = await http().put(`/api/runs/${id}`).set('Cookie', operator).send({ notes: 'x' });
     expect(noVersion.status).toBe(400);
-    expect(noVersion.body.details).toContain('version must be the version of the run the change is based on');
+    expect(noVersion.body.details).toEqual(['version: version must be the version number last read']);
     // The refused changes wrote nothing.
     const after = await http().get(`/api/runs/${id}`).set('Cookie', operator);
     expect(after.body).toMatchObject({ version: 2, notes: 'Pump-down 42 min' });
@@ -131,6 +135,54 @@ describe('chamber runs', () => {
       .send({ designId: 999999, versionNumber: 1, chamberId, lotNumber: 'X', runDate: '2026-12-01' });
     expect(res.status).toBe(400);
     expect(res.body.details).toEqual(['design 999999 version 1 is not a released recipe']);
+  });
+
+  it.each([
+    [{ lotNumber: '  ' }, 'lotNumber: Enter the lot number'],
+    [{ runDate: '2026-02-30' }, 'runDate: Enter the date as YYYY-MM-DD'],
+    [{ chamberId: 'B2' }, 'chamberId: Choose the chamber'],
+    [{ operatorId: 1 }, 'Unrecognized key: "operatorId"'],
+  ])('refuses to start a run from %j with 400 and writes nothing', async (patch, detail) => {
+    const count = async () =>
+      Number((await app.get(DataSource).query('SELECT count(*) AS n FROM chamber_runs'))[0].n);
+    const before = await count();
+    const res = await http()
+      .post('/api/runs')
+      .set('Cookie', operator)
+      .send({
+        designId: recipeId,
+        versionNumber: 1,
+        chamberId,
+        lotNumber: 'L-9',
+        runDate: '2026-12-01',
+        ...patch,
+      });
+    expect(res.status).toBe(400);
+    expect(res.body.details).toEqual([detail]);
+    expect(await count()).toBe(before);
+  });
+
+  it('publishes the shared run schemas as the request bodies in the OpenAPI description', async () => {
+    const bodyOf = await requestBodies(app);
+    const start = bodyOf('post', '/api/runs');
+    expect(start.required?.sort()).toEqual([
+      'chamberId',
+      'designId',
+      'lotNumber',
+      'runDate',
+      'versionNumber',
+    ]);
+    expect(start.properties.lotNumber!.maxLength).toBe(60);
+    const update = bodyOf('put', '/api/runs/{id}');
+    expect(update.required).toEqual(['version']);
+    expect(update.properties.durability!.items!.properties.test!.enum).toEqual([
+      'adhesion',
+      'abrasion',
+      'humidity',
+      'other',
+    ]);
+    expect(bodyOf('post', '/api/runs/{id}/remarks').properties.text!.maxLength).toBe(2000);
+    expect(bodyOf('post', '/api/runs/{id}/spectra').properties.angleDeg!.maximum).toBe(89);
   });
 
   it('stores an uploaded spectrum as uploaded and compares it with the design and the mask', async () => {
@@ -171,24 +223,30 @@ describe('chamber runs', () => {
     });
   });
 
-  it('rejects a malformed spectrum with row-level messages and stores nothing', async () => {
+  it.each([
+    [
+      {
+        filename: 'bad.csv',
+        csv: 'wavelength_nm,R_percent\n400,0.3\n405,x\n410,-2\n',
+        angleDeg: 8,
+        sample: 'part',
+      },
+      ['row 3: not a number: R "x"', 'row 4: R must lie between 0 and 100 percent (got -2)'],
+    ],
+    [
+      { filename: 'w.csv', csv: 'wavelength_nm,R_percent\n400,0.3\n', angleDeg: 90, sample: 'lens' },
+      ['angleDeg: Enter an angle from 0 to 89°', 'sample: Choose witness sample or part'],
+    ],
+  ])('rejects the spectrum upload %j with its messages and stores nothing', async (body, details) => {
     const id = await startRun();
     const count = async () =>
       Number(
         (await app.get(DataSource).query('SELECT count(*) AS n FROM run_spectra WHERE run_id = $1', [id]))[0]
           .n,
       );
-    const res = await http().post(`/api/runs/${id}/spectra`).set('Cookie', operator).send({
-      filename: 'bad.csv',
-      csv: 'wavelength_nm,R_percent\n400,0.3\n405,x\n410,-2\n',
-      angleDeg: 8,
-      sample: 'part',
-    });
+    const res = await http().post(`/api/runs/${id}/spectra`).set('Cookie', operator).send(body);
     expect(res.status).toBe(400);
-    expect(res.body.details).toEqual([
-      'row 3: not a number: R "x"',
-      'row 4: R must lie between 0 and 100 percent (got -2)',
-    ]);
+    expect(res.body.details).toEqual(details);
     expect(await count()).toBe(0);
   });
 
@@ -225,7 +283,7 @@ describe('chamber runs', () => {
     expect(own.body.remarks).toHaveLength(1);
     const empty = await http().post(`/api/runs/${id}/remarks`).set('Cookie', mira).send({ text: '   ' });
     expect(empty.status).toBe(400);
-    expect(empty.body.details).toEqual(['text must not be empty']);
+    expect(empty.body.details).toEqual(['text: Enter the remark']);
 
     // Concurrent remarks are all kept (each is one appending UPDATE).
     const texts = Array.from({ length: 10 }, (_, i) => `remark ${i}`);

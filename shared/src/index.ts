@@ -19,6 +19,8 @@ export * from './schemas/quotes.js';
 export * from './schemas/reports.js';
 export * from './schemas/spec-masks.js';
 export * from './schemas/designs.js';
+export * from './schemas/runs.js';
+export * from './schemas/materials.js';
 export * from './calibration.js';
 export * from './recipes.js';
 export * from './outbox.js';

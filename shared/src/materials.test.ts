@@ -1,17 +1,7 @@
 import { describe, expect, it } from 'vitest';
-import { pickableMaterials, provenanceProblem } from './materials.js';
+import { pickableMaterials } from './materials.js';
 
-describe('material provenance and pickers', () => {
-  it('a published material needs its reference; a measured one its date and run', () => {
-    expect(provenanceProblem({ kind: 'published', source: ' ' })).toBe(
-      'a published material needs its reference',
-    );
-    expect(provenanceProblem({ kind: 'published', source: 'Malitson 1965' })).toBeNull();
-    expect(provenanceProblem({ kind: 'measured', date: '2026-11-20', run: '' })).toMatch(/date and the run/);
-    expect(provenanceProblem({ kind: 'measured', date: '2026-11-20', run: 'B2-118' })).toBeNull();
-    expect(provenanceProblem({ kind: 'typical' })).toBeNull();
-  });
-
+describe('material pickers', () => {
   it('pickers hide retired materials unless already chosen', () => {
     const library = [
       { id: 1, retiredAt: null },

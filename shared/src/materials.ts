@@ -21,6 +21,9 @@ export const MAX_SOURCE_LENGTH = 2000;
 /** Longest run identifier (characters). */
 export const MAX_RUN_LENGTH = 120;
 
+/** Largest n,k file the API takes, bytes (the client checks it before sending). */
+export const MAX_NK_CSV_BYTES = 1_000_000;
+
 export interface MaterialProvenance {
   kind: ProvenanceKind;
   /** The reference (published), or what was measured and how (measured); may be empty for typical. */
@@ -30,24 +33,6 @@ export interface MaterialProvenance {
   /** The run the measurement came from (required for measured), e.g. "B2-2026-118". */
   run: string;
   notes: string;
-}
-
-/**
- * What is missing from a provenance, or null when it is complete: a published reference names it,
- * a measurement names its date and run. The API and the material form both use this rule.
- */
-export function provenanceProblem(p: {
-  kind: ProvenanceKind;
-  source?: string | null;
-  date?: string | null;
-  run?: string | null;
-}): string | null {
-  const filled = (v: string | null | undefined) => typeof v === 'string' && v.trim() !== '';
-  if (p.kind === 'published' && !filled(p.source)) return 'a published material needs its reference';
-  if (p.kind === 'measured' && (!filled(p.date) || !filled(p.run))) {
-    return 'a measured material needs the measurement date and the run';
-  }
-  return null;
 }
 
 /** The original file a material was imported from, kept for download. */

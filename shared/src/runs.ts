@@ -5,7 +5,9 @@
 import type { MeasuredMaskResult } from './measured.js';
 import type { LimitBand } from './optics/mask.js';
 
-export type DurabilityTest = 'adhesion' | 'abrasion' | 'humidity' | 'other';
+/** The durability tests a run records; `other` for any further procedure. */
+export const DURABILITY_TESTS = ['adhesion', 'abrasion', 'humidity', 'other'] as const;
+export type DurabilityTest = (typeof DURABILITY_TESTS)[number];
 
 /** What the monitor showed for one deposition step. */
 export interface LayerReading {
@@ -17,12 +19,15 @@ export interface LayerReading {
   notes?: string;
 }
 
+export const DURABILITY_OUTCOMES = ['pass', 'fail'] as const;
+export type DurabilityOutcome = (typeof DURABILITY_OUTCOMES)[number];
+
 /** One durability test of the run's witness or part, with the procedure followed. */
 export interface DurabilityResult {
   test: DurabilityTest;
   /** The procedure followed, e.g. "ISO 9211-4, tape adhesion". */
   method: string;
-  result: 'pass' | 'fail';
+  result: DurabilityOutcome;
   notes?: string;
 }
 
@@ -41,7 +46,12 @@ export const RUN_REMARK_MAX_LENGTH = 2000;
 export const MAX_SPECTRUM_CSV_BYTES = 2_000_000;
 
 /** Which quantity of a measured-spectrum file to read when it holds both R and T. */
-export type SpectrumQuantity = 'R' | 'T';
+export const SPECTRUM_QUANTITIES = ['R', 'T'] as const;
+export type SpectrumQuantity = (typeof SPECTRUM_QUANTITIES)[number];
+
+/** What a measured spectrum was taken on. */
+export const SPECTRUM_SAMPLES = ['witness', 'part'] as const;
+export type SpectrumSample = (typeof SPECTRUM_SAMPLES)[number];
 
 /** A chamber run of a released recipe. */
 export interface RunView {
@@ -68,9 +78,9 @@ export interface RunView {
 export interface RunSpectrumView {
   id: number;
   runId: number;
-  quantity: 'R' | 'T';
+  quantity: SpectrumQuantity;
   angleDeg: number;
-  sample: 'witness' | 'part';
+  sample: SpectrumSample;
   filename: string;
   wavelengthsNm: number[];
   valuesPercent: number[];

@@ -9,17 +9,24 @@ import {
   Put,
   StreamableFile,
 } from '@nestjs/common';
+import {
+  importConstantsFileSchema,
+  importMaterialCsvSchema,
+  materialInputSchema,
+  materialUpdateSchema,
+  materialVersionSchema,
+  nkCsvSchema,
+  type ImportConstantsFileInput,
+  type ImportMaterialCsvInput,
+  type MaterialInput,
+  type MaterialUpdate,
+  type MaterialVersionInput,
+  type NkCsvInput,
+} from '@quietglass/shared/schemas/materials';
 import { CurrentUser } from '../auth/current-user.decorator.js';
 import { Roles } from '../auth/roles.decorator.js';
+import { ZodBody } from '../common/zod-body.js';
 import type { User } from '../users/user.entity.js';
-import {
-  ImportConstantsFileDto,
-  ImportMaterialCsvDto,
-  MaterialDto,
-  MaterialVersionDto,
-  NkCsvDto,
-  UpdateMaterialDto,
-} from './dto/material.dto.js';
 import {
   toMaterialRevisionView,
   toMaterialView,
@@ -63,15 +70,17 @@ export class MaterialsController {
 
   @Post()
   @Roles('admin', 'engineer')
-  async create(@Body() dto: MaterialDto, @CurrentUser() user: User): Promise<MaterialView> {
+  @ZodBody(materialInputSchema)
+  async create(@Body() dto: MaterialInput, @CurrentUser() user: User): Promise<MaterialView> {
     return toMaterialView(await this.materials.create(dto, user));
   }
 
   @Put(':id')
   @Roles('admin', 'engineer')
+  @ZodBody(materialUpdateSchema)
   async update(
     @Param('id', ParseIntPipe) id: number,
-    @Body() dto: UpdateMaterialDto,
+    @Body() dto: MaterialUpdate,
     @CurrentUser() user: User,
   ): Promise<MaterialView> {
     return toMaterialView(await this.materials.update(id, dto, user));
@@ -79,7 +88,8 @@ export class MaterialsController {
 
   @Post('import-csv')
   @Roles('admin', 'engineer')
-  async importCsv(@Body() dto: ImportMaterialCsvDto, @CurrentUser() user: User): Promise<MaterialView> {
+  @ZodBody(importMaterialCsvSchema)
+  async importCsv(@Body() dto: ImportMaterialCsvInput, @CurrentUser() user: User): Promise<MaterialView> {
     return toMaterialView(await this.materials.importCsv(dto, user));
   }
 
@@ -87,15 +97,17 @@ export class MaterialsController {
   @Post('import-csv/preview')
   @HttpCode(200)
   @Roles('admin', 'engineer')
-  previewCsv(@Body() dto: NkCsvDto): NkCsvPreview {
+  @ZodBody(nkCsvSchema)
+  previewCsv(@Body() dto: NkCsvInput): NkCsvPreview {
     return this.materials.previewCsv(dto);
   }
 
   /** A material from a published optical-constants file, with its reference as provenance. */
   @Post('import-constants')
   @Roles('admin', 'engineer')
+  @ZodBody(importConstantsFileSchema)
   async importConstants(
-    @Body() dto: ImportConstantsFileDto,
+    @Body() dto: ImportConstantsFileInput,
     @CurrentUser() user: User,
   ): Promise<MaterialView> {
     return toMaterialView(await this.materials.importConstantsFile(dto, user));
@@ -104,9 +116,10 @@ export class MaterialsController {
   /** Hidden from pickers; kept, and still shown, for the versions that use it. */
   @Post(':id/retire')
   @Roles('admin', 'engineer')
+  @ZodBody(materialVersionSchema)
   async retire(
     @Param('id', ParseIntPipe) id: number,
-    @Body() dto: MaterialVersionDto,
+    @Body() dto: MaterialVersionInput,
     @CurrentUser() user: User,
   ): Promise<MaterialView> {
     return toMaterialView(await this.materials.setRetired(id, true, dto.version, user));
@@ -114,9 +127,10 @@ export class MaterialsController {
 
   @Post(':id/restore')
   @Roles('admin', 'engineer')
+  @ZodBody(materialVersionSchema)
   async restore(
     @Param('id', ParseIntPipe) id: number,
-    @Body() dto: MaterialVersionDto,
+    @Body() dto: MaterialVersionInput,
     @CurrentUser() user: User,
   ): Promise<MaterialView> {
     return toMaterialView(await this.materials.setRetired(id, false, dto.version, user));

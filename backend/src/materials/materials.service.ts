@@ -1,28 +1,24 @@
 import { BadRequestException, ConflictException, Injectable, NotFoundException } from '@nestjs/common';
 import { InjectRepository } from '@nestjs/typeorm';
 import { In, Repository, type EntityManager } from 'typeorm';
-import {
-  evaluateIndex,
-  validateMaterialModel,
-  type MaterialModel,
-} from '@quietglass/shared/optics/dispersion';
+import type { MaterialModel } from '@quietglass/shared/optics/dispersion';
 import { OpticsInputError } from '@quietglass/shared/optics/errors';
 import { parseConstantsFile } from '@quietglass/shared/optics/constants-file';
-import { provenanceProblem, type ProvenanceKind } from '@quietglass/shared/materials';
+import type { MaterialProvenance } from '@quietglass/shared/materials';
+import {
+  checkMaterialModel,
+  type ImportConstantsFileInput,
+  type ImportMaterialCsvInput,
+  type MaterialInput,
+  type MaterialUpdate,
+  type NkCsvInput,
+} from '@quietglass/shared/schemas/materials';
 import { AuditService } from '../audit/audit.service.js';
 import { isUniqueViolation } from '../common/db-errors.js';
 import { stableStringify } from '../common/stable-json.js';
 import { updateIfVersion } from '../common/optimistic-lock.js';
 import type { User } from '../users/user.entity.js';
 import { Material, MaterialRevision } from './material.entity.js';
-import type {
-  ImportConstantsFileDto,
-  ImportMaterialCsvDto,
-  MaterialDto,
-  NkCsvDto,
-  ProvenanceDto,
-  UpdateMaterialDto,
-} from './dto/material.dto.js';
 import { parseNkCsv, type NkTable, type WavelengthUnit } from './nk-csv.js';
 import { elementAt } from '@quietglass/shared/checked';
 
@@ -41,9 +37,6 @@ export interface NkCsvPreview {
   headerRow: boolean;
   rangeNm: { from: number; to: number };
 }
-
-/** Points at which a model is checked across its stated range (poles, n ≤ 0, k < 0). */
-const RANGE_CHECK_POINTS = 201;
 
 @Injectable()
 export class MaterialsService {
@@ -73,9 +66,9 @@ export class MaterialsService {
     return material;
   }
 
-  async create(dto: MaterialDto, user: User): Promise<Material> {
-    const model = checkedModel(dto.model, dto.rangeNm);
-    return this.save(this.materials.create({ ...fields(dto), model }), user, 'created');
+  /** The shared schema has checked the model against the range and completed the provenance. */
+  async create(dto: MaterialInput, user: User): Promise<Material> {
+    return this.save(this.materials.create(fields(dto)), user, 'created');
   }
 
   /**
@@ -85,10 +78,10 @@ export class MaterialsService {
    * revision; those versions keep the models frozen in their snapshot. The audit trail keeps before
    * and after.
    */
-  async update(id: number, dto: UpdateMaterialDto, user: User): Promise<Material> {
+  async update(id: number, dto: MaterialUpdate, user: User): Promise<Material> {
     await this.get(id);
-    const model = checkedModel(dto.model, dto.rangeNm);
-    const set: Partial<Material> = { ...fields(dto), model };
+    const { model } = dto;
+    const set: Partial<Material> = fields(dto);
     await this.materials.manager
       .transaction(async (tx) => {
         // The row lock orders this edit with a submit freezing the material (it reads FOR SHARE).
@@ -180,7 +173,7 @@ export class MaterialsService {
   }
 
   /** What an n,k file reads as (the same parser as the import), or 400 with every bad row. */
-  previewCsv(dto: NkCsvDto): NkCsvPreview {
+  previewCsv(dto: NkCsvInput): NkCsvPreview {
     const parsed = parseNkCsv(dto.csv, dto.unit ?? null);
     if (!parsed.ok) {
       const details = parsed.problems.map((p) => (p.row > 0 ? `row ${p.row}: ${p.reason}` : p.reason));
@@ -200,29 +193,19 @@ export class MaterialsService {
   }
 
   /** Creates a tabulated material from CSV text and keeps the file; any bad row rejects it all. */
-  async importCsv(dto: ImportMaterialCsvDto, user: User): Promise<Material> {
+  async importCsv(dto: ImportMaterialCsvInput, user: User): Promise<Material> {
     const { table, rangeNm } = this.previewCsv(dto);
     const { wavelengths, n, k } = table;
     const model = checkedModel(
-      {
-        model: 'table',
-        wavelengths,
-        n,
-        k,
-        interpolation: dto.interpolation ?? 'linear',
-        clamp: dto.clamp ?? false,
-      },
+      { model: 'table', wavelengths, n, k, interpolation: dto.interpolation, clamp: dto.clamp },
       rangeNm,
     );
     return this.save(
-      this.materials.create({
-        ...fields({ name: dto.name, rangeNm, typical: dto.typical, provenance: dto.provenance }),
-        model,
-      }),
+      this.materials.create(fields({ name: dto.name, rangeNm, model, provenance: dto.provenance })),
       user,
       'imported from CSV',
       {
-        fileName: dto.fileName?.trim() || `${dto.name}.csv`,
+        fileName: dto.fileName || `${dto.name}.csv`,
         mediaType: 'text/csv',
         content: Buffer.from(dto.csv, 'utf8'),
       },
@@ -234,7 +217,7 @@ export class MaterialsService {
    * formula with its range as the valid range. The file's reference (and DOI) is the provenance,
    * its comments and conditions the notes; the file is kept for download.
    */
-  async importConstantsFile(dto: ImportConstantsFileDto, user: User): Promise<Material> {
+  async importConstantsFile(dto: ImportConstantsFileInput, user: User): Promise<Material> {
     let parsed;
     try {
       parsed = parseConstantsFile(dto.text);
@@ -243,26 +226,24 @@ export class MaterialsService {
       throw err;
     }
     const model = checkedModel(
-      parsed.model.model === 'constant' ? parsed.model : { ...parsed.model, clamp: dto.clamp ?? false },
+      parsed.model.model === 'constant' ? parsed.model : { ...parsed.model, clamp: dto.clamp },
       parsed.rangeNm,
     );
     const source = parsed.doi ? `${parsed.reference}\nDOI: ${parsed.doi}` : parsed.reference;
-    const notes = [parsed.notes, `Data: ${parsed.form}`, dto.notes?.trim() ?? '']
-      .filter((line) => line !== '')
-      .join('\n');
+    const notes = [parsed.notes, `Data: ${parsed.form}`, dto.notes].filter((line) => line !== '').join('\n');
     return this.save(
-      this.materials.create({
-        ...fields({
+      this.materials.create(
+        fields({
           name: dto.name,
           rangeNm: parsed.rangeNm,
-          provenance: { kind: 'published', source, notes },
+          model,
+          provenance: { kind: 'published', source, run: '', date: null, notes },
         }),
-        model,
-      }),
+      ),
       user,
       'imported from a published constants file',
       {
-        fileName: dto.fileName.trim(),
+        fileName: dto.fileName,
         mediaType: 'application/yaml',
         content: Buffer.from(dto.text, 'utf8'),
       },
@@ -385,86 +366,32 @@ function staleMaterial(current: Material): ConflictException {
   );
 }
 
-/**
- * The stored fields of a material. Provenance is required: its kind (or `typical: true`), and for
- * a published reference the reference, for a measurement its date and run (shared rule).
- */
+/** The stored fields of a material whose model and provenance are complete (checked by the shared schema). */
 function fields(dto: {
   name: string;
   rangeNm: { from: number; to: number };
-  typical?: boolean;
-  provenance?: ProvenanceDto;
+  model: MaterialModel;
+  provenance: MaterialProvenance;
 }): Partial<Material> {
-  const stated = dto.provenance?.kind;
-  if (stated && dto.typical !== undefined && dto.typical !== (stated === 'typical')) {
-    throw new BadRequestException({
-      message: [`typical (${dto.typical}) contradicts provenance.kind "${stated}"`],
-    });
-  }
-  const kind: ProvenanceKind | undefined = stated ?? (dto.typical ? 'typical' : undefined);
-  if (!kind) {
-    throw new BadRequestException({
-      message: [
-        'provenance.kind is required: published (with its reference), measured (with date and run) or typical',
-      ],
-    });
-  }
-  const problem = provenanceProblem({ kind, ...dto.provenance });
-  if (problem) throw new BadRequestException({ message: [`provenance: ${problem}`] });
+  const { provenance } = dto;
   return {
     name: dto.name,
+    model: dto.model,
     rangeFromNm: dto.rangeNm.from,
     rangeToNm: dto.rangeNm.to,
-    typical: kind === 'typical',
-    provenanceKind: kind,
-    source: dto.provenance?.source?.trim() ?? '',
-    sourceDate: dto.provenance?.date ?? null,
-    provenanceRun: dto.provenance?.run?.trim() ?? '',
-    processNotes: dto.provenance?.notes ?? '',
+    typical: provenance.kind === 'typical',
+    provenanceKind: provenance.kind,
+    source: provenance.source,
+    sourceDate: provenance.date,
+    provenanceRun: provenance.run,
+    processNotes: provenance.notes,
   };
 }
 
-/**
- * The engine validates the model; then the model must give a physical index across the whole
- * stated range (this catches Sellmeier poles and Cauchy fits that go negative). A formula model
- * takes the stated range as its valid range, so the engine refuses it (or, with `clamp`, holds
- * the end values and warns) outside it, as it does for a table.
- */
-export function checkedModel(raw: unknown, rangeNm: { from: number; to: number }): MaterialModel {
-  if (!(rangeNm.from > 0) || !(rangeNm.to > rangeNm.from)) {
-    throw new BadRequestException({
-      message: [`rangeNm: from (${rangeNm.from}) must be > 0 and below to (${rangeNm.to})`],
-    });
-  }
+/** A model the API built from an imported file, checked against its range as an entered one is. */
+function checkedModel(raw: unknown, rangeNm: { from: number; to: number }): MaterialModel {
   try {
-    const formula =
-      typeof raw === 'object' &&
-      raw !== null &&
-      ((raw as { model?: unknown }).model === 'cauchy' || (raw as { model?: unknown }).model === 'sellmeier');
-    const model = validateMaterialModel(
-      formula ? { ...raw, validNm: { from: rangeNm.from, to: rangeNm.to } } : raw,
-      'model',
-    );
-    if (model.model === 'table' && !model.clamp) {
-      const lo = elementAt(model.wavelengths, 0, 'the n,k table');
-      const hi = elementAt(model.wavelengths, model.wavelengths.length - 1, 'the n,k table');
-      if (rangeNm.from < lo || rangeNm.to > hi) {
-        throw new OpticsInputError(
-          'rangeNm',
-          `the range ${rangeNm.from}–${rangeNm.to} nm reaches beyond the table (${lo}–${hi} nm)`,
-        );
-      }
-    }
-    const grid = new Float64Array(RANGE_CHECK_POINTS);
-    for (let i = 0; i < grid.length; i++)
-      grid[i] = rangeNm.from + ((rangeNm.to - rangeNm.from) * i) / (grid.length - 1);
-    evaluateIndex(
-      { n: new Float64Array(grid.length), k: new Float64Array(grid.length) },
-      model,
-      grid,
-      'model',
-    );
-    return model;
+    return checkMaterialModel(raw, rangeNm);
   } catch (err) {
     if (err instanceof OpticsInputError) throw new BadRequestException({ message: [err.message] });
     throw err;

@@ -1,7 +1,7 @@
+import { MAX_NK_CSV_BYTES } from '@quietglass/shared/materials';
 import { numericCell as plainCell, readCsvRows, type CsvProblem } from '../common/csv.js';
 
-/** Largest n,k file accepted (bytes of text). */
-export const MAX_NK_CSV_BYTES = 1_000_000;
+export { MAX_NK_CSV_BYTES };
 
 export type WavelengthUnit = 'nm' | 'um';
 

@@ -6,10 +6,20 @@ import type {
   RunView,
   SpectrumComparisonView,
 } from '@quietglass/shared/runs';
+import {
+  runRemarkSchema,
+  startRunSchema,
+  updateRunSchema,
+  uploadSpectrumSchema,
+  type RunRemarkInput,
+  type StartRunInput,
+  type UpdateRunInput,
+  type UploadSpectrumInput,
+} from '@quietglass/shared/schemas/runs';
 import { CurrentUser } from '../auth/current-user.decorator.js';
 import { Roles } from '../auth/roles.decorator.js';
+import { ZodBody } from '../common/zod-body.js';
 import type { User } from '../users/user.entity.js';
-import { RunRemarkDto, StartRunDto, UpdateRunDto, UploadSpectrumDto } from './dto/run.dto.js';
 import type { ChamberRun, RunSpectrum } from './run.entity.js';
 import { RunsService } from './runs.service.js';
 
@@ -40,7 +50,8 @@ export class RunsController {
   }
 
   @Post()
-  async start(@Body() dto: StartRunDto, @CurrentUser() user: User): Promise<RunView> {
+  @ZodBody(startRunSchema)
+  async start(@Body() dto: StartRunInput, @CurrentUser() user: User): Promise<RunView> {
     return runView(await this.runs.start(dto, user));
   }
 
@@ -51,9 +62,10 @@ export class RunsController {
   }
 
   @Put(':id')
+  @ZodBody(updateRunSchema)
   async update(
     @Param('id', ParseIntPipe) id: number,
-    @Body() dto: UpdateRunDto,
+    @Body() dto: UpdateRunInput,
     @CurrentUser() user: User,
   ): Promise<RunView> {
     return runView(await this.runs.update(id, dto, user));
@@ -61,18 +73,20 @@ export class RunsController {
 
   /** Anyone who reads runs may add a remark; the run's own fields stay its operator's. */
   @Post(':id/remarks')
+  @ZodBody(runRemarkSchema)
   async remark(
     @Param('id', ParseIntPipe) id: number,
-    @Body() dto: RunRemarkDto,
+    @Body() dto: RunRemarkInput,
     @CurrentUser() user: User,
   ): Promise<RunView> {
     return runView(await this.runs.addRemark(id, dto, user));
   }
 
   @Post(':id/spectra')
+  @ZodBody(uploadSpectrumSchema)
   async upload(
     @Param('id', ParseIntPipe) id: number,
-    @Body() dto: UploadSpectrumDto,
+    @Body() dto: UploadSpectrumInput,
     @CurrentUser() user: User,
   ): Promise<RunSpectrumView> {
     return spectrumView(await this.runs.uploadSpectrum(id, dto, user));

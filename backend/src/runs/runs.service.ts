@@ -23,7 +23,12 @@ import type { DesignVersion } from '../designs/design-version.entity.js';
 import { DesignsService } from '../designs/designs.service.js';
 import { SpecMasksService } from '../spec-masks/spec-masks.service.js';
 import type { User } from '../users/user.entity.js';
-import type { RunRemarkDto, StartRunDto, UpdateRunDto, UploadSpectrumDto } from './dto/run.dto.js';
+import type {
+  RunRemarkInput,
+  StartRunInput,
+  UpdateRunInput,
+  UploadSpectrumInput,
+} from '@quietglass/shared/schemas/runs';
 import { ChamberRun, RunSpectrum } from './run.entity.js';
 import { parseSpectrumCsv } from './spectrum-csv.js';
 import { keptToolingFactors } from '@quietglass/shared/chambers';
@@ -40,7 +45,7 @@ export class RunsService {
   ) {}
 
   /** Starts a run of a released recipe; the signed-in user is its operator. */
-  async start(dto: StartRunDto, operator: User): Promise<ChamberRun> {
+  async start(dto: StartRunInput, operator: User): Promise<ChamberRun> {
     await missingAsBadRequest(
       this.recipes.releasedRecipe(dto.designId, dto.versionNumber),
       `design ${dto.designId} version ${dto.versionNumber} is not a released recipe`,
@@ -55,7 +60,6 @@ export class RunsService {
       const saved = await repo.save(
         repo.create({
           ...dto,
-          notes: dto.notes ?? '',
           operator,
           layerReadings: [],
           durability: [],
@@ -98,7 +102,7 @@ export class RunsService {
    * gets 403 and can add a remark. The change applies only while the run is still at `dto.version`
    * (one conditional UPDATE), and the audit trail keeps before and after of what changed.
    */
-  async update(id: number, dto: UpdateRunDto, user: User): Promise<ChamberRun> {
+  async update(id: number, dto: UpdateRunInput, user: User): Promise<ChamberRun> {
     const run = await this.get(id);
     if (run.operator.id !== user.id) {
       throw new ForbiddenException(
@@ -109,7 +113,7 @@ export class RunsService {
     if (dto.layerReadings) {
       const layers = (await this.version(run)).layers.length;
       const bad = dto.layerReadings
-        .map((r, i) => (r.step > layers ? `layerReadings[${i}].step: the recipe has ${layers} layers` : null))
+        .map((r, i) => (r.step > layers ? `layerReadings.${i}.step: the recipe has ${layers} layers` : null))
         .filter((x): x is string => x !== null);
       if (bad.length > 0) throw new BadRequestException({ message: bad });
       set.layerReadings = dto.layerReadings.map((r) => ({ ...r }));
@@ -143,7 +147,7 @@ export class RunsService {
   }
 
   /** Appends a remark in one statement, so concurrent remarks and edits never overwrite each other. */
-  async addRemark(id: number, dto: RunRemarkDto, user: User): Promise<ChamberRun> {
+  async addRemark(id: number, dto: RunRemarkInput, user: User): Promise<ChamberRun> {
     const run = await this.get(id);
     const remark = {
       at: new Date().toISOString(),
@@ -172,7 +176,7 @@ export class RunsService {
   }
 
   /** Stores a measured spectrum with the file as uploaded; a bad row rejects the whole file. */
-  async uploadSpectrum(runId: number, dto: UploadSpectrumDto, user: User): Promise<RunSpectrum> {
+  async uploadSpectrum(runId: number, dto: UploadSpectrumInput, user: User): Promise<RunSpectrum> {
     await this.get(runId);
     const parsed = parseSpectrumCsv(dto.csv, { angleDeg: dto.angleDeg, quantity: dto.quantity });
     if (!parsed.ok) throw new BadRequestException({ message: problemDetails(parsed.problems) });

@@ -10,6 +10,7 @@ export interface BodySchema {
   maximum?: number;
   maxItems?: number;
   maxLength?: number;
+  enum?: string[];
   format?: string;
 }
 

@@ -41,6 +41,14 @@ export function requestFormSchema<TValues, TRequestInput, TRequest>(
   return typed.pipe(request);
 }
 
+/** A number field that may be left empty: empty is left out (undefined), other text as `typedNumber`. */
+export const typedOptionalNumber = z
+  .string()
+  .transform((text) => (text.trim() === '' ? undefined : (parseNumberInput(text) ?? Number.NaN)));
+
+/** A free-text field that may be left empty: trimmed, and left out when empty. */
+export const typedOptionalText = z.string().transform((text) => text.trim() || undefined);
+
 /** An e-mail address as the API checks it. */
 export const emailRules = schemaRule(emailField);
 

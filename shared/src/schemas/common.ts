@@ -29,10 +29,17 @@ export function requiredText(emptyMessage: string, max: number) {
 export function limitedText(max: number) {
   return z.string({ error: 'Must be text' }).max(max, { error: `At most ${max} characters` });
 }
+/** The name of an uploaded file, kept with its text. */
+export const fileNameField = requiredText('The file needs a name', 255);
 
 /** Free text of at most `max` characters; missing means empty. */
 export function optionalText(max: number) {
   return limitedText(max).default('');
+}
+
+/** A calendar date written YYYY-MM-DD (a real day: no 31 April, 29 February only in leap years). */
+export function calendarDate(message: string) {
+  return z.iso.date({ error: message });
 }
 
 /** The optimistic-locking counter an edit sends back. */

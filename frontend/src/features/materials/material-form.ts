@@ -1,17 +1,23 @@
 /*
- * The material form's values and the rules of the API behind them (MaterialDto and the engine's
- * validateMaterialModel: constant n > 0, k ≥ 0; Cauchy A > 0, B and C finite; Sellmeier 1–3 terms,
- * C ≥ 0; every number finite; range 0 < from < to; date YYYY-MM-DD; name 1–120 characters).
+ * The material form's values and the rules of the API behind them: the name, range and provenance
+ * rules are the shared material schema's, and each model field is checked by the engine's own
+ * validateMaterialModel (constant n > 0, k ≥ 0; Cauchy A > 0; Sellmeier C ≥ 0; every number finite).
  */
 import {
-  MAX_RUN_LENGTH,
-  MAX_SOURCE_LENGTH,
+  OpticsInputError,
   indexAt,
-  provenanceProblem,
+  materialNameField,
+  provenanceIssues,
+  provenanceSchema,
+  rangeNmSchema,
+  validateMaterialModel,
   type MaterialModel,
+  type ProvenanceIssue,
   type ProvenanceKind,
 } from '@quietglass/shared';
+import type { ZodType } from 'zod';
 import { parseNumberInput } from '../../lib/format';
+import { typedNumber } from '../../lib/validation';
 import type { MaterialInput } from './api/create-material';
 import type { MaterialView } from './api/get-materials';
 
@@ -54,8 +60,6 @@ export interface MaterialFormValues {
 
 export type SellmeierForm = 'C' | 'lambda';
 
-export const MAX_NAME_LENGTH = 120;
-
 export const EMPTY_MATERIAL_VALUES: MaterialFormValues = {
   name: '',
   kind: 'constant',
@@ -86,72 +90,105 @@ type Verdict = true | string;
 const num = (text: string) => parseNumberInput(text);
 const blank = (text: string) => text.trim() === '';
 
+/** The first message of one of the API's field schemas for `value`, or true. */
+function verdict(schema: ZodType, value: unknown): Verdict {
+  const parsed = schema.safeParse(value);
+  return parsed.success || (parsed.error.issues[0]?.message ?? 'Not valid');
+}
+
+/** The provenance fields every material dialog has. */
+type ProvenanceValues = Pick<MaterialFormValues, 'provenanceKind' | 'source' | 'date' | 'run'>;
+
+/** The shared provenance rule's message for one field of the values, or true. */
+function provenanceRule(field: ProvenanceIssue['path'][1], values: ProvenanceValues): Verdict {
+  const kind = values.provenanceKind === '' ? undefined : values.provenanceKind;
+  const issue = provenanceIssues({
+    typical: kind === 'typical',
+    provenance: {
+      kind,
+      source: values.source.trim(),
+      date: values.date.trim() || null,
+      run: values.run.trim(),
+    },
+  }).find((i) => i.path[1] === field);
+  return issue?.message ?? true;
+}
+
+/**
+ * The engine's own rule for one model field: the typed number is put into a model that is valid
+ * otherwise (`probe`) and checked by validateMaterialModel; its problem is named by the field.
+ */
+function engineRule(label: string, probe: (x: number) => unknown) {
+  return (v: string): Verdict => {
+    const x = num(v);
+    if (x === null) return `${label} must be a number`;
+    try {
+      validateMaterialModel(probe(x), 'model');
+      return true;
+    } catch (error) {
+      if (error instanceof OpticsInputError) return `${label} ${error.problem}`;
+      throw error;
+    }
+  };
+}
+
+/** A field that may be left empty (its model default applies). */
+function orBlank(rule: (v: string) => Verdict) {
+  return (v: string): Verdict => blank(v) || rule(v);
+}
+
+const { shape: stated } = provenanceSchema;
+const { shape: range } = rangeNmSchema;
+
 export const materialRules = {
-  name: (v: string): Verdict =>
-    blank(v) ? 'Enter a name' : v.trim().length <= MAX_NAME_LENGTH || `At most ${MAX_NAME_LENGTH} characters`,
-  positive:
-    (what: string) =>
-    (v: string): Verdict => {
-      const x = num(v);
-      return (x !== null && x > 0) || `${what} must be a number greater than 0`;
-    },
-  nonNegative:
-    (what: string) =>
-    (v: string): Verdict => {
-      if (blank(v)) return true;
-      const x = num(v);
-      return (x !== null && x >= 0) || `${what} must be a number ≥ 0 (k > 0 is absorption)`;
-    },
-  finiteOrBlank:
-    (what: string) =>
-    (v: string): Verdict =>
-      blank(v) || num(v) !== null || `${what} must be a number`,
-  sellmeierB:
-    (i: 1 | 2 | 3) =>
-    (v: string): Verdict => {
-      if (i > 1 && blank(v)) return true;
-      return num(v) !== null || `B${i} must be a number`;
-    },
+  name: (v: string): Verdict => verdict(materialNameField, v),
+  /** Constant n. */
+  n: engineRule('n', (n) => ({ model: 'constant', n })),
+  /** Cauchy A. */
+  A: engineRule('A', (A) => ({ model: 'cauchy', A })),
+  /** k of any model; empty is 0. */
+  k: orBlank(engineRule('k', (k) => ({ model: 'constant', n: 1, k }))),
+  cauchyB: orBlank(engineRule('B', (B) => ({ model: 'cauchy', A: 1, B }))),
+  cauchyC: orBlank(engineRule('C', (C) => ({ model: 'cauchy', A: 1, C }))),
+  sellmeierB: (i: 1 | 2 | 3) => {
+    const rule = engineRule(`B${i}`, (b) => ({ model: 'sellmeier', B: [b], C: [0] }));
+    return i === 1 ? rule : orBlank(rule);
+  },
   sellmeierC:
     (i: 1 | 2 | 3) =>
     (v: string, values: MaterialFormValues): Verdict => {
-      const b = values[`B${i}`];
       const what = values.sellmeierForm === 'lambda' ? `λ${i}` : `C${i}`;
-      if (blank(b)) return blank(v) || `${what} needs a B${i}`;
-      const x = num(v);
-      return (
-        (x !== null && x >= 0) ||
-        (values.sellmeierForm === 'lambda'
-          ? `λ${i} must be a wavelength ≥ 0 (µm)`
-          : `C${i} must be a number ≥ 0 (µm²)`)
-      );
+      if (blank(values[`B${i}`])) return blank(v) || `${what} needs a B${i}`;
+      // A resonance wavelength λᵢ is held to the same rule as Cᵢ = λᵢ² (≥ 0) before it is squared.
+      return engineRule(what, (c) => ({ model: 'sellmeier', B: [1], C: [c] }))(v);
     },
-  provenanceKind: (v: string): Verdict => v !== '' || 'Say where the data come from',
-  source: (v: string, values: MaterialFormValues): Verdict => {
-    if (v.trim().length > MAX_SOURCE_LENGTH) return `At most ${MAX_SOURCE_LENGTH} characters`;
-    return values.provenanceKind === 'published' && blank(v)
-      ? 'A published material needs its reference'
-      : true;
+  provenanceKind: (v: string): Verdict =>
+    provenanceRule('kind', {
+      provenanceKind: v as ProvenanceValues['provenanceKind'],
+      source: '',
+      date: '',
+      run: '',
+    }),
+  source: (v: string, values: ProvenanceValues): Verdict => {
+    const length = verdict(stated.source, v);
+    return length === true ? provenanceRule('source', { ...values, source: v }) : length;
   },
-  measuredDate: (v: string, values: MaterialFormValues): Verdict => {
-    if (!blank(v) && !/^\d{4}-\d{2}-\d{2}$/.test(v.trim())) return 'A date as YYYY-MM-DD';
-    return values.provenanceKind === 'measured' && blank(v) ? 'A measurement needs its date' : true;
+  measuredDate: (v: string, values: ProvenanceValues): Verdict => {
+    const form = blank(v) || verdict(stated.date, v.trim());
+    return form === true ? provenanceRule('date', { ...values, date: v }) : form;
   },
-  run: (v: string, values: MaterialFormValues): Verdict => {
-    if (v.trim().length > MAX_RUN_LENGTH) return `At most ${MAX_RUN_LENGTH} characters`;
-    return values.provenanceKind === 'measured' && blank(v) ? 'A measurement needs its run' : true;
+  run: (v: string, values: ProvenanceValues): Verdict => {
+    const length = verdict(stated.run, v);
+    return length === true ? provenanceRule('run', { ...values, run: v }) : length;
   },
-  rangeFrom: (v: string): Verdict => {
-    const x = num(v);
-    return (x !== null && x > 0) || 'From must be a wavelength greater than 0 nm';
-  },
+  rangeFrom: (v: string): Verdict => verdict(typedNumber.pipe(range.from), v),
   rangeTo: (v: string, values: MaterialFormValues): Verdict => {
-    const to = num(v);
-    const from = num(values.rangeFrom);
-    if (to === null) return 'To must be a wavelength in nm';
-    return from === null || to > from || 'To must be above From';
+    const to = verdict(typedNumber.pipe(range.to), v);
+    if (to !== true) return to;
+    const checked = rangeNmSchema.safeParse({ from: num(values.rangeFrom) ?? Number.NaN, to: num(v) });
+    const reversed = checked.success ? undefined : checked.error.issues.find((i) => i.path[0] === 'to');
+    return reversed?.message ?? true;
   },
-  date: (v: string): Verdict => blank(v) || /^\d{4}-\d{2}-\d{2}$/.test(v.trim()) || 'A date as YYYY-MM-DD',
 };
 
 function optionalNumber(text: string): number {
@@ -234,17 +271,6 @@ export function materialInputOf(values: MaterialFormValues, original: MaterialMo
       ...(blank(values.run) ? {} : { run: values.run.trim() }),
     },
   };
-}
-
-/** The shared provenance rule on the form's values (null when complete). */
-export function provenanceOfValuesProblem(values: MaterialFormValues): string | null {
-  if (values.provenanceKind === '') return 'Say where the data come from';
-  return provenanceProblem({
-    kind: values.provenanceKind,
-    source: values.source,
-    date: values.date,
-    run: values.run,
-  });
 }
 
 /** One line of the live readout: n and k at a wavelength, or why there is none. */

@@ -6,8 +6,8 @@ import { renderWithProviders } from '../../../test/render';
 import type { MaterialView } from '../api/get-materials';
 import { MaterialFormDialog } from '../components/material-form-dialog';
 
-// Rules and answers: the Materials endpoints of the design-workspace API contract (MaterialDto;
-// the engine's model validation: constant n > 0, k ≥ 0; Cauchy A > 0; range from < to; PUT with
+// Rules and answers: the Materials endpoints of the design-workspace API contract (the shared
+// material schema; the engine's model validation: constant n > 0, k ≥ 0; Cauchy A > 0; range from < to; PUT with
 // `version`, 409 "…changed by someone else (now version N); reload…").
 
 const MGF2: MaterialView = {
@@ -49,8 +49,8 @@ describe('MaterialFormDialog', () => {
     await user.click(dialog.getByRole('button', { name: 'Add material' }));
 
     expect(isInvalid('n')).toBe(true);
-    expect(descriptionOf('n')).toBe('n must be a number greater than 0');
-    expect(descriptionOf('k')).toBe('k must be a number ≥ 0 (k > 0 is absorption)');
+    expect(descriptionOf('n')).toBe('n must be greater than 0 (got 0)');
+    expect(descriptionOf('k')).toBe('k must be 0 or more (got -0.01)');
     expect(descriptionOf('Valid to (nm)')).toBe('To must be above From');
     expect(isInvalid('Valid from (nm)')).toBe(false);
 
@@ -58,7 +58,7 @@ describe('MaterialFormDialog', () => {
     await fill(user, dialog, 'A', 'abc');
     await fill(user, dialog, 'B (µm²)', '1e');
     await user.click(dialog.getByRole('button', { name: 'Add material' }));
-    expect(descriptionOf('A')).toBe('A must be a number greater than 0');
+    expect(descriptionOf('A')).toBe('A must be a number');
     expect(descriptionOf('B (µm²)')).toBe('B must be a number');
     expect(api.requests).toHaveLength(0);
   });

@@ -3,9 +3,6 @@ import { apiClient } from '../../../lib/api-client';
 import type { MaterialInput } from './create-material';
 import { getMaterialsQueryOptions, type MaterialView } from './get-materials';
 
-/** Largest n,k file the API takes (bytes), checked here before sending too. */
-export const MAX_NK_CSV_BYTES = 1_000_000;
-
 export interface ImportMaterialCsvInput {
   name: string;
   /** The file's text: wavelength, n and optionally k per row. */

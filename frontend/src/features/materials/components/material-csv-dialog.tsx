@@ -5,7 +5,12 @@ import TableCell from '@mui/material/TableCell';
 import TableHead from '@mui/material/TableHead';
 import TableRow from '@mui/material/TableRow';
 import Typography from '@mui/material/Typography';
-import { PROVENANCE_KINDS, PROVENANCE_KIND_LABELS, type ProvenanceKind } from '@quietglass/shared';
+import {
+  MAX_NK_CSV_BYTES,
+  PROVENANCE_KINDS,
+  PROVENANCE_KIND_LABELS,
+  type ProvenanceKind,
+} from '@quietglass/shared';
 import { useEffect, useState } from 'react';
 import { useForm, useWatch } from 'react-hook-form';
 import { FileField } from '../../../components/file-field';
@@ -18,7 +23,7 @@ import { Plot } from '../../../components/plot';
 import { formatFileSize } from '../../../lib/format';
 import { notify } from '../../../lib/notifier';
 import type { MaterialView } from '../api/get-materials';
-import { MAX_NK_CSV_BYTES, useImportMaterialCsv } from '../api/import-material-csv';
+import { useImportMaterialCsv } from '../api/import-material-csv';
 import { usePreviewMaterialCsv, type NkCsvPreview } from '../api/preview-material-csv';
 import { EMPTY_MATERIAL_VALUES, materialRules } from '../material-form';
 

@@ -154,8 +154,8 @@ export function MaterialFormDialog({
       </Box>
       {kind === 'constant' && (
         <Box sx={{ display: 'grid', gap: 2, gridTemplateColumns: 'repeat(2, minmax(0, 1fr))' }}>
-          {numberField('n', 'n', materialRules.positive('n'))}
-          {numberField('k', 'k', materialRules.nonNegative('k'))}
+          {numberField('n', 'n', materialRules.n)}
+          {numberField('k', 'k', materialRules.k)}
         </Box>
       )}
       {kind === 'cauchy' && (
@@ -164,15 +164,15 @@ export function MaterialFormDialog({
             n(λ) = A + B/λ² + C/λ⁴ with λ in µm.
           </Typography>
           <Box sx={{ display: 'grid', gap: 2, gridTemplateColumns: 'repeat(4, minmax(0, 1fr))' }}>
-            {numberField('A', 'A', materialRules.positive('A'))}
-            {numberField('B', 'B (µm²)', materialRules.finiteOrBlank('B'))}
-            {numberField('C', 'C (µm⁴)', materialRules.finiteOrBlank('C'))}
+            {numberField('A', 'A', materialRules.A)}
+            {numberField('B', 'B (µm²)', materialRules.cauchyB)}
+            {numberField('C', 'C (µm⁴)', materialRules.cauchyC)}
             {base?.model.model === 'cauchy' && base.model.absorption ? (
               <Typography variant="body2" color="text.secondary">
                 k follows the saved absorption tail (kept as is).
               </Typography>
             ) : (
-              numberField('k', 'k', materialRules.nonNegative('k'))
+              numberField('k', 'k', materialRules.k)
             )}
           </Box>
         </>
@@ -205,7 +205,7 @@ export function MaterialFormDialog({
               </Box>
             ))}
           </Box>
-          <Box sx={{ maxWidth: 200 }}>{numberField('k', 'k', materialRules.nonNegative('k'))}</Box>
+          <Box sx={{ maxWidth: 200 }}>{numberField('k', 'k', materialRules.k)}</Box>
         </>
       )}
       {kind === 'table' && (

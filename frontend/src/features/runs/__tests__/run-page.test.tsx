@@ -10,7 +10,7 @@ import { CHAMBERS, COMPARISON, RECIPE, SPECTRUM, testRun } from './run-fixtures'
 
 vi.mock('../../../components/plot', () => import('../../../test/plot-mock'));
 
-// API contract: GET/PUT /runs/:id (UpdateRunDto: layerReadings {step, monitorThicknessNm?,
+// API contract: GET/PUT /runs/:id (shared update-run schema: layerReadings {step, monitorThicknessNm?,
 // rateNmPerS?, notes?}, durability {test, method, result, notes?}, notes), POST /runs/:id/spectra
 // (400 with one `details` entry per bad row, nothing stored), GET …/comparison; Run diagnosis only
 // for admins and engineers.
@@ -226,6 +226,28 @@ describe('Run page', () => {
 
     expect(await readings.findByText('Monitor thickness must be a number > 0')).toBeTruthy();
     expect(calls.calls('PUT', '/api/runs/40')).toHaveLength(0);
+  });
+
+  it("refuses an angle of 90° and a remark over 2000 characters with the API's messages, sending nothing", async () => {
+    const calls = api('operator', testRun());
+    const { user } = renderApp('/runs/40');
+    const upload = await section('Spectrum upload');
+    await user.upload(
+      upload.getByLabelText('Spectrum file'),
+      new File(['wavelength_nm,R_percent\n'], 'w.csv'),
+    );
+    await user.clear(upload.getByLabelText('Angle of incidence (°)'));
+    await user.type(upload.getByLabelText('Angle of incidence (°)'), '90');
+    await user.click(upload.getByRole('button', { name: 'Upload spectrum' }));
+    expect(await upload.findByText('Enter an angle from 0 to 89°')).toBeTruthy();
+
+    const remarks = await section('Remarks');
+    await user.click(remarks.getByLabelText('New remark'));
+    await user.paste('x'.repeat(2001));
+    expect(await remarks.findByText('At most 2000 characters')).toBeTruthy();
+    await user.click(remarks.getByRole('button', { name: 'Add remark' }));
+    expect(calls.calls('POST', '/api/runs/40/spectra')).toHaveLength(0);
+    expect(calls.calls('POST', '/api/runs/40/remarks')).toHaveLength(0);
   });
 
   it('saves durability results with the method named, and asks for a method', async () => {

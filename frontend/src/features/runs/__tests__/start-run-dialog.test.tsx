@@ -7,8 +7,8 @@ import { renderApp, renderWithProviders } from '../../../test/render';
 import { StartRunDialog } from '../components/start-run-dialog';
 import { CHAMBERS, RECIPES, testRun } from './run-fixtures';
 
-// StartRunDto: designId, versionNumber, chamberId integers; lotNumber 1–60 characters after trim;
-// runDate a strict ISO date. The API answers 400 with `details` for a recipe that is not released.
+// The shared start-run schema: designId, versionNumber, chamberId ids; lotNumber 1–60 characters
+// after trim; runDate a calendar day written YYYY-MM-DD. The API answers 400 with `details` for a recipe that is not released.
 
 function renderDialog(onStarted = vi.fn()) {
   const view = renderWithProviders(

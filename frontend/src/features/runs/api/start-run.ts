@@ -1,19 +1,13 @@
 import { useMutation, useQueryClient } from '@tanstack/react-query';
+import type { startRunSchema } from '@quietglass/shared';
+import type { z } from 'zod';
 import { apiClient } from '../../../lib/api-client';
 import { getRunsQueryOptions, type RunView } from './get-runs';
 
-/** StartRunDto: the signed-in user becomes the run's operator. */
-export interface StartRunInput {
-  designId: number;
-  versionNumber: number;
-  chamberId: number;
-  lotNumber: string;
-  /** YYYY-MM-DD. */
-  runDate: string;
-  notes?: string;
-}
+/** What the API's start-run schema accepts (notes may be left out); the signed-in user becomes the operator. */
+export type StartRunRequest = z.input<typeof startRunSchema>;
 
-export function startRun(input: StartRunInput): Promise<RunView> {
+export function startRun(input: StartRunRequest): Promise<RunView> {
   return apiClient.post<RunView>('/runs', input);
 }
 

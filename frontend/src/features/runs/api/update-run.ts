@@ -1,17 +1,10 @@
 import { useMutation, useQueryClient } from '@tanstack/react-query';
+import type { UpdateRunInput } from '@quietglass/shared';
 import { apiClient } from '../../../lib/api-client';
 import { getRunQueryOptions, type RunDetailView } from './get-run';
-import { getRunsQueryOptions, type DurabilityResult, type LayerReading, type RunView } from './get-runs';
+import { getRunsQueryOptions, type RunView } from './get-runs';
 
-/** UpdateRunDto: each field given replaces what the run had; `version` is the run's version it is based on. */
-export interface RunChanges {
-  version: number;
-  layerReadings?: LayerReading[];
-  durability?: DurabilityResult[];
-  notes?: string;
-}
-
-export function updateRun(id: number, changes: RunChanges): Promise<RunView> {
+export function updateRun(id: number, changes: UpdateRunInput): Promise<RunView> {
   return apiClient.put<RunView>(`/runs/${id}`, changes);
 }
 
@@ -19,7 +12,7 @@ export function updateRun(id: number, changes: RunChanges): Promise<RunView> {
 export function useUpdateRun(id: number) {
   const queryClient = useQueryClient();
   return useMutation({
-    mutationFn: (changes: RunChanges) => updateRun(id, changes),
+    mutationFn: (changes: UpdateRunInput) => updateRun(id, changes),
     meta: { errorShownInline: true },
     onSuccess: (run) => {
       queryClient.setQueryData(getRunQueryOptions(id).queryKey, (old: RunDetailView | undefined) =>

@@ -1,22 +1,16 @@
 import { useMutation, useQueryClient } from '@tanstack/react-query';
-import type { SpectrumQuantity } from '@quietglass/shared';
+import type { UploadSpectrumInput } from '@quietglass/shared';
 import { apiClient } from '../../../lib/api-client';
 import { getRunQueryOptions, type RunSpectrumView } from './get-run';
-
-/** UploadSpectrumDto: the file's text with `wavelength_nm` and `R_percent` or `T_percent` columns. */
-export interface UploadSpectrumInput {
-  filename: string;
-  csv: string;
-  angleDeg: number;
-  sample: 'witness' | 'part';
-  quantity?: SpectrumQuantity;
-}
 
 export function uploadSpectrum(runId: number, input: UploadSpectrumInput): Promise<RunSpectrumView> {
   return apiClient.post<RunSpectrumView>(`/runs/${runId}/spectra`, input);
 }
 
-/** Stores a measured spectrum; a bad row rejects the whole file (400 with one detail per bad row). */
+/**
+ * Stores a measured spectrum (the file's text with `wavelength_nm` and `R_percent` or `T_percent`
+ * columns); a bad row rejects the whole file (400 with one detail per bad row).
+ */
 export function useUploadSpectrum(runId: number) {
   const queryClient = useQueryClient();
   return useMutation({

@@ -2,14 +2,17 @@ import Box from '@mui/material/Box';
 import Button from '@mui/material/Button';
 import Paper from '@mui/material/Paper';
 import Typography from '@mui/material/Typography';
+import { zodResolver } from '@hookform/resolvers/zod';
+import { durabilityResultSchema } from '@quietglass/shared';
 import { useForm } from 'react-hook-form';
+import { z } from 'zod';
 import { ErrorAlert } from '../../../components/error-alert';
 import { FormSelectField } from '../../../components/form-select-field';
 import { FormTextField } from '../../../components/form-text-field';
 import { notify } from '../../../lib/notifier';
+import { typedOptionalText } from '../../../lib/validation';
 import type { DurabilityResult, RunView } from '../api/get-runs';
 import { useUpdateRun } from '../api/update-run';
-import { fieldText } from '../../../lib/format';
 
 /**
  * The tests this form records; results of other tests the run holds are kept as they are. The
@@ -32,9 +35,28 @@ interface TestRow {
 
 type DurabilityValues = Record<(typeof TESTS)[number]['test'], TestRow>;
 
-// DurabilityDto: method 1–200 characters, notes up to 500.
-const MAX_METHOD = 200;
-const MAX_NOTES = 500;
+const { shape: result } = durabilityResultSchema;
+
+/** A test not run is sent as nothing; a result is checked by the API's durability schema. */
+const testRowSchema = z.discriminatedUnion('result', [
+  z.object({ result: z.literal(''), method: z.string(), notes: z.string() }),
+  z.object({
+    result: result.result,
+    method: result.method,
+    notes: typedOptionalText.pipe(result.notes),
+  }),
+]);
+
+/** The form's values checked by the API's schema; when they pass, the results of the tests run. */
+export const durabilityFormSchema = z
+  .object({ adhesion: testRowSchema, abrasion: testRowSchema, humidity: testRowSchema })
+  .transform((values) => ({
+    recorded: TESTS.flatMap(({ test }): DurabilityResult[] => {
+      const row = values[test];
+      if (row.result === '') return [];
+      return [{ test, method: row.method, result: row.result, ...(row.notes ? { notes: row.notes } : {}) }];
+    }),
+  }));
 
 function valuesOf(run: RunView): DurabilityValues {
   const row = (test: string): TestRow => {
@@ -46,29 +68,28 @@ function valuesOf(run: RunView): DurabilityValues {
 
 /** The durability results to send: the tests with a result, then any others the run already had. */
 export function durabilityOf(
-  values: DurabilityValues,
+  recorded: readonly DurabilityResult[],
   previous: readonly DurabilityResult[],
 ): DurabilityResult[] {
-  const recorded = TESTS.flatMap(({ test }): DurabilityResult[] => {
-    const row = values[test];
-    if (row.result === '') return [];
-    const notes = row.notes.trim();
-    return [{ test, method: row.method.trim(), result: row.result, ...(notes ? { notes } : {}) }];
-  });
   return [...recorded, ...previous.filter((d) => !TESTS.some((t) => t.test === d.test))];
 }
 
 /** Adhesion, abrasion and humidity results of the run's witness or part, each with the procedure followed. */
 export function DurabilityForm({ run, canEdit }: { run: RunView; canEdit: boolean }) {
   const update = useUpdateRun(run.id);
-  const { control, handleSubmit, reset } = useForm<DurabilityValues>({
+  const { control, handleSubmit, reset } = useForm<
+    DurabilityValues,
+    unknown,
+    z.output<typeof durabilityFormSchema>
+  >({
     defaultValues: valuesOf(run),
+    resolver: zodResolver(durabilityFormSchema),
     mode: 'onTouched',
   });
 
-  const onSubmit = handleSubmit((values) =>
+  const onSubmit = handleSubmit(({ recorded }) =>
     update.mutate(
-      { version: run.version, durability: durabilityOf(values, run.durability) },
+      { version: run.version, durability: durabilityOf(recorded, run.durability) },
       {
         onSuccess: (saved) => {
           reset(valuesOf(saved));
@@ -109,13 +130,6 @@ export function DurabilityForm({ run, canEdit }: { run: RunView; canEdit: boolea
               size="small"
               disabled={!canEdit}
               helperText={example}
-              rules={{
-                validate: (v, all) =>
-                  all[test].result === '' ||
-                  fieldText(v).trim() !== '' ||
-                  'Name the test procedure followed (e.g. ISO 9211-4, tape adhesion)',
-                maxLength: { value: MAX_METHOD, message: `At most ${MAX_METHOD} characters` },
-              }}
             />
             <FormTextField
               control={control}
@@ -123,7 +137,6 @@ export function DurabilityForm({ run, canEdit }: { run: RunView; canEdit: boolea
               label={`${label} notes`}
               size="small"
               disabled={!canEdit}
-              rules={{ maxLength: { value: MAX_NOTES, message: `At most ${MAX_NOTES} characters` } }}
             />
           </Box>
         ))}

@@ -7,12 +7,15 @@ import TableCell from '@mui/material/TableCell';
 import TableHead from '@mui/material/TableHead';
 import TableRow from '@mui/material/TableRow';
 import Typography from '@mui/material/Typography';
-import { elementAt } from '@quietglass/shared';
+import { zodResolver } from '@hookform/resolvers/zod';
+import { layerReadingSchema, updateRunSchema } from '@quietglass/shared';
+import { useMemo } from 'react';
 import { useForm } from 'react-hook-form';
+import { z } from 'zod';
 import { ErrorAlert } from '../../../components/error-alert';
 import { FormTextField } from '../../../components/form-text-field';
-import { parseNumberInput, fieldText } from '../../../lib/format';
 import { notify } from '../../../lib/notifier';
+import { typedOptionalNumber, typedOptionalText } from '../../../lib/validation';
 import type { RecipeView } from '../run-inputs';
 import type { LayerReading, RunView } from '../api/get-runs';
 import { useUpdateRun } from '../api/update-run';
@@ -52,15 +55,39 @@ interface ReadingsValues {
   notes: string;
 }
 
-// LayerReadingDto / UpdateRunDto limits.
-const MAX_LAYER_NOTES = 500;
-const MAX_RUN_NOTES = 4000;
+const { shape: reading } = layerReadingSchema;
 
-function positiveOrEmpty(what: string) {
-  return (v: unknown) => {
-    const text = fieldText(v);
-    return text.trim() === '' || (parseNumberInput(text) ?? 0) > 0 || `${what} must be a number > 0`;
-  };
+/** One row's typed text, checked by the API's reading schema (empty fields are left out). */
+const readingRowSchema = z.object({
+  monitorThicknessNm: typedOptionalNumber.pipe(reading.monitorThicknessNm),
+  rateNmPerS: typedOptionalNumber.pipe(reading.rateNmPerS),
+  notes: typedOptionalText.pipe(reading.notes),
+});
+
+/**
+ * The form's values checked by the API's schemas; when they pass, the readings worth sending (steps
+ * with a value or a remark, empty fields left out) and the run's notes.
+ */
+export function readingsFormSchema(steps: readonly DepositionStep[]) {
+  return z
+    .object({ rows: z.array(readingRowSchema), notes: updateRunSchema.shape.notes.unwrap() })
+    .transform(({ rows, notes }) => ({
+      layerReadings: steps.flatMap(({ step }, i): LayerReading[] => {
+        const row = rows[i];
+        if (!row) return [];
+        const { monitorThicknessNm, rateNmPerS, notes: remark } = row;
+        if (monitorThicknessNm === undefined && rateNmPerS === undefined && remark === undefined) return [];
+        return [
+          {
+            step,
+            ...(monitorThicknessNm !== undefined ? { monitorThicknessNm } : {}),
+            ...(rateNmPerS !== undefined ? { rateNmPerS } : {}),
+            ...(remark !== undefined ? { notes: remark } : {}),
+          },
+        ];
+      }),
+      notes,
+    }));
 }
 
 function valuesOf(run: RunView, steps: readonly DepositionStep[]): ReadingsValues {
@@ -77,25 +104,6 @@ function valuesOf(run: RunView, steps: readonly DepositionStep[]): ReadingsValue
   };
 }
 
-/** The readings worth sending: steps with a value or a remark, empty fields left out. */
-export function readingsOf(values: ReadingsValues, steps: readonly DepositionStep[]): LayerReading[] {
-  return steps.flatMap(({ step }, i) => {
-    const row = elementAt(values.rows, i, 'the reading rows');
-    const thickness = parseNumberInput(row.monitorThicknessNm);
-    const rate = parseNumberInput(row.rateNmPerS);
-    const notes = row.notes.trim();
-    if (thickness === null && rate === null && notes === '') return [];
-    return [
-      {
-        step,
-        ...(thickness !== null ? { monitorThicknessNm: thickness } : {}),
-        ...(rate !== null ? { rateNmPerS: rate } : {}),
-        ...(notes !== '' ? { notes } : {}),
-      },
-    ];
-  });
-}
-
 interface LayerReadingsFormProps {
   run: RunView;
   steps: readonly DepositionStep[];
@@ -105,14 +113,16 @@ interface LayerReadingsFormProps {
 /** What the monitor showed for each layer, remarks per layer and the run's notes, saved together. */
 export function LayerReadingsForm({ run, steps, canEdit }: LayerReadingsFormProps) {
   const update = useUpdateRun(run.id);
-  const { control, handleSubmit, reset } = useForm<ReadingsValues>({
+  const schema = useMemo(() => readingsFormSchema(steps), [steps]);
+  const { control, handleSubmit, reset } = useForm<ReadingsValues, unknown, z.output<typeof schema>>({
     defaultValues: valuesOf(run, steps),
+    resolver: zodResolver(schema),
     mode: 'onTouched',
   });
 
-  const onSubmit = handleSubmit((values) =>
+  const onSubmit = handleSubmit((changes) =>
     update.mutate(
-      { version: run.version, layerReadings: readingsOf(values, steps), notes: values.notes },
+      { version: run.version, ...changes },
       {
         onSuccess: (saved) => {
           reset(valuesOf(saved, steps));
@@ -154,7 +164,6 @@ export function LayerReadingsForm({ run, steps, canEdit }: LayerReadingsFormProp
                   <FormTextField
                     control={control}
                     name={`rows.${i}.monitorThicknessNm`}
-                    rules={{ validate: positiveOrEmpty('Monitor thickness') }}
                     size="small"
                     disabled={!canEdit}
                     slotProps={{
@@ -169,7 +178,6 @@ export function LayerReadingsForm({ run, steps, canEdit }: LayerReadingsFormProp
                   <FormTextField
                     control={control}
                     name={`rows.${i}.rateNmPerS`}
-                    rules={{ validate: positiveOrEmpty('Rate') }}
                     size="small"
                     disabled={!canEdit}
                     slotProps={{
@@ -181,9 +189,6 @@ export function LayerReadingsForm({ run, steps, canEdit }: LayerReadingsFormProp
                   <FormTextField
                     control={control}
                     name={`rows.${i}.notes`}
-                    rules={{
-                      maxLength: { value: MAX_LAYER_NOTES, message: `At most ${MAX_LAYER_NOTES} characters` },
-                    }}
                     size="small"
                     disabled={!canEdit}
                     slotProps={{ htmlInput: { 'aria-label': `Remarks on step ${s.step}` } }}
@@ -200,7 +205,6 @@ export function LayerReadingsForm({ run, steps, canEdit }: LayerReadingsFormProp
           multiline
           minRows={2}
           disabled={!canEdit}
-          rules={{ maxLength: { value: MAX_RUN_NOTES, message: `At most ${MAX_RUN_NOTES} characters` } }}
         />
         {canEdit && (
           <Box>

@@ -4,11 +4,12 @@ import List from '@mui/material/List';
 import ListItem from '@mui/material/ListItem';
 import ListItemText from '@mui/material/ListItemText';
 import Paper from '@mui/material/Paper';
-import TextField from '@mui/material/TextField';
 import Typography from '@mui/material/Typography';
-import { RUN_REMARK_MAX_LENGTH } from '@quietglass/shared';
-import { useState } from 'react';
+import { zodResolver } from '@hookform/resolvers/zod';
+import { runRemarkSchema, type RunRemarkInput } from '@quietglass/shared';
+import { useForm } from 'react-hook-form';
 import { ErrorAlert } from '../../../components/error-alert';
+import { FormTextField } from '../../../components/form-text-field';
 import { formatDateTime } from '../../../lib/format';
 import { notify } from '../../../lib/notifier';
 import { useAddRunRemark } from '../api/add-run-remark';
@@ -17,20 +18,21 @@ import type { RunView } from '../api/get-runs';
 /** Remarks on a run by anyone who reads it, oldest first, and a field to add one. */
 export function RunRemarks({ run }: { run: RunView }) {
   const add = useAddRunRemark(run.id);
-  const [text, setText] = useState('');
-  const trimmed = text.trim();
-  const tooLong = trimmed.length > RUN_REMARK_MAX_LENGTH;
+  const { control, handleSubmit, reset, watch } = useForm<{ text: string }, unknown, RunRemarkInput>({
+    defaultValues: { text: '' },
+    resolver: zodResolver(runRemarkSchema),
+    mode: 'onChange',
+  });
+  const empty = watch('text').trim() === '';
 
-  const submit = (e: React.FormEvent) => {
-    e.preventDefault();
-    if (!trimmed || tooLong) return;
-    add.mutate(trimmed, {
+  const submit = handleSubmit(({ text }) =>
+    add.mutate(text, {
       onSuccess: () => {
-        setText('');
+        reset({ text: '' });
         notify('Remark added.', 'success');
       },
-    });
-  };
+    }),
+  );
 
   return (
     <Paper variant="outlined" sx={{ p: 2 }} component="section" aria-label="Remarks">
@@ -56,22 +58,17 @@ export function RunRemarks({ run }: { run: RunView }) {
       )}
       <Box component="form" noValidate onSubmit={submit} sx={{ display: 'grid', gap: 1, mt: 1 }}>
         {add.error && <ErrorAlert error={add.error} title="The remark was not added" />}
-        <TextField
+        <FormTextField
+          control={control}
+          name="text"
           label="New remark"
           multiline
           minRows={2}
           size="small"
-          value={text}
-          onChange={(e) => setText(e.target.value)}
-          error={tooLong}
-          helperText={
-            tooLong
-              ? `At most ${RUN_REMARK_MAX_LENGTH} characters (now ${trimmed.length})`
-              : 'Remarks are kept with the run and cannot be edited.'
-          }
+          helperText="Remarks are kept with the run and cannot be edited."
         />
         <Box>
-          <Button type="submit" variant="outlined" disabled={!trimmed || tooLong || add.isPending}>
+          <Button type="submit" variant="outlined" disabled={empty || add.isPending}>
             Add remark
           </Button>
         </Box>

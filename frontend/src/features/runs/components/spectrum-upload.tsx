@@ -2,28 +2,48 @@ import Box from '@mui/material/Box';
 import Button from '@mui/material/Button';
 import Paper from '@mui/material/Paper';
 import Typography from '@mui/material/Typography';
+import { zodResolver } from '@hookform/resolvers/zod';
+import {
+  MAX_SPECTRUM_CSV_BYTES,
+  SPECTRUM_QUANTITIES,
+  uploadSpectrumSchema,
+  type SpectrumQuantity,
+  type SpectrumSample,
+} from '@quietglass/shared';
 import { useState } from 'react';
 import { useForm } from 'react-hook-form';
+import { z } from 'zod';
 import { FileField } from '../../../components/file-field';
 import { FileProblemsAlert } from '../../../components/file-problems-alert';
 import { FormSelectField } from '../../../components/form-select-field';
 import { FormTextField } from '../../../components/form-text-field';
-import { parseNumberInput } from '../../../lib/format';
 import { notify } from '../../../lib/notifier';
+import { typedNumber } from '../../../lib/validation';
 import type { RunSpectrumView } from '../api/get-run';
-import { MAX_SPECTRUM_CSV_BYTES } from '@quietglass/shared';
 import { useUploadSpectrum } from '../api/upload-spectrum';
 
 interface UploadValues {
   angleDeg: string;
-  sample: 'witness' | 'part';
+  sample: SpectrumSample;
   /** '' reads the one quantity the file has; R or T picks one from a file with both. */
-  quantity: '' | 'R' | 'T';
+  quantity: '' | SpectrumQuantity;
 }
 
 // Spectrophotometer reflectance accessories usually measure near normal at about 8° (common
 // practice, no source); the mask counts up to 8° as normal incidence.
 const DEFAULTS: UploadValues = { angleDeg: '8', sample: 'witness', quantity: '' };
+
+const { shape } = uploadSpectrumSchema;
+
+/** How the spectrum was measured, checked by the API's upload schema (the file is sent beside it). */
+const uploadFormSchema = z.object({
+  angleDeg: typedNumber.pipe(shape.angleDeg),
+  sample: shape.sample,
+  quantity: z
+    .enum(['', ...SPECTRUM_QUANTITIES])
+    .transform((q) => (q === '' ? undefined : q))
+    .pipe(shape.quantity),
+});
 
 interface SpectrumUploadProps {
   runId: number;
@@ -35,7 +55,11 @@ export function SpectrumUpload({ runId, onUploaded }: SpectrumUploadProps) {
   const upload = useUploadSpectrum(runId);
   const [file, setFile] = useState<File | null>(null);
   const [fileProblem, setFileProblem] = useState<string | null>(null);
-  const { control, handleSubmit } = useForm<UploadValues>({ defaultValues: DEFAULTS, mode: 'onTouched' });
+  const { control, handleSubmit } = useForm<UploadValues, unknown, z.output<typeof uploadFormSchema>>({
+    defaultValues: DEFAULTS,
+    resolver: zodResolver(uploadFormSchema),
+    mode: 'onTouched',
+  });
 
   const chooseFile = (chosen: File | null) => {
     setFile(chosen);
@@ -45,7 +69,7 @@ export function SpectrumUpload({ runId, onUploaded }: SpectrumUploadProps) {
     else setFileProblem(null);
   };
 
-  const onSubmit = handleSubmit(async (values) => {
+  const onSubmit = handleSubmit(async ({ quantity, ...measured }) => {
     if (!file) {
       setFileProblem('Choose a spectrum file');
       return;
@@ -53,13 +77,7 @@ export function SpectrumUpload({ runId, onUploaded }: SpectrumUploadProps) {
     if (fileProblem) return;
     const csv = await file.text();
     upload.mutate(
-      {
-        filename: file.name,
-        csv,
-        angleDeg: parseNumberInput(values.angleDeg) ?? 0,
-        sample: values.sample,
-        ...(values.quantity === '' ? {} : { quantity: values.quantity }),
-      },
+      { filename: file.name, csv, ...measured, ...(quantity ? { quantity } : {}) },
       {
         onSuccess: (spectrum) => {
           notify(`${spectrum.filename} uploaded.`, 'success');
@@ -98,12 +116,6 @@ export function SpectrumUpload({ runId, onUploaded }: SpectrumUploadProps) {
             size="small"
             sx={{ width: 190 }}
             slotProps={{ htmlInput: { inputMode: 'decimal' } }}
-            rules={{
-              validate: (v) => {
-                const a = parseNumberInput(v);
-                return (a !== null && a >= 0 && a <= 89) || 'Enter an angle from 0 to 89°';
-              },
-            }}
           />
           <FormSelectField
             control={control}

@@ -1,12 +1,16 @@
 import TextField from '@mui/material/TextField';
+import { zodResolver } from '@hookform/resolvers/zod';
+import { startRunSchema } from '@quietglass/shared';
 import { useForm } from 'react-hook-form';
+import { z } from 'zod';
 import { ErrorAlert } from '../../../components/error-alert';
 import { FormDialog } from '../../../components/form-dialog';
 import { FormSelectField, namedOptions } from '../../../components/form-select-field';
 import { FormTextField } from '../../../components/form-text-field';
+import { chosenId } from '../../../lib/validation';
 import type { ReleasedRecipeView, RunChamberView } from '../run-inputs';
 import type { RunView } from '../api/get-runs';
-import { useStartRun } from '../api/start-run';
+import { useStartRun, type StartRunRequest } from '../api/start-run';
 import { parseRecipeKey, recipeKey } from '../run-labels';
 
 export interface StartRunValues {
@@ -16,17 +20,24 @@ export interface StartRunValues {
   runDate: string;
 }
 
-// StartRunDto: lot number 1–60 characters, run date an ISO calendar date.
-const MAX_LOT = 60;
-const DATE_PATTERN = /^\d{4}-\d{2}-\d{2}$/;
+const { shape } = startRunSchema;
+const releasedRecipe = startRunSchema.pick({ designId: true, versionNumber: true });
 
-function isCalendarDate(value: string): boolean {
-  if (!DATE_PATTERN.test(value)) return false;
-  const [y, m, d] = value.split('-').map(Number);
-  if (y === undefined || m === undefined || d === undefined) return false;
-  const date = new Date(Date.UTC(y, m - 1, d));
-  return date.getUTCFullYear() === y && date.getUTCMonth() === m - 1 && date.getUTCDate() === d;
-}
+/** The dialog's values checked by the API's start-run schema; the request body when they pass. */
+const startRunFormSchema = z
+  .object({
+    recipe: z.string().transform((key, ctx) => {
+      const chosen = releasedRecipe.safeParse(parseRecipeKey(key) ?? {});
+      if (chosen.success) return chosen.data;
+      const [first] = chosen.error.issues;
+      if (first) ctx.addIssue({ code: 'custom', message: first.message });
+      return z.NEVER;
+    }),
+    chamberId: chosenId.pipe(shape.chamberId),
+    lotNumber: shape.lotNumber,
+    runDate: shape.runDate,
+  })
+  .transform(({ recipe, ...rest }) => ({ ...recipe, ...rest }));
 
 /** Today in the reader's time zone, YYYY-MM-DD. */
 export function todayIso(now = new Date()): string {
@@ -64,8 +75,9 @@ export function StartRunDialog({
     lotNumber: '',
     runDate: todayIso(),
   };
-  const { control, handleSubmit, reset } = useForm<StartRunValues>({
+  const { control, handleSubmit, reset } = useForm<StartRunValues, unknown, StartRunRequest>({
     defaultValues: empty,
+    resolver: zodResolver(startRunFormSchema),
     mode: 'onTouched',
   });
 
@@ -75,25 +87,14 @@ export function StartRunDialog({
     onClose();
   };
 
-  const onSubmit = handleSubmit((values) => {
-    const recipe = parseRecipeKey(values.recipe);
-    if (!recipe) return;
-    start.mutate(
-      {
-        designId: recipe.designId,
-        versionNumber: recipe.versionNumber,
-        chamberId: Number(values.chamberId),
-        lotNumber: values.lotNumber.trim(),
-        runDate: values.runDate,
+  const onSubmit = handleSubmit((input) =>
+    start.mutate(input, {
+      onSuccess: (run) => {
+        close();
+        onStarted(run);
       },
-      {
-        onSuccess: (run) => {
-          close();
-          onStarted(run);
-        },
-      },
-    );
-  });
+    }),
+  );
 
   return (
     <FormDialog
@@ -110,7 +111,6 @@ export function StartRunDialog({
         name="recipe"
         label="Released recipe"
         placeholder="Choose…"
-        rules={{ validate: (v) => parseRecipeKey(v) !== null || 'Choose a released recipe' }}
         options={recipes.map((r) => ({
           value: recipeKey(r.designId, r.number),
           label: `${r.name} v${r.number} (${r.customer})`,
@@ -123,25 +123,15 @@ export function StartRunDialog({
         name="chamberId"
         label="Chamber"
         placeholder="Choose…"
-        rules={{ validate: (v) => v !== '' || 'Choose the chamber' }}
         options={namedOptions(chambers)}
       />
-      <FormTextField
-        control={control}
-        name="lotNumber"
-        label="Lot number"
-        rules={{
-          validate: (v) => v.trim() !== '' || 'Enter the lot number',
-          maxLength: { value: MAX_LOT, message: `At most ${MAX_LOT} characters` },
-        }}
-      />
+      <FormTextField control={control} name="lotNumber" label="Lot number" />
       <FormTextField
         control={control}
         name="runDate"
         label="Run date"
         type="date"
         slotProps={{ inputLabel: { shrink: true } }}
-        rules={{ validate: (v) => isCalendarDate(v) || 'Enter the date as YYYY-MM-DD' }}
       />
       <TextField
         label="Operator"
