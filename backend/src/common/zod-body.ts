@@ -17,7 +17,8 @@ export class ZodBodyPipe implements PipeTransform {
 
   transform(value: unknown, metadata: ArgumentMetadata): unknown {
     if (metadata.type !== 'body') return value;
-    const parsed = this.schema.safeParse(value);
+    // A request without a body is an empty one, as the class-validator pipe took it.
+    const parsed = this.schema.safeParse(value ?? {});
     if (!parsed.success) throw new BadRequestException({ message: issueLines(parsed.error) });
     return parsed.data;
   }

@@ -21,11 +21,17 @@ export type ShopNameInput = z.output<typeof shopNameSchema>;
 
 const MARGIN_MESSAGE = `A number from 0 to ${MAX_TARGET_MARGIN_PERCENT} percentage points`;
 
+/**
+ * How far inside every limit to design, percentage points: the shop's default and the margin one
+ * Fit to mask or Grow layers request asks for.
+ */
+export const targetMarginPercentField = finiteNumber(MARGIN_MESSAGE)
+  .min(0, { error: MARGIN_MESSAGE })
+  .max(MAX_TARGET_MARGIN_PERCENT, { error: MARGIN_MESSAGE });
+
 /** Percentage points inside every limit that Fit to mask and Grow layers design in by default. */
 export const shopTargetMarginSchema = z.strictObject({
-  targetMarginPercent: finiteNumber(MARGIN_MESSAGE)
-    .min(0, { error: MARGIN_MESSAGE })
-    .max(MAX_TARGET_MARGIN_PERCENT, { error: MARGIN_MESSAGE }),
+  targetMarginPercent: targetMarginPercentField,
   version: settingsVersion,
 });
 export type ShopTargetMarginInput = z.output<typeof shopTargetMarginSchema>;
