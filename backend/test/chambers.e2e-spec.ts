@@ -208,16 +208,18 @@ describe('process settings per material', () => {
   });
 
   it.each([
-    [{ substrateTemperatureC: 'hot' }, 'settings.0.substrateTemperatureC must be a number (°C)'],
-    [{ substrateTemperatureC: 900 }, 'settings.0.substrateTemperatureC must be at most 400 °C'],
-    [{ basePressureMbar: 0 }, 'settings.0.basePressureMbar must be at least 1e-9 mbar'],
-    [{ basePressureMbar: 2 }, 'settings.0.basePressureMbar must be at most 0.001 mbar'],
-    [{ o2FlowSccm: -3 }, 'settings.0.o2FlowSccm must be at least 0 sccm'],
-    [{ ionCurrentA: 'high' }, 'settings.0.ionCurrentA must be a number (A)'],
-    [{ notes: 'n'.repeat(301) }, 'settings.0.notes must be at most 300 characters'],
+    [{ substrateTemperatureC: 'hot' }, 'settings.0.substrateTemperatureC: A number in °C'],
+    [{ substrateTemperatureC: 900 }, 'settings.0.substrateTemperatureC: At most 400 °C'],
+    [{ basePressureMbar: 0 }, 'settings.0.basePressureMbar: At least 1e-9 mbar'],
+    [{ basePressureMbar: 2 }, 'settings.0.basePressureMbar: At most 0.001 mbar'],
+    [{ basePressureMbar: undefined }, 'settings.0.basePressureMbar: Needed once the material has a setting'],
+    [{ o2FlowSccm: -3 }, 'settings.0.o2FlowSccm: At least 0 sccm'],
+    [{ ionCurrentA: 'high' }, 'settings.0.ionCurrentA: A number in A'],
+    [{ notes: 'n'.repeat(301) }, 'settings.0.notes: At most 300 characters'],
+    [{ colour: 'red' }, 'settings.0: Unrecognized key: "colour"'],
     [
       { materialId: 99999 },
-      'settings[0].materialId: material 99999 is not in the material list of chamber "Test chamber"',
+      'settings.0.materialId: material 99999 is not in the material list of chamber "Test chamber"',
     ],
   ])('refuses %j with 400 and writes nothing', async (patch, detail) => {
     const res = await http()
@@ -235,15 +237,36 @@ describe('process settings per material', () => {
       .set('Cookie', mira)
       .send({ settings: [setting(m['Sheet L 1.5']!), setting(m['Sheet L 1.5']!)], version: 0 });
     expect(twice.status).toBe(400);
-    expect(twice.body.details).toContain(
-      `settings[1].materialId: material ${m['Sheet L 1.5']} is listed twice`,
-    );
+    expect(twice.body.details).toEqual(['settings.1.materialId: This material is already listed in row 1']);
     const op = await http()
       .put(`/api/chambers/${chamberId}/process-settings`)
       .set('Cookie', operator)
       .send({ settings: [setting(m['Sheet L 1.5']!)], version: 0 });
     expect(op.status).toBe(403);
     expect(await stored()).toEqual([]);
+  });
+
+  it('publishes the shared process settings schema as the body of the edit in the OpenAPI description', async () => {
+    type Item = { properties: Record<string, { maximum?: number; default?: unknown }>; required: string[] };
+    const doc = (await http().get('/api/docs-json')).body as {
+      paths: Record<
+        string,
+        Record<
+          string,
+          {
+            requestBody: {
+              content: { 'application/json': { schema: { properties: { settings: { items: Item } } } } };
+            };
+          }
+        >
+      >;
+    };
+    const body =
+      doc.paths['/api/chambers/{id}/process-settings']!['put']!.requestBody.content['application/json'];
+    const item = body.schema.properties.settings.items;
+    expect(item.required.sort()).toEqual(['basePressureMbar', 'materialId', 'substrateTemperatureC']);
+    expect(item.properties.substrateTemperatureC!.maximum).toBe(400);
+    expect(item.properties.ionVoltageV!.default).toBeNull();
   });
 
   it('saves the set under a version lock and puts before and after on the audit trail', async () => {

@@ -14,6 +14,7 @@ export * from './schemas/calibration.js';
 export * from './schemas/shop.js';
 export * from './schemas/users.js';
 export * from './schemas/optimise.js';
+export * from './schemas/process-settings.js';
 export * from './calibration.js';
 export * from './recipes.js';
 export * from './outbox.js';

@@ -38,6 +38,25 @@ export const versionToken = z
   .int({ error: 'version must be a whole number' })
   .min(1, { error: 'version must be at least 1' });
 
+/** The version of a settings record the editor read: 0 before the first save. */
+export const settingsVersion = z
+  .number({ error: 'version must be the version you read' })
+  .int({ error: 'version must be the version you read' })
+  .min(0, { error: 'version must be the version you read' });
+
+/** Each material once in a list of per-material rows: a repeat is refused at its materialId. */
+export function eachMaterialOnce(rows: readonly { materialId: number }[], ctx: z.RefinementCtx): void {
+  rows.forEach((row, index) => {
+    const first = rows.findIndex((r) => r.materialId === row.materialId);
+    if (first !== index)
+      ctx.addIssue({
+        code: 'custom',
+        path: [index, 'materialId'],
+        message: `This material is already listed in row ${first + 1}`,
+      });
+  });
+}
+
 /** One line per problem, as the API answers them: "materials.0.toolingFactor: …". */
 export function issueLines(error: z.ZodError): string[] {
   return error.issues.map((issue) => {

@@ -5,13 +5,7 @@
 import { z } from 'zod';
 import { MAX_TARGET_MARGIN_PERCENT } from '../optimise/fit.js';
 import { LOGO_MAX_BYTES, LOGO_TYPES, SHOP_NAME_MAX } from '../shop.js';
-import { finiteNumber, requiredText } from './common.js';
-
-/** The settings' version the editor read: 0 before the first save. */
-const settingsVersion = z
-  .number({ error: 'version must be the version you read' })
-  .int({ error: 'version must be the version you read' })
-  .min(0, { error: 'version must be the version you read' });
+import { finiteNumber, requiredText, settingsVersion } from './common.js';
 
 export const shopNameSchema = z.strictObject({
   shopName: requiredText('The shop needs a name', SHOP_NAME_MAX),
