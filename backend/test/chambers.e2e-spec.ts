@@ -386,12 +386,13 @@ describe('run sheet of a released recipe', () => {
   });
 
   it.each([
-    ['quantity=0', 'quantity must be at least 1'],
-    ['quantity=2.5', 'quantity must be a whole number of parts'],
-    ['substrateThicknessMm=-1', 'substrateThicknessMm must be > 0'],
-    ['substrateThicknessMm=abc', 'substrateThicknessMm must be a number'],
-    [`part=${'p'.repeat(81)}`, 'part must be at most 80 characters'],
-    ['sides=back', 'sides must be one of front, both'],
+    ['quantity=0', 'quantity: At least 1'],
+    ['quantity=2.5', 'quantity: A whole number of parts'],
+    ['substrateThicknessMm=-1', 'substrateThicknessMm: Must be more than 0 mm'],
+    ['substrateThicknessMm=abc', 'substrateThicknessMm: A number in mm'],
+    [`part=${'p'.repeat(81)}`, 'part: At most 80 characters'],
+    ['sides=back', 'sides: sides must be one of front, both'],
+    ['colour=red', 'Unrecognized key: "colour"'],
     [
       'sides=both',
       'sides: this design leaves the back surface uncoated; coating both sides would not be the approved design',
@@ -403,6 +404,32 @@ describe('run sheet of a released recipe', () => {
         .set('Cookie', operator);
       expect(res.status).toBe(400);
       expect(res.body.details).toContain(detail);
+    }
+  });
+
+  it('refuses a run sheet without a chamber, and publishes its query parameters in the OpenAPI description', async () => {
+    const res = await http().get(`/api/recipes/${recipeId}/1/run-sheet`).set('Cookie', operator);
+    expect(res.status).toBe(400);
+    expect(res.body.details).toEqual(['chamberId: Choose a chamber']);
+    type Parameter = { name: string; in: string; required: boolean; schema: { maximum?: number } };
+    const doc = (await http().get('/api/docs-json')).body as {
+      paths: Record<string, Record<string, { parameters: Parameter[] }>>;
+    };
+    for (const p of ['/api/recipes/{id}/{number}/run-sheet', '/api/recipes/{id}/{number}/run-sheet.pdf']) {
+      const query = doc.paths[p]!['get']!.parameters.filter((x) => x.in === 'query');
+      expect(query.map((x) => x.name).sort()).toEqual([
+        'chamberId',
+        'monitorWavelengthNm',
+        'part',
+        'quantity',
+        'sides',
+        'substrateThicknessMm',
+      ]);
+      expect(query.find((x) => x.name === 'chamberId')!.required).toBe(true);
+      expect(query.find((x) => x.name === 'quantity')).toMatchObject({
+        required: false,
+        schema: { maximum: 100000 },
+      });
     }
   });
 

@@ -15,6 +15,8 @@ export * from './schemas/shop.js';
 export * from './schemas/users.js';
 export * from './schemas/optimise.js';
 export * from './schemas/process-settings.js';
+export * from './schemas/audit.js';
+export * from './schemas/run-sheet.js';
 export * from './calibration.js';
 export * from './recipes.js';
 export * from './outbox.js';

@@ -32,6 +32,19 @@ export function optionalText(max: number) {
     .default('');
 }
 
+/**
+ * A number in a query string, where every value arrives as text: '632.8' becomes 632.8; text that
+ * is not a number (or a value given twice) gets `message`.
+ */
+export function queryNumber(message: string) {
+  return z.coerce.number({ error: message });
+}
+
+/** The id of a record in a query string: a whole number from 1. */
+export function queryRecordId(message: string) {
+  return queryNumber(message).int({ error: message }).min(1, { error: message });
+}
+
 /** The optimistic-locking counter an edit sends back. */
 export const versionToken = z
   .number({ error: 'version must be the version number last read' })
