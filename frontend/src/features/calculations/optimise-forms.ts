@@ -1,7 +1,7 @@
 /*
  * The optimisation forms' values checked by the API's own request schemas: the fields are typed
- * text, parsed here (decimal comma allowed) and then held to the same limits, defaults and
- * messages as the API, so a request the API would refuse is stopped where it is typed.
+ * text, parsed here and then held to the same limits, defaults and messages as the API, so a
+ * request the API would refuse is stopped where it is typed.
  */
 import {
   DEFAULT_FACTOR_RANGE,

@@ -56,7 +56,7 @@ function requestRow(row: ProcessRowValues): Record<string, unknown> {
 
 /**
  * The dialog's rows checked by the API's own process settings schema: kept rows only, parsed from
- * their typed text (decimal comma allowed), with the API's limits and messages at each field.
+ * their typed text, with the API's limits and messages at each field.
  */
 export const processFormSchema = z
   .object({
