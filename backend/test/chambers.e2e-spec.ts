@@ -201,16 +201,18 @@ describe('process settings per material', () => {
   });
 
   it.each([
-    [{ substrateTemperatureC: 'hot' }, 'settings.0.substrateTemperatureC must be a number (°C)'],
-    [{ substrateTemperatureC: 900 }, 'settings.0.substrateTemperatureC must be at most 400 °C'],
-    [{ basePressureMbar: 0 }, 'settings.0.basePressureMbar must be at least 1e-9 mbar'],
-    [{ basePressureMbar: 2 }, 'settings.0.basePressureMbar must be at most 0.001 mbar'],
-    [{ o2FlowSccm: -3 }, 'settings.0.o2FlowSccm must be at least 0 sccm'],
-    [{ ionCurrentA: 'high' }, 'settings.0.ionCurrentA must be a number (A)'],
-    [{ notes: 'n'.repeat(301) }, 'settings.0.notes must be at most 300 characters'],
+    [{ substrateTemperatureC: 'hot' }, 'settings.0.substrateTemperatureC: A number in °C'],
+    [{ substrateTemperatureC: 900 }, 'settings.0.substrateTemperatureC: At most 400 °C'],
+    [{ basePressureMbar: 0 }, 'settings.0.basePressureMbar: At least 1e-9 mbar'],
+    [{ basePressureMbar: 2 }, 'settings.0.basePressureMbar: At most 0.001 mbar'],
+    [{ basePressureMbar: undefined }, 'settings.0.basePressureMbar: Needed once the material has a setting'],
+    [{ o2FlowSccm: -3 }, 'settings.0.o2FlowSccm: At least 0 sccm'],
+    [{ ionCurrentA: 'high' }, 'settings.0.ionCurrentA: A number in A'],
+    [{ notes: 'n'.repeat(301) }, 'settings.0.notes: At most 300 characters'],
+    [{ colour: 'red' }, 'settings.0: Unrecognized key: "colour"'],
     [
       { materialId: 99999 },
-      'settings[0].materialId: material 99999 is not in the material list of chamber "Test chamber"',
+      'settings.0.materialId: material 99999 is not in the material list of chamber "Test chamber"',
     ],
   ])('refuses %j with 400 and writes nothing', async (patch, detail) => {
     const res = await http()
@@ -228,15 +230,36 @@ describe('process settings per material', () => {
       .set('Cookie', mira)
       .send({ settings: [setting(m['Sheet L 1.5']!), setting(m['Sheet L 1.5']!)], version: 0 });
     expect(twice.status).toBe(400);
-    expect(twice.body.details).toContain(
-      `settings[1].materialId: material ${m['Sheet L 1.5']} is listed twice`,
-    );
+    expect(twice.body.details).toEqual(['settings.1.materialId: This material is already listed in row 1']);
     const op = await http()
       .put(`/api/chambers/${chamberId}/process-settings`)
       .set('Cookie', operator)
       .send({ settings: [setting(m['Sheet L 1.5']!)], version: 0 });
     expect(op.status).toBe(403);
     expect(await stored()).toEqual([]);
+  });
+
+  it('publishes the shared process settings schema as the body of the edit in the OpenAPI description', async () => {
+    type Item = { properties: Record<string, { maximum?: number; default?: unknown }>; required: string[] };
+    const doc = (await http().get('/api/docs-json')).body as {
+      paths: Record<
+        string,
+        Record<
+          string,
+          {
+            requestBody: {
+              content: { 'application/json': { schema: { properties: { settings: { items: Item } } } } };
+            };
+          }
+        >
+      >;
+    };
+    const body =
+      doc.paths['/api/chambers/{id}/process-settings']!['put']!.requestBody.content['application/json'];
+    const item = body.schema.properties.settings.items;
+    expect(item.required.sort()).toEqual(['basePressureMbar', 'materialId', 'substrateTemperatureC']);
+    expect(item.properties.substrateTemperatureC!.maximum).toBe(400);
+    expect(item.properties.ionVoltageV!.default).toBeNull();
   });
 
   it('saves the set under a version lock and puts before and after on the audit trail', async () => {
@@ -356,12 +379,13 @@ describe('run sheet of a released recipe', () => {
   });
 
   it.each([
-    ['quantity=0', 'quantity must be at least 1'],
-    ['quantity=2.5', 'quantity must be a whole number of parts'],
-    ['substrateThicknessMm=-1', 'substrateThicknessMm must be > 0'],
-    ['substrateThicknessMm=abc', 'substrateThicknessMm must be a number'],
-    [`part=${'p'.repeat(81)}`, 'part must be at most 80 characters'],
-    ['sides=back', 'sides must be one of front, both'],
+    ['quantity=0', 'quantity: At least 1'],
+    ['quantity=2.5', 'quantity: A whole number of parts'],
+    ['substrateThicknessMm=-1', 'substrateThicknessMm: Must be more than 0 mm'],
+    ['substrateThicknessMm=abc', 'substrateThicknessMm: A number in mm'],
+    [`part=${'p'.repeat(81)}`, 'part: At most 80 characters'],
+    ['sides=back', 'sides: sides must be one of front, both'],
+    ['colour=red', 'Unrecognized key: "colour"'],
     [
       'sides=both',
       'sides: this design leaves the back surface uncoated; coating both sides would not be the approved design',
@@ -373,6 +397,32 @@ describe('run sheet of a released recipe', () => {
         .set('Cookie', operator);
       expect(res.status).toBe(400);
       expect(res.body.details).toContain(detail);
+    }
+  });
+
+  it('refuses a run sheet without a chamber, and publishes its query parameters in the OpenAPI description', async () => {
+    const res = await http().get(`/api/recipes/${recipeId}/1/run-sheet`).set('Cookie', operator);
+    expect(res.status).toBe(400);
+    expect(res.body.details).toEqual(['chamberId: Choose a chamber']);
+    type Parameter = { name: string; in: string; required: boolean; schema: { maximum?: number } };
+    const doc = (await http().get('/api/docs-json')).body as {
+      paths: Record<string, Record<string, { parameters: Parameter[] }>>;
+    };
+    for (const p of ['/api/recipes/{id}/{number}/run-sheet', '/api/recipes/{id}/{number}/run-sheet.pdf']) {
+      const query = doc.paths[p]!['get']!.parameters.filter((x) => x.in === 'query');
+      expect(query.map((x) => x.name).sort()).toEqual([
+        'chamberId',
+        'monitorWavelengthNm',
+        'part',
+        'quantity',
+        'sides',
+        'substrateThicknessMm',
+      ]);
+      expect(query.find((x) => x.name === 'chamberId')!.required).toBe(true);
+      expect(query.find((x) => x.name === 'quantity')).toMatchObject({
+        required: false,
+        schema: { maximum: 100000 },
+      });
     }
   });
 

@@ -144,13 +144,16 @@ describe('Fit to mask', () => {
       .post(`/api/designs/${id}/versions/1/fit`)
       .set('Cookie', mira)
       .send({ minThicknessNm: 50, maxThicknessNm: 20 });
-    expect(crossed.body.details).toEqual(['minThicknessNm (50) must not exceed maxThicknessNm (20)']);
+    expect(crossed.status).toBe(400);
+    expect(crossed.body.details).toEqual([
+      'maxThicknessNm: Max thickness must not be below min thickness (50 nm)',
+    ]);
     const margin = await http()
       .post(`/api/designs/${id}/versions/1/fit`)
       .set('Cookie', mira)
       .send({ targetMarginPercent: 9 });
     expect(margin.status).toBe(400);
-    expect(margin.body.details).toEqual(['targetMarginPercent must be at most 5 percentage points']);
+    expect(margin.body.details).toEqual(['targetMarginPercent: A number from 0 to 5 percentage points']);
     expect(
       (await http().post(`/api/designs/${id}/versions/1/fit`).set('Cookie', operator).send({})).status,
     ).toBe(403);
@@ -184,7 +187,7 @@ describe('Grow layers', () => {
       .post(`/api/designs/${id}/versions/1/grow`)
       .set('Cookie', mira)
       .send({ allowedMaterialIds: [] });
-    expect(none.body.details).toContain('allowedMaterialIds: choose at least one material');
+    expect(none.body.details).toEqual(['allowedMaterialIds: Choose at least one material']);
     const ghost = await http()
       .post(`/api/designs/${id}/versions/1/grow`)
       .set('Cookie', mira)
@@ -196,7 +199,7 @@ describe('Grow layers', () => {
       .send({ allowedMaterialIds: [m['MgF2']], outermostOnlyMaterialIds: [m['ZrO2']] });
     expect(stray.status).toBe(400);
     expect(stray.body.details).toEqual([
-      `outermostOnlyMaterialIds: material ${m['ZrO2']} is not among allowedMaterialIds`,
+      'outermostOnlyMaterialIds.0: This material is not among the allowed materials',
     ]);
   });
 });
@@ -253,7 +256,7 @@ describe('Yield forecast', () => {
       .set('Cookie', mira)
       .send({ trials: 0, thickness: {} });
     expect(res.status).toBe(400);
-    expect(res.body.details).toContain('trials must be from 1 to 100000');
+    expect(res.body.details).toEqual(['trials: Trials must be a whole number from 1 to 100000']);
   });
 });
 
@@ -307,5 +310,48 @@ describe('Run diagnosis', () => {
     expect(top.deviationPercent).toBeLessThan(9);
     for (const other of done.summary.layers.slice(1))
       expect(Math.abs(other.deviationPercent)).toBeLessThan(1);
+  });
+});
+
+describe('optimisation requests', () => {
+  it('refuses a bad factor range or step before looking up the run or the result', async () => {
+    const range = await http()
+      .post('/api/runs/987654/spectra/1/diagnosis')
+      .set('Cookie', mira)
+      .send({ factorRange: [1.2, 1.1] });
+    expect(range.status).toBe(400);
+    expect(range.body.details).toEqual(['factorRange.1: The highest factor must exceed the lowest factor']);
+    const step = await http().post('/api/calculations/987654/accept').set('Cookie', mira).send({ step: -1 });
+    expect(step.status).toBe(400);
+    expect(step.body.details).toEqual(["step: step must be the number of one of the result's steps"]);
+  });
+
+  it('publishes the shared request schemas, with their defaults and limits, in the OpenAPI description', async () => {
+    type Prop = { default?: unknown; maximum?: number; exclusiveMinimum?: number; maxItems?: number };
+    type Body = {
+      properties: Record<string, Prop & { properties?: Record<string, Prop> }>;
+      required?: string[];
+    };
+    const doc = (await http().get('/api/docs-json')).body as {
+      paths: Record<
+        string,
+        Record<string, { requestBody: { content: { 'application/json': { schema: Body } } } }>
+      >;
+    };
+    const bodyOf = (p: string) => doc.paths[p]!['post']!.requestBody.content['application/json'].schema;
+    const fit = bodyOf('/api/designs/{id}/versions/{number}/fit');
+    expect(fit.required ?? []).toEqual([]);
+    expect(fit.properties.maxIterations).toMatchObject({ default: 100, maximum: 1000 });
+    expect(fit.properties.targetMarginPercent!.maximum).toBe(5);
+    const grow = bodyOf('/api/designs/{id}/versions/{number}/grow');
+    expect(grow.required).toEqual(['allowedMaterialIds']);
+    expect(grow.properties.allowedMaterialIds!.maxItems).toBe(8);
+    const forecast = bodyOf('/api/designs/{id}/versions/{number}/yield');
+    expect(forecast.required).toEqual(['thickness']);
+    expect(forecast.properties.trials).toMatchObject({ default: 2000, maximum: 100000 });
+    expect(forecast.properties.thickness!.properties!.relativePercent!.maximum).toBe(50);
+    const diagnosis = bodyOf('/api/runs/{id}/spectra/{sid}/diagnosis');
+    expect(diagnosis.properties.factorRange!.default).toEqual([0.7, 1.3]);
+    expect(bodyOf('/api/calculations/{id}/accept').properties).toHaveProperty('step');
   });
 });

@@ -415,7 +415,22 @@ describe('the audit trail', () => {
     ).toEqual([]);
     const backwards = await http().get(`/api/audit?from=${today}&to=${yesterday}`).set('Cookie', admin);
     expect(backwards.status).toBe(400);
-    expect((await http().get('/api/audit?entity=spaceship').set('Cookie', admin)).status).toBe(400);
+    expect(backwards.body.details).toEqual([`to: The last day must not be before the first (${today})`]);
+    const spaceship = await http().get('/api/audit?entity=spaceship').set('Cookie', admin);
+    expect(spaceship.status).toBe(400);
+    expect(spaceship.body.details[0]).toMatch(/^entity: entity must be one of user, material, /);
+    const both = await http().get('/api/audit?designId=4&entity=quote').set('Cookie', admin);
+    expect(both.status).toBe(400);
+    expect(both.body.details).toEqual(['designId: Use either designId or entity, not both']);
+    expect(
+      (await http().get('/api/audit/export.csv?designId=4&entity=quote').set('Cookie', admin)).status,
+    ).toBe(400);
+    const docs = (await http().get('/api/docs-json')).body as {
+      paths: Record<string, Record<string, { parameters: { name: string; in: string }[] }>>;
+    };
+    expect(
+      docs.paths['/api/audit']!['get']!.parameters.filter((x) => x.in === 'query').map((x) => x.name),
+    ).toEqual(['entity', 'entityId', 'designId', 'actorId', 'from', 'to']);
 
     const csv = await http().get(`/api/audit/export.csv?entity=user&entityId=${id}`).set('Cookie', admin);
     expect(csv.status).toBe(200);

@@ -14,12 +14,24 @@ import {
 import type { Response } from 'express';
 import { CurrentUser } from '../auth/current-user.decorator.js';
 import { Roles } from '../auth/roles.decorator.js';
+import { ZodBody } from '../common/zod-body.js';
 import type { User } from '../users/user.entity.js';
 import { toCalculationView } from './calculation.entity.js';
 import { CalculationsService } from './calculations.service.js';
-import { AcceptDto, DiagnosisDto, FitDto, GrowDto, YieldDto } from './dto/optimise.dto.js';
 import { OptimiseService } from './optimise.service.js';
 import type { CalculationView, LatestCalculations } from '@quietglass/shared/calculations';
+import {
+  acceptRequestSchema,
+  diagnosisRequestSchema,
+  fitRequestSchema,
+  growRequestSchema,
+  yieldRequestSchema,
+  type AcceptRequest,
+  type DiagnosisRequest,
+  type FitRequest,
+  type GrowRequest,
+  type YieldRequest,
+} from '@quietglass/shared/schemas/optimise';
 import type { DesignVersionView } from '@quietglass/shared/designs';
 import type { Calculation } from './calculation.entity.js';
 
@@ -42,10 +54,11 @@ export class CalculationsController {
 
   /** Fit to mask: Levenberg–Marquardt over the unlocked layers' thicknesses. */
   @Post('designs/:id/versions/:number/fit')
+  @ZodBody(fitRequestSchema)
   async fit(
     @Param('id', ParseIntPipe) id: number,
     @Param('number', ParseIntPipe) number: number,
-    @Body() dto: FitDto,
+    @Body() dto: FitRequest,
     @CurrentUser() user: User,
     @Res({ passthrough: true }) res: Response,
   ) {
@@ -54,10 +67,11 @@ export class CalculationsController {
 
   /** Grow layers: needle synthesis from the version's stack with the allowed materials. */
   @Post('designs/:id/versions/:number/grow')
+  @ZodBody(growRequestSchema)
   async grow(
     @Param('id', ParseIntPipe) id: number,
     @Param('number', ParseIntPipe) number: number,
-    @Body() dto: GrowDto,
+    @Body() dto: GrowRequest,
     @CurrentUser() user: User,
     @Res({ passthrough: true }) res: Response,
   ) {
@@ -66,10 +80,11 @@ export class CalculationsController {
 
   /** Yield forecast: seeded Monte Carlo of thickness (and index) errors against the mask. */
   @Post('designs/:id/versions/:number/yield')
+  @ZodBody(yieldRequestSchema)
   async yieldForecast(
     @Param('id', ParseIntPipe) id: number,
     @Param('number', ParseIntPipe) number: number,
-    @Body() dto: YieldDto,
+    @Body() dto: YieldRequest,
     @CurrentUser() user: User,
     @Res({ passthrough: true }) res: Response,
   ) {
@@ -78,10 +93,11 @@ export class CalculationsController {
 
   /** Run diagnosis: which layers of a run most likely deviated, from its measured spectrum. */
   @Post('runs/:id/spectra/:sid/diagnosis')
+  @ZodBody(diagnosisRequestSchema)
   async diagnosis(
     @Param('id', ParseIntPipe) id: number,
     @Param('sid', ParseIntPipe) sid: number,
-    @Body() dto: DiagnosisDto,
+    @Body() dto: DiagnosisRequest,
     @CurrentUser() user: User,
     @Res({ passthrough: true }) res: Response,
   ) {
@@ -90,9 +106,10 @@ export class CalculationsController {
 
   /** A Fit to mask or Grow layers result becomes a new draft version. */
   @Post('calculations/:id/accept')
+  @ZodBody(acceptRequestSchema)
   accept(
     @Param('id', ParseIntPipe) id: number,
-    @Body() dto: AcceptDto,
+    @Body() dto: AcceptRequest,
     @CurrentUser() user: User,
   ): Promise<DesignVersionView> {
     return this.optimise.accept(id, dto.step, user);

@@ -14,7 +14,12 @@ import { ShopSettingsService } from '../shop-settings/shop-settings.service.js';
 import { SpecMasksService } from '../spec-masks/spec-masks.service.js';
 import type { User } from '../users/user.entity.js';
 import { CalculationsService } from './calculations.service.js';
-import type { DiagnosisDto, FitDto, GrowDto, YieldDto } from './dto/optimise.dto.js';
+import type {
+  DiagnosisRequest,
+  FitRequest,
+  GrowRequest,
+  YieldRequest,
+} from '@quietglass/shared/schemas/optimise';
 import { type DiagnosisInput, type FitInput, type GrowInput, type YieldInput } from './optimise-jobs.js';
 import { elementAt } from '@quietglass/shared/checked';
 
@@ -35,14 +40,9 @@ export class OptimiseService {
     return asked ?? (await this.shop.targetMarginPercent());
   }
 
-  async fit(designId: number, number: number, dto: FitDto, user: User) {
+  /** The request's bounds and limits are checked, and its defaults filled, by the shared schema. */
+  async fit(designId: number, number: number, dto: FitRequest, user: User) {
     const base = await this.base(designId, number, dto.specMaskId);
-    const min = dto.minThicknessNm ?? 10;
-    const max = dto.maxThicknessNm ?? 1000;
-    if (min > max)
-      throw new BadRequestException({
-        message: [`minThicknessNm (${min}) must not exceed maxThicknessNm (${max})`],
-      });
     if (base.locked.every(Boolean)) {
       throw new BadRequestException({ message: ['every layer is locked: unlock at least one layer to fit'] });
     }
@@ -51,16 +51,17 @@ export class OptimiseService {
       ...base.common,
       options: {
         locked: base.locked,
-        minThicknessNm: min,
-        maxThicknessNm: max,
-        maxIterations: dto.maxIterations ?? 100,
+        minThicknessNm: dto.minThicknessNm,
+        maxThicknessNm: dto.maxThicknessNm,
+        maxIterations: dto.maxIterations,
         marginPercent: await this.targetMargin(dto.targetMarginPercent),
       },
     };
     return this.calculations.submitOptimisation('fit', input, user, { designId, versionNumber: number });
   }
 
-  async grow(designId: number, number: number, dto: GrowDto, user: User) {
+  /** The shared schema has held the placement rules to the allowed materials. */
+  async grow(designId: number, number: number, dto: GrowRequest, user: User) {
     const base = await this.base(designId, number, dto.specMaskId);
     const found = await this.materials.findByIds(dto.allowedMaterialIds);
     const missing = dto.allowedMaterialIds.filter((id) => !found.some((m) => m.id === id));
@@ -69,32 +70,19 @@ export class OptimiseService {
         message: missing.map((id) => `allowedMaterialIds: material ${id} does not exist`),
       });
     }
-    const min = dto.minThicknessNm ?? 10;
-    const max = dto.maxThicknessNm ?? 1000;
-    if (min > max)
-      throw new BadRequestException({
-        message: [`minThicknessNm (${min}) must not exceed maxThicknessNm (${max})`],
-      });
-    const nameOf = (field: string, ids: number[] | undefined): string[] | undefined => {
-      if (ids === undefined) return undefined;
-      const stray = ids.filter((id) => !dto.allowedMaterialIds.includes(id));
-      if (stray.length > 0)
-        throw new BadRequestException({
-          message: stray.map((id) => `${field}: material ${id} is not among allowedMaterialIds`),
-        });
-      return ids.map((id) => found.find((m) => m.id === id)?.name ?? String(id));
-    };
-    const outermostOnly = nameOf('outermostOnlyMaterialIds', dto.outermostOnlyMaterialIds);
-    const nextToSubstrate = nameOf('nextToSubstrateMaterialIds', dto.nextToSubstrateMaterialIds);
+    const nameOf = (ids: number[] | undefined): string[] | undefined =>
+      ids?.map((id) => found.find((m) => m.id === id)?.name ?? String(id));
+    const outermostOnly = nameOf(dto.outermostOnlyMaterialIds);
+    const nextToSubstrate = nameOf(dto.nextToSubstrateMaterialIds);
     const input: GrowInput = {
       kind: 'grow',
       ...base.common,
       allowed: found.map((m) => ({ materialId: m.id, name: m.name, model: m.model })),
       options: {
-        maxLayers: dto.maxLayers ?? 30,
-        maxTotalThicknessNm: dto.maxTotalThicknessNm ?? 5000,
-        minThicknessNm: min,
-        maxSteps: dto.maxSteps ?? 30,
+        maxLayers: dto.maxLayers,
+        maxTotalThicknessNm: dto.maxTotalThicknessNm,
+        minThicknessNm: dto.minThicknessNm,
+        maxSteps: dto.maxSteps,
         marginPercent: await this.targetMargin(dto.targetMarginPercent),
         ...(outermostOnly ? { outermostOnly } : {}),
         ...(nextToSubstrate ? { nextToSubstrate } : {}),
@@ -103,7 +91,7 @@ export class OptimiseService {
     return this.calculations.submitOptimisation('grow', input, user, { designId, versionNumber: number });
   }
 
-  async yieldForecast(designId: number, number: number, dto: YieldDto, user: User) {
+  async yieldForecast(designId: number, number: number, dto: YieldRequest, user: User) {
     const base = await this.base(designId, number, dto.specMaskId);
     const names = [...new Set(base.layerNames)];
     const perMaterial = (percent: number | undefined) =>
@@ -113,8 +101,8 @@ export class OptimiseService {
       ...base.common,
       layerMaterials: base.layerNames,
       options: {
-        trials: dto.trials ?? 2000,
-        seed: dto.seed ?? 1,
+        trials: dto.trials,
+        seed: dto.seed,
         thickness: dto.thickness,
         ...(dto.systematicPercent ? { systematic: perMaterial(dto.systematicPercent) } : {}),
         ...(dto.indexPercent ? { indexErrors: perMaterial(dto.indexPercent) } : {}),
@@ -124,15 +112,12 @@ export class OptimiseService {
   }
 
   /** Which layers of a run most likely deviated: thicknesses fitted to its measured spectrum. */
-  async diagnosis(runId: number, spectrumId: number, dto: DiagnosisDto, user: User) {
+  async diagnosis(runId: number, spectrumId: number, dto: DiagnosisRequest, user: User) {
     const run = await missingAsBadRequest(this.runs.get(runId), `run ${runId} does not exist`);
     const spectrum = await missingAsBadRequest(
       this.runs.spectrum(runId, spectrumId),
       `run ${runId} has no spectrum ${spectrumId}`,
     );
-    const [lo, hi] = dto.factorRange ?? [0.7, 1.3];
-    if (!(lo > 0 && hi > lo))
-      throw new BadRequestException({ message: ['factorRange: needs 0 < low < high'] });
     const { content, materials } = await this.designs.contentForCompute(run.designId, run.versionNumber);
     const lowest = Math.min(...spectrum.wavelengthsNm);
     const highest = Math.max(...spectrum.wavelengthsNm);
@@ -158,7 +143,7 @@ export class OptimiseService {
         wavelengthsNm: spectrum.wavelengthsNm,
         valuesPercent: spectrum.valuesPercent,
       },
-      factorRange: [lo, hi],
+      factorRange: dto.factorRange,
     };
     return this.calculations.submitOptimisation('diagnosis', input, user, {
       designId: run.designId,

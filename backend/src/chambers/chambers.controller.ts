@@ -6,13 +6,16 @@ import {
   type ChamberInput,
   type ChamberUpdate,
 } from '@quietglass/shared/schemas/chambers';
+import {
+  processSettingsSchema,
+  type ProcessSettingsInput,
+} from '@quietglass/shared/schemas/process-settings';
 import { CurrentUser } from '../auth/current-user.decorator.js';
 import { Roles } from '../auth/roles.decorator.js';
 import { ZodBody } from '../common/zod-body.js';
 import type { User } from '../users/user.entity.js';
 import { toChamberView } from './chamber.entity.js';
 import { ChambersService } from './chambers.service.js';
-import { ProcessSettingsDto } from './dto/process-settings.dto.js';
 
 /** Chambers are kept by admins and engineers; operators read them. */
 @Controller()
@@ -55,9 +58,10 @@ export class ChambersController {
 
   @Put('chambers/:id/process-settings')
   @Roles('admin', 'engineer')
+  @ZodBody(processSettingsSchema)
   saveProcessSettings(
     @Param('id', ParseIntPipe) id: number,
-    @Body() dto: ProcessSettingsDto,
+    @Body() dto: ProcessSettingsInput,
     @CurrentUser() user: User,
   ): Promise<ProcessSettingsView> {
     return this.chambers.saveProcessSettings(id, dto, user);

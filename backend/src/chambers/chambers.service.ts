@@ -9,7 +9,7 @@ import { MaterialsService } from '../materials/materials.service.js';
 import type { ProcessSetting, ProcessSettingsView } from '@quietglass/shared/chambers';
 import { Chamber } from './chamber.entity.js';
 import type { ChamberInput, ChamberUpdate } from '@quietglass/shared/schemas/chambers';
-import type { ProcessSettingsDto } from './dto/process-settings.dto.js';
+import type { ProcessSettingsInput } from '@quietglass/shared/schemas/process-settings';
 import { ChamberProcessSettings } from './process-settings.entity.js';
 
 @Injectable()
@@ -140,40 +140,26 @@ export class ChambersService {
 
   /**
    * Replaces the whole set in one locked write: only while it is still at the version the editor
-   * read, with before and after on the audit trail. Each material must be one of the chamber's.
+   * read, with before and after on the audit trail. Each material must be one of the chamber's (the
+   * shared schema has checked the values and refused a material listed twice).
    */
   async saveProcessSettings(
     chamberId: number,
-    dto: ProcessSettingsDto,
+    dto: ProcessSettingsInput,
     user: User,
   ): Promise<ProcessSettingsView> {
     const chamber = await this.get(chamberId);
     const before = await this.getProcessSettings(chamberId);
     const listed = new Set(chamber.materials.map((m) => m.materialId));
-    const problems: string[] = [];
-    const seen = new Set<number>();
-    dto.settings.forEach((s, i) => {
-      if (!listed.has(s.materialId))
-        problems.push(
-          `settings[${i}].materialId: material ${s.materialId} is not in the material list of chamber "${chamber.name}"`,
-        );
-      if (seen.has(s.materialId))
-        problems.push(`settings[${i}].materialId: material ${s.materialId} is listed twice`);
-      seen.add(s.materialId);
-    });
+    const problems = dto.settings.flatMap((s, i) =>
+      listed.has(s.materialId)
+        ? []
+        : [
+            `settings.${i}.materialId: material ${s.materialId} is not in the material list of chamber "${chamber.name}"`,
+          ],
+    );
     if (problems.length > 0) throw new BadRequestException({ message: problems });
-    const settings: ProcessSetting[] = dto.settings.map((s) => ({
-      materialId: s.materialId,
-      substrateTemperatureC: s.substrateTemperatureC,
-      basePressureMbar: s.basePressureMbar,
-      o2FlowSccm: s.o2FlowSccm ?? null,
-      o2PartialPressureMbar: s.o2PartialPressureMbar ?? null,
-      arFlowSccm: s.arFlowSccm ?? null,
-      ionVoltageV: s.ionVoltageV ?? null,
-      ionCurrentA: s.ionCurrentA ?? null,
-      ionGasFlowSccm: s.ionGasFlowSccm ?? null,
-      notes: s.notes ?? '',
-    }));
+    const settings: ProcessSetting[] = dto.settings;
     await this.chambers.manager.transaction(async (tx) => {
       const json = JSON.stringify(settings);
       const rows =

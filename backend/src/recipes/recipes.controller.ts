@@ -2,10 +2,11 @@ import { Controller, Get, Param, ParseIntPipe, Query, Res, StreamableFile } from
 import type { Response } from 'express';
 import type { RecipeSummaryView, RecipeView } from '@quietglass/shared/recipes';
 import type { RunSheetView } from '@quietglass/shared/runsheet';
+import { runSheetQuerySchema, type RunSheetQuery } from '@quietglass/shared/schemas/run-sheet';
 import { Roles } from '../auth/roles.decorator.js';
+import { ZodQuery } from '../common/zod-body.js';
 import { DesignsService, toVersionView } from '../designs/designs.service.js';
 import { RecipesService } from '../designs/recipes.service.js';
-import { RunSheetQueryDto } from './dto/run-sheet-query.dto.js';
 import { RunSheetService } from './run-sheet.service.js';
 
 /** Released recipes for the floor: the list, one recipe, and its run sheet on a chosen chamber. */
@@ -40,19 +41,21 @@ export class RecipesController {
   }
 
   @Get(':id/:number/run-sheet')
+  @ZodQuery(runSheetQuerySchema)
   runSheet(
     @Param('id', ParseIntPipe) id: number,
     @Param('number', ParseIntPipe) number: number,
-    @Query() query: RunSheetQueryDto,
+    @Query() query: RunSheetQuery,
   ): Promise<RunSheetView> {
     return this.runSheets.build(id, number, query);
   }
 
   @Get(':id/:number/run-sheet.pdf')
+  @ZodQuery(runSheetQuerySchema)
   async runSheetPdf(
     @Param('id', ParseIntPipe) id: number,
     @Param('number', ParseIntPipe) number: number,
-    @Query() query: RunSheetQueryDto,
+    @Query() query: RunSheetQuery,
     @Res({ passthrough: true }) res: Response,
   ): Promise<StreamableFile> {
     const sheet = await this.runSheets.build(id, number, query);

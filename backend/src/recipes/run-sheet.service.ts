@@ -6,7 +6,7 @@ import { ChambersService } from '../chambers/chambers.service.js';
 import { RecipesService } from '../designs/recipes.service.js';
 import { MaterialsService } from '../materials/materials.service.js';
 import { ShopSettingsService } from '../shop-settings/shop-settings.service.js';
-import type { RunSheetQueryDto } from './dto/run-sheet-query.dto.js';
+import type { RunSheetQuery } from '@quietglass/shared/schemas/run-sheet';
 import { renderRunSheetPdf } from './run-sheet-pdf.js';
 import { elementAt } from '@quietglass/shared/checked';
 
@@ -21,7 +21,7 @@ export class RunSheetService {
     private readonly shop: ShopSettingsService,
   ) {}
 
-  async build(designId: number, number: number, query: RunSheetQueryDto): Promise<RunSheetView> {
+  async build(designId: number, number: number, query: RunSheetQuery): Promise<RunSheetView> {
     const version = await this.recipes.releasedRecipe(designId, number);
     const chamber = await this.chambers.get(query.chamberId);
     const lambda =

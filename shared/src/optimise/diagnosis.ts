@@ -32,6 +32,13 @@ import { fitToMask, type FitIteration } from './fit.js';
 import { fitUncertainty } from './fit-uncertainty.js';
 import type { TargetCurve } from './merit.js';
 
+/**
+ * Thickness factor range a diagnosis searches when none is asked for: ±30 % covers a rate or
+ * tooling slip of a run without letting a layer wander into another order (common practice, no
+ * source).
+ */
+export const DEFAULT_FACTOR_RANGE: readonly [number, number] = [0.7, 1.3];
+
 export interface DiagnosisOptions {
   back?: BackSurface;
   /** How far a layer may have deviated: thickness factor bounds [low, high]. */

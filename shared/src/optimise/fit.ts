@@ -35,6 +35,8 @@ import { nonNegativeOption, wholeNumber } from './options.js';
 export const DEFAULT_MIN_THICKNESS_NM = 10;
 /** Default upper bound on a fitted layer, nm. */
 export const DEFAULT_MAX_THICKNESS_NM = 1000;
+/** Default most iterations of a fit (and of each Grow layers refinement). */
+export const DEFAULT_MAX_ITERATIONS = 100;
 /** Default tightening of max/min limits while fitting, percentage points. */
 export const DEFAULT_MARGIN_PERCENT = 0.001;
 /**
@@ -166,7 +168,7 @@ export function fitToMask(stack: OpticalStack, mask: SpecMask, options: FitOptio
   const layerCount = Array.isArray(stack?.layers) ? stack.layers.length : 0;
   if (layerCount === 0) throw new OpticsInputError('layers', 'the stack has no layers to fit');
   const bounds = layerBounds(layerCount, opts.minThicknessNm, opts.maxThicknessNm, opts.locked);
-  const maxIterations = wholeNumber(opts.maxIterations, 'maxIterations', 1, 100_000, 100);
+  const maxIterations = wholeNumber(opts.maxIterations, 'maxIterations', 1, 100_000, DEFAULT_MAX_ITERATIONS);
   if (opts.onIteration !== undefined && typeof opts.onIteration !== 'function') {
     throw new OpticsInputError('onIteration', 'must be a function');
   }

@@ -29,6 +29,7 @@ import {
   DERIVATIVE_METHODS,
   DEFAULT_MARGIN_PERCENT,
   type DerivativeMethod,
+  DEFAULT_MAX_ITERATIONS,
   DEFAULT_MAX_THICKNESS_NM,
   DEFAULT_MIN_THICKNESS_NM,
   layerBounds,
@@ -36,6 +37,13 @@ import {
 } from './fit.js';
 import { createMaskMerit, type MaskMerit, type TargetCurve } from './merit.js';
 import { nonNegativeOption, positiveOption, wholeNumber } from './options.js';
+
+/** Default most front layers of a grown design. */
+export const DEFAULT_MAX_LAYERS = 30;
+/** Default most total physical thickness of a grown design, nm. */
+export const DEFAULT_MAX_TOTAL_THICKNESS_NM = 5000;
+/** Default most insertion steps. */
+export const DEFAULT_MAX_STEPS = 30;
 
 /** Thickness of the probing needle for the derivative, nm. */
 const NEEDLE_PROBE_NM = 1e-3;
@@ -191,12 +199,16 @@ export function growLayers(stack: OpticalStack, mask: SpecMask, options: GrowOpt
   const minNm = nonNegativeOption(opts.minThicknessNm, 'minThicknessNm', DEFAULT_MIN_THICKNESS_NM);
   const maxNm = positiveOption(opts.maxThicknessNm, 'maxThicknessNm', DEFAULT_MAX_THICKNESS_NM);
   layerBounds(1, minNm, maxNm, undefined);
-  const maxLayers = wholeNumber(opts.maxLayers, 'maxLayers', 1, 1000, 30);
-  const maxTotal = positiveOption(opts.maxTotalThicknessNm, 'maxTotalThicknessNm', 5000);
+  const maxLayers = wholeNumber(opts.maxLayers, 'maxLayers', 1, 1000, DEFAULT_MAX_LAYERS);
+  const maxTotal = positiveOption(
+    opts.maxTotalThicknessNm,
+    'maxTotalThicknessNm',
+    DEFAULT_MAX_TOTAL_THICKNESS_NM,
+  );
   const needleNm = nonNegativeOption(opts.needleThicknessNm, 'needleThicknessNm', 1);
   const positionStep = positiveOption(opts.positionStepNm, 'positionStepNm', 2);
-  const maxSteps = wholeNumber(opts.maxSteps, 'maxSteps', 0, 1000, 30);
-  const maxIterations = wholeNumber(opts.maxIterations, 'maxIterations', 1, 100_000, 100);
+  const maxSteps = wholeNumber(opts.maxSteps, 'maxSteps', 0, 1000, DEFAULT_MAX_STEPS);
+  const maxIterations = wholeNumber(opts.maxIterations, 'maxIterations', 1, 100_000, DEFAULT_MAX_ITERATIONS);
   const derivatives =
     opts.derivatives === undefined ? 'analytic' : oneOf(opts.derivatives, DERIVATIVE_METHODS, 'derivatives');
   if (opts.outermostFixed !== undefined && typeof opts.outermostFixed !== 'boolean') {

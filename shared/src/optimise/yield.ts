@@ -32,10 +32,18 @@ import { createMaskMerit, type MaskMerit } from './merit.js';
 import { nonNegativeOption, wholeNumber } from './options.js';
 import { Mulberry32, drawsFor, fillDeviates } from './random.js';
 
-export type ErrorDistribution = 'normal' | 'uniform';
+/** How a thickness error is drawn: normal (the value is 1σ) or uniform (the value is the half-width). */
+export const ERROR_DISTRIBUTIONS = ['normal', 'uniform'] as const;
+export type ErrorDistribution = (typeof ERROR_DISTRIBUTIONS)[number];
 
 /** Most trials of one forecast. */
 export const MAX_TRIALS = 100_000;
+/** Trials of a forecast when none is asked for. */
+export const DEFAULT_TRIALS = 2000;
+/** Seed of a forecast when none is given: the same request gives the same forecast. */
+export const DEFAULT_SEED = 1;
+/** Largest seed: the generator's state is one unsigned 32-bit word. */
+export const MAX_SEED = 0xffffffff;
 /** Most kept envelope values (envelope trials × envelope points). */
 export const MAX_ENVELOPE_VALUES = 20_000_000;
 /** Bins of the worst-margin histogram. */
@@ -210,8 +218,8 @@ export function prepareYield(stack: OpticalStack, mask: SpecMask, options: Yield
   const L = checkedStack.layers.length;
   if (L === 0) throw new OpticsInputError('layers', 'the stack has no layers to perturb');
   const checkedMask = validateSpecMask(mask);
-  const trials = wholeNumber(opts.trials, 'trials', 1, MAX_TRIALS, 2000);
-  const seed = wholeNumber(opts.seed, 'seed', 0, 0xffffffff, 1);
+  const trials = wholeNumber(opts.trials, 'trials', 1, MAX_TRIALS, DEFAULT_TRIALS);
+  const seed = wholeNumber(opts.seed, 'seed', 0, MAX_SEED, DEFAULT_SEED);
   const back = opts.back === undefined ? 'none' : oneOf(opts.back, BACK_SURFACES, 'back');
 
   const thickness = opts.thickness === undefined ? {} : plainObject(opts.thickness, 'thickness');
@@ -221,7 +229,7 @@ export function prepareYield(stack: OpticalStack, mask: SpecMask, options: Yield
   const distribution =
     thickness.distribution === undefined
       ? 'normal'
-      : oneOf(thickness.distribution, ['normal', 'uniform'] as const, 'thickness.distribution');
+      : oneOf(thickness.distribution, ERROR_DISTRIBUTIONS, 'thickness.distribution');
 
   const byMaterial = opts.indexErrors !== undefined || opts.systematic !== undefined;
   let layerMaterials: string[];

@@ -3,7 +3,14 @@
  * changed in one place.
  */
 import { z } from 'zod';
-import { finiteNumber, optionalText, recordId, requiredText, versionToken } from './common.js';
+import {
+  eachMaterialOnce,
+  finiteNumber,
+  optionalText,
+  recordId,
+  requiredText,
+  versionToken,
+} from './common.js';
 
 /** Limits of a chamber's settings; they catch typing slips — common practice (no source). */
 export const CHAMBER_LIMITS = {
@@ -31,17 +38,7 @@ export const chamberMaterialSchema = z.strictObject({
 /** Each material once: a second row of the same material is refused at that row. */
 const chamberMaterialsSchema = z
   .array(chamberMaterialSchema, { error: 'materials must be a list' })
-  .superRefine((rows, ctx) => {
-    rows.forEach((row, index) => {
-      const first = rows.findIndex((r) => r.materialId === row.materialId);
-      if (first !== index)
-        ctx.addIssue({
-          code: 'custom',
-          path: [index, 'materialId'],
-          message: `This material is already listed in row ${first + 1}`,
-        });
-    });
-  });
+  .superRefine(eachMaterialOnce);
 
 export const chamberInputSchema = z.strictObject({
   name: requiredText('Enter a chamber name', CHAMBER_LIMITS.nameLength),

@@ -42,6 +42,19 @@ export function calendarDate(message: string) {
   return z.iso.date({ error: message });
 }
 
+/**
+ * A number in a query string, where every value arrives as text: '632.8' becomes 632.8; text that
+ * is not a number (or a value given twice) gets `message`.
+ */
+export function queryNumber(message: string) {
+  return z.coerce.number({ error: message });
+}
+
+/** The id of a record in a query string: a whole number from 1. */
+export function queryRecordId(message: string) {
+  return queryNumber(message).int({ error: message }).min(1, { error: message });
+}
+
 /** The optimistic-locking counter an edit sends back. */
 export const versionToken = z
   .number({ error: 'version must be the version number last read' })
@@ -68,6 +81,25 @@ export function engineProblem(check: () => unknown): OpticsInputError | null {
     if (err instanceof OpticsInputError) return err;
     throw err;
   }
+}
+
+/** The version of a settings record the editor read: 0 before the first save. */
+export const settingsVersion = z
+  .number({ error: 'version must be the version you read' })
+  .int({ error: 'version must be the version you read' })
+  .min(0, { error: 'version must be the version you read' });
+
+/** Each material once in a list of per-material rows: a repeat is refused at its materialId. */
+export function eachMaterialOnce(rows: readonly { materialId: number }[], ctx: z.RefinementCtx): void {
+  rows.forEach((row, index) => {
+    const first = rows.findIndex((r) => r.materialId === row.materialId);
+    if (first !== index)
+      ctx.addIssue({
+        code: 'custom',
+        path: [index, 'materialId'],
+        message: `This material is already listed in row ${first + 1}`,
+      });
+  });
 }
 
 /** One line per problem, as the API answers them: "materials.0.toolingFactor: …". */

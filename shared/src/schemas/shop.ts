@@ -5,13 +5,7 @@
 import { z } from 'zod';
 import { MAX_TARGET_MARGIN_PERCENT } from '../optimise/fit.js';
 import { LOGO_MAX_BYTES, LOGO_TYPES, SHOP_NAME_MAX } from '../shop.js';
-import { finiteNumber, requiredText } from './common.js';
-
-/** The settings' version the editor read: 0 before the first save. */
-const settingsVersion = z
-  .number({ error: 'version must be the version you read' })
-  .int({ error: 'version must be the version you read' })
-  .min(0, { error: 'version must be the version you read' });
+import { finiteNumber, requiredText, settingsVersion } from './common.js';
 
 export const shopNameSchema = z.strictObject({
   shopName: requiredText('The shop needs a name', SHOP_NAME_MAX),
@@ -21,11 +15,17 @@ export type ShopNameInput = z.output<typeof shopNameSchema>;
 
 const MARGIN_MESSAGE = `A number from 0 to ${MAX_TARGET_MARGIN_PERCENT} percentage points`;
 
+/**
+ * How far inside every limit to design, percentage points: the shop's default and the margin one
+ * Fit to mask or Grow layers request asks for.
+ */
+export const targetMarginPercentField = finiteNumber(MARGIN_MESSAGE)
+  .min(0, { error: MARGIN_MESSAGE })
+  .max(MAX_TARGET_MARGIN_PERCENT, { error: MARGIN_MESSAGE });
+
 /** Percentage points inside every limit that Fit to mask and Grow layers design in by default. */
 export const shopTargetMarginSchema = z.strictObject({
-  targetMarginPercent: finiteNumber(MARGIN_MESSAGE)
-    .min(0, { error: MARGIN_MESSAGE })
-    .max(MAX_TARGET_MARGIN_PERCENT, { error: MARGIN_MESSAGE }),
+  targetMarginPercent: targetMarginPercentField,
   version: settingsVersion,
 });
 export type ShopTargetMarginInput = z.output<typeof shopTargetMarginSchema>;

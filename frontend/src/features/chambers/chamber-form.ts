@@ -49,7 +49,7 @@ const { shape: row } = chamberMaterialSchema;
 
 /**
  * The form's values checked by the API's own schema: the fields are typed text, parsed here
- * (decimal comma allowed) and then held to the same limits and messages as the API.
+ * and then held to the same limits and messages as the API.
  */
 export const chamberFormSchema = z
   .object({

@@ -1,9 +1,5 @@
-import {
-  PROCESS_LIMITS,
-  PROCESS_NOTES_MAX,
-  type ProcessQuantity,
-  type ProcessSetting,
-} from '@quietglass/shared';
+import { processSettingSchema, type ProcessQuantity, type ProcessSetting } from '@quietglass/shared';
+import { z } from 'zod';
 import { parseNumberInput } from '../../lib/format';
 
 /** The quantities of a row, in the order the dialog shows them, with their labels. */
@@ -47,40 +43,29 @@ export function valuesOfSettings(
   };
 }
 
+/** A kept row as the API's schema reads it: an empty optional quantity is null, an empty required one missing. */
+function requestRow(row: ProcessRowValues): Record<string, unknown> {
+  const out: Record<string, unknown> = { materialId: row.materialId, notes: row.notes };
+  for (const f of PROCESS_FIELDS) {
+    const text = row[f.key];
+    out[f.key] =
+      text.trim() === '' ? (f.required ? undefined : null) : (parseNumberInput(text) ?? Number.NaN);
+  }
+  return out;
+}
+
 /**
- * Why a typed quantity cannot be saved, with the API's limits (shared/chambers); null when it can.
- * A required quantity may be empty only when the whole row is.
+ * The dialog's rows checked by the API's own process settings schema: kept rows only, parsed from
+ * their typed text, with the API's limits and messages at each field.
  */
-export function processFieldError(key: ProcessQuantity, value: string, row: ProcessRowValues): string | null {
-  const field = PROCESS_FIELDS.find((f) => f.key === key)!;
-  const { min, max, unit } = PROCESS_LIMITS[key];
-  if (value.trim() === '') return field.required && rowIsKept(row) ? 'Needed when the row is kept' : null;
-  const n = parseNumberInput(value);
-  if (n === null) return `A number in ${unit}`;
-  if (n < min) return `At least ${min} ${unit}`;
-  if (n > max) return `At most ${max} ${unit}`;
-  return null;
-}
-
-export function notesError(value: string): string | null {
-  return value.trim().length > PROCESS_NOTES_MAX ? `At most ${PROCESS_NOTES_MAX} characters` : null;
-}
-
-/** The settings to send: kept rows only, empty optional quantities as null. */
-export function settingsOf(values: ProcessFormValues): ProcessSetting[] {
-  return values.rows.filter(rowIsKept).map((row) => {
-    const num = (k: ProcessQuantity) => (row[k].trim() === '' ? null : Number(parseNumberInput(row[k])));
-    return {
-      materialId: row.materialId,
-      substrateTemperatureC: Number(parseNumberInput(row.substrateTemperatureC)),
-      basePressureMbar: Number(parseNumberInput(row.basePressureMbar)),
-      o2FlowSccm: num('o2FlowSccm'),
-      o2PartialPressureMbar: num('o2PartialPressureMbar'),
-      arFlowSccm: num('arFlowSccm'),
-      ionVoltageV: num('ionVoltageV'),
-      ionCurrentA: num('ionCurrentA'),
-      ionGasFlowSccm: num('ionGasFlowSccm'),
-      notes: row.notes.trim(),
-    };
-  });
-}
+export const processFormSchema = z
+  .object({
+    rows: z.array(
+      z
+        .custom<ProcessRowValues>()
+        .transform((row) => (rowIsKept(row) ? requestRow(row) : null))
+        .pipe(processSettingSchema.nullable()),
+    ),
+  })
+  .transform(({ rows }) => ({ settings: rows.filter((row) => row !== null) }));
+export type ProcessFormOutput = z.output<typeof processFormSchema>;

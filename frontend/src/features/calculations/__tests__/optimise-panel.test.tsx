@@ -118,7 +118,7 @@ function valueAt(trace: Record<string, unknown>, x: number): number {
 }
 
 describe('OptimisePanel — Fit to mask', () => {
-  it('refuses a min thickness above the max, and iterations out of range, without queuing', async () => {
+  it('refuses a min thickness above the max, and iterations and margin out of range, without queuing', async () => {
     const api = mockApi({});
     const { user } = renderPanel(ONE_LAYER);
     const min = await screen.findByLabelText('Min thickness (nm)');
@@ -128,10 +128,14 @@ describe('OptimisePanel — Fit to mask', () => {
     await user.type(screen.getByLabelText('Max thickness (nm)'), '200');
     await user.clear(screen.getByLabelText('Max iterations'));
     await user.type(screen.getByLabelText('Max iterations'), '5000');
+    await user.clear(screen.getByLabelText('Target margin (pp)'));
+    await user.type(screen.getByLabelText('Target margin (pp)'), '6');
     await user.click(screen.getByRole('button', { name: 'Run Fit to mask' }));
 
     expect(await region().findByText('Max thickness must not be below min thickness (300 nm)')).toBeTruthy();
     expect(region().getByText('Max iterations must be a whole number from 1 to 1000')).toBeTruthy();
+    // The shop setting's own message for a margin out of range.
+    expect(region().getByText('A number from 0 to 5 percentage points')).toBeTruthy();
     expect(api.calls('POST', '/api/designs/12/versions/1/fit')).toHaveLength(0);
   });
 

@@ -112,7 +112,11 @@ describe('Run diagnosis', () => {
     await user.clear(panel.getByLabelText('Highest factor'));
     await user.type(panel.getByLabelText('Highest factor'), '0.6');
     await user.click(panel.getByRole('button', { name: 'Run diagnosis' }));
-    expect(await panel.findByText('Must exceed the lowest factor')).toBeTruthy();
+    expect(await panel.findByText('The highest factor must exceed the lowest factor')).toBeTruthy();
+    await user.clear(panel.getByLabelText('Lowest factor'));
+    await user.type(panel.getByLabelText('Lowest factor'), '0');
+    await user.click(panel.getByRole('button', { name: 'Run diagnosis' }));
+    expect(await panel.findByText('The lowest factor must be a number above 0')).toBeTruthy();
     expect(calls.requests.filter((r) => r.method === 'POST')).toHaveLength(0);
   });
 });

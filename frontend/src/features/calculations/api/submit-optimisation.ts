@@ -1,42 +1,12 @@
+import type { FitRequest, GrowRequest, YieldRequest } from '@quietglass/shared';
 import { useMutation, useQueryClient } from '@tanstack/react-query';
 import { apiClient } from '../../../lib/api-client';
 import { getCalculationQueryOptions, type CalculationView } from '../api/get-calculation';
 import { getCalculationsQueryOptions } from '../api/get-calculations';
 
-/** Body of POST …/fit (FitDto of the API); omitted fields take the API's defaults. */
-export interface FitRequest {
-  specMaskId?: number;
-  minThicknessNm?: number;
-  maxThicknessNm?: number;
-  maxIterations?: number;
-  /** Margin to design in beyond every limit, percentage points. */
-  targetMarginPercent?: number;
-}
-
-/** Body of POST …/grow (GrowDto of the API). */
-export interface GrowRequest extends FitRequest {
-  allowedMaterialIds: number[];
-  /** Allowed materials that may only be the outermost layer. */
-  outermostOnlyMaterialIds?: number[];
-  /** The only allowed materials a new layer next to the substrate may be. */
-  nextToSubstrateMaterialIds?: number[];
-  maxLayers?: number;
-  maxTotalThicknessNm?: number;
-  maxSteps?: number;
-}
-
-/** Body of POST …/yield (YieldDto of the API). */
-export interface YieldRequest {
-  specMaskId?: number;
-  trials?: number;
-  seed?: number;
-  thickness: { relativePercent?: number; absoluteNm?: number; distribution?: 'normal' | 'uniform' };
-  systematicPercent?: number;
-  indexPercent?: number;
-}
-
 export type OptimisationKind = 'fit' | 'grow' | 'yield';
 
+/** Each body is the API's shared request schema (shared/src/schemas/optimise.ts). */
 export type OptimisationInput =
   | { kind: 'fit'; designId: number; versionNumber: number; body: FitRequest }
   | { kind: 'grow'; designId: number; versionNumber: number; body: GrowRequest }

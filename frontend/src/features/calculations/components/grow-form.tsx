@@ -1,4 +1,5 @@
-import { pickableMaterials } from '@quietglass/shared';
+import { OPTIMISE_LIMITS, pickableMaterials } from '@quietglass/shared';
+import { zodResolver } from '@hookform/resolvers/zod';
 import Box from '@mui/material/Box';
 import Button from '@mui/material/Button';
 import Checkbox from '@mui/material/Checkbox';
@@ -7,27 +8,12 @@ import FormControlLabel from '@mui/material/FormControlLabel';
 import FormGroup from '@mui/material/FormGroup';
 import FormHelperText from '@mui/material/FormHelperText';
 import FormLabel from '@mui/material/FormLabel';
+import { useMemo } from 'react';
 import { Controller, useForm, useWatch } from 'react-hook-form';
 import { FormTextField } from '../../../components/form-text-field';
-import type { GrowRequest } from '../api/submit-optimisation';
-import { numberIn, wholeIn } from '../form-rules';
-import { DEFAULT_TARGET_MARGIN_TEXT, TargetMarginField, useShopMarginDefault } from './target-margin-field';
+import { growDefaults, growFormSchema, type GrowFormOutput, type GrowValues } from '../optimise-forms';
+import { TargetMarginField, useShopMarginDefault } from './target-margin-field';
 import { ThicknessBoundsFields } from './thickness-bounds-fields';
-
-/** Most materials Grow layers may use (GrowDto). */
-export const MAX_ALLOWED_MATERIALS = 8;
-
-interface GrowValues {
-  allowedMaterialIds: number[];
-  outermostOnlyMaterialIds: number[];
-  nextToSubstrateMaterialIds: number[];
-  maxLayers: string;
-  maxTotalThicknessNm: string;
-  minThicknessNm: string;
-  maxThicknessNm: string;
-  maxSteps: string;
-  targetMarginPercent: string;
-}
 
 interface GrowFormProps {
   materials: readonly { id: number; name: string }[];
@@ -36,20 +22,7 @@ interface GrowFormProps {
   /** The version's layer count: the most layers may not be below it. */
   layerCount: number;
   pending: boolean;
-  onRun: (body: GrowRequest) => void;
-}
-
-/** The placement rules of the form, only for materials still allowed; omitted when none is ticked. */
-function placement(
-  v: GrowValues,
-): Pick<GrowRequest, 'outermostOnlyMaterialIds' | 'nextToSubstrateMaterialIds'> {
-  const keep = (ids: number[]) => ids.filter((id) => v.allowedMaterialIds.includes(id));
-  const outer = keep(v.outermostOnlyMaterialIds);
-  const bottom = keep(v.nextToSubstrateMaterialIds);
-  return {
-    ...(outer.length > 0 ? { outermostOnlyMaterialIds: outer } : {}),
-    ...(bottom.length > 0 ? { nextToSubstrateMaterialIds: bottom } : {}),
-  };
+  onRun: (body: GrowFormOutput) => void;
 }
 
 interface MaterialChecksProps {
@@ -90,35 +63,16 @@ function MaterialChecks({ legend, materials, value, onChange, error, help }: Mat
 
 /** Allowed materials and limits of Grow layers (needle synthesis from the version's stack). */
 export function GrowForm({ materials, initialMaterialIds, layerCount, pending, onRun }: GrowFormProps) {
-  const form = useForm<GrowValues>({
-    defaultValues: {
-      allowedMaterialIds: initialMaterialIds.slice(0, MAX_ALLOWED_MATERIALS),
-      outermostOnlyMaterialIds: [],
-      nextToSubstrateMaterialIds: [],
-      maxLayers: String(Math.max(30, layerCount)),
-      maxTotalThicknessNm: '5000',
-      minThicknessNm: '10',
-      maxThicknessNm: '1000',
-      maxSteps: '30',
-      targetMarginPercent: DEFAULT_TARGET_MARGIN_TEXT,
-    },
+  const resolver = useMemo(() => zodResolver(growFormSchema(layerCount)), [layerCount]);
+  const form = useForm<GrowValues, unknown, GrowFormOutput>({
+    defaultValues: growDefaults(initialMaterialIds.slice(0, OPTIMISE_LIMITS.allowedMaterials), layerCount),
     mode: 'onTouched',
+    resolver,
   });
   const { control, handleSubmit } = form;
   useShopMarginDefault(form);
   const allowed = useWatch({ control, name: 'allowedMaterialIds' });
-  const onSubmit = handleSubmit((v) =>
-    onRun({
-      allowedMaterialIds: v.allowedMaterialIds,
-      ...placement(v),
-      maxLayers: Number(v.maxLayers),
-      maxTotalThicknessNm: Number(v.maxTotalThicknessNm),
-      minThicknessNm: Number(v.minThicknessNm),
-      maxThicknessNm: Number(v.maxThicknessNm),
-      maxSteps: Number(v.maxSteps),
-      targetMarginPercent: Number(v.targetMarginPercent),
-    }),
-  );
+  const onSubmit = handleSubmit(onRun);
   return (
     <Box
       component="form"
@@ -130,14 +84,6 @@ export function GrowForm({ materials, initialMaterialIds, layerCount, pending, o
       <Controller
         control={control}
         name="allowedMaterialIds"
-        rules={{
-          validate: (ids) =>
-            ids.length === 0
-              ? 'Choose at least one material'
-              : ids.length > MAX_ALLOWED_MATERIALS
-                ? `Choose at most ${MAX_ALLOWED_MATERIALS} materials`
-                : true,
-        }}
         render={({ field, fieldState }) => (
           <MaterialChecks
             legend="Allowed materials"
@@ -181,7 +127,6 @@ export function GrowForm({ materials, initialMaterialIds, layerCount, pending, o
           label="Max layers"
           size="small"
           sx={{ width: 130 }}
-          rules={{ validate: wholeIn('Max layers', Math.max(1, layerCount), 200) }}
         />
         <FormTextField
           control={control}
@@ -189,18 +134,10 @@ export function GrowForm({ materials, initialMaterialIds, layerCount, pending, o
           label="Max total thickness (nm)"
           size="small"
           sx={{ width: 200 }}
-          rules={{ validate: numberIn('Max total thickness', 0, 1_000_000, ' nm', true) }}
         />
         <ThicknessBoundsFields control={control} />
         <TargetMarginField control={control} />
-        <FormTextField
-          control={control}
-          name="maxSteps"
-          label="Max steps"
-          size="small"
-          sx={{ width: 120 }}
-          rules={{ validate: wholeIn('Max steps', 1, 200) }}
-        />
+        <FormTextField control={control} name="maxSteps" label="Max steps" size="small" sx={{ width: 120 }} />
       </Box>
       <Box>
         <Button type="submit" variant="contained" loading={pending}>

@@ -8,14 +8,17 @@ import TableCell from '@mui/material/TableCell';
 import TableHead from '@mui/material/TableHead';
 import TableRow from '@mui/material/TableRow';
 import Typography from '@mui/material/Typography';
+import type { DiagnosisRequest } from '@quietglass/shared';
+import { zodResolver } from '@hookform/resolvers/zod';
 import { useState } from 'react';
 import { useForm } from 'react-hook-form';
 import { ErrorAlert } from '../../../components/error-alert';
 import { FormTextField } from '../../../components/form-text-field';
-import { formatFixed, formatSigned, parseNumberInput } from '../../../lib/format';
+import { formatFixed, formatSigned } from '../../../lib/format';
 import { CALCULATION_POLL_MS, useCalculation, type CalculationView } from '../api/get-calculation';
 import { useLatestDiagnosis } from '../api/get-latest-calculations';
 import { diagnosisSummaryOf, useStartDiagnosis, type DiagnosisSummary } from '../api/start-diagnosis';
+import { DIAGNOSIS_DEFAULTS, diagnosisFormSchema, type DiagnosisValues } from '../optimise-forms';
 import { CalculationStatus } from './calculation-status';
 
 /**
@@ -23,14 +26,6 @@ import { CalculationStatus } from './calculation-status';
  * culprit. AR layers are usually held to about ±2 % in thickness (common practice, no source).
  */
 export const DEVIATION_FLAG_PERCENT = 2;
-
-interface FactorValues {
-  low: string;
-  high: string;
-}
-
-// The API's default factor range.
-const DEFAULTS: FactorValues = { low: '0.7', high: '1.3' };
 
 function statusText(c: CalculationView): string {
   switch (c.status) {
@@ -142,15 +137,15 @@ export function RunDiagnosisPanel({
   const calculation = useCalculation(calculationId, pollMs);
   // The run's latest stored diagnosis until one is run here.
   const latest = useLatestDiagnosis(spectrum.runId);
-  const { control, handleSubmit } = useForm<FactorValues>({ defaultValues: DEFAULTS, mode: 'onTouched' });
+  const { control, handleSubmit } = useForm<DiagnosisValues, unknown, DiagnosisRequest>({
+    defaultValues: DIAGNOSIS_DEFAULTS,
+    mode: 'onTouched',
+    resolver: zodResolver(diagnosisFormSchema),
+  });
 
-  const onSubmit = handleSubmit((values) =>
+  const onSubmit = handleSubmit(({ factorRange }) =>
     start.mutate(
-      {
-        runId: spectrum.runId,
-        spectrumId: spectrum.id,
-        factorRange: [parseNumberInput(values.low) ?? 0, parseNumberInput(values.high) ?? 0],
-      },
+      { runId: spectrum.runId, spectrumId: spectrum.id, factorRange },
       { onSuccess: (answer) => setCalculationId(answer.id) },
     ),
   );
@@ -182,25 +177,20 @@ export function RunDiagnosisPanel({
         >
           <FormTextField
             control={control}
-            name="low"
+            name="factorRange.0"
             label="Lowest factor"
             size="small"
             sx={{ width: 150 }}
             slotProps={{ htmlInput: { inputMode: 'decimal' } }}
-            rules={{ validate: (v) => (parseNumberInput(v) ?? 0) > 0 || 'Must be a number > 0' }}
+            rules={{ deps: ['factorRange.1'] }}
           />
           <FormTextField
             control={control}
-            name="high"
+            name="factorRange.1"
             label="Highest factor"
             size="small"
             sx={{ width: 150 }}
             slotProps={{ htmlInput: { inputMode: 'decimal' } }}
-            rules={{
-              validate: (v, all) =>
-                (parseNumberInput(v) ?? 0) > (parseNumberInput(all.low) ?? Infinity) ||
-                'Must exceed the lowest factor',
-            }}
           />
           <Button type="submit" variant="contained" loading={start.isPending}>
             Run diagnosis

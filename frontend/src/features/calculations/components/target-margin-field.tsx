@@ -1,13 +1,8 @@
-import { DEFAULT_TARGET_MARGIN_PERCENT, MAX_TARGET_MARGIN_PERCENT } from '@quietglass/shared';
 import { useEffect } from 'react';
 import type { Control, FieldPath, FieldValues, PathValue, UseFormReturn } from 'react-hook-form';
 import { FormTextField } from '../../../components/form-text-field';
 import { formatSigned } from '../../../lib/format';
 import { useShopTargetMargin } from '../../../lib/shop-settings';
-import { numberIn } from '../form-rules';
-
-/** The form's starting text for the target margin, until the shop's default has loaded. */
-export const DEFAULT_TARGET_MARGIN_TEXT = String(DEFAULT_TARGET_MARGIN_PERCENT);
 
 type WithMargin = FieldValues & { targetMarginPercent: string };
 
@@ -15,7 +10,9 @@ type WithMargin = FieldValues & { targetMarginPercent: string };
  * Starts the form's target margin at the shop's default once it has loaded, unless the engineer
  * has already typed one.
  */
-export function useShopMarginDefault<T extends WithMargin>(form: UseFormReturn<T>): void {
+export function useShopMarginDefault<T extends WithMargin, TOut extends FieldValues>(
+  form: UseFormReturn<T, unknown, TOut>,
+): void {
   const { percent, loaded } = useShopTargetMargin();
   useEffect(() => {
     const name = 'targetMarginPercent' as FieldPath<T>;
@@ -24,8 +21,15 @@ export function useShopMarginDefault<T extends WithMargin>(form: UseFormReturn<T
   }, [loaded, percent, form]);
 }
 
-/** Target margin of Fit to mask and Grow layers: how far inside every limit to design. */
-export function TargetMarginField<T extends WithMargin>({ control }: { control: Control<T> }) {
+/**
+ * Target margin of Fit to mask and Grow layers: how far inside every limit to design (the form's
+ * schema checks it with the shop setting's rule).
+ */
+export function TargetMarginField<T extends WithMargin, TOut extends FieldValues>({
+  control,
+}: {
+  control: Control<T, unknown, TOut>;
+}) {
   const { percent } = useShopTargetMargin();
   return (
     <FormTextField
@@ -35,7 +39,6 @@ export function TargetMarginField<T extends WithMargin>({ control }: { control: 
       size="small"
       sx={{ width: 170 }}
       helperText={`Inside every limit; shop default ${percent}`}
-      rules={{ validate: numberIn('Target margin', 0, MAX_TARGET_MARGIN_PERCENT, ' percentage points') }}
     />
   );
 }

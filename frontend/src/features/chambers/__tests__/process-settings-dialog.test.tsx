@@ -68,16 +68,20 @@ describe('process settings on the Chambers page', () => {
     const sio2 = within(dialog.getByRole('group', { name: 'SiO2' }));
     await user.type(sio2.getByLabelText('Substrate temperature (°C)'), '900');
     await user.type(sio2.getByLabelText('O₂ flow (sccm)'), '8');
+    await user.type(sio2.getByLabelText('Ar flow (sccm)'), 'lots');
     await user.click(dialog.getByRole('button', { name: 'Save process settings' }));
-    // The same limits as the API (shared/chambers): at most 400 °C; base pressure needed once a row is kept.
+    // The API's own schema (shared/src/schemas/process-settings.ts): at most 400 °C; base pressure
+    // needed once a row is kept.
     expect(await sio2.findByText('At most 400 °C')).toBeTruthy();
-    expect(sio2.getByText('Needed when the row is kept')).toBeTruthy();
+    expect(sio2.getByText('Needed once the material has a setting')).toBeTruthy();
+    expect(sio2.getByText('A number in sccm')).toBeTruthy();
     expect(api.calls('PUT', '/api/chambers/7/process-settings')).toHaveLength(0);
 
     await user.clear(sio2.getByLabelText('Substrate temperature (°C)'));
     await user.type(sio2.getByLabelText('Substrate temperature (°C)'), '200');
     await user.type(sio2.getByLabelText('Base pressure (mbar)'), '2e-5');
     await user.type(sio2.getByLabelText('Ion source voltage (V)'), '110');
+    await user.clear(sio2.getByLabelText('Ar flow (sccm)'));
     await user.click(dialog.getByRole('button', { name: 'Save process settings' }));
     await screen.findByText('Process settings of Bell jar 1 saved.');
     const put = api.calls('PUT', '/api/chambers/7/process-settings')[0]!;

@@ -6,6 +6,7 @@ import DialogActions from '@mui/material/DialogActions';
 import DialogContent from '@mui/material/DialogContent';
 import DialogTitle from '@mui/material/DialogTitle';
 import Typography from '@mui/material/Typography';
+import { zodResolver } from '@hookform/resolvers/zod';
 import { useQueryClient } from '@tanstack/react-query';
 import { useEffect } from 'react';
 import { useForm } from 'react-hook-form';
@@ -14,17 +15,15 @@ import { ErrorAlert } from '../../../components/error-alert';
 import { FormTextField } from '../../../components/form-text-field';
 import { LoadingBlock } from '../../../components/loading-block';
 import { ApiError } from '../../../lib/api-client';
-import { fieldText } from '../../../lib/format';
 import { notify } from '../../../lib/notifier';
 import type { ChamberView } from '../api/get-chambers';
 import { getProcessSettingsQueryOptions, useProcessSettings } from '../api/get-process-settings';
 import { useSaveProcessSettings } from '../api/save-process-settings';
 import {
-  notesError,
   PROCESS_FIELDS,
-  processFieldError,
-  settingsOf,
+  processFormSchema,
   valuesOfSettings,
+  type ProcessFormOutput,
   type ProcessFormValues,
 } from '../process-settings-form';
 
@@ -46,9 +45,10 @@ export function ProcessSettingsDialog({ chamber, materials, readOnly, onClose }:
   const save = useSaveProcessSettings();
   const materialIds = chamber.materials.map((m) => m.materialId);
   const nameOf = (id: number) => materials.find((m) => m.id === id)?.name ?? `Material ${id}`;
-  const { control, handleSubmit, reset, getValues } = useForm<ProcessFormValues>({
+  const { control, handleSubmit, reset } = useForm<ProcessFormValues, unknown, ProcessFormOutput>({
     defaultValues: valuesOfSettings(materialIds, []),
     mode: 'onTouched',
+    resolver: zodResolver(processFormSchema),
   });
   const loaded = current.data;
   useEffect(() => {
@@ -58,10 +58,10 @@ export function ProcessSettingsDialog({ chamber, materials, readOnly, onClose }:
   }, [loaded?.version, reset]);
   const conflict = save.error instanceof ApiError && save.error.status === 409 ? save.error : null;
 
-  const onSubmit = handleSubmit((values) => {
+  const onSubmit = handleSubmit(({ settings }) => {
     if (!loaded) return;
     save.mutate(
-      { chamberId: chamber.id, version: loaded.version, settings: settingsOf(values) },
+      { chamberId: chamber.id, version: loaded.version, settings },
       {
         onSuccess: () => {
           notify(`Process settings of ${chamber.name} saved.`, 'success');
@@ -121,10 +121,6 @@ export function ProcessSettingsDialog({ chamber, materials, readOnly, onClose }:
                       size="small"
                       disabled={readOnly}
                       slotProps={{ htmlInput: { inputMode: 'decimal' } }}
-                      rules={{
-                        validate: (v) =>
-                          processFieldError(f.key, fieldText(v), getValues(`rows.${index}`)) ?? true,
-                      }}
                     />
                   ))}
                   <FormTextField
@@ -134,7 +130,6 @@ export function ProcessSettingsDialog({ chamber, materials, readOnly, onClose }:
                     size="small"
                     disabled={readOnly}
                     sx={{ gridColumn: '1 / -1' }}
-                    rules={{ validate: (v) => notesError(fieldText(v)) ?? true }}
                   />
                 </Box>
               </Box>

@@ -253,6 +253,11 @@ describe('RunSheetRoute', () => {
     expect(screen.getByText('A whole number of parts')).toBeTruthy();
     await user.clear(screen.getByLabelText('Quantity'));
     await user.type(screen.getByLabelText('Quantity'), '24');
+    await user.type(screen.getByLabelText('Substrate thickness (mm)'), '0');
+    await user.tab();
+    expect(screen.getByText('Must be more than 0 mm')).toBeTruthy();
+    // The API's own query schema checks the typed thickness.
+    await user.clear(screen.getByLabelText('Substrate thickness (mm)'));
     await user.type(screen.getByLabelText('Substrate thickness (mm)'), '2.2{Enter}');
     await screen.findByText('24 pcs');
     expect(screen.getByText('N-BK7, 2.2 mm (design: 2 mm) thick')).toBeTruthy();

@@ -1,6 +1,6 @@
 import Box from '@mui/material/Box';
 import TextField from '@mui/material/TextField';
-import { RUN_SHEET_JOB_LIMITS, RUN_SHEET_SIDES, SIDES_LABELS, type RunSheetSides } from '@quietglass/shared';
+import { RUN_SHEET_SIDES, SIDES_LABELS, runSheetQuerySchema, type RunSheetSides } from '@quietglass/shared';
 import { useEffect, useState } from 'react';
 import { parseNumberInput } from '../../../lib/format';
 import type { RunSheetJobParams } from '../api/get-run-sheet';
@@ -14,30 +14,22 @@ interface RunSheetJobFieldsProps {
   onChange: (job: RunSheetJobParams) => void;
 }
 
-/** Why a typed value cannot be used, with the same limits as the API; null when it can. */
+const { shape } = runSheetQuerySchema;
+
+/** A typed value as the run sheet query takes it: the part's text, or the number typed (NaN when it is none). */
+function typedValue(field: 'part' | 'quantity' | 'substrateThicknessMm', text: string): string | number {
+  return field === 'part' ? text : (parseNumberInput(text) ?? Number.NaN);
+}
+
+/** Why a typed value cannot be used, checked by the API's own run sheet query schema; null when it can. */
 export function jobFieldError(
   field: 'part' | 'quantity' | 'substrateThicknessMm',
   text: string,
 ): string | null {
   const t = text.trim();
   if (t === '') return null;
-  if (field === 'part') {
-    return t.length > RUN_SHEET_JOB_LIMITS.partMaxLength
-      ? `At most ${RUN_SHEET_JOB_LIMITS.partMaxLength} characters`
-      : null;
-  }
-  const value = parseNumberInput(t);
-  if (field === 'quantity') {
-    if (value === null || !Number.isInteger(value)) return 'A whole number of parts';
-    if (value < 1) return 'At least 1';
-    if (value > RUN_SHEET_JOB_LIMITS.quantityMax) return `At most ${RUN_SHEET_JOB_LIMITS.quantityMax}`;
-    return null;
-  }
-  if (value === null) return 'A number in mm';
-  if (!(value > 0)) return 'Must be > 0 mm';
-  if (value > RUN_SHEET_JOB_LIMITS.substrateThicknessMaxMm)
-    return `At most ${RUN_SHEET_JOB_LIMITS.substrateThicknessMaxMm} mm`;
-  return null;
+  const parsed = shape[field].safeParse(typedValue(field, t));
+  return parsed.success ? null : (parsed.error.issues[0]?.message ?? 'Not valid');
 }
 
 /**
@@ -66,8 +58,8 @@ export function RunSheetJobFields({ job, designSides, designThicknessMm, onChang
     const next: RunSheetJobParams = {
       ...job,
       part: part.trim() || null,
-      quantity: quantity.trim() ? Number(quantity) : null,
-      substrateThicknessMm: thickness.trim() ? Number(thickness) : null,
+      quantity: quantity.trim() ? parseNumberInput(quantity) : null,
+      substrateThicknessMm: thickness.trim() ? parseNumberInput(thickness) : null,
     };
     if (
       next.part !== job.part ||
