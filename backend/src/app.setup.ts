@@ -1,6 +1,5 @@
 import fs from 'node:fs';
 import path from 'node:path';
-import { ValidationPipe } from '@nestjs/common';
 import type { NestExpressApplication } from '@nestjs/platform-express';
 import { DocumentBuilder, SwaggerModule } from '@nestjs/swagger';
 import cookieParser from 'cookie-parser';
@@ -52,10 +51,8 @@ export function configureApp(app: NestExpressApplication, clientDist: string | n
   // Forwarded client addresses are believed only from the proxy TRUST_PROXY names.
   app.set('trust proxy', config.trustProxy);
   app.use(csrfGuard);
-  app.useGlobalPipes(
-    new RequestHygienePipe(),
-    new ValidationPipe({ whitelist: true, forbidNonWhitelisted: true, transform: true }),
-  );
+  // Bodies and query strings are checked per route by the shared schemas (@ZodBody, @ZodQuery).
+  app.useGlobalPipes(new RequestHygienePipe());
   app.useGlobalFilters(new AllExceptionsFilter());
   app.enableShutdownHooks();
   // OpenAPI description of every route, built on first request: /api/docs (pages), /api/docs-json.

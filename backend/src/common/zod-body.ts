@@ -24,7 +24,7 @@ export class ZodBodyPipe implements PipeTransform {
 
   transform(value: unknown, metadata: ArgumentMetadata): unknown {
     if (metadata.type !== 'body') return value;
-    // A request without a body is an empty one, as the class-validator pipe took it.
+    // A request without a body is an empty one.
     return parseOr400(this.schema, value ?? {});
   }
 }
