@@ -69,6 +69,11 @@ const GROWTH_REMOVAL_NM = 0.5;
  * growing on the smooth merit stops (common practice, no source).
  */
 const MAX_THICKENINGS = 3;
+/**
+ * How far below the target margin a step's worst margin may be and still count as reached,
+ * percentage points: far below any measurement, above the refinement's convergence noise.
+ */
+const REACHED_TOLERANCE_PERCENT = 1e-6;
 /** Candidates (distinct layer and material) tried per step before giving up. */
 const CANDIDATES_PER_STEP = 3;
 
@@ -342,8 +347,10 @@ export function growLayers(stack: OpticalStack, mask: SpecMask, options: GrowOpt
     placementOk: placementRule(names, outermostOnly, nextToSubstrate, layers),
   };
   const steps: GrowStep[] = [];
-  // Growing stops once the mask is met with the target margin, not at the first bare pass.
-  const reached = (step: GrowStep) => step.worstMargin >= targetMarginPercent - 1e-9;
+  // Growing stops once the mask is met with the target margin, not at the first bare pass. The
+  // refinement converges onto the tightened limits from either side, to within its step tolerance;
+  // REACHED_TOLERANCE_PERCENT keeps the analytic and the finite-difference Jacobian on one path.
+  const reached = (step: GrowStep) => step.worstMargin >= targetMarginPercent - REACHED_TOLERANCE_PERCENT;
   const record = (refined: Refined, inserted?: GrowStep['inserted']): boolean => {
     const step = growStep(ctx, steps.length, refined, inserted);
     steps.push(step);
