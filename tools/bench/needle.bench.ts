@@ -1,10 +1,13 @@
 /*
  * Hard optimisation benchmark (not a timed test). Run:
- * `npm run build -w shared && npx tsx tools/bench/needle.bench.ts [analytic|differences] [high-index]`
- * (both methods when no argument is given; high-index TiO2 by default, or Nb2O5 / Ta2O5).
+ * `npm run build -w shared && npx tsx tools/bench/needle.bench.ts [analytic|differences|both] [high-index] [case] [growth merit]`
+ * (both methods when no argument is given; high-index TiO2 by default, or Nb2O5 / Ta2O5; case
+ * `hard` by default or `normal`; growth merit `smooth` by default or `mask`, the one-sided merit
+ * growing used before). QG_BENCH_ROUNDS=1 runs each method once.
  *
- * Broadband AR on N-BK7 (SCHOTT Sellmeier): R ≤ 0.5 % over 400–1100 nm (5 nm steps) at 0, 20 and
- * 40°, average polarisation. Materials from the published library the product ships
+ * Case `hard`: broadband AR on N-BK7 (SCHOTT Sellmeier): R ≤ 0.5 % over 400–1100 nm (5 nm steps)
+ * at 0, 20 and 40°, average polarisation. Case `normal`: R ≤ 0.5 % over 420–1100 nm at normal
+ * incidence, the variant these materials reach (see the README). Materials from the published library the product ships
  * (backend/assets/optical-constants, read with the engine's constants-file reader, as the demo
  * shop's library is seeded): the high-index film and SiO2 (Gao et al.) for needles, MgF2
  * (Rodríguez-de Marcos et al.) as the outermost layer, which stays outermost.
@@ -18,13 +21,18 @@
  */
 import { readFileSync } from 'node:fs';
 import { cpus, loadavg } from 'node:os';
+import { SpectrumWorkerPool } from '@quietglass/shared/node/parallel';
 import {
   MATERIAL_LIBRARY,
+  computeSpectrum,
   constantIndex,
+  createSpectrumOutput,
+  createSpectrumPlan,
   evaluateMask,
   fitToMask,
   growLayers,
   type DerivativeMethod,
+  type GrowthMerit,
   type MaterialModel,
   type OpticalStack,
   type SpecMask,
@@ -50,13 +58,17 @@ const HIGH = published(required(HIGH_FILES[highName], `a published file for ${hi
 const SIO2 = published('film/sio2--gao.yml');
 const MGF2 = published('film/mgf2--rodriguez-de-marcos.yml');
 
+const caseName = process.argv[4] ?? 'hard';
+if (caseName !== 'hard' && caseName !== 'normal')
+  throw new Error(`case must be hard or normal (got ${caseName})`);
+const growthMerit = (process.argv[5] ?? 'smooth') as GrowthMerit;
 const mask: SpecMask = {
   step_nm: 5,
   bands: [
     {
-      from_nm: 400,
+      from_nm: caseName === 'hard' ? 400 : 420,
       to_nm: 1100,
-      angles_deg: [0, 20, 40],
+      angles_deg: caseName === 'hard' ? [0, 20, 40] : [0],
       polarisation: 'avg',
       quantity: 'R',
       max_percent: 0.5,
@@ -75,7 +87,7 @@ const start: OpticalStack = {
   exit: constantIndex(1),
 };
 
-function run(method: DerivativeMethod, round: number): void {
+function run(method: DerivativeMethod, round: number): OpticalStack {
   let t0 = performance.now();
   const grown = growLayers(start, mask, {
     allowedMaterials: [
@@ -89,13 +101,15 @@ function run(method: DerivativeMethod, round: number): void {
     maxLayers: 40,
     maxSteps: 60,
     derivatives: method,
+    growthMerit,
   });
   const growSeconds = (performance.now() - t0) / 1000;
   console.log(
     `[${method}, run ${round}] a) Grow layers: ${growSeconds.toFixed(2)} s (load ${load()}), ` +
       `${grown.final.layerCount} layers, ${grown.final.totalThicknessNm.toFixed(0)} nm, ${grown.steps.length - 1} steps, ` +
       `stopped by ${grown.stoppedBy}, merit ${grown.final.merit.toFixed(4)}, ` +
-      `worst margin ${grown.final.worstMargin.toFixed(4)} %-points, outermost ${grown.final.layers[0]?.material ?? 'none'}, ` +
+      `worst margin ${grown.final.worstMargin.toFixed(4)} %-points (best step ${grown.final.step}), ` +
+      `outermost ${grown.final.layers[0]?.material ?? 'none'}, ` +
       `mask ${evaluateMask(mask, grown.stack).pass ? 'passes' : 'FAILS'}`,
   );
   if (process.env.QG_BENCH_VERBOSE)
@@ -125,12 +139,57 @@ function run(method: DerivativeMethod, round: number): void {
       `${fit.evaluations} spectra, merit ${fit.merit.before.toFixed(4)} → ${fit.merit.after.toFixed(6)}, ` +
       `${fit.pass ? 'passes' : 'fails'} (worst margin ${fit.worstMargin.toFixed(4)})`,
   );
+  return grown.stack;
+}
+
+/**
+ * c) The grown design's spectrum on the mask's grid, the optimisers' unit of work: one thread
+ * (computeSpectrum on one plan) against the worker-thread splitter with 2 threads (plan per call,
+ * slices posted to the workers). Medians of `calls` calls each.
+ */
+async function threads(stack: OpticalStack, calls: number): Promise<void> {
+  const grid = {
+    wavelengthsNm: Array.from(
+      { length: (1100 - (caseName === 'hard' ? 400 : 420)) / 5 + 1 },
+      (_, i) => (caseName === 'hard' ? 400 : 420) + 5 * i,
+    ),
+    anglesDeg: caseName === 'hard' ? [0, 20, 40] : [0],
+    polarisations: ['s', 'p'] as const,
+  };
+  const median = (xs: number[]) => xs.sort((a, b) => a - b)[Math.floor(xs.length / 2)] ?? NaN;
+  const plan = createSpectrumPlan(stack, { ...grid, polarisations: [...grid.polarisations] });
+  const out = createSpectrumOutput(plan);
+  const one: number[] = [];
+  for (let i = 0; i < calls; i++) {
+    const t = performance.now();
+    computeSpectrum(out, plan);
+    one.push(performance.now() - t);
+  }
+  const pool = await SpectrumWorkerPool.create({ size: 2 });
+  const two: number[] = [];
+  try {
+    for (let i = 0; i < calls; i++) {
+      const t = performance.now();
+      await pool.compute(stack, { ...grid, polarisations: [...grid.polarisations] });
+      two.push(performance.now() - t);
+    }
+  } finally {
+    await pool.close();
+  }
+  console.log(
+    `c) spectrum of the ${stack.layers.length}-layer result on the mask grid (${plan.size} points): ` +
+      `1 thread ${median(one).toFixed(3)} ms, 2 worker threads ${median(two).toFixed(3)} ms (median of ${calls}, load ${load()})`,
+  );
 }
 
 console.log(`Node ${process.version}, ${cpus()[0]?.model ?? 'unknown CPU'}, load ${load()}`);
+console.log(`case ${caseName}, growth merit ${growthMerit}`);
 const which = process.argv[2];
-for (const round of [1, 2]) {
+const rounds = Number(process.env.QG_BENCH_ROUNDS ?? 2);
+let grownStack: OpticalStack | null = null;
+for (let round = 1; round <= rounds; round++) {
   for (const method of ['analytic', 'differences'] as const)
-    if (!which || which === 'both' || which === method) run(method, round);
+    if (!which || which === 'both' || which === method) grownStack = run(method, round);
 }
+if (grownStack) await threads(grownStack, 200);
 console.log(`load at end ${load()}`);
