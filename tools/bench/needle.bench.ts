@@ -28,6 +28,7 @@ import {
   constantIndex,
   createSpectrumOutput,
   createSpectrumPlan,
+  createMaskMerit,
   evaluateMask,
   fitToMask,
   growLayers,
@@ -143,6 +144,42 @@ function run(method: DerivativeMethod, round: number): OpticalStack {
 }
 
 /**
+ * d) One Jacobian of the mask merit at the grown design, every layer free: the analytic sweeps
+ * against forward differences (one spectrum per layer), medians of `calls` calls each.
+ */
+function jacobians(stack: OpticalStack, calls: number): void {
+  const merit = createMaskMerit(stack, mask, { smooth: true });
+  const d = stack.layers.map((l) => l.thicknessNm);
+  const free = d.map((_, i) => i);
+  const jac = new Float64Array(merit.sampleCount * d.length);
+  const r = new Float64Array(merit.sampleCount);
+  const median = (xs: number[]) => xs.sort((a, b) => a - b)[Math.floor(xs.length / 2)] ?? NaN;
+  const analytic: number[] = [];
+  const differences: number[] = [];
+  for (let i = 0; i < calls; i++) {
+    let t = performance.now();
+    merit.compute(d);
+    merit.jacobian(jac, d, free);
+    analytic.push(performance.now() - t);
+    t = performance.now();
+    merit.residuals(r, d);
+    const trial = d.slice();
+    for (let j = 0; j < d.length; j++) {
+      trial[j] += 1e-6;
+      merit.residuals(r, trial);
+      trial[j] = d[j] ?? 0;
+    }
+    differences.push(performance.now() - t);
+  }
+  const a = median(analytic);
+  const f = median(differences);
+  console.log(
+    `d) Jacobian of the ${d.length}-layer result (${merit.sampleCount} samples): analytic ${a.toFixed(2)} ms, ` +
+      `forward differences ${f.toFixed(2)} ms, ${(f / a).toFixed(1)}× (median of ${calls}, load ${load()})`,
+  );
+}
+
+/**
  * c) The grown design's spectrum on the mask's grid, the optimisers' unit of work: one thread
  * (computeSpectrum on one plan) against the worker-thread splitter with 2 threads (plan per call,
  * slices posted to the workers). Medians of `calls` calls each.
@@ -191,5 +228,8 @@ for (let round = 1; round <= rounds; round++) {
   for (const method of ['analytic', 'differences'] as const)
     if (!which || which === 'both' || which === method) grownStack = run(method, round);
 }
-if (grownStack) await threads(grownStack, 200);
+if (grownStack) {
+  jacobians(grownStack, 50);
+  await threads(grownStack, 200);
+}
 console.log(`load at end ${load()}`);
