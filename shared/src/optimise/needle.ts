@@ -50,6 +50,7 @@ import {
 } from './fit.js';
 import { createMaskMerit, type MaskMerit, type TargetCurve } from './merit.js';
 import {
+  DEFAULT_GROWTH_MERIT,
   DEFAULT_NEEDLES_PER_STEP,
   NEEDLE_DEPTH_FRACTION,
   nonNegativeOption,
@@ -178,10 +179,12 @@ export interface GrowOptions {
   /** The only allowed materials (by name) a new layer next to the substrate may be; any when omitted. */
   nextToSubstrate?: string[];
   /**
-   * The merit the structure grows on. `smooth` (default): every mask sample pulls towards the far
-   * side of its limit (R → 0 under a maximum, see MaskMeritOptions.smooth), and each step's design
-   * is then fitted to the one-sided mask merit with the target margin, which decides whether the
-   * mask is met; `mask`: growing on the one-sided mask merit itself, as before.
+   * The merit the structure grows on (default {@link DEFAULT_GROWTH_MERIT}). `mask`: the one-sided
+   * mask merit with the target margin, within [min, max]. `smooth`: every mask sample pulls
+   * towards the far side of its limit (R → 0 under a maximum, see MaskMeritOptions.smooth) with
+   * ≥ 0 bounds, each step's design is then fitted to the one-sided merit, which decides whether the
+   * mask is met, and a needle-optimal design is thickened (see the file comment): for wide bands
+   * the one-sided growth stalls on.
    */
   growthMerit?: GrowthMerit;
   /**
@@ -255,7 +258,9 @@ export function growLayers(stack: OpticalStack, mask: SpecMask, options: GrowOpt
   const derivatives =
     opts.derivatives === undefined ? 'analytic' : oneOf(opts.derivatives, DERIVATIVE_METHODS, 'derivatives');
   const growthMerit =
-    opts.growthMerit === undefined ? 'mask' : oneOf(opts.growthMerit, GROWTH_MERITS, 'growthMerit');
+    opts.growthMerit === undefined
+      ? DEFAULT_GROWTH_MERIT
+      : oneOf(opts.growthMerit, GROWTH_MERITS, 'growthMerit');
   const needlesPerStep = wholeNumber(opts.needlesPerStep, 'needlesPerStep', 1, 100, DEFAULT_NEEDLES_PER_STEP);
   if (opts.outermostFixed !== undefined && typeof opts.outermostFixed !== 'boolean') {
     throw new OpticsInputError('outermostFixed', 'must be true or false');

@@ -37,6 +37,11 @@ export function nonNegativeOption(value: unknown, field: string, fallback: numbe
 }
 
 /**
+ * The merit Grow layers grows on unless told: the one-sided mask merit, as before the smooth
+ * growth merit existed, so earlier jobs grow the same designs.
+ */
+export const DEFAULT_GROWTH_MERIT = 'mask' as const;
+/**
  * Needles Grow layers inserts together at the deepest minima of the needle function, one step
  * (common practice, no source: a few at once lets a broadband design grow period by period).
  */
