@@ -192,9 +192,11 @@ describe('Grow layers', () => {
     expect(check.pass).toBe(true);
     expect(check.worstMargin).toBeGreaterThanOrEqual(0.001 - 1e-6);
     expect(check.worstMargin).toBeCloseTo(result.final.worstMargin, 10);
-    // Growing may keep thin layers; every reported step is fitted within [min, max].
-    for (const step of result.steps)
+    // Growing may keep thin layers; every reported step is fitted within [min, max] and the limit.
+    for (const step of result.steps) {
+      expect(step.layerCount).toBeLessThanOrEqual(12);
       for (const layer of step.layers) expect(layer.thicknessNm).toBeGreaterThanOrEqual(10 - 1e-9);
+    }
     expect(
       growLayers(quarterWaveOnBk7, broadbandAr, {
         allowedMaterials: allowed,
@@ -231,6 +233,7 @@ describe('Grow layers', () => {
     expect(smooth.stoppedBy).toBe('maskMet');
     expect(evaluateMask(wide, smooth.stack).pass).toBe(true);
     expect(smooth.final.layers[0].material).toBe('MgF2');
+    for (const step of smooth.steps) expect(step.layerCount).toBeLessThanOrEqual(40);
     const oneSided = growLayers(start, wide, options);
     expect(oneSided.stoppedBy).toBe('noImprovement');
     expect(oneSided.final.pass).toBe(false);

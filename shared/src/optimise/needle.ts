@@ -20,10 +20,11 @@
  *
  * With `growthMerit: 'smooth'` the structure grows on a smooth merit instead (every mask sample
  * pulls towards R = 0 under a maximum, merit.ts), with ≥ 0 bounds: layers thinner than
- * GROWTH_REMOVAL_NM are removed as they vanish, thin ones may stay while growing. Each step's
+ * GROWTH_REMOVAL_NM are removed as they vanish, thin ones may stay while growing (the growing
+ * structure may then hold up to GROWING_LAYERS_FACTOR × maxLayers layers). Each step's
  * design is then fitted to the one-sided mask merit with the target margin within [min, max]
  * (layers under the minimum raised to it, or removed, whichever fits better): that design is the
- * step's record and decides whether the mask is met. Once the design is needle-optimal (the needle
+ * step's record, keeps to maxLayers and decides whether the mask is met. Once the design is needle-optimal (the needle
  * function ≥ 0 everywhere) and no whole layer helps, a half-wave layer is added next to the
  * substrate even though it does not lower the merit at once (gradual evolution: the total
  * thickness bounds what needles can reach, as the 1996 paper above shows); after MAX_THICKENINGS
@@ -75,6 +76,12 @@ const MAX_THICKENINGS = 3;
  * percentage points: far below any measurement, above the refinement's convergence noise.
  */
 const REACHED_TOLERANCE_PERCENT = 1e-6;
+/**
+ * On the smooth merit a growing structure may hold this many times maxLayers layers, the thin
+ * ones kept while growing included; the fitted design of each step keeps to maxLayers (common
+ * practice, no source).
+ */
+const GROWING_LAYERS_FACTOR = 2;
 /** Candidates (distinct layer and material) tried per step before giving up. */
 const CANDIDATES_PER_STEP = 3;
 
@@ -343,6 +350,7 @@ export function growLayers(stack: OpticalStack, mask: SpecMask, options: GrowOpt
     minNm,
     maxNm,
     maxLayers,
+    growingLayers: growthMerit === 'smooth' ? GROWING_LAYERS_FACTOR * maxLayers : maxLayers,
     maxTotal,
     needleNm,
     positionStep,
@@ -363,7 +371,8 @@ export function growLayers(stack: OpticalStack, mask: SpecMask, options: GrowOpt
   };
 
   let current = refine(ctx, layers, ctx.final === ctx.base ? minNm : 0);
-  let shown = finish(ctx, current);
+  // The start has at most maxLayers layers, so one of its fitted variants fits the limit.
+  let shown = finish(ctx, current) ?? current;
   let best = { refined: shown, step: 0 };
   let thickenings = 0;
   let stoppedBy: GrowStop = 'maxSteps';
@@ -371,7 +380,7 @@ export function growLayers(stack: OpticalStack, mask: SpecMask, options: GrowOpt
   else if (reached(steps[0])) stoppedBy = 'maskMet';
   else {
     for (let stepNo = 1; stepNo <= maxSteps; stepNo++) {
-      if (current.layers.length + 1 > maxLayers) {
+      if (current.layers.length + 1 > ctx.growingLayers) {
         stoppedBy = 'maxLayers';
         break;
       }
@@ -389,8 +398,13 @@ export function growLayers(stack: OpticalStack, mask: SpecMask, options: GrowOpt
             : 'noImprovement';
         break;
       }
+      const fitted = finish(ctx, next.refined);
+      if (!fitted) {
+        stoppedBy = 'maxLayers';
+        break;
+      }
       current = next.refined;
-      shown = finish(ctx, current);
+      shown = fitted;
       if (!record(shown, next.inserted)) {
         stoppedBy = 'cancelled';
         break;
@@ -439,6 +453,11 @@ interface GrowContext {
   minNm: number;
   maxNm: number;
   maxLayers: number;
+  /**
+   * Most layers of a structure while growing: maxLayers on the mask merit; on the smooth merit
+   * GROWING_LAYERS_FACTOR times that, as thin layers kept while growing go when each step is fitted.
+   */
+  growingLayers: number;
   maxTotal: number;
   needleNm: number;
   positionStep: number;
@@ -503,17 +522,25 @@ function refine(
  * A grown structure fitted to the one-sided mask merit with the target margin within [min, max]:
  * the design a step reports. The same structure when growing is on that merit already.
  */
-function finish(ctx: GrowContext, grown: Refined): Refined {
+function finish(ctx: GrowContext, grown: Refined): Refined | null {
   if (ctx.final === ctx.base) return grown;
-  const raised = grown.layers.map((l) => ({
-    material: l.material,
-    thicknessNm: Math.max(ctx.minNm, l.thicknessNm),
-  }));
-  let best = refine(ctx, raised, ctx.minNm, ctx.final);
+  let best: Refined | null = null;
+  if (grown.layers.length <= ctx.maxLayers) {
+    const raised = grown.layers.map((l) => ({
+      material: l.material,
+      thicknessNm: Math.max(ctx.minNm, l.thicknessNm),
+    }));
+    best = refine(ctx, raised, ctx.minNm, ctx.final);
+  }
   const kept = withoutThinLayers(ctx, grown.layers, ctx.minNm);
-  if (kept.length < grown.layers.length && kept.length > 0 && ctx.placementOk(kept)) {
+  if (
+    kept.length < grown.layers.length &&
+    kept.length > 0 &&
+    kept.length <= ctx.maxLayers &&
+    ctx.placementOk(kept)
+  ) {
     const dropped = refine(ctx, kept, ctx.minNm, ctx.final);
-    if (dropped.sum < best.sum) best = dropped;
+    if (!best || dropped.sum < best.sum) best = dropped;
   }
   return best;
 }
@@ -571,7 +598,7 @@ function settle(
   needle: boolean,
   reasons: Set<GrowStop>,
 ): Refined | null {
-  if (grown.length > ctx.maxLayers) {
+  if (grown.length > ctx.growingLayers) {
     reasons.add('maxLayers');
     return null;
   }
@@ -596,7 +623,7 @@ function settle(
   } else {
     result = refine(ctx, grown, ctx.minNm);
   }
-  if (result.layers.length > ctx.maxLayers) {
+  if (result.layers.length > ctx.growingLayers) {
     reasons.add('maxLayers');
     return null;
   }
