@@ -165,7 +165,7 @@ function jacobians(stack: OpticalStack, calls: number): void {
     merit.residuals(r, d);
     const trial = d.slice();
     for (let j = 0; j < d.length; j++) {
-      trial[j] += 1e-6;
+      trial[j] = (d[j] ?? 0) + 1e-6;
       merit.residuals(r, trial);
       trial[j] = d[j] ?? 0;
     }
