@@ -57,19 +57,31 @@ const HIGH_FILES: Record<string, string> = {
 const highName = process.argv[3] ?? 'TiO2';
 const HIGH = published(required(HIGH_FILES[highName], `a published file for ${highName}`));
 const SIO2 = published('film/sio2--gao.yml');
-const MGF2 = published('film/mgf2--rodriguez-de-marcos.yml');
+// QG_BENCH_OUTER_N: a constant-index outermost layer instead of the published MgF2 (what-if runs).
+const MGF2 = process.env.QG_BENCH_OUTER_N
+  ? constantIndex(Number(process.env.QG_BENCH_OUTER_N))
+  : published('film/mgf2--rodriguez-de-marcos.yml');
 
 const caseName = process.argv[4] ?? 'hard';
 if (caseName !== 'hard' && caseName !== 'normal')
   throw new Error(`case must be hard or normal (got ${caseName})`);
 const growthMerit = (process.argv[5] ?? 'smooth') as GrowthMerit;
+// What-if overrides of the case: QG_BENCH_FROM_NM (band start), QG_BENCH_ANGLES ("0,20"),
+// QG_BENCH_MAX_LAYERS (default 40).
+const fromNm = Number(process.env.QG_BENCH_FROM_NM ?? (caseName === 'hard' ? 400 : 420));
+const anglesDeg = process.env.QG_BENCH_ANGLES
+  ? process.env.QG_BENCH_ANGLES.split(',').map(Number)
+  : caseName === 'hard'
+    ? [0, 20, 40]
+    : [0];
+const maxLayers = Number(process.env.QG_BENCH_MAX_LAYERS ?? 40);
 const mask: SpecMask = {
   step_nm: 5,
   bands: [
     {
-      from_nm: caseName === 'hard' ? 400 : 420,
+      from_nm: fromNm,
       to_nm: 1100,
-      angles_deg: caseName === 'hard' ? [0, 20, 40] : [0],
+      angles_deg: anglesDeg,
       polarisation: 'avg',
       quantity: 'R',
       max_percent: 0.5,
@@ -99,7 +111,7 @@ function run(method: DerivativeMethod, round: number): OpticalStack {
     layerMaterials: ['MgF2', highName],
     outermostFixed: true,
     outermostOnly: ['MgF2'],
-    maxLayers: 40,
+    maxLayers,
     maxSteps: 60,
     derivatives: method,
     growthMerit,
@@ -119,6 +131,7 @@ function run(method: DerivativeMethod, round: number): OpticalStack {
         `   step ${s.step}: ${s.layerCount} layers, merit ${s.merit.toFixed(4)}, worst ${s.worstMargin.toFixed(3)}`,
       );
   console.log('   ' + grown.final.layers.map((l) => `${l.material} ${l.thicknessNm.toFixed(1)}`).join(' | '));
+  console.log('   ' + reflectanceByAngle(grown.stack));
   const errors = fillDeviates(
     new Float64Array(grown.stack.layers.length),
     grown.stack.layers.length,
@@ -141,6 +154,25 @@ function run(method: DerivativeMethod, round: number): OpticalStack {
       `${fit.pass ? 'passes' : 'fails'} (worst margin ${fit.worstMargin.toFixed(4)})`,
   );
   return grown.stack;
+}
+
+/** Highest and mean R (unpolarised, %) over the band at each of the mask's angles. */
+function reflectanceByAngle(stack: OpticalStack): string {
+  const wavelengthsNm = Array.from({ length: Math.floor((1100 - fromNm) / 5) + 1 }, (_, i) => fromNm + 5 * i);
+  const plan = createSpectrumPlan(stack, { wavelengthsNm, anglesDeg, polarisations: ['avg'] });
+  const { R } = computeSpectrum(createSpectrumOutput(plan), plan);
+  return anglesDeg
+    .map((angle, a) => {
+      let highest = 0;
+      let sum = 0;
+      for (let i = 0; i < wavelengthsNm.length; i++) {
+        const v = 100 * (R[a * wavelengthsNm.length + i] ?? 0);
+        highest = Math.max(highest, v);
+        sum += v;
+      }
+      return `${angle}°: R highest ${highest.toFixed(3)} %, mean ${(sum / wavelengthsNm.length).toFixed(3)} %`;
+    })
+    .join('; ');
 }
 
 /**
@@ -186,11 +218,8 @@ function jacobians(stack: OpticalStack, calls: number): void {
  */
 async function threads(stack: OpticalStack, calls: number): Promise<void> {
   const grid = {
-    wavelengthsNm: Array.from(
-      { length: (1100 - (caseName === 'hard' ? 400 : 420)) / 5 + 1 },
-      (_, i) => (caseName === 'hard' ? 400 : 420) + 5 * i,
-    ),
-    anglesDeg: caseName === 'hard' ? [0, 20, 40] : [0],
+    wavelengthsNm: Array.from({ length: Math.floor((1100 - fromNm) / 5) + 1 }, (_, i) => fromNm + 5 * i),
+    anglesDeg,
     polarisations: ['s', 'p'] as const,
   };
   const median = (xs: number[]) => xs.sort((a, b) => a - b)[Math.floor(xs.length / 2)] ?? NaN;
@@ -220,7 +249,10 @@ async function threads(stack: OpticalStack, calls: number): Promise<void> {
 }
 
 console.log(`Node ${process.version}, ${cpus()[0]?.model ?? 'unknown CPU'}, load ${load()}`);
-console.log(`case ${caseName}, growth merit ${growthMerit}`);
+console.log(
+  `case ${caseName} (${fromNm}–1100 nm at ${anglesDeg.join('/')}°, at most ${maxLayers} layers` +
+    `${process.env.QG_BENCH_OUTER_N ? `, outermost n = ${process.env.QG_BENCH_OUTER_N}` : ''}), growth merit ${growthMerit}`,
+);
 const which = process.argv[2];
 const rounds = Number(process.env.QG_BENCH_ROUNDS ?? 2);
 let grownStack: OpticalStack | null = null;
