@@ -3,7 +3,8 @@
  * `npm run build -w shared && npx tsx tools/bench/needle.bench.ts [analytic|differences|both] [high-index] [case] [growth merit]`
  * (both methods when no argument is given; high-index TiO2 by default, or Nb2O5 / Ta2O5; case
  * `hard` by default or `normal`; growth merit `smooth` by default or `mask`, the one-sided merit
- * growing used before). QG_BENCH_ROUNDS=1 runs each method once.
+ * growing used before). QG_BENCH_ROUNDS=1 runs each method once; QG_BENCH_ANGLES, QG_BENCH_FROM_NM,
+ * QG_BENCH_OUTER_N (a constant-index outermost layer) and QG_BENCH_MAX_LAYERS vary the case.
  *
  * Case `hard`: broadband AR on N-BK7 (SCHOTT Sellmeier): R ≤ 0.5 % over 400–1100 nm (5 nm steps)
  * at 0, 20 and 40°, average polarisation. Case `normal`: R ≤ 0.5 % over 420–1100 nm at normal
