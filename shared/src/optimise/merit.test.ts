@@ -102,6 +102,65 @@ describe('mask merit', () => {
     expect(merit.worstMarginOf()).toBeCloseTo(4 - rGlass, 12);
   });
 
+  it('pulls every limit sample towards 0 % (max) or 100 % (min) when smooth, merit and margins unchanged', () => {
+    // Bare n = 1.52 in air: R = 4.2580 %, T = 95.7420 % (Hecht, Optics, ch. 4); both bands are met,
+    // so the one-sided merit has no residual, the smooth one R − 0 and T − 100 at every sample.
+    const glass: OpticalStack = { ...stack, layers: [] };
+    const rGlass = 100 * (0.52 / 2.52) ** 2;
+    const mask: SpecMask = {
+      bands: [
+        { from_nm: 500, to_nm: 600, quantity: 'R', max_percent: 5, step_nm: 50 },
+        { from_nm: 500, to_nm: 600, quantity: 'T', min_percent: 95, step_nm: 50 },
+      ],
+    };
+    const oneSided = createMaskMerit(glass, mask, { marginPercent: 0.25 });
+    const smooth = createMaskMerit(glass, mask, { marginPercent: 0.25, smooth: true });
+    const r = new Float64Array(smooth.sampleCount);
+    oneSided.compute([]);
+    expect(oneSided.residualsOf(r, true)).toBe(0);
+    smooth.compute([]);
+    const sum = smooth.residualsOf(r, true);
+    expect(Array.from(r.slice(0, 3))).toEqual([rGlass, rGlass, rGlass].map((v) => expect.closeTo(v, 12)));
+    expect(Array.from(r.slice(3))).toEqual([1, 1, 1].map(() => expect.closeTo(-rGlass, 12)));
+    expect(sum).toBeCloseTo(6 * rGlass * rGlass, 9);
+    // the mask's own merit and margin do not change
+    expect(smooth.meritOf()).toBe(0);
+    expect(smooth.worstMarginOf()).toBeCloseTo(oneSided.worstMarginOf(), 12);
+    expect(() => createMaskMerit(glass, mask, { smooth: 1 as never })).toThrow(
+      /^smooth: must be true or false/,
+    );
+  });
+
+  it('gives the smooth merit an analytic Jacobian that matches central differences', () => {
+    const smooth = createMaskMerit(stack, mixedMask, { smooth: true });
+    const d = stack.layers.map((l) => l.thicknessNm);
+    const m = smooth.sampleCount;
+    const jac = new Float64Array(m * d.length);
+    smooth.compute(d);
+    smooth.jacobian(jac, d, [0, 1, 2]);
+    const plus = new Float64Array(m);
+    const minus = new Float64Array(m);
+    const h = 1e-4;
+    let worst = 0;
+    let scale = 0;
+    for (let j = 0; j < d.length; j++) {
+      const up = d.slice();
+      const down = d.slice();
+      up[j] = elementAt(d, j, 'the thicknesses') + h;
+      down[j] = elementAt(d, j, 'the thicknesses') - h;
+      smooth.residuals(plus, up);
+      smooth.residuals(minus, down);
+      for (let s = 0; s < m; s++) {
+        const fd = (elementAt(plus, s, 'the residuals') - elementAt(minus, s, 'the residuals')) / (2 * h);
+        worst = Math.max(worst, Math.abs(fd - elementAt(jac, s * d.length + j, 'the Jacobian')));
+        scale = Math.max(scale, Math.abs(fd));
+      }
+    }
+    // Every sample is active on the smooth merit, so no column is zero.
+    expect(scale).toBeGreaterThan(1e-3);
+    expect(worst).toBeLessThan(1e-6 * scale);
+  });
+
   it('adds target curves to the weighted RMS, on wavelengths the mask does not have', () => {
     const glass: OpticalStack = { ...stack, layers: [] };
     const rGlass = 100 * (0.52 / 2.52) ** 2;

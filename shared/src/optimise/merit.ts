@@ -73,6 +73,14 @@ export interface MaskMeritOptions {
    * the margins), so a design refined to zero residual passes with that much to spare. Default 0.
    */
   marginPercent?: number;
+  /**
+   * Every limit sample counts on both sides of its limit: a maximum aims at 0 %, a minimum at
+   * 100 % (targets unchanged), so the residuals are smooth in the thicknesses and the whole band
+   * pulls, not only the samples that are over their limit. A synthesis merit: Grow layers grows on
+   * it and fits the one-sided merit last. The mask's own merit and margins are unchanged. Default
+   * false.
+   */
+  smooth?: boolean;
 }
 
 const KIND_MAX = 0;
@@ -147,8 +155,11 @@ export class MaskMerit {
     const targets = validateTargets(options.targets);
     const margin =
       options.marginPercent === undefined ? 0 : nonNegative(options.marginPercent, 'marginPercent');
+    if (options.smooth !== undefined && typeof options.smooth !== 'boolean') {
+      throw new OpticsInputError('smooth', 'must be true or false');
+    }
     const layout = gridLayout(checked, targets);
-    const samples = sampleTable(checked, targets, layout, margin);
+    const samples = sampleTable(checked, targets, layout, margin, options.smooth === true);
     return new MaskMerit(stack, checked, layout, samples, options.back ?? 'none');
   }
 
@@ -398,6 +409,7 @@ function sampleTable(
   targets: readonly TargetCurve[],
   layout: GridLayout,
   margin: number,
+  smooth: boolean,
 ): SampleTable {
   const wlIndex = new Map<number, number>();
   layout.wavelengthsNm.forEach((wl, i) => wlIndex.set(wl, i));
@@ -476,11 +488,17 @@ function sampleTable(
     table.kind[i] = row.kind;
     table.bound[i] = row.bound;
     table.tolerance[i] = row.tol;
+    // A smooth merit aims a maximum at 0 % and a minimum at 100 %: R, T ∈ [0, 1] keep the
+    // residual on its active side everywhere.
     table.limit[i] =
       row.kind === KIND_MAX
-        ? row.bound - row.margin
+        ? smooth
+          ? 0
+          : row.bound - row.margin
         : row.kind === KIND_MIN
-          ? row.bound + row.margin
+          ? smooth
+            ? 100
+            : row.bound + row.margin
           : row.bound;
     table.scale[i] = Math.sqrt((row.w * count) / weightSum);
     table.inMask[i] = row.inMask;

@@ -1,10 +1,13 @@
 import { describe, expect, it } from 'vitest';
 import { elementAt, required } from '../checked.js';
+import { calculateSpectrum } from '../optics/batch.js';
+import { createNeedleGrid, needleFunction } from '../optics/derivatives.js';
 import { constantIndex as c } from '../optics/dispersion.js';
 import { OpticsInputError } from '../optics/errors.js';
 import { MATERIAL_LIBRARY } from '../optics/library.js';
 import { evaluateMask, type SpecMask } from '../optics/mask.js';
 import type { OpticalStack } from '../optics/stack.js';
+import { createMaskMerit } from './merit.js';
 import { dropThinLayers, growLayers, type AllowedMaterial } from './needle.js';
 
 // Typical coating indices near 550 nm (common practice, from memory): MgF2 1.38, SiO2 1.46,
@@ -180,6 +183,180 @@ describe('Grow layers', () => {
     expect(elementAt(layers, 0, 'layers').thicknessNm).toBe(50);
   });
 
+  it('grows on the smooth merit and fits each step to the one-sided mask merit within the bounds', () => {
+    const result = growLayers(quarterWaveOnBk7, broadbandAr, {
+      allowedMaterials: allowed,
+      maxLayers: 12,
+      growthMerit: 'smooth',
+    });
+    expect(result.stoppedBy).toBe('maskMet');
+    // Checked on the mask's own evaluation, not the optimiser's merit.
+    const check = evaluateMask(broadbandAr, result.stack);
+    expect(check.pass).toBe(true);
+    expect(check.worstMargin).toBeGreaterThanOrEqual(0.001 - 1e-6);
+    expect(check.worstMargin).toBeCloseTo(result.final.worstMargin, 10);
+    // Growing may keep thin layers; every reported step is fitted within [min, max] and the limit.
+    for (const step of result.steps) {
+      expect(step.layerCount).toBeLessThanOrEqual(12);
+      for (const layer of step.layers) expect(layer.thicknessNm).toBeGreaterThanOrEqual(10 - 1e-9);
+    }
+    expect(
+      growLayers(quarterWaveOnBk7, broadbandAr, {
+        allowedMaterials: allowed,
+        maxLayers: 12,
+        growthMerit: 'smooth',
+      }),
+    ).toEqual(result);
+  });
+
+  it('thickens a needle-optimal design so growing on the smooth merit goes on to meet a wide band', () => {
+    // 400–1100 nm at normal incidence is too wide for the 2-layer start's thickness: on the
+    // one-sided merit the needles stop near 0.5 µm (needle-optimal, mask not met); on the smooth
+    // merit half-wave layers on the substrate give them room.
+    const wide: SpecMask = {
+      step_nm: 10,
+      bands: [{ from_nm: 400, to_nm: 1100, quantity: 'R', max_percent: 0.5 }],
+    };
+    const start: OpticalStack = {
+      ...quarterWaveOnBk7,
+      layers: [
+        { material: MGF2, thicknessNm: 95 },
+        { material: c(2.35), thicknessNm: 120 },
+      ],
+    };
+    const options = {
+      allowedMaterials: allowed,
+      layerMaterials: ['MgF2', 'TiO2'],
+      outermostFixed: true,
+      outermostOnly: ['MgF2'],
+      maxLayers: 40,
+      maxSteps: 60,
+    };
+    const smooth = growLayers(start, wide, { ...options, growthMerit: 'smooth' });
+    expect(smooth.stoppedBy).toBe('maskMet');
+    expect(evaluateMask(wide, smooth.stack).pass).toBe(true);
+    expect(elementAt(smooth.final.layers, 0, 'the final layers').material).toBe('MgF2');
+    for (const step of smooth.steps) expect(step.layerCount).toBeLessThanOrEqual(40);
+    const oneSided = growLayers(start, wide, options);
+    expect(oneSided.stoppedBy).toBe('noImprovement');
+    expect(oneSided.final.pass).toBe(false);
+    expect(smooth.final.totalThicknessNm).toBeGreaterThan(oneSided.final.totalThicknessNm + 200);
+  });
+
+  it('has a needle function on the smooth merit that matches probing with a 0.01 nm needle', () => {
+    // Independent check: the merit's change when a 0.01 nm layer is really inserted (computed
+    // with the transfer matrix), divided by its thickness, against the analytic first-order value.
+    const mask: SpecMask = {
+      bands: [
+        { from_nm: 420, to_nm: 680, step_nm: 20, quantity: 'R', max_percent: 0.5, angles_deg: [0, 40] },
+      ],
+    };
+    const stack: OpticalStack = {
+      ...quarterWaveOnBk7,
+      layers: [
+        { material: MGF2, thicknessNm: 92 },
+        { material: c(2.35), thicknessNm: 48 },
+        { material: c(1.46), thicknessNm: 30 },
+      ],
+    };
+    const merit = createMaskMerit(stack, mask, { smooth: true });
+    const d = stack.layers.map((l) => l.thicknessNm);
+    const r = new Float64Array(merit.sampleCount);
+    const f0 = merit.residuals(r, d);
+    const gR = new Float64Array(merit.plan.size);
+    const gT = new Float64Array(merit.plan.size);
+    merit.gradientWeights(gR, gT);
+    const nW = merit.plan.wavelengthsNm.length;
+    const needle = c(2.35);
+    const materials = {
+      count: 1,
+      epsRe: new Float64Array(nW).fill(2.35 * 2.35),
+      epsIm: new Float64Array(nW),
+    };
+    const grid = createNeedleGrid(d, 10);
+    const analytic = needleFunction(new Float64Array(grid.count), merit.plan, materials, grid, gR, gT);
+    let scale = 0;
+    for (let k = 0; k < grid.count; k++) {
+      const j = elementAt(grid.layer, k, 'the grid layers');
+      const host = elementAt(stack.layers, j, 'the layers');
+      const offsetNm = elementAt(grid.offsetNm, k, 'the grid offsets');
+      const probe = (thicknessNm: number) => {
+        const layers = [
+          ...stack.layers.slice(0, j),
+          { material: host.material, thicknessNm: offsetNm },
+          { material: needle, thicknessNm },
+          { material: host.material, thicknessNm: host.thicknessNm - offsetNm },
+          ...stack.layers.slice(j + 1),
+        ];
+        const probed = merit.withStack({ ...stack, layers });
+        return (
+          (probed.residuals(
+            r,
+            layers.map((l) => l.thicknessNm),
+          ) -
+            f0) /
+          thicknessNm
+        );
+      };
+      const coarse = probe(0.01);
+      // Probing is first-order accurate: within 1e-3 of the scale at 0.01 nm, and Richardson's
+      // 2·p(0.005) − p(0.01) removes the O(Δ) term.
+      expect(Math.abs(elementAt(analytic, k, 'the needle function') - coarse)).toBeLessThan(
+        2e-3 * Math.max(1, Math.abs(coarse)),
+      );
+      expect(analytic[k]).toBeCloseTo(2 * probe(0.005) - coarse, 3);
+      scale = Math.max(scale, Math.abs(coarse));
+    }
+    expect(scale).toBeGreaterThan(1);
+  });
+
+  it('merges neighbours of one material without changing the spectrum; removal changes it to first order', () => {
+    const models = new Map(allowed.map((m) => [m.name, m.model]));
+    const stackOf = (list: { material: string; thicknessNm: number }[]): OpticalStack => ({
+      ...quarterWaveOnBk7,
+      layers: list.map((l) => ({ material: models.get(l.material) ?? MGF2, thicknessNm: l.thicknessNm })),
+    });
+    const grid = {
+      wavelengthsNm: [400, 450, 500, 550, 600, 700, 800, 1000],
+      anglesDeg: [0, 40],
+      polarisations: ['avg' as const],
+    };
+    const withThin = (t: number) => [
+      { material: 'MgF2', thicknessNm: 100 },
+      { material: 'TiO2', thicknessNm: 60 },
+      { material: 'SiO2', thicknessNm: 2 * t },
+      { material: 'TiO2', thicknessNm: 20 },
+      { material: 'SiO2', thicknessNm: 40 },
+      { material: 'TiO2', thicknessNm: 3 * t },
+      { material: 'SiO2', thicknessNm: 35 },
+    ];
+    const kept = dropThinLayers(withThin(0.1), 0.5);
+    expect(kept).toEqual([
+      { material: 'MgF2', thicknessNm: 100 },
+      { material: 'TiO2', thicknessNm: 80 },
+      { material: 'SiO2', thicknessNm: 75 },
+    ]);
+    // Two touching layers of one material are one layer (the characteristic matrices multiply:
+    // M(d1)·M(d2) = M(d1 + d2), Macleod, ch. 2): the spectrum is the same to rounding.
+    const merged = calculateSpectrum(stackOf(kept), grid);
+    const split = calculateSpectrum(stackOf(withThin(0)), grid);
+    for (let i = 0; i < merged.R.length; i++)
+      expect(split.R[i]).toBeCloseTo(elementAt(merged.R, i, 'the merged spectrum'), 13);
+    // Removing layers of thickness Δ changes R by first order in Δ: halving Δ halves the change.
+    const change = (t: number) => {
+      const r = calculateSpectrum(stackOf(withThin(t)), grid).R;
+      return Array.from(r, (v, i) => v - elementAt(merged.R, i, 'the merged spectrum'));
+    };
+    const full = change(0.1);
+    const half = change(0.05);
+    let largest = 0;
+    full.forEach((f, i) => {
+      largest = Math.max(largest, Math.abs(f));
+      if (Math.abs(f) > 1e-5) expect(f / elementAt(half, i, 'the halved change')).toBeCloseTo(2, 1);
+    });
+    expect(largest).toBeGreaterThan(1e-5);
+  });
+
   it('rejects bad input with errors naming the field', () => {
     const cases: [() => unknown, RegExp][] = [
       [
@@ -225,6 +402,18 @@ describe('Grow layers', () => {
         () =>
           growLayers(quarterWaveOnBk7, broadbandAr, { allowedMaterials: allowed, layerMaterials: ['TiO2'] }),
         /^layerMaterials\[0\]: "TiO2" already names another material model/,
+      ],
+      [
+        () =>
+          growLayers(quarterWaveOnBk7, broadbandAr, {
+            allowedMaterials: allowed,
+            growthMerit: 'rms' as never,
+          }),
+        /^growthMerit:/,
+      ],
+      [
+        () => growLayers(quarterWaveOnBk7, broadbandAr, { allowedMaterials: allowed, needlesPerStep: 0 }),
+        /^needlesPerStep:/,
       ],
     ];
     for (const [run, message] of cases) {

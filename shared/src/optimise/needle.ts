@@ -3,11 +3,13 @@
  * 5493 (1996)). Each step
  * 1. scans where a thin layer (a needle) of each allowed material lowers the merit fastest: for
  *    every layer, positions every `positionStepNm` through it (its two interfaces included), the
- *    derivative of Σr² with respect to the needle's thickness, by a forward difference with a
- *    NEEDLE_PROBE_NM needle (the perturbation function of the paper, computed numerically);
- * 2. inserts a needle at the most negative derivative, refines all thicknesses with ≥ 0 bounds,
- *    removes layers that end up thinner than the minimum (merging neighbours of one material) and
- *    refines again within [min, max];
+ *    derivative of Σr² with respect to the needle's thickness (the perturbation function of the
+ *    paper: analytic from the characteristic-matrix sweeps, or by probing with a NEEDLE_PROBE_NM
+ *    needle);
+ * 2. inserts needles at the deepest separate minima of that function together (up to
+ *    `needlesPerStep`), refines all thicknesses with ≥ 0 bounds, removes layers that end up thinner
+ *    than the minimum (merging neighbours of one material) and refines again within [min, max];
+ *    when that does not lower the merit, single needles at the best positions are tried;
  * 3. keeps the step when the merit fell (else tries the next candidates), and repeats until the
  *    mask is met, nothing helps, or a limit is reached (layer count, total thickness, steps).
  * When no needle lowers the merit on its own (a refined single quarter wave is such a design: a
@@ -15,6 +17,19 @@
  * allowed material is tried at the front and next to the substrate, starting from the minimum
  * thickness, a quarter and a half wave at the mask's centre wavelength, refined within [min, max];
  * the best that lowers the merit is kept (the gradual-evolution variant of the method).
+ *
+ * With `growthMerit: 'smooth'` the structure grows on a smooth merit instead (every mask sample
+ * pulls towards R = 0 under a maximum, merit.ts), with ≥ 0 bounds: layers thinner than
+ * GROWTH_REMOVAL_NM are removed as they vanish, thin ones may stay while growing (the growing
+ * structure may then hold up to GROWING_LAYERS_FACTOR × maxLayers layers). Each step's
+ * design is then fitted to the one-sided mask merit with the target margin within [min, max]
+ * (layers under the minimum raised to it, or removed, whichever fits better): that design is the
+ * step's record, keeps to maxLayers and decides whether the mask is met. Once the design is needle-optimal (the needle
+ * function ≥ 0 everywhere) and no whole layer helps, a half-wave layer is added next to the
+ * substrate even though it does not lower the merit at once (gradual evolution: the total
+ * thickness bounds what needles can reach, as the 1996 paper above shows); after MAX_THICKENINGS
+ * such steps in a row without a better fitted design growth stops, and the result is the best
+ * fitted design.
  */
 import type { ResultForecast } from './result-forecast.js';
 import { onlyKeys, plainObject } from '../optics/checks.js';
@@ -36,7 +51,14 @@ import {
   refineThicknesses,
 } from './fit.js';
 import { createMaskMerit, type MaskMerit, type TargetCurve } from './merit.js';
-import { nonNegativeOption, positiveOption, wholeNumber } from './options.js';
+import {
+  DEFAULT_GROWTH_MERIT,
+  DEFAULT_NEEDLES_PER_STEP,
+  NEEDLE_DEPTH_FRACTION,
+  nonNegativeOption,
+  positiveOption,
+  wholeNumber,
+} from './options.js';
 
 /** Default most front layers of a grown design. */
 export const DEFAULT_MAX_LAYERS = 30;
@@ -47,6 +69,27 @@ export const DEFAULT_MAX_STEPS = 30;
 
 /** Thickness of the probing needle for the derivative, nm. */
 const NEEDLE_PROBE_NM = 1e-3;
+/**
+ * Layers thinner than this are removed while growing on the smooth merit, nm: a needle that does
+ * not grow past it is not worth a layer (common practice, no source).
+ */
+const GROWTH_REMOVAL_NM = 0.5;
+/**
+ * Thickenings in a row (see thicken()) that may fail to improve the best fitted design before
+ * growing on the smooth merit stops (common practice, no source).
+ */
+const MAX_THICKENINGS = 3;
+/**
+ * How far below the target margin a step's worst margin may be and still count as reached,
+ * percentage points: far below any measurement, above the refinement's convergence noise.
+ */
+const REACHED_TOLERANCE_PERCENT = 1e-6;
+/**
+ * On the smooth merit a growing structure may hold this many times maxLayers layers, the thin
+ * ones kept while growing included; the fitted design of each step keeps to maxLayers (common
+ * practice, no source).
+ */
+const GROWING_LAYERS_FACTOR = 2;
 /** Candidates (distinct layer and material) tried per step before giving up. */
 const CANDIDATES_PER_STEP = 3;
 
@@ -69,6 +112,8 @@ const GROW_OPTION_KEYS = [
   'outermostFixed',
   'outermostOnly',
   'nextToSubstrate',
+  'growthMerit',
+  'needlesPerStep',
 ];
 
 /** A coating material the engineer allows Grow layers to use. */
@@ -148,7 +193,25 @@ export interface GrowOptions {
   outermostOnly?: string[];
   /** The only allowed materials (by name) a new layer next to the substrate may be; any when omitted. */
   nextToSubstrate?: string[];
+  /**
+   * The merit the structure grows on (default {@link DEFAULT_GROWTH_MERIT}). `mask`: the one-sided
+   * mask merit with the target margin, within [min, max]. `smooth`: every mask sample pulls
+   * towards the far side of its limit (R → 0 under a maximum, see MaskMeritOptions.smooth) with
+   * ≥ 0 bounds, each step's design is then fitted to the one-sided merit, which decides whether the
+   * mask is met, and a needle-optimal design is thickened (see the file comment): for wide bands
+   * the one-sided growth stalls on.
+   */
+  growthMerit?: GrowthMerit;
+  /**
+   * Needles inserted together in one step, at the deepest separate minima of the needle function
+   * (default {@link DEFAULT_NEEDLES_PER_STEP}); when they do not lower the merit together, single
+   * needles are tried.
+   */
+  needlesPerStep?: number;
 }
+
+export type GrowthMerit = 'smooth' | 'mask';
+export const GROWTH_MERITS: readonly GrowthMerit[] = ['smooth', 'mask'];
 
 export interface GrowResult {
   /** Every kept step, the refined start first: the progression of merit against layer count. */
@@ -180,6 +243,8 @@ interface Refined {
 }
 
 interface Candidate {
+  /** Index of the position on the depth grid (createNeedleGrid's order: front to substrate). */
+  point: number;
   layer: number;
   material: number;
   offsetNm: number;
@@ -211,6 +276,11 @@ export function growLayers(stack: OpticalStack, mask: SpecMask, options: GrowOpt
   const maxIterations = wholeNumber(opts.maxIterations, 'maxIterations', 1, 100_000, DEFAULT_MAX_ITERATIONS);
   const derivatives =
     opts.derivatives === undefined ? 'analytic' : oneOf(opts.derivatives, DERIVATIVE_METHODS, 'derivatives');
+  const growthMerit =
+    opts.growthMerit === undefined
+      ? DEFAULT_GROWTH_MERIT
+      : oneOf(opts.growthMerit, GROWTH_MERITS, 'growthMerit');
+  const needlesPerStep = wholeNumber(opts.needlesPerStep, 'needlesPerStep', 1, 100, DEFAULT_NEEDLES_PER_STEP);
   if (opts.outermostFixed !== undefined && typeof opts.outermostFixed !== 'boolean') {
     throw new OpticsInputError('outermostFixed', 'must be true or false');
   }
@@ -266,16 +336,23 @@ export function growLayers(stack: OpticalStack, mask: SpecMask, options: GrowOpt
     layers: list.map((l) => ({ material: models[l.material], thicknessNm: l.thicknessNm })),
   });
   const targetMarginPercent = options.marginPercent ?? DEFAULT_MARGIN_PERCENT;
-  const base = createMaskMerit(stackOf(layers), mask, {
+  const final = createMaskMerit(stackOf(layers), mask, {
     back: options.back,
     targets: options.targets,
     marginPercent: targetMarginPercent,
   });
+  const base =
+    growthMerit === 'smooth'
+      ? createMaskMerit(stackOf(layers), mask, { back: options.back, targets: options.targets, smooth: true })
+      : final;
   const residual = new Float64Array(base.sampleCount);
   const analytic = derivatives === 'analytic' && base.analyticDerivatives;
 
   const ctx: GrowContext = {
     base,
+    final,
+    removalNm: GROWTH_REMOVAL_NM,
+    needlesPerStep,
     residual,
     stackOf,
     names,
@@ -285,6 +362,7 @@ export function growLayers(stack: OpticalStack, mask: SpecMask, options: GrowOpt
     minNm,
     maxNm,
     maxLayers,
+    growingLayers: growthMerit === 'smooth' ? GROWING_LAYERS_FACTOR * maxLayers : maxLayers,
     maxTotal,
     needleNm,
     positionStep,
@@ -294,26 +372,36 @@ export function growLayers(stack: OpticalStack, mask: SpecMask, options: GrowOpt
     placementOk: placementRule(names, outermostOnly, nextToSubstrate, layers),
   };
   const steps: GrowStep[] = [];
-  // Growing stops once the mask is met with the target margin, not at the first bare pass.
-  const reached = (step: GrowStep) => step.worstMargin >= targetMarginPercent - 1e-9;
+  // Growing stops once the mask is met with the target margin, not at the first bare pass. The
+  // refinement converges onto the tightened limits from either side, to within its step tolerance;
+  // REACHED_TOLERANCE_PERCENT keeps the analytic and the finite-difference Jacobian on one path.
+  const reached = (step: GrowStep) => step.worstMargin >= targetMarginPercent - REACHED_TOLERANCE_PERCENT;
   const record = (refined: Refined, inserted?: GrowStep['inserted']): boolean => {
     const step = growStep(ctx, steps.length, refined, inserted);
     steps.push(step);
     return options.onStep?.(step) !== false;
   };
 
-  let current = refine(ctx, layers, minNm);
+  let current = refine(ctx, layers, ctx.final === ctx.base ? minNm : 0);
+  // The start has at most maxLayers layers, so one of its fitted variants fits the limit.
+  let shown = finish(ctx, current) ?? current;
+  let best = { refined: shown, step: 0 };
+  let thickenings = 0;
   let stoppedBy: GrowStop = 'maxSteps';
-  if (!record(current)) stoppedBy = 'cancelled';
+  if (!record(shown)) stoppedBy = 'cancelled';
   else if (reached(steps[0])) stoppedBy = 'maskMet';
   else {
     for (let stepNo = 1; stepNo <= maxSteps; stepNo++) {
-      if (current.layers.length + 1 > maxLayers) {
+      if (current.layers.length + 1 > ctx.growingLayers) {
         stoppedBy = 'maxLayers';
         break;
       }
       const reasons = new Set<GrowStop>();
-      const next = tryNeedles(ctx, current, reasons) ?? tryWholeLayers(ctx, current, reasons);
+      let next = tryNeedles(ctx, current, reasons) ?? tryWholeLayers(ctx, current, reasons);
+      if (!next && ctx.final !== ctx.base && thickenings < MAX_THICKENINGS) {
+        next = thicken(ctx, current, reasons);
+        thickenings++;
+      }
       if (!next) {
         stoppedBy = reasons.has('maxLayers')
           ? 'maxLayers'
@@ -322,10 +410,20 @@ export function growLayers(stack: OpticalStack, mask: SpecMask, options: GrowOpt
             : 'noImprovement';
         break;
       }
+      const fitted = finish(ctx, next.refined);
+      if (!fitted) {
+        stoppedBy = 'maxLayers';
+        break;
+      }
       current = next.refined;
-      if (!record(current, next.inserted)) {
+      shown = fitted;
+      if (!record(shown, next.inserted)) {
         stoppedBy = 'cancelled';
         break;
+      }
+      if (shown.sum < best.refined.sum) {
+        best = { refined: shown, step: steps.length - 1 };
+        thickenings = 0;
       }
       if (reached(steps[steps.length - 1])) {
         stoppedBy = 'maskMet';
@@ -333,14 +431,28 @@ export function growLayers(stack: OpticalStack, mask: SpecMask, options: GrowOpt
       }
     }
   }
-  const final = steps[steps.length - 1];
-  return { steps, final, stack: stackOf(current.layers), stoppedBy, targetMarginPercent };
+  // On the mask merit every kept step is better than the one before; on the smooth merit the
+  // thickened steps need not be, and the result is the best fitted design.
+  if (stoppedBy === 'maskMet' || stoppedBy === 'cancelled' || ctx.final === ctx.base)
+    best = { refined: shown, step: steps.length - 1 };
+  return {
+    steps,
+    final: steps[best.step],
+    stack: stackOf(best.refined.layers),
+    stoppedBy,
+    targetMarginPercent,
+  };
 }
 
 /** Settings and shared buffers of one Grow layers run. */
 interface GrowContext {
-  /** The merit of the start; {@link MaskMerit.withStack} gives one per structure. */
+  /** The merit growing minimises, of the start; {@link MaskMerit.withStack} gives one per structure. */
   base: MaskMerit;
+  /** The one-sided mask merit with the target margin each step is fitted to last (may be `base`). */
+  final: MaskMerit;
+  /** Layers thinner than this are removed while growing on the smooth merit, nm. */
+  removalNm: number;
+  needlesPerStep: number;
   residual: Float64Array;
   stackOf: (list: readonly WorkLayer[]) => OpticalStack;
   /** Names of the materials (allowed ones first, then start materials not among them). */
@@ -353,6 +465,11 @@ interface GrowContext {
   minNm: number;
   maxNm: number;
   maxLayers: number;
+  /**
+   * Most layers of a structure while growing: maxLayers on the mask merit; on the smooth merit
+   * GROWING_LAYERS_FACTOR times that, as thin layers kept while growing go when each step is fitted.
+   */
+  growingLayers: number;
   maxTotal: number;
   needleNm: number;
   positionStep: number;
@@ -394,8 +511,13 @@ interface Grown {
 }
 
 /** Refines `list` within [lower, maxNm] on a merit for its structure; returns it refined. */
-function refine(ctx: GrowContext, list: readonly WorkLayer[], lower: number): Refined {
-  const merit = ctx.base.withStack(ctx.stackOf(list));
+function refine(
+  ctx: GrowContext,
+  list: readonly WorkLayer[],
+  lower: number,
+  on: MaskMerit = ctx.base,
+): Refined {
+  const merit = on.withStack(ctx.stackOf(list));
   const bounds = layerBounds(list.length, lower, ctx.maxNm, undefined);
   const fit = refineThicknesses(
     merit,
@@ -406,6 +528,46 @@ function refine(ctx: GrowContext, list: readonly WorkLayer[], lower: number): Re
   const out = list.map((l, i) => ({ material: l.material, thicknessNm: fit.thicknessesNm[i] }));
   const sum = merit.residuals(ctx.residual, fit.thicknessesNm);
   return { layers: out, sum, merit };
+}
+
+/**
+ * A grown structure fitted to the one-sided mask merit with the target margin within [min, max]:
+ * the design a step reports. The same structure when growing is on that merit already.
+ */
+function finish(ctx: GrowContext, grown: Refined): Refined | null {
+  if (ctx.final === ctx.base) return grown;
+  let best: Refined | null = null;
+  if (grown.layers.length <= ctx.maxLayers) {
+    const raised = grown.layers.map((l) => ({
+      material: l.material,
+      thicknessNm: Math.max(ctx.minNm, l.thicknessNm),
+    }));
+    best = refine(ctx, raised, ctx.minNm, ctx.final);
+  }
+  const kept = withoutThinLayers(ctx, grown.layers, ctx.minNm);
+  if (
+    kept.length < grown.layers.length &&
+    kept.length > 0 &&
+    kept.length <= ctx.maxLayers &&
+    ctx.placementOk(kept)
+  ) {
+    const dropped = refine(ctx, kept, ctx.minNm, ctx.final);
+    if (!best || dropped.sum < best.sum) best = dropped;
+  }
+  return best;
+}
+
+/**
+ * {@link dropThinLayers} at `belowNm`, except that a fixed outermost layer is never removed (it
+ * is raised to `belowNm` instead).
+ */
+function withoutThinLayers(ctx: GrowContext, layers: readonly WorkLayer[], belowNm: number): WorkLayer[] {
+  if (!ctx.outermostFixed || layers.length === 0) return dropThinLayers(layers, belowNm);
+  const front = { material: layers[0].material, thicknessNm: Math.max(belowNm, layers[0].thicknessNm) };
+  const rest = dropThinLayers(layers.slice(1), belowNm);
+  return rest[0]?.material === front.material
+    ? [{ material: front.material, thicknessNm: front.thicknessNm + rest[0].thicknessNm }, ...rest.slice(1)]
+    : [front, ...rest];
 }
 
 /** The step record of a refined structure. */
@@ -448,12 +610,18 @@ function settle(
   needle: boolean,
   reasons: Set<GrowStop>,
 ): Refined | null {
-  if (grown.length > ctx.maxLayers) {
+  if (grown.length > ctx.growingLayers) {
     reasons.add('maxLayers');
     return null;
   }
   let result: Refined;
-  if (needle) {
+  if (ctx.final !== ctx.base) {
+    // Growing on the smooth merit: thicknesses ≥ 0, vanishing layers removed; the minimum
+    // thickness is the business of finish().
+    const free = refine(ctx, grown, 0);
+    const kept = withoutThinLayers(ctx, free.layers, ctx.removalNm);
+    result = kept.length === free.layers.length ? free : kept.length > 0 ? refine(ctx, kept, 0) : current;
+  } else if (needle) {
     const free = refine(ctx, grown, 0).layers;
     const kept = dropThinLayers(free, ctx.minNm);
     result = kept.length > 0 ? refine(ctx, kept, ctx.minNm) : current;
@@ -467,7 +635,7 @@ function settle(
   } else {
     result = refine(ctx, grown, ctx.minNm);
   }
-  if (result.layers.length > ctx.maxLayers) {
+  if (result.layers.length > ctx.growingLayers) {
     reasons.add('maxLayers');
     return null;
   }
@@ -479,8 +647,9 @@ function settle(
 }
 
 /**
- * Scans the needle function and tries the CANDIDATES_PER_STEP best distinct (layer, material)
- * positions; the first whose settled structure lowers the merit, or null.
+ * Scans the needle function; first inserts needles at its deepest separate minima together (up to
+ * needlesPerStep), then tries the CANDIDATES_PER_STEP best distinct (layer, material) positions
+ * one by one; the first settled structure that lowers the merit, or null.
  */
 function tryNeedles(ctx: GrowContext, current: Refined, reasons: Set<GrowStop>): Grown | null {
   const layers = current.layers;
@@ -495,22 +664,52 @@ function tryNeedles(ctx: GrowContext, current: Refined, reasons: Set<GrowStop>):
         ctx.residual,
         ctx.outermostFixed,
       );
+  const depthOf = (cand: Candidate) => {
+    let depth = cand.offsetNm;
+    for (let j = 0; j < cand.layer; j++) depth += layers[j].thicknessNm;
+    return depth;
+  };
+  const allowed = candidates.filter((c) => ctx.placementOk(insertNeedles(layers, [c], ctx.needleNm)));
+  const minima = deepestMinima(allowed, ctx.needlesPerStep);
+  if (minima.length > 1) {
+    const result = settle(ctx, current, insertNeedles(layers, minima, ctx.needleNm), true, reasons);
+    if (better(result, current) && ctx.placementOk(result.layers)) {
+      return {
+        refined: result,
+        inserted: { material: ctx.names[minima[0].material], depthNm: depthOf(minima[0]) },
+      };
+    }
+  }
   const tried = new Set<string>();
-  for (const cand of candidates) {
+  for (const cand of allowed) {
     const key = `${cand.layer}:${cand.material}`;
     if (tried.has(key)) continue;
     if (tried.size >= CANDIDATES_PER_STEP) break;
     tried.add(key);
-    const grown = insertNeedle(layers, cand, ctx.needleNm);
-    if (!ctx.placementOk(grown)) continue;
-    const result = settle(ctx, current, grown, true, reasons);
+    const result = settle(ctx, current, insertNeedles(layers, [cand], ctx.needleNm), true, reasons);
     if (better(result, current) && ctx.placementOk(result.layers)) {
-      let depth = cand.offsetNm;
-      for (let j = 0; j < cand.layer; j++) depth += layers[j].thicknessNm;
-      return { refined: result, inserted: { material: ctx.names[cand.material], depthNm: depth } };
+      return { refined: result, inserted: { material: ctx.names[cand.material], depthNm: depthOf(cand) } };
     }
   }
   return null;
+}
+
+/**
+ * The deepest local minima of the needle function along depth (the lowest material at each grid
+ * point), deepest first: at most `count`, each at least NEEDLE_DEPTH_FRACTION as deep as the
+ * deepest. `candidates` are sorted most negative first.
+ */
+function deepestMinima(candidates: readonly Candidate[], count: number): Candidate[] {
+  const best = new Map<number, Candidate>();
+  for (const c of candidates) if (!best.has(c.point)) best.set(c.point, c);
+  const value = (point: number) => best.get(point)?.derivative ?? 0;
+  const out: Candidate[] = [];
+  for (const [point, c] of best) {
+    if (out.length >= count) break;
+    if (out.length > 0 && c.derivative > NEEDLE_DEPTH_FRACTION * out[0].derivative) break;
+    if (c.derivative <= value(point - 1) && c.derivative <= value(point + 1)) out.push(c);
+  }
+  return out;
 }
 
 /**
@@ -548,6 +747,34 @@ function tryWholeLayers(ctx: GrowContext, current: Refined, reasons: Set<GrowSto
 }
 
 /**
+ * Gradual evolution once the design is needle-optimal and no whole layer helps: more thickness
+ * for the needles to work in. A half-wave layer (at the mask's centre wavelength) of each allowed
+ * material next to the substrate, and at the front unless that is fixed, refined; the best is kept
+ * even when it does not lower the merit (growth goes on from it). Null when every one is over a
+ * limit or breaks a placement rule.
+ */
+function thicken(ctx: GrowContext, current: Refined, reasons: Set<GrowStop>): Grown | null {
+  const layers = current.layers;
+  const total = layers.reduce((t, l) => t + l.thicknessNm, 0);
+  let best: Grown | null = null;
+  for (const side of ctx.outermostFixed ? (['substrate'] as const) : (['front', 'substrate'] as const)) {
+    for (let m = 0; m < ctx.allowedCount; m++) {
+      const layer = { material: m, thicknessNm: 2 * ctx.quarterWaveNm[m] };
+      const grown = side === 'front' ? [layer, ...layers] : [...layers, layer];
+      if (!ctx.placementOk(grown)) continue;
+      const result = settle(ctx, current, mergeSameMaterial(grown), false, reasons);
+      if (result && ctx.placementOk(result.layers) && (!best || result.sum < best.refined.sum)) {
+        best = {
+          refined: result,
+          inserted: { material: ctx.names[m], depthNm: side === 'front' ? 0 : total },
+        };
+      }
+    }
+  }
+  return best;
+}
+
+/**
  * Derivative of Σr² with respect to the thickness of a needle of each allowed material at each
  * candidate position, most negative first (only those that lower the merit).
  */
@@ -566,11 +793,13 @@ function scanNeedles(
     layers.map((l) => l.thicknessNm),
   );
   const out: Candidate[] = [];
+  // First grid point of each layer (createNeedleGrid: point 0 is the front surface).
+  let first = 1;
   if (L === 0) {
     for (let m = 0; m < allowedCount; m++) {
       const probe = merit.withStack(stackOf([{ material: m, thicknessNm: NEEDLE_PROBE_NM }]));
       const f = probe.residuals(residual, [NEEDLE_PROBE_NM]);
-      out.push({ layer: 0, material: m, offsetNm: 0, derivative: (f - f0) / NEEDLE_PROBE_NM });
+      out.push({ point: 0, layer: 0, material: m, offsetNm: 0, derivative: (f - f0) / NEEDLE_PROBE_NM });
     }
   }
   for (let j = 0; j < L; j++) {
@@ -598,9 +827,11 @@ function scanNeedles(
         thicknesses[j + 2] = Math.max(0, d - a);
         const f = probe.residuals(residual, thicknesses);
         const derivative = (f - f0) / NEEDLE_PROBE_NM;
-        if (derivative < 0) out.push({ layer: j, material: m, offsetNm: a, derivative });
+        const point = k === 0 ? 0 : first + k - 1;
+        if (derivative < 0) out.push({ point, layer: j, material: m, offsetNm: a, derivative });
       }
     }
+    first += count;
   }
   return out.filter((c) => c.derivative < 0).sort((x, y) => x.derivative - y.derivative);
 }
@@ -665,24 +896,36 @@ function scanNeedlesAnalytic(
       if (L > 0 && layers[j].material === m) continue;
       if (atBack && j < L - 1 && layers[j + 1].material === m) continue;
       const derivative = values[m * grid.count + k];
-      if (derivative < 0) out.push({ layer: j, material: m, offsetNm, derivative });
+      if (derivative < 0) out.push({ point: k, layer: j, material: m, offsetNm, derivative });
     }
   }
   return out.sort((x, y) => x.derivative - y.derivative);
 }
 
-/** The layers with a needle of `cand.material` inserted (zero-thickness parts left out). */
-function insertNeedle(layers: readonly WorkLayer[], cand: Candidate, needleNm: number): WorkLayer[] {
-  const needle = { material: cand.material, thicknessNm: needleNm };
-  if (layers.length === 0) return [needle];
-  const host = layers[cand.layer];
-  const above = cand.offsetNm;
-  const below = host.thicknessNm - cand.offsetNm;
-  const parts: WorkLayer[] = [];
-  if (above > 1e-9) parts.push({ material: host.material, thicknessNm: above });
-  parts.push(needle);
-  if (below > 1e-9) parts.push({ material: host.material, thicknessNm: below });
-  return mergeSameMaterial([...layers.slice(0, cand.layer), ...parts, ...layers.slice(cand.layer + 1)]);
+/**
+ * The layers with a needle of each candidate's material inserted at its position (zero-thickness
+ * parts left out, neighbours of one material merged). Positions must be distinct.
+ */
+function insertNeedles(
+  layers: readonly WorkLayer[],
+  cands: readonly Candidate[],
+  needleNm: number,
+): WorkLayer[] {
+  if (layers.length === 0) return [{ material: cands[0].material, thicknessNm: needleNm }];
+  const list = layers.map((l) => ({ ...l }));
+  // Deepest first, so the layer indices of the shallower ones stay valid.
+  const order = [...cands].sort((x, y) => y.layer - x.layer || y.offsetNm - x.offsetNm);
+  for (const cand of order) {
+    const host = list[cand.layer];
+    const above = cand.offsetNm;
+    const below = host.thicknessNm - cand.offsetNm;
+    const parts: WorkLayer[] = [];
+    if (above > 1e-9) parts.push({ material: host.material, thicknessNm: above });
+    parts.push({ material: cand.material, thicknessNm: needleNm });
+    if (below > 1e-9) parts.push({ material: host.material, thicknessNm: below });
+    list.splice(cand.layer, 1, ...parts);
+  }
+  return mergeSameMaterial(list);
 }
 
 /**
