@@ -257,6 +257,31 @@ interface Candidate {
  * bad input (no allowed material, duplicate names, bounds with min > max, an empty mask, …).
  */
 export function growLayers(stack: OpticalStack, mask: SpecMask, options: GrowOptions): GrowResult {
+  const settings = growSettings(stack, options);
+  const work = startWork(settings, options.layerMaterials);
+  const { ctx, targetMarginPercent } = growContext(settings, work, mask, options);
+  const {
+    steps,
+    shown,
+    best: found,
+    stoppedBy,
+  } = runGrowth(ctx, work.layers, settings.maxSteps, targetMarginPercent, options.onStep);
+  let best = found;
+  // On the mask merit every kept step is better than the one before; on the smooth merit the
+  // thickened steps need not be, and the result is the best fitted design.
+  if (stoppedBy === 'maskMet' || stoppedBy === 'cancelled' || ctx.final === ctx.base)
+    best = { refined: shown, step: steps.length - 1 };
+  return {
+    steps,
+    final: steps[best.step],
+    stack: ctx.stackOf(best.refined.layers),
+    stoppedBy,
+    targetMarginPercent,
+  };
+}
+
+/** The validated options of one run, with their defaults. */
+function growSettings(stack: OpticalStack, options: GrowOptions) {
   const opts = plainObject(options, '');
   onlyKeys(opts, GROW_OPTION_KEYS, '');
   const start = validateOpticalStack(stack);
@@ -303,11 +328,38 @@ export function growLayers(stack: OpticalStack, mask: SpecMask, options: GrowOpt
     throw new OpticsInputError('maxLayers', `is below the start's ${start.layers.length} layers`);
   }
 
-  // Names and models in one list: allowed materials first, then start materials not among them.
+  return {
+    start,
+    materials,
+    minNm,
+    maxNm,
+    maxLayers,
+    maxTotal,
+    needleNm,
+    positionStep,
+    maxSteps,
+    maxIterations,
+    derivatives,
+    growthMerit,
+    needlesPerStep,
+    outermostFixed,
+    outermostOnly,
+    nextToSubstrate,
+  };
+}
+
+type GrowSettings = ReturnType<typeof growSettings>;
+
+/**
+ * The start's layers as indices into one list of names and models: the allowed materials first,
+ * then start materials not among them.
+ */
+function startWork(settings: GrowSettings, layerMaterials: string[] | undefined) {
+  const { start, materials } = settings;
   const names = materials.map((m) => m.name);
   const models = materials.map((m) => m.model);
   const keys = models.map((m) => JSON.stringify(m));
-  const startNames = startLayerNames(start, opts.layerMaterials, names, keys);
+  const startNames = startLayerNames(start, layerMaterials, names, keys);
   const layers: WorkLayer[] = start.layers.map((layer, i) => {
     const key = JSON.stringify(layer.material);
     let index = names.indexOf(startNames[i]);
@@ -325,6 +377,20 @@ export function growLayers(stack: OpticalStack, mask: SpecMask, options: GrowOpt
     }
     return { material: index, thicknessNm: layer.thicknessNm };
   });
+  return { names, models, layers };
+}
+
+/** The merits, buffers and limits every step of the run shares. */
+function growContext(
+  settings: GrowSettings,
+  work: ReturnType<typeof startWork>,
+  mask: SpecMask,
+  options: GrowOptions,
+): { ctx: GrowContext; targetMarginPercent: number } {
+  const { start, materials, minNm, maxNm, maxLayers, maxTotal, needleNm, positionStep } = settings;
+  const { maxIterations, derivatives, growthMerit, needlesPerStep, outermostFixed } = settings;
+  const { outermostOnly, nextToSubstrate } = settings;
+  const { names, models, layers } = work;
   const allowedCount = materials.length;
   // Quarter-wave thickness of each allowed material at the centre of the mask's wavelengths.
   const grid = maskGrid(mask);
@@ -371,6 +437,21 @@ export function growLayers(stack: OpticalStack, mask: SpecMask, options: GrowOpt
     outermostFixed,
     placementOk: placementRule(names, outermostOnly, nextToSubstrate, layers),
   };
+  return { ctx, targetMarginPercent };
+}
+
+/**
+ * The steps: refine the start, then insert needles (or whole layers, or thicken) and refine until
+ * the mask is met with the target margin or a limit or `onStep` stops it.
+ */
+function runGrowth(
+  ctx: GrowContext,
+  layers: WorkLayer[],
+  maxSteps: number,
+  targetMarginPercent: number,
+  onStep: GrowOptions['onStep'],
+): { steps: GrowStep[]; shown: Refined; best: { refined: Refined; step: number }; stoppedBy: GrowStop } {
+  const { minNm } = ctx;
   const steps: GrowStep[] = [];
   // Growing stops once the mask is met with the target margin, not at the first bare pass. The
   // refinement converges onto the tightened limits from either side, to within its step tolerance;
@@ -379,7 +460,7 @@ export function growLayers(stack: OpticalStack, mask: SpecMask, options: GrowOpt
   const record = (refined: Refined, inserted?: GrowStep['inserted']): boolean => {
     const step = growStep(ctx, steps.length, refined, inserted);
     steps.push(step);
-    return options.onStep?.(step) !== false;
+    return onStep?.(step) !== false;
   };
 
   let current = refine(ctx, layers, ctx.final === ctx.base ? minNm : 0);
@@ -431,17 +512,7 @@ export function growLayers(stack: OpticalStack, mask: SpecMask, options: GrowOpt
       }
     }
   }
-  // On the mask merit every kept step is better than the one before; on the smooth merit the
-  // thickened steps need not be, and the result is the best fitted design.
-  if (stoppedBy === 'maskMet' || stoppedBy === 'cancelled' || ctx.final === ctx.base)
-    best = { refined: shown, step: steps.length - 1 };
-  return {
-    steps,
-    final: steps[best.step],
-    stack: stackOf(best.refined.layers),
-    stoppedBy,
-    targetMarginPercent,
-  };
+  return { steps, shown, best, stoppedBy };
 }
 
 /** Settings and shared buffers of one Grow layers run. */
