@@ -19,6 +19,7 @@ import { QuotesModule } from './quotes/quotes.module.js';
 import { CustomerRecordsModule } from './customer-records/customer-records.module.js';
 import { ReportsModule } from './reports/reports.module.js';
 import { RunsModule } from './runs/runs.module.js';
+import { RunDiagnosisModule } from './runs/run-diagnosis.module.js';
 import { ShopSettingsModule } from './shop-settings/shop-settings.module.js';
 import { SpecMasksModule } from './spec-masks/spec-masks.module.js';
 import { UsersModule } from './users/users.module.js';
@@ -43,6 +44,7 @@ import { UsersModule } from './users/users.module.js';
     ShopSettingsModule,
     RecipesModule,
     RunsModule,
+    RunDiagnosisModule,
     ReportsModule,
     MailModule,
     QuotesModule,

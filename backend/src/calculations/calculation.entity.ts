@@ -1,11 +1,6 @@
 import { Column, CreateDateColumn, Entity, JoinColumn, ManyToOne, PrimaryGeneratedColumn } from 'typeorm';
 import type { AnalysisInput, AnalysisSummary } from '@quietglass/shared/analysis';
-import type {
-  CalculationKind,
-  CalculationStatus,
-  CalculationView,
-  LiveProgress,
-} from '@quietglass/shared/calculations';
+import type { CalculationKind, CalculationStatus, LiveProgress } from '@quietglass/shared/calculations';
 import type { OptimiseInput } from './optimise-jobs.js';
 import { User } from '../users/user.entity.js';
 
@@ -81,32 +76,4 @@ export class Calculation {
 
   @Column({ type: 'integer', default: 0 })
   attempts: number;
-}
-
-export function toCalculationView(c: Calculation): CalculationView {
-  return {
-    id: c.id,
-    kind: c.kind,
-    status: c.status,
-    progress: c.progress,
-    error: c.error,
-    designId: c.designId,
-    versionNumber: c.versionNumber,
-    request:
-      'request' in c.input
-        ? c.input.request
-        : 'options' in c.input
-          ? c.input.options
-          : { factorRange: c.input.factorRange },
-    summary: c.summary,
-    live: c.live,
-    runId: c.runId,
-    createdBy: c.createdBy.displayName,
-    createdAt: c.createdAt.toISOString(),
-    startedAt: c.startedAt?.toISOString() ?? null,
-    finishedAt: c.finishedAt?.toISOString() ?? null,
-    computeMs: c.computeMs,
-    processedBy: c.processedBy,
-    attempts: c.attempts,
-  };
 }

@@ -16,18 +16,16 @@ import { CurrentUser } from '../auth/current-user.decorator.js';
 import { Roles } from '../auth/roles.decorator.js';
 import { ZodBody } from '../common/zod-body.js';
 import type { User } from '../users/user.entity.js';
-import { toCalculationView } from './calculation.entity.js';
+import { toCalculationView } from './calculation-view.js';
 import { CalculationsService } from './calculations.service.js';
 import { OptimiseService } from './optimise.service.js';
 import type { CalculationView, LatestCalculations } from '@quietglass/shared/calculations';
 import {
   acceptRequestSchema,
-  diagnosisRequestSchema,
   fitRequestSchema,
   growRequestSchema,
   yieldRequestSchema,
   type AcceptRequest,
-  type DiagnosisRequest,
   type FitRequest,
   type GrowRequest,
   type YieldRequest,
@@ -91,19 +89,6 @@ export class CalculationsController {
     return this.reply(res, await this.optimise.yieldForecast(id, number, dto, user));
   }
 
-  /** Run diagnosis: which layers of a run most likely deviated, from its measured spectrum. */
-  @Post('runs/:id/spectra/:sid/diagnosis')
-  @ZodBody(diagnosisRequestSchema)
-  async diagnosis(
-    @Param('id', ParseIntPipe) id: number,
-    @Param('sid', ParseIntPipe) sid: number,
-    @Body() dto: DiagnosisRequest,
-    @CurrentUser() user: User,
-    @Res({ passthrough: true }) res: Response,
-  ) {
-    return this.reply(res, await this.optimise.diagnosis(id, sid, dto, user));
-  }
-
   /** A Fit to mask or Grow layers result becomes a new draft version. */
   @Post('calculations/:id/accept')
   @ZodBody(acceptRequestSchema)
@@ -140,16 +125,6 @@ export class CalculationsController {
     return Object.fromEntries(
       Object.entries(latest).map(([kind, c]) => [kind, c ? toCalculationView(c) : null]),
     ) as LatestCalculations;
-  }
-
-  /** The latest completed Run diagnosis of a chamber run, for the run page. */
-  @Get('runs/:id/diagnosis/latest')
-  @Roles('admin', 'engineer', 'operator')
-  async latestDiagnosis(
-    @Param('id', ParseIntPipe) id: number,
-  ): Promise<{ calculation: CalculationView | null }> {
-    const calc = await this.calculations.latestDiagnosis(id);
-    return { calculation: calc ? toCalculationView(calc) : null };
   }
 
   @Get('calculations')

@@ -23,6 +23,6 @@ import { OptimiseService } from './optimise.service.js';
   ],
   controllers: [CalculationsController],
   providers: [CalculationsService, OptimiseService],
-  exports: [CalculationsService],
+  exports: [CalculationsService, OptimiseService],
 })
 export class CalculationsModule {}
