@@ -1,3 +1,4 @@
+import type { Response } from 'express';
 import type { CalculationView } from '@quietglass/shared/calculations';
 import type { Calculation } from './calculation.entity.js';
 
@@ -28,4 +29,16 @@ export function toCalculationView(c: Calculation): CalculationView {
     processedBy: c.processedBy,
     attempts: c.attempts,
   };
+}
+
+/**
+ * The answer to a submitted job: 201 with the new queued calculation, or 200 with the identical
+ * one already queued or done (`reused`).
+ */
+export function queuedReply(
+  res: Response,
+  r: { calculation: Calculation; reused: boolean },
+): CalculationView & { reused: boolean } {
+  res.status(r.reused ? 200 : 201);
+  return { ...toCalculationView(r.calculation), reused: r.reused };
 }

@@ -16,7 +16,7 @@ import { CurrentUser } from '../auth/current-user.decorator.js';
 import { Roles } from '../auth/roles.decorator.js';
 import { ZodBody } from '../common/zod-body.js';
 import type { User } from '../users/user.entity.js';
-import { toCalculationView } from './calculation-view.js';
+import { queuedReply, toCalculationView } from './calculation-view.js';
 import { CalculationsService } from './calculations.service.js';
 import { OptimiseService } from './optimise.service.js';
 import type { CalculationView, LatestCalculations } from '@quietglass/shared/calculations';
@@ -31,7 +31,6 @@ import {
   type YieldRequest,
 } from '@quietglass/shared/schemas/optimise';
 import type { DesignVersionView } from '@quietglass/shared/designs';
-import type { Calculation } from './calculation.entity.js';
 
 /** The compute queue: engineers submit and cancel; results are readable by the office roles. */
 @Controller()
@@ -41,14 +40,6 @@ export class CalculationsController {
     private readonly calculations: CalculationsService,
     private readonly optimise: OptimiseService,
   ) {}
-
-  private reply(
-    res: Response,
-    r: { calculation: Calculation; reused: boolean },
-  ): CalculationView & { reused: boolean } {
-    res.status(r.reused ? 200 : 201);
-    return { ...toCalculationView(r.calculation), reused: r.reused };
-  }
 
   /** Fit to mask: Levenberg–Marquardt over the unlocked layers' thicknesses. */
   @Post('designs/:id/versions/:number/fit')
@@ -60,7 +51,7 @@ export class CalculationsController {
     @CurrentUser() user: User,
     @Res({ passthrough: true }) res: Response,
   ) {
-    return this.reply(res, await this.optimise.fit(id, number, dto, user));
+    return queuedReply(res, await this.optimise.fit(id, number, dto, user));
   }
 
   /** Grow layers: needle synthesis from the version's stack with the allowed materials. */
@@ -73,7 +64,7 @@ export class CalculationsController {
     @CurrentUser() user: User,
     @Res({ passthrough: true }) res: Response,
   ) {
-    return this.reply(res, await this.optimise.grow(id, number, dto, user));
+    return queuedReply(res, await this.optimise.grow(id, number, dto, user));
   }
 
   /** Yield forecast: seeded Monte Carlo of thickness (and index) errors against the mask. */
@@ -86,7 +77,7 @@ export class CalculationsController {
     @CurrentUser() user: User,
     @Res({ passthrough: true }) res: Response,
   ) {
-    return this.reply(res, await this.optimise.yieldForecast(id, number, dto, user));
+    return queuedReply(res, await this.optimise.yieldForecast(id, number, dto, user));
   }
 
   /** A Fit to mask or Grow layers result becomes a new draft version. */
@@ -109,9 +100,7 @@ export class CalculationsController {
     @CurrentUser() user: User,
     @Res({ passthrough: true }) res: Response,
   ): Promise<CalculationView & { reused: boolean }> {
-    const { calculation, reused } = await this.calculations.submitAnalysis(id, number, body, user);
-    res.status(reused ? 200 : 201);
-    return { ...toCalculationView(calculation), reused };
+    return queuedReply(res, await this.calculations.submitAnalysis(id, number, body, user));
   }
 
   /** The latest completed result of each kind for a version, with when and by whom it was run. */

@@ -4,7 +4,7 @@ import type { CalculationView } from '@quietglass/shared/calculations';
 import { diagnosisRequestSchema, type DiagnosisRequest } from '@quietglass/shared/schemas/optimise';
 import { CurrentUser } from '../auth/current-user.decorator.js';
 import { Roles } from '../auth/roles.decorator.js';
-import { toCalculationView } from '../calculations/calculation-view.js';
+import { queuedReply, toCalculationView } from '../calculations/calculation-view.js';
 import { CalculationsService } from '../calculations/calculations.service.js';
 import { OptimiseService } from '../calculations/optimise.service.js';
 import { ZodBody } from '../common/zod-body.js';
@@ -32,9 +32,7 @@ export class RunDiagnosisController {
     @CurrentUser() user: User,
     @Res({ passthrough: true }) res: Response,
   ): Promise<CalculationView & { reused: boolean }> {
-    const { calculation, reused } = await this.optimise.diagnosis(id, sid, dto, user);
-    res.status(reused ? 200 : 201);
-    return { ...toCalculationView(calculation), reused };
+    return queuedReply(res, await this.optimise.diagnosis(id, sid, dto, user));
   }
 
   /** The latest completed Run diagnosis of the run, for the run page. */
