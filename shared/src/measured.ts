@@ -109,12 +109,12 @@ export function evaluateMaskOnMeasured(mask: SpecMask, measured: MeasuredSpectru
   const evaluated = bands.filter((b) => b.evaluated);
   let worstBand: number | null = null;
   let worstMargin: number | null = null;
-  bands.forEach((b, i) => {
+  for (const [i, b] of bands.entries()) {
     if (b.evaluated && (worstMargin === null || (b.worstMargin as number) < worstMargin)) {
       worstBand = i;
       worstMargin = b.worstMargin as number;
     }
-  });
+  }
   let pass: boolean | null = null;
   if (evaluated.some((b) => !b.pass)) pass = false;
   else if (evaluated.length === bands.length) pass = true;

@@ -11,7 +11,10 @@ export function finiteNumber(typeMessage: string) {
   return z.number({ error: typeMessage });
 }
 
-/** The id of a record chosen from a list; `message` when none (or no valid one) is chosen. */
+/**
+ * The id or number of a record (one chosen from a list, a version number, a deposition step): a
+ * whole number from 1; `message` when it is missing or not one.
+ */
 export function recordId(message: string) {
   return z.number({ error: message }).int({ error: message }).positive({ error: message });
 }

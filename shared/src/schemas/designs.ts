@@ -94,10 +94,7 @@ export type UpdateDesignInput = z.output<typeof updateDesignSchema>;
 
 /** A new draft copied from a version, or with the content of an imported stack file instead. */
 export const newVersionSchema = z.strictObject({
-  fromNumber: z
-    .number({ error: 'fromNumber must be the number of the version to start from' })
-    .int({ error: 'fromNumber must be the number of the version to start from' })
-    .min(1, { error: 'fromNumber must be the number of the version to start from' }),
+  fromNumber: recordId('fromNumber must be the number of the version to start from'),
   content: versionContentSchema.optional(),
   /** Name of the stack file the content came from, for the audit trail. */
   sourceFile: requiredText('Enter the name of the stack file', DESIGN_LIMITS.sourceFileLength).optional(),

@@ -56,10 +56,7 @@ export type StartRunInput = z.output<typeof startRunSchema>;
 
 /** What the monitor showed for one deposition step (the API checks the step against the recipe). */
 export const layerReadingSchema = z.strictObject({
-  step: z
-    .number({ error: 'step must be a deposition step number (1 = next to the substrate)' })
-    .int({ error: 'step must be a deposition step number (1 = next to the substrate)' })
-    .min(1, { error: 'step must be a deposition step number (1 = next to the substrate)' }),
+  step: recordId('step must be a deposition step number (1 = next to the substrate)'),
   monitorThicknessNm: omissiblePositive('Monitor thickness must be a number > 0'),
   rateNmPerS: omissiblePositive('Rate must be a number > 0'),
   notes: omissibleText(RUN_LIMITS.layerNotesLength),
