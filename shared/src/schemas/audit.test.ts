@@ -1,11 +1,8 @@
 import { describe, expect, it } from 'vitest';
 import { auditQuerySchema } from './audit.js';
-import { issueLines } from './common.js';
+import { problems } from './__tests__/problems.js';
 
-function problems(query: Record<string, unknown>): string[] {
-  const parsed = auditQuerySchema.safeParse(query);
-  return parsed.success ? [] : issueLines(parsed.error);
-}
+const auditProblems = (query: Record<string, unknown>) => problems(auditQuerySchema, query);
 
 describe('audit trail query', () => {
   it('reads ids from the text of a query string', () => {
@@ -30,12 +27,12 @@ describe('audit trail query', () => {
     ],
     [{ page: '2' }, /^Unrecognized key: "page"$/],
   ])('refuses %j', (query, expected) => {
-    const lines = problems(query);
+    const lines = auditProblems(query);
     expect(lines).toHaveLength(1);
     expect(lines[0]).toMatch(expected);
   });
 
   it('takes designId with entity=design', () => {
-    expect(problems({ designId: '4', entity: 'design' })).toEqual([]);
+    expect(auditProblems({ designId: '4', entity: 'design' })).toEqual([]);
   });
 });

@@ -1,6 +1,7 @@
 import { describe, expect, it } from 'vitest';
 import { chamberInputSchema, chamberUpdateSchema } from './chambers.js';
 import { issueLines } from './common.js';
+import { problems } from './__tests__/problems.js';
 
 const good = {
   name: '  Box coater 2 ',
@@ -12,10 +13,7 @@ const good = {
   ],
 };
 
-function problems(body: unknown): string[] {
-  const parsed = chamberInputSchema.safeParse(body);
-  return parsed.success ? [] : issueLines(parsed.error);
-}
+const chamberProblems = (body: unknown) => problems(chamberInputSchema, body);
 
 describe('chamber input schema', () => {
   it('trims the name and fills missing notes with empty text', () => {
@@ -71,11 +69,11 @@ describe('chamber input schema', () => {
     ],
     [{ notes: 'x'.repeat(4001) }, 'notes: At most 4000 characters'],
   ])('refuses %j with one message at the field', (patch, expected) => {
-    expect(problems({ ...good, ...patch })).toEqual([expected]);
+    expect(chamberProblems({ ...good, ...patch })).toEqual([expected]);
   });
 
   it('refuses a field it does not know, as the API did before', () => {
-    expect(problems({ ...good, colour: 'red' })).toEqual(['Unrecognized key: "colour"']);
+    expect(chamberProblems({ ...good, colour: 'red' })).toEqual(['Unrecognized key: "colour"']);
   });
 
   it('an edit needs the version it was based on', () => {

@@ -1,12 +1,6 @@
 import { describe, expect, it } from 'vitest';
-import { z } from 'zod';
-import { issueLines } from './common.js';
 import { customerInputSchema, customerUpdateSchema, customerVersionSchema } from './customers.js';
-
-const lines = (schema: z.ZodType, body: unknown) => {
-  const parsed = schema.safeParse(body);
-  return parsed.success ? [] : issueLines(parsed.error);
-};
+import { problems } from './__tests__/problems.js';
 
 describe('customer schemas', () => {
   it('fills a new customer with no e-mail, notes or contacts', () => {
@@ -63,7 +57,7 @@ describe('customer schemas', () => {
     [{ contacts: Array(21).fill({ name: 'Ona', email: 'ona@t.example' }) }, 'contacts: At most 20 contacts'],
     [{ contacts: 'Ona' }, 'contacts: contacts must be a list of contacts'],
   ])('refuses %j', (patch, line) => {
-    expect(lines(customerInputSchema, { name: 'Quillon Optics', ...patch })).toContain(line);
+    expect(problems(customerInputSchema, { name: 'Quillon Optics', ...patch })).toContain(line);
   });
 
   it('an edit leaves out what stays, clears the e-mail with null, and needs the version', () => {
@@ -72,9 +66,9 @@ describe('customer schemas', () => {
       version: 3,
     });
     expect(customerUpdateSchema.parse({ name: 'Q', contactEmail: null, version: 3 }).contactEmail).toBeNull();
-    expect(lines(customerUpdateSchema, { name: 'Q' })).toEqual([
+    expect(problems(customerUpdateSchema, { name: 'Q' })).toEqual([
       'version: version must be the version number last read',
     ]);
-    expect(lines(customerVersionSchema, { version: 0 })).toEqual(['version: version must be at least 1']);
+    expect(problems(customerVersionSchema, { version: 0 })).toEqual(['version: version must be at least 1']);
   });
 });

@@ -1,6 +1,4 @@
 import { describe, expect, it } from 'vitest';
-import type { z } from 'zod';
-import { issueLines } from './common.js';
 import {
   DESIGN_LIMITS,
   createDesignSchema,
@@ -11,6 +9,7 @@ import {
   transitionSchema,
   updateDesignSchema,
 } from './designs.js';
+import { problems } from './__tests__/problems.js';
 
 const content = {
   incidentMaterialId: 1,
@@ -24,11 +23,6 @@ const content = {
   ],
 };
 const design = { ...content, name: ' Lens AR ', customerId: 5 };
-
-function problems(schema: z.ZodType, body: unknown): string[] {
-  const parsed = schema.safeParse(body);
-  return parsed.success ? [] : issueLines(parsed.error);
-}
 
 describe('design schemas', () => {
   it('trims the name and fills layer and version defaults', () => {

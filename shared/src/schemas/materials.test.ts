@@ -1,17 +1,11 @@
 import { describe, expect, it } from 'vitest';
-import type { z } from 'zod';
-import { issueLines } from './common.js';
 import {
   importConstantsFileSchema,
   importMaterialCsvSchema,
   materialInputSchema,
   materialUpdateSchema,
 } from './materials.js';
-
-function problems(schema: z.ZodType, body: unknown): string[] {
-  const parsed = schema.safeParse(body);
-  return parsed.success ? [] : issueLines(parsed.error);
-}
+import { problems } from './__tests__/problems.js';
 
 // Invented materials; the numbers only need to give a physical index.
 const good = {

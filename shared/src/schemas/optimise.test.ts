@@ -1,6 +1,4 @@
 import { describe, expect, it } from 'vitest';
-import type { z } from 'zod';
-import { issueLines } from './common.js';
 import {
   acceptRequestSchema,
   diagnosisRequestSchema,
@@ -9,11 +7,7 @@ import {
   yieldRequestSchema,
 } from './optimise.js';
 import { shopTargetMarginSchema } from './shop.js';
-
-function problems(schema: z.ZodType, body: unknown): string[] {
-  const parsed = schema.safeParse(body);
-  return parsed.success ? [] : issueLines(parsed.error);
-}
+import { problems } from './__tests__/problems.js';
 
 describe('Fit to mask request', () => {
   it("fills the engine's defaults and leaves the target margin to the shop", () => {

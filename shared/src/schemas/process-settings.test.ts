@@ -1,6 +1,7 @@
 import { describe, expect, it } from 'vitest';
 import { issueLines } from './common.js';
 import { processSettingsSchema } from './process-settings.js';
+import { problems } from './__tests__/problems.js';
 
 const row = {
   materialId: 5,
@@ -9,10 +10,8 @@ const row = {
   o2FlowSccm: 12,
 };
 
-function problems(patch: object, version = 0): string[] {
-  const parsed = processSettingsSchema.safeParse({ settings: [{ ...row, ...patch }], version });
-  return parsed.success ? [] : issueLines(parsed.error);
-}
+const settingProblems = (patch: object, version = 0) =>
+  problems(processSettingsSchema, { settings: [{ ...row, ...patch }], version });
 
 describe('process settings schema', () => {
   it('fills unused quantities with null and trims the note', () => {
@@ -52,7 +51,7 @@ describe('process settings schema', () => {
     [{ materialId: 0 }, 'settings.0.materialId: Choose a material'],
     [{ colour: 'red' }, 'settings.0: Unrecognized key: "colour"'],
   ])('refuses %j with one message at the field', (patch, expected) => {
-    expect(problems(patch)).toEqual([expected]);
+    expect(settingProblems(patch)).toEqual([expected]);
   });
 
   it('refuses a material listed twice and a version that was never read', () => {

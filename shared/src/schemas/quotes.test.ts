@@ -1,13 +1,8 @@
 import { describe, expect, it } from 'vitest';
-import { z } from 'zod';
 import { todayUtc } from '../quotes.js';
-import { issueLines } from './common.js';
 import { attachReportsSchema, quoteDecisionSchema, quoteInputSchema, quoteUpdateSchema } from './quotes.js';
+import { problems } from './__tests__/problems.js';
 
-const lines = (schema: z.ZodType, body: unknown) => {
-  const parsed = schema.safeParse(body);
-  return parsed.success ? [] : issueLines(parsed.error);
-};
 const inDays = (d: number) => todayUtc(new Date(Date.now() + d * 86_400_000));
 
 const quote = () => ({
@@ -91,7 +86,7 @@ describe('quote schemas', () => {
     [{ terms: 'x'.repeat(8001) }, 'terms: At most 8000 characters'],
     [{ colour: 'red' }, 'Unrecognized key: "colour"'],
   ])('refuses %j', (patch, line) => {
-    expect(lines(quoteInputSchema, { ...quote(), ...patch })).toContain(line);
+    expect(problems(quoteInputSchema, { ...quote(), ...patch })).toContain(line);
   });
 
   it('keeps prices of four decimals and tomorrow as the validity date', () => {
@@ -100,27 +95,27 @@ describe('quote schemas', () => {
       validUntil: inDays(1),
       quantityBreaks: [{ minQuantity: 1, unitPrice: 0.0001 }],
     };
-    expect(lines(quoteInputSchema, body)).toEqual([]);
+    expect(problems(quoteInputSchema, body)).toEqual([]);
   });
 
   it('an edit needs the version it was based on', () => {
-    expect(lines(quoteUpdateSchema, quote())).toEqual([
+    expect(problems(quoteUpdateSchema, quote())).toEqual([
       'version: version must be the version number last read',
     ]);
   });
 
   it('attaches at most 10 reports by id, and takes accepted or declined as the answer', () => {
-    expect(lines(attachReportsSchema, { reportIds: [1, 'x'] })).toEqual([
+    expect(problems(attachReportsSchema, { reportIds: [1, 'x'] })).toEqual([
       'reportIds.1: reportIds must hold report ids',
     ]);
-    expect(lines(attachReportsSchema, { reportIds: Array.from({ length: 11 }, (_, i) => i + 1) })).toEqual([
-      'reportIds: At most 10 reports at once',
-    ]);
+    expect(problems(attachReportsSchema, { reportIds: Array.from({ length: 11 }, (_, i) => i + 1) })).toEqual(
+      ['reportIds: At most 10 reports at once'],
+    );
     expect(quoteDecisionSchema.parse({ status: 'accepted' })).toEqual({ status: 'accepted' });
-    expect(lines(quoteDecisionSchema, { status: 'maybe' })).toEqual([
+    expect(problems(quoteDecisionSchema, { status: 'maybe' })).toEqual([
       'status: status must be accepted or declined',
     ]);
-    expect(lines(quoteDecisionSchema, { status: 'declined', note: 'x'.repeat(2001) })).toEqual([
+    expect(problems(quoteDecisionSchema, { status: 'declined', note: 'x'.repeat(2001) })).toEqual([
       'note: At most 2000 characters',
     ]);
   });

@@ -1,11 +1,8 @@
 import { describe, expect, it } from 'vitest';
-import { issueLines } from './common.js';
 import { createReportSchema } from './reports.js';
+import { problems } from './__tests__/problems.js';
 
-const lines = (body: unknown) => {
-  const parsed = createReportSchema.safeParse(body);
-  return parsed.success ? [] : issueLines(parsed.error);
-};
+const reportProblems = (body: unknown) => problems(createReportSchema, body);
 
 describe('compliance report schema', () => {
   it("shows the layers unless asked, and leaves the mask to the design's own when not named", () => {
@@ -26,10 +23,10 @@ describe('compliance report schema', () => {
     [{ spectrumId: 4 }, 'runId: Give the run and its spectrum together'],
     [{ pages: 2 }, 'Unrecognized key: "pages"'],
   ])('refuses %j', (patch, line) => {
-    expect(lines({ designId: 12, versionNumber: 3, ...patch })).toContain(line);
+    expect(reportProblems({ designId: 12, versionNumber: 3, ...patch })).toContain(line);
   });
 
   it('takes a run and its spectrum together', () => {
-    expect(lines({ designId: 12, versionNumber: 3, runId: 7, spectrumId: 4 })).toEqual([]);
+    expect(reportProblems({ designId: 12, versionNumber: 3, runId: 7, spectrumId: 4 })).toEqual([]);
   });
 });

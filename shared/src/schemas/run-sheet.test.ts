@@ -1,11 +1,9 @@
 import { describe, expect, it } from 'vitest';
-import { issueLines } from './common.js';
 import { runSheetQuerySchema } from './run-sheet.js';
+import { problems } from './__tests__/problems.js';
 
-function problems(query: Record<string, unknown>): string[] {
-  const parsed = runSheetQuerySchema.safeParse({ chamberId: '7', ...query });
-  return parsed.success ? [] : issueLines(parsed.error);
-}
+const queryProblems = (query: Record<string, unknown>) =>
+  problems(runSheetQuerySchema, { chamberId: '7', ...query });
 
 describe('run sheet query', () => {
   it('reads numbers from the text of a query string and trims the part', () => {
@@ -44,6 +42,6 @@ describe('run sheet query', () => {
     [{ sides: 'back' }, 'sides: sides must be one of front, both'],
     [{ colour: 'red' }, 'Unrecognized key: "colour"'],
   ])('refuses %j', (query, expected) => {
-    expect(problems(query)).toEqual([expected]);
+    expect(queryProblems(query)).toEqual([expected]);
   });
 });

@@ -1,13 +1,7 @@
 import { describe, expect, it } from 'vitest';
 import { RUN_REMARK_MAX_LENGTH } from '../runs.js';
-import { issueLines } from './common.js';
 import { runRemarkSchema, startRunSchema, updateRunSchema, uploadSpectrumSchema } from './runs.js';
-import type { z } from 'zod';
-
-function problems(schema: z.ZodType, body: unknown): string[] {
-  const parsed = schema.safeParse(body);
-  return parsed.success ? [] : issueLines(parsed.error);
-}
+import { problems } from './__tests__/problems.js';
 
 // An invented lot of an invented recipe.
 const start = {

@@ -1,12 +1,6 @@
 import { describe, expect, it } from 'vitest';
-import { z } from 'zod';
-import { issueLines } from './common.js';
 import { shopLogoSchema, shopNameSchema, shopTargetMarginSchema } from './shop.js';
-
-const lines = (schema: z.ZodType, body: unknown) => {
-  const parsed = schema.safeParse(body);
-  return parsed.success ? [] : issueLines(parsed.error);
-};
+import { problems } from './__tests__/problems.js';
 
 describe('shop settings schemas', () => {
   it('trims the shop name; version 0 is the first save', () => {
@@ -22,7 +16,7 @@ describe('shop settings schemas', () => {
     [{ shopName: 'Fine', version: -1 }, 'version: version must be the version you read'],
     [{ shopName: 'Fine', version: 0, colour: 'red' }, 'Unrecognized key: "colour"'],
   ])('refuses the name %j', (body, expected) => {
-    expect(lines(shopNameSchema, body)).toEqual([expected]);
+    expect(problems(shopNameSchema, body)).toEqual([expected]);
   });
 
   it.each([
@@ -31,12 +25,12 @@ describe('shop settings schemas', () => {
     ['0.2', 'targetMarginPercent: A number from 0 to 5 percentage points'],
     [undefined, 'targetMarginPercent: A number from 0 to 5 percentage points'],
   ])('refuses the target margin %j', (targetMarginPercent, expected) => {
-    expect(lines(shopTargetMarginSchema, { targetMarginPercent, version: 3 })).toEqual([expected]);
+    expect(problems(shopTargetMarginSchema, { targetMarginPercent, version: 3 })).toEqual([expected]);
   });
 
   it('accepts margins from 0 to 5 percentage points', () => {
-    expect(lines(shopTargetMarginSchema, { targetMarginPercent: 0, version: 3 })).toEqual([]);
-    expect(lines(shopTargetMarginSchema, { targetMarginPercent: 5, version: 3 })).toEqual([]);
+    expect(problems(shopTargetMarginSchema, { targetMarginPercent: 0, version: 3 })).toEqual([]);
+    expect(problems(shopTargetMarginSchema, { targetMarginPercent: 5, version: 3 })).toEqual([]);
   });
 
   it.each([
@@ -51,6 +45,6 @@ describe('shop settings schemas', () => {
       'dataBase64: The logo must be at most 512 KB',
     ],
   ])('refuses the logo %#', (body, expected) => {
-    expect(lines(shopLogoSchema, { ...body, version: 1 })).toEqual([expected]);
+    expect(problems(shopLogoSchema, { ...body, version: 1 })).toEqual([expected]);
   });
 });

@@ -8,14 +8,12 @@ import {
   specMaskInputSchema,
   specMaskUpdateSchema,
 } from './spec-masks.js';
+import { problems } from './__tests__/problems.js';
 
 const broadband = { from_nm: 420, to_nm: 680, quantity: 'R', max_percent: 0.5 };
 const good = { name: ' HVS-3000 AR ', customerId: 4, revision: ' A ', bands: [broadband] };
 
-function problems(body: unknown, schema: z.ZodType = specMaskInputSchema): string[] {
-  const parsed = schema.safeParse(body);
-  return parsed.success ? [] : issueLines(parsed.error);
-}
+const maskProblems = (body: unknown, schema: z.ZodType = specMaskInputSchema) => problems(schema, body);
 
 describe('spec mask schemas', () => {
   it('trims name and revision and hands over the bands as the engine normalised them', () => {
@@ -41,7 +39,7 @@ describe('spec mask schemas', () => {
     [{ bands: [] }, 'bands: must hold at least one limit band'],
     [{ colour: 'red' }, 'Unrecognized key: "colour"'],
   ])('refuses %j with one message at the field', (patch, expected) => {
-    expect(problems({ ...good, ...patch })).toEqual([expected]);
+    expect(maskProblems({ ...good, ...patch })).toEqual([expected]);
   });
 
   it("names every bad band at once, at the engine's field, in the engine's words", () => {
@@ -51,7 +49,7 @@ describe('spec mask schemas', () => {
       { ...broadband, angles_deg: [0, 95] },
       { ...broadband, max_percent: 'NaN' },
     ];
-    expect(problems({ ...good, bands })).toEqual([
+    expect(maskProblems({ ...good, bands })).toEqual([
       'bands.0.from_nm: must not exceed to_nm (700 nm > 680 nm)',
       'bands.2.angles_deg.1: angle of incidence must be at least 0° and below 90° (got 95)',
       'bands.3.max_percent: must be a finite number (got "NaN")',
@@ -59,7 +57,7 @@ describe('spec mask schemas', () => {
   });
 
   it('checks the bands together once each band is sound: contradicting bands are refused at the later one', () => {
-    const lines = problems({
+    const lines = maskProblems({
       ...good,
       bands: [broadband, { from_nm: 500, to_nm: 600, quantity: 'R', min_percent: 2 }],
     });
@@ -75,7 +73,7 @@ describe('spec mask schemas', () => {
   });
 
   it('an edit needs the version it was based on', () => {
-    expect(problems(good, specMaskUpdateSchema)).toEqual([
+    expect(maskProblems(good, specMaskUpdateSchema)).toEqual([
       'version: version must be the version number last read',
     ]);
     expect(specMaskUpdateSchema.parse({ ...good, version: 3 }).version).toBe(3);
@@ -84,10 +82,12 @@ describe('spec mask schemas', () => {
   it('a CSV import takes the details and the file text instead of bands', () => {
     const { bands: _bands, ...details } = good;
     expect(specMaskCsvImportSchema.parse({ ...details, csv: 'from_nm,to_nm\n' }).csv).toBe('from_nm,to_nm\n');
-    expect(problems({ ...details, csv: 3 }, specMaskCsvImportSchema)).toEqual([
+    expect(maskProblems({ ...details, csv: 3 }, specMaskCsvImportSchema)).toEqual([
       'csv: csv must be the text of the file',
     ]);
-    expect(problems({ ...good, csv: '' }, specMaskCsvImportSchema)).toEqual(['Unrecognized key: "bands"']);
+    expect(maskProblems({ ...good, csv: '' }, specMaskCsvImportSchema)).toEqual([
+      'Unrecognized key: "bands"',
+    ]);
   });
 
   it('reads engine field paths as path segments', () => {
