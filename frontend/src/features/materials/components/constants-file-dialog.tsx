@@ -1,7 +1,7 @@
 import Alert from '@mui/material/Alert';
 import Box from '@mui/material/Box';
 import Typography from '@mui/material/Typography';
-import { parseConstantsFile, type ConstantsFile } from '@quietglass/shared';
+import { MAX_CONSTANTS_FILE_CHARS, parseConstantsFile, type ConstantsFile } from '@quietglass/shared';
 import { useMemo, useState } from 'react';
 import { useForm } from 'react-hook-form';
 import { ErrorAlert } from '../../../components/error-alert';
@@ -17,8 +17,11 @@ import { useImportConstantsFile } from '../api/import-constants-file';
 import { materialRules } from '../material-form';
 import { indexCurve } from './material-detail';
 
-/** Largest constants file offered to the API (bytes). */
-const MAX_CONSTANTS_FILE_BYTES = 2_000_000;
+/**
+ * Largest constants file offered to the API, in bytes: the engine's limit in characters (a file
+ * has at least as many bytes as characters, so one under it is never refused for its size).
+ */
+const MAX_CONSTANTS_FILE_BYTES = MAX_CONSTANTS_FILE_CHARS;
 
 interface ConstantsValues {
   name: string;
