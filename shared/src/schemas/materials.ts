@@ -15,6 +15,7 @@ import { evaluateIndex, validateMaterialModel, type MaterialModel } from '../opt
 import { OpticsInputError } from '../optics/errors.js';
 import {
   calendarDate,
+  enginePath,
   fileNameField,
   finiteNumber,
   optionalText,
@@ -62,11 +63,6 @@ export function checkMaterialModel(raw: unknown, rangeNm: { from: number; to: nu
     grid[i] = rangeNm.from + ((rangeNm.to - rangeNm.from) * i) / (grid.length - 1);
   evaluateIndex({ n: new Float64Array(grid.length), k: new Float64Array(grid.length) }, model, grid, 'model');
   return model;
-}
-
-/** An engine field path (`model.wavelengths[3]`) as a schema path (`['model', 'wavelengths', 3]`). */
-function pathOf(field: string): (string | number)[] {
-  return [...field.matchAll(/[^.[\]]+/g)].map(([part]) => (/^\d+$/.test(part) ? Number(part) : part));
 }
 
 export const provenanceSchema = z.strictObject(
@@ -169,7 +165,7 @@ function resolvedMaterial<T extends z.output<typeof materialFields>>(input: T, c
     model = checkMaterialModel(input.model, input.rangeNm);
   } catch (error) {
     if (!(error instanceof OpticsInputError)) throw error;
-    ctx.addIssue({ code: 'custom', path: pathOf(error.field), message: error.problem });
+    ctx.addIssue({ code: 'custom', path: enginePath(error.field), message: error.problem });
   }
   if (!provenance || !model) return z.NEVER;
   const { typical: _typical, ...rest } = input;
