@@ -202,6 +202,33 @@ describe('Grow layers', () => {
       'outermostOnlyMaterialIds.0: This material is not among the allowed materials',
     ]);
   });
+
+  it('grows on the smooth merit when asked, and refuses a merit it does not know', async () => {
+    const id = await create(design('Grow smooth', [['MgF2', 99.6]]));
+    const sub = await http()
+      .post(`/api/designs/${id}/versions/1/grow`)
+      .set('Cookie', mira)
+      .send({
+        allowedMaterialIds: [m['SiO2'], m['TiO2']],
+        maxSteps: 2,
+        growthMerit: 'smooth',
+        needlesPerStep: 2,
+      });
+    expect(sub.status, JSON.stringify(sub.body)).toBe(201);
+    expect(sub.body.request).toMatchObject({ growthMerit: 'smooth', needlesPerStep: 2 });
+    const byDefault = await http()
+      .post(`/api/designs/${id}/versions/1/grow`)
+      .set('Cookie', mira)
+      .send({ allowedMaterialIds: [m['SiO2'], m['TiO2']], maxSteps: 2 });
+    expect(byDefault.body.request).toMatchObject({ growthMerit: 'mask', needlesPerStep: 3 });
+    const unknown = await http()
+      .post(`/api/designs/${id}/versions/1/grow`)
+      .set('Cookie', mira)
+      .send({ allowedMaterialIds: [m['SiO2']], growthMerit: 'flat' });
+    expect(unknown.status).toBe(400);
+    expect(unknown.body.details).toEqual(['growthMerit: Grow on must be smooth or mask']);
+    expect((await finished(sub.body.id, 120_000)).status).toBe('completed');
+  });
 });
 
 describe('Yield forecast', () => {
@@ -346,6 +373,8 @@ describe('optimisation requests', () => {
     const grow = bodyOf('/api/designs/{id}/versions/{number}/grow');
     expect(grow.required).toEqual(['allowedMaterialIds']);
     expect(grow.properties.allowedMaterialIds!.maxItems).toBe(8);
+    expect(grow.properties.growthMerit).toMatchObject({ enum: ['smooth', 'mask'], default: 'mask' });
+    expect(grow.properties.needlesPerStep).toMatchObject({ default: 3, maximum: 10 });
     const forecast = bodyOf('/api/designs/{id}/versions/{number}/yield');
     expect(forecast.required).toEqual(['thickness']);
     expect(forecast.properties.trials).toMatchObject({ default: 2000, maximum: 100000 });

@@ -1,7 +1,8 @@
 import { describe, expect, it } from 'vitest';
-import type { GrowResult } from '@quietglass/shared/optimise/needle';
+import { growLayers, type GrowResult } from '@quietglass/shared/optimise/needle';
 import { grownLayerMaterialId } from '@quietglass/shared/calculations';
 import { RESULT_FORECAST, forecastResult } from '@quietglass/shared/optimise/result-forecast';
+import { parseStack } from '@quietglass/shared/optics/stack';
 import { runOptimiseJob, type GrowInput } from './optimise-jobs.js';
 
 /*
@@ -57,6 +58,32 @@ describe('grownLayerMaterialId', () => {
     expect(grownLayerMaterialId('layers[0]', [4], byName)).toBe(4);
     expect(grownLayerMaterialId('layers[3]', [4], byName)).toBeUndefined();
     expect(grownLayerMaterialId('ZrO2', [4], byName)).toBeUndefined();
+  });
+});
+
+describe('a Grow layers job', () => {
+  it('grows on the merit and with the needles per step it was asked for', () => {
+    const asked = {
+      ...INPUT,
+      options: { ...INPUT.options, growthMerit: 'smooth' as const, needlesPerStep: 1 },
+    };
+    const result = runOptimiseJob(asked, () => true) as GrowResult;
+    // The same growth run directly on the engine with the same settings grows the same design.
+    const direct = growLayers(
+      parseStack(INPUT.stack),
+      { bands: INPUT.bands },
+      {
+        back: 'none',
+        allowedMaterials: INPUT.allowed.map(({ name, model }) => ({ name, model })),
+        ...INPUT.options,
+        growthMerit: 'smooth',
+        needlesPerStep: 1,
+      },
+    );
+    expect(result.final.layers).toEqual(direct.final.layers);
+    // ...and not the one the default (mask) merit grows, so the setting reached the engine.
+    const byDefault = runOptimiseJob(INPUT, () => true) as GrowResult;
+    expect(result.final.layers).not.toEqual(byDefault.final.layers);
   });
 });
 

@@ -5,7 +5,12 @@
  */
 import { maskSamples, type JobSize } from '@quietglass/shared/budgets';
 import type { DiagnosisResult } from '@quietglass/shared/calculations';
-import { growLayers, type AllowedMaterial, type GrowResult } from '@quietglass/shared/optimise/needle';
+import {
+  growLayers,
+  type AllowedMaterial,
+  type GrowResult,
+  type GrowthMerit,
+} from '@quietglass/shared/optimise/needle';
 import { fitToMask, type FitResult } from '@quietglass/shared/optimise/fit';
 import { diagnoseRun } from '@quietglass/shared/optimise/diagnosis';
 import { forecastResult } from '@quietglass/shared/optimise/result-forecast';
@@ -49,6 +54,9 @@ export interface GrowInput extends Base {
     minThicknessNm: number;
     maxSteps: number;
     marginPercent?: number;
+    /** Absent in jobs queued before the choice existed: the engine's default. */
+    growthMerit?: GrowthMerit;
+    needlesPerStep?: number;
     /** Material names (of `allowed`) that may only be outermost / the only ones next to the substrate. */
     outermostOnly?: string[];
     nextToSubstrate?: string[];
@@ -124,6 +132,8 @@ export function runOptimiseJob(
       marginPercent: input.options.marginPercent,
       outermostOnly: input.options.outermostOnly,
       nextToSubstrate: input.options.nextToSubstrate,
+      growthMerit: input.options.growthMerit,
+      needlesPerStep: input.options.needlesPerStep,
       onStep: (step) =>
         report({
           type: 'progress',

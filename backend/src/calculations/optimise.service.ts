@@ -84,6 +84,8 @@ export class OptimiseService {
         minThicknessNm: dto.minThicknessNm,
         maxSteps: dto.maxSteps,
         marginPercent: await this.targetMargin(dto.targetMarginPercent),
+        growthMerit: dto.growthMerit,
+        needlesPerStep: dto.needlesPerStep,
         ...(outermostOnly ? { outermostOnly } : {}),
         ...(nextToSubstrate ? { nextToSubstrate } : {}),
       },

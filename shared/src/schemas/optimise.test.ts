@@ -62,7 +62,12 @@ describe('Grow layers request', () => {
       maxSteps: 30,
       minThicknessNm: 10,
       maxThicknessNm: 1000,
+      growthMerit: 'mask',
+      needlesPerStep: 3,
     });
+    expect(
+      growRequestSchema.parse({ allowedMaterialIds: [3], growthMerit: 'smooth', needlesPerStep: 10 }),
+    ).toMatchObject({ growthMerit: 'smooth', needlesPerStep: 10 });
   });
 
   it('places rules only on allowed materials', () => {
@@ -81,6 +86,9 @@ describe('Grow layers request', () => {
   it.each([
     [{ maxLayers: 201 }, 'maxLayers: Max layers must be a whole number from 1 to 200'],
     [{ maxSteps: 0 }, 'maxSteps: Max steps must be a whole number from 1 to 200'],
+    [{ growthMerit: 'flat' }, 'growthMerit: Grow on must be smooth or mask'],
+    [{ needlesPerStep: 11 }, 'needlesPerStep: Needles per step must be a whole number from 1 to 10'],
+    [{ needlesPerStep: 1.5 }, 'needlesPerStep: Needles per step must be a whole number from 1 to 10'],
     [
       { maxTotalThicknessNm: 0 },
       'maxTotalThicknessNm: Max total thickness must be a number above 0 and at most 1000000 nm',

@@ -10,7 +10,13 @@ import {
   DEFAULT_MAX_THICKNESS_NM,
   DEFAULT_MIN_THICKNESS_NM,
 } from '../optimise/fit.js';
-import { DEFAULT_MAX_LAYERS, DEFAULT_MAX_STEPS, DEFAULT_MAX_TOTAL_THICKNESS_NM } from '../optimise/needle.js';
+import {
+  DEFAULT_MAX_LAYERS,
+  DEFAULT_MAX_STEPS,
+  DEFAULT_MAX_TOTAL_THICKNESS_NM,
+  GROWTH_MERITS,
+} from '../optimise/needle.js';
+import { DEFAULT_GROWTH_MERIT, DEFAULT_NEEDLES_PER_STEP } from '../optimise/options.js';
 import {
   DEFAULT_SEED,
   DEFAULT_TRIALS,
@@ -21,7 +27,7 @@ import {
 import { finiteNumber, recordId } from './common.js';
 import { targetMarginPercentField } from './shop.js';
 
-export { DEFAULT_FACTOR_RANGE };
+export { DEFAULT_FACTOR_RANGE, DEFAULT_GROWTH_MERIT, DEFAULT_NEEDLES_PER_STEP };
 
 /**
  * Limits of an optimisation request; they keep one job within what a queue worker finishes in
@@ -37,6 +43,8 @@ export const OPTIMISE_LIMITS = {
   maxSteps: 200,
   /** Most materials Grow layers may choose from. */
   allowedMaterials: 8,
+  /** Most needles Grow layers inserts in one step. */
+  needlesPerStep: 10,
   trials: MAX_TRIALS,
   seed: MAX_SEED,
   thicknessErrorPercent: 50,
@@ -139,6 +147,16 @@ export const growRequestSchema = z
       DEFAULT_MAX_TOTAL_THICKNESS_NM,
     ),
     maxSteps: wholeNumberFrom('Max steps', 1, L.maxSteps).default(DEFAULT_MAX_STEPS),
+    /**
+     * `mask`: grow on the one-sided mask merit; `smooth`: grow towards R = 0 under every maximum,
+     * fitting each step to the mask (for wide bands, where the one-sided growth stalls).
+     */
+    growthMerit: z
+      .enum(GROWTH_MERITS, { error: `Grow on must be ${GROWTH_MERITS.join(' or ')}` })
+      .default(DEFAULT_GROWTH_MERIT),
+    needlesPerStep: wholeNumberFrom('Needles per step', 1, L.needlesPerStep).default(
+      DEFAULT_NEEDLES_PER_STEP,
+    ),
   })
   .superRefine((value, ctx) => {
     checkThicknessBounds(value, ctx);

@@ -5,6 +5,8 @@
  */
 import {
   DEFAULT_FACTOR_RANGE,
+  DEFAULT_GROWTH_MERIT,
+  DEFAULT_NEEDLES_PER_STEP,
   DEFAULT_MAX_ITERATIONS,
   DEFAULT_MAX_LAYERS,
   DEFAULT_MAX_STEPS,
@@ -22,6 +24,7 @@ import {
   thicknessErrorSchema,
   yieldRequestSchema,
   type ErrorDistribution,
+  type GrowthMerit,
 } from '@quietglass/shared';
 import { z } from 'zod';
 import { typedNumber } from '../../lib/validation';
@@ -67,6 +70,8 @@ export interface GrowValues {
   maxThicknessNm: string;
   maxSteps: string;
   targetMarginPercent: string;
+  growthMerit: GrowthMerit;
+  needlesPerStep: string;
 }
 
 /** The Grow layers form's first values: the version's materials ticked, at least its layer count. */
@@ -81,6 +86,8 @@ export function growDefaults(allowedMaterialIds: number[], layerCount: number): 
     maxThicknessNm: String(DEFAULT_MAX_THICKNESS_NM),
     maxSteps: String(DEFAULT_MAX_STEPS),
     targetMarginPercent: DEFAULT_TARGET_MARGIN_TEXT,
+    growthMerit: DEFAULT_GROWTH_MERIT,
+    needlesPerStep: String(DEFAULT_NEEDLES_PER_STEP),
   };
 }
 
@@ -99,6 +106,8 @@ export function growFormSchema(layerCount: number) {
       maxLayers: typedNumber.pipe(maxLayersField(Math.max(1, layerCount))),
       maxTotalThicknessNm: typedNumber.pipe(grow.maxTotalThicknessNm.unwrap()),
       maxSteps: typedNumber.pipe(grow.maxSteps.unwrap()),
+      growthMerit: grow.growthMerit.unwrap(),
+      needlesPerStep: typedNumber.pipe(grow.needlesPerStep.unwrap()),
     })
     .superRefine(checkThicknessBounds)
     .transform(({ outermostOnlyMaterialIds, nextToSubstrateMaterialIds, ...rest }) => {

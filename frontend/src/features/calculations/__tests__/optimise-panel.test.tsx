@@ -337,6 +337,35 @@ describe('OptimisePanel — Grow layers', () => {
     expect(api.calls('POST', '/api/designs/12/versions/1/grow')).toHaveLength(0);
   });
 
+  it('grows on the smooth merit when chosen, with the needles per step typed', async () => {
+    const api = mockApi({
+      'POST /api/designs/12/versions/1/grow': {
+        status: 201,
+        body: { ...calc({ kind: 'grow' }), reused: false },
+      },
+      [POLL]: { status: 200, body: calc({ kind: 'grow' }) },
+      'GET /api/calculations': { status: 200, body: [] },
+    });
+    const { user } = renderPanel(TWO_LAYERS);
+    await user.click(await screen.findByRole('tab', { name: 'Grow layers' }));
+    await user.selectOptions(await region().findByLabelText('Grow on'), 'R → 0, then fit to the mask');
+    const needles = region().getByLabelText('Needles per step');
+    await user.clear(needles);
+    await user.type(needles, '11');
+    await user.click(region().getByRole('button', { name: 'Run Grow layers' }));
+    expect(await region().findByText('Needles per step must be a whole number from 1 to 10')).toBeTruthy();
+    expect(api.calls('POST', '/api/designs/12/versions/1/grow')).toHaveLength(0);
+
+    await user.clear(needles);
+    await user.type(needles, '5');
+    await user.click(region().getByRole('button', { name: 'Run Grow layers' }));
+    await waitFor(() => expect(api.calls('POST', '/api/designs/12/versions/1/grow')).toHaveLength(1));
+    expect(api.calls('POST', '/api/designs/12/versions/1/grow')[0]!.body).toMatchObject({
+      growthMerit: 'smooth',
+      needlesPerStep: 5,
+    });
+  });
+
   it('shows the progression, lets a step be chosen and accepts that step', async () => {
     const done = calc({
       kind: 'grow',
@@ -373,6 +402,8 @@ describe('OptimisePanel — Grow layers', () => {
         maxThicknessNm: 1000,
         maxSteps: 30,
         targetMarginPercent: 0.1,
+        growthMerit: 'mask',
+        needlesPerStep: 3,
       },
     ]);
 

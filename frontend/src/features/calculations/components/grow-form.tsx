@@ -10,10 +10,16 @@ import FormHelperText from '@mui/material/FormHelperText';
 import FormLabel from '@mui/material/FormLabel';
 import { useMemo } from 'react';
 import { Controller, useForm, useWatch } from 'react-hook-form';
+import { FormSelectField } from '../../../components/form-select-field';
 import { FormTextField } from '../../../components/form-text-field';
 import { growDefaults, growFormSchema, type GrowFormOutput, type GrowValues } from '../optimise-forms';
 import { TargetMarginField, useShopMarginDefault } from './target-margin-field';
 import { ThicknessBoundsFields } from './thickness-bounds-fields';
+
+const GROWTH_MERIT_OPTIONS = [
+  { value: 'mask', label: 'The spec mask' },
+  { value: 'smooth', label: 'R → 0, then fit to the mask' },
+];
 
 interface GrowFormProps {
   materials: readonly { id: number; name: string }[];
@@ -138,6 +144,24 @@ export function GrowForm({ materials, initialMaterialIds, layerCount, pending, o
         <ThicknessBoundsFields control={control} />
         <TargetMarginField control={control} />
         <FormTextField control={control} name="maxSteps" label="Max steps" size="small" sx={{ width: 120 }} />
+      </Box>
+      <Box sx={{ display: 'flex', gap: 1.5, flexWrap: 'wrap', alignItems: 'flex-start' }}>
+        <FormSelectField
+          control={control}
+          name="growthMerit"
+          label="Grow on"
+          options={GROWTH_MERIT_OPTIONS}
+          size="small"
+          sx={{ width: 260 }}
+          helperText="R → 0 grows wide bands (e.g. 400–1100 nm) further"
+        />
+        <FormTextField
+          control={control}
+          name="needlesPerStep"
+          label="Needles per step"
+          size="small"
+          sx={{ width: 150 }}
+        />
       </Box>
       <Box>
         <Button type="submit" variant="contained" loading={pending}>
