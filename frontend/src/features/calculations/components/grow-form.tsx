@@ -153,7 +153,7 @@ export function GrowForm({ materials, initialMaterialIds, layerCount, pending, o
           options={GROWTH_MERIT_OPTIONS}
           size="small"
           sx={{ width: 260 }}
-          helperText="R → 0 grows wide bands (e.g. 400–1100 nm) further"
+          helperText="Wide bands grow further on R → 0"
         />
         <FormTextField
           control={control}
