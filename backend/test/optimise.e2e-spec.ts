@@ -203,7 +203,7 @@ describe('Grow layers', () => {
     ]);
   });
 
-  it('grows on the smooth merit when asked, and refuses a merit it does not know', async () => {
+  it('grows on the mask merit when asked, on the smooth one by default, and refuses a merit it does not know', async () => {
     const id = await create(design('Grow smooth', [['MgF2', 99.6]]));
     const sub = await http()
       .post(`/api/designs/${id}/versions/1/grow`)
@@ -211,16 +211,16 @@ describe('Grow layers', () => {
       .send({
         allowedMaterialIds: [m['SiO2'], m['TiO2']],
         maxSteps: 2,
-        growthMerit: 'smooth',
+        growthMerit: 'mask',
         needlesPerStep: 2,
       });
     expect(sub.status, JSON.stringify(sub.body)).toBe(201);
-    expect(sub.body.request).toMatchObject({ growthMerit: 'smooth', needlesPerStep: 2 });
+    expect(sub.body.request).toMatchObject({ growthMerit: 'mask', needlesPerStep: 2 });
     const byDefault = await http()
       .post(`/api/designs/${id}/versions/1/grow`)
       .set('Cookie', mira)
       .send({ allowedMaterialIds: [m['SiO2'], m['TiO2']], maxSteps: 2 });
-    expect(byDefault.body.request).toMatchObject({ growthMerit: 'mask', needlesPerStep: 3 });
+    expect(byDefault.body.request).toMatchObject({ growthMerit: 'smooth', needlesPerStep: 3 });
     const unknown = await http()
       .post(`/api/designs/${id}/versions/1/grow`)
       .set('Cookie', mira)
@@ -373,7 +373,7 @@ describe('optimisation requests', () => {
     const grow = bodyOf('/api/designs/{id}/versions/{number}/grow');
     expect(grow.required).toEqual(['allowedMaterialIds']);
     expect(grow.properties.allowedMaterialIds!.maxItems).toBe(8);
-    expect(grow.properties.growthMerit).toMatchObject({ enum: ['smooth', 'mask'], default: 'mask' });
+    expect(grow.properties.growthMerit).toMatchObject({ enum: ['smooth', 'mask'], default: 'smooth' });
     expect(grow.properties.needlesPerStep).toMatchObject({ default: 3, maximum: 10 });
     const forecast = bodyOf('/api/designs/{id}/versions/{number}/yield');
     expect(forecast.required).toEqual(['thickness']);

@@ -62,12 +62,12 @@ describe('Grow layers request', () => {
       maxSteps: 30,
       minThicknessNm: 10,
       maxThicknessNm: 1000,
-      growthMerit: 'mask',
+      growthMerit: 'smooth',
       needlesPerStep: 3,
     });
     expect(
-      growRequestSchema.parse({ allowedMaterialIds: [3], growthMerit: 'smooth', needlesPerStep: 10 }),
-    ).toMatchObject({ growthMerit: 'smooth', needlesPerStep: 10 });
+      growRequestSchema.parse({ allowedMaterialIds: [3], growthMerit: 'mask', needlesPerStep: 10 }),
+    ).toMatchObject({ growthMerit: 'mask', needlesPerStep: 10 });
   });
 
   it('places rules only on allowed materials', () => {

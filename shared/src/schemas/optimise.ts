@@ -15,8 +15,9 @@ import {
   DEFAULT_MAX_STEPS,
   DEFAULT_MAX_TOTAL_THICKNESS_NM,
   GROWTH_MERITS,
+  type GrowthMerit,
 } from '../optimise/needle.js';
-import { DEFAULT_GROWTH_MERIT, DEFAULT_NEEDLES_PER_STEP } from '../optimise/options.js';
+import { DEFAULT_NEEDLES_PER_STEP } from '../optimise/options.js';
 import {
   DEFAULT_SEED,
   DEFAULT_TRIALS,
@@ -27,7 +28,14 @@ import {
 import { finiteNumber, recordId } from './common.js';
 import { targetMarginPercentField } from './shop.js';
 
-export { DEFAULT_FACTOR_RANGE, DEFAULT_GROWTH_MERIT, DEFAULT_NEEDLES_PER_STEP };
+export { DEFAULT_FACTOR_RANGE, DEFAULT_NEEDLES_PER_STEP };
+
+/**
+ * The merit a new Grow layers request grows on unless told: the smooth merit, which keeps growing
+ * where the one-sided mask merit stalls (e.g. a single quarter wave against 400–900 nm). Jobs queued
+ * without the field keep the engine's own default, so they grow what they grew.
+ */
+export const DEFAULT_GROW_REQUEST_MERIT: GrowthMerit = 'smooth';
 
 /**
  * Limits of an optimisation request; they keep one job within what a queue worker finishes in
@@ -148,12 +156,12 @@ export const growRequestSchema = z
     ),
     maxSteps: wholeNumberFrom('Max steps', 1, L.maxSteps).default(DEFAULT_MAX_STEPS),
     /**
-     * `mask`: grow on the one-sided mask merit; `smooth`: grow towards R = 0 under every maximum,
-     * fitting each step to the mask (for wide bands, where the one-sided growth stalls).
+     * `smooth`: grow towards R = 0 under every maximum, fitting each step to the mask; `mask`: grow
+     * on the one-sided mask merit (fewer layers on some narrow bands, stalls on wide ones).
      */
     growthMerit: z
       .enum(GROWTH_MERITS, { error: `Grow on must be ${GROWTH_MERITS.join(' or ')}` })
-      .default(DEFAULT_GROWTH_MERIT),
+      .default(DEFAULT_GROW_REQUEST_MERIT),
     needlesPerStep: wholeNumberFrom('Needles per step', 1, L.needlesPerStep).default(
       DEFAULT_NEEDLES_PER_STEP,
     ),

@@ -5,7 +5,7 @@
  */
 import {
   DEFAULT_FACTOR_RANGE,
-  DEFAULT_GROWTH_MERIT,
+  DEFAULT_GROW_REQUEST_MERIT,
   DEFAULT_NEEDLES_PER_STEP,
   DEFAULT_MAX_ITERATIONS,
   DEFAULT_MAX_LAYERS,
@@ -86,7 +86,7 @@ export function growDefaults(allowedMaterialIds: number[], layerCount: number): 
     maxThicknessNm: String(DEFAULT_MAX_THICKNESS_NM),
     maxSteps: String(DEFAULT_MAX_STEPS),
     targetMarginPercent: DEFAULT_TARGET_MARGIN_TEXT,
-    growthMerit: DEFAULT_GROWTH_MERIT,
+    growthMerit: DEFAULT_GROW_REQUEST_MERIT,
     needlesPerStep: String(DEFAULT_NEEDLES_PER_STEP),
   };
 }

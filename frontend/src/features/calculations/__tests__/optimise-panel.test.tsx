@@ -337,7 +337,7 @@ describe('OptimisePanel — Grow layers', () => {
     expect(api.calls('POST', '/api/designs/12/versions/1/grow')).toHaveLength(0);
   });
 
-  it('grows on the smooth merit when chosen, with the needles per step typed', async () => {
+  it('grows on the mask merit when chosen, with the needles per step typed', async () => {
     const api = mockApi({
       'POST /api/designs/12/versions/1/grow': {
         status: 201,
@@ -348,7 +348,7 @@ describe('OptimisePanel — Grow layers', () => {
     });
     const { user } = renderPanel(TWO_LAYERS);
     await user.click(await screen.findByRole('tab', { name: 'Grow layers' }));
-    await user.selectOptions(await region().findByLabelText('Grow on'), 'R → 0, then fit to the mask');
+    await user.selectOptions(await region().findByLabelText('Grow on'), 'The spec mask');
     const needles = region().getByLabelText('Needles per step');
     await user.clear(needles);
     await user.type(needles, '11');
@@ -361,7 +361,7 @@ describe('OptimisePanel — Grow layers', () => {
     await user.click(region().getByRole('button', { name: 'Run Grow layers' }));
     await waitFor(() => expect(api.calls('POST', '/api/designs/12/versions/1/grow')).toHaveLength(1));
     expect(api.calls('POST', '/api/designs/12/versions/1/grow')[0]!.body).toMatchObject({
-      growthMerit: 'smooth',
+      growthMerit: 'mask',
       needlesPerStep: 5,
     });
   });
@@ -402,7 +402,7 @@ describe('OptimisePanel — Grow layers', () => {
         maxThicknessNm: 1000,
         maxSteps: 30,
         targetMarginPercent: 0.1,
-        growthMerit: 'mask',
+        growthMerit: 'smooth',
         needlesPerStep: 3,
       },
     ]);

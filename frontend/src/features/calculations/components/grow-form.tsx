@@ -17,8 +17,8 @@ import { TargetMarginField, useShopMarginDefault } from './target-margin-field';
 import { ThicknessBoundsFields } from './thickness-bounds-fields';
 
 const GROWTH_MERIT_OPTIONS = [
-  { value: 'mask', label: 'The spec mask' },
   { value: 'smooth', label: 'R → 0, then fit to the mask' },
+  { value: 'mask', label: 'The spec mask' },
 ];
 
 interface GrowFormProps {
@@ -153,7 +153,7 @@ export function GrowForm({ materials, initialMaterialIds, layerCount, pending, o
           options={GROWTH_MERIT_OPTIONS}
           size="small"
           sx={{ width: 260 }}
-          helperText="Wide bands grow further on R → 0"
+          helperText="The spec mask may stall on wide bands"
         />
         <FormTextField
           control={control}
