@@ -96,10 +96,15 @@ const axisTitle = (layout: Partial<Layout> | undefined, key: string, fallback: s
   return text && text.trim() !== '' ? text.replace(/<[^>]+>/g, '') : fallback;
 };
 
-/** `R (%)` → percent: four decimals; anything else: up to 6 significant digits. */
-function formatter(title: string): (v: number) => string {
-  if (/%|percent/i.test(title)) return (v) => v.toFixed(4);
-  return (v) => String(Number(v.toPrecision(6)));
+/**
+ * `R (%)` → percent: four decimals; anything else: up to 6 significant digits. A category value
+ * (text, e.g. a run's lot number on a control chart) is written as it is.
+ */
+function formatter(title: string): (v: number | string) => string {
+  const number = /%|percent/i.test(title)
+    ? (v: number) => v.toFixed(4)
+    : (v: number) => String(Number(v.toPrecision(6)));
+  return (v) => (typeof v === 'number' ? number(v) : csvCell(String(v)));
 }
 
 const csvCell = (text: string) => (/[",\n]/.test(text) ? `"${text.replace(/"/g, '""')}"` : text);
@@ -140,7 +145,7 @@ export function plotCsv(data: readonly Data[], layout?: Partial<Layout>): string
   const series = data.filter((d) => {
     const t = d as Trace & { name?: string; x?: unknown; y?: unknown };
     return isLineTraceOrMarkers(t) && typeof t.name === 'string' && t.name !== '' && t.x && t.y;
-  }) as (Trace & { name: string; x: ArrayLike<number>; y: ArrayLike<number>; yaxis?: string })[];
+  }) as (Trace & { name: string; x: ArrayLike<number | string>; y: ArrayLike<number>; yaxis?: string })[];
   const yKeys = [
     ...new Set(series.map((s) => (s.yaxis && s.yaxis !== 'y' ? `yaxis${s.yaxis.slice(1)}` : 'yaxis'))),
   ];

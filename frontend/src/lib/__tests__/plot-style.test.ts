@@ -89,4 +89,30 @@ describe('plot style', () => {
     );
     expect(heat).toBe('Wavelength (nm),Angle of incidence (°),R (%)\n400,0,1.5000\n500,0,2.0000\n');
   });
+
+  it("writes category x values (a control chart's runs) as text", () => {
+    const csv = plotCsv(
+      [
+        {
+          type: 'scatter',
+          mode: 'markers',
+          name: 'Correction',
+          x: ['L-7 (2026-11-02)', 'L-8, rerun'],
+          y: [1.25, -0.5],
+        },
+      ],
+      {
+        xaxis: { title: { text: 'Diagnosed run' }, type: 'category' },
+        yaxis: { title: { text: 'Correction, %' } },
+      },
+    );
+    expect(csv).toBe(
+      [
+        'series,Diagnosed run,"Correction, %"',
+        'Correction,L-7 (2026-11-02),1.2500',
+        'Correction,"L-8, rerun",-0.5000',
+        '',
+      ].join('\n'),
+    );
+  });
 });
