@@ -134,7 +134,8 @@ describe('band margins', () => {
 
   it.each([
     [{ margin_percent: -0.1 }, /0 or more/],
-    [{ max_percent: 0.2, margin_percent: 0.5 }, /outside 0–100 %/],
+    [{ max_percent: 0.2, margin_percent: 0.5 }, /puts the design target outside 0–100 % \(R ≤ -0\.3 %\)$/],
+    [{ max_percent: 0.5, margin_percent: 0.6 }, /\(R ≤ -0\.1 %\)$/],
     [
       { max_percent: undefined, target_percent: 50, tolerance_percent: 1, margin_percent: 1 },
       /less than tolerance_percent/,

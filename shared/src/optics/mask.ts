@@ -362,10 +362,15 @@ function checkedMargin(band: LimitBand, value: unknown, field: string): number {
   if (low > 100 || high < 0) {
     throw new OpticsInputError(
       field,
-      `puts the design target outside 0–100 % (${band.quantity} ${low > 100 ? `≥ ${low}` : `≤ ${high}`} %)`,
+      `puts the design target outside 0–100 % (${band.quantity} ${low > 100 ? `≥ ${percentText(low)}` : `≤ ${percentText(high)}`} %)`,
     );
   }
   return m;
+}
+
+/** A limit worked out from the mask (e.g. 0.5 − 0.6) as a person would write it: −0.1, not −0.09999999999999998. */
+function percentText(x: number): string {
+  return String(Math.round(x * 1e6) / 1e6);
 }
 
 function marginOf(bound: Bound, value: number): number {
