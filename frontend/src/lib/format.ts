@@ -46,6 +46,13 @@ export function fieldText(value: unknown): string {
   return '';
 }
 
+/** A size limit as people write it: "200 kB", "1 MB", "2 MB" (decimal units, no trailing zeros). */
+export function formatSizeLimit(bytes: number): string {
+  if (bytes < 1000) return `${bytes} bytes`;
+  if (bytes < 1_000_000) return `${Number((bytes / 1000).toPrecision(3))} kB`;
+  return `${Number((bytes / 1_000_000).toPrecision(3))} MB`;
+}
+
 /** A file size as people read it: "812 bytes", "12.4 kB", "1.25 MB" (decimal units). */
 export function formatFileSize(bytes: number): string {
   if (bytes < 1000) return `${bytes} byte${bytes === 1 ? '' : 's'}`;

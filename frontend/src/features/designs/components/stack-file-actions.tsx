@@ -16,6 +16,7 @@ import { downloadText } from '../../../lib/download';
 import { notify } from '../../../lib/notifier';
 import { useCreateDesignVersion } from '../api/create-design-version';
 import type { LibraryMaterial } from '../layers';
+import { formatSizeLimit } from '../../../lib/format';
 
 interface StackFileActionsProps {
   designName: string;
@@ -78,7 +79,7 @@ export function StackFileActions({
     if (file.size > MAX_STACK_FILE_BYTES) {
       setProblems({
         file: file.name,
-        list: [`the file is larger than ${MAX_STACK_FILE_BYTES / 1_000_000} MB`],
+        list: [`the file is larger than ${formatSizeLimit(MAX_STACK_FILE_BYTES)}`],
       });
       return;
     }

@@ -10,7 +10,7 @@ import { FormCheckboxField } from '../../../components/form-checkbox-field';
 import { FormDialog } from '../../../components/form-dialog';
 import { FormTextField } from '../../../components/form-text-field';
 import { Plot } from '../../../components/plot';
-import { formatFileSize } from '../../../lib/format';
+import { formatFileSize, formatSizeLimit } from '../../../lib/format';
 import { notify } from '../../../lib/notifier';
 import type { MaterialView } from '../api/get-materials';
 import { useImportConstantsFile } from '../api/import-constants-file';
@@ -78,7 +78,9 @@ export function ConstantsFileDialog({
     setText(null);
     importFile.reset();
     if (chosen && chosen.size > MAX_CONSTANTS_FILE_BYTES) {
-      setFileProblem(`The file is larger than 2 MB (${formatFileSize(chosen.size)}).`);
+      setFileProblem(
+        `The file is larger than ${formatSizeLimit(MAX_CONSTANTS_FILE_BYTES)} (${formatFileSize(chosen.size)}).`,
+      );
       return;
     }
     setFileProblem(null);

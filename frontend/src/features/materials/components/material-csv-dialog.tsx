@@ -20,7 +20,7 @@ import { FormDialog } from '../../../components/form-dialog';
 import { FormSelectField } from '../../../components/form-select-field';
 import { FormTextField } from '../../../components/form-text-field';
 import { Plot } from '../../../components/plot';
-import { formatFileSize } from '../../../lib/format';
+import { formatFileSize, formatSizeLimit } from '../../../lib/format';
 import { notify } from '../../../lib/notifier';
 import type { MaterialView } from '../api/get-materials';
 import { useImportMaterialCsv } from '../api/import-material-csv';
@@ -101,7 +101,7 @@ export function MaterialCsvDialog({
     resetPreview();
     if (chosen && chosen.size > MAX_NK_CSV_BYTES) {
       setFileProblem(
-        `The file is larger than 1 MB (${formatFileSize(chosen.size)}); split it or thin out its rows.`,
+        `The file is larger than ${formatSizeLimit(MAX_NK_CSV_BYTES)} (${formatFileSize(chosen.size)}); split it or thin out its rows.`,
       );
       return;
     }
@@ -159,7 +159,7 @@ export function MaterialCsvDialog({
       <Typography variant="body2" color="text.secondary" sx={{ mt: 1 }}>
         Columns wavelength, n and optionally k, separated by commas, semicolons or tabs, with or without a
         header row such as <code>wavelength_nm,n,k</code> or <code>Wavelength (µm);n;k</code>. Semicolon- and
-        tab-separated files may use decimal commas. At most 1 MB.
+        tab-separated files may use decimal commas. At most {formatSizeLimit(MAX_NK_CSV_BYTES)}.
       </Typography>
       <FileField
         label="n,k file"

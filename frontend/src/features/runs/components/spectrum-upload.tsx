@@ -21,6 +21,7 @@ import { notify } from '../../../lib/notifier';
 import { typedNumber } from '../../../lib/validation';
 import type { RunSpectrumView } from '../api/get-run';
 import { useUploadSpectrum } from '../api/upload-spectrum';
+import { formatFileSize, formatSizeLimit } from '../../../lib/format';
 
 interface UploadValues {
   angleDeg: string;
@@ -65,7 +66,9 @@ export function SpectrumUpload({ runId, onUploaded }: SpectrumUploadProps) {
     setFile(chosen);
     upload.reset();
     if (chosen && chosen.size > MAX_SPECTRUM_CSV_BYTES)
-      setFileProblem(`The file is larger than 2 MB (${(chosen.size / 1_000_000).toFixed(2)} MB).`);
+      setFileProblem(
+        `The file is larger than ${formatSizeLimit(MAX_SPECTRUM_CSV_BYTES)} (${formatFileSize(chosen.size)}).`,
+      );
     else setFileProblem(null);
   };
 

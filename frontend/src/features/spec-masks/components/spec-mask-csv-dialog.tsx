@@ -10,6 +10,7 @@ import { notify } from '../../../lib/notifier';
 import { useImportSpecMaskCsv } from '../api/import-spec-mask-csv';
 import { maskDetailsFormSchema, type MaskDetailsOutput, type MaskFormValues } from '../band-form';
 import { MaskDetailsFields } from './mask-details-fields';
+import { formatSizeLimit } from '../../../lib/format';
 
 interface SpecMaskCsvDialogProps {
   open: boolean;
@@ -60,7 +61,7 @@ export function SpecMaskCsvDialog({
       return;
     }
     if (file.size > MAX_MASK_CSV_BYTES) {
-      setFileProblem(`The file is larger than ${MAX_MASK_CSV_BYTES / 1000} kB`);
+      setFileProblem(`The file is larger than ${formatSizeLimit(MAX_MASK_CSV_BYTES)}`);
       return;
     }
     importCsv.mutate(
