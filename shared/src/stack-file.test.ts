@@ -5,6 +5,7 @@ import { designStackDescription } from './designs.js';
 import { calculateSpectrum, responseAt } from './optics/batch.js';
 import { constantIndex } from './optics/dispersion.js';
 import { parseStack } from './optics/stack.js';
+import { DESIGN_LIMITS } from './schemas/designs.js';
 import { designStackFile, draftFromStackFile, type LibraryEntry } from './stack-file.js';
 
 const SIO2 = { model: 'cauchy', A: 1.458, B: 0.00354, C: 0 } as const;
@@ -126,7 +127,10 @@ describe('stack files', () => {
     const odd = draftFromStackFile(
       {
         substrate: { material: 'Glass 1.52' },
-        layers: [{ material: 'SiO2', thickness_nm: 0 }],
+        layers: [
+          { material: 'SiO2', thickness_nm: 0 },
+          { material: 'SiO2', thickness_nm: 2e6 },
+        ],
         back_layers: [{ material: 'SiO2', thickness_nm: 10 }],
       },
       LIBRARY,
@@ -135,7 +139,8 @@ describe('stack files', () => {
     expect(odd).toEqual({
       ok: false,
       problems: [
-        'layers[0]: thickness must be > 0 nm',
+        'layers[0]: Thickness must be greater than 0 nm',
+        `layers[1]: Thickness must be at most ${DESIGN_LIMITS.maxThicknessNm} nm`,
         'back_layers: only the front coating reversed (the same coating on both sides) can be imported',
       ],
     });

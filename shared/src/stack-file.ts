@@ -8,6 +8,7 @@ import type { MaterialModel } from './optics/dispersion.js';
 import { elementAt } from './checked.js';
 import { OpticsInputError } from './optics/errors.js';
 import { parseStack, type StackDescription } from './optics/stack.js';
+import { layerThicknessNm } from './schemas/designs.js';
 
 /** Largest stack file the workspace reads, bytes. */
 export const MAX_STACK_FILE_BYTES = 1_000_000;
@@ -152,8 +153,11 @@ export function draftFromStackFile(
     locked: false,
     notes: layer.label ?? '',
   }));
+  // The engine allows a 0 nm layer; a design's Layer grid does not, nor one above its largest.
   resolved.layers.forEach((l, i) => {
-    if (!(l.thicknessNm > 0)) problems.push(`layers[${i}]: thickness must be > 0 nm`);
+    const checked = layerThicknessNm.safeParse(l.thicknessNm);
+    if (!checked.success)
+      problems.push(`layers[${i}]: ${checked.error.issues.map((issue) => issue.message).join('; ')}`);
   });
 
   let backSurface: BackSurfaceTreatment =
