@@ -16,6 +16,7 @@ import {
   computeSpectrum,
   createSpectrumOutput,
   createSpectrumPlan,
+  createSpectrumPlanFor,
   roundWavelengthNm,
   setLayerThicknesses,
   type BackSurface,
@@ -138,13 +139,21 @@ export class MaskMerit {
     private readonly layout: GridLayout,
     private readonly samples: SampleTable,
     private readonly back: BackSurface,
+    previous: SpectrumPlan | null,
   ) {
     this.mask = mask;
-    this.plan = createSpectrumPlan(
-      stack,
-      { wavelengthsNm: layout.wavelengthsNm, anglesDeg: layout.anglesDeg, polarisations: layout.computed },
-      { back },
-    );
+    // Another stack on the same grid reuses the materials the previous plan checked and evaluated.
+    this.plan = previous
+      ? createSpectrumPlanFor(stack, previous)
+      : createSpectrumPlan(
+          stack,
+          {
+            wavelengthsNm: layout.wavelengthsNm,
+            anglesDeg: layout.anglesDeg,
+            polarisations: layout.computed,
+          },
+          { back },
+        );
     this.spectrum = createSpectrumOutput(this.plan);
     this.sampleCount = samples.count;
   }
@@ -160,12 +169,12 @@ export class MaskMerit {
     }
     const layout = gridLayout(checked, targets);
     const samples = sampleTable(checked, targets, layout, margin, options.smooth === true);
-    return new MaskMerit(stack, checked, layout, samples, options.back ?? 'none');
+    return new MaskMerit(stack, checked, layout, samples, options.back ?? 'none', null);
   }
 
   /** The same samples and margin for another stack (e.g. with a layer inserted). */
   withStack(stack: OpticalStack): MaskMerit {
-    return new MaskMerit(stack, this.mask, this.layout, this.samples, this.back);
+    return new MaskMerit(stack, this.mask, this.layout, this.samples, this.back, this.plan);
   }
 
   /** Number of front layers of the plan's stack. */
