@@ -373,7 +373,11 @@ function sameData(a: unknown, b: unknown): boolean {
   if (a === null || b === null || typeof a !== 'object' || typeof b !== 'object') return false;
   if (Array.isArray(a)) {
     if (!Array.isArray(b) || a.length !== b.length) return false;
-    for (let i = 0; i < a.length; i++) if (!sameData(a[i], b[i])) return false;
+    for (let i = 0; i < a.length; i++) {
+      const x: unknown = a[i];
+      const y: unknown = b[i];
+      if (x !== y && !sameData(x, y)) return false;
+    }
     return true;
   }
   if (Array.isArray(b)) return false;
