@@ -32,7 +32,20 @@ const ROOT = new Float64Array(2);
 /** ∂R/∂d and ∂T/∂d per front layer, nm⁻¹: [l·plan.size + spectrumIndex]. */
 export interface ThicknessDerivatives {
   dR: Float64Array;
+  /** Empty when the derivatives were made without T ({@link DerivativeOptions.wantT} false). */
   dT: Float64Array;
+}
+
+/** What {@link computeThicknessDerivatives} computes; by default everything. */
+export interface DerivativeOptions {
+  /** ∂T/∂d as well as ∂R/∂d (default true). Without it `dT` is neither needed nor written. */
+  wantT?: boolean;
+  /**
+   * Spectrum indices wanted (1) or not (0), length plan.size; the entries of other indices are
+   * left as they were, and a (wavelength, angle) with no wanted index is not swept at all.
+   * Default: every index.
+   */
+  points?: Uint8Array | null;
 }
 
 /** Materials a needle may be made of, on the plan's wavelengths: ε = N², [m·nWavelengths + iWl]. */
@@ -138,11 +151,14 @@ function checkPlan(plan: SpectrumPlan): void {
   }
 }
 
-/** Allocates derivative arrays for `plan`. */
-export function createThicknessDerivatives(plan: SpectrumPlan): ThicknessDerivatives {
+/** Allocates derivative arrays for `plan` (`dT` empty when `wantT` is false). */
+export function createThicknessDerivatives(
+  plan: SpectrumPlan,
+  options: Pick<DerivativeOptions, 'wantT'> = {},
+): ThicknessDerivatives {
   checkPlan(plan);
   const n = plan.size * plan.work.layerCount;
-  return { dR: new Float64Array(n), dT: new Float64Array(n) };
+  return { dR: new Float64Array(n), dT: new Float64Array(options.wantT === false ? 0 : n) };
 }
 
 /**
@@ -331,46 +347,59 @@ function surfaceCoefficients(s: Scratch, e0r: number, e0i: number, etaExitRe: nu
 /**
  * ∂R/∂d and ∂T/∂d of every front layer (nm⁻¹) on the plan's grid into `out` (from
  * {@link createThicknessDerivatives}), laid out [l·plan.size + spectrumIndex]; `avg` gets the mean
- * of s and p. See the file comment for the method. Allocates nothing after the first call on a plan.
+ * of s and p. `options` leaves out T or spectrum indices whose derivatives are not used. See the
+ * file comment for the method. Allocates nothing after the first call on a plan.
  */
 export function computeThicknessDerivatives(
   out: ThicknessDerivatives,
   plan: SpectrumPlan,
+  options: DerivativeOptions = {},
 ): ThicknessDerivatives {
   checkPlan(plan);
   const w = plan.work;
   const L = w.layerCount;
   const size = plan.size;
-  if (out.dR.length < L * size || out.dT.length < L * size) {
+  const wantT = options.wantT !== false;
+  const points = options.points ?? null;
+  if (out.dR.length < L * size || (wantT && out.dT.length < L * size)) {
     throw new OpticsInputError('out', `derivative arrays must hold ${L * size} values`);
+  }
+  if (points && points.length < size) {
+    throw new OpticsInputError('points', `must hold ${size} flags (got ${points.length})`);
   }
   const s = scratch(plan, 1);
   const nW = plan.wavelengthsNm.length;
   const nA = plan.anglesDeg.length;
   const pols = plan.polarisations;
+  const nP = pols.length;
   for (let iw = 0; iw < nW; iw++) {
     const k0 = w.k0[iw];
     const n0 = w.incN[iw];
     for (let ia = 0; ia < nA; ia++) {
+      if (points) {
+        let any = 0;
+        for (let ip = 0; ip < nP; ip++) any |= points[(ip * nA + ia) * nW + iw];
+        if (any === 0) continue;
+      }
       const beta = n0 * w.sinAngles[ia];
       const beta2 = beta * beta;
       layerTrig(plan, s, iw, k0, beta2);
-      for (let ip = 0; ip < pols.length; ip++) {
+      for (let ip = 0; ip < nP; ip++) {
         const idx = (ip * nA + ia) * nW + iw;
-        for (let l = 0; l < L; l++) {
-          out.dR[l * size + idx] = 0;
-          out.dT[l * size + idx] = 0;
-        }
+        if (points && points[idx] === 0) continue;
+        for (let l = 0; l < L; l++) out.dR[l * size + idx] = 0;
+        if (wantT) for (let l = 0; l < L; l++) out.dT[l * size + idx] = 0;
         const pol = pols[ip];
-        if (pol !== 'p') sweepLayers(out, plan, s, iw, k0, beta2, false, idx, pol === 'avg' ? 0.5 : 1);
-        if (pol !== 's') sweepLayers(out, plan, s, iw, k0, beta2, true, idx, pol === 'avg' ? 0.5 : 1);
+        const weight = pol === 'avg' ? 0.5 : 1;
+        if (pol !== 'p') sweepLayers(out, plan, s, iw, k0, beta2, false, idx, weight, wantT);
+        if (pol !== 's') sweepLayers(out, plan, s, iw, k0, beta2, true, idx, weight, wantT);
       }
     }
   }
   return out;
 }
 
-/** One polarisation's sweeps; adds weight·∂R/∂d_l and weight·∂T/∂d_l at idx. */
+/** One polarisation's sweeps; adds weight·∂R/∂d_l (and weight·∂T/∂d_l with wantT) at idx. */
 function sweepLayers(
   out: ThicknessDerivatives,
   plan: SpectrumPlan,
@@ -381,6 +410,7 @@ function sweepLayers(
   p: boolean,
   idx: number,
   weight: number,
+  wantT: boolean,
 ): void {
   const w = plan.work;
   const L = w.layerCount;
@@ -408,11 +438,14 @@ function sweepLayers(
     const g2r = k0 * b1i;
     const g2i = -k0 * b1r;
     const dR = 2 * (ROW[0] * g1r - ROW[1] * g1i + ROW[2] * g2r - ROW[3] * g2i);
-    const dT = 2 * (ROW[4] * g1r - ROW[5] * g1i + ROW[6] * g2r - ROW[7] * g2i);
     out.dR[l * size + idx] += weight * dR;
-    out.dT[l * size + idx] += weight * dT;
     rowTimesLayer(ROW, 0, s, l);
-    rowTimesLayer(ROW, 4, s, l);
+    // Without T the second row is neither used nor carried (a third of the sweep's work).
+    if (wantT) {
+      const dT = 2 * (ROW[4] * g1r - ROW[5] * g1i + ROW[6] * g2r - ROW[7] * g2i);
+      out.dT[l * size + idx] += weight * dT;
+      rowTimesLayer(ROW, 4, s, l);
+    }
   }
 }
 
