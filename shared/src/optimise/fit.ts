@@ -317,7 +317,8 @@ function createLmWork(merit: MaskMerit, bounds: LayerBounds, startNm: ArrayLike<
 
 /**
  * The refinement itself, on a prepared merit (used by Fit to mask and Grow layers). `startNm`
- * holds every front layer of the merit's plan; the result's thicknesses too.
+ * holds every front layer of the merit's plan; the result's thicknesses too. On return the merit's
+ * spectrum is that of the result's thicknesses.
  */
 export function refineThicknesses(
   merit: MaskMerit,
@@ -332,8 +333,14 @@ export function refineThicknesses(
 
   merit.compute(initial);
   const meritBefore = merit.meritOf();
-  let evaluations = 2;
-  let sum = merit.residuals(r, x);
+  let evaluations = 1;
+  // The start's spectrum serves for the iterate too unless a layer was moved into its bounds.
+  let clipped = false;
+  for (let i = 0; i < x.length; i++) if (x[i] !== initial[i]) clipped = true;
+  let sum = clipped ? merit.residuals(r, x) : merit.residualsOf(r, true);
+  if (clipped) evaluations++;
+  // Whether the merit's spectrum is that of x (not of a trial or a difference step).
+  let atX = true;
   let current = merit.meritOf();
   const history = [{ iteration: 0, merit: current }];
   let lambda = LAMBDA_START;
@@ -350,6 +357,7 @@ export function refineThicknesses(
       evaluations++;
     } else {
       evaluations += jacobianByDifferences(merit, w.jac, x, r, w.free, trial, rTrial);
+      atX = false;
     }
     normalEquations(w, merit.sampleCount);
     if (w.haveStep) updateSecant(w);
@@ -363,6 +371,7 @@ export function refineThicknesses(
         const moved = trialPoint(w);
         const sumTrial = merit.residuals(rTrial, trial);
         evaluations++;
+        atX = sumTrial < sum;
         if (sumTrial < sum) {
           const reduction = (sum - sumTrial) / sum;
           rememberStep(w, merit.sampleCount);
@@ -402,8 +411,10 @@ export function refineThicknesses(
     }
   }
 
-  merit.compute(x);
-  evaluations++;
+  if (!atX) {
+    merit.compute(x);
+    evaluations++;
+  }
   const after = merit.meritOf();
   const worstMargin = merit.worstMarginOf();
   return {
