@@ -102,6 +102,42 @@ describe('analytic thickness derivatives', () => {
     expect(full.dR.some((v) => Math.abs(v) > 1e-5)).toBe(true);
   });
 
+  it('give the same values again after thickness changes, and follow ε rewritten in place', () => {
+    // Reference: a fresh plan's first sweep, for the same thicknesses and for the changed material.
+    const stack = randomStack(6);
+    const grid = { wavelengthsNm: [420, 555.5, 910], anglesDeg: [0, 37, 71], polarisations };
+    const plan = createSpectrumPlan(stack, grid);
+    const out = createThicknessDerivatives(plan);
+    computeThicknessDerivatives(out, plan);
+    const moved = stack.layers.map((l, i) => l.thicknessNm + 3 * i + 1);
+    setLayerThicknesses(plan, moved);
+    computeThicknessDerivatives(out, plan);
+    const movedStack = {
+      ...stack,
+      layers: stack.layers.map((l, i) => ({ ...l, thicknessNm: moved[i] ?? 0 })),
+    };
+    const movedPlan = createSpectrumPlan(movedStack, grid);
+    const expected = computeThicknessDerivatives(createThicknessDerivatives(movedPlan), movedPlan);
+    expect(Array.from(out.dR)).toEqual(Array.from(expected.dR));
+    expect(Array.from(out.dT)).toEqual(Array.from(expected.dT));
+    // Layer 0 becomes n = 1.9 + 0.01i, written into the plan's permittivities (as Yield forecast
+    // does for index errors).
+    const L = stack.layers.length;
+    for (let iw = 0; iw < 3; iw++) {
+      plan.work.frontEpsRe[iw * L] = 1.9 * 1.9 - 0.01 * 0.01;
+      plan.work.frontEpsIm[iw * L] = 2 * 1.9 * 0.01;
+    }
+    computeThicknessDerivatives(out, plan);
+    const layers = movedStack.layers.map((l, i) =>
+      i === 0 ? { ...l, material: constantIndex(1.9, 0.01) } : l,
+    );
+    const changedPlan = createSpectrumPlan({ ...movedStack, layers }, grid);
+    const changed = computeThicknessDerivatives(createThicknessDerivatives(changedPlan), changedPlan);
+    expect(Array.from(out.dR)).toEqual(Array.from(changed.dR));
+    expect(Array.from(out.dT)).toEqual(Array.from(changed.dT));
+    expect(Array.from(changed.dR)).not.toEqual(Array.from(expected.dR));
+  });
+
   it('compute only the wanted spectrum points and leave the others as they were', () => {
     const stack = randomStack(4);
     const grid = { wavelengthsNm: [420, 555.5, 910], anglesDeg: [0, 37, 71], polarisations };
