@@ -209,7 +209,10 @@ function buildPlan(
   const entryOf = new Map<MaterialModel, MaterialEntry>();
   const checkMaterial = (value: unknown, field: string): MaterialModel => {
     if (value === null || typeof value !== 'object') return validateMaterialModel(value, field);
-    const known = seen.get(value) ?? materials.get(value);
+    // An object met earlier in this stack is the entry made or checked then (once per call).
+    const met = seen.get(value);
+    if (met) return met.model;
+    const known = materials.get(value);
     if (known && sameData(value, known.data)) {
       seen.set(value, known);
       entryOf.set(known.model, known);
