@@ -4,6 +4,7 @@ import {
   computeSpectrum,
   createSpectrumOutput,
   createSpectrumPlan,
+  createSpectrumPlanFor,
   responseAt,
   setLayerThicknesses,
   spectrumIndex,
@@ -153,5 +154,90 @@ describe('entry-point validation', () => {
     expect(() =>
       createSpectrumPlan({ ...twoLayer, substrate: sellmeier }, { ...grid, wavelengthsNm }),
     ).toThrow(/substrate\.validNm: 380 nm is outside/);
+  });
+});
+
+describe('a plan for another stack on the same grid', () => {
+  // Reference for every check here: a fresh createSpectrumPlan of the same stack, the path the
+  // tests above hold against single points and the handbook formulas.
+  const high = {
+    model: 'table' as const,
+    wavelengths: [400, 500, 600, 700, 800],
+    n: [2.45, 2.38, 2.33, 2.3, 2.28],
+    k: [0.002, 0.001, 0, 0, 0],
+    interpolation: 'pchip' as const,
+    clamp: true,
+  };
+  const low = { model: 'table' as const, wavelengths: [380, 900], n: [1.47, 1.45] };
+  const glass = {
+    model: 'sellmeier' as const,
+    B: [1.03961212, 0.231792344, 1.01046945],
+    C: [0.00600069867, 0.0200179144, 103.560653],
+  };
+  const stackOf = (materials: readonly (typeof high | typeof low)[]): OpticalStack => ({
+    incident: c(1),
+    layers: materials.map((material, i) => ({ material, thicknessNm: 40 + 17 * i })),
+    substrate: glass,
+    substrateThicknessMm: 1,
+    backLayers: [{ material: low, thicknessNm: 95 }],
+    exit: c(1),
+  });
+  const grid = {
+    wavelengthsNm: [390, 450, 560, 640, 850],
+    anglesDeg: [0, 35],
+    polarisations: ['s', 'p', 'avg'] as const,
+  };
+  const fresh = (stack: OpticalStack, back: 'none' | 'incoherent') =>
+    createSpectrumPlan(stack, { ...grid, polarisations: [...grid.polarisations] }, { back });
+  const spectrumOf = (plan: ReturnType<typeof createSpectrumPlan>) =>
+    computeSpectrum(createSpectrumOutput(plan), plan);
+
+  it.each(['none', 'incoherent'] as const)(
+    'gives bit-identical R, T, A and the same warnings as a fresh plan (back %s)',
+    (back) => {
+      const first = fresh(stackOf([low, high]), back);
+      const other = stackOf([high, low, high, low, high]);
+      const reused = createSpectrumPlanFor(other, first);
+      const expected = spectrumOf(fresh(other, back));
+      const got = spectrumOf(reused);
+      expect(Array.from(got.R)).toEqual(Array.from(expected.R));
+      expect(Array.from(got.T)).toEqual(Array.from(expected.T));
+      expect(Array.from(got.A)).toEqual(Array.from(expected.A));
+      expect(reused.back).toBe(back);
+      // The high-index table ends at 800 nm: 850 nm is held, and named by the layers it fills now.
+      expect(reused.warnings).toEqual(fresh(other, back).warnings);
+      expect(reused.warnings).toEqual(
+        [0, 2, 4].map(
+          (l) => `layers[${l}]: table covers 400–800 nm; its end values were held at 2 of 5 wavelengths`,
+        ),
+      );
+      // The materials were taken over from the first plan, not checked again.
+      expect(reused.stack.layers[1]?.material).toBe(first.stack.layers[0]?.material);
+    },
+  );
+
+  it('checks and evaluates a material again after its data changed in place', () => {
+    const edited = { ...high, n: [...high.n] };
+    const first = fresh(stackOf([edited, low]), 'none');
+    const before = spectrumOf(first).R[0];
+    edited.n[0] = 2.1;
+    const reused = createSpectrumPlanFor(stackOf([edited, low]), first);
+    const expected = spectrumOf(fresh(stackOf([edited, low]), 'none'));
+    expect(Array.from(spectrumOf(reused).R)).toEqual(Array.from(expected.R));
+    expect(expected.R[0]).not.toBe(before);
+    expect(reused.stack.layers[0]?.material).not.toBe(first.stack.layers[0]?.material);
+    // Invalid data is refused as by a fresh plan, even for an object seen before.
+    edited.n[1] = -1;
+    expect(() => createSpectrumPlanFor(stackOf([edited, low]), first)).toThrow(
+      /layers\[0\]\.material\.n\[1\]: must be greater than 0 \(got -1\)/,
+    );
+  });
+
+  it('refuses wavelengths outside a table without clamp as a fresh plan does', () => {
+    const narrow = { model: 'table' as const, wavelengths: [400, 700], n: [1.47, 1.45] };
+    const first = fresh(stackOf([high]), 'none');
+    const other = stackOf([high, narrow]);
+    expect(() => fresh(other, 'none')).toThrow(/layers\[1\]/);
+    expect(() => createSpectrumPlanFor(other, first)).toThrow(/layers\[1\]/);
   });
 });

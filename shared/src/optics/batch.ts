@@ -9,6 +9,7 @@ import {
   countOutsideRange,
   evaluateIndex,
   modelRangeNm,
+  validateMaterialModel,
   type IndexSamples,
   type MaterialModel,
 } from './dispersion.js';
@@ -123,7 +124,26 @@ export interface PlanWork {
   backSpan: LayerSpan;
   /** Light and media of the kernel call being made. */
   media: CoherentMedia;
+  /** Materials checked and evaluated on this grid, shared with plans made from this one. */
+  materials: MaterialCache;
 }
+
+/**
+ * @internal A checked material and its index on a plan's wavelengths, kept for the material object
+ * it came from. `data` is a copy of that object's content when it was checked: an entry serves only
+ * while the object still holds the same data, so a material edited in place is checked and
+ * evaluated again.
+ */
+interface MaterialEntry {
+  data: unknown;
+  model: MaterialModel;
+  samples: IndexSamples;
+  /** Wavelengths outside the model's range (held at its end values). */
+  outside: number;
+}
+
+/** @internal Material entries keyed by the caller's material object (identity). */
+type MaterialCache = WeakMap<object, MaterialEntry>;
 
 /**
  * Validates `stack`, `grid` and `options` once and prepares everything computeSpectrum needs.
@@ -136,7 +156,6 @@ export function createSpectrumPlan(
   grid: SpectralGrid,
   options: SpectrumOptions = {},
 ): SpectrumPlan {
-  const checked = validateOpticalStack(stack);
   const wavelengthsNm = toFloat64(grid.wavelengthsNm, 'wavelengthsNm', positiveNumber);
   const anglesDeg = toFloat64(grid.anglesDeg, 'anglesDeg', incidenceAngle);
   const polarisations = checkPolarisations(grid.polarisations);
@@ -154,13 +173,82 @@ export function createSpectrumPlan(
       'complex r and t are defined for s and p, not for their average',
     );
   }
+  return buildPlan(stack, wavelengthsNm, anglesDeg, polarisations, back, amplitudes, new WeakMap());
+}
+
+/**
+ * A plan for `stack` on the grid and options of `previous` (e.g. the same mask for a structure
+ * with a layer inserted). Materials `previous` or a plan it was made from has seen (the same
+ * object with the same data) are neither checked nor evaluated again; the result is the same as
+ * createSpectrumPlan's for that stack, warnings included. Throws as createSpectrumPlan.
+ */
+export function createSpectrumPlanFor(stack: OpticalStack, previous: SpectrumPlan): SpectrumPlan {
+  return buildPlan(
+    stack,
+    previous.wavelengthsNm,
+    previous.anglesDeg,
+    previous.polarisations,
+    previous.back,
+    previous.amplitudes,
+    previous.work.materials,
+  );
+}
+
+/** The plan from a checked grid and options; `materials` is read and extended. */
+function buildPlan(
+  stack: OpticalStack,
+  wavelengthsNm: Float64Array,
+  anglesDeg: Float64Array,
+  polarisations: readonly Polarisation[],
+  back: BackSurface,
+  amplitudes: boolean,
+  materials: MaterialCache,
+): SpectrumPlan {
+  // Models checked in this call, by the object they came from (one object may fill many layers).
+  const seen = new Map<object, MaterialEntry>();
+  const entryOf = new Map<MaterialModel, MaterialEntry>();
+  const checkMaterial = (value: unknown, field: string): MaterialModel => {
+    if (value === null || typeof value !== 'object') return validateMaterialModel(value, field);
+    // An object met earlier in this stack is the entry made or checked then (once per call).
+    const met = seen.get(value);
+    if (met) return met.model;
+    const known = materials.get(value);
+    if (known && sameData(value, known.data)) {
+      seen.set(value, known);
+      entryOf.set(known.model, known);
+      return known.model;
+    }
+    const model = validateMaterialModel(value, field);
+    const entry: MaterialEntry = {
+      data: copyData(value),
+      model,
+      samples: { n: EMPTY, k: EMPTY },
+      outside: 0,
+    };
+    seen.set(value, entry);
+    entryOf.set(model, entry);
+    return model;
+  };
+  const checked = validateOpticalStack(stack, checkMaterial);
 
   const nW = wavelengthsNm.length;
   const warnings: string[] = [];
   const evalMedium = (model: MaterialModel, field: string): IndexSamples => {
-    const out = { n: new Float64Array(nW), k: new Float64Array(nW) };
-    evaluateIndex(out, model, wavelengthsNm, field);
-    const outside = countOutsideRange(model, wavelengthsNm);
+    const entry = entryOf.get(model);
+    let samples: IndexSamples;
+    let outside: number;
+    if (entry && entry.samples.n.length === nW) {
+      samples = entry.samples;
+      outside = entry.outside;
+    } else {
+      samples = { n: new Float64Array(nW), k: new Float64Array(nW) };
+      evaluateIndex(samples, model, wavelengthsNm, field);
+      outside = countOutsideRange(model, wavelengthsNm);
+      if (entry) {
+        entry.samples = samples;
+        entry.outside = outside;
+      }
+    }
     const range = modelRangeNm(model);
     if (outside > 0 && range) {
       const what = model.model === 'table' ? 'table covers' : `${model.model} model holds for`;
@@ -168,7 +256,7 @@ export function createSpectrumPlan(
         `${field}: ${what} ${range.from}–${range.to} nm; its end values were held at ${outside} of ${nW} wavelengths`,
       );
     }
-    return out;
+    return samples;
   };
   const toEps = (samples: IndexSamples, re: Float64Array, im: Float64Array, stride: number, at: number) => {
     for (let i = 0; i < nW; i++) {
@@ -229,6 +317,9 @@ export function createSpectrumPlan(
     }
   }
 
+  // Only materials that evaluated without error on this grid are kept for later plans.
+  for (const [value, entry] of seen) materials.set(value, entry);
+
   const k0 = new Float64Array(nW);
   for (let i = 0; i < nW; i++) k0[i] = (2 * Math.PI) / wavelengthsNm[i];
   const sinAngles = new Float64Array(anglesDeg.length);
@@ -271,8 +362,44 @@ export function createSpectrumPlan(
       frontReversedSpan: span(front, true),
       backSpan: span(backLayers, false),
       media: { k0: 0, beta: 0, incRe: 0, incIm: 0, exitRe: 0, exitIm: 0, polMask },
+      materials,
     },
   };
+}
+
+/** Marks a material entry not yet evaluated on the grid. */
+const EMPTY = new Float64Array(0);
+
+/** Whether two pieces of plain data (numbers, strings, booleans, arrays, plain objects) are equal. */
+function sameData(a: unknown, b: unknown): boolean {
+  if (a === b) return true;
+  if (a === null || b === null || typeof a !== 'object' || typeof b !== 'object') return false;
+  if (Array.isArray(a)) {
+    if (!Array.isArray(b) || a.length !== b.length) return false;
+    for (let i = 0; i < a.length; i++) {
+      const x: unknown = a[i];
+      const y: unknown = b[i];
+      if (x !== y && !sameData(x, y)) return false;
+    }
+    return true;
+  }
+  if (Array.isArray(b)) return false;
+  const ka = Object.keys(a);
+  if (ka.length !== Object.keys(b).length) return false;
+  for (const key of ka) {
+    if (!Object.hasOwn(b, key)) return false;
+    if (!sameData((a as Record<string, unknown>)[key], (b as Record<string, unknown>)[key])) return false;
+  }
+  return true;
+}
+
+/** A deep copy of plain data, to compare a material object against later ({@link sameData}). */
+function copyData(value: unknown): unknown {
+  if (value === null || typeof value !== 'object') return value;
+  if (Array.isArray(value)) return value.map(copyData);
+  const out: Record<string, unknown> = {};
+  for (const key of Object.keys(value)) out[key] = copyData((value as Record<string, unknown>)[key]);
+  return out;
 }
 
 function span(

@@ -88,6 +88,85 @@ describe('analytic thickness derivatives', () => {
       expect(scale).toBeGreaterThan(1e-5);
     },
   );
+
+  // The reduced sweeps are checked against the full ones, which the central differences above hold.
+  it.each([1, 2, 3])("without T give the full sweep's ∂R/∂d exactly (random stack %i)", (seed) => {
+    const stack = randomStack(seed);
+    const grid = { wavelengthsNm: [420, 555.5, 910], anglesDeg: [0, 37, 71], polarisations };
+    const plan = createSpectrumPlan(stack, grid);
+    const full = computeThicknessDerivatives(createThicknessDerivatives(plan), plan);
+    const onlyR = createThicknessDerivatives(plan, { wantT: false });
+    expect(onlyR.dT.length).toBe(0);
+    computeThicknessDerivatives(onlyR, plan, { wantT: false });
+    expect(Array.from(onlyR.dR)).toEqual(Array.from(full.dR));
+    expect(full.dR.some((v) => Math.abs(v) > 1e-5)).toBe(true);
+  });
+
+  it('give the same values again after thickness changes, and follow ε rewritten in place', () => {
+    // Reference: a fresh plan's first sweep, for the same thicknesses and for the changed material.
+    const stack = randomStack(6);
+    const grid = { wavelengthsNm: [420, 555.5, 910], anglesDeg: [0, 37, 71], polarisations };
+    const plan = createSpectrumPlan(stack, grid);
+    const out = createThicknessDerivatives(plan);
+    computeThicknessDerivatives(out, plan);
+    const moved = stack.layers.map((l, i) => l.thicknessNm + 3 * i + 1);
+    setLayerThicknesses(plan, moved);
+    computeThicknessDerivatives(out, plan);
+    const movedStack = {
+      ...stack,
+      layers: stack.layers.map((l, i) => ({ ...l, thicknessNm: moved[i] ?? 0 })),
+    };
+    const movedPlan = createSpectrumPlan(movedStack, grid);
+    const expected = computeThicknessDerivatives(createThicknessDerivatives(movedPlan), movedPlan);
+    expect(Array.from(out.dR)).toEqual(Array.from(expected.dR));
+    expect(Array.from(out.dT)).toEqual(Array.from(expected.dT));
+    // Layer 0 becomes n = 1.9 + 0.01i, written into the plan's permittivities (as Yield forecast
+    // does for index errors).
+    const L = stack.layers.length;
+    for (let iw = 0; iw < 3; iw++) {
+      plan.work.frontEpsRe[iw * L] = 1.9 * 1.9 - 0.01 * 0.01;
+      plan.work.frontEpsIm[iw * L] = 2 * 1.9 * 0.01;
+    }
+    computeThicknessDerivatives(out, plan);
+    const layers = movedStack.layers.map((l, i) =>
+      i === 0 ? { ...l, material: constantIndex(1.9, 0.01) } : l,
+    );
+    const changedPlan = createSpectrumPlan({ ...movedStack, layers }, grid);
+    const changed = computeThicknessDerivatives(createThicknessDerivatives(changedPlan), changedPlan);
+    expect(Array.from(out.dR)).toEqual(Array.from(changed.dR));
+    expect(Array.from(out.dT)).toEqual(Array.from(changed.dT));
+    expect(Array.from(changed.dR)).not.toEqual(Array.from(expected.dR));
+  });
+
+  it('compute only the wanted spectrum points and leave the others as they were', () => {
+    const stack = randomStack(4);
+    const grid = { wavelengthsNm: [420, 555.5, 910], anglesDeg: [0, 37, 71], polarisations };
+    const plan = createSpectrumPlan(stack, grid);
+    const full = computeThicknessDerivatives(createThicknessDerivatives(plan), plan);
+    // Every third point wanted; (420 nm, 37°) not at all, in any polarisation.
+    const points = new Uint8Array(plan.size);
+    for (let i = 0; i < plan.size; i++) points[i] = i % 3 === 0 ? 1 : 0;
+    for (let ip = 0; ip < 3; ip++) points[(ip * 3 + 1) * 3] = 0;
+    const part = createThicknessDerivatives(plan);
+    part.dR.fill(7);
+    part.dT.fill(7);
+    computeThicknessDerivatives(part, plan, { points });
+    const L = stack.layers.length;
+    for (let l = 0; l < L; l++) {
+      for (let i = 0; i < plan.size; i++) {
+        const at = l * plan.size + i;
+        const wanted = points[i] === 1;
+        expect(part.dR[at]).toBe(wanted ? full.dR[at] : 7);
+        expect(part.dT[at]).toBe(wanted ? full.dT[at] : 7);
+      }
+    }
+    expect(() => computeThicknessDerivatives(part, plan, { points: new Uint8Array(2) })).toThrow(
+      /points: must hold 27 flags/,
+    );
+    expect(() =>
+      computeThicknessDerivatives(createThicknessDerivatives(plan, { wantT: false }), plan),
+    ).toThrow(/out: derivative arrays/);
+  });
 });
 
 describe('analytic needle function', () => {

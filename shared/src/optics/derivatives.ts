@@ -32,7 +32,20 @@ const ROOT = new Float64Array(2);
 /** ∂R/∂d and ∂T/∂d per front layer, nm⁻¹: [l·plan.size + spectrumIndex]. */
 export interface ThicknessDerivatives {
   dR: Float64Array;
+  /** Empty when the derivatives were made without T ({@link DerivativeOptions.wantT} false). */
   dT: Float64Array;
+}
+
+/** What {@link computeThicknessDerivatives} computes; by default everything. */
+export interface DerivativeOptions {
+  /** ∂T/∂d as well as ∂R/∂d (default true). Without it `dT` is neither needed nor written. */
+  wantT?: boolean;
+  /**
+   * Spectrum indices wanted (1) or not (0), length plan.size; the entries of other indices are
+   * left as they were, and a (wavelength, angle) with no wanted index is not swept at all.
+   * Default: every index.
+   */
+  points?: Uint8Array | null;
 }
 
 /** Materials a needle may be made of, on the plan's wavelengths: ε = N², [m·nWavelengths + iWl]. */
@@ -138,11 +151,14 @@ function checkPlan(plan: SpectrumPlan): void {
   }
 }
 
-/** Allocates derivative arrays for `plan`. */
-export function createThicknessDerivatives(plan: SpectrumPlan): ThicknessDerivatives {
+/** Allocates derivative arrays for `plan` (`dT` empty when `wantT` is false). */
+export function createThicknessDerivatives(
+  plan: SpectrumPlan,
+  options: Pick<DerivativeOptions, 'wantT'> = {},
+): ThicknessDerivatives {
   checkPlan(plan);
   const n = plan.size * plan.work.layerCount;
-  return { dR: new Float64Array(n), dT: new Float64Array(n) };
+  return { dR: new Float64Array(n), dT: new Float64Array(options.wantT === false ? 0 : n) };
 }
 
 /**
@@ -331,46 +347,59 @@ function surfaceCoefficients(s: Scratch, e0r: number, e0i: number, etaExitRe: nu
 /**
  * ∂R/∂d and ∂T/∂d of every front layer (nm⁻¹) on the plan's grid into `out` (from
  * {@link createThicknessDerivatives}), laid out [l·plan.size + spectrumIndex]; `avg` gets the mean
- * of s and p. See the file comment for the method. Allocates nothing after the first call on a plan.
+ * of s and p. `options` leaves out T or spectrum indices whose derivatives are not used. See the
+ * file comment for the method. Allocates nothing after the first call on a plan.
  */
 export function computeThicknessDerivatives(
   out: ThicknessDerivatives,
   plan: SpectrumPlan,
+  options: DerivativeOptions = {},
 ): ThicknessDerivatives {
   checkPlan(plan);
   const w = plan.work;
   const L = w.layerCount;
   const size = plan.size;
-  if (out.dR.length < L * size || out.dT.length < L * size) {
+  const wantT = options.wantT !== false;
+  const points = options.points ?? null;
+  if (out.dR.length < L * size || (wantT && out.dT.length < L * size)) {
     throw new OpticsInputError('out', `derivative arrays must hold ${L * size} values`);
+  }
+  if (points && points.length < size) {
+    throw new OpticsInputError('points', `must hold ${size} flags (got ${points.length})`);
   }
   const s = scratch(plan, 1);
   const nW = plan.wavelengthsNm.length;
   const nA = plan.anglesDeg.length;
   const pols = plan.polarisations;
+  const nP = pols.length;
   for (let iw = 0; iw < nW; iw++) {
     const k0 = w.k0[iw];
     const n0 = w.incN[iw];
     for (let ia = 0; ia < nA; ia++) {
+      if (points) {
+        let any = 0;
+        for (let ip = 0; ip < nP; ip++) any |= points[(ip * nA + ia) * nW + iw];
+        if (any === 0) continue;
+      }
       const beta = n0 * w.sinAngles[ia];
       const beta2 = beta * beta;
       layerTrig(plan, s, iw, k0, beta2);
-      for (let ip = 0; ip < pols.length; ip++) {
+      for (let ip = 0; ip < nP; ip++) {
         const idx = (ip * nA + ia) * nW + iw;
-        for (let l = 0; l < L; l++) {
-          out.dR[l * size + idx] = 0;
-          out.dT[l * size + idx] = 0;
-        }
+        if (points && points[idx] === 0) continue;
+        for (let l = 0; l < L; l++) out.dR[l * size + idx] = 0;
+        if (wantT) for (let l = 0; l < L; l++) out.dT[l * size + idx] = 0;
         const pol = pols[ip];
-        if (pol !== 'p') sweepLayers(out, plan, s, iw, k0, beta2, false, idx, pol === 'avg' ? 0.5 : 1);
-        if (pol !== 's') sweepLayers(out, plan, s, iw, k0, beta2, true, idx, pol === 'avg' ? 0.5 : 1);
+        const weight = pol === 'avg' ? 0.5 : 1;
+        if (pol !== 'p') sweepLayers(out, plan, s, iw, k0, beta2, false, idx, weight, wantT);
+        if (pol !== 's') sweepLayers(out, plan, s, iw, k0, beta2, true, idx, weight, wantT);
       }
     }
   }
   return out;
 }
 
-/** One polarisation's sweeps; adds weight·∂R/∂d_l and weight·∂T/∂d_l at idx. */
+/** One polarisation's sweeps; adds weight·∂R/∂d_l (and weight·∂T/∂d_l with wantT) at idx. */
 function sweepLayers(
   out: ThicknessDerivatives,
   plan: SpectrumPlan,
@@ -381,11 +410,16 @@ function sweepLayers(
   p: boolean,
   idx: number,
   weight: number,
+  wantT: boolean,
 ): void {
   const w = plan.work;
   const L = w.layerCount;
   const size = plan.size;
   backwardPass(plan, s, iw, beta2, p);
+  if (!wantT) {
+    sweepReflectance(out.dR, s, L, size, k0, idx, weight);
+    return;
+  }
   // Rows ℓ_R = (COEF[0…1], COEF[2…3])·P_j and ℓ_T = (COEF[4…5], COEF[6…7])·P_j, carried forward.
   ROW.set(COEF);
   for (let l = 0; l < L; l++) {
@@ -408,12 +442,70 @@ function sweepLayers(
     const g2r = k0 * b1i;
     const g2i = -k0 * b1r;
     const dR = 2 * (ROW[0] * g1r - ROW[1] * g1i + ROW[2] * g2r - ROW[3] * g2i);
-    const dT = 2 * (ROW[4] * g1r - ROW[5] * g1i + ROW[6] * g2r - ROW[7] * g2i);
     out.dR[l * size + idx] += weight * dR;
-    out.dT[l * size + idx] += weight * dT;
     rowTimesLayer(ROW, 0, s, l);
-    rowTimesLayer(ROW, 4, s, l);
+    // Without T the second row is neither used nor carried (a third of the sweep's work).
+    if (wantT) {
+      const dT = 2 * (ROW[4] * g1r - ROW[5] * g1i + ROW[6] * g2r - ROW[7] * g2i);
+      out.dT[l * size + idx] += weight * dT;
+      rowTimesLayer(ROW, 4, s, l);
+    }
   }
+}
+
+/**
+ * The forward sweep of {@link sweepLayers} for ∂R/∂d alone, with the row ℓ_R in locals (faster
+ * than through ROW): adds weight·∂R/∂d_l at idx, by the same arithmetic as the full sweep.
+ */
+function sweepReflectance(
+  dR: Float64Array,
+  s: Scratch,
+  L: number,
+  size: number,
+  k0: number,
+  idx: number,
+  weight: number,
+): void {
+  let x1r = COEF[0];
+  let x1i = COEF[1];
+  let x2r = COEF[2];
+  let x2i = COEF[3];
+  for (let l = 0; l < L; l++) {
+    // ℓ_R·G v with G v = −i k0 [a C; b B] (as in sweepLayers)
+    const aCi = complexProduct(s.ar[l], s.ai[l], s.vCr[l], s.vCi[l]);
+    const aCr = PRODUCT[0];
+    const bBi = complexProduct(s.br[l], s.bi[l], s.vBr[l], s.vBi[l]);
+    const bBr = PRODUCT[0];
+    const g1r = k0 * aCi;
+    const g1i = -k0 * aCr;
+    const g2r = k0 * bBi;
+    const g2i = -k0 * bBr;
+    dR[l * size + idx] += weight * (2 * (x1r * g1r - x1i * g1i + x2r * g2r - x2i * g2i));
+    // ℓ_R ← ℓ_R·M_l, M = [[c, u], [g, c]]
+    const cr = s.cr[l];
+    const ci = s.ci[l];
+    const ur = s.ur[l];
+    const ui = s.ui[l];
+    const gr = s.gr[l];
+    const gi = s.gi[l];
+    const y1r = x1r * cr - x1i * ci + x2r * gr - x2i * gi;
+    const y1i = x1r * ci + x1i * cr + x2r * gi + x2i * gr;
+    const y2r = x1r * ur - x1i * ui + x2r * cr - x2i * ci;
+    const y2i = x1r * ui + x1i * ur + x2r * ci + x2i * cr;
+    x1r = y1r;
+    x1i = y1i;
+    x2r = y2r;
+    x2i = y2i;
+  }
+}
+
+/** Real part of the last {@link complexProduct}. */
+const PRODUCT = new Float64Array(1);
+
+/** (xr + i xi)(yr + i yi): the real part into PRODUCT[0], the imaginary part returned. */
+function complexProduct(xr: number, xi: number, yr: number, yi: number): number {
+  PRODUCT[0] = xr * yr - xi * yi;
+  return xr * yi + xi * yr;
 }
 
 /** Rows of the forward sweep: ℓ_R at 0…3 and ℓ_T at 4…7 (re, im of each element). */

@@ -133,29 +133,34 @@ export function parseStack(input: unknown): OpticalStack {
 
 /**
  * Checks an OpticalStack built in code (not from a description) and returns a normalised copy.
- * Field paths use the OpticalStack's own names (`layers[0].thicknessNm`).
+ * Field paths use the OpticalStack's own names (`layers[0].thicknessNm`). `checkMaterial` checks
+ * each medium and layer material (validateMaterialModel unless given, e.g. by a plan that reuses
+ * materials it has checked before).
  */
-export function validateOpticalStack(stack: OpticalStack): OpticalStack {
+export function validateOpticalStack(
+  stack: OpticalStack,
+  checkMaterial: (value: unknown, field: string) => MaterialModel = validateMaterialModel,
+): OpticalStack {
   const obj = plainObject(stack, '');
   const layers = (list: unknown, field: string): Layer[] =>
     arrayValue(list, field).map((item, i) => {
       const at = fieldPath(field, i);
       const layer = plainObject(item, at);
       const out: Layer = {
-        material: validateMaterialModel(layer.material, fieldPath(at, 'material')),
+        material: checkMaterial(layer.material, fieldPath(at, 'material')),
         thicknessNm: nonNegativeNumber(layer.thicknessNm, fieldPath(at, 'thicknessNm')),
       };
       if (typeof layer.label === 'string') out.label = layer.label;
       return out;
     });
-  const incident = validateMaterialModel(obj.incident, 'incident');
+  const incident = checkMaterial(obj.incident, 'incident');
   checkIncidentLossless(incident, 'incident');
   const out: OpticalStack = {
     incident,
     layers: layers(obj.layers, 'layers'),
-    substrate: validateMaterialModel(obj.substrate, 'substrate'),
+    substrate: checkMaterial(obj.substrate, 'substrate'),
     backLayers: obj.backLayers === undefined ? [] : layers(obj.backLayers, 'backLayers'),
-    exit: obj.exit === undefined ? incident : validateMaterialModel(obj.exit, 'exit'),
+    exit: obj.exit === undefined ? incident : checkMaterial(obj.exit, 'exit'),
   };
   if (obj.substrateThicknessMm !== undefined) {
     out.substrateThicknessMm = positiveNumber(obj.substrateThicknessMm, 'substrateThicknessMm');

@@ -5,7 +5,8 @@ import { constantIndex as c } from '../optics/dispersion.js';
 import { OpticsInputError } from '../optics/errors.js';
 import { evaluateMask, type SpecMask } from '../optics/mask.js';
 import type { OpticalStack } from '../optics/stack.js';
-import { fitToMask } from './fit.js';
+import { fitToMask, layerBounds, refineThicknesses } from './fit.js';
+import { createMaskMerit } from './merit.js';
 
 const N0 = 1;
 const NS = 1.52;
@@ -176,6 +177,37 @@ describe('Fit to mask', () => {
     // The analytic Jacobian costs one evaluation, differences one spectrum per free layer.
     expect(analytic.evaluations).toBeLessThan(differences.evaluations);
   });
+
+  it.each([
+    ['analytic', 0.05],
+    ['analytic', 0.1],
+    ['differences', 0.05],
+    ['differences', 0.1],
+  ] as const)(
+    'leaves the merit at the refined thicknesses, so their residuals need no new spectrum (%s, R ≤ %f percent)',
+    (derivatives, maxPercent) => {
+      // Reference: the residuals of a spectrum computed afresh at the result on the same merit.
+      // The two limits end one fit on an accepted step and the other on rejected trials.
+      const mask: SpecMask = {
+        bands: [{ from_nm: 420, to_nm: 680, quantity: 'R', max_percent: maxPercent, step_nm: 10 }],
+      };
+      const start = onGlass([95, 60, 25].map((d, i) => ({ n: i % 2 === 0 ? 1.38 : 2.1, thicknessNm: d })));
+      const merit = createMaskMerit(start, mask);
+      // The first layer starts below its lower bound, so the iterate is not the start.
+      const fit = refineThicknesses(merit, [95, 60, 3], layerBounds(3, 5, 500, undefined), {
+        maxIterations: 40,
+        derivatives,
+      });
+      const kept = new Float64Array(merit.sampleCount);
+      const fresh = new Float64Array(merit.sampleCount);
+      const sum = merit.residualsOf(kept, true);
+      expect(merit.residuals(fresh, fit.thicknessesNm)).toBe(sum);
+      expect(Array.from(kept)).toEqual(Array.from(fresh));
+      expect(fit.merit.after).toBe(merit.meritOf());
+      expect(fit.iterations).toBeGreaterThan(0);
+      expect(fit.merit.after).toBeLessThan(fit.merit.before);
+    },
+  );
 
   it('is deterministic, streams every iteration, and stops when told to', () => {
     const start = onGlass([

@@ -257,6 +257,9 @@ interface LmWork {
   /** JᵀJ and Jᵀr. */
   a: Float64Array;
   g: Float64Array;
+  /** The Jacobian's non-zero rows, column by column ([j·m + row]), and their residuals. */
+  columns: Float64Array;
+  rUsed: Float64Array;
   /** 1 for a layer that moves this iteration, 0 for one frozen on its bound. */
   active: Uint8Array;
   sub: Float64Array;
@@ -295,6 +298,8 @@ function createLmWork(merit: MaskMerit, bounds: LayerBounds, startNm: ArrayLike<
     jac: f(m * p),
     a: f(p * p),
     g: f(p),
+    columns: f(m * p),
+    rUsed: f(m),
     active: new Uint8Array(p),
     sub: f(p * p),
     rhs: f(p),
@@ -312,7 +317,8 @@ function createLmWork(merit: MaskMerit, bounds: LayerBounds, startNm: ArrayLike<
 
 /**
  * The refinement itself, on a prepared merit (used by Fit to mask and Grow layers). `startNm`
- * holds every front layer of the merit's plan; the result's thicknesses too.
+ * holds every front layer of the merit's plan; the result's thicknesses too. On return the merit's
+ * spectrum is that of the result's thicknesses.
  */
 export function refineThicknesses(
   merit: MaskMerit,
@@ -327,8 +333,14 @@ export function refineThicknesses(
 
   merit.compute(initial);
   const meritBefore = merit.meritOf();
-  let evaluations = 2;
-  let sum = merit.residuals(r, x);
+  let evaluations = 1;
+  // The start's spectrum serves for the iterate too unless a layer was moved into its bounds.
+  let clipped = false;
+  for (let i = 0; i < x.length; i++) if (x[i] !== initial[i]) clipped = true;
+  let sum = clipped ? merit.residuals(r, x) : merit.residualsOf(r, true);
+  if (clipped) evaluations++;
+  // Whether the merit's spectrum is that of x (not of a trial or a difference step).
+  let atX = true;
   let current = merit.meritOf();
   const history = [{ iteration: 0, merit: current }];
   let lambda = LAMBDA_START;
@@ -345,6 +357,7 @@ export function refineThicknesses(
       evaluations++;
     } else {
       evaluations += jacobianByDifferences(merit, w.jac, x, r, w.free, trial, rTrial);
+      atX = false;
     }
     normalEquations(w, merit.sampleCount);
     if (w.haveStep) updateSecant(w);
@@ -358,6 +371,7 @@ export function refineThicknesses(
         const moved = trialPoint(w);
         const sumTrial = merit.residuals(rTrial, trial);
         evaluations++;
+        atX = sumTrial < sum;
         if (sumTrial < sum) {
           const reduction = (sum - sumTrial) / sum;
           rememberStep(w, merit.sampleCount);
@@ -397,8 +411,10 @@ export function refineThicknesses(
     }
   }
 
-  merit.compute(x);
-  evaluations++;
+  if (!atX) {
+    merit.compute(x);
+    evaluations++;
+  }
   const after = merit.meritOf();
   const worstMargin = merit.worstMarginOf();
   return {
@@ -415,19 +431,57 @@ export function refineThicknesses(
   };
 }
 
-/** A = JᵀJ (symmetric, both halves) and g = Jᵀr over the m samples. */
+/**
+ * A = JᵀJ (symmetric, both halves) and g = Jᵀr over the m samples. Rows that are zero (limit
+ * samples that are met) are left out; the others are gathered column by column, so each entry of
+ * the lower half is one dot product over the samples (in sample order, as a row-by-row sum), four
+ * entries at a time.
+ */
 function normalEquations(w: LmWork, m: number): void {
-  const { a, g, jac, r } = w;
+  const { a, g, jac, r, columns, rUsed } = w;
   const p = w.free.length;
-  a.fill(0);
-  g.fill(0);
+  let n = 0;
   for (let s = 0; s < m; s++) {
-    const rs = r[s];
-    for (let j = 0; j < p; j++) {
-      const jj = jac[s * p + j];
-      if (jj === 0) continue;
-      g[j] += jj * rs;
-      for (let k = 0; k <= j; k++) a[j * p + k] += jj * jac[s * p + k];
+    const row = s * p;
+    let j = 0;
+    while (j < p && jac[row + j] === 0) j++;
+    if (j === p) continue;
+    for (let k = 0; k < p; k++) columns[k * m + n] = jac[row + k];
+    rUsed[n] = r[s];
+    n++;
+  }
+  for (let j = 0; j < p; j++) {
+    const cj = j * m;
+    let v = 0;
+    for (let q = 0; q < n; q++) v += columns[cj + q] * rUsed[q];
+    g[j] = v;
+    let k = 0;
+    for (; k + 3 <= j; k += 4) {
+      const c0 = k * m;
+      const c1 = c0 + m;
+      const c2 = c1 + m;
+      const c3 = c2 + m;
+      let s0 = 0;
+      let s1 = 0;
+      let s2 = 0;
+      let s3 = 0;
+      for (let q = 0; q < n; q++) {
+        const x = columns[cj + q];
+        s0 += x * columns[c0 + q];
+        s1 += x * columns[c1 + q];
+        s2 += x * columns[c2 + q];
+        s3 += x * columns[c3 + q];
+      }
+      a[j * p + k] = s0;
+      a[j * p + k + 1] = s1;
+      a[j * p + k + 2] = s2;
+      a[j * p + k + 3] = s3;
+    }
+    for (; k <= j; k++) {
+      const ck = k * m;
+      let s0 = 0;
+      for (let q = 0; q < n; q++) s0 += columns[cj + q] * columns[ck + q];
+      a[j * p + k] = s0;
     }
   }
   for (let j = 0; j < p; j++) for (let k = 0; k < j; k++) a[k * p + j] = a[j * p + k];

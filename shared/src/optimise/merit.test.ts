@@ -5,7 +5,40 @@ import { constantIndex as c } from '../optics/dispersion.js';
 import { OpticsInputError } from '../optics/errors.js';
 import { evaluateMask, evaluateMaskOnSpectrum, type SpecMask } from '../optics/mask.js';
 import type { OpticalStack } from '../optics/stack.js';
-import { createMaskMerit, rms } from './merit.js';
+import { createMaskMerit, rms, type MaskMerit } from './merit.js';
+
+/**
+ * Largest difference between `jac` (every layer free) and central differences (h = 1e-4 nm) of
+ * the residuals, and the largest difference quotient, over the samples `use` accepts.
+ */
+function againstDifferences(
+  merit: MaskMerit,
+  jac: Float64Array,
+  d: readonly number[],
+  use: (sample: number) => boolean,
+): { worst: number; scale: number } {
+  const m = merit.sampleCount;
+  const plus = new Float64Array(m);
+  const minus = new Float64Array(m);
+  const h = 1e-4;
+  let worst = 0;
+  let scale = 0;
+  for (let j = 0; j < d.length; j++) {
+    const up = d.slice();
+    const down = d.slice();
+    up[j] = elementAt(d, j, 'the thicknesses') + h;
+    down[j] = elementAt(d, j, 'the thicknesses') - h;
+    merit.residuals(plus, up);
+    merit.residuals(minus, down);
+    for (let s = 0; s < m; s++) {
+      if (!use(s)) continue;
+      const fd = (elementAt(plus, s, 'the residuals') - elementAt(minus, s, 'the residuals')) / (2 * h);
+      worst = Math.max(worst, Math.abs(fd - elementAt(jac, s * d.length + j, 'the Jacobian')));
+      scale = Math.max(scale, Math.abs(fd));
+    }
+  }
+  return { worst, scale };
+}
 
 const stack: OpticalStack = {
   incident: c(1),
@@ -138,27 +171,55 @@ describe('mask merit', () => {
     const jac = new Float64Array(m * d.length);
     smooth.compute(d);
     smooth.jacobian(jac, d, [0, 1, 2]);
-    const plus = new Float64Array(m);
-    const minus = new Float64Array(m);
-    const h = 1e-4;
-    let worst = 0;
-    let scale = 0;
-    for (let j = 0; j < d.length; j++) {
-      const up = d.slice();
-      const down = d.slice();
-      up[j] = elementAt(d, j, 'the thicknesses') + h;
-      down[j] = elementAt(d, j, 'the thicknesses') - h;
-      smooth.residuals(plus, up);
-      smooth.residuals(minus, down);
-      for (let s = 0; s < m; s++) {
-        const fd = (elementAt(plus, s, 'the residuals') - elementAt(minus, s, 'the residuals')) / (2 * h);
-        worst = Math.max(worst, Math.abs(fd - elementAt(jac, s * d.length + j, 'the Jacobian')));
-        scale = Math.max(scale, Math.abs(fd));
-      }
-    }
+    const { worst, scale } = againstDifferences(smooth, jac, d, () => true);
     // Every sample is active on the smooth merit, so no column is zero.
     expect(scale).toBeGreaterThan(1e-3);
     expect(worst).toBeLessThan(1e-6 * scale);
+  });
+
+  it('gives the one-sided merit an R-only Jacobian with zero rows where a limit is met', () => {
+    // Central differences of the residuals are the reference (the one-sided derivative on the
+    // violated side; zero where a limit is met and stays met within the step).
+    const mask: SpecMask = {
+      bands: [{ from_nm: 400, to_nm: 700, quantity: 'R', max_percent: 5, angles_deg: [0, 30] }],
+    };
+    const merit = createMaskMerit(stack, mask);
+    const d = stack.layers.map((l) => l.thicknessNm);
+    const m = merit.sampleCount;
+    const r = new Float64Array(m);
+    merit.residuals(r, d);
+    const active = Array.from(r, (v) => (v !== 0 ? 1 : 0));
+    expect(active.filter((a) => a === 1).length).toBeGreaterThan(5);
+    expect(active.filter((a) => a === 0).length).toBeGreaterThan(5);
+    const jac = new Float64Array(m * d.length).fill(9);
+    merit.jacobian(jac, d, [0, 1, 2]);
+    const { worst, scale } = againstDifferences(merit, jac, d, (s) => {
+      if (active[s] === 1) return true;
+      // A met limit's row is zero (the buffer held 9 before).
+      for (let j = 0; j < d.length; j++) expect(elementAt(jac, s * d.length + j, 'the Jacobian')).toBe(0);
+      return false;
+    });
+    expect(scale).toBeGreaterThan(1e-3);
+    expect(worst).toBeLessThan(1e-6 * scale);
+  });
+
+  it('gives a merit for another stack the residuals of a fresh merit, bit for bit', () => {
+    // Reference: createMaskMerit of the other stack, which the RMS identity tests above hold.
+    const first = createMaskMerit(stack, mixedMask, { marginPercent: 0.1 });
+    const otherStack: OpticalStack = {
+      ...stack,
+      layers: [...stack.layers, { material: stack.layers[1]?.material ?? c(2), thicknessNm: 12 }],
+    };
+    const other = first.withStack(otherStack);
+    const fresh = createMaskMerit(otherStack, mixedMask, { marginPercent: 0.1 });
+    const d = otherStack.layers.map((l) => l.thicknessNm);
+    const got = new Float64Array(other.sampleCount);
+    const expected = new Float64Array(fresh.sampleCount);
+    const sum = other.residuals(got, d);
+    expect(sum).toBe(fresh.residuals(expected, d));
+    expect(sum).toBeGreaterThan(0);
+    expect(Array.from(got)).toEqual(Array.from(expected));
+    expect(other.layerCount).toBe(4);
   });
 
   it('adds target curves to the weighted RMS, on wavelengths the mask does not have', () => {

@@ -16,6 +16,7 @@ import {
   computeSpectrum,
   createSpectrumOutput,
   createSpectrumPlan,
+  createSpectrumPlanFor,
   roundWavelengthNm,
   setLayerThicknesses,
   type BackSurface,
@@ -94,6 +95,8 @@ interface SampleTable {
   index: Int32Array;
   /** 1 for T, 0 for R. */
   isT: Uint8Array;
+  /** Whether any sample is of T (else the Jacobian needs ∂R alone). */
+  hasT: boolean;
   kind: Uint8Array;
   /** Bound (max, min) or target, percent. */
   bound: Float64Array;
@@ -131,6 +134,8 @@ export class MaskMerit {
   /** The validated mask. */
   readonly mask: SpecMask;
   private derivatives: ThicknessDerivatives | null = null;
+  /** Spectrum points the last Jacobian needed (scratch of {@link jacobian}). */
+  private points: Uint8Array | null = null;
 
   private constructor(
     stack: OpticalStack,
@@ -138,13 +143,21 @@ export class MaskMerit {
     private readonly layout: GridLayout,
     private readonly samples: SampleTable,
     private readonly back: BackSurface,
+    previous: SpectrumPlan | null,
   ) {
     this.mask = mask;
-    this.plan = createSpectrumPlan(
-      stack,
-      { wavelengthsNm: layout.wavelengthsNm, anglesDeg: layout.anglesDeg, polarisations: layout.computed },
-      { back },
-    );
+    // Another stack on the same grid reuses the materials the previous plan checked and evaluated.
+    this.plan = previous
+      ? createSpectrumPlanFor(stack, previous)
+      : createSpectrumPlan(
+          stack,
+          {
+            wavelengthsNm: layout.wavelengthsNm,
+            anglesDeg: layout.anglesDeg,
+            polarisations: layout.computed,
+          },
+          { back },
+        );
     this.spectrum = createSpectrumOutput(this.plan);
     this.sampleCount = samples.count;
   }
@@ -160,12 +173,12 @@ export class MaskMerit {
     }
     const layout = gridLayout(checked, targets);
     const samples = sampleTable(checked, targets, layout, margin, options.smooth === true);
-    return new MaskMerit(stack, checked, layout, samples, options.back ?? 'none');
+    return new MaskMerit(stack, checked, layout, samples, options.back ?? 'none', null);
   }
 
   /** The same samples and margin for another stack (e.g. with a layer inserted). */
   withStack(stack: OpticalStack): MaskMerit {
-    return new MaskMerit(stack, this.mask, this.layout, this.samples, this.back);
+    return new MaskMerit(stack, this.mask, this.layout, this.samples, this.back, this.plan);
   }
 
   /** Number of front layers of the plan's stack. */
@@ -264,13 +277,22 @@ export class MaskMerit {
    */
   jacobian(jac: Float64Array, thicknessesNm: ArrayLike<number>, free: ArrayLike<number>): void {
     setLayerThicknesses(this.plan, thicknessesNm);
-    const d = (this.derivatives ??= createThicknessDerivatives(this.plan));
-    computeThicknessDerivatives(d, this.plan);
     const s = this.samples;
+    const wantT = s.hasT;
+    const d = (this.derivatives ??= createThicknessDerivatives(this.plan, { wantT }));
+    // Only the spectrum points of samples whose residual depends on them are swept.
+    const points = (this.points ??= new Uint8Array(this.plan.size));
+    points.fill(0);
+    for (let i = 0; i < s.count; i++) if (this.activity(i) === 1) points[s.index[i]] = 1;
+    computeThicknessDerivatives(d, this.plan, { wantT, points });
     const size = this.plan.size;
     const p = free.length;
     for (let i = 0; i < s.count; i++) {
-      const factor = 100 * s.scale[i] * this.activity(i);
+      if (this.activity(i) === 0) {
+        jac.fill(0, i * p, (i + 1) * p);
+        continue;
+      }
+      const factor = 100 * s.scale[i];
       const src = s.isT[i] === 1 ? d.dT : d.dR;
       const at = s.index[i];
       for (let j = 0; j < p; j++) jac[i * p + j] = factor * src[free[j] * size + at];
@@ -475,6 +497,7 @@ function sampleTable(
     count,
     index: new Int32Array(count),
     isT: new Uint8Array(count),
+    hasT: rows.some((row) => row.isT === 1),
     kind: new Uint8Array(count),
     bound: new Float64Array(count),
     tolerance: new Float64Array(count),

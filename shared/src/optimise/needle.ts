@@ -597,7 +597,8 @@ function refine(
     { maxIterations: ctx.maxIterations, derivatives: ctx.derivatives },
   );
   const out = list.map((l, i) => ({ material: l.material, thicknessNm: fit.thicknessesNm[i] }));
-  const sum = merit.residuals(ctx.residual, fit.thicknessesNm);
+  // refineThicknesses leaves the merit's spectrum at its result.
+  const sum = merit.residualsOf(ctx.residual, true);
   return { layers: out, sum, merit };
 }
 
