@@ -416,6 +416,7 @@ function sweepLayers(
   const L = w.layerCount;
   const size = plan.size;
   backwardPass(plan, s, iw, beta2, p);
+  // Without T the second row is neither used nor carried (a third of the sweep's work).
   if (!wantT) {
     sweepReflectance(out.dR, s, L, size, k0, idx, weight);
     return;
@@ -444,12 +445,9 @@ function sweepLayers(
     const dR = 2 * (ROW[0] * g1r - ROW[1] * g1i + ROW[2] * g2r - ROW[3] * g2i);
     out.dR[l * size + idx] += weight * dR;
     rowTimesLayer(ROW, 0, s, l);
-    // Without T the second row is neither used nor carried (a third of the sweep's work).
-    if (wantT) {
-      const dT = 2 * (ROW[4] * g1r - ROW[5] * g1i + ROW[6] * g2r - ROW[7] * g2i);
-      out.dT[l * size + idx] += weight * dT;
-      rowTimesLayer(ROW, 4, s, l);
-    }
+    const dT = 2 * (ROW[4] * g1r - ROW[5] * g1i + ROW[6] * g2r - ROW[7] * g2i);
+    out.dT[l * size + idx] += weight * dT;
+    rowTimesLayer(ROW, 4, s, l);
   }
 }
 

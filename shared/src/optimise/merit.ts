@@ -136,6 +136,8 @@ export class MaskMerit {
   private derivatives: ThicknessDerivatives | null = null;
   /** Spectrum points the last Jacobian needed (scratch of {@link jacobian}). */
   private points: Uint8Array | null = null;
+  /** Per sample, whether its residual depended on the spectrum in the last Jacobian (scratch). */
+  private active: Uint8Array | null = null;
 
   private constructor(
     stack: OpticalStack,
@@ -282,13 +284,17 @@ export class MaskMerit {
     const d = (this.derivatives ??= createThicknessDerivatives(this.plan, { wantT }));
     // Only the spectrum points of samples whose residual depends on them are swept.
     const points = (this.points ??= new Uint8Array(this.plan.size));
+    const active = (this.active ??= new Uint8Array(s.count));
     points.fill(0);
-    for (let i = 0; i < s.count; i++) if (this.activity(i) === 1) points[s.index[i]] = 1;
+    for (let i = 0; i < s.count; i++) {
+      active[i] = this.activity(i);
+      if (active[i] === 1) points[s.index[i]] = 1;
+    }
     computeThicknessDerivatives(d, this.plan, { wantT, points });
     const size = this.plan.size;
     const p = free.length;
     for (let i = 0; i < s.count; i++) {
-      if (this.activity(i) === 0) {
+      if (active[i] === 0) {
         jac.fill(0, i * p, (i + 1) * p);
         continue;
       }
